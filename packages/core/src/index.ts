@@ -1,0 +1,39 @@
+export {
+  BridgeworkError,
+  errorCodeDescriptions,
+  errorCodes,
+  isBridgeworkError,
+  type BridgeworkErrorDetails,
+  type ErrorCode,
+  type SpecIssue,
+} from './BridgeworkError.js';
+export {
+  checkFinite,
+  checkInteger,
+  checkLength,
+  checkNonNegative,
+  checkObject,
+  checkOneOf,
+  checkPositive,
+  checkRange,
+  describeRange,
+  formatValue,
+  requireOption,
+  type CheckPositiveOptions,
+  type RangeLimits,
+} from './checks.js';
+export {
+  BOLTZMANN_JOULES_PER_KELVIN,
+  STANDARD_GRAVITY_METERS_PER_SECOND_SQUARED,
+  ZERO_CELSIUS_KELVIN,
+  celsiusFromKelvin,
+  kelvinFromCelsius,
+} from './constants.js';
+export { differenceOfProducts, exactDecimalString, twoProduct } from './numeric.js';
+export { leadWirings, type LeadWiring, type LeadsOptions } from './options.js';
+export {
+  microstrainFromStrain,
+  millivoltsPerVoltFromRatio,
+  ratioFromMillivoltsPerVolt,
+  strainFromMicrostrain,
+} from './units.js';
