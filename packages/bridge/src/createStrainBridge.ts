@@ -1,0 +1,341 @@
+import {
+  BridgeworkError,
+  checkFinite,
+  checkNonNegative,
+  checkObject,
+  checkOneOf,
+  checkPositive,
+  checkRange,
+  differenceOfProducts,
+  formatValue,
+  requireOption,
+  type LeadsOptions,
+} from '@bridgework/core';
+import { arrangementTable, needsPoissonRatio, strainArrangements, type StrainArrangement } from './arrangements.js';
+
+/** Options of {@link createStrainBridge}. */
+export interface StrainBridgeOptions {
+  /** The arrangement of gauges in the bridge (see {@link StrainArrangement}). */
+  readonly arrangement: StrainArrangement;
+  /** Gauge factor of every active gauge (> 0), as stated on the gauge package. */
+  readonly gaugeFactor: number;
+  /** Unstrained resistance of each gauge in Ω (> 0). Default 350. */
+  readonly gaugeOhms?: number;
+  /** Resistance of each completion resistor in Ω (> 0). Default `gaugeOhms`. */
+  readonly completionOhms?: number;
+  /**
+   * Poisson ratio of the specimen, in (−1, 0.5]. Required by `'half-poisson'`, `'full-poisson'`
+   * and `'full-bending-poisson'`; ignored by the others.
+   */
+  readonly poissonRatio?: number;
+  /**
+   * Lead wires: `'two-wire'` or `'three-wire'` for `'quarter'`; `'three-wire'` for
+   * `'half-bending'` and `'half-poisson'`; `'two-wire'` (each gauge on its own pair) for
+   * `'half-opposite'`; `'four-wire'` or `'six-wire'` (remote sense) for the full bridges.
+   * Default: no lead resistance.
+   */
+  readonly leads?: LeadsOptions;
+  /**
+   * Series resistance of the excitation source in Ω (≥ 0). Default 0. With `'six-wire'` leads the
+   * excitation is sensed at the bridge, so it has no effect.
+   */
+  readonly sourceOhms?: number;
+}
+
+/** Options of a strain bridge's `strainFromRatio`. */
+export interface StrainFromRatioOptions {
+  /**
+   * The reading (V/V) taken at zero load. When given, the exact two-reading method is used: the
+   * active gauge is solved at zero and at load, and the result is its strain change relative to
+   * its resistance at zero, rather than a difference of ratios.
+   */
+  readonly zeroRatio?: number;
+}
+
+/** An open interval `(min, max)`. */
+export interface OpenInterval {
+  /** Lower end (excluded). */
+  readonly min: number;
+  /** Upper end (excluded). */
+  readonly max: number;
+}
+
+/** A configured strain bridge: exact maps between strain and output ratio (see {@link createStrainBridge}). */
+export interface StrainBridge {
+  /** The arrangement. */
+  readonly arrangement: StrainArrangement;
+  /** Gauge factor used. */
+  readonly gaugeFactor: number;
+  /** Gauge resistance in Ω. */
+  readonly gaugeOhms: number;
+  /** Completion resistance in Ω. */
+  readonly completionOhms: number;
+  /** Poisson ratio used (`undefined` when the arrangement has no transverse gauge). */
+  readonly poissonRatio: number | undefined;
+  /** Resistance in series with the excitation (source plus four-wire excitation leads) in Ω. */
+  readonly seriesOhms: number;
+  /** Nominal bridge factor N: Vout/Vexc ≈ N·GF·ε/4 for small strain, equal arms and no leads. */
+  readonly bridgeFactor: number;
+  /** Exact slope d(ratio)/d(strain) at zero strain, leads and completion included, in V/V per m/m. */
+  readonly sensitivity: number;
+  /** Output ratio at zero strain (non-zero with two-wire leads or unequal completion), V/V. */
+  readonly offsetRatio: number;
+  /** Strains for which every gauge resistance stays positive (open interval), m/m. */
+  readonly strainRange: OpenInterval;
+  /** Ratios the bridge can produce over `strainRange` (open interval), V/V. */
+  readonly ratioRange: OpenInterval;
+  /**
+   * The exact map as a ratio of quadratics in strain ε:
+   * ratio = (n0 + n1·ε + n2·ε²)/(d0 + d1·ε + d2·ε²). Both polynomials are in Ω².
+   */
+  readonly rational: {
+    /** Numerator coefficients `[n0, n1, n2]`. */
+    readonly numerator: readonly [number, number, number];
+    /** Denominator coefficients `[d0, d1, d2]`. */
+    readonly denominator: readonly [number, number, number];
+  };
+  /**
+   * Exact output ratio Vout/Vexc (V/V) for a strain.
+   *
+   * @param strain - Strain in m/m, inside `strainRange`.
+   * @throws {@link @bridgework/core!BridgeworkError} `not-finite`, `wrong-type`, `out-of-range`.
+   */
+  ratioFromStrain(strain: number): number;
+  /**
+   * Exact strain (m/m) for an output ratio, optionally referenced to a zero reading.
+   *
+   * @param ratio - Vout/Vexc in V/V, inside `ratioRange`.
+   * @param options - `zeroRatio` for the two-reading method.
+   * @throws {@link @bridgework/core!BridgeworkError} `not-finite`, `wrong-type`, `ratio-out-of-range`.
+   */
+  strainFromRatio(ratio: number, options?: StrainFromRatioOptions): number;
+  /**
+   * Fractional shortfall of the exact output against the tangent line at zero strain:
+   * 1 − (ratio(ε) − ratio(0))/(sensitivity·ε); 0 at ε = 0, positive when the bridge reads low.
+   *
+   * @param strain - Strain in m/m, inside `strainRange`.
+   */
+  nonlinearity(strain: number): number;
+  /**
+   * The linear approximation `offsetRatio + sensitivity·ε` (a named extra, not the exact map).
+   *
+   * @param strain - Strain in m/m.
+   */
+  linearRatioFromStrain(strain: number): number;
+  /**
+   * The four arm resistances in Ω at a strain, including lead resistance inside the arms (but not
+   * the series excitation resistance), for a cross-check with `solveBridge`.
+   *
+   * @param strain - Strain in m/m, inside `strainRange`.
+   */
+  armsOhms(strain: number): [number, number, number, number];
+}
+
+type Quad = readonly [number, number, number];
+
+function evaluate(c: Quad, x: number): number {
+  return c[0] + x * (c[1] + x * c[2]);
+}
+
+/** Limit of n(x)/d(x) as x → ±∞ (sign = ±1), or the value at a finite x. */
+function ratioAt(n: Quad, d: Quad, x: number): number {
+  if (Number.isFinite(x)) return evaluate(n, x) / evaluate(d, x);
+  if (d[2] !== 0) return n[2] / d[2];
+  if (d[1] !== 0 && n[2] === 0) return n[1] / d[1];
+  return Math.sign(x) * Infinity;
+}
+
+/**
+ * Creates an exact strain bridge for one of the standard arrangements, with leads.
+ *
+ * @remarks
+ * Each arm is affine in strain, Ri = pi + gi·ε (pi the unstrained arm with its leads, gi = Rg·GF·si
+ * with si the arm's strain multiplier from {@link StrainArrangement}), so the unloaded bridge with
+ * a series excitation resistance Rser gives exactly
+ *
+ *   ratio = (R1R3 − R2R4) / ((R1 + R2)(R3 + R4) + Rser·(R1 + R2 + R3 + R4)),
+ *
+ * a ratio of two quadratics in ε (the same closed form as {@link solveBridge} with an infinite
+ * meter resistance). The inverse solves the quadratic (r·d2 − n2)ε² + (r·d1 − n1)ε + (r·d0 − n0) = 0
+ * in closed form with the cancellation-free root formula and picks the root inside `strainRange`
+ * (n2 = d2 = 0, a Möbius map, for all but `'half-opposite'`, `'full-poisson'` and
+ * `'full-bending-poisson'`; the first two still reduce to Möbius maps, their second root lying
+ * outside `strainRange`). The round trip is exact to a few ulps. Lead wiring: two-wire puts both
+ * leads in series with the quarter-bridge gauge (arm 1); three-wire puts one lead in arm 1 and one
+ * in arm 2 and the sense lead carries no current; four-wire puts both excitation leads in series
+ * with the excitation; six-wire senses the excitation at the bridge. Equations and their sources
+ * are in docs/bridge.md. The meter is taken as ideal (infinite input resistance); use
+ * {@link solveBridge} for meter loading.
+ *
+ * The two-reading method (`zeroRatio`): with ε0 and ε1 the strains solved from the zero and load
+ * readings, the gauge of arm 1 has resistance Rg(1 + GF·ε0) at zero and Rg(1 + GF·ε1) at load, so
+ * the strain from zero is (ε1 − ε0)/(1 + GF·ε0). This is exact for a quarter bridge whose zero
+ * offset comes from the gauge itself; for the other arrangements the zero offset is attributed to
+ * the same strain pattern.
+ *
+ * @param options - Arrangement, gauge factor, resistances, Poisson ratio, leads, source resistance.
+ * @returns An evaluator: exact forward and inverse maps, sensitivity, ranges and nonlinearity.
+ * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for an unknown arrangement or a wiring
+ *   the arrangement cannot take; `missing-option` when a Poisson arrangement has no `poissonRatio`;
+ *   `out-of-range` for a Poisson ratio outside (−1, 0.5]; `not-positive`, `not-finite`, `negative`,
+ *   `wrong-type` for bad numbers.
+ * @example
+ * ```ts
+ * const bridge = createStrainBridge({ arrangement: 'quarter', gaugeFactor: 2 });
+ * bridge.ratioFromStrain(1e-3); // 4.995004995004995e-4 (0.4995 mV/V)
+ * bridge.strainFromRatio(4.995004995004995e-4); // 0.001
+ * ```
+ */
+export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
+  const o = checkObject('options', options);
+  const arrangement = checkOneOf('arrangement', o['arrangement'], strainArrangements);
+  const gaugeFactor = checkPositive('gaugeFactor', o['gaugeFactor']);
+  const gaugeOhms = o['gaugeOhms'] === undefined ? 350 : checkPositive('gaugeOhms', o['gaugeOhms']);
+  const completionOhms =
+    o['completionOhms'] === undefined ? gaugeOhms : checkPositive('completionOhms', o['completionOhms']);
+  const poissonRatio = needsPoissonRatio(arrangement)
+    ? checkRange(
+        'poissonRatio',
+        requireOption('poissonRatio', o['poissonRatio'], `for '${arrangement}'`),
+        { min: -1, max: 0.5, minExclusive: true },
+      )
+    : undefined;
+  const sourceOhms = o['sourceOhms'] === undefined ? 0 : checkNonNegative('sourceOhms', o['sourceOhms']);
+  const info = arrangementTable[arrangement];
+
+  let leadsInArms: [number, number, number, number] = [0, 0, 0, 0];
+  let seriesOhms = sourceOhms;
+  let leads: LeadsOptions | undefined;
+  if (o['leads'] !== undefined) {
+    const l = checkObject('leads', o['leads']);
+    const ohmsPerLead = checkNonNegative('leads.ohmsPerLead', l['ohmsPerLead']);
+    const wiring = checkOneOf('leads.wiring', l['wiring'], info.wirings);
+    leads = { ohmsPerLead, wiring };
+    if (wiring === 'two-wire') {
+      leadsInArms = arrangement === 'quarter' ? [2 * ohmsPerLead, 0, 0, 0] : [2 * ohmsPerLead, 0, 2 * ohmsPerLead, 0];
+    } else if (wiring === 'three-wire') {
+      leadsInArms = [ohmsPerLead, ohmsPerLead, 0, 0];
+    } else if (wiring === 'four-wire') {
+      seriesOhms = sourceOhms + 2 * ohmsPerLead;
+    } else {
+      seriesOhms = 0; // six-wire: the ratio is referred to the excitation sensed at the bridge
+    }
+  }
+
+  // Arm i = p[i] + g[i]·ε.
+  const nu = poissonRatio ?? 0;
+  const multipliers = info.arms.map((gauge) => (gauge === null ? 0 : gauge[0] + gauge[1] * nu));
+  const p = info.arms.map((gauge, i) => (gauge === null ? completionOhms : gaugeOhms) + (leadsInArms[i] as number));
+  const g = multipliers.map((s) => gaugeOhms * gaugeFactor * s);
+  const [p1, p2, p3, p4] = p as [number, number, number, number];
+  const [g1, g2, g3, g4] = g as [number, number, number, number];
+
+  const numerator: Quad = [
+    differenceOfProducts(p1, p3, p2, p4),
+    p1 * g3 + p3 * g1 - p2 * g4 - p4 * g2,
+    differenceOfProducts(g1, g3, g2, g4),
+  ];
+  const pSum0 = p1 + p2;
+  const pSum1 = g1 + g2;
+  const qSum0 = p3 + p4;
+  const qSum1 = g3 + g4;
+  const denominator: Quad = [
+    pSum0 * qSum0 + seriesOhms * (pSum0 + qSum0),
+    pSum0 * qSum1 + pSum1 * qSum0 + seriesOhms * (pSum1 + qSum1),
+    pSum1 * qSum1,
+  ];
+
+  // Strains keeping every gauge resistance Rg(1 + GF·s·ε) positive.
+  let strainMin = -Infinity;
+  let strainMax = Infinity;
+  for (const s of multipliers) {
+    if (s > 0) strainMin = Math.max(strainMin, -1 / (gaugeFactor * s));
+    if (s < 0) strainMax = Math.min(strainMax, -1 / (gaugeFactor * s));
+  }
+  const strainRange: OpenInterval = { min: strainMin, max: strainMax };
+  const ratioEnds = [ratioAt(numerator, denominator, strainMin), ratioAt(numerator, denominator, strainMax)];
+  const ratioRange: OpenInterval = { min: Math.min(...ratioEnds), max: Math.max(...ratioEnds) };
+
+  const [n0, n1, n2] = numerator;
+  const [d0, d1, d2] = denominator;
+  const a = n1 * d0 - n0 * d1;
+  const b = n2 * d0 - n0 * d2;
+  const sensitivity = a / (d0 * d0);
+  const offsetRatio = n0 / d0;
+
+  function checkStrain(param: string, value: unknown): number {
+    const strain = checkFinite(param, value);
+    if (!(strain > strainMin && strain < strainMax)) {
+      throw new BridgeworkError(
+        'out-of-range',
+        `\`${param}\` must be in (${strainMin}, ${strainMax}) so that every gauge resistance stays positive; got ${formatValue(strain)}`,
+        { param, value: strain, limit: [strainMin, strainMax] },
+      );
+    }
+    return strain;
+  }
+
+  function solve(param: string, value: unknown): number {
+    const r = checkFinite(param, value);
+    const qa = r * d2 - n2;
+    const qb = r * d1 - n1;
+    const qc = differenceOfProducts(r, d0, n0, 1);
+    // Roots of qa·ε² + qb·ε + qc = 0: keep the one inside the strain range (at most one lies
+    // there, since the map is strictly increasing on it). No allocation: this runs per sample.
+    let strain = Number.NaN;
+    if (qa === 0) {
+      strain = -qc / qb;
+    } else {
+      const disc = qb * qb - 4 * qa * qc;
+      if (disc >= 0) {
+        const q = -0.5 * (qb + (qb < 0 ? -Math.sqrt(disc) : Math.sqrt(disc)));
+        strain = qc / q;
+        if (!(strain > strainMin && strain < strainMax)) strain = q / qa;
+      }
+    }
+    if (!(strain > strainMin && strain < strainMax && r > ratioRange.min && r < ratioRange.max)) {
+      throw new BridgeworkError(
+        'ratio-out-of-range',
+        `\`${param}\` must be in (${ratioRange.min}, ${ratioRange.max}) for a '${arrangement}' bridge; got ${formatValue(r)}`,
+        { param, value: r, limit: [ratioRange.min, ratioRange.max] },
+      );
+    }
+    return strain;
+  }
+
+  return {
+    arrangement,
+    gaugeFactor,
+    gaugeOhms,
+    completionOhms,
+    poissonRatio,
+    seriesOhms,
+    bridgeFactor: multipliers[0]! + multipliers[2]! - (multipliers[1]! + multipliers[3]!),
+    sensitivity,
+    offsetRatio,
+    strainRange,
+    ratioRange,
+    rational: { numerator, denominator },
+    ratioFromStrain(strain: number): number {
+      const e = checkStrain('strain', strain);
+      return evaluate(numerator, e) / evaluate(denominator, e);
+    },
+    strainFromRatio(ratio: number, opts: StrainFromRatioOptions = {}): number {
+      const strain = solve('ratio', ratio);
+      if (opts.zeroRatio === undefined) return strain;
+      const zero = solve('zeroRatio', opts.zeroRatio);
+      return (strain - zero) / (1 + gaugeFactor * zero);
+    },
+    nonlinearity(strain: number): number {
+      const e = checkStrain('strain', strain);
+      return (e * (a * (d1 + e * d2) - d0 * b)) / (evaluate(denominator, e) * a);
+    },
+    linearRatioFromStrain(strain: number): number {
+      return offsetRatio + sensitivity * checkFinite('strain', strain);
+    },
+    armsOhms(strain: number): [number, number, number, number] {
+      const e = checkStrain('strain', strain);
+      return [p1 + g1 * e, p2 + g2 * e, p3 + g3 * e, p4 + g4 * e];
+    },
+  };
+}

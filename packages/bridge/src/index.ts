@@ -1,0 +1,10 @@
+export { needsPoissonRatio, strainArrangements, type StrainArrangement } from './arrangements.js';
+export {
+  createStrainBridge,
+  type OpenInterval,
+  type StrainBridge,
+  type StrainBridgeOptions,
+  type StrainFromRatioOptions,
+} from './createStrainBridge.js';
+export { solveArm, type SolveArmOptions } from './solveArm.js';
+export { solveBridge, type BridgeSolution, type SolveBridgeOptions } from './solveBridge.js';
