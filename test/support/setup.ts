@@ -23,7 +23,10 @@ expect.extend({
     const e = toArray(expected);
     const tol = JSON.stringify(tolerance);
     if (a === undefined || e === undefined) {
-      return { pass: false, message: () => `toBeNear compares numbers or numeric arrays; got ${typeof received}` };
+      return {
+        pass: false,
+        message: () => `toBeNear compares numbers or numeric arrays; got ${typeof received}`,
+      };
     }
     if (a.length !== e.length) {
       return { pass: false, message: () => `expected length ${e.length}, got ${a.length}` };
@@ -35,11 +38,16 @@ expect.extend({
         const where = a.length > 1 ? ` at index ${i}` : '';
         return {
           pass: false,
-          message: () => `expected ${ai} to be near ${ei}${where} within ${tol} (${describeDistance(ai, ei)})`,
+          message: () =>
+            `expected ${ai} to be near ${ei}${where} within ${tol} (${describeDistance(ai, ei)})`,
         };
       }
     }
-    return { pass: true, message: () => `expected ${JSON.stringify(received)} not to be near ${JSON.stringify(expected)} within ${tol}` };
+    return {
+      pass: true,
+      message: () =>
+        `expected ${JSON.stringify(received)} not to be near ${JSON.stringify(expected)} within ${tol}`,
+    };
   },
 
   toThrowBridgeworkError(received: unknown, code: ErrorCode, fields: { param?: string } = {}) {
@@ -53,12 +61,21 @@ expect.extend({
         return { pass: false, message: () => `expected a BridgeworkError '${code}', got ${String(error)}` };
       }
       if (error.code !== code) {
-        return { pass: false, message: () => `expected code '${code}', got '${error.code}': ${error.message}` };
+        return {
+          pass: false,
+          message: () => `expected code '${code}', got '${error.code}': ${error.message}`,
+        };
       }
       if (fields.param !== undefined && error.param !== fields.param) {
-        return { pass: false, message: () => `expected param '${fields.param}', got '${String(error.param)}'` };
+        return {
+          pass: false,
+          message: () => `expected param '${fields.param}', got '${String(error.param)}'`,
+        };
       }
-      return { pass: true, message: () => `expected no BridgeworkError '${code}', got one: ${error.message}` };
+      return {
+        pass: true,
+        message: () => `expected no BridgeworkError '${code}', got one: ${error.message}`,
+      };
     }
     return { pass: false, message: () => `expected a BridgeworkError '${code}', but nothing was thrown` };
   },

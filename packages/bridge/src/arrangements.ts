@@ -57,10 +57,42 @@ export const arrangementTable: Readonly<Record<StrainArrangement, ArrangementInf
   'half-bending': { arms: [[1, 0], [-1, 0], null, null], wirings: ['three-wire'] },
   'half-poisson': { arms: [[1, 0], [0, -1], null, null], wirings: ['three-wire'] },
   'half-opposite': { arms: [[1, 0], null, [1, 0], null], wirings: ['two-wire'] },
-  'full-bending': { arms: [[1, 0], [-1, 0], [1, 0], [-1, 0]], wirings: ['four-wire', 'six-wire'] },
-  'full-poisson': { arms: [[1, 0], [0, -1], [1, 0], [0, -1]], wirings: ['four-wire', 'six-wire'] },
-  'full-shear': { arms: [[1, 0], [-1, 0], [1, 0], [-1, 0]], wirings: ['four-wire', 'six-wire'] },
-  'full-bending-poisson': { arms: [[1, 0], [0, -1], [0, 1], [-1, 0]], wirings: ['four-wire', 'six-wire'] },
+  'full-bending': {
+    arms: [
+      [1, 0],
+      [-1, 0],
+      [1, 0],
+      [-1, 0],
+    ],
+    wirings: ['four-wire', 'six-wire'],
+  },
+  'full-poisson': {
+    arms: [
+      [1, 0],
+      [0, -1],
+      [1, 0],
+      [0, -1],
+    ],
+    wirings: ['four-wire', 'six-wire'],
+  },
+  'full-shear': {
+    arms: [
+      [1, 0],
+      [-1, 0],
+      [1, 0],
+      [-1, 0],
+    ],
+    wirings: ['four-wire', 'six-wire'],
+  },
+  'full-bending-poisson': {
+    arms: [
+      [1, 0],
+      [0, -1],
+      [0, 1],
+      [-1, 0],
+    ],
+    wirings: ['four-wire', 'six-wire'],
+  },
 };
 
 /**

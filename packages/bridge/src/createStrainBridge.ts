@@ -11,7 +11,12 @@ import {
   requireOption,
   type LeadsOptions,
 } from '@bridgework/core';
-import { arrangementTable, needsPoissonRatio, strainArrangements, type StrainArrangement } from './arrangements.js';
+import {
+  arrangementTable,
+  needsPoissonRatio,
+  strainArrangements,
+  type StrainArrangement,
+} from './arrangements.js';
 
 /** Options of {@link createStrainBridge}. */
 export interface StrainBridgeOptions {
@@ -194,11 +199,11 @@ export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
   const completionOhms =
     o['completionOhms'] === undefined ? gaugeOhms : checkPositive('completionOhms', o['completionOhms']);
   const poissonRatio = needsPoissonRatio(arrangement)
-    ? checkRange(
-        'poissonRatio',
-        requireOption('poissonRatio', o['poissonRatio'], `for '${arrangement}'`),
-        { min: -1, max: 0.5, minExclusive: true },
-      )
+    ? checkRange('poissonRatio', requireOption('poissonRatio', o['poissonRatio'], `for '${arrangement}'`), {
+        min: -1,
+        max: 0.5,
+        minExclusive: true,
+      })
     : undefined;
   const sourceOhms = o['sourceOhms'] === undefined ? 0 : checkNonNegative('sourceOhms', o['sourceOhms']);
   const info = arrangementTable[arrangement];
@@ -212,7 +217,8 @@ export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
     const wiring = checkOneOf('leads.wiring', l['wiring'], info.wirings);
     leads = { ohmsPerLead, wiring };
     if (wiring === 'two-wire') {
-      leadsInArms = arrangement === 'quarter' ? [2 * ohmsPerLead, 0, 0, 0] : [2 * ohmsPerLead, 0, 2 * ohmsPerLead, 0];
+      leadsInArms =
+        arrangement === 'quarter' ? [2 * ohmsPerLead, 0, 0, 0] : [2 * ohmsPerLead, 0, 2 * ohmsPerLead, 0];
     } else if (wiring === 'three-wire') {
       leadsInArms = [ohmsPerLead, ohmsPerLead, 0, 0];
     } else if (wiring === 'four-wire') {
@@ -225,7 +231,9 @@ export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
   // Arm i = p[i] + g[i]·ε.
   const nu = poissonRatio ?? 0;
   const multipliers = info.arms.map((gauge) => (gauge === null ? 0 : gauge[0] + gauge[1] * nu));
-  const p = info.arms.map((gauge, i) => (gauge === null ? completionOhms : gaugeOhms) + (leadsInArms[i] as number));
+  const p = info.arms.map(
+    (gauge, i) => (gauge === null ? completionOhms : gaugeOhms) + (leadsInArms[i] as number),
+  );
   const g = multipliers.map((s) => gaugeOhms * gaugeFactor * s);
   const [p1, p2, p3, p4] = p as [number, number, number, number];
   const [g1, g2, g3, g4] = g as [number, number, number, number];

@@ -1,5 +1,13 @@
 import { BridgeworkError, checkFinite, formatValue } from '@bridgework/core';
-import { ACROSS, OPPOSITE, PARTNER, SIGN, checkArms, checkCircuit, checkOptions } from './internal/network.js';
+import {
+  ACROSS,
+  OPPOSITE,
+  PARTNER,
+  SIGN,
+  checkArms,
+  checkCircuit,
+  checkOptions,
+} from './internal/network.js';
 
 /** Options of {@link solveArm}. */
 export interface SolveArmOptions {

@@ -195,7 +195,12 @@ describe('createStrainBridge: leads', () => {
   it('three-wire quarter bridge: no zero offset, span reduced by exactly Rg/(Rg + RL)', () => {
     // Common practice: the three-wire circuit puts one lead in each of arms 1 and 2, so lead
     // resistance cancels at balance and desensitizes by Rg/(Rg + RL) (equal completion).
-    const b = createStrainBridge({ arrangement: 'quarter', gaugeFactor: 2, gaugeOhms: rg, leads: { ohmsPerLead: rl, wiring: 'three-wire' } });
+    const b = createStrainBridge({
+      arrangement: 'quarter',
+      gaugeFactor: 2,
+      gaugeOhms: rg,
+      leads: { ohmsPerLead: rl, wiring: 'three-wire' },
+    });
     const ideal = createStrainBridge({ arrangement: 'quarter', gaugeFactor: 2, gaugeOhms: rg });
     expect(b.offsetRatio).toBe(0);
     expect(b.ratioFromStrain(0)).toBe(0);
@@ -217,14 +222,29 @@ describe('createStrainBridge: leads', () => {
   });
 
   it('two-wire quarter bridge with nominal completion shows the lead offset 2RL/(2(2Rg + 2RL))', () => {
-    const b = createStrainBridge({ arrangement: 'quarter', gaugeFactor: 2, gaugeOhms: rg, leads: { ohmsPerLead: rl, wiring: 'two-wire' } });
+    const b = createStrainBridge({
+      arrangement: 'quarter',
+      gaugeFactor: 2,
+      gaugeOhms: rg,
+      leads: { ohmsPerLead: rl, wiring: 'two-wire' },
+    });
     expect(b.offsetRatio).toBeNear((2 * rl) / (2 * (2 * rg + 2 * rl)), { rel: 1e-15 });
   });
 
   it('four-wire full bridge: span factor Rin/(Rin + 2RL); six-wire remote sense removes it', () => {
     // Common practice: excitation-lead drop on a 4-wire cable scales the output by Rin/(Rin + 2RL).
-    const four = createStrainBridge({ arrangement: 'full-bending', gaugeFactor: 2, gaugeOhms: rg, leads: { ohmsPerLead: rl, wiring: 'four-wire' } });
-    const six = createStrainBridge({ arrangement: 'full-bending', gaugeFactor: 2, gaugeOhms: rg, leads: { ohmsPerLead: rl, wiring: 'six-wire' } });
+    const four = createStrainBridge({
+      arrangement: 'full-bending',
+      gaugeFactor: 2,
+      gaugeOhms: rg,
+      leads: { ohmsPerLead: rl, wiring: 'four-wire' },
+    });
+    const six = createStrainBridge({
+      arrangement: 'full-bending',
+      gaugeFactor: 2,
+      gaugeOhms: rg,
+      leads: { ohmsPerLead: rl, wiring: 'six-wire' },
+    });
     const ideal = createStrainBridge({ arrangement: 'full-bending', gaugeFactor: 2, gaugeOhms: rg });
     // A full-bending bridge's input resistance stays Rg at every strain.
     for (const e of [-0.01, 1e-3, 0.02]) {
@@ -237,18 +257,30 @@ describe('createStrainBridge: leads', () => {
 
   it('rejects wirings an arrangement cannot take', () => {
     expect(() =>
-      createStrainBridge({ arrangement: 'quarter', gaugeFactor: 2, leads: { ohmsPerLead: 1, wiring: 'four-wire' } }),
+      createStrainBridge({
+        arrangement: 'quarter',
+        gaugeFactor: 2,
+        leads: { ohmsPerLead: 1, wiring: 'four-wire' },
+      }),
     ).toThrowBridgeworkError('invalid-option', { param: 'leads.wiring' });
     expect(() =>
-      createStrainBridge({ arrangement: 'full-poisson', gaugeFactor: 2, poissonRatio: 0.3, leads: { ohmsPerLead: 1, wiring: 'three-wire' } }),
+      createStrainBridge({
+        arrangement: 'full-poisson',
+        gaugeFactor: 2,
+        poissonRatio: 0.3,
+        leads: { ohmsPerLead: 1, wiring: 'three-wire' },
+      }),
     ).toThrowBridgeworkError('invalid-option', { param: 'leads.wiring' });
     expect(() =>
-      createStrainBridge({ arrangement: 'quarter', gaugeFactor: 2, leads: { ohmsPerLead: -1, wiring: 'two-wire' } }),
+      createStrainBridge({
+        arrangement: 'quarter',
+        gaugeFactor: 2,
+        leads: { ohmsPerLead: -1, wiring: 'two-wire' },
+      }),
     ).toThrowBridgeworkError('negative', { param: 'leads.ohmsPerLead' });
-    expect(() => createStrainBridge({ arrangement: 'quarter', gaugeFactor: 2, leads: 3 as never })).toThrowBridgeworkError(
-      'wrong-type',
-      { param: 'leads' },
-    );
+    expect(() =>
+      createStrainBridge({ arrangement: 'quarter', gaugeFactor: 2, leads: 3 as never }),
+    ).toThrowBridgeworkError('wrong-type', { param: 'leads' });
   });
 });
 
@@ -262,8 +294,19 @@ describe('createStrainBridge: two-reading method', () => {
         fc.constantFrom<LeadWiring | undefined>(undefined, 'two-wire', 'three-wire'),
         (actualOhms, ue, wiring) => {
           const leads = wiring === undefined ? {} : { leads: { ohmsPerLead: 0.8, wiring } };
-          const real = createStrainBridge({ arrangement: 'quarter', gaugeFactor: 2.05, gaugeOhms: actualOhms, completionOhms: 350, ...leads });
-          const nominal = createStrainBridge({ arrangement: 'quarter', gaugeFactor: 2.05, gaugeOhms: 350, ...leads });
+          const real = createStrainBridge({
+            arrangement: 'quarter',
+            gaugeFactor: 2.05,
+            gaugeOhms: actualOhms,
+            completionOhms: 350,
+            ...leads,
+          });
+          const nominal = createStrainBridge({
+            arrangement: 'quarter',
+            gaugeFactor: 2.05,
+            gaugeOhms: 350,
+            ...leads,
+          });
           const strain = ue / 1e6;
           const zeroRatio = real.ratioFromStrain(0);
           const got = nominal.strainFromRatio(real.ratioFromStrain(strain), { zeroRatio });
@@ -276,7 +319,12 @@ describe('createStrainBridge: two-reading method', () => {
 
   it('differs from subtracting ratios, which carries the zero offset into the span', () => {
     // A gauge 2 % above nominal: subtracting ratios reads 2000 µε as 1999.76 µε (−1.2e-4 relative).
-    const real = createStrainBridge({ arrangement: 'quarter', gaugeFactor: 2, gaugeOhms: 357, completionOhms: 350 });
+    const real = createStrainBridge({
+      arrangement: 'quarter',
+      gaugeFactor: 2,
+      gaugeOhms: 357,
+      completionOhms: 350,
+    });
     const nominal = createStrainBridge({ arrangement: 'quarter', gaugeFactor: 2, gaugeOhms: 350 });
     const zeroRatio = real.ratioFromStrain(0);
     const loaded = real.ratioFromStrain(2e-3);
@@ -305,16 +353,46 @@ describe('createStrainBridge: ranges and bad inputs', () => {
 
   it.each([
     ['unknown arrangement', { arrangement: 'quater', gaugeFactor: 2 }, 'invalid-option', 'arrangement'],
-    ['missing Poisson ratio', { arrangement: 'half-poisson', gaugeFactor: 2 }, 'missing-option', 'poissonRatio'],
-    ['Poisson ratio 0.6', { arrangement: 'full-poisson', gaugeFactor: 2, poissonRatio: 0.6 }, 'out-of-range', 'poissonRatio'],
-    ['Poisson ratio −1', { arrangement: 'full-poisson', gaugeFactor: 2, poissonRatio: -1 }, 'out-of-range', 'poissonRatio'],
-    ['Poisson ratio NaN', { arrangement: 'full-bending-poisson', gaugeFactor: 2, poissonRatio: Number.NaN }, 'not-finite', 'poissonRatio'],
+    [
+      'missing Poisson ratio',
+      { arrangement: 'half-poisson', gaugeFactor: 2 },
+      'missing-option',
+      'poissonRatio',
+    ],
+    [
+      'Poisson ratio 0.6',
+      { arrangement: 'full-poisson', gaugeFactor: 2, poissonRatio: 0.6 },
+      'out-of-range',
+      'poissonRatio',
+    ],
+    [
+      'Poisson ratio −1',
+      { arrangement: 'full-poisson', gaugeFactor: 2, poissonRatio: -1 },
+      'out-of-range',
+      'poissonRatio',
+    ],
+    [
+      'Poisson ratio NaN',
+      { arrangement: 'full-bending-poisson', gaugeFactor: 2, poissonRatio: Number.NaN },
+      'not-finite',
+      'poissonRatio',
+    ],
     ['zero gauge factor', { arrangement: 'quarter', gaugeFactor: 0 }, 'not-positive', 'gaugeFactor'],
     ['negative gauge factor', { arrangement: 'quarter', gaugeFactor: -2 }, 'not-positive', 'gaugeFactor'],
     ['NaN gauge factor', { arrangement: 'quarter', gaugeFactor: Number.NaN }, 'not-finite', 'gaugeFactor'],
     ['missing gauge factor', { arrangement: 'quarter' }, 'wrong-type', 'gaugeFactor'],
-    ['zero gauge resistance', { arrangement: 'quarter', gaugeFactor: 2, gaugeOhms: 0 }, 'not-positive', 'gaugeOhms'],
-    ['infinite completion', { arrangement: 'quarter', gaugeFactor: 2, completionOhms: Infinity }, 'not-finite', 'completionOhms'],
+    [
+      'zero gauge resistance',
+      { arrangement: 'quarter', gaugeFactor: 2, gaugeOhms: 0 },
+      'not-positive',
+      'gaugeOhms',
+    ],
+    [
+      'infinite completion',
+      { arrangement: 'quarter', gaugeFactor: 2, completionOhms: Infinity },
+      'not-finite',
+      'completionOhms',
+    ],
     ['negative source', { arrangement: 'quarter', gaugeFactor: 2, sourceOhms: -1 }, 'negative', 'sourceOhms'],
   ] as const)('%s → %s', (_name, options, code, param) => {
     expect(() => createStrainBridge(options as never)).toThrowBridgeworkError(code, { param });
@@ -330,8 +408,14 @@ describe('createStrainBridge: ranges and bad inputs', () => {
   });
 
   it('knows which arrangements need a Poisson ratio', () => {
-    expect(strainArrangements.filter(needsPoissonRatio)).toEqual(['half-poisson', 'full-poisson', 'full-bending-poisson']);
+    expect(strainArrangements.filter(needsPoissonRatio)).toEqual([
+      'half-poisson',
+      'full-poisson',
+      'full-bending-poisson',
+    ]);
     // A Poisson ratio given to an arrangement without a transverse gauge is ignored.
-    expect(createStrainBridge({ arrangement: 'quarter', gaugeFactor: 2, poissonRatio: 0.3 }).poissonRatio).toBeUndefined();
+    expect(
+      createStrainBridge({ arrangement: 'quarter', gaugeFactor: 2, poissonRatio: 0.3 }).poissonRatio,
+    ).toBeUndefined();
   });
 });

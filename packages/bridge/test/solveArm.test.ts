@@ -7,12 +7,26 @@ const ohms = fc.double({ min: 0, max: 6, noNaN: true }).map((d) => 10 ** d);
 const network = fc.record({
   armsOhms: fc.tuple(ohms, ohms, ohms, ohms),
   excitationVolts: fc.double({ min: 0.1, max: 20, noNaN: true }),
-  sourceOhms: fc.oneof(fc.constant(0), fc.double({ min: -2, max: 4, noNaN: true }).map((d) => 10 ** d)),
-  meterOhms: fc.oneof(fc.constant(Infinity), fc.double({ min: 2, max: 9, noNaN: true }).map((d) => 10 ** d)),
+  sourceOhms: fc.oneof(
+    fc.constant(0),
+    fc.double({ min: -2, max: 4, noNaN: true }).map((d) => 10 ** d),
+  ),
+  meterOhms: fc.oneof(
+    fc.constant(Infinity),
+    fc.double({ min: 2, max: 9, noNaN: true }).map((d) => 10 ** d),
+  ),
 });
 
-function withUnknown(arms: readonly number[], j: number): [number | null, number | null, number | null, number | null] {
-  return arms.map((r, i) => (i === j ? null : r)) as [number | null, number | null, number | null, number | null];
+function withUnknown(
+  arms: readonly number[],
+  j: number,
+): [number | null, number | null, number | null, number | null] {
+  return arms.map((r, i) => (i === j ? null : r)) as [
+    number | null,
+    number | null,
+    number | null,
+    number | null,
+  ];
 }
 
 describe('solveArm', () => {
@@ -59,8 +73,7 @@ describe('solveArm', () => {
 
   it('reports readings no positive arm can produce, with the reachable interval', () => {
     // With three 350 Ω arms and a stiff source, arm 1 from 0 to ∞ sweeps ratios (−1/2, 1/2).
-    const attempt = () =>
-      solveArm({ armsOhms: [null, 350, 350, 350], excitationVolts: 10, outputVolts: 6 });
+    const attempt = () => solveArm({ armsOhms: [null, 350, 350, 350], excitationVolts: 10, outputVolts: 6 });
     expect(attempt).toThrowBridgeworkError('no-solution', { param: 'outputVolts' });
     try {
       attempt();
@@ -68,30 +81,49 @@ describe('solveArm', () => {
       expect((e as { limit: number[] }).limit).toBeNear([-5, 5], { rel: 1e-15 });
     }
     // Exactly at an end of the interval: the arm would be 0 or infinite.
-    expect(() => solveArm({ armsOhms: [null, 350, 350, 350], excitationVolts: 10, outputVolts: -5 })).toThrowBridgeworkError(
-      'no-solution',
-    );
+    expect(() =>
+      solveArm({ armsOhms: [null, 350, 350, 350], excitationVolts: 10, outputVolts: -5 }),
+    ).toThrowBridgeworkError('no-solution');
   });
 
   it('rejects the wrong number of unknown arms and bad readings', () => {
     const base = { excitationVolts: 5, outputVolts: 1e-3 };
-    expect(() => solveArm({ ...base, armsOhms: [350, 350, 350, 350] })).toThrowBridgeworkError('unknown-count', {
-      param: 'armsOhms',
-    });
-    expect(() => solveArm({ ...base, armsOhms: [null, null, 350, 350] })).toThrowBridgeworkError('unknown-count');
-    expect(() => solveArm({ ...base, armsOhms: [null, 350, 350] as never })).toThrowBridgeworkError('invalid-shape');
-    expect(() => solveArm({ ...base, armsOhms: [null, 350, 0, 350] })).toThrowBridgeworkError('not-positive', {
-      param: 'armsOhms[2]',
-    });
+    expect(() => solveArm({ ...base, armsOhms: [350, 350, 350, 350] })).toThrowBridgeworkError(
+      'unknown-count',
+      {
+        param: 'armsOhms',
+      },
+    );
+    expect(() => solveArm({ ...base, armsOhms: [null, null, 350, 350] })).toThrowBridgeworkError(
+      'unknown-count',
+    );
+    expect(() => solveArm({ ...base, armsOhms: [null, 350, 350] as never })).toThrowBridgeworkError(
+      'invalid-shape',
+    );
+    expect(() => solveArm({ ...base, armsOhms: [null, 350, 0, 350] })).toThrowBridgeworkError(
+      'not-positive',
+      {
+        param: 'armsOhms[2]',
+      },
+    );
     const arms = [null, 350, 350, 350] as [null, number, number, number];
-    expect(() => solveArm({ ...base, armsOhms: arms, outputVolts: Number.NaN })).toThrowBridgeworkError('not-finite', {
-      param: 'outputVolts',
-    });
-    expect(() => solveArm({ ...base, armsOhms: arms, excitationVolts: 0 })).toThrowBridgeworkError('not-positive', {
-      param: 'excitationVolts',
-    });
-    expect(() => solveArm({ ...base, armsOhms: arms, meterOhms: -1 })).toThrowBridgeworkError('not-positive', {
-      param: 'meterOhms',
-    });
+    expect(() => solveArm({ ...base, armsOhms: arms, outputVolts: Number.NaN })).toThrowBridgeworkError(
+      'not-finite',
+      {
+        param: 'outputVolts',
+      },
+    );
+    expect(() => solveArm({ ...base, armsOhms: arms, excitationVolts: 0 })).toThrowBridgeworkError(
+      'not-positive',
+      {
+        param: 'excitationVolts',
+      },
+    );
+    expect(() => solveArm({ ...base, armsOhms: arms, meterOhms: -1 })).toThrowBridgeworkError(
+      'not-positive',
+      {
+        param: 'meterOhms',
+      },
+    );
   });
 });

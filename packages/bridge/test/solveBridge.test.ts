@@ -15,9 +15,19 @@ const network = fc.record({
 describe('solveBridge: check values', () => {
   it('350.7/350/350/350 Ω, 10 V, source 50 Ω, meter 10 kΩ reads 4.223022653 mV', () => {
     // Issue #2 check value; confirmed independently by the 40-digit nodal solve below.
-    const s = solveBridge({ armsOhms: [350.7, 350, 350, 350], excitationVolts: 10, sourceOhms: 50, meterOhms: 10_000 });
+    const s = solveBridge({
+      armsOhms: [350.7, 350, 350, 350],
+      excitationVolts: 10,
+      sourceOhms: 50,
+      meterOhms: 10_000,
+    });
     expect(s.outputVolts).toBeNear(4.223022653e-3, { rel: 1e-9 });
-    const ref = nodalSolve({ armsOhms: [350.7, 350, 350, 350], excitationVolts: 10, sourceOhms: 50, meterOhms: 10_000 });
+    const ref = nodalSolve({
+      armsOhms: [350.7, 350, 350, 350],
+      excitationVolts: 10,
+      sourceOhms: 50,
+      meterOhms: 10_000,
+    });
     expect(s.outputVolts).toBeNear(ref.outputVolts, { rel: 1e-14 });
     expect(s.ratio).toBeNear(s.outputVolts / 10, { ulps: 1 });
   });
@@ -61,7 +71,12 @@ describe('solveBridge: special cases', () => {
 
   it('defaults to a stiff source and an ideal meter', () => {
     const a = solveBridge({ armsOhms: [351, 349, 350, 350], excitationVolts: 2.5 });
-    const b = solveBridge({ armsOhms: [351, 349, 350, 350], excitationVolts: 2.5, sourceOhms: 0, meterOhms: Infinity });
+    const b = solveBridge({
+      armsOhms: [351, 349, 350, 350],
+      excitationVolts: 2.5,
+      sourceOhms: 0,
+      meterOhms: Infinity,
+    });
     expect(a).toEqual(b);
   });
 

@@ -1,26 +1,60 @@
 /**
+ * The closed union of stable error codes; {@link errorCodeDescriptions} says what each means.
+ */
+export type ErrorCode =
+  | 'not-finite'
+  | 'wrong-type'
+  | 'not-positive'
+  | 'negative'
+  | 'not-integer'
+  | 'out-of-range'
+  | 'ratio-out-of-range'
+  | 'no-solution'
+  | 'invalid-option'
+  | 'missing-option'
+  | 'conflicting-options'
+  | 'invalid-shape'
+  | 'unknown-count'
+  | 'singular'
+  | 'not-converged'
+  | 'too-few-points'
+  | 'not-positive-semidefinite'
+  | 'model-not-finite'
+  | 'overflow'
+  | 'clipped'
+  | 'invalid-spec'
+  | 'parse-error'
+  | 'file-exists'
+  | 'io-error';
+
+/**
  * Every error code a bridgework function can throw, with what it means.
  *
  * @remarks
- * The union is closed: a code is added here (and to the table in DEVELOPERS.md, which a test
- * keeps in step) before any package throws it. Codes are stable across releases, so callers may
+ * The union is closed: a code is added to {@link ErrorCode} and here (the compiler insists on
+ * both) before any package throws it; `pnpm run docs:codes` then updates the tables in
+ * DEVELOPERS.md and docs/errors.md, which a test keeps in step. Codes are stable across releases, so callers may
  * branch on them.
  */
-export const errorCodeDescriptions = {
+export const errorCodeDescriptions: Readonly<Record<ErrorCode, string>> = {
   'not-finite': 'A number is NaN or ±Infinity where a finite value is required.',
   'wrong-type': 'A value has the wrong JavaScript type (for example a string where a number is required).',
   'not-positive': 'A number must be greater than zero (resistances, excitation, gauge factor).',
   negative: 'A number must be zero or greater (lead resistance, source resistance, uncertainties).',
   'not-integer': 'A number must be an integer (bits, AWG size, counts).',
-  'out-of-range': 'A number lies outside the documented domain of the function (for example a strain that would make a gauge resistance non-positive, or a temperature outside a standard’s range).',
-  'ratio-out-of-range': 'A bridge output ratio that no admissible strain or resistance of the arrangement can produce.',
+  'out-of-range':
+    'A number lies outside the documented domain of the function (for example a strain that would make a gauge resistance non-positive, or a temperature outside a standard’s range).',
+  'ratio-out-of-range':
+    'A bridge output ratio that no admissible strain or resistance of the arrangement can produce.',
   'no-solution': 'The reading cannot be produced by any finite positive resistance or physical state.',
   'invalid-option': 'An option has a value that is not one of the documented choices.',
   'missing-option': 'A required option is absent (for example the Poisson ratio for a Poisson arrangement).',
-  'conflicting-options': 'Options that exclude each other were given together (for example both an AWG size and a diameter).',
+  'conflicting-options':
+    'Options that exclude each other were given together (for example both an AWG size and a diameter).',
   'invalid-shape': 'An array or record has the wrong length or structure.',
   'unknown-count': 'The number of unknowns is wrong (for example not exactly one null arm).',
-  singular: 'A linear system is singular or too ill-conditioned to solve (nearly parallel rosette legs, all fit points at one abscissa).',
+  singular:
+    'A linear system is singular or too ill-conditioned to solve (nearly parallel rosette legs, all fit points at one abscissa).',
   'not-converged': 'An iteration did not reach its stated tolerance within its iteration limit.',
   'too-few-points': 'Fewer data points were given than the method needs.',
   'not-positive-semidefinite': 'A correlation or covariance matrix is not positive semidefinite.',
@@ -31,10 +65,7 @@ export const errorCodeDescriptions = {
   'parse-error': 'A file or text could not be parsed (malformed YAML, JSON, CSV or unit string).',
   'file-exists': 'An output file exists already and overwriting was not allowed.',
   'io-error': 'A file could not be read or written.',
-} as const satisfies Record<string, string>;
-
-/** The closed union of stable error codes (see {@link errorCodeDescriptions}). */
-export type ErrorCode = keyof typeof errorCodeDescriptions;
+};
 
 /** All error codes, in the order of {@link errorCodeDescriptions}. */
 export const errorCodes: readonly ErrorCode[] = Object.freeze(

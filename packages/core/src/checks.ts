@@ -78,7 +78,8 @@ export interface CheckPositiveOptions {
 export function checkPositive(param: string, value: unknown, options: CheckPositiveOptions = {}): number {
   if (typeof value !== 'number') fail('wrong-type', param, 'a number', value);
   if (Number.isNaN(value) || value === -Infinity) fail('not-finite', param, 'a finite number', value);
-  if (value === Infinity && options.allowInfinity !== true) fail('not-finite', param, 'a finite number', value);
+  if (value === Infinity && options.allowInfinity !== true)
+    fail('not-finite', param, 'a finite number', value);
   if (!(value > 0)) fail('not-positive', param, '> 0', value, 0);
   return value;
 }

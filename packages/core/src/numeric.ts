@@ -28,7 +28,7 @@ export function twoProduct(a: number, b: number): [number, number] {
   const p = a * b;
   const [ah, al] = split(a);
   const [bh, bl] = split(b);
-  const e = al * bl - (((p - ah * bh) - al * bh) - ah * bl);
+  const e = al * bl - (p - ah * bh - al * bh - ah * bl);
   return [p, e];
 }
 

@@ -26,8 +26,12 @@ function caught(fn: () => unknown): BridgeworkError {
 
 describe('message grammar', () => {
   it('reads "`param` must be <requirement>; got <value>"', () => {
-    expect(caught(() => checkPositive('excitationVolts', -5)).message).toBe('`excitationVolts` must be > 0; got -5');
-    expect(caught(() => checkFinite('strain', Number.NaN)).message).toBe('`strain` must be a finite number; got NaN');
+    expect(caught(() => checkPositive('excitationVolts', -5)).message).toBe(
+      '`excitationVolts` must be > 0; got -5',
+    );
+    expect(caught(() => checkFinite('strain', Number.NaN)).message).toBe(
+      '`strain` must be a finite number; got NaN',
+    );
     expect(caught(() => checkRange('temperatureCelsius', 900, { min: -200, max: 850 })).message).toBe(
       '`temperatureCelsius` must be in [-200, 850]; got 900',
     );

@@ -32,7 +32,10 @@ describe('differenceOfProducts', () => {
       .map(([a, b, i, j]) => [a, b, a * (1 + i * 2 ** -40), b * (1 + j * 2 ** -40)] as const);
     fc.assert(
       fc.property(fc.oneof(nearly, fc.tuple(factor, factor, factor, factor)), ([a, b, c, d]) => {
-        const exact = X(a).times(X(b)).minus(X(c).times(X(d))).toNumber();
+        const exact = X(a)
+          .times(X(b))
+          .minus(X(c).times(X(d)))
+          .toNumber();
         expect(differenceOfProducts(a, b, c, d)).toBeNear(exact, { ulps: 1 });
       }),
       { numRuns: 3000 },

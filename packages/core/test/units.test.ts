@@ -18,10 +18,13 @@ describe('strain and mV/V helpers', () => {
 
   it('round-trip within one ulp over ±1e6 µε', () => {
     fc.assert(
-      fc.property(fc.double({ min: -1e6, max: 1e6, noNaN: true }).filter((x) => x === 0 || Math.abs(x) > 1e-290), (ue) => {
-        expect(microstrainFromStrain(strainFromMicrostrain(ue))).toBeNear(ue, { ulps: 1 });
-        expect(millivoltsPerVoltFromRatio(ratioFromMillivoltsPerVolt(ue))).toBeNear(ue, { ulps: 1 });
-      }),
+      fc.property(
+        fc.double({ min: -1e6, max: 1e6, noNaN: true }).filter((x) => x === 0 || Math.abs(x) > 1e-290),
+        (ue) => {
+          expect(microstrainFromStrain(strainFromMicrostrain(ue))).toBeNear(ue, { ulps: 1 });
+          expect(millivoltsPerVoltFromRatio(ratioFromMillivoltsPerVolt(ue))).toBeNear(ue, { ulps: 1 });
+        },
+      ),
     );
   });
 });

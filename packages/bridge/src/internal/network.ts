@@ -1,4 +1,10 @@
-import { checkLength, checkNonNegative, checkObject, checkPositive, differenceOfProducts } from '@bridgework/core';
+import {
+  checkLength,
+  checkNonNegative,
+  checkObject,
+  checkPositive,
+  differenceOfProducts,
+} from '@bridgework/core';
 
 /** The four arms as a tuple, R1…R4 in ring order. */
 export type Arms = readonly [number, number, number, number];
@@ -50,7 +56,8 @@ export interface Circuit {
 export function checkCircuit(options: Record<string, unknown>): Circuit {
   return {
     excitationVolts: checkPositive('excitationVolts', options['excitationVolts']),
-    sourceOhms: options['sourceOhms'] === undefined ? 0 : checkNonNegative('sourceOhms', options['sourceOhms']),
+    sourceOhms:
+      options['sourceOhms'] === undefined ? 0 : checkNonNegative('sourceOhms', options['sourceOhms']),
     meterOhms:
       options['meterOhms'] === undefined
         ? Infinity
@@ -69,4 +76,3 @@ export function checkArms(value: unknown, allowNull: boolean): (number | null)[]
 export function checkOptions(options: unknown): Record<string, unknown> {
   return checkObject('options', options);
 }
-

@@ -38,7 +38,9 @@ export function nodalSolve(n: NodalNetwork): NodalSolution {
   const g2 = math.divide(one, r2) as BigNumber;
   const g3 = math.divide(one, r3) as BigNumber;
   const g4 = math.divide(one, r4) as BigNumber;
-  const gm = Number.isFinite(n.meterOhms) ? (math.divide(one, big(n.meterOhms)) as BigNumber) : math.bignumber(0);
+  const gm = Number.isFinite(n.meterOhms)
+    ? (math.divide(one, big(n.meterOhms)) as BigNumber)
+    : math.bignumber(0);
   const zero = math.bignumber(0);
   const add = (...xs: BigNumber[]): BigNumber => xs.reduce((s, x) => math.add(s, x) as BigNumber, zero);
   const neg = (x: BigNumber): BigNumber => math.unaryMinus(x) as BigNumber;
@@ -87,7 +89,8 @@ export function nodalShortCircuitAmps(n: Omit<NodalNetwork, 'meterOhms'>): numbe
   const [g1, g2, g3, g4] = [inv(r1), inv(r2), inv(r3), inv(r4)];
   const gs = inv(big(n.sourceOhms));
   const e = big(n.excitationVolts);
-  const add = (...xs: BigNumber[]): BigNumber => xs.reduce((s, x) => math.add(s, x) as BigNumber, math.bignumber(0));
+  const add = (...xs: BigNumber[]): BigNumber =>
+    xs.reduce((s, x) => math.add(s, x) as BigNumber, math.bignumber(0));
   // Nodes A and X (C and D tied together).
   const G = math.matrix([
     [add(gs, g1, g4), math.unaryMinus(add(g1, g4)) as BigNumber],

@@ -1,0 +1,46 @@
+/**
+ * Every program in examples/ runs here, so examples cannot rot. Key printed numbers are checked
+ * against an independent calculation.
+ */
+import { execFileSync } from 'node:child_process';
+import { readdirSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { describe, expect, it } from 'vitest';
+
+const root = fileURLToPath(new URL('..', import.meta.url));
+const examples = readdirSync(new URL('../examples', import.meta.url)).filter((f) => f.endsWith('.ts'));
+
+function run(file: string): string {
+  return execFileSync(
+    process.execPath,
+    ['--import', 'tsx', '--conditions=@bridgework/source', `examples/${file}`],
+    {
+      cwd: root,
+      encoding: 'utf8',
+      env: { ...process.env, NO_COLOR: '1' },
+    },
+  );
+}
+
+describe('examples', () => {
+  it.each(examples)('%s runs and prints the safety caution', (file) => {
+    const out = run(file);
+    expect(out).toMatch(/do not replace,\s+qualified engineering judgement/);
+  });
+
+  it('footbridge-hanger: the exact two-reading strain matches the full-poisson equation solved by hand', () => {
+    const out = run('footbridge-hanger.ts');
+    // Full-poisson bridge: r = x(1+ν)/(2 + x(1−ν)), x = GF·ε (see docs/bridge.md) ⇒
+    // x = 2r/((1+ν) − r(1−ν)); strain from zero = (x1 − x0)/(GF(1 + x0)).
+    const gf = 2.09;
+    const nu = 0.3;
+    const x = (r: number) => (2 * r) / (1 + nu - r * (1 - nu));
+    const x0 = x(0.0412e-3);
+    const x1 = x(0.9718e-3);
+    const strain = (x1 - x0) / (gf * (1 + x0));
+    const printed = Number(/exact two-reading strain\s+([-\d.]+) µε/.exec(out)?.[1]);
+    expect(printed).toBeNear(strain * 1e6, { abs: 0.005 }); // printed to 2 decimals
+    const force = Number(/hanger force\s+([-\d.]+) kN/.exec(out)?.[1]);
+    expect(force).toBeNear((205e9 * 561e-6 * strain) / 1e3, { abs: 0.005 });
+  });
+});

@@ -1,0 +1,142 @@
+/**
+ * Repository rules that a reviewer would otherwise check by hand: the README's Quick start, the
+ * package layout, the dependency direction, and the generated error-code tables.
+ */
+import { existsSync, readFileSync, readdirSync } from 'node:fs';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { describe, expect, it } from 'vitest';
+import { errorTable, normalizedTable } from './support/errorTable.js';
+
+const root = fileURLToPath(new URL('..', import.meta.url));
+const read = (path: string): string => readFileSync(join(root, path), 'utf8');
+const packages = readdirSync(join(root, 'packages')).filter((p) =>
+  existsSync(join(root, 'packages', p, 'package.json')),
+);
+
+interface PackageJson {
+  name: string;
+  type?: string;
+  sideEffects?: boolean;
+  private?: boolean;
+  packageManager?: string;
+  exports?: Record<string, Record<string, string>>;
+  dependencies?: Record<string, string>;
+  devDependencies?: Record<string, string>;
+}
+const pkg = (p: string): PackageJson => JSON.parse(read(`packages/${p}/package.json`)) as PackageJson;
+
+/** Allowed internal dependencies: DESIGN.md's package map (arrows only point down). */
+const allowed: Record<string, readonly string[]> = {
+  core: [],
+  bridge: ['core'],
+  compensation: ['core', 'bridge'],
+  chain: ['core', 'bridge'],
+  uncertainty: ['core'],
+  mechanics: ['core'],
+  calibration: ['core', 'bridge'],
+  firmware: ['core'],
+  channel: ['core', 'bridge', 'compensation', 'chain', 'uncertainty', 'mechanics', 'calibration', 'firmware'],
+  cli: [
+    'core',
+    'bridge',
+    'compensation',
+    'chain',
+    'uncertainty',
+    'mechanics',
+    'calibration',
+    'firmware',
+    'channel',
+  ],
+};
+
+function sourceFiles(dir: string): string[] {
+  return readdirSync(join(root, dir), { withFileTypes: true }).flatMap((e) =>
+    e.isDirectory() ? sourceFiles(join(dir, e.name)) : e.name.endsWith('.ts') ? [join(dir, e.name)] : [],
+  );
+}
+
+describe('README', () => {
+  const readme = read('README.md');
+  it('has a Quick start heading followed by one code block of exactly two commands', () => {
+    const m = /^## Quick start\n+```[a-z]*\n([\s\S]*?)```/m.exec(readme);
+    expect(m).not.toBeNull();
+    const lines = m![1]!.trimEnd().split('\n');
+    expect(lines).toHaveLength(2);
+    expect(lines[0]).toMatch(/&& pnpm demo$/);
+    expect(lines[1]).toMatch(/pnpm test$/);
+    // Each line stands on its own on a fresh machine: it installs pnpm and the workspace first.
+    for (const line of lines) expect(line).toMatch(/^npm install -g pnpm@12\.4\.2 && pnpm install && /);
+  });
+
+  it('states the safety caution', () => {
+    expect(readme).toMatch(/support, and do not replace,\s+qualified engineering judgement/);
+    expect(readme).toMatch(/legal-metrology/);
+  });
+
+  it('lists every package in its table', () => {
+    for (const p of packages)
+      expect(readme).toContain(p === 'cli' ? '`bridgework` (cli)' : `@bridgework/${p}`);
+  });
+});
+
+describe('workspace', () => {
+  const rootPkg = JSON.parse(read('package.json')) as PackageJson;
+
+  it('pins pnpm and is a private ESM workspace', () => {
+    expect(rootPkg.packageManager).toBe('pnpm@12.4.2');
+    expect(rootPkg.private).toBe(true);
+    expect(rootPkg.type).toBe('module');
+  });
+
+  it.each(packages)('package %s is ESM, side-effect free, exports source/types/default', (p) => {
+    const j = pkg(p);
+    expect(j.name).toBe(p === 'cli' ? 'bridgework' : `@bridgework/${p}`);
+    expect(j.type).toBe('module');
+    expect(j.sideEffects).toBe(false);
+    const dot = j.exports?.['.'];
+    expect(Object.keys(dot ?? {})).toEqual(['@bridgework/source', 'types', 'default']);
+    expect(dot?.['@bridgework/source']).toBe('./src/index.ts');
+    expect(rootPkg.devDependencies?.[j.name]).toBe('workspace:*');
+    expect(existsSync(join(root, 'packages', p, 'test'))).toBe(true);
+  });
+
+  it.each(packages)('package %s depends only on packages below it', (p) => {
+    const deps = Object.keys(pkg(p).dependencies ?? {}).filter((d) => d.startsWith('@bridgework/'));
+    for (const d of deps) expect(allowed[p] ?? []).toContain(d.replace('@bridgework/', ''));
+    const tsconfig = JSON.parse(read(`packages/${p}/tsconfig.json`)) as { references?: { path: string }[] };
+    const refs = (tsconfig.references ?? []).map((r) => r.path.replace('../', ''));
+    expect(refs.sort()).toEqual(deps.map((d) => d.replace('@bridgework/', '')).sort());
+  });
+
+  it.each(packages)('package %s has a hand-written index without export *', (p) => {
+    const index = read(`packages/${p}/src/index.ts`);
+    expect(index).not.toMatch(/export \*/);
+  });
+
+  it.each(packages.filter((p) => p !== 'cli'))('library package %s imports nothing from node:', (p) => {
+    for (const f of sourceFiles(`packages/${p}/src`)) {
+      expect(read(f), f).not.toMatch(/from ['"]node:|require\(['"]node:/);
+    }
+  });
+});
+
+describe('docs', () => {
+  it('hold the error-code table exactly as the core package defines it', () => {
+    for (const file of ['docs/errors.md', 'DEVELOPERS.md']) {
+      expect(normalizedTable(read(file)), `${file}: run pnpm run docs:codes`).toEqual(
+        normalizedTable(errorTable()),
+      );
+    }
+  });
+
+  it('draw the arm-numbering diagram as inline SVG with every arm and node', () => {
+    const conventions = read('docs/conventions.md');
+    const svg = /<svg[\s\S]*?<\/svg>/.exec(conventions)?.[0] ?? '';
+    for (const label of ['R1', 'R2', 'R3', 'R4', 'E+', 'E−', 'S+', 'S−']) expect(svg).toContain(`>${label}<`);
+  });
+
+  it('carry the safety caution', () => {
+    expect(read('docs/safety.md')).toMatch(/support, and do not replace,\s+qualified engineering judgement/);
+  });
+});
