@@ -37,3 +37,4 @@ export {
   ratioFromMillivoltsPerVolt,
   strainFromMicrostrain,
 } from './units.js';
+export { rosetteLegAngles, type RosetteLayout } from './rosette.js';
