@@ -37,4 +37,4 @@ export {
   ratioFromMillivoltsPerVolt,
   strainFromMicrostrain,
 } from './units.js';
-export { rosetteLegAngles, type RosetteLayout } from './rosette.js';
+export { rosetteLegAngles, type RosetteAngles, type RosetteLayout } from './rosette.js';

@@ -13,8 +13,13 @@ import { checkFinite, checkObject, formatValue } from './checks.js';
  * Shared by the transverse-sensitivity correction of rosette legs (compensation) and rosette
  * reduction (mechanics), so corrected legs feed straight into the reduction.
  */
-export type RosetteLayout =
-  'rectangular' | 'delta' | { readonly anglesRadians: readonly [number, number, number] };
+export type RosetteLayout = 'rectangular' | 'delta' | RosetteAngles;
+
+/** A rosette of any three gauge directions. */
+export interface RosetteAngles {
+  /** Directions of gauges a, b and c in radians, counterclockwise from x; three distinct directions. */
+  readonly anglesRadians: readonly [number, number, number];
+}
 
 /**
  * The directions of the three gauges of a rosette layout, in radians counterclockwise from x.
