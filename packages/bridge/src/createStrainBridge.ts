@@ -100,6 +100,22 @@ export interface StrainBridge {
     readonly denominator: readonly [number, number, number];
   };
   /**
+   * The same exact map in lowest terms when it is a linear-fractional (Möbius) function of strain,
+   * ratio = (m0 + m1·ε)/(k0 + k1·ε), so that ε = (m0 − k0·r)/(k1·r − m1); `undefined` for
+   * `'full-bending-poisson'`, whose map is a true ratio of quadratics. Every other arrangement,
+   * with any leads, is linear-fractional (for `'half-opposite'` and the full bridges with equal
+   * halves a common factor R1 + R2 cancels). Batch converters fold these four numbers into
+   * their per-sample coefficients.
+   */
+  readonly linearFractional:
+    | {
+        /** Numerator coefficients `[m0, m1]`. */
+        readonly numerator: readonly [number, number];
+        /** Denominator coefficients `[k0, k1]`. */
+        readonly denominator: readonly [number, number];
+      }
+    | undefined;
+  /**
    * Exact output ratio Vout/Vexc (V/V) for a strain.
    *
    * @param strain - Strain in m/m, inside `strainRange`.
@@ -266,6 +282,15 @@ export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
 
   const [n0, n1, n2] = numerator;
   const [d0, d1, d2] = denominator;
+
+  // Lowest terms. Equal halves (R1 ≡ R3, R2 ≡ R4): N = (R1 − R2)(R1 + R2) and
+  // D = (R1 + R2)(R1 + R2 + 2·Rser), so ratio = (R1 − R2)/(R1 + R2 + 2·Rser).
+  const equalHalves = p1 === p3 && g1 === g3 && p2 === p4 && g2 === g4;
+  const linearFractional = equalHalves
+    ? { numerator: [p1 - p2, g1 - g2] as const, denominator: [p1 + p2 + 2 * seriesOhms, g1 + g2] as const }
+    : n2 === 0 && d2 === 0
+      ? { numerator: [n0, n1] as const, denominator: [d0, d1] as const }
+      : undefined;
   const a = n1 * d0 - n0 * d1;
   const b = n2 * d0 - n0 * d2;
   const sensitivity = a / (d0 * d0);
@@ -285,6 +310,24 @@ export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
 
   function solve(param: string, value: unknown): number {
     const r = checkFinite(param, value);
+    const strain = linearFractional !== undefined ? solveLinearFractional(r) : solveQuadratic(r);
+    if (!(strain > strainMin && strain < strainMax && r > ratioRange.min && r < ratioRange.max)) {
+      throw new BridgeworkError(
+        'ratio-out-of-range',
+        `\`${param}\` must be in (${ratioRange.min}, ${ratioRange.max}) for a '${arrangement}' bridge; got ${formatValue(r)}`,
+        { param, value: r, limit: [ratioRange.min, ratioRange.max] },
+      );
+    }
+    return strain;
+  }
+
+  const [m0, m1] = linearFractional?.numerator ?? [0, 0];
+  const [k0, k1] = linearFractional?.denominator ?? [0, 0];
+  function solveLinearFractional(r: number): number {
+    return -differenceOfProducts(k0, r, m0, 1) / (k1 * r - m1);
+  }
+
+  function solveQuadratic(r: number): number {
     const qa = r * d2 - n2;
     const qb = r * d1 - n1;
     const qc = differenceOfProducts(r, d0, n0, 1);
@@ -300,13 +343,6 @@ export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
         strain = qc / q;
         if (!(strain > strainMin && strain < strainMax)) strain = q / qa;
       }
-    }
-    if (!(strain > strainMin && strain < strainMax && r > ratioRange.min && r < ratioRange.max)) {
-      throw new BridgeworkError(
-        'ratio-out-of-range',
-        `\`${param}\` must be in (${ratioRange.min}, ${ratioRange.max}) for a '${arrangement}' bridge; got ${formatValue(r)}`,
-        { param, value: r, limit: [ratioRange.min, ratioRange.max] },
-      );
     }
     return strain;
   }
@@ -324,6 +360,7 @@ export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
     strainRange,
     ratioRange,
     rational: { numerator, denominator },
+    linearFractional,
     ratioFromStrain(strain: number): number {
       const e = checkStrain('strain', strain);
       return evaluate(numerator, e) / evaluate(denominator, e);

@@ -154,6 +154,29 @@ describe('createStrainBridge: round trips and consistency', () => {
     );
   });
 
+  it('has a linear-fractional form in lowest terms for every arrangement but full-bending-poisson', () => {
+    fc.assert(
+      fc.property(bridgeOptions, microstrain, (options, ue) => {
+        const b = createStrainBridge(options);
+        const lf = b.linearFractional;
+        if (options.arrangement === 'full-bending-poisson') {
+          expect(lf).toBeUndefined();
+          return;
+        }
+        expect(lf).toBeDefined();
+        const strain = ue / 1e6;
+        const [m0, m1] = lf!.numerator;
+        const [k0, k1] = lf!.denominator;
+        // Same map as the quadratic form (absolute floor: the ratio's own rounding near zero).
+        expect((m0 + m1 * strain) / (k0 + k1 * strain)).toBeNear(b.ratioFromStrain(strain), {
+          rel: 1e-13,
+          abs: 1e-17,
+        });
+      }),
+      { numRuns: 2000 },
+    );
+  });
+
   it('is strictly increasing in strain over its whole range (so the inverse is unique)', () => {
     fc.assert(
       fc.property(bridgeOptions, fc.double({ min: 0.001, max: 0.999, noNaN: true }), (options, u) => {
