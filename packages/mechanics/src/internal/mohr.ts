@@ -27,8 +27,8 @@ export function wrapAxis(angleRadians: number): number {
  *
  * Centre c = (εx + εy)/2, radius R = √(((εx − εy)/2)² + (γxy/2)²), ε1,2 = c ± R. The principal
  * strain of smaller magnitude is taken from the invariant ε1·ε2 = εx·εy − (γxy/2)² (formed with
- * the error-free `differenceOfProducts`) whenever c ± R would cancel, so both keep full relative
- * precision. The circle counts as a point (equal principal strains, direction undefined) when
+ * the error-free `differenceOfProducts`, on inputs scaled by a power of two) whenever c ± R would
+ * cancel, so both keep full relative precision. The circle counts as a point (equal principal strains, direction undefined) when
  * R ≤ `equalTolerance`.
  */
 export function mohrStrain(
@@ -47,12 +47,20 @@ export function mohrStrain(
     // No cancellation: |c ∓ R| ≥ 2|c|/3.
     maxStrain = c + r;
     minStrain = c - r;
-  } else if (c >= 0) {
-    maxStrain = c + r;
-    minStrain = differenceOfProducts(strainX, strainY, g, g) / maxStrain;
   } else {
-    minStrain = c - r;
-    maxStrain = differenceOfProducts(strainX, strainY, g, g) / minStrain;
+    // ε1·ε2 = εx·εy − g², formed error-free on inputs scaled by a power of two (exact), so that
+    // the products of very small strains do not underflow.
+    const k =
+      2 **
+      Math.min(1000, -Math.floor(Math.log2(Math.max(Math.abs(strainX), Math.abs(strainY), Math.abs(g)))));
+    const product = differenceOfProducts(strainX * k, strainY * k, g * k, g * k);
+    if (c >= 0) {
+      maxStrain = c + r;
+      minStrain = product / (maxStrain * k) / k;
+    } else {
+      minStrain = c - r;
+      maxStrain = product / (minStrain * k) / k;
+    }
   }
   const equalPrincipalStrains = r <= equalTolerance;
   return {
