@@ -156,7 +156,7 @@ export function planeStress(
             minStressPascals * minStressPascals),
       ),
       trescaPascals: 2 * absoluteMaxShearPascals,
-      outOfPlaneStrain: (-nu * sum) / (1 - nu),
+      outOfPlaneStrain: (-nu * sum) / (1 - nu) + 0, // + 0: report +0, not −0, for ε1 + ε2 = 0
     };
   }
 }

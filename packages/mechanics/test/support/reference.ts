@@ -159,3 +159,54 @@ export function integrate(f: (t: number) => number, a: number, b: number, n = 24
   for (let i = 0; i < n; i++) sum += (weights[i] as number) * f(m + h * (nodes[i] as number));
   return sum * h;
 }
+
+export interface PlaneStressReference {
+  readonly stressX: number;
+  readonly stressY: number;
+  readonly shearStressXY: number;
+  /** Principal stresses [σ2, σ1] as eigenvalues of the stress tensor (mathjs eigs, 40 digits). */
+  readonly principal: readonly [number, number];
+  readonly vonMises: number;
+  readonly outOfPlaneStrain: number;
+}
+
+/**
+ * Plane stress the other way round from src/: Hooke's law on the x–y components first (40-digit
+ * decimal.js), then the principal stresses as eigenvalues of [[σx, τxy], [τxy, σy]] (mathjs
+ * eigs), and von Mises from the component form √(σx² − σxσy + σy² + 3τxy²).
+ */
+export function planeStressReference(
+  strainX: number,
+  strainY: number,
+  shearStrainXY: number,
+  modulusPascals: number,
+  poissonRatio: number,
+): PlaneStressReference {
+  const e = dec(modulusPascals);
+  const nu = dec(poissonRatio);
+  const k = e.div(new D(1).minus(nu.times(nu)));
+  const sx = k.times(dec(strainX).plus(nu.times(dec(strainY))));
+  const sy = k.times(dec(strainY).plus(nu.times(dec(strainX))));
+  const txy = e.div(nu.plus(1).times(2)).times(dec(shearStrainXY));
+  const scale = Math.max(Math.abs(Number(sx)), Math.abs(Number(sy)), Math.abs(Number(txy)));
+  const s = scale === 0 ? 1 : 2 ** -Math.floor(Math.log2(scale));
+  const tensor = math.matrix([
+    [math.bignumber(sx.times(s).toString()), math.bignumber(txy.times(s).toString())],
+    [math.bignumber(txy.times(s).toString()), math.bignumber(sy.times(s).toString())],
+  ]);
+  const values = (math.eigs(tensor, { eigenvectors: false }).values as Matrix).toArray() as BigNumber[];
+  const principal = values.map((v) => Number(v) / s).sort((a, b) => a - b) as [number, number];
+  const vonMises = sx.times(sx).minus(sx.times(sy)).plus(sy.times(sy)).plus(txy.times(txy).times(3)).sqrt();
+  const ez = nu
+    .negated()
+    .div(new D(1).minus(nu))
+    .times(dec(strainX).plus(dec(strainY)));
+  return {
+    stressX: Number(sx),
+    stressY: Number(sy),
+    shearStressXY: Number(txy),
+    principal,
+    vonMises: Number(vonMises),
+    outOfPlaneStrain: Number(ez),
+  };
+}
