@@ -18,8 +18,8 @@ export type RosetteLegStrains = readonly [number, number, number];
  * {@link Rosette.conditionNumber}).
  *
  * @remarks
- * A layout above it has two legs within about 0.1° of each other (modulo 180°), with the third
- * leg well away. The condition number bounds how much a relative error in the leg readings is
+ * A layout above it has two legs within about 0.1° of each other (modulo 180°) with the third at
+ * right angles, or all three legs spread over only about 5°. The condition number bounds how much a relative error in the leg readings is
  * amplified in the strain state. Leg readings are seldom better than 0.1 % (gauge-factor
  * tolerance alone is typically ±0.5 % to ±1 %; common practice), so at 1000 even an optimistic
  * leg error can become a 100 % error in the result: such a reduction says nothing about the
@@ -163,7 +163,8 @@ const EPSILON_HALF = 2 ** -53; // unit roundoff of binary64
  * random layouts was 9.3·u·κF·max|εi|).
  *
  * Nearly parallel legs: a layout whose condition number exceeds
- * {@link maxRosetteConditionNumber} (two legs within about 0.1°, modulo 180°) is rejected.
+ * {@link maxRosetteConditionNumber} (for example two legs within about 0.1°, modulo 180°, with the
+ * third at right angles) is rejected.
  *
  * Accuracy: the round trip state → legs → state is within 1e-15 of the largest state component
  * for the named layouts and within 1e-15·κF for any layout (property-tested to 1e-12).

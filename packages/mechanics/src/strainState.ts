@@ -8,7 +8,7 @@ import { mohrStrain } from './internal/mohr.js';
  * @remarks
  * Strains are in m/m, tension positive. The shear strain is the **engineering** shear strain
  * γxy = 2·εxy (the change of the right angle between x and y, in radians), not the tensor
- * component εxy; the strain tensor is [[εx, γxy/2], [γxy/2, εy]]. γxy > 0 when the right angle
+ * component εxy; the strain tensor is `[[εx, γxy/2], [γxy/2, εy]]`. γxy > 0 when the right angle
  * between the +x and +y directions closes.
  */
 export interface StrainState {
@@ -97,7 +97,7 @@ export function strainAlong(strainX: number, strainY: number, shearStrainXY: num
  * (−π/2, π/2], counterclockwise positive. The principal strain of smaller magnitude comes from
  * the invariant ε1·ε2 = εx·εy − (γxy/2)² (an error-free product difference) when c ± R would
  * cancel, so both principal strains keep full relative precision: within a few ulps of the
- * eigenvalues of [[εx, γxy/2], [γxy/2, εy]].
+ * eigenvalues of `[[εx, γxy/2], [γxy/2, εy]]`.
  *
  * Equal principal strains (εx = εy and γxy = 0 exactly; the given state is taken as exact):
  * `equalPrincipalStrains` is true and `angleFromXRadians` is `NaN`.

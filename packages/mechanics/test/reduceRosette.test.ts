@@ -5,6 +5,7 @@ import {
   maxRosetteConditionNumber,
   normalStrainAtAngle,
   reduceRosette,
+  type Rosette,
 } from '@bridgework/mechanics';
 import { strainFromMicrostrain } from '@bridgework/core';
 import {
