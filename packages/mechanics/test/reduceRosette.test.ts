@@ -173,7 +173,7 @@ describe('reduceRosette: round trips (property tests)', () => {
           tol,
         );
       }),
-      { numRuns: 150 },
+      { numRuns: 60 },
     );
   });
 

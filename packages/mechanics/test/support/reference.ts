@@ -150,9 +150,16 @@ export function gaussLegendre(n: number): { nodes: number[]; weights: number[] }
   return { nodes, weights };
 }
 
+const rules = new Map<number, { nodes: number[]; weights: number[] }>();
+
 /** ∫_a^b f(t) dt by n-point Gauss–Legendre. */
 export function integrate(f: (t: number) => number, a: number, b: number, n = 24): number {
-  const { nodes, weights } = gaussLegendre(n);
+  let rule = rules.get(n);
+  if (rule === undefined) {
+    rule = gaussLegendre(n);
+    rules.set(n, rule);
+  }
+  const { nodes, weights } = rule;
   const h = (b - a) / 2;
   const m = (a + b) / 2;
   let sum = 0;
