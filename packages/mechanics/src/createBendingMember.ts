@@ -86,8 +86,8 @@ export interface BendingMember {
  *   section: { shape: 'rectangular', widthMeters: 0.02, depthMeters: 0.006 },
  *   leverArmMeters: 0.1,
  * });
- * beam.momentFromStrain(500e-6); // 12 N·m
- * beam.forceFromStrain(500e-6); // 120 N
+ * beam.momentFromStrain(500e-6); // 11.999999999999998 (12 N·m)
+ * beam.forceFromStrain(500e-6); // 119.99999999999997 (120 N)
  * ```
  */
 export function createBendingMember(options: BendingMemberOptions): BendingMember {

@@ -166,8 +166,9 @@ const EPSILON_HALF = 2 ** -53; // unit roundoff of binary64
  * {@link maxRosetteConditionNumber} (for example two legs within about 0.1°, modulo 180°, with the
  * third at right angles) is rejected.
  *
- * Accuracy: the round trip state → legs → state is within 1e-15 of the largest state component
- * for the named layouts and within 1e-15·κF for any layout (property-tested to 1e-12).
+ * Accuracy: the round trip state → legs → state is within 2e-15 of the largest state component
+ * for the named layouts, and within 1e-15·κF of the largest leg or component for any accepted
+ * layout (both property-tested against 40-digit references).
  *
  * @param options - `layout`.
  * @returns An evaluator with `reduce(strains)`, `legStrains(state)`, the angles and κF.
@@ -192,7 +193,7 @@ export function createRosette(options: RosetteOptions): Rosette {
     throw new BridgeworkError(
       'singular',
       `\`layout.anglesRadians\` must be three well-separated gauge directions (condition number <= ${maxRosetteConditionNumber}); ` +
-        `got condition number ${String(conditionNumber)}: two legs are ${closestPairDegrees(anglesRadians).toPrecision(3)}° apart (modulo 180°)`,
+        `got condition number ${String(conditionNumber)}: the closest two legs are ${closestPairDegrees(anglesRadians).toPrecision(3)}° apart (modulo 180°)`,
       { param: 'layout.anglesRadians', value: anglesRadians, limit: maxRosetteConditionNumber },
     );
   }

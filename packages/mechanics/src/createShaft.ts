@@ -77,7 +77,7 @@ export interface Shaft {
  * @example
  * ```ts
  * const shaft = createShaft({ diameterMeters: 0.025, modulusPascals: 200e9, poissonRatio: 0.3 });
- * shaft.torqueFromStrain(500e-6); // 235.9969… N·m
+ * shaft.torqueFromStrain(500e-6); // 235.99704… N·m
  * ```
  */
 export function createShaft(options: ShaftOptions): Shaft {

@@ -66,7 +66,7 @@ export interface SectionProperties {
  * @example
  * ```ts
  * sectionProperties({ shape: 'rectangular', widthMeters: 0.02, depthMeters: 0.006 });
- * // { areaSquareMeters: 1.2e-4, secondMomentOfAreaMeters4: 3.6e-10,
+ * // { areaSquareMeters: 0.00012, secondMomentOfAreaMeters4: 3.6e-10,
  * //   extremeFibreMeters: 0.003, sectionModulusCubicMeters: 1.2e-7 }
  * ```
  */

@@ -68,7 +68,7 @@ export function readStrainState(param: string, value: unknown): StrainState {
  * @example
  * ```ts
  * normalStrainAtAngle({ strainX: 800e-6, strainY: -200e-6, shearStrainXY: 600e-6 }, Math.PI / 4);
- * // 0.0006 (600 µε: (800 − 200)/2 + 600/2)
+ * // 0.0006000000000000001 (600 µε: (800 − 200)/2 + 600/2)
  * ```
  */
 export function normalStrainAtAngle(state: StrainState, angleRadians: number): number {

@@ -4,6 +4,7 @@ import {
   createRosette,
   maxRosetteConditionNumber,
   normalStrainAtAngle,
+  principalStrainsFromState,
   reduceRosette,
   type Rosette,
 } from '@bridgework/mechanics';
@@ -121,7 +122,7 @@ describe('reduceRosette: check values', () => {
 
 describe('reduceRosette: round trips (property tests)', () => {
   it.each(['rectangular', 'delta'] as const)(
-    '%s: legs from a random state reduce back to it within 1e-12 of the largest component',
+    '%s: legs from a random state reduce back to it within 2e-15 of the largest component',
     (layout) => {
       const rosette = createRosette({ layout });
       fc.assert(
@@ -129,9 +130,10 @@ describe('reduceRosette: round trips (property tests)', () => {
           // Legs at the exact angles, from a 40-digit hand evaluation of the transformation equation.
           const legs = namedLegsReference(layout, s.strainX, s.strainY, s.shearStrainXY);
           const r = rosette.reduce(legs);
-          // Floor: the legs themselves are rounded to doubles (ulp ≈ 1e-16 of the scale); the
-          // issue's bound is 1e-12 relative, measured against the largest state component.
-          const tol = { abs: 1e-12 * scaleOf(s) + 1e-300 };
+          // The issue asks for 1e-12 relative. Measured against the largest component (a component
+          // much smaller than the others cannot be resolved better than the legs' rounding, about
+          // ulp(max|εi|)), the reduction holds 2e-15: a few ulps.
+          const tol = { abs: 2e-15 * scaleOf(s) + 1e-300 };
           expect(r.strainX).toBeNear(s.strainX, tol);
           expect(r.strainY).toBeNear(s.strainY, tol);
           expect(r.shearStrainXY).toBeNear(s.shearStrainXY, tol);
@@ -279,11 +281,14 @@ describe('reduceRosette: the principal angle', () => {
 
   it('stays in (−π/2, π/2]: a shear of −0 with εx < εy gives +π/2, not −π/2', () => {
     const r = reduceRosette({ layout: 'rectangular', strains: [-100e-6, 50e-6, 200e-6] });
-    // γ = 2·50 − (−100) − 200 = 0 (exactly, in doubles: −0 or +0 either way)
+    // γ = 2·50 − (−100) − 200 = 0 exactly
     expect(r.shearStrainXY).toBe(0);
     expect(r.angleRadians).toBe(Math.PI / 2);
     const s = createRosette({ layout: { anglesRadians: [0, Math.PI / 4, Math.PI / 2] } });
     expect(s.reduce([-100e-6, 50e-6, 200e-6]).angleRadians).toBeNear(Math.PI / 2, { abs: 1e-12 });
+    // atan2(−0, negative) is −π: the axis at −π/2 is reported as the same axis at +π/2.
+    const p = principalStrainsFromState({ strainX: -100e-6, strainY: 200e-6, shearStrainXY: -0 });
+    expect(p.angleFromXRadians).toBe(Math.PI / 2);
   });
 
   it('random states: the reported angle is the direction of maximum normal strain', () => {
@@ -382,12 +387,14 @@ describe('reduceRosette: nearly parallel legs', () => {
         reduceRosette({ layout: { anglesRadians }, strains: [1e-4, 2e-4, 3e-4] }),
       ).toThrowBridgeworkError('singular', { param: 'layout.anglesRadians' });
     }
+    let caught: unknown;
     try {
       createRosette({ layout: { anglesRadians: [0, 0.05 * deg, 90 * deg] } });
     } catch (e) {
-      expect((e as Error).message).toMatch(/0\.0500° apart/);
-      expect((e as { limit: unknown }).limit).toBe(maxRosetteConditionNumber);
+      caught = e;
     }
+    expect((caught as Error).message).toMatch(/closest two legs are 0\.0500° apart/);
+    expect((caught as { limit: unknown }).limit).toBe(maxRosetteConditionNumber);
   });
 });
 
