@@ -1,0 +1,28 @@
+import { BridgeworkError, checkPositive, requireOption } from '@bridgework/core';
+import { sectionProperties, type SectionProperties } from '../sectionProperties.js';
+import { checkExclusive } from './inputs.js';
+
+/**
+ * Reads a section property given either directly (`direct` option) or through `section`: exactly
+ * one of the two.
+ */
+export function sectionOrDirect(
+  o: Record<string, unknown>,
+  direct: string,
+  pick: (p: SectionProperties) => number,
+): number {
+  checkExclusive(o, ['section', direct]);
+  if (o['section'] !== undefined) return pick(sectionProperties(o['section'] as never));
+  if (o[direct] === undefined) {
+    throw new BridgeworkError('missing-option', `\`${direct}\` or \`section\` must be given; got neither`, {
+      param: direct,
+      value: undefined,
+    });
+  }
+  return checkPositive(direct, o[direct]);
+}
+
+/** Young's modulus option, required. */
+export function readModulus(o: Record<string, unknown>): number {
+  return checkPositive('modulusPascals', requireOption('modulusPascals', o['modulusPascals']));
+}

@@ -1,0 +1,115 @@
+import {
+  BridgeworkError,
+  checkNonNegative,
+  checkObject,
+  checkOneOf,
+  checkPositive,
+  formatValue,
+} from '@bridgework/core';
+
+/** A solid rectangular section, bent about the axis parallel to its width. */
+export interface RectangularSection {
+  /** Discriminant. */
+  readonly shape: 'rectangular';
+  /** Width b in m (> 0), parallel to the neutral axis. */
+  readonly widthMeters: number;
+  /** Depth h in m (> 0), in the plane of bending (gauged face to opposite face). */
+  readonly depthMeters: number;
+}
+
+/** A solid or hollow circular section (round bar, shaft or tube). */
+export interface CircularSection {
+  /** Discriminant. */
+  readonly shape: 'circular';
+  /** Outside diameter D in m (> 0). */
+  readonly diameterMeters: number;
+  /** Bore d in m, 0 ≤ d < D. Default 0 (solid). */
+  readonly innerDiameterMeters?: number;
+}
+
+/** A member cross-section: {@link RectangularSection} or {@link CircularSection}. */
+export type Section = RectangularSection | CircularSection;
+
+/** Elastic properties of a cross-section for bending about its neutral axis. */
+export interface SectionProperties {
+  /** Area A, m². */
+  readonly areaSquareMeters: number;
+  /** Second moment of area I about the neutral axis, m⁴. */
+  readonly secondMomentOfAreaMeters4: number;
+  /** Distance c from the neutral axis to the surface (the gauged fibre), m. */
+  readonly extremeFibreMeters: number;
+  /** Elastic section modulus S = I/c, m³. */
+  readonly sectionModulusCubicMeters: number;
+}
+
+/**
+ * Area, second moment of area and elastic section modulus of a rectangular or circular section.
+ *
+ * @remarks
+ * Handbook formulas (for example Roark's _Formulas for Stress and Strain_, table of section
+ * properties; from memory):
+ *
+ * | section | A | I | c | S = I/c |
+ * |---|---|---|---|---|
+ * | rectangle b × h (bending across h) | b·h | b·h³/12 | h/2 | b·h²/6 |
+ * | circle D, bore d | π(D² − d²)/4 | π(D⁴ − d⁴)/64 | D/2 | π(D⁴ − d⁴)/(32D) |
+ *
+ * D² − d² and D⁴ − d⁴ are evaluated as (D − d)(D + d) and (D − d)(D + d)(D² + d²), so a thin
+ * tube keeps full relative precision (D − d is exact when d ≥ D/2). The polar moment of a
+ * circular section is J = 2I (perpendicular-axis theorem), used by {@link createShaft}.
+ *
+ * @param section - `{ shape: 'rectangular', widthMeters, depthMeters }` or
+ *   `{ shape: 'circular', diameterMeters, innerDiameterMeters? }`.
+ * @returns A (m²), I (m⁴), c (m) and S (m³).
+ * @throws {@link @bridgework/core!BridgeworkError} `wrong-type`, `invalid-option` (unknown shape),
+ *   `not-finite`, `not-positive`, `negative`, `out-of-range` (bore not smaller than the diameter).
+ * @example
+ * ```ts
+ * sectionProperties({ shape: 'rectangular', widthMeters: 0.02, depthMeters: 0.006 });
+ * // { areaSquareMeters: 0.00012, secondMomentOfAreaMeters4: 3.6e-10,
+ * //   extremeFibreMeters: 0.003, sectionModulusCubicMeters: 1.2e-7 }
+ * ```
+ */
+export function sectionProperties(section: Section): SectionProperties {
+  const s = checkObject('section', section);
+  const shape = checkOneOf('section.shape', s['shape'], ['rectangular', 'circular'] as const);
+  if (shape === 'rectangular') {
+    const b = checkPositive('section.widthMeters', s['widthMeters']);
+    const h = checkPositive('section.depthMeters', s['depthMeters']);
+    return {
+      areaSquareMeters: b * h,
+      secondMomentOfAreaMeters4: (b * h * h * h) / 12,
+      extremeFibreMeters: h / 2,
+      sectionModulusCubicMeters: (b * h * h) / 6,
+    };
+  }
+  const [outer, inner] = checkDiameters('section.', s['diameterMeters'], s['innerDiameterMeters']);
+  return circularSectionProperties(outer, inner);
+}
+
+/** @internal Checks an outside diameter (> 0) and an optional bore (0 ≤ d < D, default 0). */
+export function checkDiameters(prefix: string, diameter: unknown, bore: unknown): [number, number] {
+  const outer = checkPositive(`${prefix}diameterMeters`, diameter);
+  const param = `${prefix}innerDiameterMeters`;
+  const inner = bore === undefined ? 0 : checkNonNegative(param, bore);
+  if (!(inner < outer)) {
+    throw new BridgeworkError(
+      'out-of-range',
+      `\`${param}\` must be in [0, ${String(outer)}) (smaller than the diameter); got ${formatValue(inner)}`,
+      { param, value: inner, limit: [0, outer] },
+    );
+  }
+  return [outer, inner];
+}
+
+/** @internal Properties of a circular section of checked diameters D > d ≥ 0. */
+export function circularSectionProperties(outer: number, inner: number): SectionProperties {
+  const differenceOfSquares = (outer - inner) * (outer + inner);
+  const differenceOfFourthPowers = differenceOfSquares * (outer * outer + inner * inner);
+  return {
+    areaSquareMeters: (Math.PI * differenceOfSquares) / 4,
+    secondMomentOfAreaMeters4: (Math.PI * differenceOfFourthPowers) / 64,
+    extremeFibreMeters: outer / 2,
+    sectionModulusCubicMeters: (Math.PI * differenceOfFourthPowers) / (32 * outer),
+  };
+}
