@@ -9,3 +9,11 @@
  * ```
  */
 export const CALIBRATION_POISSON_RATIO = 0.285;
+
+/** The transverse sensitivity of a gauge and the calibration convention it refers to. */
+export interface TransverseSensitivityOptions {
+  /** Transverse sensitivity Kt of the gauge, in (−1, 1) (as a fraction: 2 % is 0.02). */
+  readonly transverseSensitivity: number;
+  /** Poisson ratio ν0 of the gauge-factor calibration beam, in (−1, 0.5]. Default 0.285. */
+  readonly poissonRatio0?: number;
+}

@@ -1,16 +1,13 @@
 import { checkFinite, checkObject } from '@bridgework/core';
+import type { TransverseSensitivityOptions } from './calibrationPoissonRatio.js';
 import { checkPoissonRatio0, checkTransverseSensitivity } from './internal/transverse.js';
 
 /** Options of {@link correctTransverseGauge}. */
-export interface CorrectTransverseGaugeOptions {
+export interface CorrectTransverseGaugeOptions extends TransverseSensitivityOptions {
   /** The strain indicated by the gauge, m/m. */
   readonly strain: number;
   /** The true strain perpendicular to the gauge axis, m/m (known from the stress state or another gauge). */
   readonly transverseStrain: number;
-  /** Transverse sensitivity Kt of the gauge, in (−1, 1). */
-  readonly transverseSensitivity: number;
-  /** Poisson ratio ν0 of the gauge-factor calibration beam, in (−1, 0.5]. Default 0.285. */
-  readonly poissonRatio0?: number;
 }
 
 /**

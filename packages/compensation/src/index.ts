@@ -11,6 +11,7 @@ export {
   type FullBridgeLeadOptions,
   type FullBridgeWiring,
   type LeadDesensitizationOptions,
+  type QuarterBridgeGaugeOptions,
   type QuarterBridgeLeadOptions,
   type QuarterBridgeWiring,
 } from './leadDesensitization.js';
@@ -31,7 +32,7 @@ export {
   type GaugeTemperatureOptions,
   type IndicatedStrainWithTemperatureEffectsOptions,
 } from './correctTemperatureEffects.js';
-export { CALIBRATION_POISSON_RATIO } from './calibrationPoissonRatio.js';
+export { CALIBRATION_POISSON_RATIO, type TransverseSensitivityOptions } from './calibrationPoissonRatio.js';
 export {
   indicatedTransverseStrain,
   type IndicatedTransverseStrainOptions,

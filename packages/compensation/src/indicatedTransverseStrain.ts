@@ -1,16 +1,13 @@
 import { checkFinite, checkObject } from '@bridgework/core';
+import type { TransverseSensitivityOptions } from './calibrationPoissonRatio.js';
 import { checkPoissonRatio0, checkTransverseSensitivity } from './internal/transverse.js';
 
 /** Options of {@link indicatedTransverseStrain}. */
-export interface IndicatedTransverseStrainOptions {
+export interface IndicatedTransverseStrainOptions extends TransverseSensitivityOptions {
   /** True strain along the gauge axis εa, m/m. */
   readonly axialStrain: number;
   /** True strain perpendicular to the gauge axis εt, m/m. */
   readonly transverseStrain: number;
-  /** Transverse sensitivity Kt of the gauge, in (−1, 1) (as a fraction: 2 % is 0.02). */
-  readonly transverseSensitivity: number;
-  /** Poisson ratio ν0 of the gauge-factor calibration beam, in (−1, 0.5]. Default 0.285. */
-  readonly poissonRatio0?: number;
 }
 
 /**

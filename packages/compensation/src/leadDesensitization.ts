@@ -8,6 +8,18 @@ export type QuarterBridgeWiring = 'two-wire' | 'three-wire';
 /** Lead wirings of a full-bridge transducer (see `LeadWiring` in the core package). */
 export type FullBridgeWiring = 'four-wire' | 'six-wire';
 
+/** A quarter-bridge gauge and its wiring, shared by the lead functions that need the gauge factor. */
+export interface QuarterBridgeGaugeOptions {
+  /** Gauge factor (> 0). */
+  readonly gaugeFactor: number;
+  /** Unstrained gauge resistance Rg in Ω (> 0). Default 350. */
+  readonly gaugeOhms?: number;
+  /** Completion resistance of arms 2, 3 and 4 in Ω (> 0). Default `gaugeOhms`. */
+  readonly completionOhms?: number;
+  /** `'two-wire'` or `'three-wire'`. */
+  readonly wiring: QuarterBridgeWiring;
+}
+
 /** Lead options of a quarter-bridge gauge on two or three wires. */
 export interface QuarterBridgeLeadOptions {
   /** `'two-wire'` (both leads in arm 1) or `'three-wire'` (one lead in arm 1, one in arm 2). */

@@ -1,17 +1,9 @@
 import { checkFinite, checkNonNegative, checkObject } from '@bridgework/core';
-import type { QuarterBridgeWiring } from './leadDesensitization.js';
+import type { QuarterBridgeGaugeOptions } from './leadDesensitization.js';
 import { checkQuarterSetup, quarterBridge } from './internal/leads.js';
 
 /** Options of {@link leadTemperatureEffect}. */
-export interface LeadTemperatureEffectOptions {
-  /** Gauge factor (> 0). */
-  readonly gaugeFactor: number;
-  /** Unstrained gauge resistance Rg in Ω (> 0). Default 350. */
-  readonly gaugeOhms?: number;
-  /** Completion resistance of arms 2, 3 and 4 in Ω (> 0). Default `gaugeOhms`. */
-  readonly completionOhms?: number;
-  /** `'two-wire'` or `'three-wire'`. */
-  readonly wiring: QuarterBridgeWiring;
+export interface LeadTemperatureEffectOptions extends QuarterBridgeGaugeOptions {
   /** Resistance of one lead when the channel was zeroed (and as its bridge model assumes), Ω (≥ 0). */
   readonly referenceOhmsPerLead: number;
   /** Resistance of one lead now, after its temperature changed, Ω (≥ 0); see `wireOhms`. */

@@ -1,19 +1,11 @@
 import { checkNonNegative, checkObject } from '@bridgework/core';
-import type { QuarterBridgeWiring } from './leadDesensitization.js';
+import type { QuarterBridgeGaugeOptions } from './leadDesensitization.js';
 import { checkQuarterSetup, quarterBridge } from './internal/leads.js';
 
 /** Options of {@link leadZeroOffset}. */
-export interface LeadZeroOffsetOptions {
-  /** Gauge factor (> 0). */
-  readonly gaugeFactor: number;
-  /** Unstrained gauge resistance Rg in Ω (> 0). Default 350. */
-  readonly gaugeOhms?: number;
-  /** Completion resistance of arms 2, 3 and 4 in Ω (> 0). Default `gaugeOhms`. */
-  readonly completionOhms?: number;
+export interface LeadZeroOffsetOptions extends QuarterBridgeGaugeOptions {
   /** Resistance of one lead conductor RL in Ω (≥ 0). */
   readonly ohmsPerLead: number;
-  /** `'two-wire'` or `'three-wire'`. */
-  readonly wiring: QuarterBridgeWiring;
 }
 
 /** The zero offset that lead resistance gives a quarter bridge (see {@link leadZeroOffset}). */
