@@ -160,8 +160,13 @@ describe('createRtd: bad inputs', () => {
     });
   });
 
+  it('rejects a non-object', () => {
+    expect(() => createRtd(null as never)).toThrowBridgeworkError('wrong-type', { param: 'options' });
+  });
+
   it.each([
     ['zero R0', { r0Ohms: 0 }, 'not-positive', 'r0Ohms'],
+    ['infinite R0', { r0Ohms: Infinity }, 'not-finite', 'r0Ohms'],
     ['negative A', { a: -3.9e-3 }, 'not-positive', 'a'],
     ['NaN B', { b: Number.NaN }, 'not-finite', 'b'],
     ['a B that turns R(t) down before 850 °C', { b: -3e-6 }, 'out-of-range', 'b'],

@@ -53,11 +53,23 @@ describe('createSteinhartHartThermistor', () => {
     );
   });
 
-  it('round-trips t → R → t within 1e-11 K over −55…150 °C for every branch', () => {
+  it('round-trips t → R → t within 1e-11 K over −80…250 °C for every branch', () => {
     fc.assert(
-      fc.property(families, fc.double({ min: -55, max: 150, noNaN: true }), (k, t) => {
+      fc.property(families, fc.double({ min: -80, max: 250, noNaN: true }), (k, t) => {
         const m = createSteinhartHartThermistor(k);
         expect(m.temperatureAt(m.ohmsAt(t))).toBeNear(t, { abs: 1e-11 });
+      }),
+      { numRuns: 2000 },
+    );
+  });
+
+  it('round-trips R → t → R within 1e-13 relative over 10 Ω … 10 MΩ for every branch', () => {
+    fc.assert(
+      fc.property(families, fc.double({ min: 1, max: 7, noNaN: true }), (k, decade) => {
+        const m = createSteinhartHartThermistor(k);
+        const ohms = 10 ** decade;
+        // ln R carries an absolute error of ~u, so R comes back within a few ulps of exp.
+        expect(m.ohmsAt(m.temperatureAt(ohms))).toBeNear(ohms, { rel: 1e-13 });
       }),
       { numRuns: 2000 },
     );

@@ -30,7 +30,8 @@ describe('leadTemperatureEffect: closed forms', () => {
             ohmsPerLead: rl1,
             strain: e,
           });
-          // Floor 3e-16 m/m: arm sums are rounded (ulp(R) ≈ 6e-14 Ω) and divided by GF·Rg.
+          // Floor 3e-16 m/m: arm sums are rounded (ulp(R) ≈ 6e-14 Ω) and divided by GF·Rg. 1e-9
+          // relative: apparent = indicated − true cancels by up to |ε|/|apparent| when ΔRL is small.
           expect(r.apparentStrain).toBeNear((2 * (rl1 - rl0)) / (gf * rg), { rel: 1e-9, abs: 3e-16 });
           expect(r.indicatedStrain - e).toBeNear(r.apparentStrain, { ulps: 0 });
         },
