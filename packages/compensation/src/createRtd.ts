@@ -126,7 +126,7 @@ const MAX_ITERATIONS = 100;
  * @example
  * ```ts
  * const pt100 = createRtd();
- * pt100.ohmsAt(100); // 138.5055 Ω (IEC 60751 table: 138.51)
+ * pt100.ohmsAt(100); // ≈ 138.5055 Ω (IEC 60751 table: 138.51)
  * pt100.temperatureAt(60.25584); // ≈ -100 (table: 60.26 Ω)
  * pt100.toleranceAt({ toleranceClass: 'A', temperatureCelsius: 100 }); // { celsius: 0.35, ohms: 0.132748 }
  * ```
