@@ -1,0 +1,52 @@
+import { checkNonNegative, checkObject } from '@bridgework/core';
+import type { QuarterBridgeGaugeOptions } from './leadDesensitization.js';
+import { checkQuarterSetup, quarterBridge } from './internal/leads.js';
+
+/** Options of {@link leadZeroOffset}. */
+export interface LeadZeroOffsetOptions extends QuarterBridgeGaugeOptions {
+  /** Resistance of one lead conductor RL in Ω (≥ 0). */
+  readonly ohmsPerLead: number;
+}
+
+/** The zero offset that lead resistance gives a quarter bridge (see {@link leadZeroOffset}). */
+export interface LeadZeroOffset {
+  /** Output ratio at zero strain with the leads, V/V. */
+  readonly offsetRatio: number;
+  /**
+   * The strain (m/m) that a model of the same bridge without leads reads for `offsetRatio`: the
+   * apparent strain of the leads before the channel is zeroed.
+   */
+  readonly apparentStrain: number;
+}
+
+/**
+ * The zero offset of a two- or three-wire quarter bridge caused by its lead resistance.
+ *
+ * @remarks
+ * Both numbers come from `createStrainBridge` of the bridge package (exact, ideal meter): the
+ * offset is the ratio of the bridge with its leads at zero strain, and the apparent strain is the
+ * exact inverse of that ratio through the same bridge without leads. Two-wire leads add 2RL to
+ * arm 1, so the apparent strain is exactly 2RL/(GF·Rg) whatever the completion; with
+ * completion = Rg the offset is RL/(2(Rg + RL)). Three-wire leads add RL to arms 1 and 2, so with
+ * completion = Rg the bridge stays balanced: offset and apparent strain are exactly 0 (the reason
+ * for the three-wire circuit). These closed forms are checked in the tests.
+ *
+ * @param options - Gauge factor, gauge and completion resistance, lead resistance and wiring.
+ * @returns The offset ratio and its apparent strain.
+ * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for a wiring other than
+ *   two- or three-wire; `not-positive`, `negative`, `not-finite`, `wrong-type` for bad numbers;
+ *   `ratio-out-of-range` when the offset is beyond what the lead-free bridge can read.
+ * @example
+ * ```ts
+ * const z = leadZeroOffset({ gaugeFactor: 2, gaugeOhms: 350, ohmsPerLead: 1, wiring: 'two-wire' });
+ * z.offsetRatio; // 0.0014245014245... (1.42 mV/V)
+ * z.apparentStrain; // 0.002857142857... (2857 µε = 2·1/(2·350))
+ * ```
+ */
+export function leadZeroOffset(options: LeadZeroOffsetOptions): LeadZeroOffset {
+  const o = checkObject('options', options);
+  const setup = checkQuarterSetup(o);
+  const ohmsPerLead = checkNonNegative('ohmsPerLead', o['ohmsPerLead']);
+  const offsetRatio = quarterBridge(setup, ohmsPerLead).offsetRatio;
+  return { offsetRatio, apparentStrain: quarterBridge(setup, undefined).strainFromRatio(offsetRatio) };
+}
