@@ -43,4 +43,26 @@ describe('examples', () => {
     const force = Number(/hanger force\s+([-\d.]+) kN/.exec(out)?.[1]);
     expect(force).toBeNear((205e9 * 561e-6 * strain) / 1e3, { abs: 0.005 });
   });
+
+  it('rosette-transverse: the printed corrected legs reproduce the readings through the transverse model', () => {
+    const out = run('rosette-transverse.ts');
+    const legs = ['a', 'b', 'c'].map((leg) => {
+      const m = new RegExp(`^${leg}\\s+([-\\d.]+)\\s+([-\\d.]+)$`, 'm').exec(out);
+      return [Number(m?.[1]), Number(m?.[2])] as const;
+    });
+    // Strain along θ from the corrected legs of a 0/45/90 rosette: εx = εa, εy = εc, γ = 2εb − εa − εc,
+    // ε(θ) = (εx + εy)/2 + (εx − εy)/2·cos 2θ + γ/2·sin 2θ (Mohr; any mechanics text).
+    const [a, b, c] = legs.map((l) => l[1]) as [number, number, number];
+    const gamma = 2 * b - a - c;
+    const along = (t: number) =>
+      (a + c) / 2 + ((a - c) / 2) * Math.cos(2 * t) + (gamma / 2) * Math.sin(2 * t);
+    const kt = [0.018, 0.011, 0.018];
+    const angles = [0, Math.PI / 4, Math.PI / 2];
+    // Indicated strain of a gauge: (ε_axial + Kt·ε_transverse)/(1 − ν0·Kt), ν0 = 0.285 (common practice).
+    legs.forEach(([indicated], i) => {
+      const t = angles[i]!;
+      const predicted = (along(t) + kt[i]! * along(t + Math.PI / 2)) / (1 - 0.285 * kt[i]!);
+      expect(predicted).toBeNear(indicated, { abs: 0.02 }); // printed to 2 decimals (µε)
+    });
+  });
 });
