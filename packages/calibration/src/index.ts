@@ -1,0 +1,10 @@
+export type {
+  BridgeArm,
+  ShuntBridgeOptions,
+  ShuntDefinition,
+  ShuntOhmsForStrainOptions,
+  ShuntPlacement,
+  ShuntRatios,
+  StrainFromShuntOptions,
+} from './shuntOptions.js';
+export { shuntOhmsForStrain, shuntRatios, strainFromShunt } from './shuntStrain.js';
