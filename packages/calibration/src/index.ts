@@ -8,3 +8,12 @@ export type {
   StrainFromShuntOptions,
 } from './shuntOptions.js';
 export { shuntOhmsForStrain, shuntRatios, strainFromShunt } from './shuntStrain.js';
+export {
+  ratioChangeFromShunt,
+  shuntEquivalentLoad,
+  shuntOhmsForRatioChange,
+  type RatioChangeFromShuntOptions,
+  type ShuntEquivalentLoadOptions,
+  type ShuntOhmsForRatioChangeOptions,
+  type TransducerShuntOptions,
+} from './transducerShunt.js';
