@@ -1,3 +1,12 @@
+export {
+  createFitter,
+  type ClosedInterval,
+  type Fitter,
+  type InverseMethod,
+  type PolynomialFit,
+  type PolynomialFitOptions,
+} from './createFitter.js';
+export { fitTwoPoint, type TwoPointFit, type TwoPointFitOptions } from './fitTwoPoint.js';
 export type {
   BridgeArm,
   ShuntBridgeOptions,
