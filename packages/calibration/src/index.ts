@@ -1,3 +1,12 @@
+export type { CheckResult } from './checkResult.js';
+export {
+  createCertificateScale,
+  type BuoyancyOptions,
+  type CapacityUnit,
+  type CertificateScale,
+  type CertificateScaleOptions,
+  type LoadUnit,
+} from './createCertificateScale.js';
 export {
   createFitter,
   type ClosedInterval,
@@ -6,6 +15,28 @@ export {
   type PolynomialFit,
   type PolynomialFitOptions,
 } from './createFitter.js';
+export {
+  createLoadCellClass,
+  loadCellAccuracyClasses,
+  type CreepCheck,
+  type CreepCheckOptions,
+  type CreepLimits,
+  type LoadCellAccuracyClass,
+  type LoadCellClass,
+  type LoadCellClassOptions,
+  type LoadCellErrorCheck,
+  type LoadCellErrorRow,
+  type LoadCellErrorsOptions,
+  type LoadCellSpecification,
+} from './createLoadCellClass.js';
+export {
+  evaluateCertificate,
+  type CertificateEvaluation,
+  type CertificateOptions,
+  type CertificatePoint,
+  type CertificateRun,
+  type StraightLine,
+} from './evaluateCertificate.js';
 export { fitTwoPoint, type TwoPointFit, type TwoPointFitOptions } from './fitTwoPoint.js';
 export type {
   BridgeArm,
