@@ -330,8 +330,8 @@ function fit(algebra: LinearAlgebra, options: PolynomialFitOptions): PolynomialF
  * ```ts
  * const fitter = await createFitter();
  * const fit = fitter.fitPolynomial({ loads: [0, 1, 2, 3], readings: [0.1, 2.1, 3.9, 6.1], degree: 1 });
- * fit.coefficients; // [0.06, 1.98]
- * fit.loadAt(4); // ≈ 1.990
+ * fit.coefficients; // ≈ [0.08, 1.98]
+ * fit.loadAt(4); // ≈ 1.9798
  * ```
  */
 export async function createFitter(): Promise<Fitter> {

@@ -223,8 +223,8 @@ export interface LoadCellClass {
  * const c3 = createLoadCellClass({ accuracyClass: 'C', nLC: 3000, maxCapacity: 3000 }); // v = 1 kg
  * c3.mpe(400); // 0.35
  * c3.mpe(1500); // 0.7
- * c3.mpe(3000); // 1.05
- * c3.creepLimits().thirtyMinutes; // 0.735
+ * c3.mpe(3000); // ≈ 1.05 (pLC·1.5·v)
+ * c3.creepLimits().thirtyMinutes; // ≈ 0.735
  * ```
  */
 export function createLoadCellClass(options: LoadCellClassOptions): LoadCellClass {

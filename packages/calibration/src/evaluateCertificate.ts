@@ -136,8 +136,8 @@ function leastSquaresLine(x: readonly number[], y: readonly number[]): StraightL
  *   loads: [0, 500, 1000],
  *   runs: [{ ascending: [0, 1.0004e-3, 2e-3], descending: [0.0002e-3, 1.0008e-3, 2e-3] }],
  * });
- * e.terminalNonlinearityPercent; // 0.02
- * e.hysteresisPercent; // 0.02
+ * e.terminalNonlinearityPercent; // ≈ 0.02
+ * e.hysteresisPercent; // ≈ 0.02 (and combinedErrorPercent ≈ 0.04)
  * ```
  */
 export function evaluateCertificate(options: CertificateOptions): CertificateEvaluation {

@@ -33,7 +33,7 @@ function resistanceEquivalentFactor(setup: StrainShuntSetup): number {
  * @example
  * ```ts
  * shuntRatios({ gaugeOhms: 350, gaugeFactor: 2, shuntOhms: 174_650 });
- * // { zeroRatio: 0, shuntedRatio: -5.005005005005e-4 }
+ * // { zeroRatio: 0, shuntedRatio: ≈ -5.005005005005e-4 } (= −Rg/(2(Rg + 2Rs)))
  * ```
  */
 export function shuntRatios(options: StrainFromShuntOptions): ShuntRatios {

@@ -112,7 +112,7 @@ function transducerNetwork(options: unknown): ShuntNetwork {
  *   `not-integer` for an arm other than 1–4.
  * @example
  * ```ts
- * ratioChangeFromShunt({ bridgeOhms: 350, shuntOhms: 43_575 }); // -0.002 (−2.000000 mV/V)
+ * ratioChangeFromShunt({ bridgeOhms: 350, shuntOhms: 43_575 }); // ≈ -0.002 (−2.000000 mV/V)
  * ```
  */
 export function ratioChangeFromShunt(options: RatioChangeFromShuntOptions): number {
@@ -138,7 +138,7 @@ export function ratioChangeFromShunt(options: RatioChangeFromShuntOptions): numb
  *   zero shunt; and the errors of {@link ratioChangeFromShunt}.
  * @example
  * ```ts
- * shuntOhmsForRatioChange({ bridgeOhms: 350, ratioChange: -0.002 }); // 43575
+ * shuntOhmsForRatioChange({ bridgeOhms: 350, ratioChange: -0.002 }); // ≈ 43575
  * ```
  */
 export function shuntOhmsForRatioChange(options: ShuntOhmsForRatioChangeOptions): number {

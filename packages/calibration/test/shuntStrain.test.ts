@@ -247,7 +247,7 @@ describe('shunt calibration: sign convention (docs/conventions.md)', () => {
 });
 
 describe('shunt calibration against a 40-digit nodal solve of the physical circuit', () => {
-  it('zero and shunted readings agree for every arrangement, wiring, placement and arm (400 random cases)', () => {
+  it('zero and shunted readings agree for every arrangement, wiring, placement and arm (250 random cases)', () => {
     fc.assert(
       fc.property(configuration, shuntOhms, (options, rs) => {
         const computed = shuntRatios({ ...options, shuntOhms: rs });
@@ -272,7 +272,7 @@ describe('shunt calibration against a 40-digit nodal solve of the physical circu
           16 * Number.EPSILON * (1 + rs / Math.min(options.gaugeOhms, options.completionOhms!)) + 1e-13;
         expect(step).toBeNear(physicalStep, { rel });
       }),
-      { numRuns: 400 },
+      { numRuns: 250 },
     );
   });
 
@@ -305,7 +305,9 @@ describe('shunt calibration against a 40-digit nodal solve of the physical circu
       excitationVolts: 1,
       sourceOhms: 10,
     }).ratio;
-    expect(Math.abs(exact - naive) / Math.abs(exact)).toBeGreaterThan(1e-3);
+    // The shunt current, ≈ 0.5 V across 50 kΩ = 10 µA per volt of excitation, drops ≈ 5e-5 V/V in
+    // the 5 Ω sense lead: about 2.7 % of the step, far beyond rounding, so the models differ.
+    expect(Math.abs(exact - naive) / Math.abs(exact)).toBeGreaterThan(0.02);
   });
 });
 

@@ -77,7 +77,7 @@ describe('full-bridge transducer shunt: check values', () => {
           expect(computed).toBeNear(physical, { rel: 32 * Number.EPSILON * (1 + rs / 350) + 1e-13 });
         },
       ),
-      { numRuns: 200 },
+      { numRuns: 120 },
     );
   });
 
