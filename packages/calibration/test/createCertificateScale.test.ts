@@ -2,6 +2,14 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { createCertificateScale, type CertificateScaleOptions } from '@bridgework/calibration';
 
+/** 1000 kg of reference weights (conventional mass), read as a force. */
+const massToForce = {
+  capacity: 1000,
+  capacityUnit: 'kilogram',
+  ratedOutputVoltsPerVolt: 2e-3,
+  outputUnit: 'newton',
+} as const;
+
 describe('createCertificateScale', () => {
   it('a force certificate: load = capacity·(r − zero)/RO', () => {
     // 10 kN, RO 2.0012 mV/V, zero 0.0124 mV/V; half the rated output above zero is 5 kN (by hand).
@@ -32,11 +40,8 @@ describe('createCertificateScale', () => {
     // Reference weights of conventional mass 1000 kg at g = 9.8119 m/s² push with
     // 1000·9.8119·(1 − 0.00015) = 9810.428215 N (by hand).
     const scale = createCertificateScale({
-      capacity: 1000,
-      capacityUnit: 'kilogram',
-      ratedOutputVoltsPerVolt: 2e-3,
+      ...massToForce,
       calibrationGravityMetersPerSecondSquared: 9.8119,
-      outputUnit: 'newton',
     });
     expect(scale.capacityNewtons).toBeNear(9810.428215, { rel: 1e-14 });
     expect(scale.loadFromRatio(2e-3)).toBeNear(9810.428215, { rel: 1e-14 });
@@ -46,11 +51,8 @@ describe('createCertificateScale', () => {
     // Cast-iron weights (7100 kg/m³) in thin air (1.0 kg/m³) push slightly harder than the
     // conventional case: by hand, factor (1 − 1/7100)/(1 − 1.2/7100) = 1 + 0.2/7098.8.
     const scale = createCertificateScale({
-      capacity: 1000,
-      capacityUnit: 'kilogram',
-      ratedOutputVoltsPerVolt: 2e-3,
+      ...massToForce,
       calibrationGravityMetersPerSecondSquared: 9.81,
-      outputUnit: 'newton',
       buoyancy: { airDensityKilogramsPerCubicMeter: 1.0, weightDensityKilogramsPerCubicMeter: 7100 },
     });
     const expected = 1000 * 9.81 * (1 - 1.2 / 8000) * (1 + 0.2 / 7098.8);
@@ -59,11 +61,8 @@ describe('createCertificateScale', () => {
 
   it('without buoyancy, force is mass × gravity', () => {
     const scale = createCertificateScale({
-      capacity: 1000,
-      capacityUnit: 'kilogram',
-      ratedOutputVoltsPerVolt: 2e-3,
+      ...massToForce,
       calibrationGravityMetersPerSecondSquared: 9.81,
-      outputUnit: 'newton',
       buoyancy: false,
     });
     expect(scale.capacityNewtons).toBeNear(9810, { ulps: 1 });
