@@ -275,8 +275,8 @@ function chooseShift(
  * within ±1/2, or (−1, 0] for floor), Δ = M/2^s − m and β = bias/2^s − (offsetCode − offset)·m. The
  * analytic bound `errorBound` is max|ρ| + max|d·Δ + β| at the range ends. `maxAbsError` comes from
  * evaluating every code (up to 2^24 codes by default, in exact integer steps; see docs/firmware.md
- * for the proof) plus a measuring margin below 10^−14 LSB, or equals the analytic bound when the
- * range is sampled. The Q-format of the multiplier is Qm.n with n = shift and
+ * for the proof) plus a measuring margin ε = 8u(D|Δ| + |β|) + 2u (u = 2^−53, D = max|d|; zero when
+ * the coefficient and offset are exact), or equals the analytic bound when the range is sampled. The Q-format of the multiplier is Qm.n with n = shift and
  * m = coefficientBits − 1 − n ({@link QFormat}).
  *
  * @param options - Scale, offset, code range, output unit, word widths, rounding, reference, verification.
@@ -397,8 +397,11 @@ export function fixedPointMap(options: FixedPointMapOptions): FixedPointMap {
     sub(rat(evaluateExact(code)), mul(sub(rat(BigInt(code)), offset), m));
   const verification = verificationOf(scan, method, exactError);
   const dAbs = bigAbs(dMin) > bigAbs(dMax) ? bigAbs(dMin) : bigAbs(dMax);
-  // Margin of the binary64 affine part: ε = 8u(1 + D|Δ| + |β|) with u = 2^−53 (see fixedScan.ts).
-  const margin = mulPow2(add(add(rat(1n), mul(rat(dAbs), abs(delta))), abs(beta)), 3 - 53);
+  // Margin of the binary64 measurement (fixedScan.ts): ε = 8u(D|Δ| + |β|) + 2u with u = 2^−53, and
+  // 0 when the affine part vanishes (ρ alone is exact) unless ρ itself was rounded (shift > 52).
+  const affinePart = add(mul(rat(dAbs), abs(delta)), abs(beta));
+  const margin =
+    sign(affinePart) === 0 && shift <= 52 ? ZERO : add(mulPow2(affinePart, 3 - 53), mulPow2(rat(1n), 1 - 53));
   const measured = add(rationalFromNumber(Math.max(scan.maxError, -scan.minError)), margin);
   const proved = method === 'exhaustive' && cmp(measured, analytic) < 0 ? measured : analytic;
 

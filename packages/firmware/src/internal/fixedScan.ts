@@ -10,8 +10,12 @@
  * quotient) and an affine coefficient part. The exhaustive scan steps acc by M from one code to the
  * next as a quotient Q and a remainder r (acc = Q·2^s + r, 0 ≤ r < 2^s): for s ≤ 52 every step is
  * an exact operation on integers below 2^53 in binary64, so y and ρ are exact without BigInt. The
- * affine part is evaluated in binary64 with an absolute error below ε = 8u(1 + D|Δ| + |β|)
- * (u = 2^−53, D = max|d|), which the caller adds to the largest error found.
+ * affine part is evaluated in binary64 as e~ = ρ + (d·Δ~ + β~), with Δ~ and β~ the nearest
+ * doubles. With A = D|Δ|, B = |β| (u = 2^−53, D = max|d|): Δ~, β~, the product and the first sum
+ * each contribute a relative u, so |(d·Δ~ + β~) − (dΔ + β)| ≤ 3.01u(A + B); the last sum adds
+ * u|ρ + t| ≤ u(1 + A + B). Hence |e~ − e| ≤ ε = 8u(A + B) + 2u, and e~ = e exactly when Δ = β = 0
+ * (then t = 0 and ρ is exact). The caller adds ε to the largest |e~| found. For s > 52 the scan
+ * steps in BigInt and ρ is rounded once on conversion (relative u, inside the 2u term).
  */
 import { callReference } from './codes.js';
 import type { FixedPointRounding } from '../roundShift.js';
