@@ -1,6 +1,6 @@
 import { BridgeworkError, exactDecimalString, formatValue } from '@bridgework/core';
 import type { ExactValue } from '../exactValue.js';
-import { div, rat, sign, type Rational } from './rational.js';
+import { div, rat, reduce, sign, type Rational } from './rational.js';
 
 const DECIMAL = /^([+-]?)(\d*)(?:\.(\d*))?(?:[eE]([+-]?\d+))?$/;
 const MAX_EXPONENT = 4000;
@@ -73,7 +73,7 @@ export function exactRational(param: string, value: unknown): Rational {
       },
     );
   }
-  return div(numerator, denominator);
+  return reduce(div(numerator, denominator));
 }
 
 /** The exact rational value of a finite double (through core's exact decimal expansion). */

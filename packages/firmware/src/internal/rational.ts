@@ -1,9 +1,11 @@
 /**
  * Exact rational arithmetic on BigInt: the number system in which every constant and bound of
- * this package is derived. A rational is kept in lowest terms with a positive denominator.
+ * this package is derived. Arithmetic results keep a positive denominator but are not reduced (a
+ * gcd per operation costs more than the growth it saves over the few dozen operations of a bound);
+ * `rat` reduces, and every function accepts either form.
  */
 
-/** An exact rational number n/d in lowest terms, d > 0. */
+/** An exact rational number n/d, d > 0 (not necessarily in lowest terms). */
 export interface Rational {
   readonly n: bigint;
   readonly d: bigint;
@@ -24,23 +26,29 @@ export function rat(n: bigint, d: bigint = 1n): Rational {
   return g === 1n || g === 0n ? { n, d } : { n: n / g, d: d / g };
 }
 
+/** n/d for d > 0, without reduction. */
+function raw(n: bigint, d: bigint): Rational {
+  return { n, d };
+}
+
 export const ZERO: Rational = { n: 0n, d: 1n };
 export const ONE: Rational = { n: 1n, d: 1n };
 
 export function add(a: Rational, b: Rational): Rational {
-  return a.d === b.d ? rat(a.n + b.n, a.d) : rat(a.n * b.d + b.n * a.d, a.d * b.d);
+  return a.d === b.d ? raw(a.n + b.n, a.d) : raw(a.n * b.d + b.n * a.d, a.d * b.d);
 }
 
 export function sub(a: Rational, b: Rational): Rational {
-  return a.d === b.d ? rat(a.n - b.n, a.d) : rat(a.n * b.d - b.n * a.d, a.d * b.d);
+  return a.d === b.d ? raw(a.n - b.n, a.d) : raw(a.n * b.d - b.n * a.d, a.d * b.d);
 }
 
 export function mul(a: Rational, b: Rational): Rational {
-  return rat(a.n * b.n, a.d * b.d);
+  return raw(a.n * b.n, a.d * b.d);
 }
 
 export function div(a: Rational, b: Rational): Rational {
-  return rat(a.n * b.d, a.d * b.n);
+  if (b.n === 0n) throw new RangeError('rational division by zero');
+  return b.n < 0n ? raw(-a.n * b.d, -a.d * b.n) : raw(a.n * b.d, a.d * b.n);
 }
 
 export function neg(a: Rational): Rational {
@@ -69,12 +77,12 @@ export function max(a: Rational, b: Rational): Rational {
 
 /** a · 2^k for any integer k. */
 export function mulPow2(a: Rational, k: number): Rational {
-  return k >= 0 ? rat(a.n << BigInt(k), a.d) : rat(a.n, a.d << BigInt(-k));
+  return k >= 0 ? raw(a.n << BigInt(k), a.d) : raw(a.n, a.d << BigInt(-k));
 }
 
 /** a^k for an integer k ≥ 0. */
 export function pow(a: Rational, k: number): Rational {
-  return rat(a.n ** BigInt(k), a.d ** BigInt(k));
+  return raw(a.n ** BigInt(k), a.d ** BigInt(k));
 }
 
 /** ⌊a⌋. */
@@ -92,9 +100,9 @@ export function roundHalfEven(a: Rational): bigint {
   return f % 2n === 0n ? f : f + 1n;
 }
 
-/** True when a is an integer. */
-export function isInteger(a: Rational): boolean {
-  return a.d === 1n;
+/** a in lowest terms. */
+export function reduce(a: Rational): Rational {
+  return rat(a.n, a.d);
 }
 
 /** Bit length of a non-negative bigint (0 for 0). */
