@@ -235,9 +235,9 @@ function readCoefficients(o: Record<string, unknown>, kind: 'affine' | 'polynomi
  *   codeMin: -8388608,
  *   codeMax: 8388607,
  * });
- * map.scale; // 0.000023283064365386963 (2^-30 · 25000 exactly)
- * map.evaluate(2147484); // 50.000008... kg, as a float
- * map.maxAbsError; // ≈ 1.9e-6 kg: half an ulp of the float results near 50 kg
+ * map.scale; // 0.000023283064365386963 (25000 · 2^-30, exact in float32)
+ * map.evaluate(2147484); // 50.00000762939453 kg (a float32 value)
+ * map.maxAbsError; // 0.0000076293946… kg: 2^-17, half an ulp of float32 results near 195 kg
  * ```
  */
 export function floatMap(options: FloatMapOptions): FloatMap {
