@@ -338,8 +338,9 @@ export function floatMap(options: FloatMapOptions): FloatMap {
 }
 
 /**
- * Refuses maps whose results could leave the precision's finite range: every Horner intermediate
- * is at most max_k(|y_k|, |y_k|·X') with |y_k| ≤ Σ_(j≥k) |a_j| X'^(j−k), X' = X + 1 ≥ max|x̂|.
+ * Refuses maps whose results could leave the precision's finite range (for float64, 2^990, the
+ * range of the double-double reference): every Horner intermediate is at most
+ * max_k(|y_k|, |y_k|·X') with |y_k| ≤ Σ_(j≥k) |a_j| X'^(j−k), X' = X + 1 ≥ max|x̂|.
  */
 function checkResultRange(
   kind: 'affine' | 'polynomial',
@@ -362,7 +363,9 @@ function checkResultRange(
     peak = max(peak, max(partial, mul(partial, X)));
   }
   const reach = add(peak, bound);
-  if (cmp(reach, mulPow2(rat(1n), format.maxExponent)) > 0) {
+  // binary64: below 2^990, where the double-double reference's splitting (Dekker) cannot overflow.
+  const limitExponent = format === BINARY64 ? 990 : format.maxExponent;
+  if (cmp(reach, mulPow2(rat(1n), limitExponent)) > 0) {
     throw new BridgeworkError(
       'overflow',
       `the ${precision} results over codes ${range.codeMin} … ${range.codeMax} must stay finite; intermediate values could reach ${decimalString(reach)}`,

@@ -15,10 +15,9 @@
  * ACM TOMS 44(2), 2017 — from memory; the factor of 16 or more is margin). Its a priori error,
  * some 10^−29 of the map's magnitude, is added likewise.
  */
+import { twoProduct } from '@bridgework/core';
 import { callReference } from './codes.js';
 import type { FloatProgram } from './floatEval.js';
-
-const SPLITTER = 134217729; // 2^27 + 1
 
 /** The exact map in double-double form. */
 export interface ReferenceMap {
@@ -101,15 +100,9 @@ export function scanFloat(
       th = s;
       rl = lo[rn] as number;
       for (let k = rn - 1; k >= 0; k--) {
-        // (rh + rl)·(th + tl): Dekker's product of the high parts plus the cross terms.
-        const p = rh * th;
-        let t = SPLITTER * rh;
-        const ah = t - (t - rh);
-        const al = rh - ah;
-        t = SPLITTER * th;
-        const bh = t - (t - th);
-        const bl = th - bh;
-        const pe = al * bl - (p - ah * bh - al * bh - ah * bl);
+        // (rh + rl)·(th + tl): Dekker's product of the high parts (core's twoProduct; V8 removes the
+        // pair's allocation) plus the cross terms.
+        const [p, pe] = twoProduct(rh, th);
         const cross = pe + (rh * tl + rl * th);
         let mh = p + cross;
         let ml = cross - (mh - p);
