@@ -212,7 +212,9 @@ function chooseShift(
   for (let s = bits.accumulator - 2; s >= 0; s--) {
     const M = roundHalfEven(mulPow2(m, s));
     if (bigAbs(M) > coefLimit) continue;
-    if (!coefficientFits && M === 0n) {
+    // A zero multiplier maps every code to one output: a lower shift cannot help.
+    if (M === 0n && coefficientFits) break;
+    if (M === 0n) {
       throw new BridgeworkError(
         'out-of-range',
         `\`scale\` / \`outputUnit\` must be at least 2^-${bits.accumulator - 1} in magnitude to give a non-zero multiplier; got ${decimalString(m)}`,
@@ -242,7 +244,7 @@ function chooseShift(
   }
   overflow(
     'accumulatorBits',
-    `\`accumulatorBits\` (${bits.accumulator}) must hold (code − offsetCode)·multiplier over the code range at some shift ≥ 0; it overflows at every shift`,
+    `\`accumulatorBits\` (${bits.accumulator}) must hold (code − offsetCode)·multiplier over the code range at some shift with a non-zero multiplier; it overflows at every one`,
     bits.accumulator,
     `${accLimit}`,
   );

@@ -288,6 +288,20 @@ describe('fixedPointMap: overflow is an error', () => {
     ).toThrowBridgeworkError('overflow', { param: 'accumulatorBits' });
   });
 
+  it('never falls back to a zero multiplier to make the accumulator fit', () => {
+    // m = 2^-20 with codes ±(2^23 − 2^18) and a 24-bit accumulator (limit 2^23 − 1): at shift 20,
+    // M = 1 and |d|·M + 2^19 = 2^23 + 2^18 overflows; at shift 19, M = round(1/2) = 0 would fit, but
+    // it maps every code to 0. That is refused as an accumulator overflow.
+    const range = { codeMin: -(2 ** 23 - 2 ** 18), codeMax: 2 ** 23 - 2 ** 18 };
+    expect(() =>
+      fixedPointMap({ scale: String(2 ** -20), outputUnit: '1', ...range, accumulatorBits: 24 }),
+    ).toThrowBridgeworkError('overflow', { param: 'accumulatorBits' });
+    // One bit more and shift 20 fits.
+    expect(
+      fixedPointMap({ scale: String(2 ** -20), outputUnit: '1', ...range, accumulatorBits: 25 }).multiplier,
+    ).toBeGreaterThan(0);
+  });
+
   it('keeps every intermediate within the accumulator: the range and limit are reported', () => {
     const map = fixedPointMap({
       scale: '30/2134169.2493824',
