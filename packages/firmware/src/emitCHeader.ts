@@ -1,3 +1,4 @@
+import { BridgeworkError } from '@bridgework/core';
 import type { cIdentifierFromName } from './cIdentifierFromName.js';
 import type { EmitOptions } from './emitOptions.js';
 import type { FixedPointMap } from './fixedPointMap.js';
@@ -319,5 +320,29 @@ export function emitCHeader(options: EmitOptions): string {
     ...channels.flatMap((c) => channelSection(prefix, c)),
     `#endif /* ${guard} */`,
   ];
+  checkDistinctNames(lines);
   return `${lines.join('\n')}\n`;
+}
+
+/**
+ * Every macro and function name must be defined once. Identifiers are distinct by construction
+ * (channel names are distinct and every channel name carries a suffix), so this guards the guard.
+ */
+function checkDistinctNames(lines: readonly string[]): void {
+  const seen = new Set<string>();
+  for (const line of lines) {
+    const name = /^#define (\w+)/.exec(line)?.[1] ?? /^static inline \w+ (\w+)\(/.exec(line)?.[1];
+    if (name === undefined) continue;
+    if (seen.has(name)) {
+      throw new BridgeworkError(
+        'conflicting-options',
+        `\`channels\` must give distinct C names; '${name}' repeats`,
+        {
+          param: 'channels',
+          value: name,
+        },
+      );
+    }
+    seen.add(name);
+  }
 }
