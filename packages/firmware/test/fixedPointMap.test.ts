@@ -159,20 +159,32 @@ describe('fixedPointMap: constants and bounds against decimal.js over every code
         let map;
         try {
           map = build(c, 64);
-        } catch {
+        } catch (e) {
+          expect((e as { code: string }).code).toMatch(/^(out-of-range|overflow)$/); // as above
           return;
         }
+        // The constants one shift higher, recomputed with decimal.js from the exact inputs.
         const m = decimalOf(c.scale).div(decimalOf(c.outputUnit));
-        const next = m
-          .times(new D(2).pow(map.shift + 1))
-          .toDecimalPlaces(0, D.ROUND_HALF_EVEN)
-          .abs();
-        const wordFull = next.greaterThan(new D(2).pow(map.coefficientBits - 1).minus(1));
+        const s1 = map.shift + 1;
+        const next = m.times(new D(2).pow(s1)).toDecimalPlaces(0, D.ROUND_HALF_EVEN);
+        const oc = map.offsetCode;
+        const bias = new D(oc)
+          .minus(decimalOf(c.offset))
+          .times(m)
+          .times(new D(2).pow(s1))
+          .toDecimalPlaces(0, D.ROUND_HALF_EVEN);
+        const half = c.rounding === 'floor' ? new D(0) : new D(2).pow(s1 - 1);
         const limit = new D(2).pow(map.accumulatorBits - 1).minus(1);
-        const dMax = Math.max(Math.abs(map.codeMin - map.offsetCode), Math.abs(map.codeMax - map.offsetCode));
-        // The accumulator holds about dMax·M plus the rounding addend: doubling the shift doubles both.
-        const accFull = next.times(dMax).plus(new D(2).pow(map.shift)).greaterThan(limit.times(0.999));
-        const shiftFull = map.shift + 1 > map.accumulatorBits - 2;
+        const wordFull = next.abs().greaterThan(new D(2).pow(map.coefficientBits - 1).minus(1));
+        const ends = [map.codeMin - oc, map.codeMax - oc].map((d) => new D(d));
+        const values = [
+          next,
+          bias,
+          ...ends.map((d) => d.times(next)),
+          ...ends.map((d) => d.times(next).plus(bias).abs().plus(half)),
+        ];
+        const accFull = values.some((v) => v.abs().greaterThan(limit));
+        const shiftFull = s1 > map.accumulatorBits - 2;
         expect(wordFull || accFull || shiftFull).toBe(true);
         // And the multiplier is the nearest integer to m·2^s.
         const exact = m.times(new D(2).pow(map.shift));
@@ -185,7 +197,8 @@ describe('fixedPointMap: constants and bounds against decimal.js over every code
   });
 
   it('gives the exact worst cases of an exact coefficient (m = 3/8): 7/8 for floor, 1/2 for the halves', () => {
-    // d·3/8 mod 1 takes the values k/8: floor loses up to 7/8; the nearest rules at most 1/2 (at d ≡ 4 mod 8... ties).
+    // d·3/8 mod 1 takes every value k/8: floor loses up to 7/8; the nearest rules 1/2, at the exact
+    // halves d ≡ 4 (mod 8).
     const base = { scale: '0.375', outputUnit: '1', codeMin: -1000, codeMax: 1000 };
     expect(fixedPointMap({ ...base, rounding: 'floor' }).maxAbsError).toBe(0.875);
     expect(fixedPointMap({ ...base, rounding: 'half-even' }).maxAbsError).toBe(0.5);
