@@ -52,7 +52,11 @@ export function usageLine(spec: Pick<CommandSpec, 'name' | 'positionals'>): stri
  */
 export function formatCommandHelp(spec: CommandSpec, options: HelpFormatOptions = {}): string {
   const width = options.width ?? 80;
-  const lines: string[] = [`${program} ${spec.name}: ${spec.summary}`, '', `Usage: ${usageLine(spec)}`];
+  const lines: string[] = [
+    ...wrapText(`${program} ${spec.name}: ${spec.summary}`, width),
+    '',
+    `Usage: ${usageLine(spec)}`,
+  ];
   for (const paragraph of spec.description.split(/\n\s*\n/)) lines.push('', ...wrapText(paragraph, width));
   if (spec.positionals.length > 0) {
     lines.push('', 'Arguments:');

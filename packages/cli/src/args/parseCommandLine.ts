@@ -59,10 +59,14 @@ export function convertOptionValue(o: OptionSpec, text: string): string | number
     case 'integer': {
       const trimmed = text.trim();
       if (!decimal.test(trimmed)) {
-        throw new BridgeworkError('wrong-type', `\`${name}\` must be a number; got '${text}'`, {
-          param: name,
-          value: text,
-        });
+        throw new BridgeworkError(
+          'wrong-type',
+          `\`${name}\` must be ${o.type === 'integer' ? 'an integer' : 'a number'}; got '${text}'`,
+          {
+            param: name,
+            value: text,
+          },
+        );
       }
       const x = Number(trimmed);
       if (!Number.isFinite(x)) {

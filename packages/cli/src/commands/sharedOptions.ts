@@ -9,8 +9,7 @@ export const outOption = {
   type: 'string',
   placeholder: 'file',
   defaultText: 'standard output',
-  description:
-    'Write the result to this file instead of standard output (atomically: a complete file or none).',
+  description: 'Write the result to this file, atomically: it appears complete or not at all.',
 } as const;
 
 /** `-f, --force`: allow replacing existing output files. */
@@ -18,7 +17,7 @@ export const forceOption = {
   name: 'force',
   short: 'f',
   type: 'boolean',
-  description: 'Replace output files that exist already (without it, an existing file is an error).',
+  description: 'Replace output files that exist already; without it, an existing file is an error.',
 } as const;
 
 /** `-c, --channel <name>`: select one channel of a multi-channel file. */
@@ -35,7 +34,7 @@ export const channelOption = {
 export const jsonOption = {
   name: 'json',
   type: 'boolean',
-  description: 'Print JSON for scripts instead of the text table (it carries the same safety caution).',
+  description: 'Print JSON for scripts instead of the text table; it carries the same safety caution.',
 } as const;
 
 /** The channel-file positional argument. */

@@ -27,7 +27,7 @@ export const constantsOptions = [
     type: 'string',
     placeholder: 'name',
     defaultText: 'the channel name in upper case',
-    description: 'Prefix of the C identifiers (letters, digits and underscores).',
+    description: 'Prefix of the C identifiers: letters, digits and underscores.',
   },
 ] as const satisfies readonly OptionSpec[];
 

@@ -75,7 +75,7 @@ export const convertOptions = [
   {
     name: 'fail-on-clip',
     type: 'boolean',
-    description: 'Exit with code 2 when any sample is clipped (the output is still written).',
+    description: 'Exit with code 2 when any sample is clipped; the output is still written.',
   },
 ] as const satisfies readonly OptionSpec[];
 
