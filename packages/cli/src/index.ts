@@ -59,7 +59,7 @@ export {
 export { openInt32Codes, type Int32CodeOptions } from './data/readInt32Codes.js';
 export { openCsvCodes, type CsvCodeOptions } from './data/readCsvCodes.js';
 export { codeFormatFromPath, openCodeSource, type OpenCodeSourceOptions } from './data/openCodeSource.js';
-export { streamTextSink, type TextSink } from './data/textSink.js';
+export { streamSink, type OutputSink } from './data/outputSink.js';
 export { createCsvWriter, type CsvWriter, type CsvWriterOptions } from './data/createCsvWriter.js';
 export {
   createClipCounter,

@@ -1,4 +1,5 @@
 import { BridgeworkError } from '@bridgework/core';
+import { checkJsonSyntax } from '../internal/checkJsonSyntax.js';
 import { isMap, isScalar, isSeq, LineCounter, parseDocument, type Document, type Node } from 'yaml';
 
 /** A place in a text file: 1-based line and column. */
@@ -76,21 +77,12 @@ function positionOf(text: string, offset: number): SourcePosition {
 }
 
 function parseJson(text: string, file: string): unknown {
-  try {
-    return JSON.parse(text) as unknown;
-  } catch (e) {
-    const message = (e as Error).message;
-    // V8 names the offending offset ("... in JSON at position 42"); newer versions add the line.
-    const offset = /at position (\d+)/.exec(message)?.[1];
-    const where =
-      offset === undefined
-        ? ''
-        : `:${positionOf(text, Number(offset)).line}:${positionOf(text, Number(offset)).column}`;
-    throw parseError(
-      `${file}${where}: malformed JSON: ${message.replace(/ in JSON at position \d+.*$/, '')}`,
-      file,
-    );
+  const problem = checkJsonSyntax(text);
+  if (problem !== undefined) {
+    const p = positionOf(text, problem.offset);
+    throw parseError(`${file}:${p.line}:${p.column}: malformed JSON: ${problem.message}`, file);
   }
+  return JSON.parse(text) as unknown;
 }
 
 /**
@@ -103,8 +95,8 @@ function parseJson(text: string, file: string): unknown {
  * reported with its line and column, all at once:
  * `hopper.yaml:7:5: malformed YAML: Map keys must be unique`.
  *
- * JSON is checked by `JSON.parse` first (so it is strict JSON, and errors name the line and
- * column), then read again through the YAML parser (JSON is YAML 1.2) to find duplicate keys,
+ * JSON is checked against the strict JSON grammar first (RFC 8259: no comments, no trailing
+ * commas, no NaN; the first error is named with its line and column), then read again through the YAML parser (JSON is YAML 1.2) to find duplicate keys,
  * which `JSON.parse` would silently drop, and to map field paths to positions.
  *
  * Values are returned as they are written; YAML's `.nan` and `.inf` become NaN and Infinity and

@@ -1,4 +1,4 @@
-import { streamTextSink } from '../data/textSink.js';
+import { streamSink } from '../data/outputSink.js';
 import { writeFileAtomic } from '../files/atomicFile.js';
 import type { CommandContext } from './CommandContext.js';
 
@@ -26,7 +26,7 @@ export async function emitText(
   options: EmitTextOptions,
 ): Promise<void> {
   if (options.out === undefined || options.out === '-') {
-    await streamTextSink(context.io.stdout).write(text);
+    await streamSink(context.io.stdout).write(text);
     return;
   }
   await writeFileAtomic(options.out, text, { force: options.force });

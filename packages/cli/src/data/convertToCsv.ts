@@ -5,7 +5,7 @@ import type { InterleavedConverter } from './clipCounter.js';
 import type { CodeSource } from './codeSource.js';
 import { convertCodeStream, type ConversionResult } from './convertCodeStream.js';
 import { createCsvWriter } from './createCsvWriter.js';
-import { streamTextSink } from './textSink.js';
+import { streamSink } from './outputSink.js';
 
 /** Progress reporting used by {@link convertToCsv} (a {@link ProgressBar} fits). */
 export interface ProgressSink {
@@ -71,9 +71,7 @@ export async function convertToCsv(options: ConvertToCsvOptions): Promise<Conver
     });
   try {
     if (options.output === undefined) {
-      return await run(
-        streamTextSink(requireOption('stdout', options.stdout, 'when no output file is given')),
-      );
+      return await run(streamSink(requireOption('stdout', options.stdout, 'when no output file is given')));
     }
     const file = await openAtomicFile(options.output, { force: options.force === true });
     try {

@@ -88,3 +88,8 @@ export function parseUnit(text: string): ParsedUnit {
     },
   };
 }
+
+/** Whether mathjs has been loaded in this process (for the test that plain numbers never load it). */
+export function isMathLoaded(): boolean {
+  return math !== undefined;
+}

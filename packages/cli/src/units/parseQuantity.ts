@@ -135,8 +135,8 @@ function convertTemperature(
  *
  * **Exactness**: when the unit's factor to SI is an exact power of ten (SI prefixes, `mV/V`,
  * `N/mm^2`, `bar`, `g`), the result is the double nearest the exact decimal value (the text's
- * exponent is shifted before `Number` reads it, so `"1.1 kohm"` is exactly 1100, not
- * 1100.0000000000002). Other factors (`psi`, `lbf`, `in`, `degF`) are applied by mathjs in
+ * exponent is shifted before `Number` reads it, so `"2.3 uA"` is 2.3e-6, not the
+ * 2.2999999999999996e-6 of 2.3 × 1e-6). Other factors (`psi`, `lbf`, `in`, `degF`) are applied by mathjs in
  * double precision (a few ulps). Between `degC` and `K` the offset 273.15 K is added or
  * subtracted once.
  *
