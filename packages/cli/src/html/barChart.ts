@@ -39,7 +39,7 @@ export interface BarChartOptions {
   readonly series: readonly BarSeries[];
   /** Indices of categories to emphasise (a combined total, say): drawn with a bold label. */
   readonly emphasize?: readonly number[];
-  /** Width in CSS pixels (integer in [320, 2000]). Default 640. */
+  /** Width in CSS pixels (integer in [320, 2000]). Default 560. */
   readonly width?: number;
 }
 
@@ -87,7 +87,7 @@ function valueLabel(v: number): string {
  */
 export function barChart(options: BarChartOptions): SvgPlot {
   const id = checkPlotId(options.id);
-  const width = checkInteger('width', options.width ?? 640, { min: 320, max: 2000 });
+  const width = checkInteger('width', options.width ?? 560, { min: 320, max: 2000 });
   const { categories } = options;
   if (categories.length === 0 || options.series.length === 0) {
     throw new BridgeworkError(

@@ -42,9 +42,9 @@ export interface LinePlotOptions {
   readonly y: PlotAxis;
   /** The curves (at least one). */
   readonly series: readonly LineSeries[];
-  /** Width in CSS pixels (integer in [240, 2000]). Default 640. */
+  /** Width in CSS pixels (integer in [240, 2000]). Default 560. */
   readonly width?: number;
-  /** Height in CSS pixels (integer in [160, 2000]). Default 360. */
+  /** Height in CSS pixels (integer in [160, 2000]). Default 340. */
   readonly height?: number;
 }
 
@@ -77,8 +77,8 @@ export interface LinePlotOptions {
  */
 export function linePlot(options: LinePlotOptions): SvgPlot {
   const id = checkPlotId(options.id);
-  const width = checkInteger('width', options.width ?? 640, { min: 240, max: 2000 });
-  const height = checkInteger('height', options.height ?? 360, { min: 160, max: 2000 });
+  const width = checkInteger('width', options.width ?? 560, { min: 240, max: 2000 });
+  const height = checkInteger('height', options.height ?? 340, { min: 160, max: 2000 });
   if (options.series.length === 0) {
     throw new BridgeworkError('too-few-points', '`series` must hold at least one series; got none', {
       param: 'series',

@@ -2,9 +2,9 @@ import { BridgeworkError, checkFinite, checkInteger } from '@bridgework/core';
 
 /** Axis ticks chosen by {@link niceTicks}. */
 export interface NiceTicks {
-  /** Lower end of the axis (a multiple of `step`, at or below the data minimum). */
+  /** Lower end of the axis (a multiple of `step`, at or below the data minimum, within about 1e-9 of a step). */
   readonly min: number;
-  /** Upper end of the axis (a multiple of `step`, at or above the data maximum). */
+  /** Upper end of the axis (a multiple of `step`, at or above the data maximum, within about 1e-9 of a step). */
   readonly max: number;
   /** Distance between ticks: 1, 2 or 5 times a power of ten. */
   readonly step: number;
@@ -17,12 +17,12 @@ export interface NiceTicks {
 /** The "nice" number nearest `x` (rounded) or at or above it: 1, 2, 5 or 10 times a power of ten. */
 function nice(x: number, round: boolean): number {
   const exponent = Math.floor(Math.log10(x));
-  const p = 10 ** exponent;
-  const f = x / p;
+  // Number('1e-4') is the double nearest 10⁻⁴; 10 ** -4 may be an ulp off (0.00009999999999999999).
+  const f = x / Number(`1e${exponent}`);
   let n: number;
   if (round) n = f < 1.5 ? 1 : f < 3 ? 2 : f < 7 ? 5 : 10;
   else n = f <= 1 ? 1 : f <= 2 ? 2 : f <= 5 ? 5 : 10;
-  return n * p;
+  return Number(`${n}e${exponent}`);
 }
 
 /**
@@ -31,10 +31,13 @@ function nice(x: number, round: boolean): number {
  * @remarks
  * Method: the loose-labelling algorithm of P. S. Heckbert, "Nice numbers for graph labels",
  * Graphics Gems (1990): the range is rounded up to a nice number, divided by `count − 1`, the
- * step rounded to the nearest nice number, and the ends moved out to multiples of the step. Tick
+ * step rounded to the nearest nice number, and the ends moved out to multiples of the step (a
+ * data end within 1e-9 of a step of a multiple counts as on it, so rounding noise such as
+ * 0.3/0.1 = 2.9999999999999996 adds no tick). Tick
  * values are computed as integer multiples of the step and rounded to its decimals, so labels
  * print without floating-point noise (`0.30000000000000004`). A range of zero width is widened
- * to ±1 (at zero) or ±10 % of the value, so a constant series still gets an axis.
+ * to ±1 (at zero) or ±10 % of the value, so a constant series still gets an axis; a range narrower
+ * than 1e-9 of its magnitude is widened to that, since its labels could not be told apart.
  *
  * @param lo - Smallest data value (finite).
  * @param hi - Largest data value (finite, ≥ `lo`).
@@ -64,6 +67,14 @@ export function niceTicks(lo: number, hi: number, count = 6): NiceTicks {
     lo -= pad;
     hi += pad;
   }
+  // A span below 1e-9 of the values' magnitude cannot be labelled in doubles (and k × step
+  // would pass 2^53): widen it, centred, to that minimum.
+  const minSpan = 1e-9 * Math.max(Math.abs(lo), Math.abs(hi));
+  if (hi - lo < minSpan) {
+    const mid = lo / 2 + hi / 2;
+    lo = mid - minSpan / 2;
+    hi = mid + minSpan / 2;
+  }
   const range = nice(hi - lo, false);
   const step = nice(range / (count - 1), true);
   // A relative slack of 1e-9 keeps 0.3/0.1 = 2.9999999999999996 from adding a tick below 0.3.
@@ -72,7 +83,7 @@ export function niceTicks(lo: number, hi: number, count = 6): NiceTicks {
   const decimals = Math.max(0, -Math.floor(Math.log10(step) + 1e-9));
   const round = (k: number): number => Number((k * step).toFixed(Math.min(decimals, 100)));
   const values: number[] = [];
-  for (let k = first; k <= last; k++) values.push(round(k) + 0); // + 0 turns −0 into 0
+  for (let i = 0; i <= last - first; i++) values.push(round(first + i) + 0); // + 0 turns −0 into 0
   return { min: round(first) + 0, max: round(last) + 0, step, values, decimals };
 }
 

@@ -25,7 +25,8 @@ th, td { padding: 5px 12px 5px 0; border-bottom: 1px solid var(--line); text-ali
 th { font-weight: 600; color: var(--muted); border-bottom: 2px solid var(--line); }
 td.num, th.num { text-align: right; font-variant-numeric: tabular-nums; }
 tbody tr:nth-child(even) td { background: var(--soft); }
-.plots { display: grid; grid-template-columns: repeat(auto-fit, minmax(440px, 1fr)); gap: 18px; margin: 12px 0 20px; }
+.plots { display: grid; grid-template-columns: repeat(auto-fit, minmax(440px, 1fr)); gap: 18px; margin: 12px 0 20px;
+  align-items: start; }
 .plots figure { margin: 0; padding: 8px; border: 1px solid var(--line); border-radius: 6px; background: #fff; }
 .plots svg { display: block; width: 100%; height: auto; }
 ul.checks { list-style: none; padding: 0; margin: 10px 0 18px; }
