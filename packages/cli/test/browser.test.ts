@@ -62,16 +62,16 @@ describe('HTML report in a browser', () => {
             b.left < a.right - 0.5 &&
             a.top < b.bottom - 0.5 &&
             b.top < a.bottom - 0.5;
-          return [...document.querySelectorAll<SVGSVGElement>('svg.bw-plot')].map((svg) => {
-            const series = [...svg.querySelectorAll('g.bw-series')];
-            const xTicks = [...svg.querySelectorAll('g.bw-axis-x text.bw-tick')].map((t) =>
+          return Array.from(document.querySelectorAll<SVGSVGElement>('svg.bw-plot')).map((svg) => {
+            const series = Array.from(svg.querySelectorAll('g.bw-series'));
+            const xTicks = Array.from(svg.querySelectorAll('g.bw-axis-x text.bw-tick')).map((t) =>
               t.getBoundingClientRect(),
             );
             let tickOverlaps = 0;
             for (let i = 1; i < xTicks.length; i++)
               if (boxesOverlap(xTicks[i - 1] as DOMRect, xTicks[i] as DOMRect)) tickOverlaps++;
             const yLabel = svg.querySelector('g.bw-axis-y text.bw-axis-label')?.getBoundingClientRect();
-            const yTicks = [...svg.querySelectorAll('g.bw-axis-y text.bw-tick')].map((t) =>
+            const yTicks = Array.from(svg.querySelectorAll('g.bw-axis-y text.bw-tick')).map((t) =>
               t.getBoundingClientRect(),
             );
             const parsed = new DOMParser().parseFromString(svg.outerHTML, 'image/svg+xml');
@@ -79,10 +79,10 @@ describe('HTML report in a browser', () => {
               id: svg.dataset['plot'] ?? '',
               seriesCount: Number(svg.dataset['seriesCount']),
               series: series.map((g) => (g as SVGGElement).dataset['series'] ?? ''),
-              legend: [...svg.querySelectorAll('g.bw-legend-item')].map(
+              legend: Array.from(svg.querySelectorAll('g.bw-legend-item')).map(
                 (g) => (g as SVGGElement).dataset['series'] ?? '',
               ),
-              axisLabels: [...svg.querySelectorAll('text.bw-axis-label')].map((t) => t.textContent ?? ''),
+              axisLabels: Array.from(svg.querySelectorAll('text.bw-axis-label')).map((t) => t.textContent ?? ''),
               nonEmptySeries: series.filter((g) => {
                 const r = g.getBoundingClientRect();
                 return r.width > 10 && r.height > 1;
