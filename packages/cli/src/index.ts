@@ -26,14 +26,6 @@ export { commands } from './commands/registry.js';
 export type { CommandContext } from './commands/CommandContext.js';
 export { notAvailableYet } from './commands/notAvailable.js';
 export { emitText, type EmitTextOptions } from './commands/emitText.js';
-export { reportCommand } from './commands/report/reportCommand.js';
-export { constantsCommand } from './commands/constants/constantsCommand.js';
-export { convertCommand } from './commands/convert/convertCommand.js';
-export { parseColumnList, runConversion, type ConversionChannels } from './commands/convert/runConversion.js';
-export type { ConvertArgs } from './commands/convert/convertCommand.js';
-export { uncertaintyCommand } from './commands/uncertainty/uncertaintyCommand.js';
-export { demoCommand } from './commands/demo/demoCommand.js';
-export { helpCommand } from './commands/help/helpCommand.js';
 
 // Terminal output
 export { colorEnabled, createTextStyle, type TextStyle } from './terminal/textStyle.js';

@@ -82,7 +82,9 @@ describe('HTML report in a browser', () => {
               legend: Array.from(svg.querySelectorAll('g.bw-legend-item')).map(
                 (g) => (g as SVGGElement).dataset['series'] ?? '',
               ),
-              axisLabels: Array.from(svg.querySelectorAll('text.bw-axis-label')).map((t) => t.textContent ?? ''),
+              axisLabels: Array.from(svg.querySelectorAll('text.bw-axis-label')).map(
+                (t) => t.textContent ?? '',
+              ),
               nonEmptySeries: series.filter((g) => {
                 const r = g.getBoundingClientRect();
                 return r.width > 10 && r.height > 1;

@@ -70,7 +70,10 @@ export type OptionValue<O extends OptionSpec> = O['type'] extends 'boolean'
   ? boolean
   : O['type'] extends 'number' | 'integer'
     ? number
-    : O extends { readonly choices: readonly (infer C)[] }
+    : O extends {
+          /** The allowed values. */
+          readonly choices: readonly (infer C)[];
+        }
       ? C
       : string;
 
@@ -81,14 +84,20 @@ export type OptionValue<O extends OptionSpec> = O['type'] extends 'boolean'
 export type OptionValues<Os extends readonly OptionSpec[]> = {
   readonly [O in Os[number] as CamelCase<O['name']>]: O['type'] extends 'boolean'
     ? boolean
-    : O extends { readonly default: string | number }
+    : O extends {
+          /** The default value. */
+          readonly default: string | number;
+        }
       ? OptionValue<O>
       : OptionValue<O> | undefined;
 };
 
 /** The parsed positional arguments of a command, keyed by camel-case name. */
 export type PositionalValues<Ps extends readonly PositionalSpec[]> = {
-  readonly [P in Ps[number] as CamelCase<P['name']>]: P extends { readonly required: true }
+  readonly [P in Ps[number] as CamelCase<P['name']>]: P extends {
+    /** The argument must be given. */
+    readonly required: true;
+  }
     ? string
     : string | undefined;
 };

@@ -15,7 +15,15 @@ export const helpOption: OptionSpec = Object.freeze({
 export type ParsedCommandLine<
   Os extends readonly OptionSpec[] = readonly OptionSpec[],
   Ps extends readonly PositionalSpec[] = readonly PositionalSpec[],
-> = { readonly help: true } | ({ readonly help: false } & ParsedArgs<Os, Ps>);
+> =
+  | {
+      /** `-h` or `--help` was given: show the help and do nothing else. */
+      readonly help: true;
+    }
+  | ({
+      /** No help was asked for: the arguments follow. */
+      readonly help: false;
+    } & ParsedArgs<Os, Ps>);
 
 const decimal = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
 
@@ -38,7 +46,7 @@ function usageError(code: 'invalid-option' | 'missing-option', param: string, me
  * @param o - The option's table row.
  * @param text - The text given on the command line.
  * @returns The typed value.
- * @throws {@link BridgeworkError} `wrong-type` (not a number), `not-integer`, `out-of-range`,
+ * @throws {@link @bridgework/core!BridgeworkError} `wrong-type` (not a number), `not-integer`, `out-of-range`,
  * `invalid-option` (not one of the choices).
  */
 export function convertOptionValue(o: OptionSpec, text: string): string | number {
@@ -121,7 +129,7 @@ export function convertOptionValue(o: OptionSpec, text: string): string | number
  * @param spec - The command (its option table and positionals).
  * @param argv - The arguments after the command word.
  * @returns `{ help: true }`, or `{ help: false, options, positionals }` with defaults applied.
- * @throws {@link BridgeworkError} `invalid-option`, `missing-option`, `wrong-type`, `not-finite`,
+ * @throws {@link @bridgework/core!BridgeworkError} `invalid-option`, `missing-option`, `wrong-type`, `not-finite`,
  * `not-integer` or `out-of-range`, with `param` naming the option (e.g. `'--out'`) or the
  * argument (`'<channel-file>'`).
  * @example

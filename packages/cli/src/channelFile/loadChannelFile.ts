@@ -88,7 +88,7 @@ function unknownKeys(record: Record<string, unknown>, known: readonly string[], 
  * @param document - The parsed file.
  * @param options - The channel validator.
  * @returns The validated file.
- * @throws {@link BridgeworkError} `invalid-spec` whose message lists every problem as
+ * @throws {@link @bridgework/core!BridgeworkError} `invalid-spec` whose message lists every problem as
  * `file:line:column: field.path: message` (see {@link formatIssues}) and whose `issues` hold them.
  */
 export function validateChannelDocument<T>(
@@ -165,7 +165,7 @@ export function validateChannelDocument<T>(
  * @param file - The path of a YAML or JSON channel file.
  * @param options - The channel validator.
  * @returns The validated file.
- * @throws {@link BridgeworkError} `io-error`, `parse-error` (malformed YAML or JSON, with line and
+ * @throws {@link @bridgework/core!BridgeworkError} `io-error`, `parse-error` (malformed YAML or JSON, with line and
  * column) or `invalid-spec` (every problem, with its field path).
  * @example
  * ```ts
@@ -187,7 +187,7 @@ export async function loadChannelFile<T>(
  * @param file - The validated file.
  * @param names - The names, or `undefined` for all.
  * @returns The selected channels.
- * @throws {@link BridgeworkError} `invalid-option` for a name that is not in the file (with the
+ * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for a name that is not in the file (with the
  * closest one suggested) or a name given twice.
  */
 export function selectChannels<T>(

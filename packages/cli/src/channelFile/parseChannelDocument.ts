@@ -106,7 +106,7 @@ function parseJson(text: string, file: string): unknown {
  * @param file - The file name for messages.
  * @param syntax - `'yaml'` or `'json'`. Default: `'json'` for a `.json` name, else `'yaml'`.
  * @returns The parsed document.
- * @throws {@link BridgeworkError} `parse-error` listing every syntax error with its position.
+ * @throws {@link @bridgework/core!BridgeworkError} `parse-error` listing every syntax error with its position.
  * @example
  * ```ts
  * const doc = parseChannelDocument('channels:\n  hook:\n    excitation: { volts: 5 V }\n', 'hook.yaml');

@@ -8,7 +8,7 @@ import { parseChannelDocument, type ChannelDocument } from './parseChannelDocume
  *
  * @param file - The path; `.json` files are JSON, anything else YAML.
  * @returns The parsed document.
- * @throws {@link BridgeworkError} `io-error` (missing or unreadable file, not UTF-8 text),
+ * @throws {@link @bridgework/core!BridgeworkError} `io-error` (missing or unreadable file, not UTF-8 text),
  * `parse-error` (malformed YAML or JSON, with line and column).
  * @example
  * ```ts

@@ -2,7 +2,7 @@ import type { CliIo } from '../cliIo.js';
 import type { ProgressBar, ProgressBarOptions } from '../terminal/progressBar.js';
 import type { TextStyle } from '../terminal/textStyle.js';
 
-/** What a command body gets besides its arguments (see {@link createCommandContext}). */
+/** What a command body gets besides its arguments (built by the command runner). */
 export interface CommandContext {
   /** The command word (`'report'`), for messages. */
   readonly command: string;

@@ -18,7 +18,7 @@ export interface EmitTextOptions {
  * @param text - The result.
  * @param options - `out` and `force`.
  * @returns When the text is written.
- * @throws {@link BridgeworkError} `file-exists`, `io-error`.
+ * @throws {@link @bridgework/core!BridgeworkError} `file-exists`, `io-error`.
  */
 export async function emitText(
   context: CommandContext,

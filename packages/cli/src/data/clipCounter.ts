@@ -73,7 +73,7 @@ export interface ClipCounter {
  *
  * @param channels - Channels per frame (integer in [1, 4096]).
  * @returns The counter.
- * @throws {@link BridgeworkError} `not-integer` / `out-of-range` for `channels`; from `add`,
+ * @throws {@link @bridgework/core!BridgeworkError} `not-integer` / `out-of-range` for `channels`; from `add`,
  * `invalid-shape` when the block is too short and `model-not-finite` for ±Infinity; a plain `Error`
  * (a converter defect) when the converter's count disagrees with the NaN samples found.
  * @example

@@ -33,7 +33,7 @@ export interface ConversionResult {
  *
  * @param options - Source, converter, writer and progress hook.
  * @returns Frames converted and the clipped-sample summary.
- * @throws {@link BridgeworkError} from the source (`parse-error`, `io-error`), the counter
+ * @throws {@link @bridgework/core!BridgeworkError} from the source (`parse-error`, `io-error`), the counter
  * (`model-not-finite`) or the sink; nothing is retried.
  * @example
  * ```ts

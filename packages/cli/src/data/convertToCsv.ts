@@ -48,7 +48,7 @@ export interface ConvertToCsvOptions {
  *
  * @param options - Source, converter, output, header, digits, progress.
  * @returns Frames converted and the clipped-sample summary.
- * @throws {@link BridgeworkError} `file-exists`, `io-error`, `parse-error`, `model-not-finite`,
+ * @throws {@link @bridgework/core!BridgeworkError} `file-exists`, `io-error`, `parse-error`, `model-not-finite`,
  * `missing-option` (neither `output` nor `stdout`).
  * @example
  * ```ts

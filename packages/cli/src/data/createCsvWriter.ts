@@ -48,7 +48,7 @@ const MAX_CELL_BYTES = 32;
  * @param channels - Values per row (integer in [1, 4096]).
  * @param options - Header, digits and NaN text.
  * @returns The writer.
- * @throws {@link BridgeworkError} `not-integer` or `out-of-range` (channels, digits, frames),
+ * @throws {@link @bridgework/core!BridgeworkError} `not-integer` or `out-of-range` (channels, digits, frames),
  * `invalid-shape` (a header with the wrong number of names).
  * @example
  * ```ts

@@ -39,7 +39,7 @@ export function codeFormatFromPath(path: string): CodeFileFormat {
  * @param file - The file path.
  * @param options - Format, channel count (raw), columns (CSV) and block size.
  * @returns The opened source.
- * @throws {@link BridgeworkError} `missing-option` when a raw file is opened without `channels`,
+ * @throws {@link @bridgework/core!BridgeworkError} `missing-option` when a raw file is opened without `channels`,
  * and everything the format's reader throws.
  */
 export async function openCodeSource(file: string, options: OpenCodeSourceOptions = {}): Promise<CodeSource> {

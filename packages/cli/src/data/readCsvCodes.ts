@@ -79,7 +79,7 @@ function detectDelimiter(line: string): string | undefined {
  * @param file - The file path.
  * @param options - Block size and selected columns.
  * @returns The opened source; read it with `blocks()`.
- * @throws {@link BridgeworkError} `io-error` (missing or unreadable file), `parse-error` (empty
+ * @throws {@link @bridgework/core!BridgeworkError} `io-error` (missing or unreadable file), `parse-error` (empty
  * file, mixed header, unknown column name or number, a bad field while reading),
  * `invalid-option` (a column selected twice).
  * @example

@@ -37,12 +37,12 @@ export function decodeInt32LittleEndian(bytes: Uint8Array, out: Int32Array, coun
  * to disk). Its size must be a whole number of frames: this is checked here, before any output is
  * written, and again at the end of reading in case the file changed. On a little-endian host the
  * block's `Int32Array` is a view of the read buffer (no copy); on a big-endian host the bytes are
- * decoded with {@link decodeInt32LittleEndian}.
+ * decoded byte by byte.
  *
  * @param file - The file path.
  * @param options - Channels per frame and block size.
  * @returns The opened source; read it with `blocks()`.
- * @throws {@link BridgeworkError} `io-error` (missing or unreadable file), `parse-error` (size not
+ * @throws {@link @bridgework/core!BridgeworkError} `io-error` (missing or unreadable file), `parse-error` (size not
  * a whole number of frames), `not-integer` or `out-of-range` (channels, block size).
  * @example
  * ```ts

@@ -90,7 +90,7 @@ async function exists(path: string): Promise<boolean> {
  * @param path - The output file (relative paths against the process's working folder).
  * @param options - `force` to allow replacing an existing file.
  * @returns The open file.
- * @throws {@link BridgeworkError} `file-exists` when the file exists and `force` is not set;
+ * @throws {@link @bridgework/core!BridgeworkError} `file-exists` when the file exists and `force` is not set;
  * `io-error` when the folder is missing, the path is a folder, or the file cannot be created.
  * @example
  * ```ts
@@ -199,7 +199,7 @@ export async function openAtomicFile(path: string, options: AtomicFileOptions = 
  * @param data - Its content (text is written as UTF-8).
  * @param options - `force` to allow replacing an existing file.
  * @returns When the file is in place.
- * @throws {@link BridgeworkError} `file-exists` or `io-error`.
+ * @throws {@link @bridgework/core!BridgeworkError} `file-exists` or `io-error`.
  * @example
  * ```ts
  * await writeFileAtomic('hopper.h', header, { force: true });

@@ -73,7 +73,7 @@ function valueLabel(v: number): string {
  *
  * @param options - Id, title, categories, value axis, series.
  * @returns The chart.
- * @throws {@link BridgeworkError} `invalid-option` (bad id), `too-few-points` (no category or no
+ * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` (bad id), `too-few-points` (no category or no
  * series), `invalid-shape` (a series without one value per category), `not-finite` (a value),
  * `not-integer`/`out-of-range` (width, emphasised index).
  * @example

@@ -63,7 +63,7 @@ export interface LinePlotOptions {
  *
  * @param options - Id, title, axes, series and size.
  * @returns The plot.
- * @throws {@link BridgeworkError} `invalid-option` (bad id), `too-few-points` (no series),
+ * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` (bad id), `too-few-points` (no series),
  * `invalid-shape` (x and y of different lengths), `not-integer`/`out-of-range` (size).
  * @example
  * ```ts

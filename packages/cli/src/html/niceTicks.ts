@@ -44,7 +44,7 @@ function nice(x: number, round: boolean): number {
  * @param count - Wanted number of ticks (integer in [2, 20]). Default 6; the result has between
  * about `count − 2` and `count + 3`.
  * @returns The ticks.
- * @throws {@link BridgeworkError} `not-finite`, `wrong-type`, `out-of-range` (`hi < lo`, `count`).
+ * @throws {@link @bridgework/core!BridgeworkError} `not-finite`, `wrong-type`, `out-of-range` (`hi < lo`, `count`).
  * @example
  * ```ts
  * niceTicks(0.13, 9.7); // { min: 0, max: 10, step: 2, values: [0, 2, 4, 6, 8, 10], decimals: 0 }

@@ -38,7 +38,7 @@ function checkFiniteDeep(value: unknown, path: string): void {
  * @param payload - The report's content (must not use the keys `generator` or `caution`).
  * @param options - The generator.
  * @returns The JSON text.
- * @throws {@link BridgeworkError} `not-finite` naming the path of a NaN or ±Infinity;
+ * @throws {@link @bridgework/core!BridgeworkError} `not-finite` naming the path of a NaN or ±Infinity;
  * `conflicting-options` when the payload has its own `generator` or `caution`.
  * @example
  * ```ts

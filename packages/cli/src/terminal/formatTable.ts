@@ -14,13 +14,13 @@ export interface TableColumn {
  * separated by two spaces.
  *
  * @remarks
- * Widths are measured with {@link visibleWidth}, so cells may carry colour codes and characters
+ * Widths are measured in terminal columns, ignoring colour codes, so cells may carry colour codes and characters
  * such as µ, ε or Ω. Missing cells are empty; extra cells are an error.
  *
  * @param columns - The columns.
  * @param rows - The cells, row by row.
  * @returns The table, one line per row, each ending with a newline.
- * @throws {@link BridgeworkError} `invalid-shape` when a row has more cells than there are columns.
+ * @throws {@link @bridgework/core!BridgeworkError} `invalid-shape` when a row has more cells than there are columns.
  * @example
  * ```ts
  * formatTable([{ header: 'source' }, { header: 'µε', align: 'right' }], [['noise', '0.42']]);

@@ -146,7 +146,7 @@ function convertTemperature(
  * @param text - The quantity, e.g. `"350 ohm"`.
  * @param unit - The SI unit wanted (see {@link SiUnit}).
  * @returns The value in `unit`.
- * @throws {@link BridgeworkError} `wrong-type` (text not a string, or a unit of another
+ * @throws {@link @bridgework/core!BridgeworkError} `wrong-type` (text not a string, or a unit of another
  * dimension: "'5 m' is a length; expected a resistance, such as '350 ohm'"), `parse-error`
  * (not a number followed by a unit, or an unknown unit), `not-finite` (a number beyond the
  * double range), `out-of-range` (below absolute zero), `invalid-option` (`unit` not an

@@ -19,7 +19,7 @@ export interface ConversionChannels {
  *
  * @param list - The option's text, e.g. `'2,4'` or `'hook,trolley'`.
  * @returns Numbers for digit-only entries, names otherwise.
- * @throws {@link BridgeworkError} `invalid-option` for an empty entry.
+ * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for an empty entry.
  */
 export function parseColumnList(list: string): (string | number)[] {
   return list.split(',').map((entry) => {
@@ -44,7 +44,7 @@ export function parseColumnList(list: string): (string | number)[] {
  * @param channels - Column headings and the converter of the selected channels.
  * @returns `exitCodes.ok`, or `exitCodes.failedCheck` when samples were clipped and
  * `--fail-on-clip` is set.
- * @throws {@link BridgeworkError} `invalid-shape` (the file's columns do not match the channels),
+ * @throws {@link @bridgework/core!BridgeworkError} `invalid-shape` (the file's columns do not match the channels),
  * and everything {@link openCodeSource} and {@link convertToCsv} throw.
  */
 export async function runConversion(
