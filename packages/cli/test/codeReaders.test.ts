@@ -1,4 +1,3 @@
-import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
@@ -8,23 +7,9 @@ import { openCsvCodes } from '../src/data/readCsvCodes.js';
 import { decodeInt32LittleEndian, openInt32Codes } from '../src/data/readInt32Codes.js';
 import { parseInt32Text, splitCsvLine } from '../src/internal/csvText.js';
 import { caught } from './support/caught.js';
-import { useTempDir } from './support/tempDir.js';
+import { int32le, useTestFiles } from './support/files.js';
 
-const tmp = useTempDir('codes');
-let n = 0;
-function file(name: string, content: string | Uint8Array): string {
-  const path = join(tmp(), `${++n}-${name}`);
-  writeFileSync(path, content);
-  return path;
-}
-
-/** Little-endian bytes written independently of the reader, with DataView. */
-function int32le(values: readonly number[]): Uint8Array {
-  const bytes = new Uint8Array(values.length * 4);
-  const view = new DataView(bytes.buffer);
-  values.forEach((v, i) => view.setInt32(4 * i, v, true));
-  return bytes;
-}
+const { tmp, file } = useTestFiles('codes');
 
 /** Everything a source yields, copied (blocks are reused), with the block sizes. */
 async function drain(source: CodeSource): Promise<{ codes: number[]; frames: number[]; first: number[] }> {

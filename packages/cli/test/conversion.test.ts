@@ -1,5 +1,4 @@
-import { existsSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
-import { join } from 'node:path';
+import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { parseCommandLine } from '../src/args/parseCommandLine.js';
@@ -14,22 +13,9 @@ import { streamSink, type OutputSink } from '../src/data/outputSink.js';
 import { caught } from './support/caught.js';
 import { memoryIo, memoryStream } from './support/memoryIo.js';
 import { passThroughConverter } from './support/passThroughConverter.js';
-import { useTempDir } from './support/tempDir.js';
+import { int32le, useTestFiles } from './support/files.js';
 
-const tmp = useTempDir('convert');
-let n = 0;
-function file(name: string, content: string | Uint8Array): string {
-  const path = join(tmp(), `${++n}-${name}`);
-  writeFileSync(path, content);
-  return path;
-}
-const outPath = (name: string): string => join(tmp(), `${++n}-${name}`);
-function int32le(values: readonly number[]): Uint8Array {
-  const bytes = new Uint8Array(values.length * 4);
-  const view = new DataView(bytes.buffer);
-  values.forEach((v, i) => view.setInt32(4 * i, v, true));
-  return bytes;
-}
+const { tmp, file, outPath } = useTestFiles('convert');
 function collector(): OutputSink & { text: string } {
   const sink = {
     text: '',

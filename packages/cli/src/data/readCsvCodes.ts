@@ -1,9 +1,8 @@
 import { createReadStream } from 'node:fs';
-import { open } from 'node:fs/promises';
 import { BridgeworkError } from '@bridgework/core';
 import { checkBlock } from '../internal/checkBlock.js';
 import { isNumberText, parseInt32Text, splitCsvLine } from '../internal/csvText.js';
-import { describeFsError, statInput } from '../internal/fileErrors.js';
+import { describeFsError, openInput, statInput } from '../internal/fileErrors.js';
 import type { CodeBlock, CodeSource } from './codeSource.js';
 
 /** Options of {@link openCsvCodes}. */
@@ -26,15 +25,7 @@ function parseError(message: string, file: string): BridgeworkError {
 
 /** Reads up to `MAX_LINE` bytes from the start of the file and returns the first non-blank line. */
 async function firstLine(file: string): Promise<{ text: string; line: number } | undefined> {
-  let handle;
-  try {
-    handle = await open(file, 'r');
-  } catch (e) {
-    throw new BridgeworkError('io-error', `cannot read ${file}: ${describeFsError(e)}`, {
-      param: file,
-      cause: e,
-    });
-  }
+  const handle = await openInput(file);
   try {
     const bytes = new Uint8Array(MAX_LINE + 4);
     const { bytesRead } = await handle.read(bytes, 0, bytes.length, 0);

@@ -1,8 +1,7 @@
-import { open } from 'node:fs/promises';
 import { BridgeworkError } from '@bridgework/core';
 import type { CodeBlock, CodeSource } from './codeSource.js';
 import { checkBlock } from '../internal/checkBlock.js';
-import { describeFsError, statInput } from '../internal/fileErrors.js';
+import { openInput, statInput } from '../internal/fileErrors.js';
 
 /** Options of {@link openInt32Codes}. */
 export interface Int32CodeOptions {
@@ -75,15 +74,7 @@ export async function openInt32Codes(file: string, options: Int32CodeOptions): P
       const buffer = new ArrayBuffer(blockBytes);
       const bytes = new Uint8Array(buffer);
       const codes = littleEndianHost ? new Int32Array(buffer) : new Int32Array(blockFrames * channels);
-      let handle;
-      try {
-        handle = await open(file, 'r');
-      } catch (e) {
-        throw new BridgeworkError('io-error', `cannot read ${file}: ${describeFsError(e)}`, {
-          param: file,
-          cause: e,
-        });
-      }
+      const handle = await openInput(file);
       try {
         let position = 0;
         let frame = 0;

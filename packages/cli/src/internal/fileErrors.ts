@@ -1,4 +1,4 @@
-import { stat } from 'node:fs/promises';
+import { open, stat, type FileHandle } from 'node:fs/promises';
 import { BridgeworkError } from '@bridgework/core';
 
 /** A readable message for a failed file operation. */
@@ -25,6 +25,18 @@ export async function statInput(file: string): Promise<number> {
     return s.size;
   } catch (e) {
     if (e instanceof BridgeworkError) throw e;
+    throw new BridgeworkError('io-error', `cannot read ${file}: ${describeFsError(e)}`, {
+      param: file,
+      cause: e,
+    });
+  }
+}
+
+/** Opens an input file for reading; throws `io-error` naming the file. */
+export async function openInput(file: string): Promise<FileHandle> {
+  try {
+    return await open(file, 'r');
+  } catch (e) {
     throw new BridgeworkError('io-error', `cannot read ${file}: ${describeFsError(e)}`, {
       param: file,
       cause: e,
