@@ -11,10 +11,17 @@ const root = fileURLToPath(new URL('../../', import.meta.url));
 const bin = `${root}packages/cli/dist/bin.js`;
 const targetSeconds = 0.3;
 
-execFileSync(process.execPath, [`${root}node_modules/typescript/bin/tsc`, '-b', 'packages/cli'], { cwd: root, stdio: 'inherit' });
+execFileSync(process.execPath, [`${root}node_modules/typescript/bin/tsc`, '-b', 'packages/cli'], {
+  cwd: root,
+  stdio: 'inherit',
+});
 
 function spawnOnce(args: readonly string[]): number {
-  const r = spawnSync(process.execPath, args, { cwd: root, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' } });
+  const r = spawnSync(process.execPath, args, {
+    cwd: root,
+    encoding: 'utf8',
+    env: { ...process.env, NO_COLOR: '1' },
+  });
   if (r.status !== 0) throw new Error(`node ${args.join(' ')} exited with ${r.status}: ${r.stderr}`);
   return r.stdout.length;
 }
