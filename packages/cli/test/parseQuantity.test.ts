@@ -184,8 +184,20 @@ describe('parseQuantity: only a number and a unit, never an expression', () => {
     expect(() => parseQuantity('-500 degF', 'degC')).toThrowBridgeworkError('out-of-range');
   });
 
-  it('rejects a non-string text and an unknown target unit', () => {
-    expect(() => parseQuantity(350 as unknown as string, 'ohm')).toThrowBridgeworkError('wrong-type');
+  it('takes plain numbers as SI, but never NaN, ±Infinity or a temperature below absolute zero', () => {
+    expect(parseQuantity(350, 'ohm')).toBe(350);
+    expect(parseQuantity(-273.15, 'degC')).toBe(-273.15);
+    expect(() => parseQuantity(NaN, 'ohm')).toThrowBridgeworkError('not-finite');
+    expect(() => parseQuantity(-Infinity, 'V')).toThrowBridgeworkError('not-finite');
+    expect(() => parseQuantity(-274, 'degC')).toThrowBridgeworkError('out-of-range');
+    // Fits a converter slot typed (text: string, unit: string) => number.
+    const slot: (text: string, unit: string) => number = parseQuantity;
+    expect(slot('2 mV/V', 'V/V')).toBe(0.002);
+  });
+
+  it('rejects other types and an unknown target unit', () => {
+    expect(() => parseQuantity(true as unknown as string, 'ohm')).toThrowBridgeworkError('wrong-type');
+    expect(() => parseQuantity(null as unknown as string, 'ohm')).toThrowBridgeworkError('wrong-type');
     expect(() => parseQuantity('5 V', 'volt' as SiUnit)).toThrowBridgeworkError('invalid-option', {
       param: 'unit',
     });

@@ -5,7 +5,10 @@ import { formatIssues } from './formatIssues.js';
 import type { ChannelDocument } from './parseChannelDocument.js';
 import { readChannelDocument } from './readChannelDocument.js';
 
-/** The quantity converter handed to the channel schema: `(text, unit) => number`, throwing on failure. */
+/**
+ * The quantity converter handed to the channel schema: `(text, unit) => number` with `unit` one of
+ * {@link SiUnit}, throwing a `BridgeworkError` whose message names the problem ({@link parseQuantity}).
+ */
 export type QuantityParser = (text: string, unit: SiUnit) => number;
 
 /** What a channel validator returns: the typed spec when there are no issues. */

@@ -116,6 +116,15 @@ function convertTemperature(
   return unit === 'K' ? x + ZERO_CELSIUS_KELVIN : x - ZERO_CELSIUS_KELVIN;
 }
 
+/** A plain number: SI as it is, but finite and, for temperatures, not below absolute zero. */
+function checkPlain(x: number, text: string, unit: SiUnit): number {
+  if (!Number.isFinite(x)) fail('not-finite', text, `${text} is not a finite number`);
+  if ((unit === 'K' && x < 0) || (unit === 'degC' && x < -ZERO_CELSIUS_KELVIN)) {
+    fail('out-of-range', text, `'${text}' is below absolute zero`);
+  }
+  return x;
+}
+
 /**
  * Converts a quantity written with a unit (`"350 ohm"`, `"2 mV/V"`, `"25 degC"`) to the number in
  * the given SI unit, checking that the dimension is the expected one.
@@ -130,26 +139,28 @@ function convertTemperature(
  * `Ω` for `ohm`, `µ` for the micro prefix and `°C`/`°F`. `%` and `ppm` are accepted for plain
  * numbers (`'1'`).
  *
- * **Plain numbers** (no unit) are returned as they are: they are already SI (°C for
- * temperatures, as everywhere in bridgework). mathjs is not even loaded for them.
+ * **Plain numbers** (a number, or a text without a unit) are returned as they are: they are
+ * already SI (°C for temperatures, as everywhere in bridgework). mathjs is not even loaded for
+ * them. NaN and ±Infinity are rejected.
  *
  * **Exactness**: when the unit's factor to SI is an exact power of ten (SI prefixes, `mV/V`,
  * `N/mm^2`, `bar`, `g`), the result is the double nearest the exact decimal value (the text's
  * exponent is shifted before `Number` reads it, so `"2.3 uA"` is 2.3e-6, not the
- * 2.2999999999999996e-6 of 2.3 × 1e-6). Other factors (`psi`, `lbf`, `in`, `degF`) are applied by mathjs in
- * double precision (a few ulps). Between `degC` and `K` the offset 273.15 K is added or
+ * 2.2999999999999996e-6 of 2.3 × 1e-6). Other factors (`psi`, `lbf`, `in`, `degF`) are applied
+ * by mathjs in double precision (a few ulps). Between `degC` and `K` the offset 273.15 K is added or
  * subtracted once.
  *
  * **Temperatures** are absolute: `"300 K"` for `'degC'` is 26.85. A temperature below absolute
  * zero is rejected.
  *
- * @param text - The quantity, e.g. `"350 ohm"`.
- * @param unit - The SI unit wanted (see {@link SiUnit}).
+ * @param text - The quantity, e.g. `"350 ohm"`, or a plain number (already SI).
+ * @param unit - The SI unit wanted: one of {@link SiUnit}. Typed as a string too, so the function
+ * fits a `(text: string, unit: string) => number` converter slot; another string is an error.
  * @returns The value in `unit`.
- * @throws {@link @bridgework/core!BridgeworkError} `wrong-type` (text not a string, or a unit of another
- * dimension: "'5 m' is a length; expected a resistance, such as '350 ohm'"), `parse-error`
- * (not a number followed by a unit, or an unknown unit), `not-finite` (a number beyond the
- * double range), `out-of-range` (below absolute zero), `invalid-option` (`unit` not an
+ * @throws {@link @bridgework/core!BridgeworkError} `wrong-type` (text neither a string nor a
+ * number, or a unit of another dimension: "'5 m' is a length; expected a resistance, such as '350 ohm'"), `parse-error`
+ * (not a number followed by a unit, or an unknown unit), `not-finite` (NaN, ±Infinity, or a number beyond
+ * the double range), `out-of-range` (below absolute zero), `invalid-option` (`unit` not an
  * {@link SiUnit}).
  * @example
  * ```ts
@@ -161,7 +172,7 @@ function convertTemperature(
  * parseQuantity('5', 'V'); // 5
  * ```
  */
-export function parseQuantity(text: string, unit: SiUnit): number {
+export function parseQuantity(text: string | number, unit: SiUnit | string): number {
   if (!Object.hasOwn(targets, unit)) {
     throw new BridgeworkError(
       'invalid-option',
@@ -173,7 +184,8 @@ export function parseQuantity(text: string, unit: SiUnit): number {
       },
     );
   }
-  const target = targets[unit];
+  const target = targets[unit as SiUnit];
+  if (typeof text === 'number') return checkPlain(text, String(text), unit as SiUnit);
   if (typeof text !== 'string') {
     throw new BridgeworkError(
       'wrong-type',
@@ -197,12 +209,7 @@ export function parseQuantity(text: string, unit: SiUnit): number {
   const plain = shifted(mantissa, exponent, 0);
   if (!Number.isFinite(plain))
     fail('not-finite', text, `'${text}' is beyond the range of double-precision numbers`);
-  if (unitText === '') {
-    if (unit === 'K' && plain < 0) fail('out-of-range', text, `'${text}' is below absolute zero`);
-    if (unit === 'degC' && plain < -ZERO_CELSIUS_KELVIN)
-      fail('out-of-range', text, `'${text}' is below absolute zero`);
-    return plain;
-  }
+  if (unitText === '') return checkPlain(plain, text, unit as SiUnit);
   if (unitText === '%' || unitText === 'ppm') {
     if (unit !== '1')
       fail(
