@@ -133,9 +133,9 @@ function isStrainSpan(span: Record<string, unknown>): boolean {
  * powers at the span's ends (and at zero when it lies inside), ready for {@link checkHeadroom}.
  *
  * @remarks
- * Strain span: at each strain the arms come from the bridge's `armsOhms(strain)` and the exact
- * network state from `solveBridge` with the bridge's series excitation resistance; the output
- * node voltages are the two dividers V(S−) = VE− + Vb·R2/(R1 + R2) and
+ * Strain span: the output is the bridge's exact map, ratioFromStrain(ε)·E; the arms come from
+ * its `armsOhms(strain)` and the network state (bridge voltage, arm powers) from `solveBridge`
+ * with the bridge's series excitation resistance; the output node voltages are the two dividers V(S−) = VE− + Vb·R2/(R1 + R2) and
  * V(S+) = VE− + Vb·R3/(R3 + R4) (Vb the bridge voltage; ideal meter), so the common mode is
  * exact too. Gauge arms are those whose resistance differs between the span's ends (a transverse
  * gauge with ν = 0 does not respond and is not counted). Ratio span: Vd = ratio·E, and the
@@ -175,12 +175,15 @@ export function bridgeOperatingPoints(options: OperatingPointsOptions): BridgeOp
     const range = checkMeasurandRange('span.strainRange', span['strainRange'], bridge.strainRange);
     const strains = range.min < 0 && range.max > 0 ? [range.min, 0, range.max] : [range.min, range.max];
     const points = strains.map((strain): BridgeOperatingPoint => {
+      // The output from the bridge's exact map (the arms as doubles would lose the small imbalance's
+      // low digits); the network state (bridge voltage, arm powers) from solveBridge.
       const armsOhms = bridge.armsOhms(strain);
       const s = solveBridge({ armsOhms, excitationVolts: e, sourceOhms: bridge.seriesOhms });
+      const ratio = bridge.ratioFromStrain(strain);
       return {
         measurand: strain,
-        ratio: s.ratio,
-        differentialVolts: s.outputVolts,
+        ratio,
+        differentialVolts: ratio * e,
         commonModeVolts: commonMode(armsOhms, s.bridgeVolts, low),
         armsOhms,
         armWatts: s.armWatts,

@@ -66,6 +66,8 @@ export interface HeadroomMargin {
   readonly limitVolts: number;
   /** Index into `points` of the worst point. */
   readonly pointIndex: number;
+  /** True when the limit is met at every point. */
+  readonly ok: boolean;
 }
 
 /** A violated limit (a {@link HeadroomMargin} below zero), with a message. */
@@ -131,7 +133,10 @@ const nodeNames: Record<HeadroomLimit, string> = {
  * over both first-stage outputs; output − min and max − output; and for the converter
  * G·Vd − (codeMin + ½)·Vref/s and (codeMax − ½)·Vref/s − G·Vd (s = codeScale), the quantizer
  * inputs whose codes stay strictly inside the rails. Each margin reported is the worst over the
- * points. A margin of exactly 0 counts as within the limit. Node voltages are linear in Vd, so
+ * points. A margin of exactly 0 counts as within an analog limit. For the converter the violation
+ * is decided by its own exact code decision ({@link createAdc}): a point whose code is a rail code
+ * violates the limit (at exactly (codeMin + ½)·Vref/s the tie rounds to the even rail code), and
+ * the margin is clamped to agree in sign within rounding of the threshold. Node voltages are linear in Vd, so
  * over a span on which Vd and Vcm vary monotonically the extremes lie at its ends: pass the span
  * ends (and zero, if inside).
  *
@@ -191,8 +196,8 @@ export function checkHeadroom(options: HeadroomOptions): DesignCheck<HeadroomVal
       : checkVoltRange('limits.firstStageVolts', l['firstStageVolts']);
   const output =
     l['outputVolts'] === undefined ? undefined : checkVoltRange('limits.outputVolts', l['outputVolts']);
-  const adc = o['adc'] === undefined ? undefined : (checkObject('adc', o['adc']) as unknown as Adc);
-  const quantizerGain = adc === undefined ? gain : checkPositive('adc.gain', adc.gain);
+  const adc = o['adc'] === undefined ? undefined : checkAdc(o['adc']);
+  const quantizerGain = adc === undefined ? gain : adc.gain;
   const firstStageGain = gain / secondStageGain;
 
   const nodes: AmplifierNodes[] = points.map((p) => {
@@ -208,14 +213,25 @@ export function checkHeadroom(options: HeadroomOptions): DesignCheck<HeadroomVal
   });
 
   const margins: HeadroomMargin[] = [];
-  /** Adds the worst (smallest) margin of one limit; `margin(n)` returns [margin, node value]. */
-  function worst(limit: HeadroomLimit, limitVolts: number, margin: (n: AmplifierNodes) => [number, number]) {
+  /**
+   * Adds the worst (smallest) margin of one limit; `margin(n)` returns [margin, node value] and
+   * `fails(n, i)`, when given, decides the violation exactly instead of the margin's sign.
+   */
+  function worst(
+    limit: HeadroomLimit,
+    limitVolts: number,
+    margin: (n: AmplifierNodes) => [number, number],
+    fails?: (i: number) => boolean,
+  ) {
     let best: HeadroomMargin | undefined;
     nodes.forEach((n, pointIndex) => {
-      const [m, node] = margin(n);
-      if (best === undefined || m < best.marginVolts) {
-        best = { limit, marginVolts: m, nodeVolts: node, limitVolts, pointIndex };
-      }
+      const [raw, node] = margin(n);
+      const violated = fails === undefined ? raw < 0 : fails(pointIndex);
+      // An exact decision overrides the sign of a margin within rounding of the threshold.
+      const m = fails === undefined ? raw : violated ? Math.min(raw, 0) : Math.max(raw, 0);
+      const worse =
+        best === undefined || (violated && best.ok) || (violated === !best.ok && m < best.marginVolts);
+      if (worse) best = { limit, marginVolts: m, nodeVolts: node, limitVolts, pointIndex, ok: !violated };
     });
     margins.push(best as HeadroomMargin);
   }
@@ -250,21 +266,47 @@ export function checkHeadroom(options: HeadroomOptions): DesignCheck<HeadroomVal
     worst('output-high', output.max, (n) => [output.max - n.outputVolts, n.outputVolts]);
   }
   if (adc !== undefined) {
-    const step =
-      checkPositive('adc.referenceVolts', adc.referenceVolts) / checkPositive('adc.codeScale', adc.codeScale);
-    const low = (checkFinite('adc.codeMin', adc.codeMin) + 0.5) * step;
-    const high = (checkFinite('adc.codeMax', adc.codeMax) - 0.5) * step;
-    worst('adc-low', low, (n) => [n.quantizerVolts - low, n.quantizerVolts]);
-    worst('adc-high', high, (n) => [high - n.quantizerVolts, n.quantizerVolts]);
+    const step = adc.referenceVolts / adc.codeScale;
+    const low = (adc.codeMin + 0.5) * step;
+    const high = (adc.codeMax - 0.5) * step;
+    // The converter decides each code exactly (createAdc); its rails decide the violation.
+    const codes = points.map((p) => adc.codeFromVolts(p.differentialVolts).code);
+    worst(
+      'adc-low',
+      low,
+      (n) => [n.quantizerVolts - low, n.quantizerVolts],
+      (i) => codes[i]! <= adc.codeMin,
+    );
+    worst(
+      'adc-high',
+      high,
+      (n) => [high - n.quantizerVolts, n.quantizerVolts],
+      (i) => codes[i]! >= adc.codeMax,
+    );
   }
 
   const issues: HeadroomIssue[] = margins
-    .filter((m) => m.marginVolts < 0)
+    .filter((m) => !m.ok)
     .map((m) => ({
       ...m,
       message: `${nodeNames[m.limit]}: ${formatVolts(m.nodeVolts)} against ${formatVolts(m.limitVolts)} at point ${m.pointIndex} (margin ${formatVolts(m.marginVolts)})`,
     }));
   return { ok: issues.length === 0, value: { margins, nodes, firstStageGain }, issues };
+}
+
+function checkAdc(value: unknown): Adc {
+  const a = checkObject('adc', value);
+  if (typeof a['codeFromVolts'] !== 'function') {
+    throw new BridgeworkError(
+      'wrong-type',
+      `\`adc\` must be a converter from createAdc; got ${formatValue(value)}`,
+      {
+        param: 'adc',
+        value,
+      },
+    );
+  }
+  return a as unknown as Adc;
 }
 
 function formatVolts(v: number): string {

@@ -28,9 +28,10 @@ import { checkAmplifierNoise, frontEndSpectra, type AmplifierNoiseOptions } from
 import { checkTemperature } from './johnsonNoiseDensity.js';
 import { PEAK_TO_PEAK_PER_RMS } from './resolution.js';
 import {
-  selfHeatingLimit,
+  checkSelfHeatingLimit,
   selfHeatingVerdict,
   type SelfHeatingIssue,
+  type SelfHeatingLimit,
   type SelfHeatingOptions,
   type SelfHeatingValue,
 } from './selfHeating.js';
@@ -190,7 +191,7 @@ export interface BudgetContext {
   readonly rmsBeforeGain: { name: string; rms: number }[];
   readonly noiseBandwidthHertz: number;
   readonly peakToPeakFactor: number;
-  readonly selfHeating: ReturnType<typeof selfHeatingLimit> | undefined;
+  readonly selfHeating: SelfHeatingLimit | undefined;
 }
 
 /** @internal Validates everything but the gain, and integrates the gain-independent noise once. */
@@ -285,7 +286,7 @@ export function budgetContext(options: Omit<ResolutionBudgetOptions, 'gain'>): B
     noiseBandwidthHertz,
     peakToPeakFactor,
     selfHeating:
-      o['selfHeating'] === undefined ? undefined : selfHeatingLimit(o['selfHeating'] as SelfHeatingOptions),
+      o['selfHeating'] === undefined ? undefined : checkSelfHeatingLimit('selfHeating.', o['selfHeating']),
   };
 }
 

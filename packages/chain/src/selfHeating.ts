@@ -104,39 +104,46 @@ export interface SelfHeatingLimit {
  * ```
  */
 export function selfHeatingLimit(options: SelfHeatingOptions): SelfHeatingLimit {
-  const o = checkObject('options', options);
+  return checkSelfHeatingLimit('', options);
+}
+
+/** @internal {@link selfHeatingLimit} with option names prefixed (`limit.`, `selfHeating.`) in errors. */
+export function checkSelfHeatingLimit(prefix: string, options: unknown): SelfHeatingLimit {
+  const o = checkObject(prefix === '' ? 'options' : prefix.slice(0, -1), options);
+  const name = (key: string): string => `${prefix}${key}`;
   const direct =
     o['maxWattsPerGauge'] === undefined
       ? undefined
-      : checkPositive('maxWattsPerGauge', o['maxWattsPerGauge']);
+      : checkPositive(name('maxWattsPerGauge'), o['maxWattsPerGauge']);
   if (o['powerDensityWattsPerSquareMeter'] !== undefined && o['heatSink'] !== undefined) {
     throw new BridgeworkError(
       'conflicting-options',
-      '`powerDensityWattsPerSquareMeter` and `heatSink` must not both be given; got both',
-      { param: 'powerDensityWattsPerSquareMeter', value: o['powerDensityWattsPerSquareMeter'] },
+      `\`${name('powerDensityWattsPerSquareMeter')}\` and \`${name('heatSink')}\` must not both be given; got both`,
+      { param: name('powerDensityWattsPerSquareMeter'), value: o['powerDensityWattsPerSquareMeter'] },
     );
   }
   let density: number | undefined;
   if (o['powerDensityWattsPerSquareMeter'] !== undefined) {
-    density = checkPositive('powerDensityWattsPerSquareMeter', o['powerDensityWattsPerSquareMeter']);
+    density = checkPositive(name('powerDensityWattsPerSquareMeter'), o['powerDensityWattsPerSquareMeter']);
   } else if (o['heatSink'] !== undefined) {
-    density = heatSinkPowerDensity[checkOneOf('heatSink', o['heatSink'], heatSinks)].minWattsPerSquareMeter;
+    density =
+      heatSinkPowerDensity[checkOneOf(name('heatSink'), o['heatSink'], heatSinks)].minWattsPerSquareMeter;
   }
   let fromDensity: number | undefined;
   if (density !== undefined || o['gridAreaSquareMeters'] !== undefined) {
     if (o['gridAreaSquareMeters'] === undefined) {
       throw new BridgeworkError(
         'missing-option',
-        '`gridAreaSquareMeters` must be given with a power density or heat sink; got undefined',
-        { param: 'gridAreaSquareMeters' },
+        `\`${name('gridAreaSquareMeters')}\` must be given with a power density or heat sink; got undefined`,
+        { param: name('gridAreaSquareMeters') },
       );
     }
-    const area = checkPositive('gridAreaSquareMeters', o['gridAreaSquareMeters']);
+    const area = checkPositive(name('gridAreaSquareMeters'), o['gridAreaSquareMeters']);
     if (density === undefined) {
       throw new BridgeworkError(
         'missing-option',
-        '`powerDensityWattsPerSquareMeter` or `heatSink` must be given with a grid area; got neither',
-        { param: 'powerDensityWattsPerSquareMeter' },
+        `\`${name('powerDensityWattsPerSquareMeter')}\` or \`${name('heatSink')}\` must be given with a grid area; got neither`,
+        { param: name('powerDensityWattsPerSquareMeter') },
       );
     }
     fromDensity = density * area;
@@ -144,8 +151,8 @@ export function selfHeatingLimit(options: SelfHeatingOptions): SelfHeatingLimit 
   if (direct === undefined && fromDensity === undefined) {
     throw new BridgeworkError(
       'missing-option',
-      '`maxWattsPerGauge` or `gridAreaSquareMeters` with a density must be given; got neither',
-      { param: 'maxWattsPerGauge' },
+      `\`${name('maxWattsPerGauge')}\` or \`${name('gridAreaSquareMeters')}\` with a density must be given; got neither`,
+      { param: name('maxWattsPerGauge') },
     );
   }
   if (fromDensity !== undefined && (direct === undefined || fromDensity < direct)) {
@@ -263,7 +270,7 @@ export function checkSelfHeating(
   options: SelfHeatingCheckOptions,
 ): DesignCheck<SelfHeatingValue, SelfHeatingIssue> {
   const o = checkObject('options', options);
-  const limit = selfHeatingLimit(o['limit'] as SelfHeatingOptions);
+  const limit = checkSelfHeatingLimit('limit.', o['limit']);
   const gauges = checkGaugeArms(o['gaugeArms']);
   const solution = solveBridge({
     armsOhms: o['armsOhms'] as readonly [number, number, number, number],
