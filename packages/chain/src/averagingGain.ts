@@ -50,7 +50,7 @@ export interface AveragingGain {
  * @example
  * ```ts
  * averagingGain({ samples: 16 }).bitsGained; // 2
- * averagingGain({ samples: 16, filter: { kind: 'sinc', order: 3, outputDataRateHertz: 10 } }).bitsGained; // 1.61…
+ * averagingGain({ samples: 16, filter: { kind: 'sinc', order: 3, outputDataRateHertz: 10 } }).bitsGained; // 1.59…
  * ```
  */
 export function averagingGain(options: AveragingOptions): AveragingGain {

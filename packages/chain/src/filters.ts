@@ -310,7 +310,7 @@ export function filterGain(filter: NoiseFilter, frequencyHertz: number): number 
  * @throws {@link @bridgework/core!BridgeworkError} as {@link filterGain}.
  * @example
  * ```ts
- * rejectionDecibels({ kind: 'sinc', order: 3, outputDataRateHertz: 10 }, 49); // 101.88…
+ * rejectionDecibels({ kind: 'sinc', order: 3, outputDataRateHertz: 10 }, 49); // 101.84…
  * ```
  */
 export function rejectionDecibels(filter: NoiseFilter, frequencyHertz: number): number {
@@ -394,7 +394,7 @@ function maxOnPiece(g: (f: number) => number, a: number, b: number): [number, nu
  * @example
  * ```ts
  * mainsRejection({ filter: { kind: 'sinc', order: 3, outputDataRateHertz: 10 }, mainsHertz: 50 });
- * // { nominalDecibels: Infinity, worstDecibels: 101.28…, worstFrequencyHertz: 51 }
+ * // { nominalDecibels: Infinity, worstDecibels: 101.84…, worstFrequencyHertz: 49 }
  * ```
  */
 export function mainsRejection(options: MainsRejectionOptions): MainsRejection {

@@ -30,7 +30,7 @@ const DB_SINE_OFFSET = 10 * Math.log10(1.5);
  * @throws {@link @bridgework/core!BridgeworkError} `not-integer`, `out-of-range`, `not-finite`, `wrong-type`.
  * @example
  * ```ts
- * idealSnrDecibels(24); // 146.25532…
+ * idealSnrDecibels(24); // 146.25531…
  * ```
  */
 export function idealSnrDecibels(bits: number): number {
@@ -55,7 +55,7 @@ export function idealSnrDecibels(bits: number): number {
  * @throws {@link @bridgework/core!BridgeworkError} `not-finite`, `wrong-type`.
  * @example
  * ```ts
- * enobFromSinad(74); // 11.99867…
+ * enobFromSinad(74); // 11.99865…
  * ```
  */
 export function enobFromSinad(sinadDecibels: number): number {

@@ -23,6 +23,7 @@ import {
 import { combineNoise, type NoiseShare } from './combineNoise.js';
 import { createAdc, type Adc, type AdcCode, type RatiometricAdc } from './createAdc.js';
 import type { DesignCheck } from './DesignCheck.js';
+import type { VoltRange } from './VoltRange.js';
 import { bandwidthOf, checkFilter, type NoiseFilter } from './filters.js';
 import { checkAmplifierNoise, frontEndSpectra, type AmplifierNoiseOptions } from './inputNoiseDensity.js';
 import { checkTemperature } from './johnsonNoiseDensity.js';
@@ -164,7 +165,7 @@ export interface ResolutionBudget {
   /** Counts per µε (strain spans; else `undefined`). */
   readonly countsPerMicrostrain: number | undefined;
   /** Differential input at the span's ends in V. */
-  readonly spanVolts: { readonly min: number; readonly max: number };
+  readonly spanVolts: VoltRange;
   /** The noise, by source. */
   readonly noise: BudgetNoise;
   /** The resolution. */
