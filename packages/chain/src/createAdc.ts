@@ -1,11 +1,5 @@
-import {
-  checkFinite,
-  checkInteger,
-  checkObject,
-  checkPositive,
-  BridgeworkError,
-  formatValue,
-} from '@bridgework/core';
+import { checkFinite, checkInteger, checkObject, checkPositive } from '@bridgework/core';
+import { checkBoolean } from './internal/checkBoolean.js';
 import { signOfProductDifference } from './internal/exact.js';
 import { roundHalfEven } from './internal/rounding.js';
 import { effectiveBits, idealSnrDecibels, noiseFreeBits } from './resolution.js';
@@ -164,17 +158,6 @@ function nearestInteger(a: number, b: number, den: number): number {
   if (side > 0) return f + 1;
   if (side < 0) return f + 0;
   return f % 2 === 0 ? f + 0 : f + 1;
-}
-
-function checkBoolean(param: string, value: unknown, fallback: boolean): boolean {
-  if (value === undefined) return fallback;
-  if (typeof value !== 'boolean') {
-    throw new BridgeworkError('wrong-type', `\`${param}\` must be a boolean; got ${formatValue(value)}`, {
-      param,
-      value,
-    });
-  }
-  return value;
 }
 
 /**

@@ -26,6 +26,7 @@ import type { DesignCheck } from './DesignCheck.js';
 import type { VoltRange } from './VoltRange.js';
 import { bandwidthOf, checkFilter, type NoiseFilter } from './filters.js';
 import { checkAmplifierNoise, frontEndSpectra, type AmplifierNoiseOptions } from './inputNoiseDensity.js';
+import { checkBoolean } from './internal/checkBoolean.js';
 import { checkTemperature } from './johnsonNoiseDensity.js';
 import { PEAK_TO_PEAK_PER_RMS } from './resolution.js';
 import {
@@ -212,17 +213,7 @@ export function budgetContext(options: Omit<ResolutionBudgetOptions, 'gain'>): B
 
   const a = checkObject('adc', o['adc']);
   const bits = checkInteger('adc.bits', a['bits'], { min: 1, max: 32 });
-  if (a['ratiometric'] !== undefined && typeof a['ratiometric'] !== 'boolean') {
-    throw new BridgeworkError(
-      'wrong-type',
-      `\`adc.ratiometric\` must be a boolean; got ${formatValue(a['ratiometric'])}`,
-      {
-        param: 'adc.ratiometric',
-        value: a['ratiometric'],
-      },
-    );
-  }
-  const ratiometric = a['ratiometric'] === true;
+  const ratiometric = checkBoolean('adc.ratiometric', a['ratiometric'], false);
   let referenceVolts: number;
   if (ratiometric) {
     referenceVolts =
@@ -280,7 +271,7 @@ export function budgetContext(options: Omit<ResolutionBudgetOptions, 'gain'>): B
     operating,
     excitationVolts,
     amplifier,
-    adc: { bits, referenceVolts, bipolar: a['bipolar'] as boolean | undefined, ratiometric },
+    adc: { bits, referenceVolts, bipolar: checkBoolean('adc.bipolar', a['bipolar'], true), ratiometric },
     adcNoise,
     bridgeNoise,
     rmsBeforeGain,
@@ -339,10 +330,10 @@ export function budgetAt(ctx: BudgetContext, gainValue: unknown): DesignCheck<Re
   const combined = combineNoise(lines.map((l) => ({ name: l.name, value: l.rms })));
   const sigma = combined.total;
 
+  // Codes from the input voltage: for a ratiometric converter, whose reference is the excitation
+  // E, this is gain·Vd/E·s, the same exact decision its headroom check makes.
   const ratiometric = adc.ratiometric;
-  const codeAt = (pt: BridgeOperatingPoint): AdcCode =>
-    ratiometric ? (adc as RatiometricAdc).codeFromRatio(pt.ratio) : adc.codeFromVolts(pt.differentialVolts);
-  const points = op.points.map((pt) => ({ ...pt, adcCode: codeAt(pt) }));
+  const points = op.points.map((pt) => ({ ...pt, adcCode: adc.codeFromVolts(pt.differentialVolts) }));
   const countsPerUnit = ratiometric
     ? op.sensitivityRatio * (adc as RatiometricAdc).countsPerRatio
     : op.sensitivityVolts * adc.countsPerVolt;

@@ -6,9 +6,9 @@ import {
   checkObject,
   checkOneOf,
   checkPositive,
-  formatValue,
 } from '@bridgework/core';
 import type { DesignCheck } from './DesignCheck.js';
+import { checkBoolean } from './internal/checkBoolean.js';
 
 /** How well the specimen under a gauge conducts heat away, in the classes of common practice. */
 export type HeatSink = 'excellent' | 'good' | 'fair' | 'poor' | 'very-poor';
@@ -284,18 +284,7 @@ export function checkSelfHeating(
 function checkGaugeArms(value: unknown): readonly boolean[] {
   if (value === undefined) return [true, true, true, true];
   const arms = checkLength<unknown>('gaugeArms', value, 4);
-  arms.forEach((a, i) => {
-    if (typeof a !== 'boolean') {
-      throw new BridgeworkError(
-        'wrong-type',
-        `\`gaugeArms[${i}]\` must be a boolean; got ${formatValue(a)}`,
-        {
-          param: `gaugeArms[${i}]`,
-          value: a,
-        },
-      );
-    }
-  });
+  arms.forEach((a, i) => checkBoolean(`gaugeArms[${i}]`, a));
   if (!arms.includes(true)) {
     throw new BridgeworkError('invalid-shape', '`gaugeArms` must mark at least one gauge; got none', {
       param: 'gaugeArms',

@@ -1,22 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import { averagingGain, noiseBandwidth } from '@bridgework/chain';
-
-/** The integer sinc^k kernel with decimation N, by brute-force convolution of boxcars. */
-function sincKernel(k: number, n: number): number[] {
-  let h = [1];
-  for (let s = 0; s < k; s++) {
-    const next = new Array<number>(h.length + n - 1).fill(0);
-    h.forEach((v, i) => {
-      for (let j = 0; j < n; j++) next[i + j]! += v;
-    });
-    h = next;
-  }
-  return h;
-}
+import { sincKernel } from './support/sincKernel.js';
 
 /** Var(average of M outputs)/Var(one output) for white input, from the averaged kernel itself. */
 function bruteForceVarianceRatio(k: number, n: number, m: number): number {
-  const h = sincKernel(k, n);
+  const h = sincKernel(k, n).map(Number); // small kernels: exact in doubles
   const avg = new Array<number>(h.length + (m - 1) * n).fill(0);
   for (let j = 0; j < m; j++) h.forEach((v, i) => (avg[i + j * n]! += v));
   const sumSq = (xs: number[]) => xs.reduce((s, v) => s + v * v, 0);

@@ -9,6 +9,7 @@ import {
   type NoiseFilter,
 } from '@bridgework/chain';
 import { adaptiveSimpson, piecewise, sinc } from './support/integrate.js';
+import { sincKernel } from './support/sincKernel.js';
 
 /** C(2k, k)/4^k: the mean of sin^(2k). */
 const centralMean = (k: number): number => {
@@ -27,19 +28,6 @@ function sincPowerIntegral(k: number): number {
 /** ∫₀^∞ g(f) df for a rational |H|² decaying at least as 1/f²: [0, X] in pieces plus a series tail. */
 function rationalIntegral(g: (f: number) => number, X: number, tail: number): number {
   return piecewise(g, 0, X, 400) + tail;
-}
-
-/** The integer sinc^k kernel with decimation N, by brute-force convolution of boxcars (BigInt). */
-function sincKernel(k: number, n: number): bigint[] {
-  let h: bigint[] = [1n];
-  for (let s = 0; s < k; s++) {
-    const next = new Array<bigint>(h.length + n - 1).fill(0n);
-    h.forEach((v, i) => {
-      for (let j = 0; j < n; j++) next[i + j]! += v;
-    });
-    h = next;
-  }
-  return h;
 }
 
 describe('noiseBandwidth: closed forms against direct integration of |H(f)|² (adaptive Simpson)', () => {
