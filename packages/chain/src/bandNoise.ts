@@ -88,8 +88,8 @@ export function noiseDensityAt(options: NoiseDensityAtOptions): number {
  * ½·[ln(1 + A/u) − A/(u + A)·ln(1 + δ)/δ] with A = f1², B = f2², u = fL², δ = (B − A)/(u + A);
  * sinc^k by 24-point Gauss–Legendre panels on half-unit intervals of f/f_ODR up to 1025·f_ODR plus
  * the asymptotic tail (relative error below 1e-12, tested against an independent integration),
- * using the continuous sinc model even with a finite decimation (a relative difference of order
- * 1/N²). With a brick wall at fH this is the familiar S₀·√(fH + fc·ln(fH/fL)) of op-amp noise
+ * using the continuous sinc model even with a finite decimation (whose response differs from it
+ * by a relative k·(πf/(N·f_ODR))²/6 at frequency f). With a brick wall at fH this is the familiar S₀·√(fH + fc·ln(fH/fL)) of op-amp noise
  * application notes (from memory).
  *
  * @param options - Spectrum, filter and lowest frequency.

@@ -58,7 +58,7 @@ export interface SincFilter {
   /** The output data rate f_ODR in Hz (> 0); the first null of the response lies at f_ODR. */
   readonly outputDataRateHertz: number;
   /**
-   * The decimation ratio N (integer ≥ 1; modulator rate = N·f_ODR). Default: the continuous limit
+   * The decimation ratio N (an integer in [1, 2^24]; modulator rate = N·f_ODR). Default: the continuous limit
    * N → ∞, |H(f)| = |sin(πf/f_ODR)/(πf/f_ODR)|^k, which data sheets quote and which is within about
    * k·(πf/(N·f_ODR))²/6 of the discrete response at low frequency.
    */
