@@ -116,12 +116,15 @@ export interface StrainBridge {
       }
     | undefined;
   /**
-   * Exact output ratio Vout/Vexc (V/V) for a strain.
+   * Exact output ratio Vout/Vexc (V/V) for a strain; with `zeroRatio`, the ratio at which the
+   * two-reading method returns this strain (the inverse of `strainFromRatio` with the same zero).
    *
-   * @param strain - Strain in m/m, inside `strainRange`.
-   * @throws {@link @bridgework/core!BridgeworkError} `not-finite`, `wrong-type`, `out-of-range`.
+   * @param strain - Strain in m/m (from zero, when `zeroRatio` is given), inside `strainRange`.
+   * @param options - `zeroRatio`: the reading at zero load, V/V.
+   * @throws {@link @bridgework/core!BridgeworkError} `not-finite`, `wrong-type`, `out-of-range`;
+   *   `ratio-out-of-range` for a bad `zeroRatio`.
    */
-  ratioFromStrain(strain: number): number;
+  ratioFromStrain(strain: number, options?: StrainFromRatioOptions): number;
   /**
    * Exact strain (m/m) for an output ratio, optionally referenced to a zero reading.
    *
@@ -361,8 +364,14 @@ export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
     ratioRange,
     rational: { numerator, denominator },
     linearFractional,
-    ratioFromStrain(strain: number): number {
-      const e = checkStrain('strain', strain);
+    ratioFromStrain(strain: number, opts: StrainFromRatioOptions = {}): number {
+      let e = checkFinite('strain', strain);
+      if (opts.zeroRatio !== undefined) {
+        // Invert ε = (ε1 − ε0)/(1 + GF·ε0): the gauge's strain at load is ε1 = ε0 + ε·(1 + GF·ε0).
+        const zero = solve('zeroRatio', opts.zeroRatio);
+        e = zero + e * (1 + gaugeFactor * zero);
+      }
+      e = checkStrain('strain', e);
       return evaluate(numerator, e) / evaluate(denominator, e);
     },
     strainFromRatio(ratio: number, opts: StrainFromRatioOptions = {}): number {

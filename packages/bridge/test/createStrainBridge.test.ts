@@ -340,6 +340,24 @@ describe('createStrainBridge: two-reading method', () => {
     );
   });
 
+  it('ratioFromStrain with the same zero is its exact inverse', () => {
+    fc.assert(
+      fc.property(
+        bridgeOptions,
+        microstrain,
+        fc.double({ min: -2000, max: 2000, noNaN: true }),
+        (options, ue, zeroUe) => {
+          const b = createStrainBridge(options);
+          const zeroRatio = b.ratioFromStrain(zeroUe / 1e6);
+          const strain = ue / 1e6;
+          const ratio = b.ratioFromStrain(strain, { zeroRatio });
+          expect(b.strainFromRatio(ratio, { zeroRatio })).toBeNear(strain, { rel: 1e-11, abs: 1e-16 });
+        },
+      ),
+      { numRuns: 1000 },
+    );
+  });
+
   it('differs from subtracting ratios, which carries the zero offset into the span', () => {
     // A gauge 2 % above nominal: subtracting ratios reads 2000 µε as 1999.76 µε (−1.2e-4 relative).
     const real = createStrainBridge({

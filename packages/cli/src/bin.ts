@@ -1,0 +1,10 @@
+#!/usr/bin/env node
+/**
+ * The `bridgework` executable. It loads only the argument parser and the command table; each
+ * command's module (and heavy dependencies such as mathjs and yaml) is imported when it runs.
+ */
+import { nodeIo } from './cliIo.js';
+import { runCli } from './runCli.js';
+
+// Setting exitCode (rather than calling process.exit) lets piped output drain completely.
+process.exitCode = await runCli(process.argv.slice(2), nodeIo());

@@ -1,0 +1,220 @@
+import { BridgeworkError, formatValue, type SpecIssue } from '@bridgework/core';
+import { closestName } from '../internal/closestName.js';
+import { parseQuantity, type SiUnit } from '../units/parseQuantity.js';
+import { formatIssues } from './formatIssues.js';
+import type { ChannelDocument } from './parseChannelDocument.js';
+import { readChannelDocument } from './readChannelDocument.js';
+
+/**
+ * The quantity converter handed to the channel schema: `(text, unit) => number` with `unit` one of
+ * {@link SiUnit}, throwing a `BridgeworkError` whose message names the problem ({@link parseQuantity}).
+ */
+export type QuantityParser = (text: string, unit: SiUnit) => number;
+
+/** What a channel validator returns: the typed spec when there are no issues. */
+export interface ChannelValidation<T> {
+  /** The validated spec (present when `issues` is empty). */
+  readonly value?: T;
+  /** Every problem found, with paths relative to the channel (`'sensor.gaugeOhms'`). */
+  readonly issues: readonly SpecIssue[];
+}
+
+/** Validates one channel's raw data: the channel package's schema, adapted. */
+export type ChannelValidator<T> = (raw: unknown, parseQuantity: QuantityParser) => ChannelValidation<T>;
+
+/** Optional project metadata at the top of a channel file. */
+export interface ProjectInfo {
+  /** A title for reports (`'Hopper scale, north silo'`). */
+  readonly title?: string;
+  /** Free text shown under the title. */
+  readonly description?: string;
+  /** A job, drawing or test reference. */
+  readonly reference?: string;
+}
+
+/** One validated channel, with its name from the file. */
+export interface NamedChannel<T> {
+  /** The channel's name (its key under `channels`). */
+  readonly name: string;
+  /** The validated spec. */
+  readonly spec: T;
+}
+
+/** A validated channel file. */
+export interface ChannelFile<T> {
+  /** The file name, as given. */
+  readonly file: string;
+  /** The project metadata (empty when the file has none). */
+  readonly project: ProjectInfo;
+  /** The channels, in file order. */
+  readonly channels: readonly NamedChannel<T>[];
+}
+
+/** Options of {@link loadChannelFile} and {@link validateChannelDocument}. */
+export interface LoadChannelFileOptions<T> {
+  /** Validates one channel (the channel package's schema). */
+  readonly validateChannel: ChannelValidator<T>;
+}
+
+const topLevelKeys = ['project', 'channels'] as const;
+const projectKeys = ['title', 'description', 'reference'] as const;
+const channelName = /^[A-Za-z][A-Za-z0-9_-]{0,62}$/;
+
+function isRecord(x: unknown): x is Record<string, unknown> {
+  return typeof x === 'object' && x !== null && !Array.isArray(x);
+}
+
+function unknownKeys(record: Record<string, unknown>, known: readonly string[], prefix: string): SpecIssue[] {
+  return Object.keys(record)
+    .filter((k) => !known.includes(k))
+    .map((k) => {
+      const near = closestName(k, known);
+      return {
+        path: `${prefix}${k}`,
+        message: `unknown field${near === undefined ? `; expected one of ${known.join(', ')}` : `; did you mean '${near}'?`}`,
+      };
+    });
+}
+
+/**
+ * Validates a parsed channel file: its layout (project metadata and a `channels` mapping) here,
+ * each channel through `validateChannel`, and gathers every problem with its full field path.
+ *
+ * @remarks
+ * Layout: the top level is a mapping with `channels` (required: a non-empty mapping from channel
+ * name to channel spec) and `project` (optional: `title`, `description`, `reference`, each a
+ * string). Names start with a letter and hold letters, digits, `_` and `-` (at most 63), so they
+ * can become C identifiers and CSV headings. Unknown fields are errors (typo protection), with
+ * the closest known name suggested. Issues from `validateChannel` are prefixed with
+ * `channels.<name>.`.
+ *
+ * @param document - The parsed file.
+ * @param options - The channel validator.
+ * @returns The validated file.
+ * @throws {@link @bridgework/core!BridgeworkError} `invalid-spec` whose message lists every problem as
+ * `file:line:column: field.path: message` (see {@link formatIssues}) and whose `issues` hold them.
+ */
+export function validateChannelDocument<T>(
+  document: ChannelDocument,
+  options: LoadChannelFileOptions<T>,
+): ChannelFile<T> {
+  const issues: SpecIssue[] = [];
+  const channels: NamedChannel<T>[] = [];
+  const project: Record<string, string> = {};
+  const root = document.data;
+  if (!isRecord(root)) {
+    issues.push({ path: '', message: `must be a mapping with a 'channels' field; got ${formatValue(root)}` });
+  } else {
+    issues.push(...unknownKeys(root, topLevelKeys, ''));
+    if (root['project'] !== undefined) {
+      const p = root['project'];
+      if (!isRecord(p)) {
+        issues.push({ path: 'project', message: `must be a mapping; got ${formatValue(p)}` });
+      } else {
+        issues.push(...unknownKeys(p, projectKeys, 'project.'));
+        for (const k of projectKeys) {
+          const v = p[k];
+          if (v === undefined) continue;
+          if (typeof v === 'string') project[k] = v;
+          else issues.push({ path: `project.${k}`, message: `must be a text; got ${formatValue(v)}` });
+        }
+      }
+    }
+    const list = root['channels'];
+    if (list === undefined) {
+      issues.push({ path: 'channels', message: 'is required: a mapping from channel name to channel' });
+    } else if (!isRecord(list) || Object.keys(list).length === 0) {
+      issues.push({
+        path: 'channels',
+        message: `must be a non-empty mapping from channel name to channel; got ${formatValue(list)}`,
+      });
+    } else {
+      for (const [name, raw] of Object.entries(list)) {
+        if (!channelName.test(name)) {
+          issues.push({
+            path: `channels.${name}`,
+            message:
+              'is not a valid channel name: start with a letter; use letters, digits, _ and - (at most 63)',
+          });
+          continue;
+        }
+        const result = options.validateChannel(raw, parseQuantity);
+        for (const issue of result.issues) {
+          issues.push({
+            path: `channels.${name}${issue.path === '' ? '' : `.${issue.path}`}`,
+            message: issue.message,
+          });
+        }
+        if (result.issues.length === 0 && result.value !== undefined)
+          channels.push({ name, spec: result.value });
+      }
+    }
+  }
+  if (issues.length > 0) {
+    const count = issues.length === 1 ? 'a problem' : `${issues.length} problems`;
+    throw new BridgeworkError(
+      'invalid-spec',
+      `${document.file} has ${count}:\n${formatIssues(document.file, issues, document.locate).trimEnd()}`,
+      { param: document.file, issues },
+    );
+  }
+  return { file: document.file, project, channels };
+}
+
+/**
+ * Reads, parses and validates a channel file (see {@link readChannelDocument} and
+ * {@link validateChannelDocument}).
+ *
+ * @param file - The path of a YAML or JSON channel file.
+ * @param options - The channel validator.
+ * @returns The validated file.
+ * @throws {@link @bridgework/core!BridgeworkError} `io-error`, `parse-error` (malformed YAML or JSON, with line and
+ * column) or `invalid-spec` (every problem, with its field path).
+ * @example
+ * ```ts
+ * const file = await loadChannelFile('hopper.yaml', { validateChannel });
+ * for (const { name, spec } of file.channels) console.log(name, spec);
+ * ```
+ */
+export async function loadChannelFile<T>(
+  file: string,
+  options: LoadChannelFileOptions<T>,
+): Promise<ChannelFile<T>> {
+  return validateChannelDocument(await readChannelDocument(file), options);
+}
+
+/**
+ * The channels named on the command line (`--channel`, `--channels a,b`), in the order given, or
+ * every channel when no name is given.
+ *
+ * @param file - The validated file.
+ * @param names - The names, or `undefined` for all.
+ * @returns The selected channels.
+ * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for a name that is not in the file (with the
+ * closest one suggested) or a name given twice.
+ */
+export function selectChannels<T>(
+  file: ChannelFile<T>,
+  names: readonly string[] | undefined,
+): readonly NamedChannel<T>[] {
+  if (names === undefined) return file.channels;
+  const known = file.channels.map((c) => c.name);
+  return names.map((name, i) => {
+    const c = file.channels.find((x) => x.name === name);
+    if (c === undefined) {
+      const near = closestName(name, known);
+      throw new BridgeworkError(
+        'invalid-option',
+        `${file.file} has no channel '${name}'${near === undefined ? `; it has ${known.join(', ')}` : `; did you mean '${near}'?`}`,
+        { param: 'channel', value: name, limit: known },
+      );
+    }
+    if (names.indexOf(name) !== i) {
+      throw new BridgeworkError('invalid-option', `channel '${name}' is named twice`, {
+        param: 'channel',
+        value: name,
+      });
+    }
+    return c;
+  });
+}

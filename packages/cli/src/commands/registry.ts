@@ -1,0 +1,20 @@
+import type { CommandSpec } from '../args/optionTable.js';
+import { constantsCommand } from './constants/constantsCommand.js';
+import { convertCommand } from './convert/convertCommand.js';
+import { demoCommand } from './demo/demoCommand.js';
+import { helpCommand } from './help/helpCommand.js';
+import { reportCommand } from './report/reportCommand.js';
+import { uncertaintyCommand } from './uncertainty/uncertaintyCommand.js';
+
+/**
+ * Every command of `bridgework`, in the order of the help text. Only the option tables are loaded
+ * here; each body is imported by its `load()` when the command runs.
+ */
+export const commands: readonly CommandSpec[] = Object.freeze([
+  reportCommand,
+  constantsCommand,
+  convertCommand,
+  uncertaintyCommand,
+  demoCommand,
+  helpCommand,
+] as unknown as CommandSpec[]);

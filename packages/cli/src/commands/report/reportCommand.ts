@@ -1,0 +1,61 @@
+import {
+  defineCommand,
+  type OptionSpec,
+  type ParsedArgs,
+  type PositionalSpec,
+} from '../../args/optionTable.js';
+import { channelFileArgument, channelOption, forceOption, jsonOption, outOption } from '../sharedOptions.js';
+
+/** The positional arguments of `bridgework report`. */
+export const reportArguments = [channelFileArgument] as const satisfies readonly PositionalSpec[];
+
+/** The option table of `bridgework report`. */
+export const reportOptions = [
+  jsonOption,
+  {
+    name: 'html',
+    type: 'string',
+    placeholder: 'file',
+    description: 'Also write a self-contained HTML report with plots to this file.',
+  },
+  outOption,
+  forceOption,
+  channelOption,
+  {
+    name: 'points',
+    type: 'integer',
+    placeholder: 'n',
+    unit: 'points per curve',
+    default: 201,
+    min: 11,
+    max: 10_001,
+    description: 'Resolution of the curves in the HTML plots.',
+  },
+] as const satisfies readonly OptionSpec[];
+
+/** The parsed arguments of `bridgework report`. */
+export type ReportArgs = ParsedArgs<typeof reportOptions, typeof reportArguments>;
+
+/** `bridgework report`: the design report of each channel. */
+export const reportCommand = defineCommand({
+  name: 'report',
+  summary: 'Design report of each channel: error budget, noise, headroom checks.',
+  description:
+    'Prints the budget of each channel in the file as a table: every error source in the output unit with its model and inputs (noise by source, resolution, nonlinearity of a linear map, lead desensitization, temperature effects, gain and offset tolerances), the combined standard and expanded uncertainty, and the headroom checks.\n\n' +
+    'With --json the same content is printed as JSON for scripts. With --html a self-contained HTML report is written as well, with plots (output against the quantity beside the linear line, nonlinearity error, error budget bars, noise contributions) and the inputs of each channel.\n\n' +
+    'The exit code is 2 when a design check fails; the report is still printed and written.',
+  positionals: reportArguments,
+  options: reportOptions,
+  examples: [
+    { command: 'bridgework report hopper.yaml', description: 'Print the budget of every channel.' },
+    {
+      command: 'bridgework report hopper.yaml --html hopper.html',
+      description: 'Also write the HTML report with plots.',
+    },
+    {
+      command: 'bridgework report hopper.yaml --channel north-cell --json -o north.json',
+      description: 'Write one channel’s budget as JSON to a file.',
+    },
+  ],
+  load: () => import('./runReport.js'),
+});

@@ -1,0 +1,220 @@
+import { randomBytes } from 'node:crypto';
+import { constants as fsConstants } from 'node:fs';
+import { link, open, rename, stat, unlink, type FileHandle } from 'node:fs/promises';
+import { basename, dirname, join, resolve } from 'node:path';
+import { BridgeworkError } from '@bridgework/core';
+import { addPendingTempFile, removePendingTempFile } from '../internal/pendingTempFiles.js';
+
+/** Options of {@link openAtomicFile} and {@link writeFileAtomic}. */
+export interface AtomicFileOptions {
+  /** Replace the file if it exists already. Default false: an existing file is an error. */
+  readonly force?: boolean;
+}
+
+/**
+ * An output file being written: data goes to a temporary file beside it, which replaces the
+ * target only on {@link AtomicFile.commit}.
+ */
+export interface AtomicFile {
+  /** The absolute path of the output file. */
+  readonly path: string;
+  /** The absolute path of the temporary file (same folder, hidden name). */
+  readonly tempPath: string;
+  /** Appends text (UTF-8) or bytes. Wait for each call before the next. */
+  write(data: string | Uint8Array): Promise<void>;
+  /** Flushes to disk, closes and moves the file into place. */
+  commit(): Promise<void>;
+  /** Closes and removes the temporary file; the output path is left as it was. Safe to call twice. */
+  abort(): Promise<void>;
+}
+
+function ioError(message: string, path: string, cause: unknown): BridgeworkError {
+  return new BridgeworkError('io-error', message, { param: path, cause });
+}
+
+function reason(e: unknown): string {
+  const code = (e as NodeJS.ErrnoException).code;
+  switch (code) {
+    case 'ENOENT':
+      return 'the folder does not exist';
+    case 'EACCES':
+    case 'EPERM':
+      return 'permission denied';
+    case 'EISDIR':
+      return 'it is a folder';
+    case 'ENOSPC':
+      return 'the disk is full';
+    default:
+      return code ?? String(e);
+  }
+}
+
+/**
+ * The `file-exists` error for an output path that exists already.
+ *
+ * @param path - The path as the user gave it.
+ * @returns The error (to throw).
+ */
+export function fileExistsError(path: string): BridgeworkError {
+  return new BridgeworkError('file-exists', `${path} exists already; pass --force to replace it`, {
+    param: path,
+  });
+}
+
+async function exists(path: string): Promise<boolean> {
+  try {
+    await stat(path);
+    return true;
+  } catch (e) {
+    if ((e as NodeJS.ErrnoException).code === 'ENOENT') return false;
+    throw ioError(`cannot check ${path}: ${reason(e)}`, path, e);
+  }
+}
+
+/**
+ * Opens an output file for atomic writing.
+ *
+ * @remarks
+ * The data is written to a temporary file in the same folder (`.<name>.<pid>-<random>.tmp`, so
+ * the final rename never crosses file systems), flushed with `fsync` and then moved into place:
+ * - without `force`, by a hard link, which fails if the target appeared in the meantime, so an
+ *   existing file is never replaced (on file systems without hard links, a check and a rename);
+ * - with `force`, by `rename`, which replaces the target atomically.
+ *
+ * Readers therefore see either the old file (or none) or the complete new one, never a partial
+ * file. The temporary file is removed on {@link AtomicFile.abort}, on SIGINT, SIGTERM and SIGHUP,
+ * and on exit; only an uncatchable SIGKILL or a power cut can leave it behind (never the target).
+ * The existence check is made here, before any work, so a long conversion fails at once rather
+ * than at the end.
+ *
+ * @param path - The output file (relative paths against the process's working folder).
+ * @param options - `force` to allow replacing an existing file.
+ * @returns The open file.
+ * @throws {@link @bridgework/core!BridgeworkError} `file-exists` when the file exists and `force` is not set;
+ * `io-error` when the folder is missing, the path is a folder, or the file cannot be created.
+ * @example
+ * ```ts
+ * const file = await openAtomicFile('strain.csv');
+ * try {
+ *   await file.write('strain\n');
+ *   await file.commit();
+ * } finally {
+ *   await file.abort(); // no-op after commit
+ * }
+ * ```
+ */
+export async function openAtomicFile(path: string, options: AtomicFileOptions = {}): Promise<AtomicFile> {
+  const target = resolve(path);
+  const force = options.force === true;
+  try {
+    const s = await stat(target);
+    if (s.isDirectory()) throw ioError(`cannot write ${path}: it is a folder`, path, undefined);
+    if (!force) throw fileExistsError(path);
+  } catch (e) {
+    if (e instanceof BridgeworkError) throw e;
+    if ((e as NodeJS.ErrnoException).code !== 'ENOENT')
+      throw ioError(`cannot write ${path}: ${reason(e)}`, path, e);
+  }
+  const tempPath = join(
+    dirname(target),
+    `.${basename(target)}.${process.pid}-${randomBytes(4).toString('hex')}.tmp`,
+  );
+  let handle: FileHandle;
+  try {
+    handle = await open(tempPath, fsConstants.O_WRONLY | fsConstants.O_CREAT | fsConstants.O_EXCL, 0o666);
+  } catch (e) {
+    throw ioError(`cannot write ${path}: ${reason(e)}`, path, e);
+  }
+  addPendingTempFile(tempPath);
+  let state: 'open' | 'committed' | 'aborted' = 'open';
+
+  const closeAndRemove = async (): Promise<void> => {
+    await handle.close().catch(() => undefined);
+    await unlink(tempPath).catch(() => undefined);
+    removePendingTempFile(tempPath);
+  };
+
+  return {
+    path: target,
+    tempPath,
+    async write(data) {
+      if (state !== 'open') throw new Error(`AtomicFile.write after ${state}`);
+      const bytes = typeof data === 'string' ? Buffer.from(data, 'utf8') : data;
+      let offset = 0;
+      try {
+        while (offset < bytes.length) {
+          const { bytesWritten } = await handle.write(bytes, offset, bytes.length - offset);
+          offset += bytesWritten;
+        }
+      } catch (e) {
+        throw ioError(`cannot write ${path}: ${reason(e)}`, path, e);
+      }
+    },
+    async commit() {
+      if (state !== 'open') throw new Error(`AtomicFile.commit after ${state}`);
+      try {
+        await handle.sync();
+        await handle.close();
+      } catch (e) {
+        throw ioError(`cannot write ${path}: ${reason(e)}`, path, e);
+      }
+      try {
+        if (force) {
+          await rename(tempPath, target);
+        } else {
+          try {
+            await link(tempPath, target);
+            await unlink(tempPath);
+          } catch (e) {
+            const code = (e as NodeJS.ErrnoException).code;
+            if (code === 'EEXIST') throw fileExistsError(path);
+            if (code !== 'EPERM' && code !== 'ENOTSUP' && code !== 'EOPNOTSUPP' && code !== 'EXDEV') throw e;
+            // No hard links here: check, then rename (a small race remains on such file systems).
+            if (await exists(target)) throw fileExistsError(path);
+            await rename(tempPath, target);
+          }
+        }
+        state = 'committed';
+        removePendingTempFile(tempPath);
+      } catch (e) {
+        state = 'aborted';
+        await unlink(tempPath).catch(() => undefined);
+        removePendingTempFile(tempPath);
+        if (e instanceof BridgeworkError) throw e;
+        throw ioError(`cannot write ${path}: ${reason(e)}`, path, e);
+      }
+    },
+    async abort() {
+      if (state !== 'open') return;
+      state = 'aborted';
+      await closeAndRemove();
+    },
+  };
+}
+
+/**
+ * Writes a whole output file atomically (see {@link openAtomicFile}).
+ *
+ * @param path - The output file.
+ * @param data - Its content (text is written as UTF-8).
+ * @param options - `force` to allow replacing an existing file.
+ * @returns When the file is in place.
+ * @throws {@link @bridgework/core!BridgeworkError} `file-exists` or `io-error`.
+ * @example
+ * ```ts
+ * await writeFileAtomic('hopper.h', header, { force: true });
+ * ```
+ */
+export async function writeFileAtomic(
+  path: string,
+  data: string | Uint8Array,
+  options: AtomicFileOptions = {},
+): Promise<void> {
+  const file = await openAtomicFile(path, options);
+  try {
+    await file.write(data);
+    await file.commit();
+  } finally {
+    await file.abort();
+  }
+}

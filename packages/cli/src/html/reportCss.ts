@@ -1,0 +1,49 @@
+/** The style sheet of the HTML report, inlined in every page. */
+export const reportCss = `
+:root { --text: #1f2328; --muted: #57606a; --line: #d0d7de; --soft: #f6f8fa; --accent: #0072b2;
+  --pass: #1a7f37; --fail: #cf222e; --warn-bg: #fff8e6; --warn-line: #d4a72c; }
+* { box-sizing: border-box; }
+html { -webkit-text-size-adjust: 100%; }
+body { margin: 0 auto; max-width: 1080px; padding: 32px 28px 48px; color: var(--text); background: #fff;
+  font: 15px/1.5 system-ui, -apple-system, "Segoe UI", Roboto, "DejaVu Sans", Arial, sans-serif; }
+h1 { font-size: 26px; line-height: 1.25; margin: 0 0 4px; letter-spacing: -0.01em; }
+h2 { font-size: 20px; margin: 40px 0 12px; padding-bottom: 6px; border-bottom: 1px solid var(--line); }
+h3 { font-size: 15px; margin: 18px 0 6px; color: var(--muted); text-transform: uppercase; letter-spacing: 0.04em; }
+p { margin: 8px 0; max-width: 72ch; }
+.subtitle { color: var(--muted); margin: 0 0 12px; }
+dl.meta { display: flex; flex-wrap: wrap; gap: 4px 28px; margin: 12px 0 16px; font-size: 14px; }
+dl.meta div { display: flex; gap: 6px; }
+dl.meta dt { color: var(--muted); }
+dl.meta dd { margin: 0; font-weight: 500; }
+.caution { background: var(--warn-bg); border-left: 4px solid var(--warn-line); padding: 10px 14px; margin: 16px 0;
+  font-size: 14px; border-radius: 0 4px 4px 0; }
+nav ol { margin: 8px 0 0; padding-left: 22px; columns: 2; font-size: 14px; }
+nav a { color: var(--accent); text-decoration: none; }
+table { border-collapse: collapse; margin: 10px 0 18px; font-size: 14px; min-width: 50%; }
+caption { text-align: left; font-weight: 600; padding: 0 0 6px; }
+th, td { padding: 5px 12px 5px 0; border-bottom: 1px solid var(--line); text-align: left; vertical-align: top; }
+th { font-weight: 600; color: var(--muted); border-bottom: 2px solid var(--line); }
+td.num, th.num { text-align: right; font-variant-numeric: tabular-nums; }
+tbody tr:nth-child(even) td { background: var(--soft); }
+.plots { display: grid; grid-template-columns: repeat(auto-fit, minmax(440px, 1fr)); gap: 18px; margin: 12px 0 20px;
+  align-items: start; }
+.plots figure { margin: 0; padding: 8px; border: 1px solid var(--line); border-radius: 6px; background: #fff; }
+.plots svg { display: block; width: 100%; height: auto; }
+ul.checks { list-style: none; padding: 0; margin: 10px 0 18px; }
+ul.checks li { padding: 4px 0; }
+.badge { display: inline-block; min-width: 42px; text-align: center; font-size: 12px; font-weight: 700;
+  border-radius: 10px; padding: 1px 8px; color: #fff; text-transform: uppercase; letter-spacing: 0.03em; }
+li.pass .badge { background: var(--pass); }
+li.fail .badge { background: var(--fail); }
+.detail { color: var(--muted); }
+.inputs { display: grid; grid-template-columns: repeat(auto-fit, minmax(420px, 1fr)); gap: 0 28px; }
+.inputs table { width: 100%; }
+footer { margin-top: 48px; padding-top: 12px; border-top: 1px solid var(--line); color: var(--muted); font-size: 13px; }
+@media print {
+  body { max-width: none; padding: 0; font-size: 11pt; }
+  h2 { break-after: avoid; }
+  .plots figure, table, .caution { break-inside: avoid; }
+  nav { display: none; }
+  a { color: inherit; }
+}
+`.trim();

@@ -1,0 +1,115 @@
+// The programmatic surface of the `bridgework` command (the executable is bin.ts).
+export { runCli } from './runCli.js';
+export { nodeIo, type CliIo, type CliStream } from './cliIo.js';
+export { exitCodes, type ExitCode } from './exitCodes.js';
+export { SAFETY_CAUTION } from './caution.js';
+
+// Commands and their option tables
+export {
+  defineCommand,
+  type CamelCase,
+  type CommandExample,
+  type CommandModule,
+  type CommandSpec,
+  type OptionSpec,
+  type OptionType,
+  type OptionValue,
+  type OptionValues,
+  type ParsedArgs,
+  type PositionalSpec,
+  type PositionalValues,
+} from './args/optionTable.js';
+export { parseCommandLine, type ParsedCommandLine } from './args/parseCommandLine.js';
+export { formatCommandHelp, formatProgramHelp, type HelpFormatOptions } from './args/formatHelp.js';
+export { formatCliReference } from './args/formatCliReference.js';
+export { commands } from './commands/registry.js';
+export type { CommandContext } from './commands/CommandContext.js';
+export { notAvailableYet } from './commands/notAvailable.js';
+export { emitText, type EmitTextOptions } from './commands/emitText.js';
+
+// Terminal output
+export { colorEnabled, createTextStyle, type TextStyle } from './terminal/textStyle.js';
+export { createProgressBar, type ProgressBar, type ProgressBarOptions } from './terminal/progressBar.js';
+export { formatTable, type TableColumn } from './terminal/formatTable.js';
+
+// Files
+export {
+  openAtomicFile,
+  writeFileAtomic,
+  type AtomicFile,
+  type AtomicFileOptions,
+} from './files/atomicFile.js';
+
+// Streamed code conversion
+export {
+  DEFAULT_BLOCK_FRAMES,
+  codeFileFormats,
+  type CodeBlock,
+  type CodeFileFormat,
+  type CodeSource,
+} from './data/codeSource.js';
+export { openInt32Codes, type Int32CodeOptions } from './data/readInt32Codes.js';
+export { openCsvCodes, type CsvCodeOptions } from './data/readCsvCodes.js';
+export { codeFormatFromPath, openCodeSource, type OpenCodeSourceOptions } from './data/openCodeSource.js';
+export { streamSink, type OutputSink } from './data/outputSink.js';
+export { createCsvWriter, type CsvWriter, type CsvWriterOptions } from './data/createCsvWriter.js';
+export {
+  createClipCounter,
+  formatClipSummary,
+  type ChannelClipCount,
+  type ClipCounter,
+  type ClipSummary,
+  type ConverterStatus,
+  type InterleavedConverter,
+} from './data/clipCounter.js';
+export {
+  convertCodeStream,
+  type ConversionResult,
+  type ConvertCodeStreamOptions,
+} from './data/convertCodeStream.js';
+export { convertToCsv, type ConvertToCsvOptions, type ProgressSink } from './data/convertToCsv.js';
+
+// Units and channel files
+export { parseQuantity, siUnits, type SiUnit } from './units/parseQuantity.js';
+export {
+  parseChannelDocument,
+  type ChannelDocument,
+  type ChannelFileSyntax,
+  type SourcePosition,
+} from './channelFile/parseChannelDocument.js';
+export { readChannelDocument } from './channelFile/readChannelDocument.js';
+export { formatIssues } from './channelFile/formatIssues.js';
+export {
+  loadChannelFile,
+  selectChannels,
+  validateChannelDocument,
+  type ChannelFile,
+  type ChannelValidation,
+  type ChannelValidator,
+  type LoadChannelFileOptions,
+  type NamedChannel,
+  type ProjectInfo,
+  type QuantityParser,
+} from './channelFile/loadChannelFile.js';
+
+// Reports
+export { appendCaution, reportJson, type ReportJsonOptions } from './report/reportJson.js';
+export { formatTick, niceTicks, type NiceTicks } from './html/niceTicks.js';
+export type { PlotAxis, SvgPlot } from './html/plotTypes.js';
+export { linePlot, type LinePlotOptions, type LineSeries } from './html/linePlot.js';
+export { barChart, type BarChartOptions, type BarSeries } from './html/barChart.js';
+export {
+  renderHtmlReport,
+  type ChecksBlock,
+  type HtmlReportOptions,
+  type InputGroup,
+  type InputRow,
+  type InputsBlock,
+  type PlotsBlock,
+  type ReportBlock,
+  type ReportCheck,
+  type ReportMeta,
+  type ReportSection,
+  type TableBlock,
+  type TextBlock,
+} from './html/renderHtmlReport.js';

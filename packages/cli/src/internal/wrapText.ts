@@ -1,0 +1,19 @@
+/**
+ * Wraps a paragraph to lines of at most `width` characters (words longer than the width stay
+ * whole), each prefixed by `indent`.
+ */
+export function wrapText(text: string, width: number, indent = ''): string[] {
+  const words = text.split(/\s+/).filter((w) => w.length > 0);
+  const lines: string[] = [];
+  let line = '';
+  for (const w of words) {
+    if (line.length > 0 && indent.length + line.length + 1 + w.length > width) {
+      lines.push(indent + line);
+      line = w;
+    } else {
+      line = line.length === 0 ? w : `${line} ${w}`;
+    }
+  }
+  if (line.length > 0) lines.push(indent + line);
+  return lines;
+}
