@@ -71,8 +71,18 @@ export interface ThermalOutputSpec {
 export interface TransducerSpec {
   /** Discriminant. */
   readonly kind: 'transducer';
-  /** Capacity in the output unit (N for force, kg for mass, or as certified) (> 0). */
+  /** Rated capacity (> 0), in `capacityUnit`. */
   readonly capacity: number;
+  /**
+   * What the certificate's capacity is expressed in: `'newton'`, `'kilogram-force'`, or
+   * `'kilogram'` (conventional mass of reference weights). Default `'kilogram'` for a mass
+   * output, else `'newton'`.
+   */
+  readonly capacityUnit?: 'newton' | 'kilogram-force' | 'kilogram';
+  /** Gravity where the certificate's weights acted, m/s² (> 0). Default 9.80665. */
+  readonly calibrationGravityMetersPerSecondSquared?: number;
+  /** Gravity where the transducer is used, m/s² (> 0), for a mass output. Default 9.80665. */
+  readonly localGravityMetersPerSecondSquared?: number;
   /** Rated output at capacity in V/V (> 0), e.g. 0.002 for 2 mV/V. */
   readonly ratedOutputVoltsPerVolt: number;
   /** Zero balance (output at no load) in V/V. Default 0. */

@@ -49,7 +49,13 @@ const strainGauge = objectField(
 
 const transducer = objectField(
   {
-    capacity: numberField({ doc: 'Capacity in the output unit (N for force, kg for mass)', min: 0, minExclusive: true }),
+    capacity: numberField({ doc: 'Rated capacity, in capacityUnit', min: 0, minExclusive: true }),
+    capacityUnit: choiceField(['newton', 'kilogram-force', 'kilogram'] as const, {
+      doc: "Unit of the capacity (default 'kilogram' for a mass output, else 'newton')",
+      optional: true,
+    }),
+    calibrationGravityMetersPerSecondSquared: numberField({ doc: "Gravity where the certificate's weights acted", unit: 'm/s^2', min: 0, minExclusive: true, default: 9.80665 }),
+    localGravityMetersPerSecondSquared: numberField({ doc: 'Gravity where the transducer is used (mass output)', unit: 'm/s^2', min: 0, minExclusive: true, default: 9.80665 }),
     ratedOutputVoltsPerVolt: numberField({ doc: 'Rated output at capacity, V/V (2 mV/V = 0.002)', unit: 'V/V', min: 0, minExclusive: true, max: 1 }),
     zeroBalanceVoltsPerVolt: numberField({ doc: 'Zero balance, V/V', unit: 'V/V', min: -1, max: 1, default: 0 }),
     inputOhms: ohms('Input (excitation) resistance', 350),
@@ -259,6 +265,9 @@ function crossCheck(spec: ChannelSpec, _path: string, report: (path: string, mes
   const to = kind === 'strain-gauge' ? spec.sensor.thermalOutput : undefined;
   if (to !== undefined && !(to.rangeCelsius[0] < to.rangeCelsius[1])) {
     report('sensor.thermalOutput.rangeCelsius', `must have min < max; got [${to.rangeCelsius.join(', ')}]`);
+  }
+  if (spec.zero !== undefined && kind === 'rtd') {
+    report('zero', 'must be absent for an RTD (its temperature is absolute; there is no zero reading)');
   }
   if (spec.zero !== undefined) {
     const bits = spec.adc.bits;
