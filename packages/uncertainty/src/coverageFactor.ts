@@ -19,15 +19,17 @@ function checkProbability(param: string, p: unknown): number {
  * @remarks
  * Newton's method on the upper tail Q(z) = ½·erfc(z/√2), started from the rational approximation
  * of Abramowitz & Stegun 26.2.23, with erfc from the series A&S 7.1.6 below 0.5 and the continued
- * fraction A&S 7.1.14 above. The smaller tail is solved, so extreme probabilities keep their
- * relative precision. Accuracy: within 2e-15 relative of 50-digit references.
+ * fraction A&S 7.1.14 above (both within 4e-15 relative), on ln Q so that deep tails converge in
+ * a few steps. The smaller tail is solved, so extreme probabilities keep their relative precision.
+ * Accuracy: Φ at the returned z is within 1e-14 + 4.4e-16·z² relative of the probability asked
+ * for (the z² term is the conditioning of the tail: one ulp of z), against 50-digit references.
  *
  * @param probability - Φ(z), in (0, 1).
  * @returns z.
  * @throws {@link @bridgework/core!BridgeworkError} `out-of-range` outside (0, 1); `not-finite`, `wrong-type`.
  * @example
  * ```ts
- * normalQuantile(0.975); // 1.959963984540054
+ * normalQuantile(0.975); // 1.9599639845400538
  * ```
  */
 export function normalQuantile(probability: number): number {
@@ -53,7 +55,7 @@ export function normalQuantile(probability: number): number {
  *   `not-positive` for ν ≤ 0; `not-finite`, `wrong-type`.
  * @example
  * ```ts
- * studentTQuantile(0.975, 9); // 2.2621571627409915
+ * studentTQuantile(0.975, 9); // 2.2621571627982062
  * ```
  */
 export function studentTQuantile(probability: number, degreesOfFreedom: number): number {
@@ -79,9 +81,9 @@ export function studentTQuantile(probability: number, degreesOfFreedom: number):
  *   for ν ≤ 0; `not-finite`, `wrong-type`.
  * @example
  * ```ts
- * coverageFactor(0.95); // 1.959963984540054
- * coverageFactor(0.95, 4); // 2.7764451051977987 (JCGM 100 Table G.2: 2.78)
- * coverageFactor(0.9545, 10); // 2.2838… (Table G.2: 2.28)
+ * coverageFactor(0.95); // 1.9599639845400538
+ * coverageFactor(0.95, 4); // 2.77644510519779 (JCGM 100 Table G.2: 2.78)
+ * coverageFactor(0.9545, 10); // 2.2836816132996396 (Table G.2: 2.28)
  * ```
  */
 export function coverageFactor(coverage: number, degreesOfFreedom: number = Infinity): number {
@@ -131,7 +133,7 @@ export interface WelchSatterthwaiteOptions {
  *     { contribution: 0.3, degreesOfFreedom: 4 },
  *     { contribution: 0.4, degreesOfFreedom: Infinity },
  *   ],
- * }); // 0.5⁴/(0.3⁴/4) = 30.86…
+ * }); // 30.8641975308642 (= 0.5⁴/(0.3⁴/4))
  * ```
  */
 export function welchSatterthwaite(options: WelchSatterthwaiteOptions): number {

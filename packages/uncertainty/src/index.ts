@@ -42,6 +42,7 @@ export {
   type StudentTQuantity,
 } from './quantities.js';
 export { sampleCoverageIntervals, type CoverageIntervals } from './sampleCoverageIntervals.js';
+export { typeAEvaluation, type TypeAEvaluation } from './typeAEvaluation.js';
 export type { Interval, MeasurementModel, VectorMeasurementModel } from './types.js';
 export {
   numericalTolerance,

@@ -448,8 +448,8 @@ function outputPropagation(s: Internals, k: number): Propagation {
  *   inputs: { V: { value: 5, standardUncertainty: 0.002 }, I: { value: 0.02, standardUncertainty: 1e-5 } },
  * });
  * r.value; // 250 (Ω)
- * r.standardUncertainty; // 0.160… (√((0.002/0.02)² + (5·1e-5/0.02²)²))
- * r.sensitivities; // { V: 50, I: -12500 }
+ * r.standardUncertainty; // 0.16007810593575247 (= √((50·0.002)² + (12 500·1e-5)²))
+ * r.sensitivities; // { V: 49.99999999999633, I: -12499.999999991784 } (exact: 50, −12 500)
  * ```
  */
 export function propagate(options: PropagateOptions): Propagation;
@@ -473,7 +473,7 @@ export function propagate(options: PropagateOptions): Propagation;
  *   model: ({ a, b }) => [a + b, a - b],
  *   inputs: { a: { value: 1, standardUncertainty: 0.1 }, b: { value: 2, standardUncertainty: 0.1 } },
  * });
- * r.correlation[0][1]; // 0 (equal uncertainties: sum and difference are uncorrelated)
+ * r.correlation[0][1]; // 3.5e-16 (≈ 0: with equal uncertainties, sum and difference are uncorrelated)
  * ```
  */
 export function propagate(options: VectorPropagateOptions): VectorPropagation;

@@ -32,7 +32,8 @@ export function numericalTolerance(value: number, significantDigits: number = 2)
   // Repair log10 rounding at exact powers of ten, and values that round up to 10^digits.
   while (c(l) >= 10 ** digits) l += 1;
   while (c(l) < 10 ** (digits - 1)) l -= 1;
-  return 0.5 * 10 ** l;
+  // ½·10^l as the double nearest to it: an exact power of ten divides, never a rounded one multiplies.
+  return l >= 0 ? 0.5 * 10 ** l : 0.5 / 10 ** -l;
 }
 
 /** The GUM side of a comparison: an estimate and its expanded uncertainty (a {@link Propagation} will do). */
@@ -94,7 +95,7 @@ export interface GumValidation {
  * validateGum({
  *   gum: { value: 0, expandedUncertainty: 3.92 },
  *   monteCarlo: { standardUncertainty: 2.0, interval: { low: -3.88, high: 3.88 } },
- * }); // { dLow: 0.04, dHigh: 0.04, tolerance: 0.05, significantDigits: 2, validated: true }
+ * }); // { dLow: 0.040000000000000036, dHigh: 0.040000000000000036, tolerance: 0.05, significantDigits: 2, validated: true }
  * ```
  */
 export function validateGum(options: ValidateGumOptions): GumValidation {

@@ -6,32 +6,53 @@
 
 const LN_SQRT_2PI = 0.9189385332046728; // ½·ln(2π)
 const SQRT_PI = 1.7724538509055159;
+const LN_SQRT_PI = 0.5723649429247001; // ln Γ(½)
 const EPS = 2.220446049250313e-16;
 
-/**
- * ln Γ(x) for x > 0: Stirling's series with the Bernoulli-number terms up to x⁻¹³ for x ≥ 10, and
- * the recurrence Γ(x) = Γ(x + k)/(x(x + 1)…(x + k − 1)) below. Absolute error below 1e-15 for
- * x ≤ 10 and relative error below 1e-15 above.
- */
-export function logGamma(x: number): number {
-  let shift = 0;
-  let product = 1;
-  while (x < 10) {
-    product *= x;
-    x += 1;
-    shift += 1;
-  }
+/** Stirling's correction ln Γ(x) − [(x − ½)ln x − x + ½ln 2π] for x ≥ 10, to x⁻¹³. */
+function stirlingCorrection(x: number): number {
   const inv = 1 / x;
   const inv2 = inv * inv;
   // B₂ₖ/(2k(2k − 1)): 1/12, −1/360, 1/1260, −1/1680, 1/1188, −691/360360, 1/156.
-  const series =
+  return (
     inv *
     (1 / 12 +
       inv2 *
         (-1 / 360 +
-          inv2 * (1 / 1260 + inv2 * (-1 / 1680 + inv2 * (1 / 1188 + inv2 * (-691 / 360360 + inv2 / 156))))));
-  const stirling = (x - 0.5) * Math.log(x) - x + LN_SQRT_2PI + series;
-  return shift === 0 ? stirling : stirling - Math.log(product);
+          inv2 * (1 / 1260 + inv2 * (-1 / 1680 + inv2 * (1 / 1188 + inv2 * (-691 / 360360 + inv2 / 156))))))
+  );
+}
+
+/**
+ * ln Γ(x) for x > 0: Stirling's series with the Bernoulli-number terms up to x⁻¹³ for x ≥ 10, and
+ * the recurrence Γ(x) = Γ(x + k)/(x(x + 1)…(x + k − 1)) below. Error below 4e-15 absolute for
+ * x ≤ 10 and 1e-15 relative above.
+ */
+export function logGamma(x: number): number {
+  let product = 1;
+  while (x < 10) {
+    product *= x;
+    x += 1;
+  }
+  const stirling = (x - 0.5) * Math.log(x) - x + LN_SQRT_2PI + stirlingCorrection(x);
+  return product === 1 ? stirling : stirling - Math.log(product);
+}
+
+/**
+ * ln Γ(a) − ln Γ(a + ½) without the cancellation of the two large logarithms: for a ≥ 10 the
+ * Stirling forms subtract to −½ln a + (½ − a·ln(1 + 1/(2a))) + S(a) − S(a + ½), every term small.
+ */
+export function logGammaRatioHalf(a: number): number {
+  if (a < 10) return logGamma(a) - logGamma(a + 0.5);
+  return (
+    -0.5 * Math.log(a) + (0.5 - a * Math.log1p(0.5 / a)) + stirlingCorrection(a) - stirlingCorrection(a + 0.5)
+  );
+}
+
+/** e^(−z²) with z² split so that the rounding of z·z does not enter the exponent (|error| ≈ 2 ulps). */
+function expMinusSquare(z: number): number {
+  const high = Math.floor(z * 1048576) / 1048576; // 20 fractional bits: high² is exact for z < 2^6
+  return Math.exp(-high * high) * Math.exp(-(z - high) * (z + high));
 }
 
 /** Modified Lentz evaluation of a continued fraction b₀ + a₁/(b₁ + a₂/(b₂ + …)), given aₙ and bₙ for n ≥ 1. */
@@ -56,7 +77,7 @@ function lentz(b0: number, a: (n: number) => number, b: (n: number) => number, m
 }
 
 /**
- * erfc(z) for z ≥ 0: the series erf(z) = (2/√π)·e^(−z²)·Σ 2ⁿz^(2n+1)/(1·3·…·(2n + 1)) of
+ * erfc(z) for z ≥ 0 (z below 2⁶ = 64 for the exact split of z²; erfc(64) underflows anyway): the series erf(z) = (2/√π)·e^(−z²)·Σ 2ⁿz^(2n+1)/(1·3·…·(2n + 1)) of
  * Abramowitz & Stegun 7.1.6 for z < 2, and the continued fraction of A&S 7.1.14,
  * erfc(z) = e^(−z²)/√π · 1/(z + (1/2)/(z + 1/(z + (3/2)/(z + …)))), for z ≥ 2. Relative error
  * about 1e-15.
@@ -77,7 +98,7 @@ export function erfc(z: number): number {
     (n) => n / 2,
     () => z,
   );
-  return Math.exp(-z * z) / (SQRT_PI * k);
+  return expMinusSquare(z) / (SQRT_PI * k);
 }
 
 /** The upper tail of the standard normal distribution, Q(x) = P(Z > x) = ½·erfc(x/√2), x ≥ 0. */
@@ -117,7 +138,7 @@ export function studentUpperTail(t: number, nu: number): number {
   const b = 0.5;
   const lnX = -Math.log1p((t * t) / nu); // x = ν/(ν + t²)
   const ln1mX = 2 * Math.log(t) - Math.log(nu + t * t); // 1 − x = t²/(ν + t²)
-  const lnBeta = logGamma(a) + logGamma(b) - logGamma(a + b);
+  const lnBeta = logGammaRatioHalf(a) + LN_SQRT_PI; // B(a, ½) = Γ(a)Γ(½)/Γ(a + ½)
   const front = Math.exp(a * lnX + b * ln1mX - lnBeta);
   const x = Math.exp(lnX);
   const incomplete =
@@ -129,13 +150,15 @@ export function studentUpperTail(t: number, nu: number): number {
 
 /** The density of Student's t with ν degrees of freedom at t. */
 export function studentDensity(t: number, nu: number): number {
-  const lnC = logGamma((nu + 1) / 2) - logGamma(nu / 2) - 0.5 * Math.log(nu * Math.PI);
+  const lnC = -logGammaRatioHalf(nu / 2) - 0.5 * Math.log(nu * Math.PI);
   return Math.exp(lnC - ((nu + 1) / 2) * Math.log1p((t * t) / nu));
 }
 
 /**
- * Solves tail(x) = α for x ≥ 0 by Newton's method on a bracket, falling back to bisection
- * (geometric while the bracket spans more than a factor of 4), for a decreasing tail function.
+ * Solves tail(x) = α for x ≥ 0, for a decreasing tail function with density = −tail′: Newton's
+ * method on ln tail(x) − ln α (nearly linear far out, so deep tails converge in a few steps),
+ * kept inside a bracket and falling back to bisection (geometric while the bracket spans more
+ * than a factor of 4). Converged when a Newton correction is within 2 ulps.
  */
 function solveTail(
   alpha: number,
@@ -143,8 +166,9 @@ function solveTail(
   density: (x: number) => number,
   guess: number,
 ): number {
+  const lnAlpha = Math.log(alpha);
   let lo = 0;
-  let hi = Math.max(guess, 1);
+  let hi = Math.max(2 * guess, 1);
   while (tail(hi) > alpha) {
     lo = hi;
     hi *= 4;
@@ -152,14 +176,18 @@ function solveTail(
   }
   let x = guess > lo && guess < hi ? guess : 0.5 * (lo + hi);
   for (let iteration = 0; iteration < 300; iteration++) {
-    const g = tail(x) - alpha;
+    const q = tail(x);
+    const g = Math.log(q) - lnAlpha;
     if (g === 0) return x;
     if (g > 0) lo = x;
     else hi = x;
-    let next = x + g / density(x);
-    if (!(next > lo && next < hi)) next = lo > 0 && hi / lo > 4 ? Math.sqrt(lo * hi) : 0.5 * (lo + hi);
-    if (Math.abs(next - x) <= 4 * EPS * next) return next;
-    x = next;
+    const newton = x + (g * q) / density(x);
+    if (Math.abs(newton - x) <= 2 * EPS * Math.abs(x)) return newton;
+    if (newton > lo && newton < hi) x = newton;
+    else {
+      x = lo > 0 && hi / lo > 4 ? Math.sqrt(lo * hi) : 0.5 * (lo + hi);
+      if (hi - lo <= 2 * EPS * hi) return x;
+    }
   }
   return x;
 }
