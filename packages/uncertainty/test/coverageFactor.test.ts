@@ -14,7 +14,7 @@ import { erfc, logGamma, studentUpperQuantile, studentUpperTail } from '../src/i
 const D = Decimal.clone({ precision: 50, rounding: Decimal.ROUND_HALF_EVEN });
 const X = (x: number) => new D(exactDecimalString(x));
 const pi = D.acos(-1);
-const math = create(all, {});
+const math = create(all as NonNullable<typeof all>, {});
 
 /**
  * erfc(z) to 50 significant digits: below z = 5 from the Maclaurin series of erf (A&S 7.1.5),

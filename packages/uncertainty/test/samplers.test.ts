@@ -15,7 +15,7 @@ import { chiSquareEquiprobable, ksCritical, ksStatistic, moments } from './suppo
 
 // Independent CDFs: mathjs's erf (W. J. Cody's rational approximations) for the normal; closed
 // forms for the others.
-const math = create(all, {});
+const math = create(all as NonNullable<typeof all>, {});
 const normalCdf = (x: number): number => 0.5 * (1 + (math.erf(x / Math.SQRT2) as number));
 
 const N = 1 << 20;
