@@ -33,6 +33,8 @@ export interface LinePrediction {
   readonly value: number;
   /** √(u²(y₁) + (x − x₀)²u²(y₂) + 2(x − x₀)·u(y₁, y₂)). */
   readonly standardUncertainty: number;
+  /** Its degrees of freedom: those of the fit (n − 2, or `Infinity` with known uncertainties). */
+  readonly degreesOfFreedom: number;
 }
 
 /** A straight line fitted by least squares, with the covariance of its parameters (see {@link fitLine}). */
@@ -208,6 +210,7 @@ export function fitLine(options: FitLineOptions): LineFit {
       return {
         value: intercept + slope * d,
         standardUncertainty: Math.sqrt(sigma2 / total + fromMean * fromMean * varSlope),
+        degreesOfFreedom,
       };
     },
     quantities() {

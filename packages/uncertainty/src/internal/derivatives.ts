@@ -6,10 +6,11 @@
  * Every quotient used here is an even function of the step h, q(h) = D + c₂h² + c₄h⁴ + …, so a
  * Neville tableau over steps h₀, h₀/1.4, h₀/1.4², … removes the error term by term; the entry with
  * the smallest estimated error is kept, and the tableau stops when the error starts to grow
- * (rounding takes over). The step rule: for input i the step is h·sᵢ with sᵢ = u(xᵢ), the input's
- * standard uncertainty (the scale over which the linearisation is meant to hold), or, for an
- * input with u(xᵢ) = 0, sᵢ = 2⁻²⁰·|xᵢ| (2⁻²⁰ when xᵢ = 0); h starts at 1. If the model is not
- * finite at a stencil point, the whole extrapolation restarts with h₀/16, up to four times.
+ * (rounding takes over). The step rule: for input i the step is h·sᵢ with
+ * sᵢ = max(u(xᵢ), 2⁻¹⁰·|xᵢ|) — the input's standard uncertainty (the scale over which the
+ * linearisation is meant to hold), but not so small against the value that rounding swamps the
+ * difference — or 2⁻¹⁰ when both are 0; h starts at 1. If the model is not finite at a stencil
+ * point, the whole extrapolation restarts with h₀/16, up to four times.
  */
 
 const SHRINK = 1.4;
@@ -103,9 +104,8 @@ function extrapolate(
 /** The base step sᵢ of each input (see the module comment). */
 export function baseSteps(values: Float64Array, uncertainties: Float64Array): Float64Array {
   return values.map((x, i) => {
-    const u = uncertainties[i] as number;
-    if (u > 0) return u;
-    return x === 0 ? 2 ** -20 : Math.abs(x) * 2 ** -20;
+    const s = Math.max(uncertainties[i] as number, Math.abs(x) * 2 ** -10);
+    return s > 0 ? s : 2 ** -10;
   });
 }
 
