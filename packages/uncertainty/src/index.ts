@@ -16,6 +16,7 @@ export {
 } from './fitLine.js';
 export {
   monteCarlo,
+  type AdaptiveInterval,
   type AdaptiveOptions,
   type AdaptiveReport,
   type AdaptiveSpread,

@@ -1,8 +1,16 @@
-import { BridgeworkError, checkInteger, checkObject, checkRange, formatValue } from '@bridgework/core';
+import {
+  BridgeworkError,
+  checkInteger,
+  checkObject,
+  checkOneOf,
+  checkRange,
+  formatValue,
+} from '@bridgework/core';
 import { choleskySemidefinite, normalizeCorrelations, type Correlation } from './correlations.js';
 import {
   minimumTrials,
   runProcedure,
+  type AdaptiveInterval,
   type AdaptiveReport,
   type BlockReply,
   type BlockRequest,
@@ -16,10 +24,16 @@ import { normalizeInputs, type InputQuantities } from './quantities.js';
 import type { Interval, MeasurementModel } from './types.js';
 import { validateGum, type GumValidation } from './validateGum.js';
 
-export type { AdaptiveReport, AdaptiveSpread } from './internal/driver.js';
+export type { AdaptiveInterval, AdaptiveReport, AdaptiveSpread } from './internal/driver.js';
 
 /** Settings of the adaptive procedure (JCGM 101 7.9). */
 export interface AdaptiveOptions {
+  /**
+   * The coverage interval whose ends must stabilise: `'symmetric'` (the default; the one compared
+   * with the GUM in clause 8), `'shortest'`, or `'both'`. The ends of the shortest interval of a
+   * flat-topped output are poorly determined and may need many more trials.
+   */
+  readonly interval?: AdaptiveInterval;
   /**
    * The most trials the procedure may run before giving up with `not-converged` (integer ≥ the
    * length of two sequences). Default 10⁷ (80 MB of model values).
@@ -113,7 +127,7 @@ export function prepareMonteCarlo(o: Record<string, unknown>): MonteCarloSetup {
     }
   }
   const adaptiveOption = o['adaptive'];
-  let adaptive: { significantDigits: number; maxTrials: number } | undefined;
+  let adaptive: DriverSettings['adaptive'];
   if (adaptiveOption !== undefined && adaptiveOption !== false) {
     if (o['trials'] !== undefined) {
       throw new BridgeworkError(
@@ -130,7 +144,11 @@ export function prepareMonteCarlo(o: Record<string, unknown>): MonteCarloSetup {
       a['maxTrials'] === undefined
         ? 1e7
         : checkInteger('adaptive.maxTrials', a['maxTrials'], { min: 2 * BLOCK_TRIALS, max: 1e9 });
-    adaptive = { significantDigits, maxTrials };
+    const interval =
+      a['interval'] === undefined
+        ? 'symmetric'
+        : checkOneOf('adaptive.interval', a['interval'], ['symmetric', 'shortest', 'both'] as const);
+    adaptive = { significantDigits, maxTrials, interval };
   }
   const least = minimumTrials(coverage);
   const trials =
@@ -221,8 +239,8 @@ export function monteCarloResult(
  * the lowest and highest M − q values are sorted (Floyd–Rivest selection finds them), never the
  * whole sample. `adaptive` runs sequences of max(100/(1 − p), 10⁴) trials (rounded up to whole
  * blocks of 16 384) until twice the standard deviation of the average of each sequence result —
- * estimate, u(y) and the ends of both intervals — is at most the tolerance δ of u(y) to
- * `significantDigits` digits (7.9.2, 7.9.4), then reports the results of all trials. Unless
+ * estimate, u(y) and the ends of the chosen coverage interval — is at most the tolerance δ of
+ * u(y) to `significantDigits` digits (7.9.2, 7.9.4), then reports the results of all trials. Unless
  * `compareWithGum` is false the law of propagation is evaluated too, and compared by JCGM 101
  * clause 8 ({@link validateGum}).
  *

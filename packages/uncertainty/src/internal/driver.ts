@@ -34,10 +34,15 @@ export interface DriverSettings {
   /** Coverage probability p. */
   readonly coverage: number;
   /** The adaptive procedure, or undefined for a fixed number of trials. */
-  readonly adaptive: { readonly significantDigits: number; readonly maxTrials: number } | undefined;
+  readonly adaptive:
+    | { readonly significantDigits: number; readonly maxTrials: number; readonly interval: AdaptiveInterval }
+    | undefined;
   /** Keep a copy of the model values in trial order. */
   readonly returnValues: boolean;
 }
+
+/** The coverage interval whose ends the adaptive procedure must stabilise. */
+export type AdaptiveInterval = 'symmetric' | 'shortest' | 'both';
 
 /** Statistics of one sequence of the adaptive procedure. */
 interface SequenceResult {
@@ -71,9 +76,11 @@ export interface AdaptiveReport {
   readonly trialsPerSequence: number;
   /** ndig. */
   readonly significantDigits: number;
+  /** The interval whose ends had to stabilise. */
+  readonly interval: AdaptiveInterval;
   /** The numerical tolerance δ of u(y) at the end. */
   readonly tolerance: number;
-  /** The standard deviations of the averages of the sequence results; twice each is ≤ δ. */
+  /** The standard deviations of the averages of the sequence results; twice each that is tested is ≤ δ. */
   readonly spread: AdaptiveSpread;
 }
 
@@ -138,7 +145,7 @@ export function* runProcedure(settings: DriverSettings): Generator<BlockRequest,
 
   // JCGM 101 7.9.4: sequences of M = max(J, 10⁴) trials, J the smallest integer ≥ 100/(1 − p),
   // here rounded up to whole seeding blocks so that every trial is computed once.
-  const { significantDigits, maxTrials } = settings.adaptive;
+  const { significantDigits, maxTrials, interval } = settings.adaptive;
   const j = Math.ceil(100 / (1 - settings.coverage) - 1e-9);
   const blocksPerSequence = Math.ceil(Math.max(j, 1e4) / BLOCK_TRIALS);
   const perSequence = blocksPerSequence * BLOCK_TRIALS;
@@ -181,11 +188,15 @@ export function* runProcedure(settings: DriverSettings): Generator<BlockRequest,
       shortestHigh: spreadOfAverage(sequences.map((s) => s.shortestInterval.high)),
     };
     const tolerance = numericalTolerance(Math.sqrt(all.m2 / (all.count - 1)), significantDigits);
-    if (Object.values(spread).every((s) => 2 * s <= tolerance)) {
+    const tested = [spread.value, spread.standardUncertainty];
+    if (interval !== 'shortest') tested.push(spread.low, spread.high);
+    if (interval !== 'symmetric') tested.push(spread.shortestLow, spread.shortestHigh);
+    if (tested.every((s) => 2 * s <= tolerance)) {
       const report: AdaptiveReport = {
         sequences: sequences.length,
         trialsPerSequence: perSequence,
         significantDigits,
+        interval,
         tolerance,
         spread,
       };
