@@ -1,6 +1,6 @@
 import { BridgeworkError, checkFinite, checkPositive, checkObject, formatValue } from '@bridgework/core';
 import type { Correlation } from './correlations.js';
-import type { NormalQuantity } from './quantities.js';
+import type { InputQuantities, NormalQuantity } from './quantities.js';
 
 /** Options of {@link fitLine}. */
 export interface FitLineOptions {
@@ -19,10 +19,18 @@ export interface FitLineOptions {
   readonly yStandardUncertainties?: number | readonly number[];
 }
 
+/** The parameters of a fitted line as named normal quantities. */
+export interface LineParameterQuantities extends InputQuantities {
+  /** y₁, the line's value at x₀, with u(y₁) and the fit's degrees of freedom. */
+  readonly intercept: NormalQuantity;
+  /** y₂, the slope, with u(y₂) and the fit's degrees of freedom. */
+  readonly slope: NormalQuantity;
+}
+
 /** The two parameters of a fitted line as input quantities, ready for {@link propagate}. */
 export interface LineQuantities {
   /** `intercept` (y₁ at x₀) and `slope` (y₂) as normal quantities with their degrees of freedom. */
-  readonly inputs: { readonly intercept: NormalQuantity; readonly slope: NormalQuantity };
+  readonly inputs: LineParameterQuantities;
   /** Their correlation. */
   readonly correlations: readonly Correlation[];
 }

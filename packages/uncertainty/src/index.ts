@@ -11,6 +11,7 @@ export {
   fitLine,
   type FitLineOptions,
   type LineFit,
+  type LineParameterQuantities,
   type LinePrediction,
   type LineQuantities,
 } from './fitLine.js';

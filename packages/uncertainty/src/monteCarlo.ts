@@ -250,7 +250,7 @@ export function monteCarloResult(
  * bits); t variates by Bailey's polar method. The generators use only exactly rounded
  * arithmetic and their own logarithm and exponential, so the same seed gives the same result on
  * every machine and engine (provided the model itself is deterministic), and the same result as
- * {@link @bridgework/uncertainty/node!monteCarloInWorkers} with any number of workers. A run of
+ * `monteCarloInWorkers` (from `@bridgework/uncertainty/node`) with any number of workers. A run of
  * M trials is the prefix of any longer run with the same seed.
  *
  * The model is called once per trial with one reused record whose properties read the current

@@ -1,6 +1,6 @@
 /// <reference types="node" />
 /**
- * Node-only parallel runner for {@link @bridgework/uncertainty!monteCarlo}: the same procedure
+ * Node-only parallel runner for `monteCarlo` of `@bridgework/uncertainty`: the same procedure
  * and kernel on worker threads, with bit-identical results.
  *
  * @module
