@@ -15,7 +15,11 @@ import { resolveChannel, type ResolvedChannel } from './internal/resolve.js';
 import type { ChannelSpec, OutputSpec } from './spec/ChannelSpec.js';
 import { validateChannelSpec } from './validateChannelSpec.js';
 import { createChannelBudget, type BudgetOptions, type ChannelBudget } from './budget/createChannelBudget.js';
-import { createChannelConstants, type ChannelConstants, type ConstantsOptions } from './constants/createChannelConstants.js';
+import {
+  createChannelConstants,
+  type ChannelConstants,
+  type ConstantsOptions,
+} from './constants/createChannelConstants.js';
 
 /** Codes accepted by the converters: integer codes, or codes already averaged to non-integers. */
 export type CodeBuffer = Int32Array | Float64Array;
@@ -161,7 +165,10 @@ const units: Record<OutputSpec['quantity'], string> = {
  * channel.quantityFromCode(563_000); // ≈ 1.0e-3 (m/m)
  * ```
  */
-export function createChannel(spec: ChannelSpec, options: { readonly convertUnit?: (text: string, unit: string) => number } = {}): Channel {
+export function createChannel(
+  spec: ChannelSpec,
+  options: { readonly convertUnit?: (text: string, unit: string) => number } = {},
+): Channel {
   const result = validateChannelSpec(spec, options);
   if (!result.ok) {
     throw new BridgeworkError(
@@ -182,7 +189,8 @@ export function createChannel(spec: ChannelSpec, options: { readonly convertUnit
   }
   const cache = new Map<number, Mapping>();
   const mappingAt = (temperatureCelsius: number | undefined): Mapping => {
-    if (temperatureCelsius === undefined || temperatureCelsius === resolved.nominal.temperatureCelsius) return nominal;
+    if (temperatureCelsius === undefined || temperatureCelsius === resolved.nominal.temperatureCelsius)
+      return nominal;
     const t = checkFinite('temperatureCelsius', temperatureCelsius);
     let m = cache.get(t);
     if (m === undefined) {
@@ -197,26 +205,41 @@ export function createChannel(spec: ChannelSpec, options: { readonly convertUnit
   const last = Math.ceil(nominal.hi) - 1;
   const ends = [nominal.quantityFromCode(first), nominal.quantityFromCode(last)];
   const range = valid.output.range;
-  const span: Interval = range === undefined ? { min: Math.min(...ends), max: Math.max(...ends) } : { min: range[0], max: range[1] };
+  const span: Interval =
+    range === undefined
+      ? { min: Math.min(...ends), max: Math.max(...ends) }
+      : { min: range[0], max: range[1] };
 
   function convert(codes: CodeBuffer, out?: Float64Array, opts: ConvertOptions = {}): ConversionResult {
     if (!(codes instanceof Int32Array || codes instanceof Float64Array)) {
-      throw new BridgeworkError('wrong-type', '`codes` must be an Int32Array or a Float64Array', { param: 'codes' });
+      throw new BridgeworkError('wrong-type', '`codes` must be an Int32Array or a Float64Array', {
+        param: 'codes',
+      });
     }
     const o = checkObject('options', opts);
     const values = out ?? new Float64Array(codes.length);
     if (!(values instanceof Float64Array) || values.length < codes.length) {
-      throw new BridgeworkError('invalid-shape', `\`out\` must be a Float64Array of at least ${codes.length} values`, {
-        param: 'out',
-        limit: codes.length,
-      });
+      throw new BridgeworkError(
+        'invalid-shape',
+        `\`out\` must be a Float64Array of at least ${codes.length} values`,
+        {
+          param: 'out',
+          limit: codes.length,
+        },
+      );
     }
-    const maxLocations = o['maxLocations'] === undefined ? 1024 : checkInteger('maxLocations', o['maxLocations'], { min: 0 });
+    const maxLocations =
+      o['maxLocations'] === undefined ? 1024 : checkInteger('maxLocations', o['maxLocations'], { min: 0 });
     const m = mappingAt(opts.temperatureCelsius);
     const tally = newTally(maxLocations, m.model.adc.codeMin, m.model.adc.codeMax);
-    if (m.kernel !== undefined) convertLinearFractional(codes, values, m.kernel, tally, 0, 1, codes.length, 0, 1);
+    if (m.kernel !== undefined)
+      convertLinearFractional(codes, values, m.kernel, tally, 0, 1, codes.length, 0, 1);
     else convertScalar(codes, values, m.quantityOrNaN, m.lo, m.hi, tally, 0, 1, codes.length, 0, 1);
-    const status: ConversionStatus = statusOf(tally, codes.length, m.kernel !== undefined ? 'kernel' : 'exact');
+    const status: ConversionStatus = statusOf(
+      tally,
+      codes.length,
+      m.kernel !== undefined ? 'kernel' : 'exact',
+    );
     if (opts.onInvalid === 'throw') throwIfRejected(status, name);
     return { values, status };
   }
@@ -250,4 +273,3 @@ export function createChannel(spec: ChannelSpec, options: { readonly convertUnit
   internals.set(channel, { resolved, mappingAt });
   return channel;
 }
-

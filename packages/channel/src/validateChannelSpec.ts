@@ -35,7 +35,10 @@ export type ChannelSpecValidation =
  * // [{ path: 'excitation.volts', message: '`excitation.volts` must be > 0; got 0' }]
  * ```
  */
-export function validateChannelSpec(spec: unknown, options: ValidateChannelSpecOptions = {}): ChannelSpecValidation {
+export function validateChannelSpec(
+  spec: unknown,
+  options: ValidateChannelSpecOptions = {},
+): ChannelSpecValidation {
   return validate(channelSchema, spec, {
     ...(options.convertUnit === undefined ? {} : { convertUnit: options.convertUnit }),
     ...(options.path === undefined ? {} : { path: options.path }),
@@ -52,7 +55,11 @@ export function validateChannelSpec(spec: unknown, options: ValidateChannelSpecO
  * @returns A JSON-serialisable schema object.
  */
 export function channelSpecJsonSchema(): Record<string, unknown> {
-  return { $schema: 'https://json-schema.org/draft/2020-12/schema', title: 'bridgework channel', ...channelSchema.jsonSchema() };
+  return {
+    $schema: 'https://json-schema.org/draft/2020-12/schema',
+    title: 'bridgework channel',
+    ...channelSchema.jsonSchema(),
+  };
 }
 
 /**

@@ -68,7 +68,10 @@ export function createChannelConstants(
   options: ConstantsOptions = {},
 ): ChannelConstants {
   const o = checkObject('options', options);
-  const degree = o['polynomialDegree'] === undefined ? 3 : checkInteger('polynomialDegree', o['polynomialDegree'], { min: 1, max: 5 });
+  const degree =
+    o['polynomialDegree'] === undefined
+      ? 3
+      : checkInteger('polynomialDegree', o['polynomialDegree'], { min: 1, max: 5 });
   const resolution =
     o['outputResolution'] !== undefined
       ? checkPositive('outputResolution', o['outputResolution'])
@@ -77,7 +80,9 @@ export function createChannelConstants(
   // The span's codes, kept strictly inside the valid codes.
   const r0 = model.ratioFromCode(0);
   const slope = model.ratioFromCode(1) - r0;
-  const ends = [span.min, span.max].map((q) => (model.ratioFromQuantity(q) - r0) / slope).sort((a, b) => a - b);
+  const ends = [span.min, span.max]
+    .map((q) => (model.ratioFromQuantity(q) - r0) / slope)
+    .sort((a, b) => a - b);
   const codeMin = Math.max(Math.ceil(ends[0] as number), Math.floor(nominal.lo) + 1);
   const codeMax = Math.min(Math.floor(ends[1] as number), Math.ceil(nominal.hi) - 1);
   if (!(codeMax > codeMin)) {
@@ -197,7 +202,8 @@ function chebyshevPolynomial(
   // Newton divided differences in t, then expansion to powers of t, then of (code − offset).
   const dd = [...values];
   for (let j = 1; j < n; j++) {
-    for (let i = n - 1; i >= j; i--) dd[i] = ((dd[i] as number) - (dd[i - 1] as number)) / ((nodes[i] as number) - (nodes[i - j] as number));
+    for (let i = n - 1; i >= j; i--)
+      dd[i] = ((dd[i] as number) - (dd[i - 1] as number)) / ((nodes[i] as number) - (nodes[i - j] as number));
   }
   let poly = [dd[n - 1] as number];
   for (let i = n - 2; i >= 0; i--) {

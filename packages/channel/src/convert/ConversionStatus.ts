@@ -40,8 +40,10 @@ export interface ConversionResult {
 }
 
 export function newTally(maxLocations: number, railLowCode: number, railHighCode: number): RejectTally {
-  return new RejectTally(new Int32Array(maxLocations), railLowCode, railHighCode);
+  return new RejectTally(maxLocations, railLowCode, railHighCode);
 }
+
+const NONE = new Int32Array(0);
 
 export function statusOf(tally: RejectTally, samples: number, method: 'kernel' | 'exact'): ConversionStatus {
   const rejected = tally.rejected;
@@ -52,7 +54,7 @@ export function statusOf(tally: RejectTally, samples: number, method: 'kernel' |
     railLow: tally.railLow,
     railHigh: tally.railHigh,
     outOfRange: tally.outOfRange,
-    locations: tally.locations.slice(0, tally.located),
+    locations: tally.locations === undefined ? NONE : tally.locations.slice(0, tally.located),
     method,
   };
 }

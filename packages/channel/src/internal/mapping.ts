@@ -59,7 +59,11 @@ export function createMapping(resolved: ResolvedChannel, params: ModelParameters
  * map at 65 codes; a kernel that disagrees by more than KERNEL_TOLERANCE (relative to the largest
  * quantity) is not used, and conversion falls back to the exact scalar map.
  */
-function fitKernel(exact: (code: number) => number, lo: number, hi: number): LinearFractionalKernel | undefined {
+function fitKernel(
+  exact: (code: number) => number,
+  lo: number,
+  hi: number,
+): LinearFractionalKernel | undefined {
   const first = Math.floor(lo) + 1;
   const last = Math.ceil(hi) - 1;
   if (!(last - first >= 4)) return undefined;

@@ -65,7 +65,10 @@ export interface ChannelModel {
   readonly linearFractional: boolean;
 }
 
-const celsiusOf = (r: ResolvedChannel, p: ModelParameters) => ({ zero: r.zeroTemperatureCelsius, now: p.temperatureCelsius });
+const celsiusOf = (r: ResolvedChannel, p: ModelParameters) => ({
+  zero: r.zeroTemperatureCelsius,
+  now: p.temperatureCelsius,
+});
 
 /** Builds the exact model for the resolved channel and the given parameter values. */
 export function createModel(r: ResolvedChannel, p: ModelParameters): ChannelModel {
@@ -79,9 +82,13 @@ export function createModel(r: ResolvedChannel, p: ModelParameters): ChannelMode
   const sign = r.polarity === 'inverted' ? -1 : 1;
   // Ratio relative to the excitation reference: ratiometric converters measure it directly; an
   // absolute reference gives volts, divided by the EMF. The offset is input-referred.
+  // The converter's own constants (chain: ratioFromCode is exactly code/countsPerRatio and
+  // voltsFromCode exactly code·lsbVolts); used directly because averaged codes are fractional.
+  const countsPerRatio = r.adc.ratiometric ? (adc as RatiometricAdc).countsPerRatio : Number.NaN;
+  const lsbVolts = adc.lsbVolts;
   const ratioFromCode = r.adc.ratiometric
-    ? (code: number) => sign * ((adc as RatiometricAdc).ratioFromCode(code) - p.offsetVolts / p.excitationVolts)
-    : (code: number) => sign * ((adc.voltsFromCode(code) - p.offsetVolts) / p.excitationVolts);
+    ? (code: number) => sign * (code / countsPerRatio - p.offsetVolts / p.excitationVolts)
+    : (code: number) => sign * ((code * lsbVolts - p.offsetVolts) / p.excitationVolts);
   const codeFromRatio = (ratio: number) => {
     const c = r.adc.ratiometric
       ? (adc as RatiometricAdc).codeFromRatio(sign * ratio + p.offsetVolts / p.excitationVolts)
@@ -98,7 +105,11 @@ export function createModel(r: ResolvedChannel, p: ModelParameters): ChannelMode
     const span =
       r.wiring === 'six-wire'
         ? 1
-        : leadDesensitization({ wiring: 'four-wire', inputOhms: s.inputOhms, ohmsPerLead: p.ohmsPerLead + sourceOhms / 2 });
+        : leadDesensitization({
+            wiring: 'four-wire',
+            inputOhms: s.inputOhms,
+            ohmsPerLead: p.ohmsPerLead + sourceOhms / 2,
+          });
     const scaleFor = (zeroVoltsPerVolt: number): CertificateScale =>
       createCertificateScale({
         capacity: s.capacity,
@@ -181,12 +192,19 @@ export function createModel(r: ResolvedChannel, p: ModelParameters): ChannelMode
   const transverseScale =
     s.transverseSensitivity === 0
       ? 1
-      : indicatedTransverseStrain({ axialStrain: 1, transverseStrain: -(r.poissonRatio as number), transverseSensitivity: s.transverseSensitivity });
+      : indicatedTransverseStrain({
+          axialStrain: 1,
+          transverseStrain: -(r.poissonRatio as number),
+          transverseSensitivity: s.transverseSensitivity,
+        });
   const zeroRatio = r.zeroCode === undefined ? undefined : ratioFromCode(r.zeroCode);
   const zeroOption = zeroRatio === undefined ? {} : { zeroRatio };
   const member =
     r.output.quantity === 'force'
-      ? createAxialMember({ modulusPascals: r.output.modulusPascals as number, areaSquareMeters: r.output.areaSquareMeters as number })
+      ? createAxialMember({
+          modulusPascals: r.output.modulusPascals as number,
+          areaSquareMeters: r.output.areaSquareMeters as number,
+        })
       : undefined;
 
   const quantityFromStrain = (strain: number): number => {
@@ -222,7 +240,8 @@ export function createModel(r: ResolvedChannel, p: ModelParameters): ChannelMode
     quantityFromRatio(ratio) {
       if (asRatio) return ratio;
       const indicated = bridge.strainFromRatio(ratio, zeroOption);
-      const strain = correctTemperatureEffects({ ...temperature, indicatedStrain: indicated }) / transverseScale;
+      const strain =
+        correctTemperatureEffects({ ...temperature, indicatedStrain: indicated }) / transverseScale;
       return quantityFromStrain(strain);
     },
     ratioFromQuantity(q) {
@@ -239,15 +258,23 @@ export function createModel(r: ResolvedChannel, p: ModelParameters): ChannelMode
 /** Throws the channel's error for a code that cannot be converted. */
 export function rejectCode(code: number, adc: Adc, lo: number, hi: number): never {
   if (code <= adc.codeMin || code >= adc.codeMax) {
-    throw new BridgeworkError('clipped', `\`code\` must lie strictly inside the converter's rails (${adc.codeMin}, ${adc.codeMax}); got ${formatValue(code)}`, {
+    throw new BridgeworkError(
+      'clipped',
+      `\`code\` must lie strictly inside the converter's rails (${adc.codeMin}, ${adc.codeMax}); got ${formatValue(code)}`,
+      {
+        param: 'code',
+        value: code,
+        limit: [adc.codeMin, adc.codeMax],
+      },
+    );
+  }
+  throw new BridgeworkError(
+    'ratio-out-of-range',
+    `\`code\` must be in (${lo}, ${hi}) for a ratio the sensor can produce; got ${formatValue(code)}`,
+    {
       param: 'code',
       value: code,
-      limit: [adc.codeMin, adc.codeMax],
-    });
-  }
-  throw new BridgeworkError('ratio-out-of-range', `\`code\` must be in (${lo}, ${hi}) for a ratio the sensor can produce; got ${formatValue(code)}`, {
-    param: 'code',
-    value: code,
-    limit: [lo, hi],
-  });
+      limit: [lo, hi],
+    },
+  );
 }

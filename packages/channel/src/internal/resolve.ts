@@ -17,7 +17,11 @@ export interface ResolvedStrainGauge {
   readonly gaugeFactorTemperatureCoefficientPerKelvin: number;
   readonly gaugeFactorReferenceCelsius: number;
   readonly thermalOutput:
-    | { readonly coefficientsMicrostrain: readonly number[]; readonly gaugeFactor: number; readonly rangeCelsius: readonly [number, number] }
+    | {
+        readonly coefficientsMicrostrain: readonly number[];
+        readonly gaugeFactor: number;
+        readonly rangeCelsius: readonly [number, number];
+      }
     | undefined;
 }
 
@@ -85,8 +89,13 @@ export interface ResolvedChannel {
 }
 
 /** Default lead wiring for an arrangement (see `BridgeSpec.wiring`). */
-function defaultWiring(kind: string, arrangement: StrainArrangement, remoteSense: boolean | undefined): LeadWiring {
-  if (kind === 'transducer' || arrangement.startsWith('full')) return remoteSense === true ? 'six-wire' : 'four-wire';
+function defaultWiring(
+  kind: string,
+  arrangement: StrainArrangement,
+  remoteSense: boolean | undefined,
+): LeadWiring {
+  if (kind === 'transducer' || arrangement.startsWith('full'))
+    return remoteSense === true ? 'six-wire' : 'four-wire';
   return arrangement === 'half-opposite' ? 'two-wire' : 'three-wire';
 }
 
@@ -133,7 +142,11 @@ export function resolveChannel(spec: ChannelSpec): ResolvedChannel {
       thermalOutput:
         t === undefined
           ? undefined
-          : { coefficientsMicrostrain: t.coefficientsMicrostrain, gaugeFactor: t.gaugeFactor ?? 2, rangeCelsius: t.rangeCelsius },
+          : {
+              coefficientsMicrostrain: t.coefficientsMicrostrain,
+              gaugeFactor: t.gaugeFactor ?? 2,
+              rangeCelsius: t.rangeCelsius,
+            },
     };
     nominalGaugeFactor = sensor.gaugeFactor;
     nominalResistance = sensor.gaugeOhms;
@@ -146,7 +159,8 @@ export function resolveChannel(spec: ChannelSpec): ResolvedChannel {
       zeroBalanceVoltsPerVolt: sensorSpec.zeroBalanceVoltsPerVolt ?? 0,
       inputOhms: sensorSpec.inputOhms ?? 350,
       outputOhms: sensorSpec.outputOhms ?? 350,
-      calibrationGravityMetersPerSecondSquared: sensorSpec.calibrationGravityMetersPerSecondSquared ?? 9.80665,
+      calibrationGravityMetersPerSecondSquared:
+        sensorSpec.calibrationGravityMetersPerSecondSquared ?? 9.80665,
       localGravityMetersPerSecondSquared: sensorSpec.localGravityMetersPerSecondSquared ?? 9.80665,
     };
     nominalResistance = sensor.outputOhms;

@@ -56,7 +56,8 @@ function issue(ctx: Context, path: string, message: string): typeof INVALID {
 }
 
 function row(path: string, node: SchemaNode<unknown>, unit = ''): FieldRow {
-  const presence = node.defaultText !== undefined ? node.defaultText : node.optional ? 'optional' : 'required';
+  const presence =
+    node.defaultText !== undefined ? node.defaultText : node.optional ? 'optional' : 'required';
   return { path, type: node.typeText(), unit, presence, doc: node.doc };
 }
 
@@ -69,7 +70,10 @@ interface Common<T> {
   readonly optional?: boolean;
 }
 
-function base<T>(c: Common<T>, defaultText: string | undefined): Pick<SchemaNode<T>, 'doc' | 'optional' | 'defaultText' | 'fallback'> {
+function base<T>(
+  c: Common<T>,
+  defaultText: string | undefined,
+): Pick<SchemaNode<T>, 'doc' | 'optional' | 'defaultText' | 'fallback'> {
   return {
     doc: c.doc,
     optional: c.optional === true || c.default !== undefined,
@@ -108,7 +112,8 @@ export function numberField(o: NumberOptions): SchemaNode<number> {
     parse(value, path, ctx) {
       let x = value;
       if (typeof x === 'string' && o.unit !== undefined) {
-        if (ctx.convertUnit === undefined) return issue(ctx, path, `must be a number in ${o.unit}; got ${formatValue(x)}`);
+        if (ctx.convertUnit === undefined)
+          return issue(ctx, path, `must be a number in ${o.unit}; got ${formatValue(x)}`);
         try {
           x = ctx.convertUnit(x, o.unit);
         } catch (e) {
@@ -116,17 +121,25 @@ export function numberField(o: NumberOptions): SchemaNode<number> {
         }
       }
       if (typeof x !== 'number') {
-        return issue(ctx, path, `must be ${o.integer === true ? 'an integer' : 'a number'}${o.unit && o.unit !== '1' ? ` in ${o.unit}` : ''}; got ${formatValue(x)}`);
+        return issue(
+          ctx,
+          path,
+          `must be ${o.integer === true ? 'an integer' : 'a number'}${o.unit && o.unit !== '1' ? ` in ${o.unit}` : ''}; got ${formatValue(x)}`,
+        );
       }
       if (!Number.isFinite(x)) return issue(ctx, path, `must be a finite number; got ${formatValue(x)}`);
-      if (o.integer === true && !Number.isInteger(x)) return issue(ctx, path, `must be an integer; got ${formatValue(x)}`);
+      if (o.integer === true && !Number.isInteger(x))
+        return issue(ctx, path, `must be an integer; got ${formatValue(x)}`);
       const low = o.min !== undefined && (o.minExclusive === true ? x <= o.min : x < o.min);
       const high = o.max !== undefined && (o.maxExclusive === true ? x >= o.max : x > o.max);
       if (low || high) return issue(ctx, path, `must be ${describeLimits(o)}; got ${formatValue(x)}`);
       return x;
     },
     jsonSchema() {
-      const n: Record<string, unknown> = { type: o.integer === true ? 'integer' : 'number', description: o.doc };
+      const n: Record<string, unknown> = {
+        type: o.integer === true ? 'integer' : 'number',
+        description: o.doc,
+      };
       if (o.min !== undefined) n[o.minExclusive === true ? 'exclusiveMinimum' : 'minimum'] = o.min;
       if (o.max !== undefined) n[o.maxExclusive === true ? 'exclusiveMaximum' : 'maximum'] = o.max;
       if (o.default !== undefined) n['default'] = o.default;
@@ -134,11 +147,15 @@ export function numberField(o: NumberOptions): SchemaNode<number> {
       return {
         description: o.doc,
         'x-unit': o.unit,
-        anyOf: [n, { type: 'string', description: `a quantity with a unit convertible to ${o.unit}, e.g. "350 ohm"` }],
+        anyOf: [
+          n,
+          { type: 'string', description: `a quantity with a unit convertible to ${o.unit}, e.g. "350 ohm"` },
+        ],
       };
     },
     rows: (path) => [row(path, node, o.unit ?? '')],
-    typeText: () => (o.integer === true ? 'integer' : 'number') + (describeLimits(o) ? ` (${describeLimits(o)})` : ''),
+    typeText: () =>
+      (o.integer === true ? 'integer' : 'number') + (describeLimits(o) ? ` (${describeLimits(o)})` : ''),
   };
   return node;
 }
@@ -149,9 +166,17 @@ export function choiceField<const T extends string>(values: readonly T[], o: Com
     ...base(o, o.default === undefined ? undefined : `'${o.default}'`),
     parse(value, path, ctx) {
       if (typeof value === 'string' && (values as readonly string[]).includes(value)) return value as T;
-      return issue(ctx, path, `must be one of ${values.map((v) => `'${v}'`).join(', ')}; got ${formatValue(value)}`);
+      return issue(
+        ctx,
+        path,
+        `must be one of ${values.map((v) => `'${v}'`).join(', ')}; got ${formatValue(value)}`,
+      );
     },
-    jsonSchema: () => ({ enum: [...values], description: o.doc, ...(o.default === undefined ? {} : { default: o.default }) }),
+    jsonSchema: () => ({
+      enum: [...values],
+      description: o.doc,
+      ...(o.default === undefined ? {} : { default: o.default }),
+    }),
     rows: (path) => [row(path, node)],
     typeText: () => values.map((v) => `'${v}'`).join(' \\| '),
   };
@@ -166,7 +191,11 @@ export function booleanField(o: Common<boolean>): SchemaNode<boolean> {
       if (typeof value === 'boolean') return value;
       return issue(ctx, path, `must be true or false; got ${formatValue(value)}`);
     },
-    jsonSchema: () => ({ type: 'boolean', description: o.doc, ...(o.default === undefined ? {} : { default: o.default }) }),
+    jsonSchema: () => ({
+      type: 'boolean',
+      description: o.doc,
+      ...(o.default === undefined ? {} : { default: o.default }),
+    }),
     rows: (path) => [row(path, node)],
     typeText: () => 'boolean',
   };
@@ -184,7 +213,11 @@ export function textField(o: Common<string> & { readonly pattern?: RegExp }): Sc
       }
       return value;
     },
-    jsonSchema: () => ({ type: 'string', description: o.doc, ...(o.pattern ? { pattern: o.pattern.source } : {}) }),
+    jsonSchema: () => ({
+      type: 'string',
+      description: o.doc,
+      ...(o.pattern ? { pattern: o.pattern.source } : {}),
+    }),
     rows: (path) => [row(path, node)],
     typeText: () => 'text',
   };
@@ -212,9 +245,16 @@ export function numberListField(
       });
       return ok ? out : INVALID;
     },
-    jsonSchema: () => ({ type: 'array', description: o.doc, items: item.jsonSchema(), minItems: o.minLength, maxItems: o.maxLength }),
+    jsonSchema: () => ({
+      type: 'array',
+      description: o.doc,
+      items: item.jsonSchema(),
+      minItems: o.minLength,
+      maxItems: o.maxLength,
+    }),
     rows: (path) => [row(path, node, item.rows('x')[0]?.unit ?? '')],
-    typeText: () => `list of ${o.minLength === o.maxLength ? o.minLength : `${o.minLength}–${o.maxLength}`} numbers`,
+    typeText: () =>
+      `list of ${o.minLength === o.maxLength ? o.minLength : `${o.minLength}–${o.maxLength}`} numbers`,
   };
   return node;
 }
@@ -223,7 +263,12 @@ export function numberListField(
 export type Fields = Readonly<Record<string, SchemaNode<unknown>>>;
 
 /** A record with known fields; unknown fields are problems (typo protection). */
-export function objectField<T>(fields: Fields, o: Common<T> & { readonly check?: (value: T, path: string, report: (p: string, m: string) => void) => void }): SchemaNode<T> {
+export function objectField<T>(
+  fields: Fields,
+  o: Common<T> & {
+    readonly check?: (value: T, path: string, report: (p: string, m: string) => void) => void;
+  },
+): SchemaNode<T> {
   const node: SchemaNode<T> = {
     ...base(o, undefined),
     fallback: () => {
@@ -295,7 +340,11 @@ export function objectField<T>(fields: Fields, o: Common<T> & { readonly check?:
 }
 
 /** A union of object variants told apart by a tag field (`kind`). */
-export function taggedField<T>(tag: string, variants: Readonly<Record<string, SchemaNode<unknown>>>, o: Common<T>): SchemaNode<T> {
+export function taggedField<T>(
+  tag: string,
+  variants: Readonly<Record<string, SchemaNode<unknown>>>,
+  o: Common<T>,
+): SchemaNode<T> {
   const names = Object.keys(variants);
   const node: SchemaNode<T> = {
     ...base(o, undefined),
@@ -306,7 +355,11 @@ export function taggedField<T>(tag: string, variants: Readonly<Record<string, Sc
       const kind = (value as Record<string, unknown>)[tag];
       const variant = typeof kind === 'string' ? variants[kind] : undefined;
       if (variant === undefined) {
-        return issue(ctx, join(path, tag), `must be one of ${names.map((n) => `'${n}'`).join(', ')}; got ${formatValue(kind)}`);
+        return issue(
+          ctx,
+          join(path, tag),
+          `must be one of ${names.map((n) => `'${n}'`).join(', ')}; got ${formatValue(kind)}`,
+        );
       }
       const { [tag]: _tag, ...rest } = value as Record<string, unknown>;
       const parsed = variant.parse(rest, path, ctx);
@@ -324,8 +377,16 @@ export function taggedField<T>(tag: string, variants: Readonly<Record<string, Sc
       }),
     }),
     rows: (path) => [
-      { path: join(path, tag), type: names.map((n) => `'${n}'`).join(' \\| '), unit: '', presence: 'required', doc: o.doc },
-      ...names.flatMap((n) => variants[n]!.rows(path).map((r) => ({ ...r, path: r.path.replace(path, `${path}<${n}>`) }))),
+      {
+        path: join(path, tag),
+        type: names.map((n) => `'${n}'`).join(' \\| '),
+        unit: '',
+        presence: 'required',
+        doc: o.doc,
+      },
+      ...names.flatMap((n) =>
+        variants[n]!.rows(path).map((r) => ({ ...r, path: r.path.replace(path, `${path}<${n}>`) })),
+      ),
     ],
     typeText: () => 'object',
   };
@@ -341,7 +402,9 @@ export function validate<T>(
   schema: SchemaNode<T>,
   value: unknown,
   options: { readonly convertUnit?: UnitConverter; readonly path?: string } = {},
-): { readonly ok: true; readonly value: T; readonly issues: readonly SpecIssue[] } | { readonly ok: false; readonly value: undefined; readonly issues: readonly SpecIssue[] } {
+):
+  | { readonly ok: true; readonly value: T; readonly issues: readonly SpecIssue[] }
+  | { readonly ok: false; readonly value: undefined; readonly issues: readonly SpecIssue[] } {
   const ctx: Context = { issues: [], convertUnit: options.convertUnit };
   const parsed = schema.parse(value, options.path ?? '', ctx);
   if (parsed === INVALID || ctx.issues.length > 0) return { ok: false, value: undefined, issues: ctx.issues };
