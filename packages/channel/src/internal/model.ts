@@ -159,7 +159,11 @@ export function createModel(r: ResolvedChannel, p: ModelParameters): ChannelMode
       quantityFromRatio: (ratio) =>
         asTemperature ? rtd.temperatureAt(s.r0Ohms * (1 + bridge.strainFromRatio(ratio))) : ratio,
       ratioFromQuantity: (q) => (asTemperature ? bridge.ratioFromStrain(rtd.ohmsAt(q) / s.r0Ohms - 1) : q),
-      ratioRange: bridge.ratioRange,
+      // The sensor's range is the curve's (−200…850 °C for IEC 60751), inside the bridge's.
+      ratioRange: {
+        min: bridge.ratioFromStrain(rtd.rangeOhms[0] / s.r0Ohms - 1),
+        max: bridge.ratioFromStrain(rtd.rangeOhms[1] / s.r0Ohms - 1),
+      },
       linearFractional: !asTemperature,
     };
   }
