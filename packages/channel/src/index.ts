@@ -4,6 +4,7 @@ export {
   type ChannelBudget,
   type ChannelBudgetLine,
   type ChannelNoiseTerm,
+  type MonteCarloBudgetOptions,
 } from './budget/createChannelBudget.js';
 export { type ChannelConstants, type ConstantsOptions } from './constants/createChannelConstants.js';
 export {
@@ -42,5 +43,7 @@ export {
   channelSpecJsonSchema,
   validateChannelSpec,
   type ChannelSpecValidation,
+  type InvalidSpec,
+  type ValidSpec,
   type ValidateChannelSpecOptions,
 } from './validateChannelSpec.js';

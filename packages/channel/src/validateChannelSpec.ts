@@ -12,9 +12,27 @@ export interface ValidateChannelSpecOptions {
 }
 
 /** The outcome of {@link validateChannelSpec}: the spec with defaults applied, or every problem. */
-export type ChannelSpecValidation =
-  | { readonly ok: true; readonly value: ChannelSpec; readonly issues: readonly SpecIssue[] }
-  | { readonly ok: false; readonly value: undefined; readonly issues: readonly SpecIssue[] };
+export type ChannelSpecValidation = ValidSpec | InvalidSpec;
+
+/** A spec that passed validation. */
+export interface ValidSpec {
+  /** Always true. */
+  readonly ok: true;
+  /** The spec with every default applied. */
+  readonly value: ChannelSpec;
+  /** Always empty. */
+  readonly issues: readonly SpecIssue[];
+}
+
+/** A spec with problems. */
+export interface InvalidSpec {
+  /** Always false. */
+  readonly ok: false;
+  /** Always undefined. */
+  readonly value: undefined;
+  /** Every problem, with its field path. */
+  readonly issues: readonly SpecIssue[];
+}
 
 /**
  * Validates a channel spec: every problem with its field path, all at once.

@@ -36,7 +36,10 @@ const RAIL_LOW = -(2 ** 23);
 describe('convert: rails and impossible ratios become NaN, counted and located', () => {
   // Gain 1 lets the converter reach ratios the bridge cannot produce: a half-bending bridge is
   // linear up to ±1/2 (kernel path); an RTD's curve ends at −200 and 850 °C (exact path).
-  const halfBending: ChannelSpec = { ...quarter, bridge: { arrangement: 'half-bending', wiring: 'three-wire', ohmsPerLead: 1.2 } };
+  const halfBending: ChannelSpec = {
+    ...quarter,
+    bridge: { arrangement: 'half-bending', wiring: 'three-wire', ohmsPerLead: 1.2 },
+  };
   it.each([
     ['kernel', halfBending],
     ['exact', rtd],
@@ -47,9 +50,18 @@ describe('convert: rails and impossible ratios become NaN, counted and located',
     const codes = new Int32Array([0, RAIL_HIGH, 1000, RAIL_LOW, beyond, -2000, RAIL_HIGH]);
     const { values, status } = ch.convert(codes);
     expect(Array.from(values, (v) => Number.isNaN(v))).toEqual([false, true, false, true, true, false, true]);
-    expect(status).toMatchObject({ samples: 7, converted: 3, rejected: 4, railLow: 1, railHigh: 2, outOfRange: 1, method });
+    expect(status).toMatchObject({
+      samples: 7,
+      converted: 3,
+      rejected: 4,
+      railLow: 1,
+      railHigh: 2,
+      outOfRange: 1,
+      method,
+    });
     expect(Array.from(status.locations)).toEqual([1, 3, 4, 6]);
-    for (const i of [0, 2, 5]) expect(values[i]).toBeNear(ch.quantityFromCode(codes[i]!), { rel: 1e-12, abs: 1e-12 });
+    for (const i of [0, 2, 5])
+      expect(values[i]).toBeNear(ch.quantityFromCode(codes[i]!), { rel: 1e-12, abs: 1e-12 });
   });
 
   it('records at most maxLocations indices but counts every rejection', () => {
@@ -63,7 +75,9 @@ describe('convert: rails and impossible ratios become NaN, counted and located',
   it("throws clipped under the 'throw' policy, with the first index", () => {
     const ch = createChannel(quarter);
     const codes = new Int32Array([1, 2, RAIL_LOW, 3]);
-    expect(() => ch.convert(codes, undefined, { onInvalid: 'throw' })).toThrowBridgeworkError('clipped', { param: 'codes' });
+    expect(() => ch.convert(codes, undefined, { onInvalid: 'throw' })).toThrowBridgeworkError('clipped', {
+      param: 'codes',
+    });
     expect(ch.convert(new Int32Array([1, 2]), undefined, { onInvalid: 'throw' }).status.rejected).toBe(0);
   });
 
@@ -79,10 +93,18 @@ describe('convert: rails and impossible ratios become NaN, counted and located',
 
   it('rejects bad buffers and options', () => {
     const ch = createChannel(quarter);
-    expect(() => ch.convert([1, 2] as unknown as Int32Array)).toThrowBridgeworkError('wrong-type', { param: 'codes' });
-    expect(() => ch.convert(new Int32Array(4), new Float64Array(3))).toThrowBridgeworkError('invalid-shape', { param: 'out' });
-    expect(() => ch.convert(new Int32Array(4), undefined, { maxLocations: -1 })).toThrowBridgeworkError('out-of-range');
-    expect(() => ch.convert(new Int32Array(4), undefined, { temperatureCelsius: Number.NaN })).toThrowBridgeworkError('not-finite');
+    expect(() => ch.convert([1, 2] as unknown as Int32Array)).toThrowBridgeworkError('wrong-type', {
+      param: 'codes',
+    });
+    expect(() => ch.convert(new Int32Array(4), new Float64Array(3))).toThrowBridgeworkError('invalid-shape', {
+      param: 'out',
+    });
+    expect(() => ch.convert(new Int32Array(4), undefined, { maxLocations: -1 })).toThrowBridgeworkError(
+      'out-of-range',
+    );
+    expect(() =>
+      ch.convert(new Int32Array(4), undefined, { temperatureCelsius: Number.NaN }),
+    ).toThrowBridgeworkError('not-finite');
   });
 });
 
@@ -100,11 +122,18 @@ describe('convert: per-block temperature', () => {
     };
     const ch = createChannel(spec);
     fc.assert(
-      fc.property(fc.integer({ min: -30, max: 90 }), fc.integer({ min: -3_000_000, max: 3_000_000 }), (t, code) => {
-        const there = createChannel({ ...spec, environment: { temperatureCelsius: t, zeroTemperatureCelsius: 20 } });
-        const block = ch.convert(new Int32Array([code]), undefined, { temperatureCelsius: t }).values[0]!;
-        expect(block).toBeNear(there.quantityFromCode(code), { rel: 1e-12, abs: 1e-9 });
-      }),
+      fc.property(
+        fc.integer({ min: -30, max: 90 }),
+        fc.integer({ min: -3_000_000, max: 3_000_000 }),
+        (t, code) => {
+          const there = createChannel({
+            ...spec,
+            environment: { temperatureCelsius: t, zeroTemperatureCelsius: 20 },
+          });
+          const block = ch.convert(new Int32Array([code]), undefined, { temperatureCelsius: t }).values[0]!;
+          expect(block).toBeNear(there.quantityFromCode(code), { rel: 1e-12, abs: 1e-9 });
+        },
+      ),
       { numRuns: 100 },
     );
   });
@@ -114,17 +143,28 @@ describe('interleaved buffers and streams equal the plain conversion', () => {
   const specs: ChannelSpec[] = [
     quarter,
     rtd,
-    { ...quarter, name: 'hanger', bridge: { arrangement: 'full-poisson', wiring: 'four-wire', ohmsPerLead: 2, poissonRatio: 0.3 } },
+    {
+      ...quarter,
+      name: 'hanger',
+      bridge: { arrangement: 'full-poisson', wiring: 'four-wire', ohmsPerLead: 2, poissonRatio: 0.3 },
+    },
   ];
   const channels = specs.map((s) => createChannel(s));
 
   it('interleaved conversion of N channels equals converting each lane alone, bit for bit', () => {
     fc.assert(
       fc.property(
-        fc.array(fc.tuple(fc.integer({ min: RAIL_LOW, max: RAIL_HIGH }), fc.integer({ min: -400_000, max: 400_000 }), fc.integer({ min: RAIL_LOW, max: RAIL_HIGH })), {
-          minLength: 1,
-          maxLength: 700,
-        }),
+        fc.array(
+          fc.tuple(
+            fc.integer({ min: RAIL_LOW, max: RAIL_HIGH }),
+            fc.integer({ min: -400_000, max: 400_000 }),
+            fc.integer({ min: RAIL_LOW, max: RAIL_HIGH }),
+          ),
+          {
+            minLength: 1,
+            maxLength: 700,
+          },
+        ),
         (frames) => {
           const buffer = Int32Array.from(frames.flat());
           const { values, statuses } = createInterleavedConverter(channels).convert(buffer);
@@ -134,7 +174,9 @@ describe('interleaved buffers and streams equal the plain conversion', () => {
             const got = Float64Array.from(frames.map((_, k) => values[k * 3 + j]!));
             expect(Array.from(got)).toEqual(Array.from(alone.values));
             expect(statuses[j]!.rejected).toBe(alone.status.rejected);
-            expect(Array.from(statuses[j]!.locations)).toEqual(Array.from(alone.status.locations, (k) => k * 3 + j));
+            expect(Array.from(statuses[j]!.locations)).toEqual(
+              Array.from(alone.status.locations, (k) => k * 3 + j),
+            );
           });
         },
       ),
@@ -158,9 +200,16 @@ describe('interleaved buffers and streams equal the plain conversion', () => {
   });
 
   it('rejects partial frames and empty channel lists', () => {
-    expect(() => createInterleavedConverter(channels).convert(new Int32Array(4))).toThrowBridgeworkError('invalid-shape', { param: 'codes' });
-    expect(() => createInterleavedConverter([])).toThrowBridgeworkError('invalid-shape', { param: 'channels' });
-    expect(() => createInterleavedConverter([{} as never])).toThrowBridgeworkError('wrong-type', { param: 'channel' });
+    expect(() => createInterleavedConverter(channels).convert(new Int32Array(4))).toThrowBridgeworkError(
+      'invalid-shape',
+      { param: 'codes' },
+    );
+    expect(() => createInterleavedConverter([])).toThrowBridgeworkError('invalid-shape', {
+      param: 'channels',
+    });
+    expect(() => createInterleavedConverter([{} as never])).toThrowBridgeworkError('wrong-type', {
+      param: 'channel',
+    });
   });
 
   it('the TransformStream adapters convert chunk by chunk exactly like convert', async () => {
@@ -175,7 +224,9 @@ describe('interleaved buffers and streams equal the plain conversion', () => {
       }).pipeThrough(ch.transformStream()),
     );
     expect(results).toHaveLength(3);
-    results.forEach((r, i) => expect(Array.from(r.values)).toEqual(Array.from(ch.convert(chunks[i]!).values)));
+    results.forEach((r, i) =>
+      expect(Array.from(r.values)).toEqual(Array.from(ch.convert(chunks[i]!).values)),
+    );
     expect(results[1]!.status.railHigh).toBe(1);
 
     const inter = createInterleavedConverter(channels);

@@ -47,7 +47,12 @@ describe('createChannel: the minimal spec', () => {
     // Ratiometric coding: ratio = code/(gain·2^(bits−1)) (chain); strain from the bridge (bridge);
     // the gauge-factor/temperature correction (compensation), here at the zeroing temperature.
     const adc = createAdc({ bits: 24, referenceVolts: 5, gain: 128, ratiometric: true }) as RatiometricAdc;
-    const bridge = createStrainBridge({ arrangement: 'quarter', gaugeFactor: 2.1, gaugeOhms: 350, leads: { ohmsPerLead: 1.2, wiring: 'three-wire' } });
+    const bridge = createStrainBridge({
+      arrangement: 'quarter',
+      gaugeFactor: 2.1,
+      gaugeOhms: 350,
+      leads: { ohmsPerLead: 1.2, wiring: 'three-wire' },
+    });
     const ch = createChannel(minimal);
     fc.assert(
       fc.property(code24, (code) => {
@@ -76,7 +81,11 @@ describe('createChannel: the minimal spec', () => {
       fc.property(code24, (code) => {
         const r = ratioFromCodeRef(code, 128, 24);
         const r1 = arm1Ref(r, rg.plus(rl), rg, rg, new D(0));
-        const strain = r1.minus(rl).minus(rg).div(rg.times(X(2.1))).toNumber();
+        const strain = r1
+          .minus(rl)
+          .minus(rg)
+          .div(rg.times(X(2.1)))
+          .toNumber();
         const out = ch.convert(new Int32Array([code])).values[0] as number;
         // Absolute floor 1e-18 m/m: near zero strain the double ratio code/2^30 is exact, the
         // map's rounding is a few ulps of the span.
@@ -108,7 +117,11 @@ describe('createChannel: exact maps for every sensor kind (40-digit references)'
         const r = X(code).times(lsb).div(X(2.5)); // Vout/EMF
         const rg = new D(120);
         const r1 = arm1Ref(r, rg, rg, rg, X(4.7));
-        const ue = r1.minus(rl.times(2)).minus(rg).div(rg.times(X(2.05))).times(1e6);
+        const ue = r1
+          .minus(rl.times(2))
+          .minus(rg)
+          .div(rg.times(X(2.05)))
+          .times(1e6);
         if (!r1.minus(rl.times(2)).greaterThan(0)) return; // no positive gauge: rejected (tested elsewhere)
         expect(ch.quantityFromCode(code)).toBeNear(ue.toNumber(), { rel: 1e-12, abs: 1e-12 });
       }),
@@ -151,7 +164,14 @@ describe('createChannel: exact maps for every sensor kind (40-digit references)'
   it('load cell on a four-wire cable: certificate scaling with the lead span factor', () => {
     const spec: ChannelSpec = {
       name: 'hopper cell 2',
-      sensor: { kind: 'transducer', capacity: 5000, ratedOutputVoltsPerVolt: 2e-3, zeroBalanceVoltsPerVolt: 1.5e-5, inputOhms: 400, outputOhms: 350 },
+      sensor: {
+        kind: 'transducer',
+        capacity: 5000,
+        ratedOutputVoltsPerVolt: 2e-3,
+        zeroBalanceVoltsPerVolt: 1.5e-5,
+        inputOhms: 400,
+        outputOhms: 350,
+      },
       bridge: { wiring: 'four-wire', ohmsPerLead: 2.2 },
       excitation: { volts: 10 },
       amplifier: { gain: 128 },
@@ -164,7 +184,9 @@ describe('createChannel: exact maps for every sensor kind (40-digit references)'
         // load = capacity·(r/span − zero)/RO with span = Rin/(Rin + 2RL) (common practice).
         const span = X(400).div(X(400).plus(X(2.2).times(2)));
         const r = ratioFromCodeRef(code, 128, 24);
-        const load = X(5000).times(r.div(span).minus(X(1.5e-5))).div(X(2e-3));
+        const load = X(5000)
+          .times(r.div(span).minus(X(1.5e-5)))
+          .div(X(2e-3));
         expect(ch.quantityFromCode(code)).toBeNear(load.toNumber(), { rel: 1e-13, abs: 1e-10 });
       }),
       { numRuns: 500 },
@@ -173,7 +195,12 @@ describe('createChannel: exact maps for every sensor kind (40-digit references)'
 
   it('a strain gauge with a zero reading and a gauge-factor temperature coefficient', () => {
     const spec: ChannelSpec = {
-      sensor: { kind: 'strain-gauge', gaugeFactor: 2.1, gaugeFactorTemperatureCoefficientPerKelvin: 9e-5, gaugeFactorReferenceCelsius: 24 },
+      sensor: {
+        kind: 'strain-gauge',
+        gaugeFactor: 2.1,
+        gaugeFactorTemperatureCoefficientPerKelvin: 9e-5,
+        gaugeFactorReferenceCelsius: 24,
+      },
       bridge: { arrangement: 'half-bending', wiring: 'three-wire', ohmsPerLead: 0.5 },
       excitation: { volts: 5 },
       amplifier: { gain: 128 },
@@ -184,7 +211,11 @@ describe('createChannel: exact maps for every sensor kind (40-digit references)'
     };
     const ch = createChannel(spec);
     // By hand with the component packages: bridge two-reading method, then the temperature correction.
-    const bridge = createStrainBridge({ arrangement: 'half-bending', gaugeFactor: 2.1, leads: { ohmsPerLead: 0.5, wiring: 'three-wire' } });
+    const bridge = createStrainBridge({
+      arrangement: 'half-bending',
+      gaugeFactor: 2.1,
+      leads: { ohmsPerLead: 0.5, wiring: 'three-wire' },
+    });
     const cpr = 128 * 2 ** 23;
     fc.assert(
       fc.property(fc.integer({ min: -4_000_000, max: 4_000_000 }), (code) => {
@@ -256,21 +287,24 @@ describe('createChannel: round trips for every sensor kind and arrangement', () 
     ],
   ];
 
-  it.each(specs)('%s: codeFromQuantity(quantityFromCode(code)) is the code, over the full range', (_name, spec) => {
-    const ch = createChannel(spec);
-    const lo = Math.floor(ch.validCodes.min) + 1;
-    const hi = Math.ceil(ch.validCodes.max) - 1;
-    fc.assert(
-      fc.property(fc.integer({ min: lo, max: hi }), (code) => {
-        const q = ch.quantityFromCode(code);
-        expect(Number.isFinite(q)).toBe(true);
-        expect(ch.codeFromQuantity(q)).toBe(code);
-      }),
-      { numRuns: 300 },
-    );
-    // Both ends of the valid range too.
-    for (const code of [lo, hi]) expect(ch.codeFromQuantity(ch.quantityFromCode(code))).toBe(code);
-  });
+  it.each(specs)(
+    '%s: codeFromQuantity(quantityFromCode(code)) is the code, over the full range',
+    (_name, spec) => {
+      const ch = createChannel(spec);
+      const lo = Math.floor(ch.validCodes.min) + 1;
+      const hi = Math.ceil(ch.validCodes.max) - 1;
+      fc.assert(
+        fc.property(fc.integer({ min: lo, max: hi }), (code) => {
+          const q = ch.quantityFromCode(code);
+          expect(Number.isFinite(q)).toBe(true);
+          expect(ch.codeFromQuantity(q)).toBe(code);
+        }),
+        { numRuns: 300 },
+      );
+      // Both ends of the valid range too.
+      for (const code of [lo, hi]) expect(ch.codeFromQuantity(ch.quantityFromCode(code))).toBe(code);
+    },
+  );
 
   it.each(specs)('%s: the batch converter equals the scalar exact map', (_name, spec) => {
     const ch = createChannel(spec);
@@ -313,7 +347,9 @@ describe('createChannel: invalid specs list every problem by field path', () => 
         'sensor.gaugeOhm',
       ].sort(),
     );
-    expect(e.issues.find((i) => i.path === 'excitation.volts')?.message).toBe('`excitation.volts` must be > 0; got 0');
+    expect(e.issues.find((i) => i.path === 'excitation.volts')?.message).toBe(
+      '`excitation.volts` must be > 0; got 0',
+    );
     expect(e.message).toContain('7 problems');
   });
 
@@ -321,7 +357,12 @@ describe('createChannel: invalid specs list every problem by field path', () => 
     const e = caught(() =>
       createChannel({
         ...minimal,
-        bridge: { arrangement: 'full-poisson', wiring: 'three-wire', ohmsPerLead: 1, cable: { awg: 24, diameterMeters: 5e-4, lengthMeters: 10 } },
+        bridge: {
+          arrangement: 'full-poisson',
+          wiring: 'three-wire',
+          ohmsPerLead: 1,
+          cable: { awg: 24, diameterMeters: 5e-4, lengthMeters: 10 },
+        },
         excitation: { volts: 5, remoteSense: true },
         zero: { code: 2 ** 23 },
         output: { quantity: 'force' },
@@ -342,10 +383,14 @@ describe('createChannel: invalid specs list every problem by field path', () => 
   });
 
   it('rejects a quantity that does not suit the sensor, and a missing required block', () => {
-    expect(caught(() => createChannel({ ...minimal, output: { quantity: 'mass' } })).issues[0]?.path).toBe('output.quantity');
+    expect(caught(() => createChannel({ ...minimal, output: { quantity: 'mass' } })).issues[0]?.path).toBe(
+      'output.quantity',
+    );
     const { adc: _adc, ...noAdc } = minimal;
     expect(caught(() => createChannel(noAdc as ChannelSpec)).issues[0]?.path).toBe('adc');
-    expect(caught(() => createChannel(null as unknown as ChannelSpec)).issues[0]?.message).toBe('`spec` must be an object; got null');
+    expect(caught(() => createChannel(null as unknown as ChannelSpec)).issues[0]?.message).toBe(
+      '`spec` must be an object; got null',
+    );
   });
 });
 
@@ -358,7 +403,9 @@ describe('createChannel: codes that cannot be converted', () => {
     // A gain of 1: the converter reaches ratios the quarter bridge cannot produce (|r| → 1/2).
     const wide = createChannel({ ...minimal, amplifier: { gain: 1 } });
     expect(wide.validCodes.max).toBeLessThan(2 ** 23 - 1);
-    expect(() => wide.quantityFromCode(2 ** 23 - 10)).toThrowBridgeworkError('ratio-out-of-range', { param: 'code' });
+    expect(() => wide.quantityFromCode(2 ** 23 - 10)).toThrowBridgeworkError('ratio-out-of-range', {
+      param: 'code',
+    });
   });
 
   it('codeFromQuantity clips to the rails, and rejects quantities the sensor cannot reach', () => {

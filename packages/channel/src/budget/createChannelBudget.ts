@@ -29,9 +29,17 @@ export interface BudgetOptions {
   /** The quantity at which the budget is evaluated, in the output unit. Default: the end of the span of larger magnitude. */
   readonly at?: number;
   /** Also run a Monte Carlo evaluation (JCGM 101): `true` for 10⁵ trials, or its options. Default false. */
-  readonly monteCarlo?: boolean | { readonly trials?: number; readonly seed?: number };
+  readonly monteCarlo?: boolean | MonteCarloBudgetOptions;
   /** Peak-to-peak per rms for noise-free figures. Default 6.6 (common practice). */
   readonly peakToPeakFactor?: number;
+}
+
+/** Monte Carlo settings of a budget. */
+export interface MonteCarloBudgetOptions {
+  /** Number of trials (integer). Default 10⁵. */
+  readonly trials?: number;
+  /** Seed of the random streams. Default 1. */
+  readonly seed?: number;
 }
 
 /** One line of the budget. */
@@ -77,16 +85,25 @@ export interface ChannelBudget {
   /** The converter code at that point (fractional: the exact inverse). */
   readonly code: number;
   /** The span of interest. */
-  readonly span: { readonly min: number; readonly max: number };
+  readonly span: {
+    /** Lower end, output unit. */
+    readonly min: number;
+    /** Upper end, output unit. */
+    readonly max: number;
+  };
   /** Output per code at the budget point (exact map), output unit per count. */
   readonly quantityPerCode: number;
   /** Output per volt at the amplifier input at the budget point, output unit per V. */
   readonly quantityPerVolt: number;
   /** Noise by source, referred to the output. */
   readonly noise: {
+    /** Equivalent noise bandwidth of the converter's filter, Hz. */
     readonly bandwidthHertz: number;
+    /** Each source. */
     readonly terms: readonly ChannelNoiseTerm[];
+    /** Root-sum-square of the sources, output unit rms. */
     readonly totalRms: number;
+    /** Peak-to-peak (peakToPeakFactor × rms), output unit. */
     readonly totalPeakToPeak: number;
   };
   /** Resolution figures. */
@@ -211,6 +228,13 @@ export function createChannelBudget(
   if (r.sensor.kind !== 'transducer')
     rect('completion resistors', 'completionOhms', n.completionOhms, t.completionOhms * n.completionOhms);
   const leadDrift = leadDriftOhms(r);
+  if (t.ohmsPerLead + leadDrift > n.ohmsPerLead) {
+    throw new BridgeworkError(
+      'out-of-range',
+      `\`tolerances.ohmsPerLead\` must be <= the lead resistance ${n.ohmsPerLead} Ω (less the cable's drift ${leadDrift} Ω); got ${t.ohmsPerLead}`,
+      { param: 'tolerances.ohmsPerLead', value: t.ohmsPerLead, limit: n.ohmsPerLead - leadDrift },
+    );
+  }
   rect('lead resistance', 'ohmsPerLead', n.ohmsPerLead, t.ohmsPerLead + leadDrift);
   if (!r.adc.ratiometric) {
     rect('excitation', 'excitationVolts', n.excitationVolts, t.excitationVolts * n.excitationVolts);

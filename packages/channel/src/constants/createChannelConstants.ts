@@ -44,9 +44,19 @@ export interface ChannelConstants {
   /** The float64 polynomial map (same polynomial, double precision). */
   readonly float64: FloatMap;
   /** The line the fixed-point map implements: quantity = (code − offset)·scale. */
-  readonly line: { readonly scale: number; readonly offset: number };
+  readonly line: {
+    /** Quantity per code. */
+    readonly scale: number;
+    /** The code where the line gives zero. */
+    readonly offset: number;
+  };
   /** The polynomial the float maps implement, in powers of (code − offset). */
-  readonly polynomial: { readonly coefficients: readonly number[]; readonly offset: number };
+  readonly polynomial: {
+    /** Coefficients in ascending powers of (code − offset), output unit per code^k. */
+    readonly coefficients: readonly number[];
+    /** The code subtracted first. */
+    readonly offset: number;
+  };
   /** Ready for `emitCHeader` / `emitJson` of `@bridgework/firmware`. */
   readonly firmwareChannel: FirmwareChannel;
 }
