@@ -3,12 +3,27 @@ import { parseUnit, type ParsedUnit } from '../internal/mathUnits.js';
 
 /**
  * The SI units (with °C as the trade's temperature unit) that quantities in channel files are
- * converted to: `'ohm'`, `'V'`, `'A'`, `'W'`, `'m'`, `'m^2'`, `'Pa'`, `'N'`, `'kg'`, `'Hz'`,
+ * converted to: `'ohm'`, `'V'`, `'A'`, `'W'`, `'m'`, `'m^2'`, `'m/s^2'`, `'Pa'`, `'N'`, `'kg'`, `'Hz'`,
  * `'s'`, `'degC'`, `'K'`, `'V/V'` (a dimensionless ratio such as a bridge output) and `'1'` (a
  * plain dimensionless number).
  */
 export type SiUnit =
-  'ohm' | 'V' | 'A' | 'W' | 'm' | 'm^2' | 'Pa' | 'N' | 'kg' | 'Hz' | 's' | 'degC' | 'K' | 'V/V' | '1';
+  | 'ohm'
+  | 'V'
+  | 'A'
+  | 'W'
+  | 'm'
+  | 'm^2'
+  | 'm/s^2'
+  | 'Pa'
+  | 'N'
+  | 'kg'
+  | 'Hz'
+  | 's'
+  | 'degC'
+  | 'K'
+  | 'V/V'
+  | '1';
 
 interface Target {
   readonly kind: string;
@@ -22,6 +37,7 @@ const targets: Readonly<Record<SiUnit, Target>> = {
   W: { kind: 'a power', example: '0.25 W' },
   m: { kind: 'a length', example: '12 m' },
   'm^2': { kind: 'an area', example: '561 mm^2' },
+  'm/s^2': { kind: 'an acceleration', example: '9.8127 m/s^2' },
   Pa: { kind: 'a pressure or stress', example: '205 GPa' },
   N: { kind: 'a force', example: '84 kN' },
   kg: { kind: 'a mass', example: '500 kg' },

@@ -1,0 +1,71 @@
+import { BridgeworkError } from '@bridgework/core';
+import { RejectTally } from './kernel.js';
+
+/** What a conversion did: how many samples converted, and which did not and why. */
+export interface ConversionStatus {
+  /** Samples in the input (for an interleaved buffer: this channel's samples). */
+  readonly samples: number;
+  /** Samples converted to a quantity. */
+  readonly converted: number;
+  /** Samples written as NaN: `railLow + railHigh + outOfRange`. */
+  readonly rejected: number;
+  /** Codes at or below the converter's low rail. */
+  readonly railLow: number;
+  /** Codes at or above the converter's high rail. */
+  readonly railHigh: number;
+  /** Codes inside the rails whose ratio the sensor cannot produce. */
+  readonly outOfRange: number;
+  /** Output indices of the first rejected samples (at most `maxLocations` of them), ascending. */
+  readonly locations: Int32Array;
+  /** `'kernel'` (one division per sample) or `'exact'` (the exact scalar map per sample). */
+  readonly method: 'kernel' | 'exact';
+}
+
+/** Options of a conversion. */
+export interface ConvertOptions {
+  /** Gauge temperature of this block in °C (strain gauges); default: the channel's. The map is rebuilt for it. */
+  readonly temperatureCelsius?: number;
+  /** What to do with a code that cannot be converted: write NaN and count it (default), or throw. */
+  readonly onInvalid?: 'nan' | 'throw';
+  /** How many rejected sample indices to record (integer ≥ 0). Default 1024. */
+  readonly maxLocations?: number;
+}
+
+/** The result of converting a buffer. */
+export interface ConversionResult {
+  /** The quantities (the `out` buffer when one was given). */
+  readonly values: Float64Array;
+  /** What happened. */
+  readonly status: ConversionStatus;
+}
+
+export function newTally(maxLocations: number, railLowCode: number, railHighCode: number): RejectTally {
+  return new RejectTally(maxLocations, railLowCode, railHighCode);
+}
+
+const NONE = new Int32Array(0);
+
+export function statusOf(tally: RejectTally, samples: number, method: 'kernel' | 'exact'): ConversionStatus {
+  const rejected = tally.rejected;
+  return {
+    samples,
+    converted: samples - rejected,
+    rejected,
+    railLow: tally.railLow,
+    railHigh: tally.railHigh,
+    outOfRange: tally.outOfRange,
+    locations: tally.locations === undefined ? NONE : tally.locations.slice(0, tally.located),
+    method,
+  };
+}
+
+/** Throws `clipped` for a conversion that rejected samples under the 'throw' policy. */
+export function throwIfRejected(status: ConversionStatus, channel: string): void {
+  if (status.rejected === 0) return;
+  const first = status.locations[0];
+  throw new BridgeworkError(
+    'clipped',
+    `channel '${channel}': ${status.rejected} of ${status.samples} codes cannot be converted (${status.railLow} at the low rail, ${status.railHigh} at the high rail, ${status.outOfRange} out of the sensor's range)${first === undefined ? '' : `; first at index ${first}`}`,
+    { param: 'codes', value: status.rejected, ...(first === undefined ? {} : { limit: first }) },
+  );
+}

@@ -1,0 +1,157 @@
+import { BridgeworkError, checkObject } from '@bridgework/core';
+import { channelInternals, type Channel, type CodeBuffer } from './createChannel.js';
+import {
+  convertInterleavedLinearFractional,
+  convertLinearFractional,
+  convertScalar,
+} from './convert/kernel.js';
+import type { Mapping } from './internal/mapping.js';
+import {
+  newTally,
+  statusOf,
+  throwIfRejected,
+  type ConversionStatus,
+  type ConvertOptions,
+} from './convert/ConversionStatus.js';
+
+/** Options of an interleaved conversion: as for one channel, with one temperature per channel. */
+export interface InterleavedConvertOptions extends Omit<ConvertOptions, 'temperatureCelsius'> {
+  /** Gauge temperature of each channel for this block, °C (`undefined` entries keep the channel's). */
+  readonly temperaturesCelsius?: readonly (number | undefined)[];
+}
+
+/** The result of converting an interleaved buffer. */
+export interface InterleavedConversionResult {
+  /** Quantities, interleaved like the input (frame-major: sample k of channel j at k·N + j). */
+  readonly values: Float64Array;
+  /** One status per channel, in the channels' order. */
+  readonly statuses: readonly ConversionStatus[];
+}
+
+/** Converts buffers that interleave N channels (see {@link createInterleavedConverter}). */
+export interface InterleavedConverter {
+  /** The channels, in buffer order. */
+  readonly channels: readonly Channel[];
+  /**
+   * Converts a buffer of whole frames (N codes per frame).
+   *
+   * @param codes - Interleaved codes; the length must be a multiple of the channel count.
+   * @param out - Output buffer of at least `codes.length` (default: a new one).
+   * @param options - Per-channel temperatures, invalid-code policy, locations recorded.
+   * @throws {@link @bridgework/core!BridgeworkError} `invalid-shape` for a partial frame or a short `out`;
+   *   `clipped` under the 'throw' policy.
+   */
+  convert(
+    codes: CodeBuffer,
+    out?: Float64Array,
+    options?: InterleavedConvertOptions,
+  ): InterleavedConversionResult;
+  /**
+   * A WHATWG `TransformStream` converting each chunk of whole frames.
+   *
+   * @param options - As for `convert`, applied to every chunk.
+   */
+  transformStream(
+    options?: InterleavedConvertOptions,
+  ): TransformStream<CodeBuffer, InterleavedConversionResult>;
+}
+
+/**
+ * Creates a converter for buffers that interleave several channels (one code per channel per
+ * frame, frame after frame), as multi-channel converters and recorders deliver them.
+ *
+ * @remarks
+ * Each channel's lane is converted with that channel's own kernel (stride N), so the result
+ * equals converting each channel's codes separately, bit for bit. No allocation per sample.
+ *
+ * @param channels - The channels in buffer order (at least one), each made by `createChannel`.
+ * @returns The converter.
+ * @throws {@link @bridgework/core!BridgeworkError} `invalid-shape` for an empty list; `wrong-type` for a
+ *   channel not made by `createChannel`.
+ * @example
+ * ```ts
+ * const converter = createInterleavedConverter([hangerA, hangerB]);
+ * const { values, statuses } = converter.convert(new Int32Array([120, -40, 121, -41]));
+ * ```
+ */
+export function createInterleavedConverter(channels: readonly Channel[]): InterleavedConverter {
+  if (!Array.isArray(channels) || channels.length === 0) {
+    throw new BridgeworkError('invalid-shape', '`channels` must be a non-empty array of channels', {
+      param: 'channels',
+    });
+  }
+  const parts = channels.map((c) => channelInternals(c));
+  const n = channels.length;
+
+  function convert(
+    codes: CodeBuffer,
+    out?: Float64Array,
+    opts: InterleavedConvertOptions = {},
+  ): InterleavedConversionResult {
+    if (!(codes instanceof Int32Array || codes instanceof Float64Array)) {
+      throw new BridgeworkError('wrong-type', '`codes` must be an Int32Array or a Float64Array', {
+        param: 'codes',
+      });
+    }
+    checkObject('options', opts);
+    if (codes.length % n !== 0) {
+      throw new BridgeworkError(
+        'invalid-shape',
+        `\`codes\` must hold whole frames of ${n} codes; got ${codes.length}`,
+        {
+          param: 'codes',
+          limit: n,
+        },
+      );
+    }
+    const values = out ?? new Float64Array(codes.length);
+    if (!(values instanceof Float64Array) || values.length < codes.length) {
+      throw new BridgeworkError(
+        'invalid-shape',
+        `\`out\` must be a Float64Array of at least ${codes.length} values`,
+        {
+          param: 'out',
+          limit: codes.length,
+        },
+      );
+    }
+    const frames = codes.length / n;
+    const mappings = parts.map((part, j) => part.mappingAt(opts.temperaturesCelsius?.[j]));
+    const tallies = mappings.map((m) =>
+      newTally(opts.maxLocations ?? 1024, m.model.adc.codeMin, m.model.adc.codeMax),
+    );
+    if (mappings.every((m) => m.kernel !== undefined)) {
+      // Every lane has a kernel: one pass over the buffer.
+      convertInterleavedLinearFractional(
+        codes,
+        values,
+        mappings.map((m) => m.kernel!),
+        tallies,
+        frames,
+      );
+    } else {
+      mappings.forEach((m, j) => {
+        if (m.kernel !== undefined)
+          convertLinearFractional(codes, values, m.kernel, tallies[j]!, j, n, frames, j, n);
+        else convertScalar(codes, values, m.quantityOrNaN, m.lo, m.hi, tallies[j]!, j, n, frames, j, n);
+      });
+    }
+    const statuses = mappings.map((m, j) =>
+      statusOf(tallies[j]!, frames, m.kernel !== undefined ? 'kernel' : 'exact'),
+    );
+    if (opts.onInvalid === 'throw') statuses.forEach((s, j) => throwIfRejected(s, channels[j]!.name));
+    return { values, statuses };
+  }
+
+  return {
+    channels,
+    convert,
+    transformStream(opts: InterleavedConvertOptions = {}) {
+      return new TransformStream<CodeBuffer, InterleavedConversionResult>({
+        transform(chunk, controller) {
+          controller.enqueue(convert(chunk, undefined, opts));
+        },
+      });
+    },
+  };
+}

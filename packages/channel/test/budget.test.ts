@@ -1,0 +1,156 @@
+import { describe, expect, it } from 'vitest';
+import { createStrainBridge } from '@bridgework/bridge';
+import { johnsonNoiseDensity } from '@bridgework/chain';
+import { createChannel, type ChannelSpec } from '@bridgework/channel';
+
+const spec: ChannelSpec = {
+  name: 'crane hook',
+  sensor: { kind: 'strain-gauge', gaugeFactor: 2.0, gaugeOhms: 350 },
+  bridge: { arrangement: 'quarter', wiring: 'three-wire', ohmsPerLead: 1.5 },
+  excitation: { volts: 5 },
+  amplifier: { gain: 128, inputVoltageNoiseVoltsPerRootHz: 10e-9 },
+  adc: { bits: 24, referenceVolts: 5, ratiometric: true, dataRateHertz: 10, filter: 'sinc3' },
+  tolerances: { gaugeFactor: 0.01, gain: 0.002, ohmsPerLead: 0.2 },
+  output: { quantity: 'microstrain', range: [-2000, 2000] },
+};
+
+describe('budget: lines, models and the combined uncertainty', () => {
+  const budget = createChannel(spec).budget();
+
+  it('is evaluated at the end of the span by default and names every line with its model and inputs', () => {
+    expect(budget.at).toBe(2000);
+    expect(budget.unit).toBe('µε');
+    const names = budget.lines.map((l) => l.name);
+    expect(names).toEqual(
+      expect.arrayContaining([
+        'noise',
+        'resolution',
+        'nonlinearity of a linear map',
+        'lead desensitization',
+        'gauge factor',
+        'gain',
+        'lead resistance',
+      ]),
+    );
+    for (const line of budget.lines) {
+      expect(line.model.length).toBeGreaterThan(20);
+      expect(Object.keys(line.inputs).length).toBeGreaterThan(0);
+      expect(Number.isFinite(line.value)).toBe(true);
+    }
+    expect(budget.caution).toMatch(/do not replace, qualified engineering judgement/);
+  });
+
+  it('combines uncorrelated contributions by root-sum-square (JCGM 100 eq. 10)', () => {
+    const rss = Math.sqrt(Object.values(budget.combined.contributions).reduce((s, u) => s + u * u, 0));
+    expect(budget.combined.standardUncertainty).toBeNear(rss, { rel: 1e-12 });
+    const contributing = budget.lines.filter((l) => l.standardUncertainty !== undefined);
+    expect(contributing.map((l) => l.name).sort()).toEqual(
+      ['gain', 'gauge factor', 'lead resistance', 'noise'].sort(),
+    );
+  });
+
+  it('has the sensitivities of the physics (derived): ε ∝ 1/GF exactly; the gain scales the ratio', () => {
+    // u = a/√3 for rectangular limits ±a (JCGM 100 4.3.7).
+    const gf = budget.lines.find((l) => l.name === 'gauge factor')!;
+    expect(budget.combined.sensitivities['gauge factor']).toBeNear(-2000 / 2.0, { rel: 1e-6 });
+    expect(gf.standardUncertainty).toBeNear((2000 * 0.01) / Math.sqrt(3), { rel: 1e-6 });
+    // A gain error scales the measured ratio r: ∂ε/∂G = −(r/G)·dε/dr, with dε/dr from the bridge.
+    const bridge = createStrainBridge({
+      arrangement: 'quarter',
+      gaugeFactor: 2,
+      leads: { ohmsPerLead: 1.5, wiring: 'three-wire' },
+    });
+    const r = bridge.ratioFromStrain(2e-3);
+    const h = 1e-6 * r;
+    const slope = (bridge.strainFromRatio(r + h) - bridge.strainFromRatio(r - h)) / (2 * h);
+    expect(budget.combined.sensitivities['gain']).toBeNear(-((r / 128) * slope) * 1e6, { rel: 1e-6 });
+  });
+
+  it('refers the noise to the output through the exact slope (checked against the bridge and Johnson noise)', () => {
+    const zero = createChannel(spec).budget({ at: 0 });
+    const bridge = createStrainBridge({
+      arrangement: 'quarter',
+      gaugeFactor: 2,
+      leads: { ohmsPerLead: 1.5, wiring: 'three-wire' },
+    });
+    // dε/dV at zero = 1/(dr/dε · E), in µε per volt.
+    expect(zero.quantityPerVolt).toBeNear(1e6 / (bridge.sensitivity * 5), { rel: 1e-9 });
+    const thermal = zero.noise.terms.find((t) => t.source === 'bridge-thermal')!;
+    // The thermal noise of the bridge output resistance over the sinc3 ENBW (0.275·fODR, derived in chain).
+    expect(zero.noise.bandwidthHertz).toBeNear(2.75, { rel: 1e-4 });
+    const outputOhms =
+      thermal.rmsVolts / Math.sqrt(2.75) / johnsonNoiseDensity({ ohms: 1, temperatureCelsius: 20 });
+    expect(outputOhms ** 2).toBeNear(350.75, { rel: 2e-3 }); // (350 + 1.5)/2 + 175, with the leads
+    expect(zero.noise.totalRms).toBeNear(Math.sqrt(zero.noise.terms.reduce((s, t) => s + t.rms * t.rms, 0)), {
+      rel: 1e-12,
+    });
+  });
+
+  it('reports the lead desensitization a lead-blind map would make (three-wire: about RL/(Rg + RL))', () => {
+    const line = budget.lines.find((l) => l.name === 'lead desensitization')!;
+    expect(line.value / 2000).toBeNear(-1.5 / 351.5, { rel: 2e-3 });
+  });
+
+  it('states the nonlinearity of a linear map against the textbook quarter-bridge inverse', () => {
+    const noLeads = createChannel({
+      ...spec,
+      bridge: { arrangement: 'quarter', wiring: 'three-wire' },
+      tolerances: {},
+    }).budget();
+    const line = noLeads.lines.find((l) => l.name === 'nonlinearity of a linear map')!;
+    // ε(r) = 4r/(GF(1 − 2r)) (textbook quarter-bridge inverse), chord through ±2000 µε, sampled densely.
+    const eps = (r: number) => (4 * r) / (2 * (1 - 2 * r));
+    const r1 = (2 * -2e-3) / (4 + 4 * -2e-3);
+    const r2 = (2 * 2e-3) / (4 + 4 * 2e-3);
+    let worst = 0;
+    for (let i = 0; i <= 100_000; i++) {
+      const r = r1 + ((r2 - r1) * i) / 100_000;
+      const chord = -2000 + (4000 * (r - r1)) / (r2 - r1);
+      const d = eps(r) * 1e6 - chord;
+      if (Math.abs(d) > Math.abs(worst)) worst = d;
+    }
+    expect(line.value).toBeNear(worst, { rel: 1e-3 });
+  });
+
+  it('agrees with a Monte Carlo evaluation (JCGM 101) for this nearly linear model', () => {
+    const mc = createChannel(spec).budget({ monteCarlo: { trials: 100_000, seed: 7 } }).monteCarlo!;
+    expect(mc.trials).toBe(100_000);
+    // Relative standard error of a standard deviation from M trials ≈ 1/√(2M) = 0.22 %; allow 2 %.
+    expect(mc.standardUncertainty).toBeNear(budget.combined.standardUncertainty, { rel: 0.02 });
+    expect(mc.value).toBeNear(2000, { abs: 0.05 });
+  });
+
+  it('adds the IEC 60751 class tolerance of an RTD (class A at 100 °C: ±0.35 °C)', () => {
+    const rtd = createChannel({
+      sensor: { kind: 'rtd', toleranceClass: 'A' },
+      bridge: { wiring: 'three-wire' },
+      excitation: { volts: 1 },
+      amplifier: { gain: 8 },
+      adc: { bits: 24, referenceVolts: 1, ratiometric: true },
+      output: { quantity: 'temperature', range: [0, 100] },
+    }).budget({ at: 100 });
+    const line = rtd.lines.find((l) => l.name === 'RTD class tolerance')!;
+    expect(line.value).toBeNear(0.35, { rel: 1e-12 });
+    expect(rtd.combined.contributions['RTD class tolerance']).toBeNear(0.35 / Math.sqrt(3), { rel: 1e-9 });
+  });
+
+  it('flags headroom: an output swing too small for the span fails the check', () => {
+    const tight = createChannel({
+      ...spec,
+      amplifier: { gain: 128, limits: { outputVolts: [-0.1, 0.1] } },
+    }).budget();
+    expect(tight.ok).toBe(false);
+    expect(tight.frontEnd.issues.length).toBeGreaterThan(0);
+    expect(budget.ok).toBe(true);
+  });
+
+  it('rejects a budget point the channel cannot convert, and a lead tolerance beyond the leads', () => {
+    expect(() => createChannel(spec).budget({ at: 1e9 })).toThrowBridgeworkError('out-of-range', {
+      param: 'at',
+    });
+    const noLeads = createChannel({ ...spec, bridge: { arrangement: 'quarter', wiring: 'three-wire' } });
+    expect(() => noLeads.budget()).toThrowBridgeworkError('out-of-range', {
+      param: 'tolerances.ohmsPerLead',
+    });
+  });
+});

@@ -1,0 +1,213 @@
+/**
+ * The Monte Carlo procedure of JCGM 101 (7.2–7.7, and the adaptive procedure of 7.9) written once
+ * as a coroutine: it yields requests for blocks of trials and receives their model values, so the
+ * same code drives the in-process runner (synchronously) and the worker pool (asynchronously).
+ */
+import { BridgeworkError } from '@bridgework/core';
+import type { Interval } from '../types.js';
+import { numericalTolerance } from '../validateGum.js';
+import { BLOCK_TRIALS, mergeMoments, type MomentAccumulator } from './engine.js';
+import { coveredCount, sampleIntervalsInPlace } from './select.js';
+
+/** A request for the model values of blocks `firstBlock … firstBlock + blockCount − 1`. */
+export interface BlockRequest {
+  /** The first seeding block. */
+  readonly firstBlock: number;
+  /** How many blocks. */
+  readonly blockCount: number;
+  /** Trials in those blocks: blockCount·BLOCK_TRIALS, or fewer when the last block ends the run. */
+  readonly trials: number;
+}
+
+/** The reply to a {@link BlockRequest}. */
+export interface BlockReply {
+  /** The model values, trial by trial (length = `trials`). */
+  readonly values: Float64Array;
+  /** Per block: mean and sum of squared deviations, interleaved (length 2·blockCount). */
+  readonly stats: Float64Array;
+}
+
+/** Settings of a run, already checked. */
+export interface DriverSettings {
+  /** Trials of a fixed run (ignored when adaptive). */
+  readonly trials: number;
+  /** Coverage probability p. */
+  readonly coverage: number;
+  /** The adaptive procedure, or undefined for a fixed number of trials. */
+  readonly adaptive:
+    | { readonly significantDigits: number; readonly maxTrials: number; readonly interval: AdaptiveInterval }
+    | undefined;
+  /** Keep a copy of the model values in trial order. */
+  readonly returnValues: boolean;
+}
+
+/** The coverage interval whose ends the adaptive procedure must stabilise. */
+export type AdaptiveInterval = 'symmetric' | 'shortest' | 'both';
+
+/** Statistics of one sequence of the adaptive procedure. */
+interface SequenceResult {
+  readonly value: number;
+  readonly standardUncertainty: number;
+  readonly interval: Interval;
+  readonly shortestInterval: Interval;
+}
+
+/** The spread of the sequence results when the adaptive procedure stopped (JCGM 101 7.9.4 h–i). */
+export interface AdaptiveSpread {
+  /** s_y: standard deviation of the average of the sequence estimates. */
+  readonly value: number;
+  /** s_u(y): the same for the standard uncertainty. */
+  readonly standardUncertainty: number;
+  /** s_ylow: the same for the lower end of the probabilistically symmetric interval. */
+  readonly low: number;
+  /** s_yhigh: the same for its upper end. */
+  readonly high: number;
+  /** The same for the lower end of the shortest interval. */
+  readonly shortestLow: number;
+  /** The same for the upper end of the shortest interval. */
+  readonly shortestHigh: number;
+}
+
+/** What the adaptive procedure did. */
+export interface AdaptiveReport {
+  /** Number of sequences h. */
+  readonly sequences: number;
+  /** Trials per sequence. */
+  readonly trialsPerSequence: number;
+  /** ndig. */
+  readonly significantDigits: number;
+  /** The interval whose ends had to stabilise. */
+  readonly interval: AdaptiveInterval;
+  /** The numerical tolerance δ of u(y) at the end. */
+  readonly tolerance: number;
+  /** The standard deviations of the averages of the sequence results; twice each that is tested is ≤ δ. */
+  readonly spread: AdaptiveSpread;
+}
+
+/** The statistical results of a run. */
+export interface DriverResult {
+  readonly value: number;
+  readonly standardUncertainty: number;
+  readonly interval: Interval;
+  readonly shortestInterval: Interval;
+  readonly trials: number;
+  readonly values: Float64Array | undefined;
+  readonly adaptive: AdaptiveReport | undefined;
+}
+
+function finish(
+  values: Float64Array,
+  moments: MomentAccumulator,
+  settings: DriverSettings,
+  adaptive?: AdaptiveReport,
+): DriverResult {
+  const copy = settings.returnValues ? values.slice() : undefined;
+  const { interval, shortestInterval } = sampleIntervalsInPlace(values, settings.coverage);
+  return {
+    value: moments.mean,
+    standardUncertainty: Math.sqrt(moments.m2 / (moments.count - 1)),
+    interval,
+    shortestInterval,
+    trials: moments.count,
+    values: copy,
+    adaptive,
+  };
+}
+
+function mergeBlocks(into: MomentAccumulator, reply: BlockReply, request: BlockRequest): void {
+  for (let b = 0; b < request.blockCount; b++) {
+    const count = Math.min(BLOCK_TRIALS, request.trials - b * BLOCK_TRIALS);
+    mergeMoments(into, count, reply.stats[2 * b] as number, reply.stats[2 * b + 1] as number);
+  }
+}
+
+/** s = √(Σ(vᵣ − v̄)²/(h(h − 1))): the standard deviation of the average of h values (JCGM 101 7.9.4 h). */
+function spreadOfAverage(values: readonly number[]): number {
+  const h = values.length;
+  const mean = values.reduce((a, b) => a + b, 0) / h;
+  const ss = values.reduce((a, v) => a + (v - mean) ** 2, 0);
+  return Math.sqrt(ss / (h * (h - 1)));
+}
+
+/** Runs the procedure; yields block requests, returns the results. */
+export function* runProcedure(settings: DriverSettings): Generator<BlockRequest, DriverResult, BlockReply> {
+  const all: MomentAccumulator = { count: 0, mean: 0, m2: 0 };
+  if (settings.adaptive === undefined) {
+    const request = {
+      firstBlock: 0,
+      blockCount: Math.ceil(settings.trials / BLOCK_TRIALS),
+      trials: settings.trials,
+    };
+    const reply = yield request;
+    mergeBlocks(all, reply, request);
+    return finish(reply.values, all, settings);
+  }
+
+  // JCGM 101 7.9.4: sequences of M = max(J, 10⁴) trials, J the smallest integer ≥ 100/(1 − p),
+  // here rounded up to whole seeding blocks so that every trial is computed once.
+  const { significantDigits, maxTrials, interval } = settings.adaptive;
+  const j = Math.ceil(100 / (1 - settings.coverage) - 1e-9);
+  const blocksPerSequence = Math.ceil(Math.max(j, 1e4) / BLOCK_TRIALS);
+  const perSequence = blocksPerSequence * BLOCK_TRIALS;
+  let buffer = new Float64Array(4 * perSequence);
+  const scratch = new Float64Array(perSequence);
+  const sequences: SequenceResult[] = [];
+  for (let h = 0; ; h++) {
+    if ((h + 1) * perSequence > maxTrials) {
+      throw new BridgeworkError(
+        'not-converged',
+        `the adaptive Monte Carlo procedure did not stabilise to ${significantDigits} significant digits within \`maxTrials\` = ${maxTrials} trials`,
+        { param: 'adaptive.maxTrials', value: maxTrials, limit: maxTrials },
+      );
+    }
+    const request = { firstBlock: h * blocksPerSequence, blockCount: blocksPerSequence, trials: perSequence };
+    const reply = yield request;
+    if (buffer.length < (h + 1) * perSequence) {
+      const grown = new Float64Array(2 * buffer.length);
+      grown.set(buffer.subarray(0, h * perSequence));
+      buffer = grown;
+    }
+    buffer.set(reply.values, h * perSequence);
+    const own: MomentAccumulator = { count: 0, mean: 0, m2: 0 };
+    mergeBlocks(own, reply, request);
+    mergeBlocks(all, reply, request);
+    scratch.set(reply.values);
+    const intervals = sampleIntervalsInPlace(scratch, settings.coverage);
+    sequences.push({
+      value: own.mean,
+      standardUncertainty: Math.sqrt(own.m2 / (own.count - 1)),
+      ...intervals,
+    });
+    if (sequences.length < 2) continue;
+    const spread: AdaptiveSpread = {
+      value: spreadOfAverage(sequences.map((s) => s.value)),
+      standardUncertainty: spreadOfAverage(sequences.map((s) => s.standardUncertainty)),
+      low: spreadOfAverage(sequences.map((s) => s.interval.low)),
+      high: spreadOfAverage(sequences.map((s) => s.interval.high)),
+      shortestLow: spreadOfAverage(sequences.map((s) => s.shortestInterval.low)),
+      shortestHigh: spreadOfAverage(sequences.map((s) => s.shortestInterval.high)),
+    };
+    const tolerance = numericalTolerance(Math.sqrt(all.m2 / (all.count - 1)), significantDigits);
+    const tested = [spread.value, spread.standardUncertainty];
+    if (interval !== 'shortest') tested.push(spread.low, spread.high);
+    if (interval !== 'symmetric') tested.push(spread.shortestLow, spread.shortestHigh);
+    if (tested.every((s) => 2 * s <= tolerance)) {
+      const report: AdaptiveReport = {
+        sequences: sequences.length,
+        trialsPerSequence: perSequence,
+        significantDigits,
+        interval,
+        tolerance,
+        spread,
+      };
+      return finish(buffer.subarray(0, all.count), all, settings, report);
+    }
+  }
+}
+
+/** The smallest number of trials for which a coverage interval exists (q < M). */
+export function minimumTrials(coverage: number): number {
+  let m = 2;
+  while (coveredCount(coverage, m) >= m) m++;
+  return m;
+}

@@ -1,0 +1,197 @@
+/**
+ * The Monte Carlo kernel shared by the in-process runner and the Node worker threads.
+ *
+ * Trials are numbered 0, 1, 2, … and cut into seeding blocks of {@link BLOCK_TRIALS}. Every input
+ * column has its own random stream in every block: the state of column j in block k is
+ * J64^k(J96^j(s₀)), where s₀ comes from the seed and J64, J96 advance xoshiro128** by 2⁶⁴ and 2⁹⁶
+ * steps. Streams therefore never overlap (for fewer than 2³² blocks and 2³² inputs), and the
+ * values of a block depend only on the seed, the block's index and the inputs — not on which
+ * thread computes it, nor on how many trials a run has (a run of M trials is a prefix of any
+ * longer run with the same seed). Block statistics are merged in block order, so every result is
+ * bit-identical whatever the number of workers.
+ *
+ * Inside a block, trials are generated in chunks of {@link CHUNK_TRIALS} (struct of arrays: one
+ * Float64Array per input). The model receives one reused record whose properties are getters
+ * reading the current trial of each column: nothing is allocated or written per trial.
+ */
+import { BridgeworkError, formatValue } from '@bridgework/core';
+import { fillFrom, fillNormal, type SamplerSpec } from './samplers.js';
+import { jump64, jump96, stateFromSeed, type GeneratorState } from './xoshiro128.js';
+
+/** Trials per seeding block. */
+export const BLOCK_TRIALS = 16384;
+/** Trials generated at once inside a block (sized so the columns stay in cache). */
+export const CHUNK_TRIALS = 2048;
+
+/** Inputs drawn jointly from a multivariate Gaussian: x = mean + scale·(L·z) (JCGM 101 6.4.8). */
+export interface CorrelatedGroup {
+  /** Column indices of the members, in order. */
+  readonly members: readonly number[];
+  /** Lower-triangular factor L of the members' correlation matrix, row-major g×g (R = L·Lᵀ). */
+  readonly lower: Float64Array | readonly number[];
+}
+
+/** Everything a runner needs to generate trials (plain data, so it can be posted to a worker). */
+export interface EnginePlan {
+  /** Input names, in column order. */
+  readonly names: readonly string[];
+  /** The sampler of each column (members of the correlated group are `'normal'`). */
+  readonly samplers: readonly SamplerSpec[];
+  /** The correlated normal inputs, if any. */
+  readonly group: CorrelatedGroup | undefined;
+  /** The seed (a non-negative safe integer). */
+  readonly seed: number;
+}
+
+/** A scalar measurement model as the engine calls it. */
+export type EngineModel = (x: Readonly<Record<string, number>>) => number;
+
+/** Runs blocks of trials of one plan and one model. */
+export interface BlockRunner {
+  /**
+   * Runs the first `count` trials of seeding block `block`, writes the model values to
+   * `out[offset…offset + count)`, and stores the block's mean and sum of squared deviations in
+   * `stats[2·slot]` and `stats[2·slot + 1]`.
+   */
+  runBlock(
+    block: number,
+    count: number,
+    out: Float64Array,
+    offset: number,
+    stats: Float64Array,
+    slot: number,
+  ): void;
+}
+
+function describeTrial(names: readonly string[], columns: readonly Float64Array[], t: number): string {
+  return names.map((n, j) => `${n} = ${String((columns[j] as Float64Array)[t])}`).join(', ');
+}
+
+/** Creates a runner; its column buffers and generator states are reused from block to block. */
+export function createBlockRunner(plan: EnginePlan, model: EngineModel): BlockRunner {
+  const { names, samplers, group } = plan;
+  const n = names.length;
+  const columns = names.map(() => new Float64Array(CHUNK_TRIALS));
+  // Stream bases J96^j(s0), the states at the start of block `positionedAt`, and working states.
+  const bases: GeneratorState[] = [];
+  const seedState = stateFromSeed(plan.seed);
+  for (let j = 0; j < n; j++) {
+    bases.push(seedState.slice());
+    jump96(seedState);
+  }
+  const starts = bases.map((b) => b.slice());
+  const states = bases.map((b) => b.slice());
+  let positionedAt = 0;
+
+  let index = 0;
+  const record: Record<string, number> = {};
+  names.forEach((name, j) => {
+    const column = columns[j] as Float64Array;
+    Object.defineProperty(record, name, { get: () => column[index] as number, enumerable: true });
+  });
+
+  const members = group?.members ?? [];
+  const g = members.length;
+  const lower = group === undefined ? new Float64Array(0) : Float64Array.from(group.lower);
+  const groupMeans = members.map((j) => (samplers[j] as { mean: number }).mean);
+  const groupScales = members.map((j) => (samplers[j] as { scale: number }).scale);
+  const inGroup = new Set(members);
+
+  function positionAt(block: number): void {
+    if (block < positionedAt) {
+      for (let j = 0; j < n; j++) (starts[j] as GeneratorState).set(bases[j] as GeneratorState);
+      positionedAt = 0;
+    }
+    for (; positionedAt < block; positionedAt++) for (const s of starts) jump64(s);
+    for (let j = 0; j < n; j++) (states[j] as GeneratorState).set(starts[j] as GeneratorState);
+  }
+
+  function fillChunk(length: number): void {
+    for (let j = 0; j < n; j++) {
+      const s = states[j] as GeneratorState;
+      const column = columns[j] as Float64Array;
+      if (inGroup.has(j)) fillNormal(s, column, 0, length, 0, 1);
+      else fillFrom(samplers[j] as SamplerSpec, s, column, 0, length);
+    }
+    // x_r = mean_r + scale_r·Σ_{c ≤ r} L[r][c]·z_c, rows from the last so each z_c is still intact.
+    for (let r = g - 1; r >= 0; r--) {
+      const target = columns[members[r] as number] as Float64Array;
+      const mean = groupMeans[r] as number;
+      const scale = groupScales[r] as number;
+      for (let t = 0; t < length; t++) {
+        let acc = 0;
+        for (let c = 0; c <= r; c++) {
+          acc +=
+            (lower[r * g + c] as number) * ((columns[members[c] as number] as Float64Array)[t] as number);
+        }
+        target[t] = mean + scale * acc;
+      }
+    }
+  }
+
+  return {
+    runBlock(block, count, out, offset, stats, slot) {
+      positionAt(block);
+      for (let done = 0; done < count;) {
+        const length = Math.min(CHUNK_TRIALS, count - done);
+        fillChunk(length);
+        const base = offset + done;
+        for (let t = 0; t < length; t++) {
+          index = t;
+          const y = model(record);
+          if (typeof y !== 'number' || y - y !== 0) {
+            const trial = block * BLOCK_TRIALS + done + t;
+            throw new BridgeworkError(
+              typeof y === 'number' ? 'model-not-finite' : 'wrong-type',
+              `\`model\` must return a finite number; got ${formatValue(y)} at trial ${trial} (${describeTrial(names, columns, t)})`,
+              { param: 'model', value: y },
+            );
+          }
+          out[base + t] = y;
+        }
+        done += length;
+      }
+      // Two-pass mean and sum of squared deviations of the block.
+      let sum = 0;
+      for (let t = offset; t < offset + count; t++) sum += out[t] as number;
+      const mean = sum / count;
+      let m2 = 0;
+      for (let t = offset; t < offset + count; t++) {
+        const dev = (out[t] as number) - mean;
+        m2 += dev * dev;
+      }
+      stats[2 * slot] = mean;
+      stats[2 * slot + 1] = m2;
+    },
+  };
+}
+
+/** Running mean and sum of squared deviations, merged block after block in block order. */
+export interface MomentAccumulator {
+  /** Number of values. */
+  count: number;
+  /** Their mean. */
+  mean: number;
+  /** Their sum of squared deviations from the mean. */
+  m2: number;
+}
+
+/**
+ * Adds a block's statistics to an accumulator (T. F. Chan, G. H. Golub and R. J. LeVeque,
+ * "Updating formulae and a pairwise algorithm for computing sample variances", 1979). Applied in
+ * block order, the result does not depend on who computed the blocks.
+ */
+export function mergeMoments(acc: MomentAccumulator, count: number, mean: number, m2: number): void {
+  if (count === 0) return;
+  if (acc.count === 0) {
+    acc.count = count;
+    acc.mean = mean;
+    acc.m2 = m2;
+    return;
+  }
+  const total = acc.count + count;
+  const delta = mean - acc.mean;
+  acc.mean += (delta * count) / total;
+  acc.m2 += m2 + (delta * delta * acc.count * count) / total;
+  acc.count = total;
+}

@@ -1,0 +1,257 @@
+/**
+ * Random-variate kernels: each fills `out[from…to)` with draws from one distribution, advancing a
+ * xoshiro128** state (see xoshiro128.ts). The two hot kernels (normal and rectangular) inline the
+ * generator step with the state in local variables; the others call `nextUint32`.
+ *
+ * Every kernel uses only integer operations, correctly rounded arithmetic, `Math.sqrt` (correctly
+ * rounded by IEEE 754) and the portable logarithm and exponential, so a given state produces the
+ * same doubles on every engine and machine.
+ *
+ * Resolution: uniform variates carry 53 random bits, U = (m + ½)·2⁻⁵³ with m uniform on
+ * 0…2⁵³ − 1, so U lies in the open interval (0, 1) and 1 − U has the same distribution as U.
+ * A normal variate uses 8 bits for the ziggurat layer and 52 further bits for its abscissa (the
+ * layer and the value come from disjoint bits, the remedy of J. A. Doornik, "An improved ziggurat
+ * method to generate normal random samples", 2005).
+ */
+import { portableExp, portableExpm1, portableLog } from './portableMath.js';
+import { nextUint32, type GeneratorState } from './xoshiro128.js';
+import { ZIGGURAT_R, zigguratF, zigguratRatio, zigguratX } from './ziggurat.js';
+
+/** What one input column is drawn from (plain data, so it can be posted to a worker). */
+export type SamplerSpec =
+  | { readonly kind: 'constant'; readonly mean: number }
+  | { readonly kind: 'normal'; readonly mean: number; readonly scale: number }
+  | { readonly kind: 'rectangular'; readonly mean: number; readonly halfWidth: number }
+  | { readonly kind: 'triangular'; readonly mean: number; readonly halfWidth: number }
+  | { readonly kind: 'arcsine'; readonly mean: number; readonly halfWidth: number }
+  | { readonly kind: 't'; readonly mean: number; readonly scale: number; readonly degreesOfFreedom: number };
+
+const TWO_POW_26 = 67108864;
+const TWO_POW_28 = 268435456;
+const TWO_POW_M51 = 4.440892098500626e-16;
+const TWO_POW_M52 = 2.220446049250313e-16;
+const TWO_POW_M53 = 1.1102230246251565e-16;
+
+/** A uniform variate on (0, 1) with 53 random bits. */
+export function uniformOpen(s: GeneratorState): number {
+  const hi = nextUint32(s) >>> 5;
+  const lo = nextUint32(s) >>> 6;
+  return (hi * TWO_POW_26 + lo + 0.5) * TWO_POW_M53;
+}
+
+/** A uniform variate on (−1, 1), symmetric about 0, with 53 random bits. */
+export function uniformSymmetric(s: GeneratorState): number {
+  const hi = nextUint32(s) | 0;
+  const lo = nextUint32(s) >>> 6;
+  return ((hi >> 5) * TWO_POW_26 + lo + 0.5) * TWO_POW_M52;
+}
+
+/**
+ * The rare part of the ziggurat: the tail beyond R for layer 0 (G. Marsaglia, "Generating a
+ * variable from the tail of the normal distribution", Technometrics 6, 1964), or the wedge test
+ * for layer i ≥ 1. Returns NaN when the point is rejected and the caller must draw again.
+ */
+function zigguratSlowPath(s: GeneratorState, layer: number, u: number): number {
+  if (layer === 0) {
+    let x: number;
+    let y: number;
+    do {
+      x = -portableLog(uniformOpen(s)) / ZIGGURAT_R;
+      y = -portableLog(uniformOpen(s));
+    } while (y + y < x * x);
+    return u < 0 ? -(ZIGGURAT_R + x) : ZIGGURAT_R + x;
+  }
+  const z = u * (zigguratX[layer] as number);
+  const low = zigguratF[layer] as number;
+  const y = low + uniformOpen(s) * ((zigguratF[layer + 1] as number) - low);
+  return y < portableExp(-0.5 * z * z) ? z : NaN;
+}
+
+/** Fills out[from…to) with mean + scale·Z, Z standard normal (256-layer ziggurat). */
+export function fillNormal(
+  s: GeneratorState,
+  out: Float64Array,
+  from: number,
+  to: number,
+  mean: number,
+  scale: number,
+): void {
+  let a = s[0] as number;
+  let b = s[1] as number;
+  let c = s[2] as number;
+  let d = s[3] as number;
+  for (let i = from; i < to;) {
+    let m = Math.imul(b, 5);
+    const r1 = Math.imul((m << 7) | (m >>> 25), 9);
+    let t = b << 9;
+    c ^= a;
+    d ^= b;
+    b ^= c;
+    a ^= d;
+    c ^= t;
+    d = (d << 11) | (d >>> 21);
+    m = Math.imul(b, 5);
+    const r2 = Math.imul((m << 7) | (m >>> 25), 9);
+    t = b << 9;
+    c ^= a;
+    d ^= b;
+    b ^= c;
+    a ^= d;
+    c ^= t;
+    d = (d << 11) | (d >>> 21);
+    const layer = r1 & 255;
+    // 52 bits: the top 24 of r1 (signed) and the top 28 of r2; u is uniform on (−1, 1).
+    const u = ((r1 >> 8) * TWO_POW_28 + (r2 >>> 4) + 0.5) * TWO_POW_M51;
+    if (Math.abs(u) < (zigguratRatio[layer] as number)) {
+      out[i++] = mean + scale * (u * (zigguratX[layer] as number));
+      continue;
+    }
+    s[0] = a;
+    s[1] = b;
+    s[2] = c;
+    s[3] = d;
+    const z = zigguratSlowPath(s, layer, u);
+    a = s[0] as number;
+    b = s[1] as number;
+    c = s[2] as number;
+    d = s[3] as number;
+    if (z === z) out[i++] = mean + scale * z;
+  }
+  s[0] = a;
+  s[1] = b;
+  s[2] = c;
+  s[3] = d;
+}
+
+/** Fills out[from…to) with mean + halfWidth·W, W uniform on (−1, 1). */
+export function fillRectangular(
+  s: GeneratorState,
+  out: Float64Array,
+  from: number,
+  to: number,
+  mean: number,
+  halfWidth: number,
+): void {
+  let a = s[0] as number;
+  let b = s[1] as number;
+  let c = s[2] as number;
+  let d = s[3] as number;
+  for (let i = from; i < to; i++) {
+    let m = Math.imul(b, 5);
+    const r1 = Math.imul((m << 7) | (m >>> 25), 9);
+    let t = b << 9;
+    c ^= a;
+    d ^= b;
+    b ^= c;
+    a ^= d;
+    c ^= t;
+    d = (d << 11) | (d >>> 21);
+    m = Math.imul(b, 5);
+    const r2 = Math.imul((m << 7) | (m >>> 25), 9);
+    t = b << 9;
+    c ^= a;
+    d ^= b;
+    b ^= c;
+    a ^= d;
+    c ^= t;
+    d = (d << 11) | (d >>> 21);
+    out[i] = mean + halfWidth * (((r1 >> 5) * TWO_POW_26 + (r2 >>> 6) + 0.5) * TWO_POW_M52);
+  }
+  s[0] = a;
+  s[1] = b;
+  s[2] = c;
+  s[3] = d;
+}
+
+/** Fills out[from…to) with a symmetric triangular variate: mean + halfWidth·(U₁ + U₂ − 1). */
+export function fillTriangular(
+  s: GeneratorState,
+  out: Float64Array,
+  from: number,
+  to: number,
+  mean: number,
+  halfWidth: number,
+): void {
+  for (let i = from; i < to; i++) out[i] = mean + halfWidth * (uniformOpen(s) + uniformOpen(s) - 1);
+}
+
+/**
+ * Fills out[from…to) with an arcsine (U-shaped) variate mean + halfWidth·cos(2Θ), Θ uniform: a
+ * point (p, q) uniform in the unit disc has (p² − q²)/(p² + q²) = cos 2Θ, so no trigonometric
+ * function is needed (rejection from the square, acceptance π/4).
+ */
+export function fillArcsine(
+  s: GeneratorState,
+  out: Float64Array,
+  from: number,
+  to: number,
+  mean: number,
+  halfWidth: number,
+): void {
+  for (let i = from; i < to;) {
+    const p = uniformSymmetric(s);
+    const q = uniformSymmetric(s);
+    const p2 = p * p;
+    const q2 = q * q;
+    const w = p2 + q2;
+    if (w < 1) out[i++] = mean + halfWidth * ((p2 - q2) / w);
+  }
+}
+
+/**
+ * Fills out[from…to) with mean + scale·T, T Student-t with ν degrees of freedom, by Bailey's polar
+ * method (R. W. Bailey, "Polar generation of random variates with the t-distribution", Math.
+ * Comp. 62, 1994): for (p, q) uniform in the unit disc and w = p² + q²,
+ * T = p·√(ν(w^(−2/ν) − 1)/w). w^(−2/ν) − 1 is formed as expm1(−(2/ν)·ln w), accurate for large ν.
+ * An infinite ν gives the normal limit p·√(−2 ln w / w) (Marsaglia's polar method).
+ */
+export function fillStudentT(
+  s: GeneratorState,
+  out: Float64Array,
+  from: number,
+  to: number,
+  mean: number,
+  scale: number,
+  degreesOfFreedom: number,
+): void {
+  const nu = degreesOfFreedom;
+  for (let i = from; i < to;) {
+    const p = uniformSymmetric(s);
+    const q = uniformSymmetric(s);
+    const w = p * p + q * q;
+    if (!(w < 1)) continue;
+    const lnw = portableLog(w);
+    const radial = nu === Infinity ? -2 * lnw : nu * portableExpm1((-2 / nu) * lnw);
+    out[i++] = mean + scale * (p * Math.sqrt(radial / w));
+  }
+}
+
+/** Fills out[from…to) from a sampler specification. */
+export function fillFrom(
+  spec: SamplerSpec,
+  s: GeneratorState,
+  out: Float64Array,
+  from: number,
+  to: number,
+): void {
+  switch (spec.kind) {
+    case 'constant':
+      out.fill(spec.mean, from, to);
+      return;
+    case 'normal':
+      fillNormal(s, out, from, to, spec.mean, spec.scale);
+      return;
+    case 'rectangular':
+      fillRectangular(s, out, from, to, spec.mean, spec.halfWidth);
+      return;
+    case 'triangular':
+      fillTriangular(s, out, from, to, spec.mean, spec.halfWidth);
+      return;
+    case 'arcsine':
+      fillArcsine(s, out, from, to, spec.mean, spec.halfWidth);
+      return;
+    case 't':
+      fillStudentT(s, out, from, to, spec.mean, spec.scale, spec.degreesOfFreedom);
+      return;
+  }
+}

@@ -1,0 +1,102 @@
+/**
+ * Order statistics without a full sort: Floyd and Rivest's selection algorithm (R. W. Floyd and
+ * R. L. Rivest, "Algorithm 489: The algorithm SELECT — for finding the ith smallest of n
+ * elements", Comm. ACM 18(3), 1975), expected 1.5·n comparisons.
+ */
+import type { Interval } from '../types.js';
+
+function swap(a: Float64Array, i: number, j: number): void {
+  const t = a[i] as number;
+  a[i] = a[j] as number;
+  a[j] = t;
+}
+
+/**
+ * Rearranges `a[left…right]` so that `a[k]` holds the value it would have if that range were
+ * sorted, every element before it is ≤ `a[k]` and every element after it is ≥ `a[k]`.
+ * The values must not be NaN.
+ */
+export function selectInPlace(a: Float64Array, k: number, left = 0, right = a.length - 1): void {
+  while (right > left) {
+    if (right - left > 600) {
+      // Recurse on a sample to find two pivots that bracket the kth element closely.
+      const n = right - left + 1;
+      const i = k - left + 1;
+      const z = Math.log(n);
+      const s = 0.5 * Math.exp((2 * z) / 3);
+      const sd = 0.5 * Math.sqrt((z * s * (n - s)) / n) * (i - n / 2 < 0 ? -1 : 1);
+      const newLeft = Math.max(left, Math.floor(k - (i * s) / n + sd));
+      const newRight = Math.min(right, Math.floor(k + ((n - i) * s) / n + sd));
+      selectInPlace(a, k, newLeft, newRight);
+    }
+    const t = a[k] as number;
+    let i = left;
+    let j = right;
+    swap(a, left, k);
+    if ((a[right] as number) > t) swap(a, left, right);
+    while (i < j) {
+      swap(a, i, j);
+      i++;
+      j--;
+      while ((a[i] as number) < t) i++;
+      while ((a[j] as number) > t) j--;
+    }
+    if (a[left] === t) swap(a, left, j);
+    else {
+      j++;
+      swap(a, j, right);
+    }
+    if (j <= k) left = j + 1;
+    if (k <= j) right = j - 1;
+  }
+}
+
+/** The two coverage intervals of JCGM 101 7.7 computed from a sample. */
+export interface SampleIntervals {
+  /** Probabilistically symmetric coverage interval (JCGM 101 7.7.1). */
+  readonly interval: Interval;
+  /** Shortest coverage interval (JCGM 101 7.7.2). */
+  readonly shortestInterval: Interval;
+}
+
+/**
+ * The number of values a coverage interval spans, q = pM rounded as JCGM 101 7.7.1 prescribes
+ * (pM if it is an integer, else the integer part of pM + ½).
+ */
+export function coveredCount(coverage: number, trials: number): number {
+  return Math.floor(coverage * trials + 0.5);
+}
+
+/**
+ * Both JCGM 101 coverage intervals of the values, permuting `a` in place. Only the lowest and the
+ * highest M − q values are sorted (q = the covered count): every candidate end of the shortest
+ * interval lies there. With p ≥ ½ that is 2(1 − p) of the sample, a tenth for p = 0.95.
+ *
+ * Requires q < M (at least one candidate interval) and no NaN in `a`.
+ */
+export function sampleIntervalsInPlace(a: Float64Array, coverage: number): SampleIntervals {
+  const m = a.length;
+  const q = coveredCount(coverage, m);
+  const candidates = m - q; // left ends y_(1) … y_(M−q), 1-based
+  if (q <= candidates) {
+    a.sort();
+  } else {
+    selectInPlace(a, candidates - 1);
+    a.subarray(0, candidates).sort();
+    selectInPlace(a, q, candidates, m - 1);
+    a.subarray(q).sort();
+  }
+  // Probabilistically symmetric: r = (M − q)/2 if that is an integer, else (M − q + 1)/2.
+  const r = Math.ceil(candidates / 2);
+  const interval = { low: a[r - 1] as number, high: a[r - 1 + q] as number };
+  let best = 0;
+  let bestWidth = Infinity;
+  for (let i = 0; i < candidates; i++) {
+    const width = (a[i + q] as number) - (a[i] as number);
+    if (width < bestWidth) {
+      bestWidth = width;
+      best = i;
+    }
+  }
+  return { interval, shortestInterval: { low: a[best] as number, high: a[best + q] as number } };
+}

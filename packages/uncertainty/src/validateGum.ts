@@ -1,0 +1,123 @@
+import { BridgeworkError, checkFinite, checkInteger, checkNonNegative, checkObject } from '@bridgework/core';
+import type { Interval } from './types.js';
+
+/**
+ * The numerical tolerance δ of a value expressed to a number of significant decimal digits
+ * (JCGM 101 7.9.2).
+ *
+ * @remarks
+ * Write |value| = c × 10^l with c an integer of `significantDigits` digits (rounding to nearest);
+ * then δ = ½ × 10^l. For example u(y) = 0.000 35 to two digits is 35 × 10⁻⁵, so δ = 5 × 10⁻⁶.
+ * A zero value has tolerance 0. JCGM 101 uses δ to decide when an adaptive Monte Carlo run has
+ * stabilised (7.9.4) and whether the GUM result is validated (8.2).
+ *
+ * @param value - The value, usually a standard uncertainty u(y) (finite).
+ * @param significantDigits - ndig, an integer in [1, 15]. Default 2.
+ * @returns δ, in the unit of `value`.
+ * @throws {@link @bridgework/core!BridgeworkError} `not-finite`, `wrong-type`; `not-integer` or
+ *   `out-of-range` for a bad digit count.
+ * @example
+ * ```ts
+ * numericalTolerance(0.00035); // 5e-6
+ * numericalTolerance(2.0, 2); // 0.05 (2.0 = 20 × 10⁻¹)
+ * numericalTolerance(0.0999, 2); // 0.005 (0.0999 rounds to 10 × 10⁻²)
+ * ```
+ */
+export function numericalTolerance(value: number, significantDigits: number = 2): number {
+  const v = Math.abs(checkFinite('value', value));
+  const digits = checkInteger('significantDigits', significantDigits, { min: 1, max: 15 });
+  if (v === 0) return 0;
+  let l = Math.floor(Math.log10(v)) - digits + 1;
+  const c = (exponent: number): number => Math.round(v / 10 ** exponent);
+  // Repair log10 rounding at exact powers of ten, and values that round up to 10^digits.
+  while (c(l) >= 10 ** digits) l += 1;
+  while (c(l) < 10 ** (digits - 1)) l -= 1;
+  // ½·10^l as the double nearest to it: an exact power of ten divides, never a rounded one multiplies.
+  return l >= 0 ? 0.5 * 10 ** l : 0.5 / 10 ** -l;
+}
+
+/** The GUM side of a comparison: an estimate and its expanded uncertainty (a {@link Propagation} will do). */
+export interface GumInterval {
+  /** The estimate y. */
+  readonly value: number;
+  /** The expanded uncertainty U_p for the coverage probability of the comparison. */
+  readonly expandedUncertainty: number;
+}
+
+/** The Monte Carlo side of a comparison (a {@link MonteCarloResult} will do). */
+export interface MonteCarloInterval {
+  /** The Monte Carlo standard uncertainty u(y), which sets the tolerance. */
+  readonly standardUncertainty: number;
+  /** The probabilistically symmetric coverage interval. */
+  readonly interval: Interval;
+}
+
+/** Options of {@link validateGum}. */
+export interface ValidateGumOptions {
+  /** The GUM result (law of propagation). */
+  readonly gum: GumInterval;
+  /** The Monte Carlo result for the same model, inputs and coverage probability. */
+  readonly monteCarlo: MonteCarloInterval;
+  /** ndig, the significant digits regarded as meaningful in u(y): integer in [1, 15]. Default 2. */
+  readonly significantDigits?: number;
+}
+
+/** The outcome of the JCGM 101 clause 8 comparison (see {@link validateGum}). */
+export interface GumValidation {
+  /** d_low = |y − U_p − y_low|. */
+  readonly dLow: number;
+  /** d_high = |y + U_p − y_high|. */
+  readonly dHigh: number;
+  /** The numerical tolerance δ of u(y) to `significantDigits` digits. */
+  readonly tolerance: number;
+  /** ndig used. */
+  readonly significantDigits: number;
+  /** True when both d_low and d_high are no larger than δ: the GUM result is validated. */
+  readonly validated: boolean;
+}
+
+/**
+ * Compares a GUM coverage interval with a Monte Carlo one (JCGM 101 clause 8).
+ *
+ * @remarks
+ * JCGM 101 8.2: with the GUM interval y ± U_p and the probabilistically symmetric Monte Carlo
+ * interval [y_low, y_high] for the same coverage probability, d_low = |y − U_p − y_low| and
+ * d_high = |y + U_p − y_high|. The GUM result is validated when both are no larger than the
+ * numerical tolerance δ of u(y) ({@link numericalTolerance}); δ is taken from the Monte Carlo
+ * u(y), as in the adaptive procedure (7.9). A Monte Carlo run should itself be precise to δ
+ * (use the adaptive procedure) for the verdict to mean something.
+ *
+ * @param options - Both results and ndig.
+ * @returns d_low, d_high, δ and the verdict.
+ * @throws {@link @bridgework/core!BridgeworkError} `wrong-type`, `not-finite`, `negative` for bad fields.
+ * @example
+ * ```ts
+ * validateGum({
+ *   gum: { value: 0, expandedUncertainty: 3.92 },
+ *   monteCarlo: { standardUncertainty: 2.0, interval: { low: -3.88, high: 3.88 } },
+ * }); // { dLow: 0.040000000000000036, dHigh: 0.040000000000000036, tolerance: 0.05, significantDigits: 2, validated: true }
+ * ```
+ */
+export function validateGum(options: ValidateGumOptions): GumValidation {
+  const o = checkObject('options', options);
+  const gum = checkObject('gum', o['gum']);
+  const mc = checkObject('monteCarlo', o['monteCarlo']);
+  const y = checkFinite('gum.value', gum['value']);
+  const expanded = checkNonNegative('gum.expandedUncertainty', gum['expandedUncertainty']);
+  const u = checkNonNegative('monteCarlo.standardUncertainty', mc['standardUncertainty']);
+  const interval = checkObject('monteCarlo.interval', mc['interval']);
+  const low = checkFinite('monteCarlo.interval.low', interval['low']);
+  const high = checkFinite('monteCarlo.interval.high', interval['high']);
+  if (high < low) {
+    throw new BridgeworkError('out-of-range', '`monteCarlo.interval.high` must be >= `low`', {
+      param: 'monteCarlo.interval.high',
+      value: high,
+      limit: low,
+    });
+  }
+  const significantDigits = o['significantDigits'] === undefined ? 2 : (o['significantDigits'] as number);
+  const tolerance = numericalTolerance(u, significantDigits);
+  const dLow = Math.abs(y - expanded - low);
+  const dHigh = Math.abs(y + expanded - high);
+  return { dLow, dHigh, tolerance, significantDigits, validated: dLow <= tolerance && dHigh <= tolerance };
+}

@@ -1,0 +1,118 @@
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { sampleCoverageIntervals } from '@bridgework/uncertainty';
+import { selectInPlace } from '../src/internal/select.js';
+
+/**
+ * JCGM 101 7.7 restated with a full sort (the straightforward reading of the standard), 1-based
+ * order statistics as there: q = pM if integer else ⌊pM + ½⌋; r = (M − q)/2 if integer else
+ * (M − q + 1)/2; shortest: r* minimising y₍ᵣ₊q₎ − y₍ᵣ₎ over r = 1 … M − q, the first on ties.
+ */
+function byFullSort(values: readonly number[], p: number) {
+  const y = Array.from(Float64Array.from(values).sort()); // typed sort: −0 before +0, as the selection leaves them
+  const m = y.length;
+  const pm = p * m;
+  const q = Math.abs(pm - Math.round(pm)) < 1e-9 ? Math.round(pm) : Math.floor(pm + 0.5);
+  const r = (m - q) % 2 === 0 ? (m - q) / 2 : (m - q + 1) / 2;
+  let best = 1;
+  for (let k = 1; k <= m - q; k++) if (y[k + q - 1]! - y[k - 1]! < y[best + q - 1]! - y[best - 1]!) best = k;
+  return {
+    interval: { low: y[r - 1]!, high: y[r + q - 1]! },
+    shortestInterval: { low: y[best - 1]!, high: y[best + q - 1]! },
+  };
+}
+
+describe('selectInPlace (Floyd–Rivest)', () => {
+  it('puts the kth smallest at k with smaller values before and larger after, duplicates included', () => {
+    const values = fc.array(
+      fc.oneof(fc.double({ min: -1e3, max: 1e3, noNaN: true }), fc.integer({ min: -3, max: 3 })),
+      {
+        minLength: 1,
+        maxLength: 3000,
+      },
+    );
+    fc.assert(
+      fc.property(values, fc.nat(), (v, kRaw) => {
+        const a = Float64Array.from(v);
+        const k = kRaw % a.length;
+        selectInPlace(a, k);
+        const sorted = Float64Array.from(v).sort();
+        expect(a[k]).toBe(sorted[k]);
+        for (let i = 0; i < k; i++) expect(a[i]! <= a[k]!).toBe(true);
+        for (let i = k + 1; i < a.length; i++) expect(a[i]! >= a[k]!).toBe(true);
+        expect(Array.from(Float64Array.from(a).sort())).toEqual(Array.from(sorted)); // a permutation
+      }),
+      { numRuns: 200 },
+    );
+  });
+});
+
+describe('sampleCoverageIntervals (JCGM 101 7.7)', () => {
+  it('equals the full-sort reading of JCGM 101 7.7 for any sample and coverage', () => {
+    const sample = fc.array(
+      fc.oneof(fc.double({ min: -1e6, max: 1e6, noNaN: true }), fc.integer({ min: 0, max: 5 })),
+      {
+        minLength: 40,
+        maxLength: 4000,
+      },
+    );
+    fc.assert(
+      fc.property(sample, fc.constantFrom(0.5, 0.68, 0.9, 0.95, 0.99, 0.3), (v, p) => {
+        if (Math.floor(p * v.length + 0.5) >= v.length) return;
+        expect(sampleCoverageIntervals(v, p)).toEqual(byFullSort(v, p));
+      }),
+      { numRuns: 300 },
+    );
+  });
+
+  it('follows the index rules on a hand-checked sample: M = 21, p = 0.9', () => {
+    // q = ⌊18.9 + ½⌋ = 19, M − q = 2 so r = 1: [y₍₁₎, y₍₂₀₎] = [1, 20]; shortest over r = 1, 2:
+    // widths 20 − 1 = 19 and 21 − 2 = 19 tie, so the first: [1, 20]. Shuffled input.
+    const y = [13, 2, 21, 8, 1, 17, 5, 11, 20, 3, 14, 9, 19, 4, 16, 7, 12, 18, 6, 15, 10];
+    expect(sampleCoverageIntervals(y, 0.9)).toEqual({
+      interval: { low: 1, high: 20 },
+      shortestInterval: { low: 1, high: 20 },
+    });
+    // M = 20, p = 0.9: q = 18, M − q = 2 → r = 1: [1, 19] of 1…20; widths 18, 18: first.
+    expect(
+      sampleCoverageIntervals(
+        [...Array(20).keys()].map((k) => k + 1),
+        0.9,
+      ).interval,
+    ).toEqual({ low: 1, high: 19 });
+    // A skewed sample, M = 21, p = 0.5: q = ⌊10.5 + ½⌋ = 11, r = 5: symmetric [y₍₅₎, y₍₁₆₎] = [0.4, 21];
+    // the shortest interval moves to the dense side: r = 1 gives [0, y₍₁₂₎] = [0, 5], width 5.
+    const skewed = [0, 0.1, 0.2, 0.3, 0.4, 0.5, 0.6, 0.7, 0.8, 0.9, 1, 5, 9, 13, 17, 21, 25, 29, 33, 37, 41];
+    expect(sampleCoverageIntervals(skewed, 0.5)).toEqual({
+      interval: { low: 0.4, high: 21 },
+      shortestInterval: { low: 0, high: 5 },
+    });
+  });
+
+  it('does not reorder its input', () => {
+    const y = [3, 1, 2, 5, 4, 9, 8, 7, 6, 10, 11, 12, 13, 14, 15, 16, 17, 18, 19, 20, 21];
+    const copy = [...y];
+    sampleCoverageIntervals(y, 0.9);
+    expect(y).toEqual(copy);
+  });
+
+  it('rejects a bad sample or coverage', () => {
+    const y = Array.from({ length: 30 }, (_, i) => i);
+    expect(() => sampleCoverageIntervals(y, 1)).toThrowBridgeworkError('out-of-range', { param: 'coverage' });
+    expect(() => sampleCoverageIntervals(y, NaN)).toThrowBridgeworkError('not-finite', { param: 'coverage' });
+    expect(() => sampleCoverageIntervals([...y, NaN], 0.9)).toThrowBridgeworkError('not-finite', {
+      param: 'values[30]',
+    });
+    expect(() => sampleCoverageIntervals([...y, '1' as unknown as number], 0.9)).toThrowBridgeworkError(
+      'wrong-type',
+      { param: 'values[30]' },
+    );
+    expect(() => sampleCoverageIntervals('abc' as unknown as number[], 0.9)).toThrowBridgeworkError(
+      'wrong-type',
+      { param: 'values' },
+    );
+    expect(() => sampleCoverageIntervals([1, 2, 3], 0.95)).toThrowBridgeworkError('too-few-points', {
+      param: 'values',
+    });
+  });
+});
