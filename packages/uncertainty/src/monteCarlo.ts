@@ -287,12 +287,16 @@ export function monteCarlo(options: MonteCarloOptions): MonteCarloResult {
   const model = checkModel(o['model']) as EngineModel;
   const setup = prepareMonteCarlo(o);
   const runner = createBlockRunner(setup.plan, model);
-  const procedure = runProcedure(setup.settings);
-  let step = procedure.next();
-  while (!step.done) {
-    step = procedure.next(runLocally(runner, step.value));
+  let run: DriverResult;
+  try {
+    const procedure = runProcedure(setup.settings);
+    let step = procedure.next();
+    while (!step.done) step = procedure.next(runLocally(runner, step.value));
+    run = step.value;
+  } finally {
+    runner.release();
   }
-  return monteCarloResult(setup, step.value, o, model);
+  return monteCarloResult(setup, run, o, model);
 }
 
 function runLocally(runner: ReturnType<typeof createBlockRunner>, request: BlockRequest): BlockReply {

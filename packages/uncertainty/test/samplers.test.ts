@@ -57,7 +57,7 @@ describe('normal variates (256-layer ziggurat)', () => {
   });
 
   it('scale exactly: mean + scale·z is the same arithmetic on the same draws', () => {
-    const scaled = draw((s, out) => fillNormal(s, out, 0, 4096, 10, 0.25));
+    const scaled = draw((s, out) => fillNormal(s, out, 0, N, 10, 0.25));
     for (let i = 0; i < 4096; i++) expect(scaled[i]).toBe(10 + 0.25 * (z[i] as number));
   });
 });
@@ -130,9 +130,14 @@ describe('reproducibility', () => {
     expect(a[0]).not.toBe(c[0]);
   });
 
-  it('a prefix of a fill is the fill of the prefix (the stream does not depend on the count)', () => {
+  it('fills in two passes: a fill of a different length is a different (equally valid) draw', () => {
+    // The fast path fills positions in order; the 0.4 % that need the slow path are completed
+    // after the pass. So the engine always fills whole chunks (see monteCarlo's prefix test).
     const long = draw((s, out) => fillNormal(s, out, 0, 5000, 0, 1), 5);
     const short = draw((s, out) => fillNormal(s, out, 0, 1234, 0, 1), 5);
-    expect(Array.from(short.subarray(0, 1234))).toEqual(Array.from(long.subarray(0, 1234)));
+    let same = 0;
+    for (let i = 0; i < 1234; i++) if (short[i] === long[i]) same++;
+    expect(same).toBeGreaterThan(1100); // every fast-path value agrees; only completed ones move
+    expect(same).toBeLessThan(1234);
   });
 });

@@ -61,17 +61,55 @@ export interface BlockRunner {
     stats: Float64Array,
     slot: number,
   ): void;
+  /** Gives the trial record back for reuse; the runner must not be used afterwards. */
+  release(): void;
 }
 
 function describeTrial(names: readonly string[], columns: readonly Float64Array[], t: number): string {
   return names.map((n, j) => `${n} = ${String((columns[j] as Float64Array)[t])}`).join(', ');
 }
 
+/** A record whose properties read the current trial of each column, with the columns it reads. */
+interface TrialRecord {
+  readonly record: Readonly<Record<string, number>>;
+  readonly columns: readonly Float64Array[];
+  readonly cursor: { index: number };
+  inUse: boolean;
+}
+
+const records = new Map<string, TrialRecord>();
+
+/**
+ * The trial record for a list of input names. Records are cached by their names, so a model
+ * evaluated run after run always sees one object of one shape (a monomorphic property access the
+ * JIT inlines); a record in use by another runner is not shared.
+ */
+function acquireRecord(names: readonly string[]): TrialRecord {
+  const key = JSON.stringify(names);
+  const cached = records.get(key);
+  if (cached !== undefined && !cached.inUse) {
+    cached.inUse = true;
+    return cached;
+  }
+  const columns = names.map(() => new Float64Array(CHUNK_TRIALS));
+  const cursor = { index: 0 };
+  const record: Record<string, number> = {};
+  names.forEach((name, j) => {
+    const column = columns[j] as Float64Array;
+    Object.defineProperty(record, name, { get: () => column[cursor.index] as number, enumerable: true });
+  });
+  const fresh: TrialRecord = { record, columns, cursor, inUse: true };
+  if (cached === undefined) {
+    if (records.size >= 32) records.delete(records.keys().next().value as string);
+    records.set(key, fresh);
+  }
+  return fresh;
+}
+
 /** Creates a runner; its column buffers and generator states are reused from block to block. */
 export function createBlockRunner(plan: EnginePlan, model: EngineModel): BlockRunner {
   const { names, samplers, group } = plan;
   const n = names.length;
-  const columns = names.map(() => new Float64Array(CHUNK_TRIALS));
   // Stream bases J96^j(s0), the states at the start of block `positionedAt`, and working states.
   const bases: GeneratorState[] = [];
   const seedState = stateFromSeed(plan.seed);
@@ -83,12 +121,9 @@ export function createBlockRunner(plan: EnginePlan, model: EngineModel): BlockRu
   const states = bases.map((b) => b.slice());
   let positionedAt = 0;
 
-  let index = 0;
-  const record: Record<string, number> = {};
-  names.forEach((name, j) => {
-    const column = columns[j] as Float64Array;
-    Object.defineProperty(record, name, { get: () => column[index] as number, enumerable: true });
-  });
+  const view = acquireRecord(names);
+  const { record, cursor } = view;
+  const columns = view.columns;
 
   const members = group?.members ?? [];
   const g = members.length;
@@ -106,12 +141,14 @@ export function createBlockRunner(plan: EnginePlan, model: EngineModel): BlockRu
     for (let j = 0; j < n; j++) (states[j] as GeneratorState).set(starts[j] as GeneratorState);
   }
 
+  // Columns are always filled whole (CHUNK_TRIALS), even for a shorter last chunk, so a column's
+  // values never depend on how many trials the block runs (some kernels work in two passes).
   function fillChunk(length: number): void {
     for (let j = 0; j < n; j++) {
       const s = states[j] as GeneratorState;
       const column = columns[j] as Float64Array;
-      if (inGroup.has(j)) fillNormal(s, column, 0, length, 0, 1);
-      else fillFrom(samplers[j] as SamplerSpec, s, column, 0, length);
+      if (inGroup.has(j)) fillNormal(s, column, 0, CHUNK_TRIALS, 0, 1);
+      else fillFrom(samplers[j] as SamplerSpec, s, column, 0, CHUNK_TRIALS);
     }
     // x_r = mean_r + scale_r·Σ_{c ≤ r} L[r][c]·z_c, rows from the last so each z_c is still intact.
     for (let r = g - 1; r >= 0; r--) {
@@ -137,7 +174,7 @@ export function createBlockRunner(plan: EnginePlan, model: EngineModel): BlockRu
         fillChunk(length);
         const base = offset + done;
         for (let t = 0; t < length; t++) {
-          index = t;
+          cursor.index = t;
           const y = model(record);
           if (typeof y !== 'number' || y - y !== 0) {
             const trial = block * BLOCK_TRIALS + done + t;
@@ -162,6 +199,9 @@ export function createBlockRunner(plan: EnginePlan, model: EngineModel): BlockRu
       }
       stats[2 * slot] = mean;
       stats[2 * slot + 1] = m2;
+    },
+    release() {
+      view.inUse = false;
     },
   };
 }

@@ -9,7 +9,7 @@
  *
  * Resolution: uniform variates carry 53 random bits, U = (m + ½)·2⁻⁵³ with m uniform on
  * 0…2⁵³ − 1, so U lies in the open interval (0, 1) and 1 − U has the same distribution as U.
- * A normal variate uses 8 bits for the ziggurat layer and 52 further bits for its abscissa (the
+ * A normal variate uses 10 bits for the ziggurat layer and 52 further bits for its abscissa (the
  * layer and the value come from disjoint bits, the remedy of J. A. Doornik, "An improved ziggurat
  * method to generate normal random samples", 2005).
  */
@@ -27,7 +27,7 @@ export type SamplerSpec =
   | { readonly kind: 't'; readonly mean: number; readonly scale: number; readonly degreesOfFreedom: number };
 
 const TWO_POW_26 = 67108864;
-const TWO_POW_28 = 268435456;
+const TWO_POW_30 = 1073741824;
 const TWO_POW_M51 = 4.440892098500626e-16;
 const TWO_POW_M52 = 2.220446049250313e-16;
 const TWO_POW_M53 = 1.1102230246251565e-16;
@@ -67,7 +67,32 @@ function zigguratSlowPath(s: GeneratorState, layer: number, u: number): number {
   return y < portableExp(-0.5 * z * z) ? z : NaN;
 }
 
-/** Fills out[from…to) with mean + scale·Z, Z standard normal (256-layer ziggurat). */
+/** One standard normal variate by the whole ziggurat (fast test, then the slow path), state in `s`. */
+function normalOne(s: GeneratorState): number {
+  for (;;) {
+    const r1 = nextUint32(s) | 0;
+    const r2 = nextUint32(s);
+    const layer = r1 & 1023;
+    const u = ((r1 >> 10) * TWO_POW_30 + (r2 >>> 2) + 0.5) * TWO_POW_M51;
+    if (Math.abs(u) < (zigguratRatio[layer] as number)) return u * (zigguratX[layer] as number);
+    const z = zigguratSlowPath(s, layer, u);
+    if (z === z) return z;
+  }
+}
+
+// Draws that failed the fast test, kept for the slow path (a fill never holds more than `to − from`).
+let rejectedAt = new Int32Array(256);
+let rejectedU = new Float64Array(256);
+
+/**
+ * Fills out[from…to) with mean + scale·Z, Z standard normal (1024-layer ziggurat).
+ *
+ * Two passes, so that the hot loop is a leaf (no call, the generator state stays in registers):
+ * the first makes one ziggurat draw per position and keeps those that pass the fast test
+ * (99.6 %); the second completes the others in order — the slow path for their own draw, then
+ * whole new draws until one is accepted — continuing the same stream. The values therefore
+ * depend on `to − from`: callers fill whole chunks of a fixed length.
+ */
 export function fillNormal(
   s: GeneratorState,
   out: Float64Array,
@@ -76,11 +101,18 @@ export function fillNormal(
   mean: number,
   scale: number,
 ): void {
+  if (rejectedAt.length < to - from) {
+    rejectedAt = new Int32Array(to - from);
+    rejectedU = new Float64Array(to - from);
+  }
+  const at = rejectedAt;
+  const keptU = rejectedU;
+  let rejected = 0;
   let a = s[0] as number;
   let b = s[1] as number;
   let c = s[2] as number;
   let d = s[3] as number;
-  for (let i = from; i < to;) {
+  for (let i = from; i < to; i++) {
     let m = Math.imul(b, 5);
     const r1 = Math.imul((m << 7) | (m >>> 25), 9);
     let t = b << 9;
@@ -99,28 +131,26 @@ export function fillNormal(
     a ^= d;
     c ^= t;
     d = (d << 11) | (d >>> 21);
-    const layer = r1 & 255;
-    // 52 bits: the top 24 of r1 (signed) and the top 28 of r2; u is uniform on (−1, 1).
-    const u = ((r1 >> 8) * TWO_POW_28 + (r2 >>> 4) + 0.5) * TWO_POW_M51;
+    const layer = r1 & 1023;
+    // 52 bits: the top 22 of r1 (signed) and the top 30 of r2; u is uniform on (−1, 1).
+    const u = ((r1 >> 10) * TWO_POW_30 + (r2 >>> 2) + 0.5) * TWO_POW_M51;
     if (Math.abs(u) < (zigguratRatio[layer] as number)) {
-      out[i++] = mean + scale * (u * (zigguratX[layer] as number));
-      continue;
+      out[i] = mean + scale * (u * (zigguratX[layer] as number));
+    } else {
+      at[rejected] = i | (layer << 20); // positions fit in 20 bits (chunks are far shorter)
+      keptU[rejected++] = u;
     }
-    s[0] = a;
-    s[1] = b;
-    s[2] = c;
-    s[3] = d;
-    const z = zigguratSlowPath(s, layer, u);
-    a = s[0] as number;
-    b = s[1] as number;
-    c = s[2] as number;
-    d = s[3] as number;
-    if (z === z) out[i++] = mean + scale * z;
   }
   s[0] = a;
   s[1] = b;
   s[2] = c;
   s[3] = d;
+  for (let k = 0; k < rejected; k++) {
+    const packed = at[k] as number;
+    let z = zigguratSlowPath(s, packed >>> 20, keptU[k] as number);
+    if (z !== z) z = normalOne(s);
+    out[packed & 0xfffff] = mean + scale * z;
+  }
 }
 
 /** Fills out[from…to) with mean + halfWidth·W, W uniform on (−1, 1). */

@@ -56,11 +56,15 @@ port.on('message', (message: WorkerMessage) => {
       const values = new Float64Array(message.values);
       const stats = new Float64Array(message.stats);
       const counter = new Int32Array(message.counter);
-      for (;;) {
-        const b = Atomics.add(counter, 0, 1);
-        if (b >= message.blockCount) break;
-        const count = Math.min(BLOCK_TRIALS, message.trials - b * BLOCK_TRIALS);
-        runner.runBlock(message.firstBlock + b, count, values, b * BLOCK_TRIALS, stats, b);
+      try {
+        for (;;) {
+          const b = Atomics.add(counter, 0, 1);
+          if (b >= message.blockCount) break;
+          const count = Math.min(BLOCK_TRIALS, message.trials - b * BLOCK_TRIALS);
+          runner.runBlock(message.firstBlock + b, count, values, b * BLOCK_TRIALS, stats, b);
+        }
+      } finally {
+        runner.release();
       }
       port.postMessage({ type: 'done' } satisfies WorkerReply);
     } catch (error) {
