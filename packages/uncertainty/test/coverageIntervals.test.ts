@@ -1,6 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { sampleCoverageIntervals } from '@bridgework/uncertainty';
+import { radixSortInPlace } from '../src/internal/radixSort.js';
 import { selectInPlace } from '../src/internal/select.js';
 
 /**
@@ -47,6 +48,37 @@ describe('selectInPlace (Floyd–Rivest)', () => {
   });
 });
 
+describe('radixSortInPlace', () => {
+  it('sorts exactly as the built-in typed-array sort, signed zeros, subnormals and infinities included', () => {
+    const special = fc.constantFrom(
+      0,
+      -0,
+      5e-324,
+      -5e-324,
+      Number.MAX_VALUE,
+      -Number.MAX_VALUE,
+      Infinity,
+      -Infinity,
+      1,
+      -1,
+    );
+    const value = fc.oneof(fc.double({ noNaN: true }), special, fc.integer({ min: -5, max: 5 }));
+    fc.assert(
+      fc.property(fc.array(value, { maxLength: 5000 }), (v) => {
+        const a = Float64Array.from(v);
+        radixSortInPlace(a);
+        const b = Float64Array.from(v).sort();
+        expect(a.length).toBe(b.length);
+        for (let i = 0; i < a.length; i++) expect(Object.is(a[i], b[i])).toBe(true);
+      }),
+      { numRuns: 200 },
+    );
+    const whole = Float64Array.from([3, 2, 1, 0, -1]);
+    radixSortInPlace(whole.subarray(1, 4)); // a view: only its range is sorted
+    expect(Array.from(whole)).toEqual([3, 0, 1, 2, -1]);
+  });
+});
+
 describe('sampleCoverageIntervals (JCGM 101 7.7)', () => {
   it('equals the full-sort reading of JCGM 101 7.7 for any sample and coverage', () => {
     const sample = fc.array(
@@ -63,6 +95,18 @@ describe('sampleCoverageIntervals (JCGM 101 7.7)', () => {
       }),
       { numRuns: 300 },
     );
+  });
+
+  it('takes the sampled-threshold path and the selection path to the same result on large samples', () => {
+    // Above 131 072 values the tails are found by a pass against sampled thresholds; heavy ties
+    // defeat the thresholds and send it to Floyd–Rivest selection. Both must equal the full sort.
+    const smooth = Float64Array.from(
+      { length: 200_000 },
+      (_, i) => Math.sin(i * 12.9898) * 43758.5453 - Math.floor(Math.sin(i * 12.9898) * 43758.5453),
+    );
+    const tied = Float64Array.from({ length: 200_000 }, (_, i) => (i * 7919) % 13);
+    for (const v of [smooth, tied])
+      expect(sampleCoverageIntervals(v, 0.95)).toEqual(byFullSort(Array.from(v), 0.95));
   });
 
   it('follows the index rules on a hand-checked sample: M = 21, p = 0.9', () => {

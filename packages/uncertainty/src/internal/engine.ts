@@ -16,12 +16,12 @@
  */
 import { BridgeworkError, formatValue } from '@bridgework/core';
 import { fillFrom, fillNormal, type SamplerSpec } from './samplers.js';
+import { acquireRecord, CHUNK_TRIALS } from './trialRecord.js';
 import { jump64, jump96, stateFromSeed, type GeneratorState } from './xoshiro128.js';
 
 /** Trials per seeding block. */
 export const BLOCK_TRIALS = 16384;
-/** Trials generated at once inside a block (sized so the columns stay in cache). */
-export const CHUNK_TRIALS = 2048;
+export { CHUNK_TRIALS };
 
 /** Inputs drawn jointly from a multivariate Gaussian: x = mean + scale·(L·z) (JCGM 101 6.4.8). */
 export interface CorrelatedGroup {
@@ -67,43 +67,6 @@ export interface BlockRunner {
 
 function describeTrial(names: readonly string[], columns: readonly Float64Array[], t: number): string {
   return names.map((n, j) => `${n} = ${String((columns[j] as Float64Array)[t])}`).join(', ');
-}
-
-/** A record whose properties read the current trial of each column, with the columns it reads. */
-interface TrialRecord {
-  readonly record: Readonly<Record<string, number>>;
-  readonly columns: readonly Float64Array[];
-  readonly cursor: { index: number };
-  inUse: boolean;
-}
-
-const records = new Map<string, TrialRecord>();
-
-/**
- * The trial record for a list of input names. Records are cached by their names, so a model
- * evaluated run after run always sees one object of one shape (a monomorphic property access the
- * JIT inlines); a record in use by another runner is not shared.
- */
-function acquireRecord(names: readonly string[]): TrialRecord {
-  const key = JSON.stringify(names);
-  const cached = records.get(key);
-  if (cached !== undefined && !cached.inUse) {
-    cached.inUse = true;
-    return cached;
-  }
-  const columns = names.map(() => new Float64Array(CHUNK_TRIALS));
-  const cursor = { index: 0 };
-  const record: Record<string, number> = {};
-  names.forEach((name, j) => {
-    const column = columns[j] as Float64Array;
-    Object.defineProperty(record, name, { get: () => column[cursor.index] as number, enumerable: true });
-  });
-  const fresh: TrialRecord = { record, columns, cursor, inUse: true };
-  if (cached === undefined) {
-    if (records.size >= 32) records.delete(records.keys().next().value as string);
-    records.set(key, fresh);
-  }
-  return fresh;
 }
 
 /** Creates a runner; its column buffers and generator states are reused from block to block. */

@@ -4,6 +4,7 @@
  * elements", Comm. ACM 18(3), 1975), expected 1.5·n comparisons.
  */
 import type { Interval } from '../types.js';
+import { radixSortInPlace } from './radixSort.js';
 
 function swap(a: Float64Array, i: number, j: number): void {
   const t = a[i] as number;
@@ -128,8 +129,10 @@ function tailsByThresholds(
     }
   }
   if (nl < count || nh < count) return undefined;
-  const lowSorted = low.subarray(0, nl).sort();
-  const highSorted = high.subarray(0, nh).sort();
+  const lowSorted = low.subarray(0, nl);
+  radixSortInPlace(lowSorted);
+  const highSorted = high.subarray(0, nh);
+  radixSortInPlace(highSorted);
   return { low: lowSorted.subarray(0, count), high: highSorted.subarray(nh - count) };
 }
 
@@ -146,14 +149,14 @@ export function sampleIntervalsInPlace(a: Float64Array, coverage: number): Sampl
   const q = coveredCount(coverage, m);
   const candidates = m - q; // left ends y_(1) … y_(M−q), 1-based
   if (q <= candidates) {
-    a.sort();
+    radixSortInPlace(a);
     return intervalsFromTails(a, a.subarray(q), q, candidates);
   }
   const tails = tailsByThresholds(a, candidates);
   if (tails !== undefined) return intervalsFromTails(tails.low, tails.high, q, candidates);
   selectInPlace(a, candidates - 1);
-  a.subarray(0, candidates).sort();
+  radixSortInPlace(a.subarray(0, candidates));
   selectInPlace(a, q, candidates, m - 1);
-  a.subarray(q).sort();
+  radixSortInPlace(a.subarray(q));
   return intervalsFromTails(a, a.subarray(q), q, candidates);
 }
