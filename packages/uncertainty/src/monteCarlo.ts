@@ -18,6 +18,7 @@ import {
   type DriverSettings,
 } from './internal/driver.js';
 import { BLOCK_TRIALS, createBlockRunner, type EngineModel, type EnginePlan } from './internal/engine.js';
+import { sampleIntervalsInPlace } from './internal/select.js';
 import { checkModel } from './internal/model.js';
 import { propagateScalar, type Propagation } from './propagate.js';
 import { normalizeInputs, type InputQuantities } from './quantities.js';
@@ -193,12 +194,29 @@ export function prepareMonteCarlo(o: Record<string, unknown>): MonteCarloSetup {
   };
 }
 
-/** Assembles the public result from the procedure's statistics and the optional GUM comparison. */
+/** The law of propagation for the comparison (unless `compareWithGum` is false). */
+export function gumFor(
+  setup: MonteCarloSetup,
+  o: Record<string, unknown>,
+  model: MeasurementModel,
+): Propagation | undefined {
+  if (!setup.compareWithGum) return undefined;
+  return propagateScalar({
+    model,
+    inputs: o['inputs'] as InputQuantities,
+    coverage: setup.coverage,
+    ...(o['correlations'] === undefined ? {} : { correlations: o['correlations'] as readonly Correlation[] }),
+    ...(o['gradient'] === undefined
+      ? {}
+      : { gradient: o['gradient'] as NonNullable<MonteCarloOptions['gradient']> }),
+  });
+}
+
+/** Assembles the public result from the procedure's statistics and the optional GUM result. */
 export function monteCarloResult(
   setup: MonteCarloSetup,
   run: DriverResult,
-  o: Record<string, unknown>,
-  model: MeasurementModel,
+  gum: Propagation | undefined,
 ): MonteCarloResult {
   const base = {
     value: run.value,
@@ -211,16 +229,7 @@ export function monteCarloResult(
     ...(run.adaptive === undefined ? {} : { adaptive: run.adaptive }),
     ...(run.values === undefined ? {} : { values: run.values }),
   };
-  if (!setup.compareWithGum) return base;
-  const gum = propagateScalar({
-    model,
-    inputs: o['inputs'] as InputQuantities,
-    coverage: setup.coverage,
-    ...(o['correlations'] === undefined ? {} : { correlations: o['correlations'] as readonly Correlation[] }),
-    ...(o['gradient'] === undefined
-      ? {}
-      : { gradient: o['gradient'] as NonNullable<MonteCarloOptions['gradient']> }),
-  });
+  if (gum === undefined) return base;
   const gumValidation = validateGum({ gum, monteCarlo: base, significantDigits: setup.significantDigits });
   return { ...base, gum, gumValidation };
 }
@@ -291,12 +300,19 @@ export function monteCarlo(options: MonteCarloOptions): MonteCarloResult {
   try {
     const procedure = runProcedure(setup.settings);
     let step = procedure.next();
-    while (!step.done) step = procedure.next(runLocally(runner, step.value));
+    while (!step.done) {
+      const request = step.value;
+      step = procedure.next(
+        request.kind === 'blocks'
+          ? runLocally(runner, request)
+          : sampleIntervalsInPlace(request.values, request.coverage),
+      );
+    }
     run = step.value;
   } finally {
     runner.release();
   }
-  return monteCarloResult(setup, run, o, model);
+  return monteCarloResult(setup, run, gumFor(setup, o, model));
 }
 
 function runLocally(runner: ReturnType<typeof createBlockRunner>, request: BlockRequest): BlockReply {

@@ -4,7 +4,12 @@
  * elements", Comm. ACM 18(3), 1975), expected 1.5·n comparisons.
  */
 import type { Interval } from '../types.js';
-import { radixSortInPlace } from './radixSort.js';
+import { bucketSortInPlace } from './bucketSort.js';
+
+/** Ascending sort of finite values (bucket sort; the built-in sort if a value is not finite). */
+function sortFinite(a: Float64Array): void {
+  if (!bucketSortInPlace(a)) a.sort();
+}
 
 function swap(a: Float64Array, i: number, j: number): void {
   const t = a[i] as number;
@@ -90,17 +95,23 @@ function intervalsFromTails(
   return { interval, shortestInterval: { low: low[best] as number, high: high[best] as number } };
 }
 
+/** Two values that enclose the central part of a sample, and room for what lies beyond them. */
+export interface TailThresholds {
+  /** Values below this go to the lower tail. */
+  readonly below: number;
+  /** Values above this go to the upper tail. */
+  readonly above: number;
+  /** The most values either tail may hold before the thresholds are deemed to have failed. */
+  readonly capacity: number;
+}
+
 /**
- * The lowest and highest `count` values of `a` in ascending order, by one pass against two
- * thresholds taken from a strided sample of 8192 values (each set 1.2 % of M beyond the expected
- * position, five standard errors of the sample quantile), or `undefined` when the thresholds
- * enclose too few values (ties, or a one-in-a-million sample) and selection must be used instead.
- * `a` is not modified.
+ * Thresholds for the lowest and highest `count` values of `a`, from a strided sample of 8192
+ * values: each is set 1.2 % of M beyond the expected position (five standard errors of the sample
+ * quantile), so a tail holds about 6.2 % of the sample when count = 5 %. `undefined` for samples
+ * too small to be worth it. Deterministic: the same values give the same thresholds.
  */
-function tailsByThresholds(
-  a: Float64Array,
-  count: number,
-): { low: Float64Array; high: Float64Array } | undefined {
+export function tailThresholds(a: Float64Array, count: number): TailThresholds | undefined {
   const m = a.length;
   const n = 8192;
   if (m < 16 * n) return undefined;
@@ -111,52 +122,111 @@ function tailsByThresholds(
   const margin = Math.ceil(0.012 * n);
   const rank = Math.ceil((count / m) * n);
   if (rank + margin >= n - rank - margin) return undefined;
-  const below = sample[rank + margin] as number;
-  const above = sample[n - 1 - rank - margin] as number;
-  const capacity = Math.ceil(m * ((rank + 2 * margin) / n)) + 1024;
-  const low = new Float64Array(capacity);
-  const high = new Float64Array(capacity);
+  return {
+    below: sample[rank + margin] as number,
+    above: sample[n - 1 - rank - margin] as number,
+    capacity: Math.ceil(m * ((rank + 2 * margin) / n)) + 1024,
+  };
+}
+
+/**
+ * Copies the values of a[from…to) below and above the thresholds, in index order, to
+ * low[0…) and high[0…). Returns their numbers, or −1 for a side that exceeds `capacity`.
+ */
+export function extractTails(
+  a: Float64Array,
+  from: number,
+  to: number,
+  t: TailThresholds,
+  low: Float64Array,
+  high: Float64Array,
+): { readonly low: number; readonly high: number } {
+  const { below, above, capacity } = t;
   let nl = 0;
   let nh = 0;
-  for (let i = 0; i < m; i++) {
+  for (let i = from; i < to; i++) {
     const v = a[i] as number;
     if (v < below) {
-      if (nl === capacity) return undefined;
+      if (nl === capacity) return { low: -1, high: -1 };
       low[nl++] = v;
     } else if (v > above) {
-      if (nh === capacity) return undefined;
+      if (nh === capacity) return { low: -1, high: -1 };
       high[nh++] = v;
     }
   }
-  if (nl < count || nh < count) return undefined;
-  const lowSorted = low.subarray(0, nl);
-  radixSortInPlace(lowSorted);
-  const highSorted = high.subarray(0, nh);
-  radixSortInPlace(highSorted);
-  return { low: lowSorted.subarray(0, count), high: highSorted.subarray(nh - count) };
+  return { low: nl, high: nh };
+}
+
+/**
+ * The intervals from the values beyond the thresholds (in index order), or `undefined` when a
+ * side holds too few (or, overall, too many) of them and selection must be used instead.
+ */
+export function intervalsFromExtracted(
+  low: Float64Array,
+  high: Float64Array,
+  capacity: number,
+  coverage: number,
+  trials: number,
+): SampleIntervals | undefined {
+  const q = coveredCount(coverage, trials);
+  const candidates = trials - q;
+  if (low.length < candidates || high.length < candidates || low.length > capacity || high.length > capacity)
+    return undefined;
+  sortFinite(low);
+  sortFinite(high);
+  return intervalsFromTails(
+    low.subarray(0, candidates),
+    high.subarray(high.length - candidates),
+    q,
+    candidates,
+  );
+}
+
+/**
+ * Both JCGM 101 coverage intervals by the slow, sure route: a full sort when p ≤ ½, else
+ * Floyd–Rivest selection of the lowest and highest M − q values and a sort of those. Permutes `a`.
+ */
+export function intervalsBySelection(a: Float64Array, coverage: number): SampleIntervals {
+  const m = a.length;
+  const q = coveredCount(coverage, m);
+  const candidates = m - q;
+  if (q <= candidates) {
+    sortFinite(a);
+    return intervalsFromTails(a, a.subarray(q), q, candidates);
+  }
+  selectInPlace(a, candidates - 1);
+  sortFinite(a.subarray(0, candidates));
+  selectInPlace(a, q, candidates, m - 1);
+  sortFinite(a.subarray(q));
+  return intervalsFromTails(a, a.subarray(q), q, candidates);
 }
 
 /**
  * Both JCGM 101 coverage intervals of the values. Only the lowest and the highest M − q values are
  * sorted (q = the covered count): every candidate end of the shortest interval lies there; with
  * p ≥ ½ that is 2(1 − p) of the sample, a tenth for p = 0.95. They are found by one pass against
- * sampled thresholds, or else by Floyd–Rivest selection (which permutes `a`).
+ * sampled thresholds, or else (ties, small samples) by Floyd–Rivest selection, which permutes `a`.
  *
  * Requires q < M (at least one candidate interval) and no NaN in `a`.
  */
 export function sampleIntervalsInPlace(a: Float64Array, coverage: number): SampleIntervals {
   const m = a.length;
-  const q = coveredCount(coverage, m);
-  const candidates = m - q; // left ends y_(1) … y_(M−q), 1-based
-  if (q <= candidates) {
-    radixSortInPlace(a);
-    return intervalsFromTails(a, a.subarray(q), q, candidates);
+  const candidates = m - coveredCount(coverage, m);
+  const t = candidates < m / 2 ? tailThresholds(a, candidates) : undefined;
+  if (t !== undefined) {
+    const low = new Float64Array(t.capacity);
+    const high = new Float64Array(t.capacity);
+    const n = extractTails(a, 0, m, t, low, high);
+    if (n.low >= 0) {
+      const r = intervalsFromExtracted(
+        low.subarray(0, n.low),
+        high.subarray(0, n.high),
+        t.capacity,
+        coverage,
+        m,
+      );
+      if (r !== undefined) return r;
+    }
   }
-  const tails = tailsByThresholds(a, candidates);
-  if (tails !== undefined) return intervalsFromTails(tails.low, tails.high, q, candidates);
-  selectInPlace(a, candidates - 1);
-  radixSortInPlace(a.subarray(0, candidates));
-  selectInPlace(a, q, candidates, m - 1);
-  radixSortInPlace(a.subarray(q));
-  return intervalsFromTails(a, a.subarray(q), q, candidates);
+  return intervalsBySelection(a, coverage);
 }

@@ -6,6 +6,7 @@
 import { parentPort } from 'node:worker_threads';
 import { isBridgeworkError } from '@bridgework/core';
 import { BLOCK_TRIALS, createBlockRunner, type EngineModel } from '../internal/engine.js';
+import { extractTails } from '../internal/select.js';
 import type { WorkerMessage, WorkerReply } from './protocol.js';
 
 if (parentPort === null) throw new Error('this module runs as a worker thread');
@@ -49,6 +50,18 @@ port.on('message', (message: WorkerMessage) => {
         }
         model = candidate as EngineModel;
         port.postMessage({ type: 'loaded' } satisfies WorkerReply);
+        return;
+      }
+      if (message.type === 'tails') {
+        const counts = extractTails(
+          new Float64Array(message.values),
+          message.from,
+          message.to,
+          message.thresholds,
+          new Float64Array(message.low),
+          new Float64Array(message.high),
+        );
+        port.postMessage({ type: 'tails', ...counts } satisfies WorkerReply);
         return;
       }
       if (model === undefined) throw new Error('no model loaded');
