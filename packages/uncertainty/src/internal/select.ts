@@ -230,3 +230,63 @@ export function sampleIntervalsInPlace(a: Float64Array, coverage: number): Sampl
   }
   return intervalsBySelection(a, coverage);
 }
+
+/** Sorts one part of an extracted tail in place (stable), as a worker does before the merge. */
+export function sortTailPart(part: Float64Array): void {
+  sortFinite(part);
+}
+
+/**
+ * The intervals from tails extracted in parts (in index order) and each sorted stably: a stable
+ * merge taking equal values from the earlier part first gives exactly the stable sort of the
+ * parts joined, so the result equals {@link intervalsFromExtracted} on the joined tails.
+ */
+export function intervalsFromSortedParts(
+  lows: readonly Float64Array[],
+  highs: readonly Float64Array[],
+  capacity: number,
+  coverage: number,
+  trials: number,
+): SampleIntervals | undefined {
+  const q = coveredCount(coverage, trials);
+  const candidates = trials - q;
+  const total = (parts: readonly Float64Array[]): number => parts.reduce((a, p) => a + p.length, 0);
+  const nl = total(lows);
+  const nh = total(highs);
+  if (nl < candidates || nh < candidates || nl > capacity || nh > capacity) return undefined;
+  // The smallest `candidates`, merged from the front (ties: earlier part first).
+  const low = new Float64Array(candidates);
+  const front = lows.map(() => 0);
+  for (let k = 0; k < candidates; k++) {
+    let best = -1;
+    let value = Infinity;
+    for (let p = 0; p < lows.length; p++) {
+      const part = lows[p] as Float64Array;
+      const i = front[p] as number;
+      if (i < part.length && (best < 0 || (part[i] as number) < value)) {
+        best = p;
+        value = part[i] as number;
+      }
+    }
+    low[k] = value;
+    front[best] = (front[best] as number) + 1;
+  }
+  // The largest `candidates`, merged from the back (ties: later part first, as in the joined order).
+  const high = new Float64Array(candidates);
+  const back = highs.map((part) => part.length - 1);
+  for (let k = candidates - 1; k >= 0; k--) {
+    let best = -1;
+    let value = -Infinity;
+    for (let p = highs.length - 1; p >= 0; p--) {
+      const part = highs[p] as Float64Array;
+      const i = back[p] as number;
+      if (i >= 0 && (best < 0 || (part[i] as number) > value)) {
+        best = p;
+        value = part[i] as number;
+      }
+    }
+    high[k] = value;
+    back[best] = (back[best] as number) - 1;
+  }
+  return intervalsFromTails(low, high, q, candidates);
+}

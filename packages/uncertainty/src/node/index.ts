@@ -17,7 +17,7 @@ import type { EnginePlan } from '../internal/engine.js';
 import {
   coveredCount,
   intervalsBySelection,
-  intervalsFromExtracted,
+  intervalsFromSortedParts,
   sampleIntervalsInPlace,
   tailThresholds,
   type SampleIntervals,
@@ -232,9 +232,10 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
   }
 
   /**
-   * The coverage intervals with the tails extracted in parallel: each worker scans a contiguous
-   * range; the parts, joined in range order, are exactly what one scan in index order finds, so
-   * the result equals `sampleIntervalsInPlace` bit for bit (including its fallback decisions).
+   * The coverage intervals with the tails extracted and sorted in parallel: each worker scans a
+   * contiguous range and sorts what it found (stably); the parts, merged stably in range order,
+   * are exactly what one scan in index order and one stable sort give, so the result equals
+   * `sampleIntervalsInPlace` bit for bit (including its fallback decisions).
    */
   async function intervals(values: Float64Array, coverage: number): Promise<SampleIntervals> {
     const m = values.length;
@@ -263,18 +264,12 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
     );
     const counts = replies.map((r) => (r.type === 'tails' ? r : { low: -1, high: -1 }));
     const total = (side: 'low' | 'high'): number => counts.reduce((a, c) => a + c[side], 0);
-    if (counts.every((c) => c.low >= 0) && total('low') <= t.capacity && total('high') <= t.capacity) {
-      const join = (side: 'low' | 'high'): Float64Array => {
-        const out = new Float64Array(total(side));
-        let at = 0;
-        parts.forEach((p, w) => {
-          const n = (counts[w] as { low: number; high: number })[side];
-          out.set(new Float64Array(p[side], 0, n), at);
-          at += n;
-        });
-        return out;
-      };
-      const r = intervalsFromExtracted(join('low'), join('high'), t.capacity, coverage, m);
+    if (counts.every((c) => c.low >= 0)) {
+      const side = (which: 'low' | 'high'): Float64Array[] =>
+        parts.map(
+          (p, w) => new Float64Array(p[which], 0, (counts[w] as { low: number; high: number })[which]),
+        );
+      const r = intervalsFromSortedParts(side('low'), side('high'), t.capacity, coverage, m);
       if (r !== undefined) return r;
     }
     return intervalsBySelection(values, coverage);

@@ -6,7 +6,7 @@
 import { parentPort } from 'node:worker_threads';
 import { isBridgeworkError } from '@bridgework/core';
 import { BLOCK_TRIALS, createBlockRunner, type EngineModel } from '../internal/engine.js';
-import { extractTails } from '../internal/select.js';
+import { extractTails, sortTailPart } from '../internal/select.js';
 import type { WorkerMessage, WorkerReply } from './protocol.js';
 
 if (parentPort === null) throw new Error('this module runs as a worker thread');
@@ -53,14 +53,20 @@ port.on('message', (message: WorkerMessage) => {
         return;
       }
       if (message.type === 'tails') {
+        const low = new Float64Array(message.low);
+        const high = new Float64Array(message.high);
         const counts = extractTails(
           new Float64Array(message.values),
           message.from,
           message.to,
           message.thresholds,
-          new Float64Array(message.low),
-          new Float64Array(message.high),
+          low,
+          high,
         );
+        if (counts.low >= 0) {
+          sortTailPart(low.subarray(0, counts.low));
+          sortTailPart(high.subarray(0, counts.high));
+        }
         port.postMessage({ type: 'tails', ...counts } satisfies WorkerReply);
         return;
       }
