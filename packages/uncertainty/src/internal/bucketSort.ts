@@ -8,9 +8,6 @@
  * +0 included, so the same input order always gives the same output.
  */
 
-let counts = new Int32Array(0);
-let scratch = new Float64Array(0);
-
 /** Sorts `a` in place; returns false (leaving `a` unchanged) if a value is not finite. */
 export function bucketSortInPlace(a: Float64Array): boolean {
   const n = a.length;
@@ -32,9 +29,8 @@ export function bucketSortInPlace(a: Float64Array): boolean {
     mergeSort(a, 0, n);
     return true;
   }
-  if (counts.length < buckets + 1) counts = new Int32Array(buckets + 1);
-  if (scratch.length < n) scratch = new Float64Array(n);
-  counts.fill(0, 0, buckets + 1);
+  const counts = new Int32Array(buckets + 1);
+  const scratch = new Float64Array(n);
   const top = buckets - 1;
   for (let i = 0; i < n; i++) {
     const b = Math.min(top, Math.floor(((a[i] as number) - lo) * scale));
@@ -58,7 +54,7 @@ export function bucketSortInPlace(a: Float64Array): boolean {
     else if (size > 1) stableInsertion(scratch, start, end);
     start = end;
   }
-  a.set(scratch.subarray(0, n));
+  a.set(scratch);
   return true;
 }
 
@@ -74,12 +70,10 @@ function stableInsertion(a: Float64Array, from: number, to: number): void {
   }
 }
 
-let merge = new Float64Array(0);
-
 /** Stable bottom-up merge sort of a[from…to) (runs of 16 by insertion, then merges). */
 function mergeSort(a: Float64Array, from: number, to: number): void {
   const n = to - from;
-  if (merge.length < n) merge = new Float64Array(n);
+  const merge = new Float64Array(n);
   for (let i = from; i < to; i += 16) stableInsertion(a, i, Math.min(i + 16, to));
   let source: Float64Array = a.subarray(from, to);
   let target: Float64Array = merge.subarray(0, n);
