@@ -84,9 +84,16 @@ function normalOne(s: GeneratorState): number {
   }
 }
 
-// Draws that failed the fast test, kept for the slow path (a fill never holds more than `to − from`).
+// The fast test in integers: with h = r >> 10 (22 signed bits) and m = |h + ½| − ½ (h, or −h − 1),
+// |u| < x_{i+1}/x_i for u = (h + ½)·2⁻²¹ exactly when m < ⌈ratio_i·2²¹ − ½⌉ (the scaling by 2²¹ and
+// the subtraction of ½ are exact). Accepted values are (h + ½)·(x_i·2⁻²¹): the same double as
+// u·x_i, since scaling by a power of two is exact.
+const fastLimit = Int32Array.from(zigguratRatio, (ratio) => Math.ceil(ratio * 2097152 - 0.5));
+const fastScale = zigguratX.map((x) => x * TWO_POW_M21);
+
+// Draws that failed the fast test (their output word and position), completed after the pass.
+let rejectedWord = new Int32Array(256);
 let rejectedAt = new Int32Array(256);
-let rejectedU = new Float64Array(256);
 
 /**
  * Fills out[from…to) with mean + scale·Z, Z standard normal (1024-layer ziggurat).
@@ -106,11 +113,13 @@ export function fillNormal(
   scale: number,
 ): void {
   if (rejectedAt.length < to - from) {
+    rejectedWord = new Int32Array(to - from);
     rejectedAt = new Int32Array(to - from);
-    rejectedU = new Float64Array(to - from);
   }
+  const words = rejectedWord;
   const at = rejectedAt;
-  const keptU = rejectedU;
+  const limit = fastLimit;
+  const width = fastScale;
   let rejected = 0;
   let a = s[0] as number;
   let b = s[1] as number;
@@ -127,13 +136,12 @@ export function fillNormal(
     c ^= t;
     d = (d << 11) | (d >>> 21);
     const layer = r & 1023;
-    // The top 22 bits (signed): u is uniform on (−1, 1), symmetric about 0.
-    const u = ((r >> 10) + 0.5) * TWO_POW_M21;
-    if (Math.abs(u) < (zigguratRatio[layer] as number)) {
-      out[i] = mean + scale * (u * (zigguratX[layer] as number));
+    const h = r >> 10; // the top 22 bits, signed: u = (h + ½)·2⁻²¹ is uniform on (−1, 1)
+    if ((h ^ (h >> 31)) < (limit[layer] as number)) {
+      out[i] = mean + scale * ((h + 0.5) * (width[layer] as number));
     } else {
-      at[rejected] = i | (layer << 20); // positions fit in 20 bits (chunks are far shorter)
-      keptU[rejected++] = u;
+      words[rejected] = r;
+      at[rejected++] = i;
     }
   }
   s[0] = a;
@@ -141,10 +149,10 @@ export function fillNormal(
   s[2] = c;
   s[3] = d;
   for (let k = 0; k < rejected; k++) {
-    const packed = at[k] as number;
-    let z = zigguratSlowPath(s, packed >>> 20, keptU[k] as number);
+    const r = words[k] as number;
+    let z = zigguratSlowPath(s, r & 1023, ((r >> 10) + 0.5) * TWO_POW_M21);
     if (z !== z) z = normalOne(s);
-    out[packed & 0xfffff] = mean + scale * z;
+    out[at[k] as number] = mean + scale * z;
   }
 }
 
