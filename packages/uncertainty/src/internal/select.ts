@@ -158,31 +158,6 @@ export function extractTails(
 }
 
 /**
- * The intervals from the values beyond the thresholds (in index order), or `undefined` when a
- * side holds too few (or, overall, too many) of them and selection must be used instead.
- */
-export function intervalsFromExtracted(
-  low: Float64Array,
-  high: Float64Array,
-  capacity: number,
-  coverage: number,
-  trials: number,
-): SampleIntervals | undefined {
-  const q = coveredCount(coverage, trials);
-  const candidates = trials - q;
-  if (low.length < candidates || high.length < candidates || low.length > capacity || high.length > capacity)
-    return undefined;
-  sortFinite(low);
-  sortFinite(high);
-  return intervalsFromTails(
-    low.subarray(0, candidates),
-    high.subarray(high.length - candidates),
-    q,
-    candidates,
-  );
-}
-
-/**
  * Both JCGM 101 coverage intervals by the slow, sure route: a full sort when p ≤ ½, else
  * Floyd–Rivest selection of the lowest and highest M − q values and a sort of those. Permutes `a`.
  */
@@ -218,13 +193,11 @@ export function sampleIntervalsInPlace(a: Float64Array, coverage: number): Sampl
     const high = new Float64Array(t.capacity);
     const n = extractTails(a, 0, m, t, low, high);
     if (n.low >= 0) {
-      const r = intervalsFromExtracted(
-        low.subarray(0, n.low),
-        high.subarray(0, n.high),
-        t.capacity,
-        coverage,
-        m,
-      );
+      const lows = low.subarray(0, n.low);
+      const highs = high.subarray(0, n.high);
+      sortTailPart(lows);
+      sortTailPart(highs);
+      const r = intervalsFromSortedParts([lows], [highs], t.capacity, coverage, m);
       if (r !== undefined) return r;
     }
   }
@@ -237,9 +210,10 @@ export function sortTailPart(part: Float64Array): void {
 }
 
 /**
- * The intervals from tails extracted in parts (in index order) and each sorted stably: a stable
- * merge taking equal values from the earlier part first gives exactly the stable sort of the
- * parts joined, so the result equals {@link intervalsFromExtracted} on the joined tails.
+ * The intervals from tails extracted in parts (in index order) and each sorted stably, or
+ * `undefined` when a side holds too few (or, overall, too many) values and selection must be used
+ * instead. A stable merge taking equal values from the earlier part first gives exactly the stable sort of the
+ * parts joined, whatever the number of parts (one, in a single thread; one per worker).
  */
 export function intervalsFromSortedParts(
   lows: readonly Float64Array[],
