@@ -235,9 +235,13 @@ export function* runProcedure(
   }
 }
 
-/** The smallest number of trials for which a coverage interval exists (q < M). */
+/**
+ * The smallest number of trials for which a coverage interval exists (q < M): ⌊pM + ½⌋ < M holds
+ * from M = ⌊½/(1 − p)⌋ + 1 on; the loop only repairs the rounding of ½/(1 − p).
+ */
 export function minimumTrials(coverage: number): number {
-  let m = 2;
+  let m = Math.max(2, Math.floor(0.5 / (1 - coverage)) + 1);
+  while (m > 2 && coveredCount(coverage, m - 1) < m - 1) m--;
   while (coveredCount(coverage, m) >= m) m++;
   return m;
 }
