@@ -18,6 +18,7 @@ import {
   type DriverSettings,
 } from './internal/driver.js';
 import { BLOCK_TRIALS, createBlockRunner, type EngineModel, type EnginePlan } from './internal/engine.js';
+import { sampleIntervalsInPlace } from './internal/select.js';
 import { checkModel } from './internal/model.js';
 import { propagateScalar, type Propagation } from './propagate.js';
 import { normalizeInputs, type InputQuantities } from './quantities.js';
@@ -193,12 +194,29 @@ export function prepareMonteCarlo(o: Record<string, unknown>): MonteCarloSetup {
   };
 }
 
-/** Assembles the public result from the procedure's statistics and the optional GUM comparison. */
+/** The law of propagation for the comparison (unless `compareWithGum` is false). */
+export function gumFor(
+  setup: MonteCarloSetup,
+  o: Record<string, unknown>,
+  model: MeasurementModel,
+): Propagation | undefined {
+  if (!setup.compareWithGum) return undefined;
+  return propagateScalar({
+    model,
+    inputs: o['inputs'] as InputQuantities,
+    coverage: setup.coverage,
+    ...(o['correlations'] === undefined ? {} : { correlations: o['correlations'] as readonly Correlation[] }),
+    ...(o['gradient'] === undefined
+      ? {}
+      : { gradient: o['gradient'] as NonNullable<MonteCarloOptions['gradient']> }),
+  });
+}
+
+/** Assembles the public result from the procedure's statistics and the optional GUM result. */
 export function monteCarloResult(
   setup: MonteCarloSetup,
   run: DriverResult,
-  o: Record<string, unknown>,
-  model: MeasurementModel,
+  gum: Propagation | undefined,
 ): MonteCarloResult {
   const base = {
     value: run.value,
@@ -211,16 +229,7 @@ export function monteCarloResult(
     ...(run.adaptive === undefined ? {} : { adaptive: run.adaptive }),
     ...(run.values === undefined ? {} : { values: run.values }),
   };
-  if (!setup.compareWithGum) return base;
-  const gum = propagateScalar({
-    model,
-    inputs: o['inputs'] as InputQuantities,
-    coverage: setup.coverage,
-    ...(o['correlations'] === undefined ? {} : { correlations: o['correlations'] as readonly Correlation[] }),
-    ...(o['gradient'] === undefined
-      ? {}
-      : { gradient: o['gradient'] as NonNullable<MonteCarloOptions['gradient']> }),
-  });
+  if (gum === undefined) return base;
   const gumValidation = validateGum({ gum, monteCarlo: base, significantDigits: setup.significantDigits });
   return { ...base, gum, gumValidation };
 }
@@ -236,8 +245,9 @@ export function monteCarloResult(
  * The estimate is the mean of the M values, u(y) their standard deviation (7.6); the
  * probabilistically symmetric interval is [y₍ᵣ₎, y₍ᵣ₊q₎] with q = pM rounded as in 7.7.1 and
  * r = (M − q)/2 (or (M − q + 1)/2), and the shortest interval minimises y₍ᵣ₊q₎ − y₍ᵣ₎ (7.7.2). Only
- * the lowest and highest M − q values are sorted (Floyd–Rivest selection finds them), never the
- * whole sample. `adaptive` runs sequences of max(100/(1 − p), 10⁴) trials (rounded up to whole
+ * the lowest and highest M − q values are sorted, never the whole sample: one pass against two
+ * thresholds taken from a sample of the values collects them (Floyd–Rivest selection when ties
+ * defeat the thresholds), and a stable bucket sort orders them. `adaptive` runs sequences of max(100/(1 − p), 10⁴) trials (rounded up to whole
  * blocks of 16 384) until twice the standard deviation of the average of each sequence result —
  * estimate, u(y) and the ends of the chosen coverage interval — is at most the tolerance δ of
  * u(y) to `significantDigits` digits (7.9.2, 7.9.4), then reports the results of all trials. Unless
@@ -245,19 +255,25 @@ export function monteCarloResult(
  * clause 8 ({@link validateGum}).
  *
  * Random numbers: xoshiro128** (Blackman and Vigna 2021) with one stream per input and block of
- * 16 384 trials, 2⁶⁴ draws apart; uniform variates with 53 random bits; normal variates by a
- * 256-layer ziggurat (Marsaglia and Tsang 2000, with the layer and value taken from disjoint
- * bits); t variates by Bailey's polar method. The generators use only exactly rounded
+ * 16 384 trials, 2⁶⁴ draws apart; rectangular variates from one 32-bit output (2³² values);
+ * normal variates by a 1024-layer ziggurat (Marsaglia and Tsang 2000) from one 32-bit output,
+ * 10 bits for the layer and 22 disjoint bits for the abscissa; triangular, arcsine and t
+ * variates (Bailey's polar method) from 53-bit uniforms. The generators use only exactly rounded
  * arithmetic and their own logarithm and exponential, so the same seed gives the same result on
  * every machine and engine (provided the model itself is deterministic), and the same result as
  * `monteCarloInWorkers` (from `@bridgework/uncertainty/node`) with any number of workers. A run of
  * M trials is the prefix of any longer run with the same seed.
  *
- * The model is called once per trial with one reused record whose properties read the current
- * trial (getters): no allocation per trial. It must not keep the record or write to it.
+ * The model is called once per trial with one reused, read-only record whose properties are
+ * getters reading the current trial: nothing is allocated per trial. It must not keep the record
+ * or write to it. The same record shape is passed by {@link propagate}, so a model evaluated by
+ * both stays fast; calling the same model function elsewhere with other objects may slow it.
  *
- * Memory: 8·M bytes of model values (twice with `returnValues`), plus 16 KB per input; the
- * adaptive procedure holds up to twice the model values it has used.
+ * Memory: about 10·M bytes at the peak — 8·M for the model values, 1.2·M for the two tails and
+ * 0.75·M while one is sorted — plus 16 KB per input, and 8·M more with `returnValues`; 10⁶ trials
+ * hold about 10 MB. The adaptive procedure holds up to twice the model values it has used, plus
+ * one sequence. Nothing stays allocated after the run but the 16 KB per input of the cached
+ * trial record.
  *
  * @param options - Model, inputs, correlations, trials or adaptive, seed, coverage, comparison.
  * @returns Estimate, standard uncertainty, both coverage intervals, trials, and the GUM comparison.
@@ -287,12 +303,23 @@ export function monteCarlo(options: MonteCarloOptions): MonteCarloResult {
   const model = checkModel(o['model']) as EngineModel;
   const setup = prepareMonteCarlo(o);
   const runner = createBlockRunner(setup.plan, model);
-  const procedure = runProcedure(setup.settings);
-  let step = procedure.next();
-  while (!step.done) {
-    step = procedure.next(runLocally(runner, step.value));
+  let run: DriverResult;
+  try {
+    const procedure = runProcedure(setup.settings);
+    let step = procedure.next();
+    while (!step.done) {
+      const request = step.value;
+      step = procedure.next(
+        request.kind === 'blocks'
+          ? runLocally(runner, request)
+          : sampleIntervalsInPlace(request.values, request.coverage),
+      );
+    }
+    run = step.value;
+  } finally {
+    runner.release();
   }
-  return monteCarloResult(setup, step.value, o, model);
+  return monteCarloResult(setup, run, gumFor(setup, o, model));
 }
 
 function runLocally(runner: ReturnType<typeof createBlockRunner>, request: BlockRequest): BlockReply {

@@ -1,5 +1,5 @@
 import { BridgeworkError, checkObject, checkPositive, checkRange, formatValue } from '@bridgework/core';
-import { normalizeCorrelations, type Correlation } from './correlations.js';
+import { normalizeCorrelations, type Correlation, type CorrelationMatrix } from './correlations.js';
 import { coverageFactor, effectiveDegreesOfFreedomOf, truncatedDegreesOfFreedom } from './coverageFactor.js';
 import {
   baseSteps,
@@ -9,6 +9,7 @@ import {
   type PointEvaluator,
 } from './internal/derivatives.js';
 import { checkModel, describePoint, toOutputs } from './internal/model.js';
+import { acquireRecord, type TrialRecord } from './internal/trialRecord.js';
 import { normalizeInputs, type InputQuantities, type NormalizedInput } from './quantities.js';
 import type { Interval, MeasurementModel, VectorMeasurementModel } from './types.js';
 
@@ -124,15 +125,20 @@ interface Internals {
   readonly statedDegreesOfFreedom: number | undefined;
 }
 
+/**
+ * Evaluates the model at points through the shared trial record of these names (see
+ * internal/trialRecord.ts), so the model sees the same object shape as in Monte Carlo runs.
+ */
 function evaluatorFor(
   model: (x: Readonly<Record<string, number>>) => unknown,
-  names: readonly string[],
+  view: TrialRecord,
   m: number,
 ): PointEvaluator {
+  const { record, columns, cursor } = view;
   return (point) => {
-    const record: Record<string, number> = {};
-    names.forEach((name, i) => {
-      record[name] = point[i] as number;
+    cursor.index = 0;
+    columns.forEach((column, i) => {
+      column[0] = point[i] as number;
     });
     const raw = model(record);
     const out = toOutputs(raw);
@@ -225,7 +231,6 @@ function compute(options: unknown, vectorAllowed: boolean): Internals {
   const model = checkModel(o['model']);
   const inputs = normalizeInputs(o['inputs']);
   const names = inputs.map((q) => q.name);
-  const n = names.length;
   const { matrix: r, pairs } = normalizeCorrelations(names, o['correlations']);
   const coverage =
     o['coverage'] === undefined
@@ -253,12 +258,49 @@ function compute(options: unknown, vectorAllowed: boolean): Internals {
   const x = Float64Array.from(inputs, (q) => q.value);
   const u = Float64Array.from(inputs, (q) => q.standardUncertainty);
 
+  const view = acquireRecord(names);
+  try {
+    return lawOfPropagation(
+      model,
+      gradient,
+      view,
+      inputs,
+      x,
+      u,
+      r,
+      pairs,
+      coverage,
+      secondOrder === true,
+      statedDegreesOfFreedom,
+      vectorAllowed,
+    );
+  } finally {
+    view.inUse = false;
+  }
+}
+
+function lawOfPropagation(
+  model: (x: Readonly<Record<string, number>>) => unknown,
+  gradient: unknown,
+  view: TrialRecord,
+  inputs: NormalizedInput[],
+  x: Float64Array,
+  u: Float64Array,
+  r: Float64Array,
+  pairs: CorrelationMatrix['pairs'],
+  coverage: number,
+  secondOrder: boolean,
+  statedDegreesOfFreedom: number | undefined,
+  vectorAllowed: boolean,
+): Internals {
+  const names = inputs.map((q) => q.name);
+  const n = names.length;
   // The estimate fixes the shape of the output.
-  const estimateRecord: Record<string, number> = {};
-  names.forEach((name, i) => {
-    estimateRecord[name] = x[i] as number;
+  view.cursor.index = 0;
+  view.columns.forEach((column, i) => {
+    column[0] = x[i] as number;
   });
-  const raw = model(estimateRecord);
+  const raw = model(view.record);
   const y = toOutputs(raw);
   if (y === undefined || y.length === 0) {
     throw new BridgeworkError(
@@ -303,7 +345,7 @@ function compute(options: unknown, vectorAllowed: boolean): Internals {
     );
   }
 
-  const evaluate = evaluatorFor(model, names, m);
+  const evaluate = evaluatorFor(model, view, m);
   const steps = baseSteps(x, u);
   let jac: Float64Array;
   try {

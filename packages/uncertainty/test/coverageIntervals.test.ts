@@ -1,6 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { sampleCoverageIntervals } from '@bridgework/uncertainty';
+import { bucketSortInPlace } from '../src/internal/bucketSort.js';
 import { selectInPlace } from '../src/internal/select.js';
 
 /**
@@ -9,7 +10,7 @@ import { selectInPlace } from '../src/internal/select.js';
  * (M − q + 1)/2; shortest: r* minimising y₍ᵣ₊q₎ − y₍ᵣ₎ over r = 1 … M − q, the first on ties.
  */
 function byFullSort(values: readonly number[], p: number) {
-  const y = Array.from(Float64Array.from(values).sort()); // typed sort: −0 before +0, as the selection leaves them
+  const y = Array.from(Float64Array.from(values).sort());
   const m = y.length;
   const pm = p * m;
   const q = Math.abs(pm - Math.round(pm)) < 1e-9 ? Math.round(pm) : Math.floor(pm + 0.5);
@@ -37,13 +38,57 @@ describe('selectInPlace (Floyd–Rivest)', () => {
         const k = kRaw % a.length;
         selectInPlace(a, k);
         const sorted = Float64Array.from(v).sort();
-        expect(a[k]).toBe(sorted[k]);
+        expect(a[k] === sorted[k]).toBe(true); // === : selection does not order −0 and +0
         for (let i = 0; i < k; i++) expect(a[i]! <= a[k]!).toBe(true);
         for (let i = k + 1; i < a.length; i++) expect(a[i]! >= a[k]!).toBe(true);
         expect(Array.from(Float64Array.from(a).sort())).toEqual(Array.from(sorted)); // a permutation
       }),
       { numRuns: 200 },
     );
+  });
+});
+
+describe('bucketSortInPlace', () => {
+  it('sorts like the built-in sort, stably, whatever the spread: extremes, subnormals, ties, spikes', () => {
+    const special = fc.constantFrom(
+      0,
+      -0,
+      5e-324,
+      -5e-324,
+      Number.MAX_VALUE,
+      -Number.MAX_VALUE,
+      1,
+      -1,
+      1 + 2 ** -52,
+    );
+    const value = fc.oneof(
+      fc.double({ noNaN: true, noDefaultInfinity: true }),
+      special,
+      fc.integer({ min: -5, max: 5 }),
+    );
+    fc.assert(
+      fc.property(fc.array(value, { maxLength: 4000 }), (v) => {
+        const a = Float64Array.from(v);
+        expect(bucketSortInPlace(a)).toBe(true);
+        const b = Float64Array.from(v).sort();
+        for (let i = 0; i < a.length; i++) expect(a[i] === b[i]).toBe(true); // ±0 keep their input order
+        // Stable: −0 and +0 (equal) appear in their input order.
+        const zeros = v.filter((x) => x === 0).map((x) => Object.is(x, -0));
+        expect(
+          Array.from(a)
+            .filter((x) => x === 0)
+            .map((x) => Object.is(x, -0)),
+        ).toEqual(zeros);
+      }),
+      { numRuns: 300 },
+    );
+    // A spike (most values within 1e-12 of each other) with far outliers: merge sort takes over.
+    const spike = Float64Array.from({ length: 20000 }, (_, i) =>
+      i % 1000 === 0 ? 1e6 : 1 + ((i * 7919) % 997) * 1e-12,
+    );
+    bucketSortInPlace(spike);
+    for (let i = 1; i < spike.length; i++) expect(spike[i - 1]! <= spike[i]!).toBe(true);
+    expect(bucketSortInPlace(Float64Array.from([1, Infinity]))).toBe(false); // not for infinities
   });
 });
 
@@ -59,10 +104,33 @@ describe('sampleCoverageIntervals (JCGM 101 7.7)', () => {
     fc.assert(
       fc.property(sample, fc.constantFrom(0.5, 0.68, 0.9, 0.95, 0.99, 0.3), (v, p) => {
         if (Math.floor(p * v.length + 0.5) >= v.length) return;
-        expect(sampleCoverageIntervals(v, p)).toEqual(byFullSort(v, p));
+        const ours = sampleCoverageIntervals(v, p);
+        const ref = byFullSort(v, p);
+        // Exact (abs: 0 compares with ===, so −0 and +0 are equal: their order is not specified).
+        expect([
+          ours.interval.low,
+          ours.interval.high,
+          ours.shortestInterval.low,
+          ours.shortestInterval.high,
+        ]).toBeNear(
+          [ref.interval.low, ref.interval.high, ref.shortestInterval.low, ref.shortestInterval.high],
+          { abs: 0 },
+        );
       }),
       { numRuns: 300 },
     );
+  });
+
+  it('takes the sampled-threshold path and the selection path to the same result on large samples', () => {
+    // Above 131 072 values the tails are found by a pass against sampled thresholds; heavy ties
+    // defeat the thresholds and send it to Floyd–Rivest selection. Both must equal the full sort.
+    const smooth = Float64Array.from(
+      { length: 200_000 },
+      (_, i) => Math.sin(i * 12.9898) * 43758.5453 - Math.floor(Math.sin(i * 12.9898) * 43758.5453),
+    );
+    const tied = Float64Array.from({ length: 200_000 }, (_, i) => (i * 7919) % 13);
+    for (const v of [smooth, tied])
+      expect(sampleCoverageIntervals(v, 0.95)).toEqual(byFullSort(Array.from(v), 0.95));
   });
 
   it('follows the index rules on a hand-checked sample: M = 21, p = 0.9', () => {

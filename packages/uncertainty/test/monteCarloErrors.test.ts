@@ -79,8 +79,12 @@ describe('monteCarlo: bad input', () => {
     });
     expect(run({ trials: 1.5 })).toThrowBridgeworkError('not-integer', { param: 'trials' });
     expect(run({ trials: 10 })).toThrowBridgeworkError('out-of-range', { param: 'trials' }); // q = ⌊9.5 + ½⌋ = M: no interval
-    expect(run({ trials: 21, compareWithGum: false })).not.toThrow(); // the least M for p = 0.95
+    expect(run({ trials: 11, compareWithGum: false })).not.toThrow(); // the least M for p = 0.95: q = ⌊10.45 + ½⌋ = 10 < 11
     expect(run({ trials: 2e9 })).toThrowBridgeworkError('out-of-range', { param: 'trials' });
+    // p = 1 − 10⁻⁷ needs M > ½/(1 − p) = 5·10⁶ trials for an interval to exist (found without a search).
+    expect(run({ coverage: 1 - 1e-7, trials: 4_000_000 })).toThrowBridgeworkError('out-of-range', {
+      param: 'trials',
+    });
     expect(run({ seed: -1 })).toThrowBridgeworkError('out-of-range', { param: 'seed' });
     expect(run({ seed: 0.5 })).toThrowBridgeworkError('not-integer', { param: 'seed' });
     expect(run({ seed: 2 ** 53 })).toThrowBridgeworkError('out-of-range', { param: 'seed' });

@@ -18,15 +18,16 @@ import { chiSquareEquiprobable, ksCritical, ksStatistic, moments } from './suppo
 const math = create(all as NonNullable<typeof all>, {});
 const normalCdf = (x: number): number => 0.5 * (1 + (math.erf(x / Math.SQRT2) as number));
 
-const N = 1 << 20;
+const N = 1 << 20; // normal variates: the most used, tested hardest
+const NS = 1 << 18; // the other distributions
 // With a fixed seed these tests are deterministic; each threshold is the value a correct generator
 // exceeds with probability 1e-6, so a failure means a wrong distribution, not bad luck.
 const ALPHA = 1e-6;
-/** 5 standard errors, for moment checks: √(Var/N) of the statistic. */
-const five = (variance: number): number => 5 * Math.sqrt(variance / N);
+/** 5 standard errors, for moment checks: √(Var/n) of the statistic. */
+const five = (variance: number, n = N): number => 5 * Math.sqrt(variance / n);
 
-function draw(fill: (s: Int32Array, out: Float64Array) => void, seed = 2024): Float64Array {
-  const out = new Float64Array(N);
+function draw(fill: (s: Int32Array, out: Float64Array) => void, seed = 2024, n = N): Float64Array {
+  const out = new Float64Array(n);
   fill(stateFromSeed(seed), out);
   return out;
 }
@@ -57,7 +58,7 @@ describe('normal variates (256-layer ziggurat)', () => {
   });
 
   it('scale exactly: mean + scale·z is the same arithmetic on the same draws', () => {
-    const scaled = draw((s, out) => fillNormal(s, out, 0, 4096, 10, 0.25));
+    const scaled = draw((s, out) => fillNormal(s, out, 0, N, 10, 0.25));
     for (let i = 0; i < 4096; i++) expect(scaled[i]).toBe(10 + 0.25 * (z[i] as number));
   });
 });
@@ -76,48 +77,48 @@ describe('uniform variates', () => {
   });
 
   it('rectangular variates follow U(−a, a) (KS) with variance a²/3', () => {
-    const r = draw((s, out) => fillRectangular(s, out, 0, N, 0, 1));
-    expect(ksStatistic(r, (x) => (x + 1) / 2)).toBeLessThan(ksCritical(N, ALPHA));
+    const r = draw((s, out) => fillRectangular(s, out, 0, NS, 0, 1), 2024, NS);
+    expect(ksStatistic(r, (x) => (x + 1) / 2)).toBeLessThan(ksCritical(NS, ALPHA));
     const m = moments(r);
-    expect(m.mean).toBeNear(0, { abs: five(1 / 3) });
-    expect(m.variance).toBeNear(1 / 3, { abs: five(4 / 45) }); // Var(s²) = (μ₄ − σ⁴)/N = (1/5 − 1/9)/N
+    expect(m.mean).toBeNear(0, { abs: five(1 / 3, NS) });
+    expect(m.variance).toBeNear(1 / 3, { abs: five(4 / 45, NS) }); // Var(s²) = (μ₄ − σ⁴)/n = (1/5 − 1/9)/n
     expect(Math.min(...r.subarray(0, 1000))).toBeGreaterThan(-1);
   });
 });
 
 describe('triangular, arcsine and Student-t variates', () => {
   it('triangular variates follow the symmetric triangular law on (−1, 1), variance 1/6', () => {
-    const t = draw((s, out) => fillTriangular(s, out, 0, N, 0, 1));
+    const t = draw((s, out) => fillTriangular(s, out, 0, NS, 0, 1), 2024, NS);
     const cdf = (x: number): number => (x < 0 ? (1 + x) ** 2 / 2 : 1 - (1 - x) ** 2 / 2);
-    expect(ksStatistic(t, cdf)).toBeLessThan(ksCritical(N, ALPHA));
-    expect(moments(t).variance).toBeNear(1 / 6, { abs: five(1 / 15 - 1 / 36) }); // μ₄ = 1/15
+    expect(ksStatistic(t, cdf)).toBeLessThan(ksCritical(NS, ALPHA));
+    expect(moments(t).variance).toBeNear(1 / 6, { abs: five(1 / 15 - 1 / 36, NS) }); // μ₄ = 1/15
   });
 
   it('arcsine variates follow F(x) = ½ + arcsin(x)/π on (−1, 1), variance 1/2', () => {
-    const a = draw((s, out) => fillArcsine(s, out, 0, N, 0, 1));
-    expect(ksStatistic(a, (x) => 0.5 + Math.asin(x) / Math.PI)).toBeLessThan(ksCritical(N, ALPHA));
-    expect(moments(a).variance).toBeNear(1 / 2, { abs: five(3 / 8 - 1 / 4) }); // μ₄ = 3/8
+    const a = draw((s, out) => fillArcsine(s, out, 0, NS, 0, 1), 2024, NS);
+    expect(ksStatistic(a, (x) => 0.5 + Math.asin(x) / Math.PI)).toBeLessThan(ksCritical(NS, ALPHA));
+    expect(moments(a).variance).toBeNear(1 / 2, { abs: five(3 / 8 - 1 / 4, NS) }); // μ₄ = 3/8
     for (const v of a.subarray(0, 1000)) expect(Math.abs(v)).toBeLessThanOrEqual(1);
   });
 
   it('Student-t variates follow the t CDF: ν = 1 (Cauchy), ν = 3, ν = ∞ (normal)', () => {
     // Closed forms: ν = 1: ½ + atan(t)/π; ν = 3: ½ + (1/π)[t/(√3(1 + t²/3)) + atan(t/√3)]
     // (Abramowitz & Stegun 26.7.3 with ν = 1, 3).
-    const cauchy = draw((s, out) => fillStudentT(s, out, 0, N, 0, 1, 1));
-    expect(ksStatistic(cauchy, (t) => 0.5 + Math.atan(t) / Math.PI)).toBeLessThan(ksCritical(N, ALPHA));
-    const t3 = draw((s, out) => fillStudentT(s, out, 0, N, 0, 1, 3));
+    const cauchy = draw((s, out) => fillStudentT(s, out, 0, NS, 0, 1, 1), 2024, NS);
+    expect(ksStatistic(cauchy, (t) => 0.5 + Math.atan(t) / Math.PI)).toBeLessThan(ksCritical(NS, ALPHA));
+    const t3 = draw((s, out) => fillStudentT(s, out, 0, NS, 0, 1, 3), 2024, NS);
     const cdf3 = (t: number): number =>
       0.5 + (t / (Math.sqrt(3) * (1 + (t * t) / 3)) + Math.atan(t / Math.sqrt(3))) / Math.PI;
-    expect(ksStatistic(t3, cdf3)).toBeLessThan(ksCritical(N, ALPHA));
-    const tInf = draw((s, out) => fillStudentT(s, out, 0, N, 0, 1, Infinity));
-    expect(ksStatistic(tInf, normalCdf)).toBeLessThan(ksCritical(N, ALPHA));
+    expect(ksStatistic(t3, cdf3)).toBeLessThan(ksCritical(NS, ALPHA));
+    const tInf = draw((s, out) => fillStudentT(s, out, 0, NS, 0, 1, Infinity), 2024, NS);
+    expect(ksStatistic(tInf, normalCdf)).toBeLessThan(ksCritical(NS, ALPHA));
   });
 
   it('Student-t variates with large ν are normal to within sampling error, with no cancellation', () => {
     // Var(t_ν) = ν/(ν − 2); for ν = 10⁶ that is 1 + 2e-6, invisible at this sample size.
-    const t = draw((s, out) => fillStudentT(s, out, 0, N, 0, 1, 1e6));
-    expect(ksStatistic(t, normalCdf)).toBeLessThan(ksCritical(N, ALPHA));
-    expect(moments(t).variance).toBeNear(1, { abs: five(2) });
+    const t = draw((s, out) => fillStudentT(s, out, 0, NS, 0, 1, 1e6), 2024, NS);
+    expect(ksStatistic(t, normalCdf)).toBeLessThan(ksCritical(NS, ALPHA));
+    expect(moments(t).variance).toBeNear(1, { abs: five(2, NS) });
   });
 });
 
@@ -130,9 +131,14 @@ describe('reproducibility', () => {
     expect(a[0]).not.toBe(c[0]);
   });
 
-  it('a prefix of a fill is the fill of the prefix (the stream does not depend on the count)', () => {
+  it('fills in two passes: a fill of a different length is a different (equally valid) draw', () => {
+    // The fast path fills positions in order; the 0.4 % that need the slow path are completed
+    // after the pass. So the engine always fills whole chunks (see monteCarlo's prefix test).
     const long = draw((s, out) => fillNormal(s, out, 0, 5000, 0, 1), 5);
     const short = draw((s, out) => fillNormal(s, out, 0, 1234, 0, 1), 5);
-    expect(Array.from(short.subarray(0, 1234))).toEqual(Array.from(long.subarray(0, 1234)));
+    let same = 0;
+    for (let i = 0; i < 1234; i++) if (short[i] === long[i]) same++;
+    expect(same).toBeGreaterThan(1100); // every fast-path value agrees; only completed ones move
+    expect(same).toBeLessThan(1234);
   });
 });

@@ -7,10 +7,12 @@ import { BridgeworkError } from '@bridgework/core';
 import type { Interval } from '../types.js';
 import { numericalTolerance } from '../validateGum.js';
 import { BLOCK_TRIALS, mergeMoments, type MomentAccumulator } from './engine.js';
-import { coveredCount, sampleIntervalsInPlace } from './select.js';
+import { coveredCount, sampleIntervalsInPlace, type SampleIntervals } from './select.js';
 
 /** A request for the model values of blocks `firstBlock … firstBlock + blockCount − 1`. */
 export interface BlockRequest {
+  /** `'blocks'`. */
+  readonly kind: 'blocks';
   /** The first seeding block. */
   readonly firstBlock: number;
   /** How many blocks. */
@@ -26,6 +28,22 @@ export interface BlockReply {
   /** Per block: mean and sum of squared deviations, interleaved (length 2·blockCount). */
   readonly stats: Float64Array;
 }
+
+/** A request for the coverage intervals of the run's values (the runner may compute them in parallel). */
+export interface IntervalsRequest {
+  /** `'intervals'`. */
+  readonly kind: 'intervals';
+  /** The model values (may be permuted by the runner). */
+  readonly values: Float64Array;
+  /** Coverage probability p. */
+  readonly coverage: number;
+}
+
+/** What the procedure asks a runner for. */
+export type ProcedureRequest = BlockRequest | IntervalsRequest;
+
+/** A runner's answer: block values for a {@link BlockRequest}, intervals for an {@link IntervalsRequest}. */
+export type ProcedureReply = BlockReply | SampleIntervals;
 
 /** Settings of a run, already checked. */
 export interface DriverSettings {
@@ -95,14 +113,18 @@ export interface DriverResult {
   readonly adaptive: AdaptiveReport | undefined;
 }
 
-function finish(
+function* finish(
   values: Float64Array,
   moments: MomentAccumulator,
   settings: DriverSettings,
   adaptive?: AdaptiveReport,
-): DriverResult {
+): Generator<ProcedureRequest, DriverResult, ProcedureReply> {
   const copy = settings.returnValues ? values.slice() : undefined;
-  const { interval, shortestInterval } = sampleIntervalsInPlace(values, settings.coverage);
+  const { interval, shortestInterval } = (yield {
+    kind: 'intervals',
+    values,
+    coverage: settings.coverage,
+  }) as SampleIntervals;
   return {
     value: moments.mean,
     standardUncertainty: Math.sqrt(moments.m2 / (moments.count - 1)),
@@ -130,17 +152,20 @@ function spreadOfAverage(values: readonly number[]): number {
 }
 
 /** Runs the procedure; yields block requests, returns the results. */
-export function* runProcedure(settings: DriverSettings): Generator<BlockRequest, DriverResult, BlockReply> {
+export function* runProcedure(
+  settings: DriverSettings,
+): Generator<ProcedureRequest, DriverResult, ProcedureReply> {
   const all: MomentAccumulator = { count: 0, mean: 0, m2: 0 };
   if (settings.adaptive === undefined) {
-    const request = {
+    const request: BlockRequest = {
+      kind: 'blocks',
       firstBlock: 0,
       blockCount: Math.ceil(settings.trials / BLOCK_TRIALS),
       trials: settings.trials,
     };
-    const reply = yield request;
+    const reply = (yield request) as BlockReply;
     mergeBlocks(all, reply, request);
-    return finish(reply.values, all, settings);
+    return yield* finish(reply.values, all, settings);
   }
 
   // JCGM 101 7.9.4: sequences of M = max(J, 10⁴) trials, J the smallest integer ≥ 100/(1 − p),
@@ -160,8 +185,13 @@ export function* runProcedure(settings: DriverSettings): Generator<BlockRequest,
         { param: 'adaptive.maxTrials', value: maxTrials, limit: maxTrials },
       );
     }
-    const request = { firstBlock: h * blocksPerSequence, blockCount: blocksPerSequence, trials: perSequence };
-    const reply = yield request;
+    const request: BlockRequest = {
+      kind: 'blocks',
+      firstBlock: h * blocksPerSequence,
+      blockCount: blocksPerSequence,
+      trials: perSequence,
+    };
+    const reply = (yield request) as BlockReply;
     if (buffer.length < (h + 1) * perSequence) {
       const grown = new Float64Array(2 * buffer.length);
       grown.set(buffer.subarray(0, h * perSequence));
@@ -200,14 +230,18 @@ export function* runProcedure(settings: DriverSettings): Generator<BlockRequest,
         tolerance,
         spread,
       };
-      return finish(buffer.subarray(0, all.count), all, settings, report);
+      return yield* finish(buffer.subarray(0, all.count), all, settings, report);
     }
   }
 }
 
-/** The smallest number of trials for which a coverage interval exists (q < M). */
+/**
+ * The smallest number of trials for which a coverage interval exists (q < M): ⌊pM + ½⌋ < M holds
+ * from M = ⌊½/(1 − p)⌋ + 1 on; the loop only repairs the rounding of ½/(1 − p).
+ */
 export function minimumTrials(coverage: number): number {
-  let m = 2;
+  let m = Math.max(2, Math.floor(0.5 / (1 - coverage)) + 1);
+  while (m > 2 && coveredCount(coverage, m - 1) < m - 1) m--;
   while (coveredCount(coverage, m) >= m) m++;
   return m;
 }

@@ -16,12 +16,12 @@
  */
 import { BridgeworkError, formatValue } from '@bridgework/core';
 import { fillFrom, fillNormal, type SamplerSpec } from './samplers.js';
+import { acquireRecord, CHUNK_TRIALS } from './trialRecord.js';
 import { jump64, jump96, stateFromSeed, type GeneratorState } from './xoshiro128.js';
 
 /** Trials per seeding block. */
 export const BLOCK_TRIALS = 16384;
-/** Trials generated at once inside a block (sized so the columns stay in cache). */
-export const CHUNK_TRIALS = 2048;
+export { CHUNK_TRIALS };
 
 /** Inputs drawn jointly from a multivariate Gaussian: x = mean + scale·(L·z) (JCGM 101 6.4.8). */
 export interface CorrelatedGroup {
@@ -61,6 +61,8 @@ export interface BlockRunner {
     stats: Float64Array,
     slot: number,
   ): void;
+  /** Gives the trial record back for reuse; the runner must not be used afterwards. */
+  release(): void;
 }
 
 function describeTrial(names: readonly string[], columns: readonly Float64Array[], t: number): string {
@@ -71,7 +73,6 @@ function describeTrial(names: readonly string[], columns: readonly Float64Array[
 export function createBlockRunner(plan: EnginePlan, model: EngineModel): BlockRunner {
   const { names, samplers, group } = plan;
   const n = names.length;
-  const columns = names.map(() => new Float64Array(CHUNK_TRIALS));
   // Stream bases J96^j(s0), the states at the start of block `positionedAt`, and working states.
   const bases: GeneratorState[] = [];
   const seedState = stateFromSeed(plan.seed);
@@ -83,12 +84,9 @@ export function createBlockRunner(plan: EnginePlan, model: EngineModel): BlockRu
   const states = bases.map((b) => b.slice());
   let positionedAt = 0;
 
-  let index = 0;
-  const record: Record<string, number> = {};
-  names.forEach((name, j) => {
-    const column = columns[j] as Float64Array;
-    Object.defineProperty(record, name, { get: () => column[index] as number, enumerable: true });
-  });
+  const view = acquireRecord(names);
+  const { record, cursor } = view;
+  const columns = view.columns;
 
   const members = group?.members ?? [];
   const g = members.length;
@@ -106,12 +104,14 @@ export function createBlockRunner(plan: EnginePlan, model: EngineModel): BlockRu
     for (let j = 0; j < n; j++) (states[j] as GeneratorState).set(starts[j] as GeneratorState);
   }
 
+  // Columns are always filled whole (CHUNK_TRIALS), even for a shorter last chunk, so a column's
+  // values never depend on how many trials the block runs (some kernels work in two passes).
   function fillChunk(length: number): void {
     for (let j = 0; j < n; j++) {
       const s = states[j] as GeneratorState;
       const column = columns[j] as Float64Array;
-      if (inGroup.has(j)) fillNormal(s, column, 0, length, 0, 1);
-      else fillFrom(samplers[j] as SamplerSpec, s, column, 0, length);
+      if (inGroup.has(j)) fillNormal(s, column, 0, CHUNK_TRIALS, 0, 1);
+      else fillFrom(samplers[j] as SamplerSpec, s, column, 0, CHUNK_TRIALS);
     }
     // x_r = mean_r + scale_r·Σ_{c ≤ r} L[r][c]·z_c, rows from the last so each z_c is still intact.
     for (let r = g - 1; r >= 0; r--) {
@@ -137,7 +137,7 @@ export function createBlockRunner(plan: EnginePlan, model: EngineModel): BlockRu
         fillChunk(length);
         const base = offset + done;
         for (let t = 0; t < length; t++) {
-          index = t;
+          cursor.index = t;
           const y = model(record);
           if (typeof y !== 'number' || y - y !== 0) {
             const trial = block * BLOCK_TRIALS + done + t;
@@ -162,6 +162,9 @@ export function createBlockRunner(plan: EnginePlan, model: EngineModel): BlockRu
       }
       stats[2 * slot] = mean;
       stats[2 * slot + 1] = m2;
+    },
+    release() {
+      view.inUse = false;
     },
   };
 }

@@ -4,6 +4,12 @@
  * elements", Comm. ACM 18(3), 1975), expected 1.5·n comparisons.
  */
 import type { Interval } from '../types.js';
+import { bucketSortInPlace } from './bucketSort.js';
+
+/** Ascending sort of finite values (bucket sort; the built-in sort if a value is not finite). */
+function sortFinite(a: Float64Array): void {
+  if (!bucketSortInPlace(a)) a.sort();
+}
 
 function swap(a: Float64Array, i: number, j: number): void {
   const t = a[i] as number;
@@ -67,36 +73,194 @@ export function coveredCount(coverage: number, trials: number): number {
   return Math.floor(coverage * trials + 0.5);
 }
 
-/**
- * Both JCGM 101 coverage intervals of the values, permuting `a` in place. Only the lowest and the
- * highest M − q values are sorted (q = the covered count): every candidate end of the shortest
- * interval lies there. With p ≥ ½ that is 2(1 − p) of the sample, a tenth for p = 0.95.
- *
- * Requires q < M (at least one candidate interval) and no NaN in `a`.
- */
-export function sampleIntervalsInPlace(a: Float64Array, coverage: number): SampleIntervals {
-  const m = a.length;
-  const q = coveredCount(coverage, m);
-  const candidates = m - q; // left ends y_(1) … y_(M−q), 1-based
-  if (q <= candidates) {
-    a.sort();
-  } else {
-    selectInPlace(a, candidates - 1);
-    a.subarray(0, candidates).sort();
-    selectInPlace(a, q, candidates, m - 1);
-    a.subarray(q).sort();
-  }
-  // Probabilistically symmetric: r = (M − q)/2 if that is an integer, else (M − q + 1)/2.
-  const r = Math.ceil(candidates / 2);
-  const interval = { low: a[r - 1] as number, high: a[r - 1 + q] as number };
+/** The two intervals from the sorted lowest and highest M − q values (1-based rules of JCGM 101 7.7). */
+function intervalsFromTails(
+  low: Float64Array,
+  high: Float64Array,
+  q: number,
+  candidates: number,
+): SampleIntervals {
+  // low[i] = y₍ᵢ₊₁₎ for i < M − q; high[i] = y₍q+i+1₎ for i < M − q.
+  const r = Math.ceil(candidates / 2); // (M − q)/2 if an integer, else (M − q + 1)/2
+  const interval = { low: low[r - 1] as number, high: high[r - 1] as number };
   let best = 0;
   let bestWidth = Infinity;
   for (let i = 0; i < candidates; i++) {
-    const width = (a[i + q] as number) - (a[i] as number);
+    const width = (high[i] as number) - (low[i] as number);
     if (width < bestWidth) {
       bestWidth = width;
       best = i;
     }
   }
-  return { interval, shortestInterval: { low: a[best] as number, high: a[best + q] as number } };
+  return { interval, shortestInterval: { low: low[best] as number, high: high[best] as number } };
+}
+
+/** Two values that enclose the central part of a sample, and room for what lies beyond them. */
+export interface TailThresholds {
+  /** Values below this go to the lower tail. */
+  readonly below: number;
+  /** Values above this go to the upper tail. */
+  readonly above: number;
+  /** The most values either tail may hold before the thresholds are deemed to have failed. */
+  readonly capacity: number;
+}
+
+/**
+ * Thresholds for the lowest and highest `count` values of `a`, from a strided sample of 8192
+ * values: each is set 1.2 % of M beyond the expected position (five standard errors of the sample
+ * quantile), so a tail holds about 6.2 % of the sample when count = 5 %. `undefined` for samples
+ * too small to be worth it. Deterministic: the same values give the same thresholds.
+ */
+export function tailThresholds(a: Float64Array, count: number): TailThresholds | undefined {
+  const m = a.length;
+  const n = 8192;
+  if (m < 16 * n) return undefined;
+  const sample = new Float64Array(n);
+  const stride = Math.floor(m / n);
+  for (let i = 0; i < n; i++) sample[i] = a[i * stride] as number;
+  sample.sort();
+  const margin = Math.ceil(0.012 * n);
+  const rank = Math.ceil((count / m) * n);
+  if (rank + margin >= n - rank - margin) return undefined;
+  return {
+    below: sample[rank + margin] as number,
+    above: sample[n - 1 - rank - margin] as number,
+    capacity: Math.ceil(m * ((rank + 2 * margin) / n)) + 1024,
+  };
+}
+
+/**
+ * Copies the values of a[from…to) below and above the thresholds, in index order, to
+ * low[0…) and high[0…). Returns their numbers, or −1 for a side that exceeds `capacity`.
+ */
+export function extractTails(
+  a: Float64Array,
+  from: number,
+  to: number,
+  t: TailThresholds,
+  low: Float64Array,
+  high: Float64Array,
+): { readonly low: number; readonly high: number } {
+  const { below, above, capacity } = t;
+  let nl = 0;
+  let nh = 0;
+  for (let i = from; i < to; i++) {
+    const v = a[i] as number;
+    if (v < below) {
+      if (nl === capacity) return { low: -1, high: -1 };
+      low[nl++] = v;
+    } else if (v > above) {
+      if (nh === capacity) return { low: -1, high: -1 };
+      high[nh++] = v;
+    }
+  }
+  return { low: nl, high: nh };
+}
+
+/**
+ * Both JCGM 101 coverage intervals by the slow, sure route: a full sort when p ≤ ½, else
+ * Floyd–Rivest selection of the lowest and highest M − q values and a sort of those. Permutes `a`.
+ */
+export function intervalsBySelection(a: Float64Array, coverage: number): SampleIntervals {
+  const m = a.length;
+  const q = coveredCount(coverage, m);
+  const candidates = m - q;
+  if (q <= candidates) {
+    sortFinite(a);
+    return intervalsFromTails(a, a.subarray(q), q, candidates);
+  }
+  selectInPlace(a, candidates - 1);
+  sortFinite(a.subarray(0, candidates));
+  selectInPlace(a, q, candidates, m - 1);
+  sortFinite(a.subarray(q));
+  return intervalsFromTails(a, a.subarray(q), q, candidates);
+}
+
+/**
+ * Both JCGM 101 coverage intervals of the values. Only the lowest and the highest M − q values are
+ * sorted (q = the covered count): every candidate end of the shortest interval lies there; with
+ * p ≥ ½ that is 2(1 − p) of the sample, a tenth for p = 0.95. They are found by one pass against
+ * sampled thresholds, or else (ties, small samples) by Floyd–Rivest selection, which permutes `a`.
+ *
+ * Requires q < M (at least one candidate interval) and no NaN in `a`.
+ */
+export function sampleIntervalsInPlace(a: Float64Array, coverage: number): SampleIntervals {
+  const m = a.length;
+  const candidates = m - coveredCount(coverage, m);
+  const t = candidates < m / 2 ? tailThresholds(a, candidates) : undefined;
+  if (t !== undefined) {
+    const low = new Float64Array(t.capacity);
+    const high = new Float64Array(t.capacity);
+    const n = extractTails(a, 0, m, t, low, high);
+    if (n.low >= 0) {
+      const lows = low.subarray(0, n.low);
+      const highs = high.subarray(0, n.high);
+      sortTailPart(lows);
+      sortTailPart(highs);
+      const r = intervalsFromSortedParts([lows], [highs], t.capacity, coverage, m);
+      if (r !== undefined) return r;
+    }
+  }
+  return intervalsBySelection(a, coverage);
+}
+
+/** Sorts one part of an extracted tail in place (stable), as a worker does before the merge. */
+export function sortTailPart(part: Float64Array): void {
+  sortFinite(part);
+}
+
+/**
+ * The intervals from tails extracted in parts (in index order) and each sorted stably, or
+ * `undefined` when a side holds too few (or, overall, too many) values and selection must be used
+ * instead. A stable merge taking equal values from the earlier part first gives exactly the stable sort of the
+ * parts joined, whatever the number of parts (one, in a single thread; one per worker).
+ */
+export function intervalsFromSortedParts(
+  lows: readonly Float64Array[],
+  highs: readonly Float64Array[],
+  capacity: number,
+  coverage: number,
+  trials: number,
+): SampleIntervals | undefined {
+  const q = coveredCount(coverage, trials);
+  const candidates = trials - q;
+  const total = (parts: readonly Float64Array[]): number => parts.reduce((a, p) => a + p.length, 0);
+  const nl = total(lows);
+  const nh = total(highs);
+  if (nl < candidates || nh < candidates || nl > capacity || nh > capacity) return undefined;
+  // The smallest `candidates`, merged from the front (ties: earlier part first).
+  const low = new Float64Array(candidates);
+  const front = lows.map(() => 0);
+  for (let k = 0; k < candidates; k++) {
+    let best = -1;
+    let value = Infinity;
+    for (let p = 0; p < lows.length; p++) {
+      const part = lows[p] as Float64Array;
+      const i = front[p] as number;
+      if (i < part.length && (best < 0 || (part[i] as number) < value)) {
+        best = p;
+        value = part[i] as number;
+      }
+    }
+    low[k] = value;
+    front[best] = (front[best] as number) + 1;
+  }
+  // The largest `candidates`, merged from the back (ties: later part first, as in the joined order).
+  const high = new Float64Array(candidates);
+  const back = highs.map((part) => part.length - 1);
+  for (let k = candidates - 1; k >= 0; k--) {
+    let best = -1;
+    let value = -Infinity;
+    for (let p = highs.length - 1; p >= 0; p--) {
+      const part = highs[p] as Float64Array;
+      const i = back[p] as number;
+      if (i >= 0 && (best < 0 || (part[i] as number) > value)) {
+        best = p;
+        value = part[i] as number;
+      }
+    }
+    high[k] = value;
+    back[best] = (back[best] as number) - 1;
+  }
+  return intervalsFromTails(low, high, q, candidates);
 }

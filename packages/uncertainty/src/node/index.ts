@@ -15,11 +15,21 @@ import type { BlockReply, BlockRequest } from '../internal/driver.js';
 import { runProcedure } from '../internal/driver.js';
 import type { EnginePlan } from '../internal/engine.js';
 import {
+  coveredCount,
+  intervalsBySelection,
+  intervalsFromSortedParts,
+  sampleIntervalsInPlace,
+  tailThresholds,
+  type SampleIntervals,
+} from '../internal/select.js';
+import {
+  gumFor,
   monteCarloResult,
   prepareMonteCarlo,
   type MonteCarloOptions,
   type MonteCarloResult,
 } from '../monteCarlo.js';
+import type { Propagation } from '../propagate.js';
 import type { MeasurementModel } from '../types.js';
 import type { WorkerMessage, WorkerReply } from './protocol.js';
 
@@ -187,28 +197,82 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
   }
   for (const w of workers) w.unref();
 
-  async function runBlocks(plan: EnginePlan, request: BlockRequest): Promise<BlockReply> {
-    const values = new SharedArrayBuffer(8 * request.trials);
-    const stats = new SharedArrayBuffer(16 * request.blockCount);
-    const counter = new SharedArrayBuffer(4);
-    const message: WorkerMessage = { type: 'run', plan, ...request, values, stats, counter };
+  /** Sends one message to every worker and waits for all replies; the first error is thrown. */
+  async function broadcast(messages: readonly WorkerMessage[], onError?: () => void): Promise<WorkerReply[]> {
     for (const w of workers) w.ref();
     try {
       const replies = await Promise.all(
-        workers.map((w) =>
-          call(w, message).then((reply) => {
-            // A failed block stops the others from claiming more.
-            if (reply.type === 'error') Atomics.store(new Int32Array(counter), 0, request.blockCount);
+        workers.map((w, i) =>
+          call(w, messages[i] as WorkerMessage).then((reply) => {
+            if (reply.type === 'error') onError?.();
             return reply;
           }),
         ),
       );
       const bad = replies.find((r): r is Extract<WorkerReply, { type: 'error' }> => r.type === 'error');
       if (bad !== undefined) throw toError(bad);
+      return replies;
     } finally {
       for (const w of workers) w.unref();
     }
-    return { values: new Float64Array(values), stats: new Float64Array(stats) };
+  }
+
+  /** Starts the blocks of a request on every worker (they claim blocks from a shared counter). */
+  function startBlocks(plan: EnginePlan, request: BlockRequest): Promise<BlockReply> {
+    const values = new SharedArrayBuffer(8 * request.trials);
+    const stats = new SharedArrayBuffer(16 * request.blockCount);
+    const counter = new SharedArrayBuffer(4);
+    const message: WorkerMessage = { type: 'run', plan, ...request, values, stats, counter };
+    // A failed block stops the others from claiming more.
+    const stop = (): void => void Atomics.store(new Int32Array(counter), 0, request.blockCount);
+    return broadcast(
+      workers.map(() => message),
+      stop,
+    ).then(() => ({ values: new Float64Array(values), stats: new Float64Array(stats) }));
+  }
+
+  /**
+   * The coverage intervals with the tails extracted and sorted in parallel: each worker scans a
+   * contiguous range and sorts what it found (stably); the parts, merged stably in range order,
+   * are exactly what one scan in index order and one stable sort give, so the result equals
+   * `sampleIntervalsInPlace` bit for bit (including its fallback decisions).
+   */
+  async function intervals(values: Float64Array, coverage: number): Promise<SampleIntervals> {
+    const m = values.length;
+    const candidates = m - coveredCount(coverage, m);
+    const t =
+      values.buffer instanceof SharedArrayBuffer && candidates < m / 2
+        ? tailThresholds(values, candidates)
+        : undefined;
+    if (t === undefined) return sampleIntervalsInPlace(values, coverage);
+    const parts = workers.map((_, w) => ({
+      from: Math.floor((w * m) / workers.length),
+      to: Math.floor(((w + 1) * m) / workers.length),
+      low: new SharedArrayBuffer(8 * t.capacity),
+      high: new SharedArrayBuffer(8 * t.capacity),
+    }));
+    const replies = await broadcast(
+      parts.map((p) => ({
+        type: 'tails',
+        values: values.buffer as SharedArrayBuffer,
+        from: p.from,
+        to: p.to,
+        thresholds: t,
+        low: p.low,
+        high: p.high,
+      })),
+    );
+    const counts = replies.map((r) => (r.type === 'tails' ? r : { low: -1, high: -1 }));
+    const total = (side: 'low' | 'high'): number => counts.reduce((a, c) => a + c[side], 0);
+    if (counts.every((c) => c.low >= 0)) {
+      const side = (which: 'low' | 'high'): Float64Array[] =>
+        parts.map(
+          (p, w) => new Float64Array(p[which], 0, (counts[w] as { low: number; high: number })[which]),
+        );
+      const r = intervalsFromSortedParts(side('low'), side('high'), t.capacity, coverage, m);
+      if (r !== undefined) return r;
+    }
+    return intervalsBySelection(values, coverage);
   }
 
   let queue: Promise<unknown> = Promise.resolve();
@@ -221,9 +285,29 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
         const ro = { ...checkObject('options', runOptions), model: mainModel };
         const setup = prepareMonteCarlo(ro);
         const procedure = runProcedure(setup.settings);
+        let gum: Propagation | undefined;
+        let gumDone = false;
         let step = procedure.next();
-        while (!step.done) step = procedure.next(await runBlocks(setup.plan, step.value));
-        return monteCarloResult(setup, step.value, ro, mainModel as MeasurementModel);
+        while (!step.done) {
+          const request = step.value;
+          if (request.kind === 'intervals') {
+            step = procedure.next(await intervals(request.values, request.coverage));
+            continue;
+          }
+          const pending = startBlocks(setup.plan, request);
+          if (!gumDone) {
+            // The law of propagation runs on this thread while the workers draw the trials.
+            gumDone = true;
+            try {
+              gum = gumFor(setup, ro, mainModel as MeasurementModel);
+            } catch (error) {
+              await pending.catch(() => undefined);
+              throw error;
+            }
+          }
+          step = procedure.next(await pending);
+        }
+        return monteCarloResult(setup, step.value, gum);
       });
       queue = job.catch(() => undefined);
       return job;

@@ -6,6 +6,7 @@
 import { parentPort } from 'node:worker_threads';
 import { isBridgeworkError } from '@bridgework/core';
 import { BLOCK_TRIALS, createBlockRunner, type EngineModel } from '../internal/engine.js';
+import { extractTails, sortTailPart } from '../internal/select.js';
 import type { WorkerMessage, WorkerReply } from './protocol.js';
 
 if (parentPort === null) throw new Error('this module runs as a worker thread');
@@ -51,16 +52,38 @@ port.on('message', (message: WorkerMessage) => {
         port.postMessage({ type: 'loaded' } satisfies WorkerReply);
         return;
       }
+      if (message.type === 'tails') {
+        const low = new Float64Array(message.low);
+        const high = new Float64Array(message.high);
+        const counts = extractTails(
+          new Float64Array(message.values),
+          message.from,
+          message.to,
+          message.thresholds,
+          low,
+          high,
+        );
+        if (counts.low >= 0) {
+          sortTailPart(low.subarray(0, counts.low));
+          sortTailPart(high.subarray(0, counts.high));
+        }
+        port.postMessage({ type: 'tails', ...counts } satisfies WorkerReply);
+        return;
+      }
       if (model === undefined) throw new Error('no model loaded');
       const runner = createBlockRunner(message.plan, model);
       const values = new Float64Array(message.values);
       const stats = new Float64Array(message.stats);
       const counter = new Int32Array(message.counter);
-      for (;;) {
-        const b = Atomics.add(counter, 0, 1);
-        if (b >= message.blockCount) break;
-        const count = Math.min(BLOCK_TRIALS, message.trials - b * BLOCK_TRIALS);
-        runner.runBlock(message.firstBlock + b, count, values, b * BLOCK_TRIALS, stats, b);
+      try {
+        for (;;) {
+          const b = Atomics.add(counter, 0, 1);
+          if (b >= message.blockCount) break;
+          const count = Math.min(BLOCK_TRIALS, message.trials - b * BLOCK_TRIALS);
+          runner.runBlock(message.firstBlock + b, count, values, b * BLOCK_TRIALS, stats, b);
+        }
+      } finally {
+        runner.release();
       }
       port.postMessage({ type: 'done' } satisfies WorkerReply);
     } catch (error) {

@@ -1,0 +1,201 @@
+/**
+ * Uncertainty package: Monte Carlo throughput (issue 5, item 4). A model of 12 inputs (six normal,
+ * six rectangular) with a handful of arithmetic operations, 10⁶ trials including both coverage
+ * intervals, against
+ *  - a straightforward implementation in the same process: Math.random, Box–Muller, one object
+ *    per trial, a full sort for the intervals (two variants: a generic loop over the inputs, and
+ *    one with the twelve inputs written out by hand, the fastest form of the naive approach);
+ *  - the same run on two worker threads (bit-identical results, checked here).
+ * Targets: ≥ 10⁷ trials/s on one core, ≥ 1.6× that with two workers, ≥ 6× the straightforward
+ * implementation. Ratios are per round, medians; the machine is shared, so only ratios measured
+ * in one run count.
+ */
+import { availableParallelism, loadavg } from 'node:os';
+import { performance } from 'node:perf_hooks';
+import { monteCarlo, sampleCoverageIntervals, type InputQuantities } from '@bridgework/uncertainty';
+import { createMonteCarloPool } from '@bridgework/uncertainty/node';
+import { twelveInputModel, twelveInputs } from '../../packages/uncertainty/test/support/benchModel.js';
+import { compare, report, sinkValue } from './harness.js';
+
+const trials = 1_000_000;
+// The straightforward implementations get their own copy of the model (same source, a separate
+// function object), so their calls with other object shapes do not change how the JIT compiles
+// the model for monteCarlo (and vice versa) — as if each were its own program.
+const naiveModel = new Function(`return ${twelveInputModel.toString()}`)() as typeof twelveInputModel;
+const inputs = twelveInputs as InputQuantities;
+const names = Object.keys(inputs);
+const specs = names.map(
+  (n) => inputs[n] as { value: number; standardUncertainty?: number; halfWidth?: number },
+);
+
+/** Box–Muller: one normal from two Math.random() calls. */
+function boxMuller(): number {
+  const u1 = 1 - Math.random();
+  const u2 = Math.random();
+  return Math.sqrt(-2 * Math.log(u1)) * Math.cos(2 * Math.PI * u2);
+}
+
+/** The JCGM 101 results from a sample by the straightforward route: mean, sd, full sort. */
+function summarize(ys: Float64Array): number {
+  let sum = 0;
+  for (const y of ys) sum += y;
+  const mean = sum / ys.length;
+  let ss = 0;
+  for (const y of ys) ss += (y - mean) ** 2;
+  const sd = Math.sqrt(ss / (ys.length - 1));
+  ys.sort();
+  const q = Math.floor(0.95 * ys.length + 0.5);
+  const r = Math.ceil((ys.length - q) / 2);
+  let best = Infinity;
+  for (let i = 0; i < ys.length - q; i++) best = Math.min(best, (ys[i + q] as number) - (ys[i] as number));
+  return mean + sd + (ys[r - 1] as number) + (ys[r - 1 + q] as number) + best;
+}
+
+/** Straightforward, generic: a fresh object per trial filled by a loop over the inputs. */
+function naiveGeneric(): number {
+  const ys = new Float64Array(trials);
+  for (let t = 0; t < trials; t++) {
+    const x: Record<string, number> = {};
+    for (let k = 0; k < names.length; k++) {
+      const q = specs[k]!;
+      x[names[k]!] =
+        q.standardUncertainty !== undefined
+          ? q.value + q.standardUncertainty * boxMuller()
+          : q.value + q.halfWidth! * (2 * Math.random() - 1);
+    }
+    ys[t] = naiveModel(x);
+  }
+  return summarize(ys);
+}
+
+/** Straightforward, written out: the object literal per trial, the fastest naive form. */
+function naiveByHand(): number {
+  const ys = new Float64Array(trials);
+  for (let t = 0; t < trials; t++) {
+    const x = {
+      a: 1 + 0.1 * boxMuller(),
+      b: 3 + 0.2 * (2 * Math.random() - 1),
+      c: 3 + 0.1 * boxMuller(),
+      d: 5 + 0.2 * (2 * Math.random() - 1),
+      e: 5 + 0.1 * boxMuller(),
+      f: 7 + 0.2 * (2 * Math.random() - 1),
+      g: 7 + 0.1 * boxMuller(),
+      h: 9 + 0.2 * (2 * Math.random() - 1),
+      i: 9 + 0.1 * boxMuller(),
+      j: 11 + 0.2 * (2 * Math.random() - 1),
+      k: 11 + 0.1 * boxMuller(),
+      l: 13 + 0.2 * (2 * Math.random() - 1),
+    };
+    ys[t] = naiveModel(x);
+  }
+  return summarize(ys);
+}
+
+let seed = 0;
+const ours = (): number => {
+  const r = monteCarlo({ model: twelveInputModel, inputs, trials, seed: seed++ });
+  return r.value + r.interval.low + r.shortestInterval.high;
+};
+
+console.log(
+  `machine: ${availableParallelism()} cores, load average ${loadavg()
+    .map((l) => l.toFixed(2))
+    .join(' ')}`,
+);
+
+const results = compare(
+  [
+    {
+      name: 'naive generic (Math.random, Box–Muller, object per trial, full sort)',
+      opsPerCall: trials,
+      run: naiveGeneric,
+    },
+    { name: 'naive by hand (object literal per trial, full sort)', opsPerCall: trials, run: naiveByHand },
+    { name: 'monteCarlo, one thread (incl. intervals and GUM)', opsPerCall: trials, run: ours },
+  ],
+  { rounds: 7, minMillisPerRound: 100, warmupCalls: 3 },
+);
+report('uncertainty: Monte Carlo, 12 inputs, 10⁶ trials, per trial', results);
+const single = results[2]!;
+const byHand = results[1]!;
+console.log(`  one thread: ${(1e3 / single.nsPerOp).toFixed(2)} million trials/s (target ≥ 10)`);
+console.log(
+  `  speed-up over naive by hand: ${(byHand.ratioToBaseline / single.ratioToBaseline).toFixed(2)}× (target ≥ 6)`,
+);
+console.log(`  speed-up over naive generic: ${(1 / single.ratioToBaseline).toFixed(2)}×`);
+
+// Selection of the tails against a full sort, on the same 10⁶ model values.
+const values = monteCarlo({
+  model: twelveInputModel,
+  inputs,
+  trials,
+  returnValues: true,
+  compareWithGum: false,
+}).values!;
+const intervalResults = compare(
+  [
+    {
+      name: 'full sort + JCGM 101 7.7',
+      opsPerCall: trials,
+      run: () => summarize(values.slice()),
+    },
+    {
+      name: 'sampleCoverageIntervals (tails only)',
+      opsPerCall: trials,
+      run: () => {
+        const r = sampleCoverageIntervals(values, 0.95);
+        return r.interval.low + r.shortestInterval.high;
+      },
+    },
+  ],
+  { rounds: 7, minMillisPerRound: 100, warmupCalls: 3 },
+);
+report('uncertainty: coverage intervals of 10⁶ values, per value', intervalResults);
+
+// Two worker threads against one thread, alternating, ratio per round.
+const pool = await createMonteCarloPool({
+  model: {
+    module: new URL('../../packages/uncertainty/test/support/benchModel.ts', import.meta.url),
+    exportName: 'twelveInputModel',
+  },
+  workers: 2,
+});
+const check = await pool.run({ inputs, trials, seed: 77 });
+const reference = monteCarlo({ model: twelveInputModel, inputs, trials, seed: 77 });
+const identical =
+  check.value === reference.value &&
+  check.interval.low === reference.interval.low &&
+  check.shortestInterval.high === reference.shortestInterval.high;
+for (let i = 0; i < 3; i++) await pool.run({ inputs, trials, seed: i }); // warm-up
+const rounds = 9;
+const single2: number[] = [];
+const workers2: number[] = [];
+let sink = 0;
+for (let r = 0; r < rounds; r++) {
+  const order = r % 2 === 0 ? ['one', 'two'] : ['two', 'one'];
+  for (const which of order) {
+    const t0 = performance.now();
+    if (which === 'one') sink += monteCarlo({ model: twelveInputModel, inputs, trials, seed: r }).value;
+    else sink += (await pool.run({ inputs, trials, seed: r })).value;
+    (which === 'one' ? single2 : workers2).push(performance.now() - t0);
+  }
+}
+await pool.close();
+const median = (xs: number[]): number => [...xs].sort((a, b) => a - b)[xs.length >> 1]!;
+const speedups = single2.map((t, i) => t / workers2[i]!);
+console.log('\nuncertainty: two worker threads against one thread, 10⁶ trials');
+console.log(
+  `  one thread   ${median(single2).toFixed(1).padStart(7)} ms  (${(trials / median(single2) / 1e3).toFixed(2)} million trials/s)`,
+);
+console.log(
+  `  two workers  ${median(workers2).toFixed(1).padStart(7)} ms  (${(trials / median(workers2) / 1e3).toFixed(2)} million trials/s)`,
+);
+console.log(
+  `  speed-up (median of per-round ratios): ${median(speedups).toFixed(2)}× (target ≥ 1.6); results bit-identical: ${identical}`,
+);
+console.log(
+  `machine after: load average ${loadavg()
+    .map((l) => l.toFixed(2))
+    .join(' ')}`,
+);
+console.log(`\n(sink ${(sinkValue() + sink * 1e-30).toExponential(3)})`);
