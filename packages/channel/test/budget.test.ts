@@ -154,3 +154,38 @@ describe('budget: lines, models and the combined uncertainty', () => {
     });
   });
 });
+
+describe('budget: transducer temperature effects over the stated range', () => {
+  it('zero and span coefficients enter as a temperature line (data-sheet definitions, derived)', () => {
+    const cell: ChannelSpec = {
+      sensor: {
+        kind: 'transducer',
+        capacity: 10_000,
+        ratedOutputVoltsPerVolt: 2e-3,
+        zeroTemperatureCoefficientPerKelvin: 2e-5,
+        spanTemperatureCoefficientPerKelvin: 1e-5,
+        certificateCelsius: 20,
+      },
+      excitation: { volts: 10 },
+      amplifier: { gain: 128 },
+      adc: { bits: 24, referenceVolts: 10, ratiometric: true },
+      environment: { temperatureCelsius: 20, rangeCelsius: [0, 40] },
+      output: { quantity: 'force', range: [0, 10_000] },
+    };
+    const b = createChannel(cell).budget({ at: 8000 });
+    const line = b.lines.find((l) => l.name === 'transducer temperature')!;
+    // load = C·(r − TK0·RO·ΔT)/(RO(1 + TKC·ΔT)) ⇒ ∂load/∂T = −C·TK0 − load·TKC at ΔT = 0.
+    const expected = -10_000 * 2e-5 - 8000 * 1e-5;
+    expect(b.combined.sensitivities['transducer temperature']).toBeNear(expected, { rel: 1e-6 });
+    expect(line.standardUncertainty).toBeNear((Math.abs(expected) * 20) / Math.sqrt(3), { rel: 1e-6 });
+    // And the map itself moves with the temperature: at 40 °C a given code reads lower.
+    const warm = createChannel({
+      ...cell,
+      environment: { temperatureCelsius: 40, zeroTemperatureCelsius: 20 },
+    });
+    const code = createChannel(cell).codeFromQuantity(8000);
+    expect(warm.quantityFromCode(code)).toBeNear((8000 - 10_000 * 2e-5 * 20) / (1 + 1e-5 * 20), {
+      rel: 1e-6,
+    });
+  });
+});

@@ -250,6 +250,8 @@ export function createChannelBudget(
   );
   if (r.sensor.kind === 'strain-gauge')
     rect('gauge temperature', 'temperatureCelsius', n.temperatureCelsius, temperatureHalfWidth);
+  if (r.sensor.kind === 'transducer')
+    rect('transducer temperature', 'temperatureCelsius', n.temperatureCelsius, temperatureHalfWidth);
 
   const keys = Object.entries(names) as [Perturbable, string][];
   const evaluate = (x: Readonly<Record<string, number>>): number => {
@@ -319,7 +321,7 @@ export function createChannelBudget(
     lines.push({
       name,
       kind: key === 'temperatureCelsius' ? 'temperature' : key === 'ohmsPerLead' ? 'leads' : 'tolerance',
-      model: `the exact channel map rebuilt with ${name} varied; rectangular limits ±${input.halfWidth.toPrecision(4)} (u = a/√3, JCGM 100 4.3.7)${key === 'ohmsPerLead' && leadDrift > 0 ? `, including ${leadDrift.toPrecision(3)} Ω of copper drift over the cable's temperature range` : ''}${key === 'temperatureCelsius' ? ' (gauge-factor temperature coefficient and thermal output over the stated range)' : ''}`,
+      model: `the exact channel map rebuilt with ${name} varied; rectangular limits ±${input.halfWidth.toPrecision(4)} (u = a/√3, JCGM 100 4.3.7)${key === 'ohmsPerLead' && leadDrift > 0 ? `, including ${leadDrift.toPrecision(3)} Ω of copper drift over the cable's temperature range` : ''}${key === 'temperatureCelsius' ? (r.sensor.kind === 'transducer' ? ' (zero and span temperature coefficients over the stated range)' : ' (gauge-factor temperature coefficient and thermal output over the stated range)') : ''}`,
       inputs: {
         estimate: input.value,
         halfWidth: input.halfWidth,

@@ -110,17 +110,25 @@ export function createModel(r: ResolvedChannel, p: ModelParameters): ChannelMode
             inputOhms: s.inputOhms,
             ohmsPerLead: p.ohmsPerLead + sourceOhms / 2,
           });
+    // Data-sheet temperature effects: the zero moves by TK0·RO·(T − T_zero) since zeroing, the
+    // rated output scales by 1 + TKC·(T − T_certificate).
+    const t = celsiusOf(r, p);
+    const zeroDrift = s.zeroTemperatureCoefficientPerKelvin * p.ratedOutputVoltsPerVolt * (t.now - t.zero);
+    const ratedOutput =
+      p.ratedOutputVoltsPerVolt *
+      (1 + s.spanTemperatureCoefficientPerKelvin * (t.now - s.certificateCelsius));
     const scaleFor = (zeroVoltsPerVolt: number): CertificateScale =>
       createCertificateScale({
         capacity: s.capacity,
         capacityUnit: s.capacityUnit,
-        ratedOutputVoltsPerVolt: p.ratedOutputVoltsPerVolt,
+        ratedOutputVoltsPerVolt: ratedOutput,
         zeroVoltsPerVolt,
         outputUnit: r.output.quantity === 'mass' ? 'kilogram' : 'newton',
         calibrationGravityMetersPerSecondSquared: s.calibrationGravityMetersPerSecondSquared,
         localGravityMetersPerSecondSquared: s.localGravityMetersPerSecondSquared,
       });
-    const zero = r.zeroCode === undefined ? s.zeroBalanceVoltsPerVolt : ratioFromCode(r.zeroCode) / span;
+    const zero =
+      (r.zeroCode === undefined ? s.zeroBalanceVoltsPerVolt : ratioFromCode(r.zeroCode) / span) + zeroDrift;
     const scale = scaleFor(zero);
     const asQuantity = r.output.quantity !== 'ratio';
     return {

@@ -36,6 +36,9 @@ export interface ResolvedTransducer {
   readonly outputOhms: number;
   readonly calibrationGravityMetersPerSecondSquared: number;
   readonly localGravityMetersPerSecondSquared: number;
+  readonly zeroTemperatureCoefficientPerKelvin: number;
+  readonly spanTemperatureCoefficientPerKelvin: number;
+  readonly certificateCelsius: number;
 }
 
 /** An RTD with every default applied. */
@@ -162,6 +165,9 @@ export function resolveChannel(spec: ChannelSpec): ResolvedChannel {
       calibrationGravityMetersPerSecondSquared:
         sensorSpec.calibrationGravityMetersPerSecondSquared ?? 9.80665,
       localGravityMetersPerSecondSquared: sensorSpec.localGravityMetersPerSecondSquared ?? 9.80665,
+      zeroTemperatureCoefficientPerKelvin: sensorSpec.zeroTemperatureCoefficientPerKelvin ?? 0,
+      spanTemperatureCoefficientPerKelvin: sensorSpec.spanTemperatureCoefficientPerKelvin ?? 0,
+      certificateCelsius: sensorSpec.certificateCelsius ?? 23,
     };
     nominalResistance = sensor.outputOhms;
     ratedOutput = sensor.ratedOutputVoltsPerVolt;

@@ -83,6 +83,18 @@ export interface TransducerSpec {
   readonly calibrationGravityMetersPerSecondSquared?: number;
   /** Gravity where the transducer is used, m/s² (> 0), for a mass output. Default 9.80665. */
   readonly localGravityMetersPerSecondSquared?: number;
+  /**
+   * Temperature effect on the zero, as a fraction of the rated output per kelvin (a data sheet's
+   * "0.02 % RO/10 K" is 2e-5). The zero moves by this × rated output × (T − T_zero). Default 0.
+   */
+  readonly zeroTemperatureCoefficientPerKelvin?: number;
+  /**
+   * Temperature effect on the span (rated output), fraction per kelvin (data sheets: "% of reading
+   * per 10 K"), relative to `certificateCelsius`. Default 0.
+   */
+  readonly spanTemperatureCoefficientPerKelvin?: number;
+  /** Temperature at which the certificate's rated output holds, °C. Default 23. */
+  readonly certificateCelsius?: number;
   /** Rated output at capacity in V/V (> 0), e.g. 0.002 for 2 mV/V. */
   readonly ratedOutputVoltsPerVolt: number;
   /** Zero balance (output at no load) in V/V. Default 0. */

@@ -104,6 +104,23 @@ const transducer = objectField(
       minExclusive: true,
       default: 9.80665,
     }),
+    zeroTemperatureCoefficientPerKelvin: numberField({
+      doc: 'Zero drift, fraction of rated output per K',
+      min: -0.01,
+      max: 0.01,
+      default: 0,
+    }),
+    spanTemperatureCoefficientPerKelvin: numberField({
+      doc: 'Span drift, fraction per K',
+      min: -0.01,
+      max: 0.01,
+      default: 0,
+    }),
+    certificateCelsius: numberField({
+      doc: "Temperature of the certificate's rated output",
+      unit: 'degC',
+      default: 23,
+    }),
     ratedOutputVoltsPerVolt: numberField({
       doc: 'Rated output at capacity, V/V (2 mV/V = 0.002)',
       unit: 'V/V',
