@@ -117,7 +117,14 @@ function convertIntegerCodes(
   for (let s = 0; s < count; s += BLOCK) {
     const e = s + BLOCK < count ? s + BLOCK : count;
     let flags = 0;
-    if (stride === 1 && outStride === 1) {
+    if (stride === 1 && outStride === 1 && start === outStart) {
+      // The common case: a whole buffer, the same index in and out.
+      for (let i = start + s, end = start + e; i < end; i++) {
+        const x = codes[i] as number;
+        out[i] = (a * x + b) / (c * x + d);
+        flags |= (x - lowI) | (highI - x);
+      }
+    } else if (stride === 1 && outStride === 1) {
       for (let i = start + s, o = outStart + s, end = start + e; i < end; i++, o++) {
         const x = codes[i] as number;
         out[o] = (a * x + b) / (c * x + d);
