@@ -58,7 +58,8 @@ export interface LoadChannelFileOptions<T> {
 
 const topLevelKeys = ['project', 'channels'] as const;
 const projectKeys = ['title', 'description', 'reference'] as const;
-const channelName = /^[A-Za-z][A-Za-z0-9_-]{0,62}$/;
+/** What a channel name (a key under `channels`) must match: a letter, then letters, digits, `_` and `-`, at most 63 in all. */
+export const channelNamePattern = /^[A-Za-z][A-Za-z0-9_-]{0,62}$/;
 
 function isRecord(x: unknown): x is Record<string, unknown> {
   return typeof x === 'object' && x !== null && !Array.isArray(x);
@@ -130,7 +131,7 @@ export function validateChannelDocument<T>(
       });
     } else {
       for (const [name, raw] of Object.entries(list)) {
-        if (!channelName.test(name)) {
+        if (!channelNamePattern.test(name)) {
           issues.push({
             path: `channels.${name}`,
             message:
