@@ -32,6 +32,7 @@ export function channelFileJsonSchema(): Record<string, unknown> {
     additionalProperties: false,
     required: ['channels'],
     properties: {
+      $schema: text('The JSON Schema of the file, for editors (ignored by the command)'),
       project: {
         type: 'object',
         description: 'Metadata for reports',

@@ -70,3 +70,43 @@ export async function loadChannels(path: string, names?: readonly string[]): Pro
   });
   return { file, document, channels };
 }
+
+/**
+ * Runs one step of a command on one channel (its budget, constants or curves) and, when the
+ * channel package rejects it, reports the problem with the file, the channel and its position:
+ * `hook.yaml:7:5: channels.hook.output.range: …`.
+ *
+ * @remarks
+ * Some problems of a channel show only when it is used, not when it is made: an `output.range`
+ * beyond the converter's full scale, for example, has no budget point. The error keeps its code
+ * (so the exit code is that of bad input); the budget point is named for what it is, the end of
+ * the span of larger magnitude.
+ *
+ * @param loaded - The channel file.
+ * @param channel - The channel.
+ * @param step - The step.
+ * @returns What the step returns.
+ * @throws {@link @bridgework/core!BridgeworkError} the step's error, with the file and channel in
+ * its message.
+ */
+export function inChannel<T>(loaded: LoadedChannels, channel: LoadedChannel, step: () => T): T {
+  try {
+    return step();
+  } catch (e) {
+    if (!isBridgeworkError(e)) throw e;
+    const span = e.param === 'at' || e.param === 'output.range';
+    const path = `channels.${channel.name}${span ? '.output.range' : ''}`;
+    const where = loaded.document.locate(path);
+    const at = where === undefined ? loaded.file.file : `${loaded.file.file}:${where.line}:${where.column}`;
+    const message = e.message
+      .replace(`channel '${channel.name}': `, '')
+      .replace(/^`at` must map/, 'the budget point (the end of the span of larger magnitude) must map')
+      .replace(/^`output\.range` must/, 'must');
+    throw new BridgeworkError(e.code, `${at}: ${path}: ${message}`, {
+      param: path,
+      ...(e.value === undefined ? {} : { value: e.value }),
+      ...(e.limit === undefined ? {} : { limit: e.limit }),
+      cause: e,
+    });
+  }
+}

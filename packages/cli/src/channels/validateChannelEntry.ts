@@ -1,11 +1,23 @@
 import { validateChannelSpec, type ChannelSpec } from '@bridgework/channel';
 import type { SpecIssue } from '@bridgework/core';
 import type { ChannelValidation, QuantityParser } from '../channelFile/loadChannelFile.js';
+import { closestName } from '../internal/closestName.js';
 
-/** The leading "`field.path` " that the channel schema puts at the start of each message. */
-function stripPath(issue: SpecIssue): SpecIssue {
+/**
+ * Removes the leading "`field.path` " that the channel schema puts at the start of each message,
+ * and words an unknown field as the file loader does, with the closest known name suggested.
+ */
+function restate(issue: SpecIssue): SpecIssue {
   const prefix = `\`${issue.path === '' ? 'spec' : issue.path}\` `;
-  return issue.message.startsWith(prefix) ? { ...issue, message: issue.message.slice(prefix.length) } : issue;
+  const message = issue.message.startsWith(prefix) ? issue.message.slice(prefix.length) : issue.message;
+  const unknown = /^is not a known field \(known: (.*)\)$/.exec(message);
+  if (unknown === null) return { ...issue, message };
+  const known = (unknown[1] as string).split(', ');
+  const near = closestName(issue.path.split('.').pop() ?? '', known);
+  return {
+    ...issue,
+    message: `unknown field${near === undefined ? `; expected one of ${known.join(', ')}` : `; did you mean '${near}'?`}`,
+  };
 }
 
 /**
@@ -18,7 +30,9 @@ function stripPath(issue: SpecIssue): SpecIssue {
  * the entry is a problem. The schema's messages start with the field path in backticks
  * ("`adc.bits` must be an integer; got 24.5"); that prefix is removed here because the file
  * loader prints the full path in front of every message
- * (`file:line:column: channels.hanger.adc.bits: must be an integer; got 24.5`).
+ * (`file:line:column: channels.hanger.adc.bits: must be an integer; got 24.5`), and an unknown
+ * field is worded as the loader words its own, with the closest known name suggested
+ * (`excitation.volt: unknown field; did you mean 'volts'?`).
  *
  * @param raw - The entry as read from the file.
  * @param parseQuantity - Converts `"350 ohm"` to the SI number the field expects.
@@ -39,6 +53,6 @@ export function validateChannelEntry(
   const result = validateChannelSpec(entry, {
     convertUnit: (text, unit) => parseQuantity(text, unit as Parameters<QuantityParser>[1]),
   });
-  const issues = [...nameIssue, ...result.issues.map(stripPath)];
+  const issues = [...nameIssue, ...result.issues.map(restate)];
   return issues.length === 0 && result.ok ? { value: result.value, issues } : { issues };
 }

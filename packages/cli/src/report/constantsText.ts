@@ -6,7 +6,7 @@ import {
   type VerificationMode,
 } from '@bridgework/firmware';
 import { BridgeworkError, isBridgeworkError } from '@bridgework/core';
-import type { LoadedChannels } from '../channels/loadChannels.js';
+import { inChannel, type LoadedChannels } from '../channels/loadChannels.js';
 
 /** Options of {@link constantsText}. */
 export interface ConstantsTextOptions {
@@ -54,8 +54,9 @@ function commentSafe(text: string): string {
  * @remarks
  * Each channel's constants are the channel package's (`Channel.constants`: a fixed-point map on
  * the minimax line of the exact map, float32 and float64 Chebyshev polynomials, each with its
- * proved error bound), emitted by the firmware package's `emitCHeader` or `emitJson`, which
- * write the units, the bounds and how they were proved, and the safety caution. A header starts
+ * proved rounding bound and its error against the exact map), emitted by the firmware package's
+ * `emitCHeader` or `emitJson`, which write the units, the bounds and how they were obtained, and
+ * the safety caution. A header starts
  * with one more comment naming the channel file, its channels and the generator.
  *
  * @param loaded - The channel file and its channels.
@@ -66,7 +67,8 @@ function commentSafe(text: string): string {
  */
 export function constantsText(loaded: LoadedChannels, options: ConstantsTextOptions): string {
   const channels = loaded.channels.map(
-    (c) => c.channel.constants({ verification: options.verification }).firmwareChannel,
+    (c) =>
+      inChannel(loaded, c, () => c.channel.constants({ verification: options.verification })).firmwareChannel,
   );
   const emitOptions = {
     channels,

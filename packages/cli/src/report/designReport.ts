@@ -1,5 +1,5 @@
 import type { ChannelBudget } from '@bridgework/channel';
-import type { LoadedChannel, LoadedChannels } from '../channels/loadChannels.js';
+import { inChannel, type LoadedChannel, type LoadedChannels } from '../channels/loadChannels.js';
 import type { ProjectInfo } from '../channelFile/loadChannelFile.js';
 import { designChecks, type DesignCheckRow } from './designChecks.js';
 import { describeChannel } from './describeChannel.js';
@@ -43,7 +43,7 @@ export interface DesignReport {
  */
 export function designReport(loaded: LoadedChannels): DesignReport {
   const channels = loaded.channels.map((c): ChannelDesign => {
-    const budget = c.channel.budget();
+    const budget = inChannel(loaded, c, () => c.channel.budget());
     return {
       loaded: c,
       budget,

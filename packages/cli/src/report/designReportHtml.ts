@@ -205,6 +205,10 @@ function channelSection(c: ChannelDesign, points: number): ReportSection {
         ['largest power in one gauge', formatNumber(budget.frontEnd.value.gaugeWatts * 1e3), 'mW'],
       ],
     },
+    {
+      kind: 'text',
+      text: 'The inputs, as validated: every field in SI (°C for temperatures), marked as written in the channel file (with the text as written when it carried a unit) or as a default.',
+    },
     { kind: 'inputs', groups: channelInputs(c.loaded.spec, c.loaded.raw, c.loaded.channel.unit) },
   ];
   return { title: `${c.loaded.name}: ${c.loaded.channel.quantity} (${u})`, blocks };

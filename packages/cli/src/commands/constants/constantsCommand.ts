@@ -57,7 +57,7 @@ export const constantsCommand = defineCommand({
   name: 'constants',
   summary: 'Firmware constants of each channel as a C header or JSON.',
   description:
-    'Writes the code-to-quantity map of each channel for firmware over its span of interest: a fixed-point map (integer multiply, add and shift, with its proved rounding bound) and float32 and float64 polynomial maps, each with its proved error against the exact map, as a C99 header (default) or as JSON. One header holds every selected channel; identifiers are the prefix and the channel name, so several channels and several headers can live in one firmware. The header and the JSON carry the safety caution.',
+    'Writes the code-to-quantity map of each channel for firmware over its span of interest: a fixed-point map (integer multiply, add and shift on the minimax line of the exact map) and float32 and float64 Chebyshev polynomials, each with its proved rounding bound and its error against the exact channel map, as a C99 header (default) or as JSON. One header holds every selected channel; identifiers are the prefix and the channel name, so several channels and several headers can live in one firmware. The header and the JSON carry the safety caution.',
   positionals: constantsArguments,
   options: constantsOptions,
   examples: [

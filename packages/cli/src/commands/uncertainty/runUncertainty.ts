@@ -1,5 +1,5 @@
 import { createChannel } from '@bridgework/channel';
-import { loadChannels } from '../../channels/loadChannels.js';
+import { inChannel, loadChannels } from '../../channels/loadChannels.js';
 import { streamSink } from '../../data/outputSink.js';
 import { exitCodes } from '../../exitCodes.js';
 import { openAtomicFile } from '../../files/atomicFile.js';
@@ -50,11 +50,13 @@ export async function run(args: UncertaintyArgs, context: CommandContext): Promi
             });
       const bar = context.progressBar({ label: c.name, total: options.trials, unit: 'trials' });
       try {
-        const result = batchedMonteCarlo(channel, {
-          trials: options.trials,
-          seed: options.seed,
-          onProgress: (done) => bar.update(done),
-        });
+        const result = inChannel(loaded, c, () =>
+          batchedMonteCarlo(channel, {
+            trials: options.trials,
+            seed: options.seed,
+            onProgress: (done) => bar.update(done),
+          }),
+        );
         return {
           name: c.name,
           quantity: channel.quantity,
