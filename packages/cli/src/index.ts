@@ -24,7 +24,7 @@ export { formatCommandHelp, formatProgramHelp, type HelpFormatOptions } from './
 export { formatCliReference } from './args/formatCliReference.js';
 export { commands } from './commands/registry.js';
 export type { CommandContext } from './commands/CommandContext.js';
-export { emitText, type EmitTextOptions } from './commands/emitText.js';
+export { openResultOutput, type ResultOutput } from './commands/resultOutput.js';
 
 // Terminal output
 export { colorEnabled, createTextStyle, plainTextStyle, type TextStyle } from './terminal/textStyle.js';
@@ -104,6 +104,7 @@ export { describeChannel } from './report/describeChannel.js';
 export { displayUnit, type DisplayUnit } from './report/displayUnit.js';
 export { formatNumber, formatPercent, formatProbability, formatStated } from './report/formatNumber.js';
 export { formatTextReport } from './report/formatTextReport.js';
+export { summaryColumns, summaryRows } from './report/summaryTable.js';
 export { designReportPayload } from './report/designReportPayload.js';
 export { designReportHtml, type DesignReportHtmlOptions } from './report/designReportHtml.js';
 export { channelCurves, type ChannelCurves } from './report/channelCurves.js';

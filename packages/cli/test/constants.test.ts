@@ -69,32 +69,18 @@ describe('bridgework constants on the example file', () => {
     expect(r.stdout.replace(/\n \* /g, ' ')).toContain(`Caution. ${SAFETY_CAUTION}`);
   });
 
-  it('compiles under strict C99, and the evaluators give what the library computes, within the proved bounds', () => {
+  it('compiles under strict C99, and the evaluators give what the library computes, within the proved bounds', async () => {
     if (!hasGcc()) {
       if (process.env['CI'] !== undefined) throw new Error('gcc is required under CI');
       return;
     }
     const dir = tmp();
     const header = join(dir, 'footbridge_constants.h');
-    execFileSync(
-      process.execPath,
-      [
-        '--import',
-        'tsx',
-        '--conditions=@bridgework/source',
-        'packages/cli/src/bin.ts',
-        'constants',
-        exampleShown,
-        '--prefix',
-        'footbridge',
-        '--verification',
-        'sampled',
-        '-o',
-        header,
-        '--force',
-      ],
-      { stdio: 'ignore' },
+    const written = await run(
+      ...['constants', exampleShown, '--prefix', 'footbridge', '--verification', 'sampled'],
+      ...['-o', header, '--force'],
     );
+    expect(written.code).toBe(exitCodes.ok);
     const probes: Record<string, number[]> = {};
     const calls: string[] = [];
     for (const n of footbridgeNames) {

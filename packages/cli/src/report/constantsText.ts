@@ -7,6 +7,7 @@ import {
 } from '@bridgework/firmware';
 import { BridgeworkError, isBridgeworkError } from '@bridgework/core';
 import { inChannel, type LoadedChannels } from '../channels/loadChannels.js';
+import { splitOptionList } from '../internal/splitOptionList.js';
 
 /** Options of {@link constantsText}. */
 export interface ConstantsTextOptions {
@@ -27,10 +28,10 @@ export interface ConstantsTextOptions {
  *
  * @param list - The option's text, e.g. `'fixed,float32'`.
  * @returns The types in the order given.
- * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for an unknown or repeated type.
+ * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for an empty, unknown or repeated type.
  */
 export function parseTypeList(list: string): EvaluatorType[] {
-  const types = list.split(',').map((t) => t.trim());
+  const types = splitOptionList(list, '--types');
   types.forEach((t, i) => {
     if (!(evaluatorTypes as readonly string[]).includes(t) || types.indexOf(t) !== i) {
       throw new BridgeworkError(

@@ -10,7 +10,9 @@ import { channelCurves } from './channelCurves.js';
 import { channelInputs } from './channelInputs.js';
 import type { ChannelDesign, DesignReport } from './designReport.js';
 import { formatNumber, formatPercent, formatProbability, formatStated } from './formatNumber.js';
+import { plainTextStyle } from '../terminal/textStyle.js';
 import { noiseSourceName } from './noiseSourceName.js';
+import { summaryColumns, summaryRows } from './summaryTable.js';
 
 /** Options of {@link designReportHtml}. */
 export interface DesignReportHtmlOptions {
@@ -224,31 +226,7 @@ function summarySection(report: DesignReport): ReportSection {
           ? 'Every design check of every channel passed.'
           : 'A design check failed: see the checks marked FAIL below.',
       },
-      {
-        kind: 'table',
-        columns: [
-          { header: 'channel' },
-          { header: 'quantity' },
-          { header: 'span' },
-          { header: 'u_c', align: 'right' },
-          { header: 'U', align: 'right' },
-          { header: 'checks' },
-        ],
-        rows: report.channels.map((c) => {
-          const b = c.budget;
-          const s = (v: number): string => formatNumber(v * c.display.factor);
-          const st = (v: number): string => formatStated(v * c.display.factor);
-          const failed = c.checks.filter((k) => !k.ok).length;
-          return [
-            c.loaded.name,
-            `${b.quantity} (${c.display.unit})`,
-            `${st(b.span.min)} … ${st(b.span.max)}`,
-            s(b.combined.standardUncertainty),
-            `${s(b.combined.expandedUncertainty)} (${formatProbability(b.combined.coverage)})`,
-            failed === 0 ? 'pass' : `${failed} failed`,
-          ];
-        }),
-      },
+      { kind: 'table', columns: summaryColumns, rows: summaryRows(report, plainTextStyle) },
     ],
   };
 }

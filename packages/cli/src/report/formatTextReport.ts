@@ -5,6 +5,7 @@ import type { TextStyle } from '../terminal/textStyle.js';
 import type { ChannelDesign, DesignReport } from './designReport.js';
 import { formatNumber, formatPercent, formatProbability, formatStated } from './formatNumber.js';
 import { noiseSourceName } from './noiseSourceName.js';
+import { summaryColumns, summaryRows } from './summaryTable.js';
 
 const WIDTH = 100;
 
@@ -124,31 +125,6 @@ function channelText(c: ChannelDesign, style: TextStyle): string {
   ].join('\n');
 }
 
-function summaryTable(report: DesignReport, style: TextStyle): string {
-  return formatTable(
-    [
-      { header: 'channel' },
-      { header: 'quantity' },
-      { header: 'span' },
-      { header: 'u_c', align: 'right' },
-      { header: 'U', align: 'right' },
-      { header: 'checks' },
-    ],
-    report.channels.map((c) => {
-      const b = c.budget;
-      const failed = c.checks.filter((k) => !k.ok).length;
-      return [
-        c.loaded.name,
-        `${c.loaded.channel.quantity} (${c.display.unit})`,
-        `${stated(c, b.span.min)} … ${stated(c, b.span.max)}`,
-        shown(c, b.combined.standardUncertainty),
-        `${shown(c, b.combined.expandedUncertainty)} (${formatProbability(b.combined.coverage)})`,
-        failed === 0 ? style.green('pass') : style.red(`${failed} failed`),
-      ];
-    }),
-  );
-}
-
 /**
  * The design report as text for a terminal (or a log): a header, then per channel its hardware
  * in words, the budget table in the shown unit (effect at the budget point, standard uncertainty,
@@ -171,7 +147,7 @@ export function formatTextReport(report: DesignReport, style: TextStyle): string
   if (report.project.description !== undefined)
     head.push(...wrapText(report.project.description, WIDTH, '  '));
   const parts = [head.join('\n'), ...report.channels.map((c) => channelText(c, style))];
-  parts.push(`${style.bold('Summary')}\n${indent(summaryTable(report, style))}`);
+  parts.push(`${style.bold('Summary')}\n${indent(formatTable(summaryColumns, summaryRows(report, style)))}`);
   parts.push(
     report.ok
       ? 'Every check passed.'

@@ -1,10 +1,9 @@
 import { loadChannels } from '../../channels/loadChannels.js';
-import { streamSink } from '../../data/outputSink.js';
 import { exitCodes } from '../../exitCodes.js';
-import { openAtomicFile } from '../../files/atomicFile.js';
 import { readVersion } from '../../internal/readVersion.js';
 import { constantsText, parseTypeList } from '../../report/constantsText.js';
 import type { CommandContext } from '../CommandContext.js';
+import { openResultOutput } from '../resultOutput.js';
 import type { ConstantsArgs } from './constantsCommand.js';
 
 /**
@@ -20,30 +19,25 @@ import type { ConstantsArgs } from './constantsCommand.js';
 export async function run(args: ConstantsArgs, context: CommandContext): Promise<number> {
   const { options } = args;
   const types = options.types === undefined ? undefined : parseTypeList(options.types);
-  const out = options.out === '-' ? undefined : options.out;
   const loaded = await loadChannels(
     args.positionals.channelFile,
     options.channel === undefined ? undefined : [options.channel],
   );
-  const file = out === undefined ? undefined : await openAtomicFile(out, { force: options.force });
+  const output = await openResultOutput(context, options.out, options.force);
   try {
-    const text = constantsText(loaded, {
-      format: options.format,
-      prefix: options.prefix,
-      verification: options.verification,
-      generator: `bridgework ${await readVersion()}`,
-      ...(types === undefined ? {} : { types }),
-    });
-    if (file === undefined) {
-      await streamSink(context.io.stdout).write(text);
-    } else {
-      await file.write(text);
-      await file.commit();
-      const n = loaded.channels.length;
-      context.io.stderr.write(`wrote the constants of ${n} channel${n === 1 ? '' : 's'} to ${out}\n`);
-    }
+    await output.write(
+      constantsText(loaded, {
+        format: options.format,
+        prefix: options.prefix,
+        verification: options.verification,
+        generator: `bridgework ${await readVersion()}`,
+        ...(types === undefined ? {} : { types }),
+      }),
+    );
+    const n = loaded.channels.length;
+    await output.commit(`the constants of ${n} channel${n === 1 ? '' : 's'}`);
     return exitCodes.ok;
   } finally {
-    await file?.abort();
+    await output.abort();
   }
 }

@@ -1,7 +1,7 @@
 import { createInterleavedConverter } from '@bridgework/channel';
-import { BridgeworkError } from '@bridgework/core';
 import { loadChannels } from '../../channels/loadChannels.js';
 import type { InterleavedConverter } from '../../data/clipCounter.js';
+import { splitOptionList } from '../../internal/splitOptionList.js';
 import type { CommandContext } from '../CommandContext.js';
 import type { ConvertArgs } from './convertCommand.js';
 import { runConversion } from './runConversion.js';
@@ -14,16 +14,7 @@ import { runConversion } from './runConversion.js';
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for an empty entry.
  */
 export function parseChannelList(list: string): string[] {
-  return list.split(',').map((entry) => {
-    const name = entry.trim();
-    if (name === '') {
-      throw new BridgeworkError('invalid-option', `\`--channels\` has an empty entry; got '${list}'`, {
-        param: '--channels',
-        value: list,
-      });
-    }
-    return name;
-  });
+  return splitOptionList(list, '--channels');
 }
 
 /**

@@ -1,9 +1,8 @@
 import { resolve } from 'node:path';
 import { BridgeworkError } from '@bridgework/core';
 import { loadChannels } from '../../channels/loadChannels.js';
-import { streamSink } from '../../data/outputSink.js';
 import { exitCodes } from '../../exitCodes.js';
-import { openAtomicFile, type AtomicFile } from '../../files/atomicFile.js';
+import { openAtomicFile } from '../../files/atomicFile.js';
 import { readVersion } from '../../internal/readVersion.js';
 import { designReport } from '../../report/designReport.js';
 import { designReportHtml } from '../../report/designReportHtml.js';
@@ -11,8 +10,8 @@ import { designReportPayload } from '../../report/designReportPayload.js';
 import { formatTextReport } from '../../report/formatTextReport.js';
 import { reportJson } from '../../report/reportJson.js';
 import { runDate } from '../../report/runDate.js';
-import { plainTextStyle } from '../../terminal/textStyle.js';
 import type { CommandContext } from '../CommandContext.js';
+import { openResultOutput } from '../resultOutput.js';
 import type { ReportArgs } from './reportCommand.js';
 
 /**
@@ -41,7 +40,7 @@ export async function run(args: ReportArgs, context: CommandContext): Promise<nu
       value: options.html,
     });
   }
-  const files: AtomicFile[] = [];
+  const files: { abort(): Promise<void> }[] = [];
   try {
     const loaded = await loadChannels(
       args.positionals.channelFile,
@@ -50,8 +49,8 @@ export async function run(args: ReportArgs, context: CommandContext): Promise<nu
     const force = { force: options.force };
     const html = options.html === undefined ? undefined : await openAtomicFile(options.html, force);
     if (html !== undefined) files.push(html);
-    const textFile = out === undefined ? undefined : await openAtomicFile(out, force);
-    if (textFile !== undefined) files.push(textFile);
+    const output = await openResultOutput(context, out, options.force);
+    files.push(output);
     const report = designReport(loaded);
     const generator = `bridgework ${await readVersion()}`;
     if (html !== undefined) {
@@ -59,20 +58,16 @@ export async function run(args: ReportArgs, context: CommandContext): Promise<nu
         designReportHtml(report, { points: options.points, generator, date: runDate(context.io.env) }),
       );
     }
-    const style = out === undefined ? context.stdoutStyle : plainTextStyle;
-    const text = options.json
-      ? reportJson(designReportPayload(report), { generator })
-      : formatTextReport(report, style);
-    if (textFile === undefined) await streamSink(context.io.stdout).write(text);
-    else await textFile.write(text);
+    await output.write(
+      options.json
+        ? reportJson(designReportPayload(report), { generator })
+        : formatTextReport(report, output.style),
+    );
     if (html !== undefined) {
       await html.commit();
       context.io.stderr.write(`wrote the HTML report to ${options.html}\n`);
     }
-    if (textFile !== undefined) {
-      await textFile.commit();
-      context.io.stderr.write(`wrote the ${options.json ? 'JSON' : 'text'} report to ${out}\n`);
-    }
+    await output.commit(`the ${options.json ? 'JSON' : 'text'} report`);
     return report.ok ? exitCodes.ok : exitCodes.failedCheck;
   } finally {
     for (const f of files) await f.abort();

@@ -1,12 +1,9 @@
 import { createChannel } from '@bridgework/channel';
 import { inChannel, loadChannels } from '../../channels/loadChannels.js';
-import { streamSink } from '../../data/outputSink.js';
 import { exitCodes } from '../../exitCodes.js';
-import { openAtomicFile } from '../../files/atomicFile.js';
 import { readVersion } from '../../internal/readVersion.js';
 import { displayUnit } from '../../report/displayUnit.js';
 import { reportJson } from '../../report/reportJson.js';
-import { plainTextStyle } from '../../terminal/textStyle.js';
 import { batchedMonteCarlo } from '../../uncertainty/batchedMonteCarlo.js';
 import {
   formatUncertainty,
@@ -14,6 +11,7 @@ import {
   type ChannelUncertainty,
 } from '../../uncertainty/formatUncertainty.js';
 import type { CommandContext } from '../CommandContext.js';
+import { openResultOutput } from '../resultOutput.js';
 import type { UncertaintyArgs } from './uncertaintyCommand.js';
 
 /**
@@ -33,12 +31,11 @@ import type { UncertaintyArgs } from './uncertaintyCommand.js';
  */
 export async function run(args: UncertaintyArgs, context: CommandContext): Promise<number> {
   const { options } = args;
-  const out = options.out === '-' ? undefined : options.out;
   const loaded = await loadChannels(
     args.positionals.channelFile,
     options.channel === undefined ? undefined : [options.channel],
   );
-  const file = out === undefined ? undefined : await openAtomicFile(out, { force: options.force });
+  const output = await openResultOutput(context, options.out, options.force);
   try {
     const runs: ChannelUncertainty[] = loaded.channels.map((c) => {
       const channel =
@@ -68,21 +65,16 @@ export async function run(args: UncertaintyArgs, context: CommandContext): Promi
         bar.finish();
       }
     });
-    const style = file === undefined ? context.stdoutStyle : plainTextStyle;
-    const text = options.json
-      ? reportJson(uncertaintyPayload(loaded.file.file, runs), {
-          generator: `bridgework ${await readVersion()}`,
-        })
-      : formatUncertainty(loaded.file.file, runs, style);
-    if (file === undefined) {
-      await streamSink(context.io.stdout).write(text);
-    } else {
-      await file.write(text);
-      await file.commit();
-      context.io.stderr.write(`wrote the Monte Carlo results to ${out}\n`);
-    }
+    await output.write(
+      options.json
+        ? reportJson(uncertaintyPayload(loaded.file.file, runs), {
+            generator: `bridgework ${await readVersion()}`,
+          })
+        : formatUncertainty(loaded.file.file, runs, output.style),
+    );
+    await output.commit('the Monte Carlo results');
     return exitCodes.ok;
   } finally {
-    await file?.abort();
+    await output.abort();
   }
 }
