@@ -82,8 +82,9 @@ describe('pnpm demo', () => {
     JSON.parse(readFileSync(join(repoRoot, 'package.json'), 'utf8')) as { scripts: Record<string, string> }
   ).scripts;
 
-  it('is the root script that runs the command from the sources', () => {
+  it('is the root script that runs the command from the sources (as `pnpm bridgework` runs any command)', () => {
     expect(scripts['demo']).toBe('tsx --conditions=@bridgework/source packages/cli/src/bin.ts demo');
+    expect(scripts['bridgework']).toBe('tsx --conditions=@bridgework/source packages/cli/src/bin.ts');
   });
 
   it('runs as written, from the repository root, with no build', () => {

@@ -103,10 +103,10 @@ export async function run(args: DemoArgs, context: CommandContext): Promise<numb
       `\n${style.bold('The demo wrote:')}\n` +
       `  HTML report with plots  ${htmlPath}\n` +
       `  C header of constants   ${headerPath}\n\n` +
-      `Open the HTML report in a browser. To run this on your own channels:\n` +
-      `  bridgework report <channel-file> --html report.html\n` +
-      `  bridgework constants <channel-file> -o constants.h\n` +
-      `(see docs/cli.md and docs/channel-file.md; 'bridgework --help' lists every command).\n`;
+      'Open the HTML report in a browser. From this clone, run the command on a channel file of your own:\n' +
+      '  pnpm bridgework report <channel-file> --html report.html\n' +
+      '  pnpm bridgework constants <channel-file> -o constants.h\n' +
+      "(docs/cli.md and docs/channel-file.md explain them; 'pnpm bridgework --help' lists every command).\n";
     await streamSink(context.io.stdout).write(intro + formatTextReport(report, style) + outro);
     return report.ok ? exitCodes.ok : exitCodes.failedCheck;
   } finally {
