@@ -102,7 +102,13 @@ export { designReport, type ChannelDesign, type DesignReport } from './report/de
 export { designChecks, type DesignCheckRow } from './report/designChecks.js';
 export { describeChannel } from './report/describeChannel.js';
 export { displayUnit, type DisplayUnit } from './report/displayUnit.js';
-export { formatNumber, formatPercent, formatProbability, formatStated } from './report/formatNumber.js';
+export {
+  formatCode,
+  formatNumber,
+  formatPercent,
+  formatProbability,
+  formatStated,
+} from './report/formatNumber.js';
 export { formatTextReport } from './report/formatTextReport.js';
 export { summaryColumns, summaryRows } from './report/summaryTable.js';
 export { designReportPayload } from './report/designReportPayload.js';

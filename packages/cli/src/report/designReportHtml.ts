@@ -9,7 +9,7 @@ import {
 import { channelCurves } from './channelCurves.js';
 import { channelInputs } from './channelInputs.js';
 import type { ChannelDesign, DesignReport } from './designReport.js';
-import { formatNumber, formatPercent, formatProbability, formatStated } from './formatNumber.js';
+import { formatCode, formatNumber, formatPercent, formatProbability, formatStated } from './formatNumber.js';
 import { plainTextStyle } from '../terminal/textStyle.js';
 import { noiseSourceName } from './noiseSourceName.js';
 import { summaryColumns, summaryRows } from './summaryTable.js';
@@ -134,7 +134,7 @@ function channelSection(c: ChannelDesign, points: number): ReportSection {
       kind: 'text',
       text:
         `Span ${st(budget.span.min)} … ${st(budget.span.max)} ${u}. The budget is evaluated at ${st(budget.at)} ${u} ` +
-        `(code ${budget.code.toFixed(1)}, converter input ${formatNumber(c.inputRatioAtPoint * 1e3, 5)} mV/V, ` +
+        `(code ${formatCode(budget.code)}, converter input ${formatNumber(c.inputRatioAtPoint * 1e3, 5)} mV/V, ` +
         `${s(Math.abs(budget.quantityPerCode))} ${u} per code): combined standard uncertainty ${s(uc)} ${u}, ` +
         `expanded uncertainty ${s(budget.combined.expandedUncertainty)} ${u} (${p}, k = ${formatNumber(budget.combined.coverageFactor)}).`,
     },

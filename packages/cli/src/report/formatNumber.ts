@@ -64,3 +64,13 @@ export function formatStated(x: number): string {
     .replace(/(\.\d*?)0+(?=$|e)/, '$1')
     .replace(/\.(?=$|e)/, '');
 }
+
+/**
+ * A (fractional) converter code: one decimal and a true minus sign, `-13339.47` → `−13339.5`.
+ *
+ * @param code - The code.
+ * @returns The text.
+ */
+export function formatCode(code: number): string {
+  return code.toFixed(1).replace('-', '−');
+}

@@ -3,7 +3,7 @@ import { wrapText } from '../internal/wrapText.js';
 import { formatTable } from '../terminal/formatTable.js';
 import type { TextStyle } from '../terminal/textStyle.js';
 import type { ChannelDesign, DesignReport } from './designReport.js';
-import { formatNumber, formatPercent, formatProbability, formatStated } from './formatNumber.js';
+import { formatCode, formatNumber, formatPercent, formatProbability, formatStated } from './formatNumber.js';
 import { noiseSourceName } from './noiseSourceName.js';
 import { summaryColumns, summaryRows } from './summaryTable.js';
 
@@ -111,7 +111,7 @@ function channelText(c: ChannelDesign, style: TextStyle): string {
   const head = `${style.bold(c.loaded.name)}: ${quantity}${unit === c.loaded.channel.unit ? ` (${unit})` : `, shown in ${unit}`}`;
   const point =
     `span ${stated(c, budget.span.min)} … ${stated(c, budget.span.max)} ${unit}; budget at ${stated(c, budget.at)} ${unit}: ` +
-    `code ${budget.code.toFixed(1)}, converter input ${formatNumber(c.inputRatioAtPoint * 1e3, 5)} mV/V, ` +
+    `code ${formatCode(budget.code)}, converter input ${formatNumber(c.inputRatioAtPoint * 1e3, 5)} mV/V, ` +
     `${shown(c, Math.abs(budget.quantityPerCode))} ${unit} per code`;
   const about = [...c.description, point].flatMap((l) => wrapText(l, WIDTH - 2));
   return [
