@@ -7,7 +7,8 @@
  * excites at 5 V, reads with a 1 MΩ input, and sits 35 m away on a 4-core screened cable of
  * 0.93 Ω per conductor.
  *
- * Run: pnpm demo   (or: pnpm exec tsx --conditions=@bridgework/source examples/footbridge-hanger.ts)
+ * Run: pnpm exec tsx --conditions=@bridgework/source examples/footbridge-hanger.ts
+ * (`pnpm demo` runs the command's demo on examples/footbridge-monitoring.yaml, the same bridge.)
  */
 import { createStrainBridge, solveBridge, type StrainBridgeOptions } from '@bridgework/bridge';
 import { microstrainFromStrain, millivoltsPerVoltFromRatio, strainFromMicrostrain } from '@bridgework/core';

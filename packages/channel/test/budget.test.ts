@@ -120,6 +120,20 @@ describe('budget: lines, models and the combined uncertainty', () => {
     expect(mc.value).toBeNear(2000, { abs: 0.05 });
   });
 
+  it('returns the Monte Carlo model values on request, the same run as without them', () => {
+    const channel = createChannel(spec);
+    const plain = channel.budget({ monteCarlo: { trials: 5000, seed: 3 } }).monteCarlo!;
+    const kept = channel.budget({ monteCarlo: { trials: 5000, seed: 3, returnValues: true } }).monteCarlo!;
+    expect(plain.values).toBeUndefined();
+    expect(kept.values).toHaveLength(5000);
+    expect(kept.value).toBe(plain.value);
+    expect(kept.standardUncertainty).toBe(plain.standardUncertainty);
+    // The estimate is the mean of the values (JCGM 101 7.6), recomputed here from them.
+    let sum = 0;
+    for (const v of kept.values!) sum += v;
+    expect(sum / 5000).toBeNear(kept.value, { rel: 1e-12 });
+  });
+
   it('adds the IEC 60751 class tolerance of an RTD (class A at 100 °C: ±0.35 °C)', () => {
     const rtd = createChannel({
       sensor: { kind: 'rtd', toleranceClass: 'A' },

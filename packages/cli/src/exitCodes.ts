@@ -5,7 +5,7 @@
  * - `ok` (0): the command did what was asked and every check passed.
  * - `badInput` (1): the command could not run as asked: a usage error (unknown option, missing or
  *   malformed value), a file that cannot be read or parsed, a channel file that fails validation,
- *   an output file that exists already without `--force`, or a feature that is not available yet.
+ *   an output file that exists already without `--force`.
  * - `failedCheck` (2): the command ran and wrote its results, but a design check failed (for
  *   example amplifier or converter headroom, or an accuracy-class check).
  *

@@ -24,11 +24,10 @@ export { formatCommandHelp, formatProgramHelp, type HelpFormatOptions } from './
 export { formatCliReference } from './args/formatCliReference.js';
 export { commands } from './commands/registry.js';
 export type { CommandContext } from './commands/CommandContext.js';
-export { notAvailableYet } from './commands/notAvailable.js';
-export { emitText, type EmitTextOptions } from './commands/emitText.js';
+export { openResultOutput, type ResultOutput } from './commands/resultOutput.js';
 
 // Terminal output
-export { colorEnabled, createTextStyle, type TextStyle } from './terminal/textStyle.js';
+export { colorEnabled, createTextStyle, plainTextStyle, type TextStyle } from './terminal/textStyle.js';
 export { createProgressBar, type ProgressBar, type ProgressBarOptions } from './terminal/progressBar.js';
 export { formatTable, type TableColumn } from './terminal/formatTable.js';
 
@@ -81,6 +80,7 @@ export { readChannelDocument } from './channelFile/readChannelDocument.js';
 export { formatIssues } from './channelFile/formatIssues.js';
 export {
   loadChannelFile,
+  channelNamePattern,
   selectChannels,
   validateChannelDocument,
   type ChannelFile,
@@ -92,8 +92,46 @@ export {
   type QuantityParser,
 } from './channelFile/loadChannelFile.js';
 
+export { validateChannelEntry } from './channels/validateChannelEntry.js';
+export { loadChannels, type LoadedChannel, type LoadedChannels } from './channels/loadChannels.js';
+export { channelFileJsonSchema } from './channels/channelFileJsonSchema.js';
+
 // Reports
 export { appendCaution, reportJson, type ReportJsonOptions } from './report/reportJson.js';
+export { designReport, type ChannelDesign, type DesignReport } from './report/designReport.js';
+export { designChecks, type DesignCheckRow } from './report/designChecks.js';
+export { describeChannel } from './report/describeChannel.js';
+export { displayUnit, type DisplayUnit } from './report/displayUnit.js';
+export {
+  formatCode,
+  formatNumber,
+  formatPercent,
+  formatProbability,
+  formatStated,
+} from './report/formatNumber.js';
+export { formatTextReport } from './report/formatTextReport.js';
+export { summaryColumns, summaryRows } from './report/summaryTable.js';
+export { designReportPayload } from './report/designReportPayload.js';
+export { designReportHtml, type DesignReportHtmlOptions } from './report/designReportHtml.js';
+export { channelCurves, type ChannelCurves } from './report/channelCurves.js';
+export { channelInputs } from './report/channelInputs.js';
+export { noiseSourceName } from './report/noiseSourceName.js';
+export { runDate } from './report/runDate.js';
+export { constantsText, parseTypeList, type ConstantsTextOptions } from './report/constantsText.js';
+
+// Monte Carlo in batches
+export {
+  BATCH_TRIALS,
+  batchSizes,
+  batchedMonteCarlo,
+  type BatchedMonteCarloOptions,
+  type BatchedMonteCarloResult,
+} from './uncertainty/batchedMonteCarlo.js';
+export {
+  formatUncertainty,
+  uncertaintyPayload,
+  type ChannelUncertainty,
+} from './uncertainty/formatUncertainty.js';
 export { formatTick, niceTicks, type NiceTicks } from './html/niceTicks.js';
 export type { PlotAxis, SvgPlot } from './html/plotTypes.js';
 export { linePlot, type LinePlotOptions, type LineSeries } from './html/linePlot.js';

@@ -1,13 +1,16 @@
 /**
- * Opens a report page built from synthetic plot data in headless Chromium (Debian's chromium,
- * driven by playwright-core; no browser is ever downloaded) and checks that every plot renders
- * with the expected number of series and labelled axes, then saves a screenshot into
- * test-results/. Without chromium the test is skipped locally and fails under CI.
+ * Opens the real HTML report, written by `bridgework report --html` for the example channel file,
+ * in headless Chromium (Debian's chromium, driven by playwright-core; no browser is ever
+ * downloaded) and checks that every plot renders with the expected number of series and labelled
+ * axes with units, then saves screenshots into test-results/. Without chromium the test is
+ * skipped locally and fails under CI.
  */
-import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { syntheticReport } from './support/syntheticReport.js';
+import { runCli } from '../src/runCli.js';
+import { exampleShown, footbridgeNames } from './support/footbridge.js';
+import { memoryIo } from './support/memoryIo.js';
 
 const executablePath = '/usr/bin/chromium';
 const haveChromium = existsSync(executablePath);
@@ -26,16 +29,56 @@ interface RenderedPlot {
   wellFormed: boolean;
 }
 
+interface PlotExpectation {
+  readonly id: string;
+  readonly series: readonly string[];
+  readonly axes: readonly string[];
+}
+
+/** Four plots per channel of the example, with their series and axis titles (units in parentheses). */
+function expectedPlots(): PlotExpectation[] {
+  const quantity: Record<string, readonly [string, string]> = {
+    'hanger-h3': ['Force', 'kN'],
+    'gusset-g2': ['Strain', 'µε'],
+    'deck-temp': ['Temperature', '°C'],
+  };
+  return footbridgeNames.flatMap((name) => {
+    const [label, unit] = quantity[name]!;
+    return [
+      {
+        id: `${name}-output`,
+        series: ['exact map', 'terminal line'],
+        axes: [`${label} (${unit})`, 'Converter input (mV/V)'],
+      },
+      {
+        id: `${name}-nonlinearity`,
+        series: ['nonlinearity error'],
+        axes: [`${label} (${unit})`, `Exact map − terminal line (${unit})`],
+      },
+      { id: `${name}-budget`, series: ['u'], axes: [`Standard uncertainty (${unit})`] },
+      {
+        id: `${name}-noise`,
+        series: ['rms', 'peak-to-peak'],
+        axes: [`Noise referred to the output (${unit})`],
+      },
+    ];
+  });
+}
+
 describe('HTML report in a browser', () => {
   it.skipIf(!haveChromium && !ci)(
-    'renders every plot with its series and labelled axes (headless Chromium)',
+    'renders every plot of the real report with its series and labelled axes (headless Chromium)',
     async () => {
       if (!haveChromium)
         throw new Error(`${executablePath} is missing: install the Debian package chromium (.ci/run does)`);
       const { chromium } = await import('playwright-core');
-      const { html, plots } = syntheticReport();
       mkdirSync(results, { recursive: true });
-      writeFileSync(`${results}cli-report-synthetic.html`, html);
+      const htmlPath = `${results}cli-report.html`;
+      const io = memoryIo();
+      const code = await runCli(['report', exampleShown, '--html', htmlPath, '--force'], io);
+      expect(code, io.stderr.text()).toBe(0);
+      const html = readFileSync(htmlPath, 'utf8');
+      const plots = expectedPlots();
       const browser = await chromium.launch({
         executablePath,
         args: [
@@ -110,9 +153,17 @@ describe('HTML report in a browser', () => {
         expect(await page.locator('aside.caution').textContent()).toContain(
           'do not replace, qualified engineering judgement',
         );
+        expect(await page.locator('footer').textContent()).toContain(
+          'do not replace, qualified engineering judgement',
+        );
+        // A summary and one section per channel, each with its checks and its inputs.
+        expect(await page.locator('main > section').count()).toBe(1 + footbridgeNames.length);
+        expect(await page.locator('ul.checks li.pass').count()).toBe(6 + 2 + 2);
+        expect(await page.locator('div.inputs').count()).toBe(footbridgeNames.length);
         expect(requests).toEqual([]); // self-contained: nothing fetched
         await page.screenshot({ path: `${results}cli-report.png`, fullPage: true });
-        for (const p of plots)
+        // One channel's plots on their own, for a closer look.
+        for (const p of plots.filter((x) => x.id.startsWith('hanger-h3-')))
           await page.locator(`figure#${p.id}`).screenshot({ path: `${results}cli-plot-${p.id}.png` });
         expect(existsSync(`${results}cli-report.png`)).toBe(true);
       } finally {

@@ -1,7 +1,9 @@
 /**
  * Files larger than memory: a 50 MB raw recording converts with bounded memory, and a conversion
  * killed mid-way leaves no file at the output path. Both run the pipeline in a child process
- * with the test-only pass-through converter (the channel's converter is not built yet).
+ * with the test-only pass-through converter, which keeps the measurement about the streaming
+ * alone (the hash pattern fills the whole int32 range, beyond any channel's rails); the command
+ * with the channel package's converter is tested end to end in convertCommand.test.ts.
  */
 import {
   closeSync,

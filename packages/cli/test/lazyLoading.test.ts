@@ -1,6 +1,7 @@
 /**
  * `bridgework --help` must start fast, so the executable's static import graph may reach only the
- * parser, the option tables and core: no command body, and none of mathjs, yaml or playwright.
+ * parser, the option tables and core: no command body, and none of the channel package (and the
+ * packages below it), mathjs, yaml or playwright.
  * (The start-up time itself is measured by test/bench/cli.bench.ts.)
  */
 import { readFileSync } from 'node:fs';
@@ -42,7 +43,7 @@ describe('start-up path', () => {
     for (const p of packages) expect(p.startsWith('node:') || p === '@bridgework/core', p).toBe(true);
   });
 
-  it('loads no command body, no data, unit, channel-file or HTML module', () => {
+  it('loads no command body, no data, unit, channel-file, channel, report, uncertainty or HTML module', () => {
     const loaded = [...files].map((f) => relative(src, f));
     expect(loaded).toContain('commands/registry.ts');
     for (const f of loaded) {
@@ -51,14 +52,21 @@ describe('start-up path', () => {
         expect(staticImports(join(src, f))).toEqual([]);
         continue;
       }
-      expect(f, f).not.toMatch(/^(data|units|channelFile|html|report|files)\//);
+      expect(f, f).not.toMatch(/^(data|units|channelFile|channels|html|report|uncertainty|files)\//);
       expect(f, f).not.toMatch(/\/run[A-Z]\w*\.ts$/);
     }
   });
 
-  it('the import scanner sees what it should (a module known to import mathjs and yaml)', () => {
+  it('the import scanner sees what it should (modules known to import mathjs, yaml and the channel package)', () => {
     expect(closure(join(src, 'units/parseQuantity.ts')).packages).toContain('node:module');
     expect(closure(join(src, 'channelFile/parseChannelDocument.ts')).packages).toContain('yaml');
+    expect(closure(join(src, 'commands/report/runReport.ts')).packages).toContain('@bridgework/channel');
+    expect(closure(join(src, 'commands/constants/runConstants.ts')).packages).toContain(
+      '@bridgework/firmware',
+    );
+    expect(closure(join(src, 'commands/uncertainty/runUncertainty.ts')).packages).toContain(
+      '@bridgework/uncertainty',
+    );
   });
 
   it.each(commands.map((c) => [c.name, c] as const))(

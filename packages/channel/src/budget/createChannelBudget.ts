@@ -40,6 +40,11 @@ export interface MonteCarloBudgetOptions {
   readonly trials?: number;
   /** Seed of the random streams. Default 1. */
   readonly seed?: number;
+  /**
+   * Keep the model values in trial order in `monteCarlo.values` (8 bytes per trial), e.g. to pool
+   * several seeded runs and compute coverage intervals over all of them. Default false.
+   */
+  readonly returnValues?: boolean;
 }
 
 /** One line of the budget. */
@@ -288,6 +293,7 @@ export function createChannelBudget(
           coverage: t.coverageProbability,
           trials: (mcOptions === true ? undefined : mcOptions.trials) ?? 100_000,
           seed: (mcOptions === true ? undefined : mcOptions.seed) ?? 1,
+          ...(mcOptions !== true && mcOptions.returnValues === true ? { returnValues: true } : {}),
         });
 
   const lines: ChannelBudgetLine[] = [];

@@ -56,9 +56,10 @@ export interface LoadChannelFileOptions<T> {
   readonly validateChannel: ChannelValidator<T>;
 }
 
-const topLevelKeys = ['project', 'channels'] as const;
+const topLevelKeys = ['$schema', 'project', 'channels'] as const;
 const projectKeys = ['title', 'description', 'reference'] as const;
-const channelName = /^[A-Za-z][A-Za-z0-9_-]{0,62}$/;
+/** What a channel name (a key under `channels`) must match: a letter, then letters, digits, `_` and `-`, at most 63 in all. */
+export const channelNamePattern = /^[A-Za-z][A-Za-z0-9_-]{0,62}$/;
 
 function isRecord(x: unknown): x is Record<string, unknown> {
   return typeof x === 'object' && x !== null && !Array.isArray(x);
@@ -82,8 +83,8 @@ function unknownKeys(record: Record<string, unknown>, known: readonly string[], 
  *
  * @remarks
  * Layout: the top level is a mapping with `channels` (required: a non-empty mapping from channel
- * name to channel spec) and `project` (optional: `title`, `description`, `reference`, each a
- * string). Names start with a letter and hold letters, digits, `_` and `-` (at most 63), so they
+ * name to channel spec), `project` (optional: `title`, `description`, `reference`, each a
+ * string) and `$schema` (optional: a text naming the JSON Schema for editors, otherwise ignored). Names start with a letter and hold letters, digits, `_` and `-` (at most 63), so they
  * can become C identifiers and CSV headings. Unknown fields are errors (typo protection), with
  * the closest known name suggested. Issues from `validateChannel` are prefixed with
  * `channels.<name>.`.
@@ -106,6 +107,9 @@ export function validateChannelDocument<T>(
     issues.push({ path: '', message: `must be a mapping with a 'channels' field; got ${formatValue(root)}` });
   } else {
     issues.push(...unknownKeys(root, topLevelKeys, ''));
+    // `$schema` names the JSON Schema for editors; the command only checks that it is a text.
+    if (root['$schema'] !== undefined && typeof root['$schema'] !== 'string')
+      issues.push({ path: '$schema', message: `must be a text; got ${formatValue(root['$schema'])}` });
     if (root['project'] !== undefined) {
       const p = root['project'];
       if (!isRecord(p)) {
@@ -130,7 +134,7 @@ export function validateChannelDocument<T>(
       });
     } else {
       for (const [name, raw] of Object.entries(list)) {
-        if (!channelName.test(name)) {
+        if (!channelNamePattern.test(name)) {
           issues.push({
             path: `channels.${name}`,
             message:

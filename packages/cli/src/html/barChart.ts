@@ -123,13 +123,15 @@ export function barChart(options: BarChartOptions): SvgPlot {
   const top = nSeries > 1 ? 58 : 40;
   const bottom = 50;
   const maxLabel = Math.floor(width * 0.42);
-  const labels = categories.map((c) => {
-    if (textWidth(c) <= maxLabel - 12) return c;
+  // Emphasised labels are bold, about a tenth wider than regular text.
+  const labelWidth = (text: string, j: number): number => textWidth(text) * (emphasized.has(j) ? 1.1 : 1);
+  const labels = categories.map((c, j) => {
+    if (labelWidth(c, j) <= maxLabel - 12) return c;
     let short = c;
-    while (short.length > 1 && textWidth(`${short}…`) > maxLabel - 12) short = short.slice(0, -1);
+    while (short.length > 1 && labelWidth(`${short}…`, j) > maxLabel - 12) short = short.slice(0, -1);
     return `${short.trimEnd()}…`;
   });
-  const left = Math.ceil(Math.min(maxLabel, Math.max(...labels.map((l) => textWidth(l))) + 16));
+  const left = Math.ceil(Math.min(maxLabel, Math.max(...labels.map((l, j) => labelWidth(l, j))) + 16));
   const valueRoom = Math.max(...all.map((v) => textWidth(valueLabel(v)))) + 10;
   const right = Math.ceil(Math.max(18, valueRoom));
   const w = width - left - right;

@@ -24,6 +24,7 @@ caption { text-align: left; font-weight: 600; padding: 0 0 6px; }
 th, td { padding: 5px 12px 5px 0; border-bottom: 1px solid var(--line); text-align: left; vertical-align: top; }
 th { font-weight: 600; color: var(--muted); border-bottom: 2px solid var(--line); }
 td.num, th.num { text-align: right; font-variant-numeric: tabular-nums; }
+td.num { white-space: nowrap; }
 tbody tr:nth-child(even) td { background: var(--soft); }
 .plots { display: grid; grid-template-columns: repeat(auto-fit, minmax(440px, 1fr)); gap: 18px; margin: 12px 0 20px;
   align-items: start; }
@@ -38,6 +39,7 @@ li.fail .badge { background: var(--fail); }
 .detail { color: var(--muted); }
 .inputs { display: grid; grid-template-columns: repeat(auto-fit, minmax(420px, 1fr)); gap: 0 28px; }
 .inputs table { width: 100%; }
+.inputs td:nth-child(3) { white-space: nowrap; }
 footer { margin-top: 48px; padding-top: 12px; border-top: 1px solid var(--line); color: var(--muted); font-size: 13px; }
 @media print {
   body { max-width: none; padding: 0; font-size: 11pt; }

@@ -41,6 +41,16 @@ function sgr(on: number, off: number): (text: string) => string {
 
 const identity = (text: string): string => text;
 
+/** The style without colours, for text written to files. */
+export const plainTextStyle: TextStyle = Object.freeze({
+  enabled: false,
+  bold: identity,
+  dim: identity,
+  red: identity,
+  green: identity,
+  yellow: identity,
+});
+
 /**
  * The text style for a stream: ANSI colours when {@link colorEnabled} allows them, plain text
  * otherwise.
@@ -58,16 +68,7 @@ export function createTextStyle(
   stream: CliStream,
   env: Readonly<Record<string, string | undefined>>,
 ): TextStyle {
-  if (!colorEnabled(stream, env)) {
-    return {
-      enabled: false,
-      bold: identity,
-      dim: identity,
-      red: identity,
-      green: identity,
-      yellow: identity,
-    };
-  }
+  if (!colorEnabled(stream, env)) return plainTextStyle;
   return {
     enabled: true,
     bold: sgr(1, 22),

@@ -17,7 +17,7 @@ export const constantsOptions = [
     placeholder: 'format',
     choices: ['c', 'json'],
     default: 'c',
-    description: 'Output format.',
+    description: 'Output format: a C99 header, or JSON.',
   },
   outOption,
   forceOption,
@@ -26,8 +26,26 @@ export const constantsOptions = [
     name: 'prefix',
     type: 'string',
     placeholder: 'name',
-    defaultText: 'the channel name in upper case',
-    description: 'Prefix of the C identifiers: letters, digits and underscores.',
+    default: 'bridgework',
+    description:
+      'Prefix of every emitted name: lower-case words of letters and digits joined by _, at most 24 characters (functions are <prefix>_<channel>_fixed, macros <PREFIX>_<CHANNEL>_...).',
+  },
+  {
+    name: 'types',
+    type: 'string',
+    placeholder: 'list',
+    defaultText: 'fixed,float32,float64',
+    description:
+      'The evaluators to write, comma-separated: fixed (integer arithmetic), float32, float64. A Cortex-M4F, whose FPU has no double precision, wants fixed,float32.',
+  },
+  {
+    name: 'verification',
+    type: 'choice',
+    placeholder: 'mode',
+    choices: ['auto', 'exhaustive', 'sampled'],
+    default: 'auto',
+    description:
+      'How the error bounds are verified: every code of the span (exhaustive), an analytic bound checked on about 50 000 codes (sampled), or exhaustive up to 2^24 codes (auto).',
   },
 ] as const satisfies readonly OptionSpec[];
 
@@ -39,11 +57,18 @@ export const constantsCommand = defineCommand({
   name: 'constants',
   summary: 'Firmware constants of each channel as a C header or JSON.',
   description:
-    'Writes the code-to-quantity map of each channel for firmware: float and fixed-point constants with their proved error bounds, as a C99 header (default) or as JSON. Identifiers are prefixed with the channel name so several channels can share one header.',
+    'Writes the code-to-quantity map of each channel for firmware over its span of interest: a fixed-point map (integer multiply, add and shift on the minimax line of the exact map) and float32 and float64 Chebyshev polynomials, each with its proved rounding bound and its error against the exact channel map, as a C99 header (default) or as JSON. One header holds every selected channel; identifiers are the prefix and the channel name, so several channels and several headers can live in one firmware. The header and the JSON carry the safety caution.',
   positionals: constantsArguments,
   options: constantsOptions,
   examples: [
-    { command: 'bridgework constants hopper.yaml -o hopper_channels.h', description: 'Write a C header.' },
+    {
+      command: 'bridgework constants hopper.yaml --prefix hopper -o hopper_constants.h',
+      description: 'Write a C header for every channel.',
+    },
+    {
+      command: 'bridgework constants hopper.yaml --types fixed,float32 -o hopper_m4f.h',
+      description: 'Only the evaluators a Cortex-M4F runs fast.',
+    },
     {
       command: 'bridgework constants hopper.yaml --format json',
       description: 'Print the constants as JSON.',

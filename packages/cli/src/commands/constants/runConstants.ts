@@ -1,15 +1,43 @@
+import { loadChannels } from '../../channels/loadChannels.js';
+import { exitCodes } from '../../exitCodes.js';
+import { readVersion } from '../../internal/readVersion.js';
+import { constantsText, parseTypeList } from '../../report/constantsText.js';
 import type { CommandContext } from '../CommandContext.js';
-import { notAvailableYet } from '../notAvailable.js';
+import { openResultOutput } from '../resultOutput.js';
 import type { ConstantsArgs } from './constantsCommand.js';
 
 /**
- * The body of `bridgework constants`.
+ * The body of `bridgework constants`: the firmware constants of the selected channels as one C
+ * header or JSON ({@link constantsText}), to a file (atomically) or standard output.
  *
- * @remarks
- * Waiting for the channel package. Wiring: `loadChannelFile`, then per channel
- * `createChannel(spec).constants()` and the firmware emitters (C header or JSON, the JSON through
- * `reportJson` so it carries the caution); output through `emitText` (stdout or an atomic file).
+ * @param args - The parsed command line.
+ * @param context - The command context.
+ * @returns `exitCodes.ok`.
+ * @throws {@link @bridgework/core!BridgeworkError} for a bad channel file, `--prefix` or `--types`,
+ * or an existing output without `--force`.
  */
-export function run(_args: ConstantsArgs, context: CommandContext): Promise<number> {
-  return Promise.resolve(notAvailableYet(context, 'the channel and firmware packages for the constants'));
+export async function run(args: ConstantsArgs, context: CommandContext): Promise<number> {
+  const { options } = args;
+  const types = options.types === undefined ? undefined : parseTypeList(options.types);
+  const loaded = await loadChannels(
+    args.positionals.channelFile,
+    options.channel === undefined ? undefined : [options.channel],
+  );
+  const output = await openResultOutput(context, options.out, options.force);
+  try {
+    await output.write(
+      constantsText(loaded, {
+        format: options.format,
+        prefix: options.prefix,
+        verification: options.verification,
+        generator: `bridgework ${await readVersion()}`,
+        ...(types === undefined ? {} : { types }),
+      }),
+    );
+    const n = loaded.channels.length;
+    await output.commit(`the constants of ${n} channel${n === 1 ? '' : 's'}`);
+    return exitCodes.ok;
+  } finally {
+    await output.abort();
+  }
 }

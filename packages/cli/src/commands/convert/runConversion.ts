@@ -3,6 +3,7 @@ import { formatClipSummary, type InterleavedConverter } from '../../data/clipCou
 import { convertToCsv } from '../../data/convertToCsv.js';
 import { openCodeSource } from '../../data/openCodeSource.js';
 import { exitCodes } from '../../exitCodes.js';
+import { splitOptionList } from '../../internal/splitOptionList.js';
 import type { CommandContext } from '../CommandContext.js';
 import type { ConvertArgs } from './convertCommand.js';
 
@@ -22,16 +23,7 @@ export interface ConversionChannels {
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for an empty entry.
  */
 export function parseColumnList(list: string): (string | number)[] {
-  return list.split(',').map((entry) => {
-    const t = entry.trim();
-    if (t === '') {
-      throw new BridgeworkError('invalid-option', `\`--columns\` has an empty entry; got '${list}'`, {
-        param: '--columns',
-        value: list,
-      });
-    }
-    return /^\d+$/.test(t) ? Number(t) : t;
-  });
+  return splitOptionList(list, '--columns').map((t) => (/^\d+$/.test(t) ? Number(t) : t));
 }
 
 /**

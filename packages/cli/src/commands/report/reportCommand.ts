@@ -41,9 +41,9 @@ export const reportCommand = defineCommand({
   name: 'report',
   summary: 'Design report of each channel: error budget, noise, headroom checks.',
   description:
-    'Prints the budget of each channel in the file as a table: every error source in the output unit with its model and inputs (noise by source, resolution, nonlinearity of a linear map, lead desensitization, temperature effects, gain and offset tolerances), the combined standard and expanded uncertainty, and the headroom checks.\n\n' +
-    'With --json the same content is printed as JSON for scripts. With --html a self-contained HTML report is written as well, with plots (output against the quantity beside the linear line, nonlinearity error, error budget bars, noise contributions) and the inputs of each channel.\n\n' +
-    'The exit code is 2 when a design check fails; the report is still printed and written.',
+    "Prints the budget of each channel in the file as a table, in the units people read (µε, mV/V, kN...): every line of the channel package's budget with its effect at the budget point, its standard uncertainty and its share of the combined variance (noise, resolution, nonlinearity of a linear map, lead desensitization, each stated tolerance, gauge temperature, RTD class), the combined standard and expanded uncertainty, noise by source, resolution, and the headroom checks.\n\n" +
+    "With --json the same content is printed as JSON for scripts, in the channel's own unit, with each line's model and inputs. With --html a self-contained HTML report is written as well, with plots (converter input against the quantity beside the terminal line, the nonlinearity of that line, error budget bars, noise contributions), each line's model and the inputs of each channel.\n\n" +
+    'The exit code is 2 when a design check fails; the reports are still printed and written.',
   positionals: reportArguments,
   options: reportOptions,
   examples: [

@@ -1,0 +1,170 @@
+/**
+ * Bad channel files through the real command and the real channel schema: each mistake gives
+ * its message with the file, position and field path, all mistakes at once, exit code 1, and
+ * nothing on standard output. The files are the example with one mistake each.
+ */
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { exitCodes } from '../src/exitCodes.js';
+import { runCli } from '../src/runCli.js';
+import { examplePath } from './support/footbridge.js';
+import { useTestFiles } from './support/files.js';
+import { memoryIo } from './support/memoryIo.js';
+
+const { file } = useTestFiles('bad-files');
+const example = readFileSync(examplePath, 'utf8');
+
+/** The example with `from` replaced by `to` (which must occur exactly once). */
+function edited(name: string, from: string, to: string): string {
+  expect(example.split(from).length, from).toBe(2);
+  return file(name, example.replace(from, to));
+}
+
+/** The line and column (from 1) of the first occurrence of `text` in a file's content. */
+function position(content: string, text: string): string {
+  const before = content.slice(0, content.indexOf(text)).split('\n');
+  return `${before.length}:${(before[before.length - 1] as string).length + 1}`;
+}
+
+async function report(path: string) {
+  const io = memoryIo();
+  const code = await runCli(['report', path], io);
+  return { code, stdout: io.stdout.text(), stderr: io.stderr.text() };
+}
+
+describe('bad channel files', () => {
+  it('a missing required field', async () => {
+    const path = edited('missing.yaml', '      gaugeFactor: 2.11\n', '');
+    const r = await report(path);
+    expect(r.code).toBe(exitCodes.badInput);
+    expect(r.stdout).toBe('');
+    const at = position(readFileSync(path, 'utf8'), 'sensor:\n      kind: strain-gauge\n      gaugeOhms');
+    expect(r.stderr).toBe(
+      `bridgework report: ${path} has a problem:\n${path}:${at}: channels.gusset-g2.sensor.gaugeFactor: is required (Gauge factor at the reference temperature)\n`,
+    );
+  });
+
+  it('a quantity in the wrong unit', async () => {
+    const path = edited(
+      'unit.yaml',
+      'gaugeOhms: 350 ohm\n    bridge:\n      arrangement: full-poisson',
+      'gaugeOhms: 350 m\n    bridge:\n      arrangement: full-poisson',
+    );
+    const r = await report(path);
+    expect(r.code).toBe(exitCodes.badInput);
+    expect(r.stderr).toMatch(
+      /: channels\.hanger-h3\.sensor\.gaugeOhms: must be a quantity in ohm: '350 m' is a length; expected a resistance, such as '350 ohm'\n$/,
+    );
+  });
+
+  it('an unknown field (a typo), with the known name suggested', async () => {
+    const path = edited('unknown.yaml', 'excitation: { volts: 1 V }', 'excitation: { volt: 1 V }');
+    const r = await report(path);
+    expect(r.code).toBe(exitCodes.badInput);
+    const text = readFileSync(path, 'utf8');
+    // The unknown field, and the required field it was meant to be: both reported.
+    expect(r.stderr).toBe(
+      `bridgework report: ${path} has 2 problems:\n` +
+        `${path}:${position(text, 'volt: 1 V')}: channels.deck-temp.excitation.volt: unknown field; did you mean 'volts'?\n` +
+        `${path}:${position(text, 'excitation: { volt: 1 V')}: channels.deck-temp.excitation.volts: is required (Source EMF)\n`,
+    );
+  });
+
+  it('an unknown top-level field and a name field inside a channel', async () => {
+    const path = file(
+      'layout.yaml',
+      example.replace('project:', 'projects:').replace('  deck-temp:\n', '  deck-temp:\n    name: deck\n'),
+    );
+    const r = await report(path);
+    expect(r.stderr).toMatch(/: projects: unknown field; did you mean 'project'\?\n/);
+    expect(r.stderr).toMatch(
+      /: channels\.deck-temp\.name: is not a field of a channel in a file: the channel's name is its key\n/,
+    );
+  });
+
+  it('NaN and infinity (YAML .nan, .inf)', async () => {
+    const path = file(
+      'nan.yaml',
+      example.replace('gaugeFactor: 2.09', 'gaugeFactor: .nan').replace('gain: 64', 'gain: .inf'),
+    );
+    const r = await report(path);
+    expect(r.code).toBe(exitCodes.badInput);
+    expect(r.stderr).toMatch(
+      /: channels\.hanger-h3\.sensor\.gaugeFactor: must be a finite number; got NaN\n/,
+    );
+    expect(r.stderr).toMatch(
+      /: channels\.gusset-g2\.amplifier\.gain: must be a finite number; got Infinity\n/,
+    );
+  });
+
+  it('a negative resistance, with or without a unit', async () => {
+    const path = file(
+      'negative.yaml',
+      example
+        .replace('r0Ohms: 1000 ohm', 'r0Ohms: -1000 ohm')
+        .replace('gaugeOhms: 350 ohm', 'gaugeOhms: -350'),
+    );
+    const r = await report(path);
+    expect(r.code).toBe(exitCodes.badInput);
+    expect(r.stderr).toMatch(/has 2 problems:\n/);
+    expect(r.stderr).toMatch(/: channels\.hanger-h3\.sensor\.gaugeOhms: must be > 0; got -350\n/);
+    expect(r.stderr).toMatch(/: channels\.deck-temp\.sensor\.r0Ohms: must be > 0; got -1000\n/);
+  });
+
+  it('an expression is never evaluated', async () => {
+    const path = edited('expression.yaml', 'volts: 5 V, remoteSense', "volts: '2*2.5 V', remoteSense");
+    const r = await report(path);
+    expect(r.code).toBe(exitCodes.badInput);
+    expect(r.stderr).toMatch(/: channels\.hanger-h3\.excitation\.volts: must be a quantity in V: .+\n$/);
+    expect(r.stdout).toBe('');
+  });
+
+  it('malformed YAML, with the position of the error', async () => {
+    const path = edited('malformed.yaml', 'excitation: { volts: 2.5 V }', 'excitation: { volts: 2.5 V');
+    const r = await report(path);
+    expect(r.code).toBe(exitCodes.badInput);
+    expect(r.stdout).toBe('');
+    expect(r.stderr).toMatch(
+      new RegExp(
+        `^bridgework report: ${path.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}:\\d+:\\d+: malformed YAML: `,
+      ),
+    );
+  });
+
+  it('every problem of several channels at once', async () => {
+    const path = file(
+      'many.yaml',
+      example
+        .replace('gaugeFactor: 2.09', 'gaugeFactor: -2.09')
+        .replace('bits: 24, referenceVolts: 2.5 V', 'bits: 24.5, referenceVolts: 2.5 V')
+        .replace('toleranceClass: A', 'toleranceClass: D'),
+    );
+    const r = await report(path);
+    const lines = r.stderr.trimEnd().split('\n');
+    expect(lines[0]).toBe(`bridgework report: ${path} has 3 problems:`);
+    expect(lines.slice(1).map((l) => l.replace(/^.*?: (channels\.)/, '$1'))).toEqual([
+      'channels.hanger-h3.sensor.gaugeFactor: must be > 0; got -2.09',
+      'channels.gusset-g2.adc.bits: must be an integer; got 24.5',
+      "channels.deck-temp.sensor.toleranceClass: must be one of 'AA', 'A', 'B', 'C'; got 'D'",
+    ]);
+  });
+
+  it('a span the converter cannot reach, found when the budget is made', async () => {
+    const path = edited('span.yaml', 'range: [-300, 1200]', 'range: [-300, 90000]');
+    const r = await report(path);
+    expect(r.code).toBe(exitCodes.badInput);
+    const at = position(readFileSync(path, 'utf8'), 'range: [-300, 90000]');
+    expect(r.stderr).toMatch(
+      new RegExp(
+        `^bridgework report: .+:${at}: channels\\.gusset-g2\\.output\\.range: the budget point \\(the end of the span of larger magnitude\\) must map to a code inside the channel's valid codes; 90000 µε maps to [\\d.]+\\n$`,
+      ),
+    );
+  });
+
+  it('accepts a $schema text for editors, and rejects a $schema that is not a text', async () => {
+    const ok = file('schema.yaml', `$schema: ../schema/channel-file.schema.json\n${example}`);
+    expect((await report(ok)).code).toBe(exitCodes.ok);
+    const bad = file('schema-bad.yaml', `$schema: 7\n${example}`);
+    expect((await report(bad)).stderr).toMatch(/:1:1: \$schema: must be a text; got 7\n$/);
+  });
+});
