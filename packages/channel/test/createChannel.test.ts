@@ -382,6 +382,13 @@ describe('createChannel: invalid specs list every problem by field path', () => 
     );
   });
 
+  it('rejects a ratiometric converter whose reference is not the excitation', () => {
+    const e = caught(() =>
+      createChannel({ ...minimal, adc: { bits: 24, referenceVolts: 2.5, ratiometric: true } }),
+    );
+    expect(e.issues.map((i) => i.path)).toEqual(['adc.referenceVolts']);
+  });
+
   it('rejects a quantity that does not suit the sensor, and a missing required block', () => {
     expect(caught(() => createChannel({ ...minimal, output: { quantity: 'mass' } })).issues[0]?.path).toBe(
       'output.quantity',

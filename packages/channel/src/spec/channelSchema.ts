@@ -491,6 +491,12 @@ function crossCheck(spec: ChannelSpec, _path: string, report: (path: string, mes
   if (remote === true && !['transducer'].includes(kind) && !arrangement.startsWith('full')) {
     report('excitation.remoteSense', 'applies to full bridges and transducers only');
   }
+  if (spec.adc.ratiometric === true && spec.adc.referenceVolts !== spec.excitation.volts) {
+    report(
+      'adc.referenceVolts',
+      `must equal \`excitation.volts\` (${spec.excitation.volts} V) for a ratiometric converter, whose reference is the excitation; got ${spec.adc.referenceVolts}`,
+    );
+  }
   const q = spec.output.quantity;
   if (
     kind === 'strain-gauge' &&
