@@ -1,9 +1,10 @@
-import { BridgeworkError, checkFinite, checkInteger, checkObject } from '@bridgework/core';
+import { BridgeworkError, checkFinite } from '@bridgework/core';
 import type { StrainBridge } from '@bridgework/bridge';
 import type { Adc } from '@bridgework/chain';
 import { convertLinearFractional, convertScalar } from './convert/kernel.js';
 import {
   newTally,
+  readConversionArguments,
   statusOf,
   throwIfRejected,
   type ConversionResult,
@@ -12,6 +13,7 @@ import {
 } from './convert/ConversionStatus.js';
 import { asSpecError, createMapping, type Mapping } from './internal/mapping.js';
 import { resolveChannel, type ResolvedChannel } from './internal/resolve.js';
+import { outputUnits } from './internal/units.js';
 import type { ChannelSpec, OutputSpec } from './spec/ChannelSpec.js';
 import { validateChannelSpec } from './validateChannelSpec.js';
 import { createChannelBudget, type BudgetOptions, type ChannelBudget } from './budget/createChannelBudget.js';
@@ -118,16 +120,6 @@ export function channelInternals(channel: Channel): ChannelInternals {
   return i;
 }
 
-const units: Record<OutputSpec['quantity'], string> = {
-  strain: 'm/m',
-  microstrain: 'µε',
-  stress: 'Pa',
-  force: 'N',
-  mass: 'kg',
-  temperature: '°C',
-  ratio: 'V/V',
-};
-
 /**
  * Creates one measurement channel from its spec: exact maps between converter codes and the
  * measured quantity, fast batch conversion, the budget and firmware constants.
@@ -211,25 +203,7 @@ export function createChannel(
       : { min: range[0], max: range[1] };
 
   function convert(codes: CodeBuffer, out?: Float64Array, opts: ConvertOptions = {}): ConversionResult {
-    if (!(codes instanceof Int32Array || codes instanceof Float64Array)) {
-      throw new BridgeworkError('wrong-type', '`codes` must be an Int32Array or a Float64Array', {
-        param: 'codes',
-      });
-    }
-    const o = checkObject('options', opts);
-    const values = out ?? new Float64Array(codes.length);
-    if (!(values instanceof Float64Array) || values.length < codes.length) {
-      throw new BridgeworkError(
-        'invalid-shape',
-        `\`out\` must be a Float64Array of at least ${codes.length} values`,
-        {
-          param: 'out',
-          limit: codes.length,
-        },
-      );
-    }
-    const maxLocations =
-      o['maxLocations'] === undefined ? 1024 : checkInteger('maxLocations', o['maxLocations'], { min: 0 });
+    const { values, maxLocations } = readConversionArguments(codes, out, opts);
     const m = mappingAt(opts.temperatureCelsius);
     const tally = newTally(maxLocations, m.model.adc.codeMin, m.model.adc.codeMax);
     if (m.kernel !== undefined)
@@ -248,7 +222,7 @@ export function createChannel(
     name,
     spec: valid,
     quantity: valid.output.quantity,
-    unit: units[valid.output.quantity],
+    unit: outputUnits[valid.output.quantity],
     adc: nominal.model.adc,
     bridge: nominal.model.bridge,
     validCodes: { min: nominal.lo, max: nominal.hi },

@@ -1,13 +1,13 @@
-import { BridgeworkError, checkObject } from '@bridgework/core';
+import { BridgeworkError } from '@bridgework/core';
 import { channelInternals, type Channel, type CodeBuffer } from './createChannel.js';
 import {
   convertInterleavedLinearFractional,
   convertLinearFractional,
   convertScalar,
 } from './convert/kernel.js';
-import type { Mapping } from './internal/mapping.js';
 import {
   newTally,
+  readConversionArguments,
   statusOf,
   throwIfRejected,
   type ConversionStatus,
@@ -88,12 +88,7 @@ export function createInterleavedConverter(channels: readonly Channel[]): Interl
     out?: Float64Array,
     opts: InterleavedConvertOptions = {},
   ): InterleavedConversionResult {
-    if (!(codes instanceof Int32Array || codes instanceof Float64Array)) {
-      throw new BridgeworkError('wrong-type', '`codes` must be an Int32Array or a Float64Array', {
-        param: 'codes',
-      });
-    }
-    checkObject('options', opts);
+    const { values, maxLocations } = readConversionArguments(codes, out, opts);
     if (codes.length % n !== 0) {
       throw new BridgeworkError(
         'invalid-shape',
@@ -104,22 +99,9 @@ export function createInterleavedConverter(channels: readonly Channel[]): Interl
         },
       );
     }
-    const values = out ?? new Float64Array(codes.length);
-    if (!(values instanceof Float64Array) || values.length < codes.length) {
-      throw new BridgeworkError(
-        'invalid-shape',
-        `\`out\` must be a Float64Array of at least ${codes.length} values`,
-        {
-          param: 'out',
-          limit: codes.length,
-        },
-      );
-    }
     const frames = codes.length / n;
     const mappings = parts.map((part, j) => part.mappingAt(opts.temperaturesCelsius?.[j]));
-    const tallies = mappings.map((m) =>
-      newTally(opts.maxLocations ?? 1024, m.model.adc.codeMin, m.model.adc.codeMax),
-    );
+    const tallies = mappings.map((m) => newTally(maxLocations, m.model.adc.codeMin, m.model.adc.codeMax));
     if (mappings.every((m) => m.kernel !== undefined)) {
       // Every lane has a kernel: one pass over the buffer.
       convertInterleavedLinearFractional(

@@ -207,6 +207,9 @@ describe('interleaved buffers and streams equal the plain conversion', () => {
     expect(() => createInterleavedConverter([])).toThrowBridgeworkError('invalid-shape', {
       param: 'channels',
     });
+    expect(() =>
+      createInterleavedConverter(channels).convert(new Int32Array(3), undefined, { maxLocations: 1.5 }),
+    ).toThrowBridgeworkError('not-integer', { param: 'maxLocations' });
     expect(() => createInterleavedConverter([{} as never])).toThrowBridgeworkError('wrong-type', {
       param: 'channel',
     });

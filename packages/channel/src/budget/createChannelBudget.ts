@@ -12,7 +12,7 @@ import {
   type ResolutionBudget,
   type BudgetIssue,
 } from '@bridgework/chain';
-import { wireOhms, rtdToleranceCelsius } from '@bridgework/compensation';
+import { rtdToleranceCelsius } from '@bridgework/compensation';
 import {
   monteCarlo,
   propagate,
@@ -22,7 +22,8 @@ import {
 } from '@bridgework/uncertainty';
 import { createModel, type ModelParameters } from '../internal/model.js';
 import type { Mapping } from '../internal/mapping.js';
-import type { ResolvedChannel } from '../internal/resolve.js';
+import { cableOhmsPerLead, type ResolvedChannel } from '../internal/resolve.js';
+import { outputUnits } from '../internal/units.js';
 
 /** Options of a channel's `budget`. */
 export interface BudgetOptions {
@@ -351,7 +352,7 @@ export function createChannelBudget(
   return {
     channel: r.name,
     quantity: r.output.quantity,
-    unit: unitOf(r),
+    unit: outputUnits[r.output.quantity],
     at,
     code,
     span,
@@ -380,18 +381,6 @@ export function createChannelBudget(
   };
 }
 
-function unitOf(r: ResolvedChannel): string {
-  return {
-    strain: 'm/m',
-    microstrain: 'µε',
-    stress: 'Pa',
-    force: 'N',
-    mass: 'kg',
-    temperature: '°C',
-    ratio: 'V/V',
-  }[r.output.quantity];
-}
-
 /**
  * d(quantity)/d(code) of the exact map at a code: a central difference over up to ±16 codes,
  * shrunk (one-sided at the edges) to stay inside the valid codes. The map is smooth on the scale
@@ -408,15 +397,11 @@ function slopeAt(m: Mapping, code: number): number {
 
 /** The (fractional) code at which the exact map gives `at`. */
 function codeAt(r: ResolvedChannel, nominal: Mapping, at: number): number {
-  const ratio = nominal.model.ratioFromQuantity(at);
-  // The ratio is affine in the code: invert it exactly from two evaluations.
-  const r0 = nominal.model.ratioFromCode(0);
-  const slope = nominal.model.ratioFromCode(1) - r0;
-  const code = (ratio - r0) / slope;
+  const code = nominal.model.exactCodeFromRatio(nominal.model.ratioFromQuantity(at));
   if (!(code > nominal.lo && code < nominal.hi)) {
     throw new BridgeworkError(
       'out-of-range',
-      `\`at\` must map to a code inside the channel's valid codes; ${at} ${unitOf(r)} maps to ${code}`,
+      `\`at\` must map to a code inside the channel's valid codes; ${at} ${outputUnits[r.output.quantity]} maps to ${code}`,
       {
         param: 'at',
         value: at,
@@ -434,7 +419,7 @@ function bridgeSpan(r: ResolvedChannel, nominal: Mapping, span: { min: number; m
   const sign = r.polarity === 'inverted' ? -1 : 1;
   if (model.bridge === undefined) {
     const R = r.sensor.kind === 'transducer' ? r.sensor.outputOhms : 350;
-    const ratios = ends.map((x) => (sign * x) / 1).sort((a, b) => a - b) as [number, number];
+    const ratios = ends.map((x) => sign * x).sort((a, b) => a - b) as [number, number];
     return { armsOhms: [R, R, R, R], ratioRange: { min: ratios[0], max: ratios[1] } };
   }
   const strains = ends.map((x) => model.bridge!.strainFromRatio(x)).sort((a, b) => a - b) as [number, number];
@@ -460,14 +445,7 @@ function limitsOf(r: ResolvedChannel) {
 function leadDriftOhms(r: ResolvedChannel): number {
   if (r.cable === undefined) return 0;
   const cable = r.cable;
-  const at = (temperatureCelsius: number) =>
-    wireOhms({
-      ...(cable.awg === undefined ? {} : { awg: cable.awg }),
-      ...(cable.diameterMeters === undefined ? {} : { diameterMeters: cable.diameterMeters }),
-      lengthMeters: cable.lengthMeters,
-      temperatureCelsius,
-      conductors: cable.conductorsPerLead ?? 1,
-    });
+  const at = (temperatureCelsius: number) => cableOhmsPerLead(cable, temperatureCelsius);
   const [lo, hi] = r.rangeCelsius;
   const nominal = r.nominal.ohmsPerLead;
   return Math.max(Math.abs(at(lo) - nominal), Math.abs(at(hi) - nominal));
@@ -476,9 +454,7 @@ function leadDriftOhms(r: ResolvedChannel): number {
 /** Largest deviation over the span of the exact map from its terminal line (a linear map's nonlinearity). */
 function nonlinearityLine(nominal: Mapping, span: { min: number; max: number }): ChannelBudgetLine {
   const { model } = nominal;
-  const r0 = model.ratioFromCode(0);
-  const slope = model.ratioFromCode(1) - r0;
-  const codeOf = (q: number) => (model.ratioFromQuantity(q) - r0) / slope;
+  const codeOf = (q: number) => model.exactCodeFromRatio(model.ratioFromQuantity(q));
   const c1 = codeOf(span.min);
   const c2 = codeOf(span.max);
   let worst = 0;

@@ -88,10 +88,8 @@ export function createChannelConstants(
       : (r.output.firmwareResolution ?? defaultResolution(span));
   const { model } = nominal;
   // The span's codes, kept strictly inside the valid codes.
-  const r0 = model.ratioFromCode(0);
-  const slope = model.ratioFromCode(1) - r0;
   const ends = [span.min, span.max]
-    .map((q) => (model.ratioFromQuantity(q) - r0) / slope)
+    .map((q) => model.exactCodeFromRatio(model.ratioFromQuantity(q)))
     .sort((a, b) => a - b);
   const codeMin = Math.max(Math.ceil(ends[0] as number), Math.floor(nominal.lo) + 1);
   const codeMax = Math.min(Math.floor(ends[1] as number), Math.ceil(nominal.hi) - 1);

@@ -1,4 +1,4 @@
-import { BridgeworkError } from '@bridgework/core';
+import { BridgeworkError, checkInteger, checkObject } from '@bridgework/core';
 import { RejectTally } from './kernel.js';
 
 /** What a conversion did: how many samples converted, and which did not and why. */
@@ -68,4 +68,39 @@ export function throwIfRejected(status: ConversionStatus, channel: string): void
     `channel '${channel}': ${status.rejected} of ${status.samples} codes cannot be converted (${status.railLow} at the low rail, ${status.railHigh} at the high rail, ${status.outOfRange} out of the sensor's range)${first === undefined ? '' : `; first at index ${first}`}`,
     { param: 'codes', value: status.rejected, ...(first === undefined ? {} : { limit: first }) },
   );
+}
+
+/**
+ * Checks the arguments every conversion takes: the codes (Int32Array or Float64Array), the output
+ * buffer (a Float64Array at least as long, or a new one) and `maxLocations` (integer ≥ 0).
+ */
+export function readConversionArguments(
+  codes: unknown,
+  out: unknown,
+  options: unknown,
+): {
+  readonly codes: Int32Array | Float64Array;
+  readonly values: Float64Array;
+  readonly maxLocations: number;
+} {
+  if (!(codes instanceof Int32Array || codes instanceof Float64Array)) {
+    throw new BridgeworkError('wrong-type', '`codes` must be an Int32Array or a Float64Array', {
+      param: 'codes',
+    });
+  }
+  const o = checkObject('options', options);
+  const values = out ?? new Float64Array(codes.length);
+  if (!(values instanceof Float64Array) || values.length < codes.length) {
+    throw new BridgeworkError(
+      'invalid-shape',
+      `\`out\` must be a Float64Array of at least ${codes.length} values`,
+      {
+        param: 'out',
+        limit: codes.length,
+      },
+    );
+  }
+  const maxLocations =
+    o['maxLocations'] === undefined ? 1024 : checkInteger('maxLocations', o['maxLocations'], { min: 0 });
+  return { codes, values, maxLocations };
 }

@@ -28,10 +28,8 @@ export function createMapping(resolved: ResolvedChannel, params: ModelParameters
   const { adc } = model;
   // Valid codes: strictly inside the rails, and a ratio strictly inside the sensor's range. The
   // ratio is affine in the code, so the range maps to an interval of codes.
-  const r0 = model.ratioFromCode(0);
-  const slope = model.ratioFromCode(1) - r0;
-  const atMin = (model.ratioRange.min - r0) / slope;
-  const atMax = (model.ratioRange.max - r0) / slope;
+  const atMin = model.exactCodeFromRatio(model.ratioRange.min);
+  const atMax = model.exactCodeFromRatio(model.ratioRange.max);
   const lo = Math.max(adc.codeMin, Math.min(atMin, atMax));
   const hi = Math.min(adc.codeMax, Math.max(atMin, atMax));
 

@@ -55,6 +55,8 @@ export interface ChannelModel {
   ratioFromCode(code: number): number;
   /** Code for a ratio: nearest code, ties to even, clipped; `clipped` flags a rail. */
   codeFromRatio(ratio: number): { readonly code: number; readonly clipped: boolean };
+  /** The exact (fractional, unrounded, unclipped) code of a ratio: the inverse of `ratioFromCode`. */
+  exactCodeFromRatio(ratio: number): number;
   /** Quantity for a measured ratio (exact; throws for an impossible ratio). */
   quantityFromRatio(ratio: number): number;
   /** Measured ratio for a quantity (exact inverse). */
@@ -95,6 +97,10 @@ export function createModel(r: ResolvedChannel, p: ModelParameters): ChannelMode
       : adc.codeFromVolts(sign * ratio * p.excitationVolts + p.offsetVolts);
     return { code: c.code, clipped: c.clipped || c.atRail };
   };
+  // ratioFromCode is affine in the code, so two evaluations give its exact inverse.
+  const ratioAtZeroCode = ratioFromCode(0);
+  const ratioPerCode = ratioFromCode(1) - ratioAtZeroCode;
+  const exactCodeFromRatio = (ratio: number) => (ratio - ratioAtZeroCode) / ratioPerCode;
   // With a ratiometric converter the reference is the excitation at the instrument terminals (or
   // at the bridge with remote sense), so the source resistance drops out of the ratio.
   const sourceOhms = r.adc.ratiometric ? 0 : r.sourceOhms;
@@ -136,6 +142,7 @@ export function createModel(r: ResolvedChannel, p: ModelParameters): ChannelMode
       bridge: undefined,
       ratioFromCode,
       codeFromRatio,
+      exactCodeFromRatio,
       quantityFromRatio: (ratio) => (asQuantity ? scale.loadFromRatio(ratio / span) : ratio),
       ratioFromQuantity: (q) => (asQuantity ? scale.ratioFromLoad(q) * span : q),
       ratioRange: { min: -span, max: span },
@@ -164,6 +171,7 @@ export function createModel(r: ResolvedChannel, p: ModelParameters): ChannelMode
       bridge,
       ratioFromCode,
       codeFromRatio,
+      exactCodeFromRatio,
       quantityFromRatio: (ratio) =>
         asTemperature ? rtd.temperatureAt(s.r0Ohms * (1 + bridge.strainFromRatio(ratio))) : ratio,
       ratioFromQuantity: (q) => (asTemperature ? bridge.ratioFromStrain(rtd.ohmsAt(q) / s.r0Ohms - 1) : q),
@@ -249,6 +257,7 @@ export function createModel(r: ResolvedChannel, p: ModelParameters): ChannelMode
     bridge,
     ratioFromCode,
     codeFromRatio,
+    exactCodeFromRatio,
     quantityFromRatio(ratio) {
       if (asRatio) return ratio;
       const indicated = bridge.strainFromRatio(ratio, zeroOption);

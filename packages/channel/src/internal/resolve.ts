@@ -91,6 +91,20 @@ export interface ResolvedChannel {
   readonly nominal: ModelParameters;
 }
 
+/** Resistance of one lead of a cable at a temperature, Ω (compensation `wireOhms`, IEC 60028 copper). */
+export function cableOhmsPerLead(
+  cable: NonNullable<ResolvedChannel['cable']>,
+  temperatureCelsius: number,
+): number {
+  return wireOhms({
+    ...(cable.awg === undefined ? {} : { awg: cable.awg }),
+    ...(cable.diameterMeters === undefined ? {} : { diameterMeters: cable.diameterMeters }),
+    lengthMeters: cable.lengthMeters,
+    temperatureCelsius,
+    conductors: cable.conductorsPerLead ?? 1,
+  });
+}
+
 /** Default lead wiring for an arrangement (see `BridgeSpec.wiring`). */
 function defaultWiring(
   kind: string,
@@ -118,14 +132,7 @@ export function resolveChannel(spec: ChannelSpec): ResolvedChannel {
   let ohmsPerLead = bridge.ohmsPerLead ?? 0;
   let leadSource: ResolvedChannel['leadSource'] = bridge.ohmsPerLead === undefined ? 'none' : 'given';
   if (bridge.cable !== undefined) {
-    const cable = bridge.cable;
-    ohmsPerLead = wireOhms({
-      ...(cable.awg === undefined ? {} : { awg: cable.awg }),
-      ...(cable.diameterMeters === undefined ? {} : { diameterMeters: cable.diameterMeters }),
-      lengthMeters: cable.lengthMeters,
-      temperatureCelsius: cableTemperatureCelsius,
-      conductors: cable.conductorsPerLead ?? 1,
-    });
+    ohmsPerLead = cableOhmsPerLead(bridge.cable, cableTemperatureCelsius);
     leadSource = 'cable';
   }
 
