@@ -5,7 +5,7 @@ import type { CliIo } from './cliIo.js';
 import { createCommandContext } from './commands/createCommandContext.js';
 import { commands } from './commands/registry.js';
 import { exitCodes } from './exitCodes.js';
-import { closestName } from './internal/closestName.js';
+import { closestName } from '@bridgework/core';
 import { readVersion } from './internal/readVersion.js';
 
 /**

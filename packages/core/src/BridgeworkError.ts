@@ -12,6 +12,7 @@ export type ErrorCode =
   | 'no-solution'
   | 'invalid-option'
   | 'missing-option'
+  | 'unknown-option'
   | 'conflicting-options'
   | 'invalid-shape'
   | 'unknown-count'
@@ -49,6 +50,8 @@ export const errorCodeDescriptions: Readonly<Record<ErrorCode, string>> = {
   'no-solution': 'The reading cannot be produced by any finite positive resistance or physical state.',
   'invalid-option': 'An option has a value that is not one of the documented choices.',
   'missing-option': 'A required option is absent (for example the Poisson ratio for a Poisson arrangement).',
+  'unknown-option':
+    'An options object holds a key the function does not know (usually a misspelling); the message names the closest known key.',
   'conflicting-options':
     'Options that exclude each other were given together (for example both an AWG size and a diameter).',
   'invalid-shape': 'An array or record has the wrong length or structure.',
@@ -72,12 +75,24 @@ export const errorCodes: readonly ErrorCode[] = Object.freeze(
   Object.keys(errorCodeDescriptions) as ErrorCode[],
 );
 
-/** One problem found in a specification, named by its field path (used with `invalid-spec`). */
+/**
+ * One problem found in a specification, named by the field the user can change (used with
+ * `invalid-spec`). Issues travel as data; the outermost layer formats them and never rewrites
+ * `message`.
+ */
 export interface SpecIssue {
+  /** The stable code of the problem (one of {@link ErrorCode}), when one applies. */
+  readonly code?: ErrorCode;
   /** Dotted field path such as `bridge.ohmsPerLead` or `channels[2].adc.bits`. */
   readonly path: string;
-  /** What was wrong and what was expected, in the house grammar. */
+  /** What was wrong and what was expected, in the user's terms and unit. */
   readonly message: string;
+  /** The limit that was passed, in the user's unit, as text (`181.2 °C`), when there is one. */
+  readonly limit?: string;
+  /** What the field must be, as text (`> 0`, `one of 'quarter', 'half-bending'`), when useful. */
+  readonly expected?: string;
+  /** A way out the user can take (`lower amplifier.gain to 2 or narrow output.range`). */
+  readonly suggestion?: string;
 }
 
 /** Machine-readable details carried by a {@link BridgeworkError}. */
@@ -112,6 +127,19 @@ export interface BridgeworkErrorDetails {
  * ```
  */
 export class BridgeworkError extends Error {
+  /**
+   * Recognises a bridgework error made by any copy of `@bridgework/core` (two installed
+   * versions, another realm) by its registered brand, so `instanceof` works across copies.
+   *
+   * @param value - Any value.
+   * @returns True when `value` carries the brand.
+   */
+  static override [Symbol.hasInstance](value: unknown): boolean {
+    return this === BridgeworkError
+      ? hasBrand(value)
+      : (Function.prototype[Symbol.hasInstance] as (v: unknown) => boolean).call(this, value);
+  }
+
   /** The stable error code. */
   readonly code: ErrorCode;
   /** The option or argument at fault, as a dotted path, when there is one. */
@@ -136,10 +164,32 @@ export class BridgeworkError extends Error {
     this.value = details.value;
     this.limit = details.limit;
     this.issues = details.issues ?? [];
+    Object.defineProperty(this, BRIDGEWORK_ERROR_BRAND, { value: true, enumerable: false });
   }
 }
 
-/** True when `error` is a {@link BridgeworkError}, optionally with the given code. */
+/**
+ * The registered symbol that marks every {@link BridgeworkError}, whichever copy of
+ * `@bridgework/core` made it (`Symbol.for` is shared across copies and realms).
+ */
+export const BRIDGEWORK_ERROR_BRAND: unique symbol = Symbol.for('@bridgework/core/BridgeworkError') as never;
+
+function hasBrand(value: unknown): boolean {
+  return (
+    typeof value === 'object' &&
+    value !== null &&
+    (value as Record<PropertyKey, unknown>)[BRIDGEWORK_ERROR_BRAND] === true
+  );
+}
+
+/**
+ * True when `error` is a {@link BridgeworkError} made by any copy of `@bridgework/core`
+ * (recognised by its registered brand), optionally with the given code.
+ *
+ * @param error - Any value.
+ * @param code - The code to require, if any.
+ * @returns Whether `error` is such an error.
+ */
 export function isBridgeworkError(error: unknown, code?: ErrorCode): error is BridgeworkError {
-  return error instanceof BridgeworkError && (code === undefined || error.code === code);
+  return hasBrand(error) && (code === undefined || (error as BridgeworkError).code === code);
 }

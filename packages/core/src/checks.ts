@@ -1,4 +1,5 @@
 import { BridgeworkError } from './BridgeworkError.js';
+import { closestName } from './closestName.js';
 
 /**
  * Formats a value for an error message: numbers as JavaScript prints them (`NaN`, `-Infinity`,
@@ -245,4 +246,61 @@ export function checkObject(param: string, value: unknown): Record<string, unkno
     fail('wrong-type', param, 'an options object', value);
   }
   return value as Record<string, unknown>;
+}
+
+/** The keys an options object may hold, for {@link checkOptions}. */
+export interface OptionKeys {
+  /** Every key the function reads (required ones included). */
+  readonly known: readonly string[];
+  /** Keys that must be present (not `undefined`). Default: none. */
+  readonly required?: readonly string[];
+}
+
+/**
+ * Checks an options object against the keys a function reads: the one rule of every public
+ * options object in bridgework.
+ *
+ * @remarks
+ * An unknown key is an error naming the closest known key, so a misspelt option can never be
+ * read as absent (and silently defaulted or taken as zero). A required key that is `undefined`
+ * is `missing-option`. Keys are own enumerable keys; a key named like an object prototype member
+ * (`constructor`, `__proto__`, `toString`) is unknown like any other.
+ *
+ * @param param - The argument name used in messages (usually `options`); nested objects use a
+ *   dotted path such as `amplifier`.
+ * @param value - The value to check.
+ * @param keys - The known and required keys.
+ * @returns `value`, typed as a record.
+ * @throws {@link BridgeworkError} `wrong-type` (not a plain object), `unknown-option` (with
+ *   `limit` = the known keys), `missing-option`.
+ * @example
+ * ```ts
+ * checkOptions('options', { whiteDensity: 1e-8 }, { known: ['whiteDensity', 'cornerHertz'], required: ['whiteDensity'] });
+ * // checkOptions('options', { whiteDensty: 1e-8 }, …) throws unknown-option:
+ * // "`options.whiteDensty` is not a known option; did you mean `whiteDensity`?"
+ * ```
+ */
+export function checkOptions(param: string, value: unknown, keys: OptionKeys): Record<string, unknown> {
+  const o = checkObject(param, value);
+  for (const key of Object.keys(o)) {
+    if (!keys.known.includes(key)) {
+      const near = closestName(key, keys.known);
+      const path = param === '' ? key : `${param}.${key}`;
+      throw new BridgeworkError(
+        'unknown-option',
+        `\`${path}\` is not a known option${near === undefined ? ` (known: ${keys.known.join(', ')})` : `; did you mean \`${near}\`?`}`,
+        { param: path, value: o[key], limit: keys.known },
+      );
+    }
+  }
+  for (const key of keys.required ?? []) {
+    if (o[key] === undefined) {
+      const path = param === '' ? key : `${param}.${key}`;
+      throw new BridgeworkError('missing-option', `\`${path}\` must be given; got undefined`, {
+        param: path,
+        value: undefined,
+      });
+    }
+  }
+  return o;
 }

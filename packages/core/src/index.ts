@@ -1,4 +1,5 @@
 export {
+  BRIDGEWORK_ERROR_BRAND,
   BridgeworkError,
   errorCodeDescriptions,
   errorCodes,
@@ -14,14 +15,18 @@ export {
   checkNonNegative,
   checkObject,
   checkOneOf,
+  checkOptions,
   checkPositive,
   checkRange,
   describeRange,
   formatValue,
   requireOption,
   type CheckPositiveOptions,
+  type OptionKeys,
   type RangeLimits,
 } from './checks.js';
+export { closestName, editDistance } from './closestName.js';
+export { checkInterval, type Interval } from './Interval.js';
 export {
   BOLTZMANN_JOULES_PER_KELVIN,
   STANDARD_GRAVITY_METERS_PER_SECOND_SQUARED,

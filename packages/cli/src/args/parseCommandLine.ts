@@ -1,6 +1,6 @@
 import { parseArgs } from 'node:util';
 import { BridgeworkError } from '@bridgework/core';
-import { closestName } from '../internal/closestName.js';
+import { closestName } from '@bridgework/core';
 import type { CommandSpec, OptionSpec, ParsedArgs, PositionalSpec } from './optionTable.js';
 
 /** The `-h, --help` option that every command accepts. */

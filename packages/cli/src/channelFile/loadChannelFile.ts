@@ -1,5 +1,5 @@
 import { BridgeworkError, formatValue, type SpecIssue } from '@bridgework/core';
-import { closestName } from '../internal/closestName.js';
+import { closestName } from '@bridgework/core';
 import { parseQuantity, type SiUnit } from '../units/parseQuantity.js';
 import { formatIssues } from './formatIssues.js';
 import type { ChannelDocument } from './parseChannelDocument.js';

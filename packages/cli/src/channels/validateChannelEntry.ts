@@ -1,7 +1,7 @@
 import { validateChannelSpec, type ChannelSpec } from '@bridgework/channel';
 import type { SpecIssue } from '@bridgework/core';
 import type { ChannelValidation, QuantityParser } from '../channelFile/loadChannelFile.js';
-import { closestName } from '../internal/closestName.js';
+import { closestName } from '@bridgework/core';
 
 /**
  * Removes the leading "`field.path` " that the channel schema puts at the start of each message,

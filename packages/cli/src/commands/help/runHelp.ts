@@ -1,7 +1,7 @@
 import { BridgeworkError } from '@bridgework/core';
 import { formatCommandHelp, formatProgramHelp } from '../../args/formatHelp.js';
 import { exitCodes } from '../../exitCodes.js';
-import { closestName } from '../../internal/closestName.js';
+import { closestName } from '@bridgework/core';
 import type { CommandContext } from '../CommandContext.js';
 import { commands } from '../registry.js';
 import type { HelpArgs } from './helpCommand.js';
