@@ -44,7 +44,7 @@ const amplifier: BudgetAmplifierOptions = {
     firstStageVolts: { min: 0.2, max: 4.8 },
   },
 };
-const filter: SincFilter = { kind: 'sinc', order: 3, outputDataRateHertz: 10 };
+const filter: SincFilter = { kind: 'sinc', order: 3, dataRateHertz: 10 };
 const lowHertz = 1 / 1000; // readings compared over about a quarter of an hour
 
 const lines: string[] = [];

@@ -9,6 +9,7 @@ import {
   differenceOfProducts,
   formatValue,
   requireOption,
+  type Interval,
   type LeadsOptions,
 } from '@bridgework/core';
 import {
@@ -57,14 +58,6 @@ export interface StrainFromRatioOptions {
   readonly zeroRatio?: number;
 }
 
-/** An open interval `(min, max)`. */
-export interface OpenInterval {
-  /** Lower end (excluded). */
-  readonly min: number;
-  /** Upper end (excluded). */
-  readonly max: number;
-}
-
 /** A configured strain bridge: exact maps between strain and output ratio (see {@link createStrainBridge}). */
 export interface StrainBridge {
   /** The arrangement. */
@@ -86,9 +79,9 @@ export interface StrainBridge {
   /** Output ratio at zero strain (non-zero with two-wire leads or unequal completion), V/V. */
   readonly offsetRatio: number;
   /** Strains for which every gauge resistance stays positive (open interval), m/m. */
-  readonly strainRange: OpenInterval;
+  readonly strainRange: Interval;
   /** Ratios the bridge can produce over `strainRange` (open interval), V/V. */
-  readonly ratioRange: OpenInterval;
+  readonly ratioRange: Interval;
   /**
    * The exact map as a ratio of quadratics in strain ε:
    * ratio = (n0 + n1·ε + n2·ε²)/(d0 + d1·ε + d2·ε²). Both polynomials are in Ω².
@@ -279,9 +272,9 @@ export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
     if (s > 0) strainMin = Math.max(strainMin, -1 / (gaugeFactor * s));
     if (s < 0) strainMax = Math.min(strainMax, -1 / (gaugeFactor * s));
   }
-  const strainRange: OpenInterval = { min: strainMin, max: strainMax };
+  const strainRange: Interval = { min: strainMin, max: strainMax };
   const ratioEnds = [ratioAt(numerator, denominator, strainMin), ratioAt(numerator, denominator, strainMax)];
-  const ratioRange: OpenInterval = { min: Math.min(...ratioEnds), max: Math.max(...ratioEnds) };
+  const ratioRange: Interval = { min: Math.min(...ratioEnds), max: Math.max(...ratioEnds) };
 
   const [n0, n1, n2] = numerator;
   const [d0, d1, d2] = denominator;

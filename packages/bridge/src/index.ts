@@ -1,7 +1,6 @@
 export { needsPoissonRatio, strainArrangements, type StrainArrangement } from './arrangements.js';
 export {
   createStrainBridge,
-  type OpenInterval,
   type StrainBridge,
   type StrainBridgeOptions,
   type StrainFromRatioOptions,

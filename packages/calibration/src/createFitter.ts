@@ -6,6 +6,7 @@ import {
   checkPositive,
   checkRange,
   formatValue,
+  type Interval,
 } from '@bridgework/core';
 import { checkFiniteArray } from './internal/checks.js';
 import { loadLinearAlgebra, type LinearAlgebra } from './internal/linearAlgebra.js';
@@ -37,14 +38,6 @@ export interface PolynomialFitOptions {
    * calibrated span on each side (0 to 1). Default 0.05.
    */
   readonly extrapolationFraction?: number;
-}
-
-/** A closed interval `[min, max]`. */
-export interface ClosedInterval {
-  /** Lower end (included). */
-  readonly min: number;
-  /** Upper end (included). */
-  readonly max: number;
 }
 
 /** The numeric method of a fit's inverse map. */
@@ -80,13 +73,13 @@ export interface PolynomialFit {
   /** Coefficients a_k in the scaled variable t (reading = Σ a_k·t^k), better conditioned. */
   readonly scaledCoefficients: readonly number[];
   /** The range of the reference loads. */
-  readonly calibratedRange: ClosedInterval;
+  readonly calibratedRange: Interval;
   /**
    * Loads over which {@link PolynomialFit.loadAt} is defined: the calibrated range widened by
    * `extrapolationFraction` of its span on each side and cut at any turning point of the fit.
    * `undefined` when the fit turns inside the calibrated range (then it has no inverse).
    */
-  readonly inverseRange: ClosedInterval | undefined;
+  readonly inverseRange: Interval | undefined;
   /** How {@link PolynomialFit.loadAt} solves: closed form for degree 1, safeguarded Newton otherwise. */
   readonly inverseMethod: InverseMethod;
   /**
@@ -243,7 +236,7 @@ function fit(algebra: LinearAlgebra, options: PolynomialFitOptions): PolynomialF
   const slope = derivative(scaled);
   const turning = rootsUpToQuadratic(slope);
   const monotone = !turning.some((root) => root > -1 && root < 1) && horner(slope, 0) !== 0;
-  let inverseRange: ClosedInterval | undefined;
+  let inverseRange: Interval | undefined;
   let tLo = -1 - 2 * extrapolation;
   let tHi = 1 + 2 * extrapolation;
   if (monotone) {

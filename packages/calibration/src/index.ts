@@ -9,7 +9,6 @@ export {
 } from './createCertificateScale.js';
 export {
   createFitter,
-  type ClosedInterval,
   type Fitter,
   type InverseMethod,
   type PolynomialFit,

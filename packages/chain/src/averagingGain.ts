@@ -50,7 +50,7 @@ export interface AveragingGain {
  * @example
  * ```ts
  * averagingGain({ samples: 16 }).bitsGained; // 2
- * averagingGain({ samples: 16, filter: { kind: 'sinc', order: 3, outputDataRateHertz: 10 } }).bitsGained; // 1.59…
+ * averagingGain({ samples: 16, filter: { kind: 'sinc', order: 3, dataRateHertz: 10 } }).bitsGained; // 1.59…
  * ```
  */
 export function averagingGain(options: AveragingOptions): AveragingGain {
@@ -83,6 +83,6 @@ export function averagingGain(options: AveragingOptions): AveragingGain {
     noiseFactor,
     bitsGained: -Math.log2(noiseFactor),
     rateFactor: 1 / samples,
-    noiseBandwidthHertz: averaged * filter.outputDataRateHertz,
+    noiseBandwidthHertz: averaged * filter.dataRateHertz,
   };
 }

@@ -1,7 +1,7 @@
 import { BridgeworkError, checkFinite, checkObject, checkPositive, formatValue } from '@bridgework/core';
 import type { Adc } from './createAdc.js';
 import type { DesignCheck } from './DesignCheck.js';
-import { checkVoltRange, type VoltRange } from './VoltRange.js';
+import { checkInterval, type Interval } from '@bridgework/core';
 
 /** One state of the amplifier input: the bridge output and its common-mode voltage. */
 export interface OperatingPoint {
@@ -14,13 +14,13 @@ export interface OperatingPoint {
 /** The limits of a differential amplifier, each an absolute voltage relative to its ground (omit one to skip it). */
 export interface AmplifierLimits {
   /** Input common-mode range in V (the data sheet's, at the supply used). */
-  readonly inputCommonModeVolts?: VoltRange;
+  readonly inputCommonModeVolts?: Interval;
   /** Largest differential input magnitude in V (> 0), e.g. a PGA's input range or a protection limit. */
   readonly inputDifferentialVolts?: number;
   /** Range each first-stage output can reach in V (the supply rails less the first stage's swing headroom). */
-  readonly firstStageVolts?: VoltRange;
+  readonly firstStageVolts?: Interval;
   /** Output swing in V (the supply rails less the output stage's swing headroom). */
-  readonly outputVolts?: VoltRange;
+  readonly outputVolts?: Interval;
 }
 
 /** Options of {@link checkHeadroom}. */
@@ -185,7 +185,7 @@ export function checkHeadroom(options: HeadroomOptions): DesignCheck<HeadroomVal
   const commonMode =
     l['inputCommonModeVolts'] === undefined
       ? undefined
-      : checkVoltRange('limits.inputCommonModeVolts', l['inputCommonModeVolts']);
+      : checkInterval('limits.inputCommonModeVolts', l['inputCommonModeVolts']);
   const differential =
     l['inputDifferentialVolts'] === undefined
       ? undefined
@@ -193,9 +193,9 @@ export function checkHeadroom(options: HeadroomOptions): DesignCheck<HeadroomVal
   const firstStage =
     l['firstStageVolts'] === undefined
       ? undefined
-      : checkVoltRange('limits.firstStageVolts', l['firstStageVolts']);
+      : checkInterval('limits.firstStageVolts', l['firstStageVolts']);
   const output =
-    l['outputVolts'] === undefined ? undefined : checkVoltRange('limits.outputVolts', l['outputVolts']);
+    l['outputVolts'] === undefined ? undefined : checkInterval('limits.outputVolts', l['outputVolts']);
   const adc = o['adc'] === undefined ? undefined : checkAdc(o['adc']);
   const quantizerGain = adc === undefined ? gain : adc.gain;
   const firstStageGain = gain / secondStageGain;

@@ -3,7 +3,7 @@ import { checkBoolean } from './internal/checkBoolean.js';
 import { signOfProductDifference } from './internal/exact.js';
 import { roundHalfEven } from './internal/rounding.js';
 import { effectiveBits, idealSnrDecibels, noiseFreeBits } from './resolution.js';
-import type { VoltRange } from './VoltRange.js';
+import type { Interval } from '@bridgework/core';
 
 /** Options of {@link createAdc}. */
 export interface AdcOptions {
@@ -68,14 +68,14 @@ export interface Adc {
   /** Input-referred counts per volt: gain·codeScale/referenceVolts. */
   readonly countsPerVolt: number;
   /** Nominal input-referred full scale in V: [−ref/gain, +ref/gain] bipolar, [0, ref/gain] unipolar. */
-  readonly fullScaleVolts: VoltRange;
+  readonly fullScaleVolts: Interval;
   /** fullScaleVolts.max − fullScaleVolts.min = 2^N·lsbVolts, in V. */
   readonly fullScaleRangeVolts: number;
   /**
    * Input-referred inputs whose code lies strictly inside the rails, in V:
    * ((codeMin + ½)·lsb, (codeMax − ½)·lsb). Outside it the code is a rail code.
    */
-  readonly unclippedInputVolts: VoltRange;
+  readonly unclippedInputVolts: Interval;
   /** Input-referred ideal quantization noise lsbVolts/√12, in V rms. */
   readonly quantizationNoiseRmsVolts: number;
   /** Ideal SNR for a full-scale sine, 20·log10(2^N·√(3/2)) dB. */
@@ -230,7 +230,7 @@ export function createAdc(options: AdcOptions): Adc | RatiometricAdc {
   const lsbVolts = referenceVolts / gain / codeScale;
   const countsPerVolt = (gain * codeScale) / referenceVolts;
   const fullScaleMax = referenceVolts / gain;
-  const fullScaleVolts: VoltRange = { min: bipolar ? -fullScaleMax : 0, max: fullScaleMax };
+  const fullScaleVolts: Interval = { min: bipolar ? -fullScaleMax : 0, max: fullScaleMax };
 
   function flagged(k: number): AdcCode {
     if (k > codeMax) return { code: codeMax, clipped: true, atRail: true };

@@ -56,7 +56,7 @@ export interface SincFilter {
   /** The order k, an integer in [1, 5]. */
   readonly order: number;
   /** The output data rate f_ODR in Hz (> 0); the first null of the response lies at f_ODR. */
-  readonly outputDataRateHertz: number;
+  readonly dataRateHertz: number;
   /**
    * The decimation ratio N (an integer in [1, 2^24]; modulator rate = N·f_ODR). Default: the continuous limit
    * N → ∞, |H(f)| = |sin(πf/f_ODR)/(πf/f_ODR)|^k, which data sheets quote and which is within about
@@ -86,7 +86,7 @@ export type CheckedFilter =
   | {
       readonly kind: 'sinc';
       readonly order: number;
-      readonly outputDataRateHertz: number;
+      readonly dataRateHertz: number;
       readonly decimation: number | undefined;
     };
 
@@ -119,7 +119,7 @@ export function checkFilter(param: string, value: unknown): CheckedFilter {
       return {
         kind,
         order: checkInteger(`${param}.order`, o['order'], { min: 1, max: 5 }),
-        outputDataRateHertz: checkPositive(`${param}.outputDataRateHertz`, o['outputDataRateHertz']),
+        dataRateHertz: checkPositive(`${param}.dataRateHertz`, o['dataRateHertz']),
         decimation:
           o['decimation'] === undefined
             ? undefined
@@ -140,7 +140,7 @@ export function bandwidthOf(f: CheckedFilter): number {
     case 'brick-wall':
       return f.cutoffHertz;
     case 'sinc':
-      return f.outputDataRateHertz * sincBandwidthFactor(f.order, f.decimation);
+      return f.dataRateHertz * sincBandwidthFactor(f.order, f.decimation);
   }
 }
 
@@ -155,7 +155,7 @@ export function gainOf(f: CheckedFilter, frequencyHertz: number): number {
     case 'brick-wall':
       return x <= f.cutoffHertz ? 1 : 0;
     case 'sinc':
-      return sincGain(f.order, f.decimation, x / f.outputDataRateHertz);
+      return sincGain(f.order, f.decimation, x / f.dataRateHertz);
   }
 }
 
@@ -215,7 +215,7 @@ export function flickerFactorOf(f: CheckedFilter, lowHertz: number): number {
       return 0.5 * (Math.log1p(A / u) - (A / (u + A)) * divided);
     }
     case 'sinc': {
-      const xL = lowHertz / f.outputDataRateHertz;
+      const xL = lowHertz / f.dataRateHertz;
       const power = 2 * f.order;
       if (xL < 1) {
         // ∫_{xL}^1 (sinc^(2k) − 1)/x dx + ln(1/xL) + ∫_1^∞ sinc^(2k)/x dx.
@@ -263,7 +263,7 @@ export function flickerFactorOf(f: CheckedFilter, lowHertz: number): number {
  * @example
  * ```ts
  * noiseBandwidth({ kind: 'single-pole', cutoffHertz: 10 }); // 15.707963267948966
- * noiseBandwidth({ kind: 'sinc', order: 3, outputDataRateHertz: 10 }); // 2.75
+ * noiseBandwidth({ kind: 'sinc', order: 3, dataRateHertz: 10 }); // 2.75
  * ```
  */
 export function noiseBandwidth(filter: NoiseFilter): number {
@@ -288,7 +288,7 @@ export function noiseBandwidth(filter: NoiseFilter): number {
  * @example
  * ```ts
  * filterGain({ kind: 'single-pole', cutoffHertz: 10 }, 10); // 0.7071067811865475
- * filterGain({ kind: 'sinc', order: 3, outputDataRateHertz: 10 }, 50); // 0
+ * filterGain({ kind: 'sinc', order: 3, dataRateHertz: 10 }, 50); // 0
  * ```
  */
 export function filterGain(filter: NoiseFilter, frequencyHertz: number): number {
@@ -310,7 +310,7 @@ export function filterGain(filter: NoiseFilter, frequencyHertz: number): number 
  * @throws {@link @bridgework/core!BridgeworkError} as {@link filterGain}.
  * @example
  * ```ts
- * rejectionDecibels({ kind: 'sinc', order: 3, outputDataRateHertz: 10 }, 49); // 101.84…
+ * rejectionDecibels({ kind: 'sinc', order: 3, dataRateHertz: 10 }, 49); // 101.84…
  * ```
  */
 export function rejectionDecibels(filter: NoiseFilter, frequencyHertz: number): number {
@@ -393,7 +393,7 @@ function maxOnPiece(g: (f: number) => number, a: number, b: number): [number, nu
  *   the mains frequency; `negative` for δ; `out-of-range` when δ ≥ the mains frequency.
  * @example
  * ```ts
- * mainsRejection({ filter: { kind: 'sinc', order: 3, outputDataRateHertz: 10 }, mainsHertz: 50 });
+ * mainsRejection({ filter: { kind: 'sinc', order: 3, dataRateHertz: 10 }, mainsHertz: 50 });
  * // { nominalDecibels: Infinity, worstDecibels: 101.84…, worstFrequencyHertz: 49 }
  * ```
  */
@@ -415,7 +415,7 @@ export function mainsRejection(options: MainsRejectionOptions): MainsRejection {
   const hi = mains + delta;
   let worst: [number, number] = [lo, g(lo)];
   if (filter.kind === 'sinc') {
-    const step = filter.outputDataRateHertz;
+    const step = filter.dataRateHertz;
     const cuts = [lo];
     for (let n = Math.floor(lo / step) + 1; n * step < hi; n++) cuts.push(n * step);
     cuts.push(hi);

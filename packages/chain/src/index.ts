@@ -95,4 +95,3 @@ export {
   type SelfHeatingOptions,
   type SelfHeatingValue,
 } from './selfHeating.js';
-export type { VoltRange } from './VoltRange.js';

@@ -23,7 +23,7 @@ import {
 import { combineNoise, type NoiseShare } from './combineNoise.js';
 import { createAdc, type Adc, type AdcCode, type RatiometricAdc } from './createAdc.js';
 import type { DesignCheck } from './DesignCheck.js';
-import type { VoltRange } from './VoltRange.js';
+import type { Interval } from '@bridgework/core';
 import { bandwidthOf, checkFilter, type NoiseFilter } from './filters.js';
 import { checkAmplifierNoise, frontEndSpectra, type AmplifierNoiseOptions } from './inputNoiseDensity.js';
 import { checkBoolean } from './internal/checkBoolean.js';
@@ -166,7 +166,7 @@ export interface ResolutionBudget {
   /** Counts per µε (strain spans; else `undefined`). */
   readonly countsPerMicrostrain: number | undefined;
   /** Differential input at the span's ends in V. */
-  readonly spanVolts: VoltRange;
+  readonly spanVolts: Interval;
   /** The noise, by source. */
   readonly noise: BudgetNoise;
   /** The resolution. */
@@ -427,7 +427,7 @@ export function budgetAt(ctx: BudgetContext, gainValue: unknown): DesignCheck<Re
  *   excitationVolts: 5,
  *   gain: 128,
  *   adc: { bits: 24, ratiometric: true },
- *   filter: { kind: 'sinc', order: 3, outputDataRateHertz: 10 },
+ *   filter: { kind: 'sinc', order: 3, dataRateHertz: 10 },
  * });
  * value.countsPerMicrostrain; // 536.870912
  * ```

@@ -122,7 +122,7 @@ function feasibleInterval(ctx: BudgetContext, range: GainRange): GainRange | und
  *   excitationVolts: 5,
  *   gains: [1, 2, 4, 8, 16, 32, 64, 128],
  *   adc: { bits: 24, ratiometric: true },
- *   filter: { kind: 'sinc', order: 3, outputDataRateHertz: 10 },
+ *   filter: { kind: 'sinc', order: 3, dataRateHertz: 10 },
  * });
  * r.value.gain; // 128: ±3000 µε is ±1.5 mV/V, within ±1/128 V/V
  * ```

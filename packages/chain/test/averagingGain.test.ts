@@ -22,7 +22,7 @@ describe('averagingGain', () => {
   });
 
   it('a sinc1 filter’s outputs are independent: averaging M of them is exactly √M', () => {
-    const f = { kind: 'sinc', order: 1, outputDataRateHertz: 10 } as const;
+    const f = { kind: 'sinc', order: 1, dataRateHertz: 10 } as const;
     for (const m of [2, 7, 64]) {
       expect(averagingGain({ samples: m, filter: f }).noiseFactor).toBeNear(1 / Math.sqrt(m), { ulps: 2 });
       expect(averagingGain({ samples: m, filter: { ...f, decimation: 32 } }).noiseFactor).toBeNear(
@@ -43,14 +43,14 @@ describe('averagingGain', () => {
     ] as const) {
       const r = averagingGain({
         samples: m,
-        filter: { kind: 'sinc', order: k, outputDataRateHertz: 1, decimation: n },
+        filter: { kind: 'sinc', order: k, dataRateHertz: 1, decimation: n },
       });
       expect(r.noiseFactor ** 2).toBeNear(bruteForceVarianceRatio(k, n, m), { rel: 1e-14 });
     }
   });
 
   it('continuous sinc3: 16 samples gain 1.59 bits, not 2; many samples tend to √(0.55·M)', () => {
-    const f = { kind: 'sinc', order: 3, outputDataRateHertz: 10 } as const;
+    const f = { kind: 'sinc', order: 3, dataRateHertz: 10 } as const;
     // By hand: Σ(16 − |l|)·M6(l) with M6(0) = 66/120, M6(±1) = 26/120, M6(±2) = 1/120 is 15.5333…;
     // its ratio to 16²·0.55 is 0.110322, so the noise factor is 0.332148 and the gain 1.59010 bits.
     const r = averagingGain({ samples: 16, filter: f });
@@ -74,7 +74,7 @@ describe('averagingGain', () => {
     ],
     [
       'a bad sinc order',
-      { samples: 4, filter: { kind: 'sinc', order: 0, outputDataRateHertz: 1 } },
+      { samples: 4, filter: { kind: 'sinc', order: 0, dataRateHertz: 1 } },
       'out-of-range',
       'filter.order',
     ],

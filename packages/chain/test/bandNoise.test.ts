@@ -22,7 +22,7 @@ describe('noiseDensityAt', () => {
 
 describe('bandNoiseRms', () => {
   it('white noise through any filter is S₀·√ENBW', () => {
-    const filter = { kind: 'sinc', order: 4, outputDataRateHertz: 20 } as const;
+    const filter = { kind: 'sinc', order: 4, dataRateHertz: 20 } as const;
     expect(bandNoiseRms({ whiteDensity: 7e-9, filter })).toBeNear(7e-9 * Math.sqrt(noiseBandwidth(filter)), {
       ulps: 2,
     });

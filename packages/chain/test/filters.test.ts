@@ -87,8 +87,8 @@ describe('noiseBandwidth: closed forms against direct integration of |H(f)|² (a
   it('sinc1 = 0.5·fODR and sinc3 = 0.275·fODR (issue #4; derived, see below)', () => {
     // Derived: ENBW/fODR = ∫₀^∞ sinc^(2k)(x) dx = ½·M_2k(0), the centred B-spline of order 2k at 0;
     // k = 1: ½·1, k = 3: ½·66/120 = 11/40. Confirmed here by direct integration.
-    expect(noiseBandwidth({ kind: 'sinc', order: 1, outputDataRateHertz: 10 })).toBe(5);
-    expect(noiseBandwidth({ kind: 'sinc', order: 3, outputDataRateHertz: 10 })).toBeNear(2.75, { ulps: 1 });
+    expect(noiseBandwidth({ kind: 'sinc', order: 1, dataRateHertz: 10 })).toBe(5);
+    expect(noiseBandwidth({ kind: 'sinc', order: 3, dataRateHertz: 10 })).toBeNear(2.75, { ulps: 1 });
   });
 
   it.each([
@@ -98,7 +98,7 @@ describe('noiseBandwidth: closed forms against direct integration of |H(f)|² (a
     [4, 151 / 630],
     [5, 15619 / 72576],
   ])('sinc%i: exact rational %d·fODR, and by direct integration of sinc^(2k)', (k, exact) => {
-    const enbw = noiseBandwidth({ kind: 'sinc', order: k, outputDataRateHertz: 1 });
+    const enbw = noiseBandwidth({ kind: 'sinc', order: k, dataRateHertz: 1 });
     // The rationals: ∫₀^∞ (sin x/x)^n dx = π/(2^n (n−1)!)·Σ_j (−1)^j C(n, j)(n − 2j)^(n−1) with n = 2k,
     // divided by π (the classical closed form; Gradshteyn & Ryzhik 3.836 — from memory).
     expect(enbw).toBeNear(exact, { ulps: 1 });
@@ -113,7 +113,7 @@ describe('noiseBandwidth: closed forms against direct integration of |H(f)|² (a
         const sum = h.reduce((s, v) => s + v, 0n);
         // N·Σh²/(2(Σh)²), converted with 30 extra bits before the final rounding
         const ref = Number((BigInt(n) * sumSq * 2n ** 60n) / (2n * sum * sum)) / 2 ** 60;
-        const enbw = noiseBandwidth({ kind: 'sinc', order: k, outputDataRateHertz: 1, decimation: n });
+        const enbw = noiseBandwidth({ kind: 'sinc', order: k, dataRateHertz: 1, decimation: n });
         expect(enbw).toBeNear(ref, { ulps: 1 });
       }
     }
@@ -121,9 +121,8 @@ describe('noiseBandwidth: closed forms against direct integration of |H(f)|² (a
 
   it('the discrete sinc^k bandwidth tends to the continuous one as the decimation grows', () => {
     for (const k of [2, 3, 5]) {
-      const continuous = noiseBandwidth({ kind: 'sinc', order: k, outputDataRateHertz: 1 });
-      const at = (n: number) =>
-        noiseBandwidth({ kind: 'sinc', order: k, outputDataRateHertz: 1, decimation: n });
+      const continuous = noiseBandwidth({ kind: 'sinc', order: k, dataRateHertz: 1 });
+      const at = (n: number) => noiseBandwidth({ kind: 'sinc', order: k, dataRateHertz: 1, decimation: n });
       expect(at(64)).toBeNear(continuous, { rel: 1e-3 });
       expect(at(2 ** 20)).toBeNear(continuous, { rel: 1e-11 });
       expect(Math.abs(at(1024) - continuous)).toBeLessThan(Math.abs(at(64) - continuous));
@@ -132,13 +131,13 @@ describe('noiseBandwidth: closed forms against direct integration of |H(f)|² (a
 });
 
 describe('filterGain', () => {
-  const sincAt = (k: number) => ({ kind: 'sinc', order: k, outputDataRateHertz: 1 }) as const;
+  const sincAt = (k: number) => ({ kind: 'sinc', order: k, dataRateHertz: 1 }) as const;
 
   it('sinc1 at fODR/2 is 2/π (−3.92 dB); nulls at every multiple of fODR are exactly 0', () => {
     expect(filterGain(sincAt(1), 0.5)).toBeNear(2 / Math.PI, { ulps: 2 });
     for (const k of [1, 3, 5]) for (const m of [1, 2, 5, 50, 1e6]) expect(filterGain(sincAt(k), m)).toBe(0);
-    expect(filterGain({ kind: 'sinc', order: 3, outputDataRateHertz: 10 }, 50)).toBe(0);
-    expect(filterGain({ kind: 'sinc', order: 3, outputDataRateHertz: 10 }, 60)).toBe(0);
+    expect(filterGain({ kind: 'sinc', order: 3, dataRateHertz: 10 }, 50)).toBe(0);
+    expect(filterGain({ kind: 'sinc', order: 3, dataRateHertz: 10 }, 60)).toBe(0);
   });
 
   it.each([
@@ -173,14 +172,11 @@ describe('filterGain', () => {
           im -= v * Math.sin(w * i);
         });
         const dft = Math.hypot(re, im) / sum;
-        expect(filterGain({ kind: 'sinc', order: k, outputDataRateHertz: 1, decimation: n }, x)).toBeNear(
-          dft,
-          {
-            abs: 1e-13, // DFT summation error over ≤ 70 terms
-          },
-        );
+        expect(filterGain({ kind: 'sinc', order: k, dataRateHertz: 1, decimation: n }, x)).toBeNear(dft, {
+          abs: 1e-13, // DFT summation error over ≤ 70 terms
+        });
       }
-      expect(filterGain({ kind: 'sinc', order: k, outputDataRateHertz: 1, decimation: n }, n)).toBe(1);
+      expect(filterGain({ kind: 'sinc', order: k, dataRateHertz: 1, decimation: n }, n)).toBe(1);
     }
   });
 
@@ -206,7 +202,7 @@ describe('filterGain', () => {
 });
 
 describe('mainsRejection', () => {
-  const sinc3 = { kind: 'sinc', order: 3, outputDataRateHertz: 10 } as const;
+  const sinc3 = { kind: 'sinc', order: 3, dataRateHertz: 10 } as const;
 
   /** The largest gain on a dense grid of the band: an independent (brute-force) worst case. */
   function sampledWorst(filter: NoiseFilter, lo: number, hi: number): number {
@@ -235,7 +231,7 @@ describe('mainsRejection', () => {
   });
 
   it('finds a lobe peak inside the band (golden section), matching a dense scan', () => {
-    const filter = { kind: 'sinc', order: 3, outputDataRateHertz: 1 } as const;
+    const filter = { kind: 'sinc', order: 3, dataRateHertz: 1 } as const;
     const r = mainsRejection({ filter, mainsHertz: 50, deviationHertz: 0.8 });
     expect(r.worstFrequencyHertz).toBeGreaterThan(49.2);
     expect(r.worstFrequencyHertz).toBeLessThan(49.6);
@@ -262,7 +258,7 @@ describe('mainsRejection', () => {
         fc.constantFrom(50, 60),
         fc.double({ min: 0, max: 3, noNaN: true }),
         (k, odr, mains, delta) => {
-          const filter = { kind: 'sinc', order: k, outputDataRateHertz: odr } as const;
+          const filter = { kind: 'sinc', order: k, dataRateHertz: odr } as const;
           const r = mainsRejection({ filter, mainsHertz: mains, deviationHertz: delta });
           let scan = 0;
           for (let i = 0; i <= 2000; i++)
@@ -348,7 +344,7 @@ describe('1/f noise through each filter: closed forms against direct integration
         numeric += piecewise((x) => sinc(x) ** (2 * k) / x, xL, X, 2 * (X - 1), 1e-18);
       }
       numeric += centralMean(k) / (Math.PI ** (2 * k) * 2 * k * X ** (2 * k));
-      expect(flickerFactor({ kind: 'sinc', order: k, outputDataRateHertz: odr }, fL)).toBeNear(numeric, {
+      expect(flickerFactor({ kind: 'sinc', order: k, dataRateHertz: odr }, fL)).toBeNear(numeric, {
         rel: 1e-9,
       });
     }
@@ -365,11 +361,11 @@ describe('filters: bad inputs', () => {
     ['order 2.5', { kind: 'butterworth', cutoffHertz: 1, order: 2.5 }, 'not-integer', 'filter.order'],
     ['one pole', { kind: 'two-real-poles', poleHertz: [1] }, 'invalid-shape', 'filter.poleHertz'],
     ['zero pole', { kind: 'two-real-poles', poleHertz: [1, 0] }, 'not-positive', 'filter.poleHertz[1]'],
-    ['sinc6', { kind: 'sinc', order: 6, outputDataRateHertz: 10 }, 'out-of-range', 'filter.order'],
-    ['sinc without rate', { kind: 'sinc', order: 3 }, 'wrong-type', 'filter.outputDataRateHertz'],
+    ['sinc6', { kind: 'sinc', order: 6, dataRateHertz: 10 }, 'out-of-range', 'filter.order'],
+    ['sinc without rate', { kind: 'sinc', order: 3 }, 'wrong-type', 'filter.dataRateHertz'],
     [
       'decimation 0',
-      { kind: 'sinc', order: 3, outputDataRateHertz: 10, decimation: 0 },
+      { kind: 'sinc', order: 3, dataRateHertz: 10, decimation: 0 },
       'out-of-range',
       'filter.decimation',
     ],
@@ -379,7 +375,7 @@ describe('filters: bad inputs', () => {
   });
 
   it('filterGain rejects a NaN frequency; mainsRejection its band', () => {
-    const f = { kind: 'sinc', order: 3, outputDataRateHertz: 10 } as const;
+    const f = { kind: 'sinc', order: 3, dataRateHertz: 10 } as const;
     expect(() => filterGain(f, Number.NaN)).toThrowBridgeworkError('not-finite', { param: 'frequencyHertz' });
     expect(() => mainsRejection({ filter: f, mainsHertz: 0 })).toThrowBridgeworkError('not-positive', {
       param: 'mainsHertz',

@@ -9,7 +9,7 @@ import {
 } from '@bridgework/chain';
 
 const quarter = createStrainBridge({ arrangement: 'quarter', gaugeFactor: 2 });
-const sinc3 = { kind: 'sinc', order: 3, outputDataRateHertz: 10 } as const;
+const sinc3 = { kind: 'sinc', order: 3, dataRateHertz: 10 } as const;
 const base = {
   span: { bridge: quarter, strainRange: { min: -2e-3, max: 2e-3 } },
   excitationVolts: 5,

@@ -7,7 +7,7 @@ const pga = [1, 2, 4, 8, 16, 32, 64, 128];
 const base = {
   excitationVolts: 5,
   adc: { bits: 24, ratiometric: true },
-  filter: { kind: 'sinc', order: 3, outputDataRateHertz: 10 },
+  filter: { kind: 'sinc', order: 3, dataRateHertz: 10 },
 } as const;
 const span = (microstrain: number) => ({
   bridge: quarter,

@@ -5,6 +5,7 @@ import {
   checkOneOf,
   formatValue,
   requireOption,
+  type Interval,
 } from '@bridgework/core';
 import type { ExactValue } from './exactValue.js';
 import { BINARY64, roundToBinary, upperDouble } from './internal/binary.js';
@@ -105,14 +106,6 @@ export interface FixedPointSource {
   readonly multiplierExact: string;
 }
 
-/** A closed integer interval. */
-export interface IntegerRange {
-  /** Smallest value. */
-  readonly min: number;
-  /** Largest value. */
-  readonly max: number;
-}
-
 /** A closed interval of bigints. */
 export interface BigIntRange {
   /** Smallest value. */
@@ -155,7 +148,7 @@ export interface FixedPointMap {
   /** M/2^s − m: the coefficient error in output LSB per code, nearest double (0 when exact). */
   readonly coefficientError: number;
   /** Outputs at the ends of the code range (the map is monotone), in output LSB. */
-  readonly outputRange: IntegerRange;
+  readonly outputRange: Interval;
   /** Extreme accumulator values over the code range, rounding addend included. */
   readonly accumulatorRange: BigIntRange;
   /** Largest accumulator magnitude allowed: 2^(accumulatorBits−1) − 1. */

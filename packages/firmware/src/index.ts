@@ -9,7 +9,6 @@ export {
   type FixedPointMap,
   type FixedPointMapOptions,
   type FixedPointSource,
-  type IntegerRange,
   type QFormat,
 } from './fixedPointMap.js';
 export {

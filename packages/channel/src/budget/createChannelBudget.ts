@@ -191,7 +191,7 @@ export function createChannelBudget(
       ratiometric: r.adc.ratiometric,
       ...(r.adc.noiseRmsVolts === undefined ? {} : { noiseRmsVolts: r.adc.noiseRmsVolts }),
     },
-    filter: { kind: 'sinc', order: r.adc.filterOrder, outputDataRateHertz: r.adc.dataRateHertz },
+    filter: { kind: 'sinc', order: r.adc.filterOrder, dataRateHertz: r.adc.dataRateHertz },
     ...(r.amplifier.voltageCornerHertz > 0 || r.amplifier.currentCornerHertz > 0 ? { lowHertz: 0.01 } : {}),
     ...(options.peakToPeakFactor === undefined ? {} : { peakToPeakFactor: options.peakToPeakFactor }),
   });
