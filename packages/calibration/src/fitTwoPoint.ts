@@ -1,4 +1,4 @@
-import { BridgeworkError, checkFinite, checkObject, formatValue } from '@bridgework/core';
+import { BridgeworkError, checkFinite, checkOptions, formatValue } from '@bridgework/core';
 
 /** Options of {@link fitTwoPoint}: a zero point and a span point. */
 export interface TwoPointFitOptions {
@@ -54,7 +54,10 @@ export interface TwoPointFit {
  * ```
  */
 export function fitTwoPoint(options: TwoPointFitOptions): TwoPointFit {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['zeroLoad', 'zeroReading', 'spanLoad', 'spanReading'],
+    required: ['zeroReading', 'spanLoad', 'spanReading'],
+  });
   const x0 = o['zeroLoad'] === undefined ? 0 : checkFinite('zeroLoad', o['zeroLoad']);
   const y0 = checkFinite('zeroReading', o['zeroReading']);
   const x1 = checkFinite('spanLoad', o['spanLoad']);
