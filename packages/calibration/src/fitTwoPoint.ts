@@ -40,7 +40,7 @@ export interface TwoPointFit {
  * both formed from the zero point, so the zero point maps back exactly and the round trip is
  * within a few ulps of the span. This is the usual zero/span adjustment of an instrument (common
  * practice); it carries no uncertainty estimate, since two points leave no degrees of freedom: use
- * {@link createFitter} with more points for that.
+ * {@link fitPolynomial} with more points for that.
  *
  * @param options - The zero and span points.
  * @returns The line and its two maps.
