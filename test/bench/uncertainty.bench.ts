@@ -155,7 +155,7 @@ report('uncertainty: coverage intervals of 10⁶ values, per value', intervalRes
 // Two worker threads against one thread, alternating, ratio per round.
 const pool = await createMonteCarloPool({
   model: {
-    module: new URL('../../packages/uncertainty/test/support/benchModel.ts', import.meta.url),
+    module: new URL('../../packages/uncertainty/test/support/benchModel.js', import.meta.url),
     exportName: 'twelveInputModel',
   },
   workers: 2,
