@@ -46,6 +46,19 @@ export type {
   StrainFromShuntOptions,
 } from './shuntOptions.js';
 export {
+  fitMultiComponent,
+  type LoadingPoint,
+  type LoadStateMonteCarloOptions,
+  type LoadStateOptions,
+  type LoadStateUncertainty,
+  type MultiComponentCalibration,
+  type MultiComponentFitOptions,
+  type MultiComponentInverse,
+  type MultiComponentInverseOptions,
+  type RejectedTerm,
+} from './multicomponent/fitMultiComponent.js';
+export { interactionTermChoices, type InteractionTerms, type ModelTerm } from './multicomponent/terms.js';
+export {
   nearestPreferredValue,
   preferredSeries,
   preferredValues,
