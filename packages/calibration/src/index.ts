@@ -46,6 +46,29 @@ export type {
   StrainFromShuntOptions,
 } from './shuntOptions.js';
 export {
+  checkEccentricity,
+  instrumentAccuracyClasses,
+  type EccentricityCheck,
+  type EccentricityCheckOptions,
+  type EccentricityRow,
+  type InstrumentAccuracyClass,
+} from './platform/checkEccentricity.js';
+export {
+  fitCornerFactors,
+  type CornerFactors,
+  type CornerFactorsOptions,
+  type CornerIndication,
+} from './platform/fitCornerFactors.js';
+export {
+  fitSummingTrims,
+  summingNetworkRatio,
+  type SummingNetworkOptions,
+  type SummingNetworkRatioOptions,
+  type SummingTrims,
+  type SummingTrimsOptions,
+  type TrimPlacement,
+} from './platform/summingNetwork.js';
+export {
   fitMultiComponent,
   type LoadingPoint,
   type LoadStateMonteCarloOptions,
