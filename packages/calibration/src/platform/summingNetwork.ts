@@ -58,7 +58,12 @@ export interface SummingTrims {
   /** (largest − smallest position output)/mean, as a fraction: 0 to rounding when positions = cells. */
   readonly positionSpreadFraction: number;
   /** Each check position's output and its difference from the mean position output, as a fraction. */
-  readonly checks: readonly { readonly ratio: number; readonly differenceFraction: number }[];
+  readonly checks: readonly {
+    /** The summed output ratio with the load at the check position, V/V of the supply. */
+    readonly ratio: number;
+    /** (ratio − mean position output)/mean position output, as a fraction. */
+    readonly differenceFraction: number;
+  }[];
   /** Newton iterations taken. */
   readonly iterations: number;
 }
