@@ -92,7 +92,6 @@ export {
   type QuantityParser,
 } from './channelFile/loadChannelFile.js';
 
-export { validateChannelEntry } from './channels/validateChannelEntry.js';
 export { loadChannels, type LoadedChannel, type LoadedChannels } from './channels/loadChannels.js';
 export { channelFileJsonSchema } from './channels/channelFileJsonSchema.js';
 
