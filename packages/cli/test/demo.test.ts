@@ -104,7 +104,9 @@ describe('pnpm demo', () => {
       encoding: 'utf8',
       env: { ...process.env, NO_COLOR: '1' },
     });
-    expect(out).toMatch(/^bridgework demo: the design report of packages\/cli\/demo\/footbridge-monitoring\.yaml,/);
+    expect(out).toMatch(
+      /^bridgework demo: the design report of packages\/cli\/demo\/footbridge-monitoring\.yaml,/,
+    );
     expect(out).toMatch(/Every check passed\./);
     expect(existsSync(join(dir, 'footbridge-monitoring.html'))).toBe(true);
   });

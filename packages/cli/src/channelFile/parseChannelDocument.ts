@@ -220,8 +220,14 @@ function walk(node: unknown, path: string, doc: Document, w: Walk): { nodes: num
       const child = isPair ? pair.value : item;
       const childPath = isPair ? (path === '' ? key : `${path}.${key}`) : `${path}${key}`;
       if (isPair) reservedKey(key, path, childPath, w.issues);
-      if (isPair && pair.key !== null && typeof pair.key === 'object')
-        nodes += walk(pair.key, childPath, doc, w).nodes;
+      if (isPair && !isScalar(pair.key)) {
+        // A list, mapping or alias as a key: JavaScript objects have text keys only.
+        w.problems.push({
+          offset: (pair.key as Node | null)?.range?.[0] ?? node.range?.[0] ?? 0,
+          message: 'a key must be a plain text (a name), not a list, a mapping or an alias',
+        });
+        throw w;
+      }
       const s = walk(child, childPath, doc, w);
       nodes += s.nodes;
       depth = Math.max(depth, s.depth);
@@ -321,7 +327,8 @@ export function parseChannelDocument(
   const lines = new LineCounter();
   const doc = parseDocument(source, {
     lineCounter: lines,
-    prettyErrors: true,
+    // Positions are computed from each error's offset below; the pretty context is not needed.
+    prettyErrors: false,
     uniqueKeys: true,
     merge: false,
   });
@@ -335,7 +342,7 @@ export function parseChannelDocument(
     if (duplicates.length > 0) {
       throw parseError(
         duplicates
-          .map((e) => `${file}:${e.linePos?.[0].line}:${e.linePos?.[0].col}: duplicate key in JSON`)
+          .map((e) => `${at(e.pos[0])}: duplicate key in JSON`)
           .join('\n'),
         file,
       );
@@ -343,10 +350,7 @@ export function parseChannelDocument(
   } else if (problems.length > 0) {
     throw parseError(
       problems
-        .map((e) => {
-          const p = e.linePos?.[0];
-          return `${file}${p === undefined ? '' : `:${p.line}:${p.col}`}: malformed YAML: ${firstLine(e.message)}`;
-        })
+        .map((e) => `${at(e.pos[0])}: malformed YAML: ${firstLine(e.message)}`)
         .join('\n'),
       file,
     );

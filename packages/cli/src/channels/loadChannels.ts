@@ -39,7 +39,7 @@ export interface LoadedChannels {
  * paths). The channel's name is its key in the file, so a `name` field inside the entry is a
  * problem of the file.
  */
-function validateEntry(raw: unknown, parseQuantity: QuantityParser): ChannelValidation<ChannelSpec> {
+export function validateFileEntry(raw: unknown, parseQuantity: QuantityParser): ChannelValidation<ChannelSpec> {
   const hasName = typeof raw === 'object' && raw !== null && Object.hasOwn(raw, 'name');
   const nameIssue: SpecIssue[] = hasName
     ? [
@@ -100,7 +100,7 @@ function channelError(document: ChannelDocument, name: string, e: BridgeworkErro
  */
 export async function loadChannels(path: string, names?: readonly string[]): Promise<LoadedChannels> {
   const document = await readChannelDocument(path);
-  const file = validateChannelDocument(document, { validateChannel: validateEntry });
+  const file = validateChannelDocument(document, { validateChannel: validateFileEntry });
   const rawChannels = (document.data as { channels: Record<string, unknown> }).channels;
   const channels = selectChannels(file, names).map(({ name, spec }) => {
     const named: ChannelSpec = { ...spec, name };

@@ -8,9 +8,7 @@
 import { fileURLToPath } from 'node:url';
 import type { ChannelSpec } from '@bridgework/channel';
 
-export const examplePath = fileURLToPath(
-  new URL('../../demo/footbridge-monitoring.yaml', import.meta.url),
-);
+export const examplePath = fileURLToPath(new URL('../../demo/footbridge-monitoring.yaml', import.meta.url));
 
 /** The path as the command shows it when run from the repository root. */
 export const exampleShown = 'packages/cli/demo/footbridge-monitoring.yaml';
