@@ -340,18 +340,11 @@ export function parseChannelDocument(
   if (kind === 'json') {
     const duplicates = doc.errors.filter((e) => e.code === 'DUPLICATE_KEY');
     if (duplicates.length > 0) {
-      throw parseError(
-        duplicates
-          .map((e) => `${at(e.pos[0])}: duplicate key in JSON`)
-          .join('\n'),
-        file,
-      );
+      throw parseError(duplicates.map((e) => `${at(e.pos[0])}: duplicate key in JSON`).join('\n'), file);
     }
   } else if (problems.length > 0) {
     throw parseError(
-      problems
-        .map((e) => `${at(e.pos[0])}: malformed YAML: ${firstLine(e.message)}`)
-        .join('\n'),
+      problems.map((e) => `${at(e.pos[0])}: malformed YAML: ${firstLine(e.message)}`).join('\n'),
       file,
     );
   }

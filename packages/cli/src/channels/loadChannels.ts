@@ -39,7 +39,10 @@ export interface LoadedChannels {
  * paths). The channel's name is its key in the file, so a `name` field inside the entry is a
  * problem of the file.
  */
-export function validateFileEntry(raw: unknown, parseQuantity: QuantityParser): ChannelValidation<ChannelSpec> {
+export function validateFileEntry(
+  raw: unknown,
+  parseQuantity: QuantityParser,
+): ChannelValidation<ChannelSpec> {
   const hasName = typeof raw === 'object' && raw !== null && Object.hasOwn(raw, 'name');
   const nameIssue: SpecIssue[] = hasName
     ? [
