@@ -51,7 +51,7 @@ export interface ModelReference {
       };
   /**
    * The export's name. Default `'model'`. Without `argument` the export is the model: a function
-   * of the inputs by name, or a {@link @bridgework/uncertainty!PositionalModel} object; with
+   * of the inputs by name, or a `PositionalModel` object (from `@bridgework/uncertainty`); with
    * `argument`, a function that makes such a model from it.
    */
   readonly exportName?: string;
