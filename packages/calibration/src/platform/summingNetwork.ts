@@ -24,7 +24,7 @@ export interface SummingNetworkOptions {
   readonly trimPlacement?: TrimPlacement;
   /** The resistor from each cell's +S and from its −S to the common signal buses, Ω (≥ 0). Default 0 (signals paralleled directly). */
   readonly summingOhms?: number;
-  /** The meter's input resistance across the buses, Ω (> 0, or Infinity). Default Infinity. */
+  /** The meter's input resistance across the buses, Ω (≥ 1e-3, or Infinity). Default Infinity. */
   readonly meterOhms?: number;
 }
 
