@@ -39,34 +39,63 @@ export {
   type AtomicFileOptions,
 } from './files/atomicFile.js';
 
-// Streamed code conversion
+// Recorded data: layouts, readers, the conversion pipeline, writers
 export {
   DEFAULT_BLOCK_FRAMES,
-  codeFileFormats,
-  type CodeBlock,
   type CodeFileFormat,
   type CodeSource,
+  type RecordingBlock,
+  type TimeColumn,
 } from './data/codeSource.js';
-export { openInt32Codes, type Int32CodeOptions } from './data/readInt32Codes.js';
-export { openCsvCodes, type CsvCodeOptions } from './data/readCsvCodes.js';
+export {
+  checkRawLayout,
+  sampleTypes,
+  timeStampTypes,
+  type RawLayout,
+  type SampleType,
+  type TimeStampLayout,
+  type TimeStampType,
+} from './data/recordingLayout.js';
+export type { CodeLanes, TimeStamps } from './data/decodeFrames.js';
+export { openRawCodes, type RawCodeOptions } from './data/readRawCodes.js';
+export { openCsvCodes, type CsvCodeOptions, type CsvColumn } from './data/readCsvCodes.js';
 export { codeFormatFromPath, openCodeSource, type OpenCodeSourceOptions } from './data/openCodeSource.js';
 export { streamSink, type OutputSink } from './data/outputSink.js';
-export { createCsvWriter, type CsvWriter, type CsvWriterOptions } from './data/createCsvWriter.js';
 export {
   createClipCounter,
   formatClipSummary,
   type ChannelClipCount,
   type ClipCounter,
   type ClipSummary,
-  type ConverterStatus,
-  type InterleavedConverter,
 } from './data/clipCounter.js';
 export {
-  convertCodeStream,
+  convertRecording,
+  type BlockTemperature,
   type ConversionResult,
-  type ConvertCodeStreamOptions,
-} from './data/convertCodeStream.js';
-export { convertToCsv, type ConvertToCsvOptions, type ProgressSink } from './data/convertToCsv.js';
+  type ConvertedBlock,
+  type ConvertingChannel,
+  type ConvertRecordingOptions,
+  type RecordingWriter,
+  type TemperatureGaps,
+} from './data/convertRecording.js';
+export type { ChannelColumn, RecordingColumns } from './data/recordingColumns.js';
+export {
+  outputFormatFromPath,
+  outputFormats,
+  parquetCompressions,
+  rawOutputFormats,
+  type OutputFormat,
+  type ParquetCompression,
+  type RawOutputFormat,
+} from './data/outputFormats.js';
+export { createCsvWriter, type CsvWriterOptions } from './data/createCsvWriter.js';
+export { createRawWriter } from './data/createRawWriter.js';
+export { createArrowWriter, type ArrowIpcForm } from './data/createArrowWriter.js';
+export { createParquetWriter, type ParquetWriterOptions } from './data/createParquetWriter.js';
+export { recordingSchema } from './data/arrowBatches.js';
+export { writeRecording, type WriteRecordingOptions } from './data/openRecordingOutput.js';
+export { parseTimeWindow, windowMeans, type RecordingClock, type TimeWindow, type WindowMeans } from './data/timeWindow.js';
+export { writeDigits, writeShortest } from './data/numberText.js';
 
 // Units and channel files
 export { parseQuantity, siUnits, type SiUnit } from './units/parseQuantity.js';
