@@ -94,7 +94,13 @@ export { createArrowWriter, type ArrowIpcForm } from './data/createArrowWriter.j
 export { createParquetWriter, type ParquetWriterOptions } from './data/createParquetWriter.js';
 export { recordingSchema } from './data/arrowBatches.js';
 export { writeRecording, type WriteRecordingOptions } from './data/openRecordingOutput.js';
-export { parseTimeWindow, windowMeans, type RecordingClock, type TimeWindow, type WindowMeans } from './data/timeWindow.js';
+export {
+  parseTimeWindow,
+  windowMeans,
+  type RecordingClock,
+  type TimeWindow,
+  type WindowMeans,
+} from './data/timeWindow.js';
 export { writeDigits, writeShortest } from './data/numberText.js';
 
 // Units and channel files

@@ -107,7 +107,8 @@ export function createBatchBuilder(columns: RecordingColumns, blockFrames: numbe
         time = makeData({ type: new Int64(), length: n, nullCount: 0, data: frameIndex.subarray(0, n) });
       } else {
         const stamps = block.timeStamps ?? (n === 0 ? emptyStamps(timeDataType) : undefined);
-        if (stamps === undefined) throw new Error('a recording with a time column gave a block without time stamps');
+        if (stamps === undefined)
+          throw new Error('a recording with a time column gave a block without time stamps');
         time = makeData({
           type: timeDataType,
           length: n,

@@ -158,7 +158,9 @@ export async function convertRecording(options: ConvertRecordingOptions): Promis
     let blockTemperature: number | undefined;
     if (temperature !== undefined) {
       const [codes, out] = lane(temperature.from);
-      rejected[temperature.from] = channels[temperature.from]!.convert(codes, out, { maxLocations: 0 }).status.rejected;
+      rejected[temperature.from] = channels[temperature.from]!.convert(codes, out, {
+        maxLocations: 0,
+      }).status.rejected;
       let sum = 0;
       let valid = 0;
       for (let f = 0; f < count; f++) {

@@ -63,7 +63,11 @@ export async function createParquetWriter(
     .setCompression(codec)
     .setDictionaryEnabled(false)
     .setMaxRowGroupSize(rowGroupRows)
-    .setCreatedBy(columns.metadata['bridgework.version'] === undefined ? 'bridgework' : `bridgework ${columns.metadata['bridgework.version']}`)
+    .setCreatedBy(
+      columns.metadata['bridgework.version'] === undefined
+        ? 'bridgework'
+        : `bridgework ${columns.metadata['bridgework.version']}`,
+    )
     .setKeyValueMetadata(new Map(Object.entries(columns.metadata)))
     .build();
 

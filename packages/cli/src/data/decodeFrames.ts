@@ -54,7 +54,11 @@ export function decodeFrames(
     (bytes.byteOffset + codeOffset) % 4 === 0 &&
     frameBytes % 4 === 0
   ) {
-    const words = new Int32Array(bytes.buffer, bytes.byteOffset + codeOffset, ((frames - 1) * frameBytes) / 4 + channels);
+    const words = new Int32Array(
+      bytes.buffer,
+      bytes.byteOffset + codeOffset,
+      ((frames - 1) * frameBytes) / 4 + channels,
+    );
     const stride = frameBytes / 4;
     for (let j = 0; j < channels; j++) {
       const base = j * laneStride;

@@ -1,33 +1,14 @@
 import { extname } from 'node:path';
+import type { OutputFormat } from './formatLists.js';
 
-/** The raw output formats: IEEE 754 values, one per channel per frame, in a stated byte order. */
-export type RawOutputFormat = 'float32le' | 'float32be' | 'float64le' | 'float64be';
-
-/** Every {@link RawOutputFormat}. */
-export const rawOutputFormats: readonly RawOutputFormat[] = Object.freeze([
-  'float32le',
-  'float32be',
-  'float64le',
-  'float64be',
-]);
-
-/** What `convert` writes: CSV, raw floats, an Arrow IPC file or stream, or Parquet. */
-export type OutputFormat = 'csv' | RawOutputFormat | 'arrow' | 'arrows' | 'parquet';
-
-/** Every {@link OutputFormat}. */
-export const outputFormats: readonly OutputFormat[] = Object.freeze([
-  'csv',
-  ...rawOutputFormats,
-  'arrow',
-  'arrows',
-  'parquet',
-]);
-
-/** Compression of Parquet column chunks. */
-export type ParquetCompression = 'none' | 'snappy' | 'zstd';
-
-/** Every {@link ParquetCompression}. */
-export const parquetCompressions: readonly ParquetCompression[] = Object.freeze(['none', 'snappy', 'zstd']);
+export {
+  outputFormats,
+  parquetCompressions,
+  rawOutputFormats,
+  type OutputFormat,
+  type ParquetCompression,
+  type RawOutputFormat,
+} from './formatLists.js';
 
 /**
  * The output format implied by a file name: `.arrow`/`.feather`/`.ipc` Arrow file, `.arrows` Arrow

@@ -32,8 +32,7 @@ export function streamSink(stream: CliStream, options: { readonly binary?: boole
   const binary = options.binary === true;
   return {
     write(chunk) {
-      const data =
-        typeof chunk === 'string' ? chunk : binary ? Buffer.from(chunk) : utf8.decode(chunk);
+      const data = typeof chunk === 'string' ? chunk : binary ? Buffer.from(chunk) : utf8.decode(chunk);
       const ok = (stream.write as (data: string | Uint8Array) => unknown)(data);
       if (ok !== false || typeof stream.once !== 'function') return Promise.resolve();
       return new Promise((resolve) => {

@@ -35,7 +35,9 @@ function parseError(message: string, file: string): BridgeworkError {
 }
 
 /** The first record of the file (from its first MiB) and the delimiter it implies. */
-async function firstRecord(file: string): Promise<{ record: CsvRecord; delimiter: string | undefined } | undefined> {
+async function firstRecord(
+  file: string,
+): Promise<{ record: CsvRecord; delimiter: string | undefined } | undefined> {
   const handle = await openInput(file);
   try {
     const bytes = new Uint8Array(HEAD_BYTES);
@@ -44,13 +46,18 @@ async function firstRecord(file: string): Promise<{ record: CsvRecord; delimiter
     if (bytesRead === bytes.length) text = text.slice(0, Math.max(0, text.lastIndexOf('\n') + 1));
     const firstLine = text.split('\n').find((l) => l.trim() !== '');
     if (firstLine === undefined) {
-      if (bytesRead === bytes.length) throw parseError(`${file}:1: the first line is longer than 1 MiB`, file);
+      if (bytesRead === bytes.length)
+        throw parseError(`${file}:1: the first line is longer than 1 MiB`, file);
       return undefined;
     }
     const delimiter = detectDelimiter(firstLine);
+    // Feed line by line until the first record is complete (it may span lines inside quotes).
     const reader = new CsvRecordReader(delimiter);
-    const records = [...reader.push(text), ...(bytesRead < bytes.length ? reader.end() : [])];
-    const record = records[0];
+    for (const line of text.split(/(?<=\n)/)) {
+      const record = reader.push(line)[0];
+      if (record !== undefined) return { record, delimiter };
+    }
+    const record = bytesRead < bytes.length ? reader.end()[0] : undefined;
     return record === undefined ? undefined : { record, delimiter };
   } catch (e) {
     if (e instanceof CsvSyntaxError) throw parseError(`${file}:${e.line}: ${e.message}`, file);
@@ -113,12 +120,18 @@ export async function openCsvCodes(file: string, options: CsvCodeOptions = {}): 
   const indexOf = (c: CsvColumn, what: string): number => {
     if (typeof c === 'number') {
       if (!Number.isInteger(c) || c < 1 || c > width) {
-        throw parseError(`${file}: there is no column ${c} (${what}); the file has ${width} column${plural}`, file);
+        throw parseError(
+          `${file}: there is no column ${c} (${what}); the file has ${width} column${plural}`,
+          file,
+        );
       }
       return c - 1;
     }
     if (header === undefined) {
-      throw parseError(`${file}: column '${c}' (${what}) is named, but the file has no header line; give column numbers`, file);
+      throw parseError(
+        `${file}: column '${c}' (${what}) is named, but the file has no header line; give column numbers`,
+        file,
+      );
     }
     const i = header.indexOf(c);
     if (i < 0) {
@@ -135,18 +148,23 @@ export async function openCsvCodes(file: string, options: CsvCodeOptions = {}): 
     options.columns === undefined
       ? fields.map((_, i) => i).filter((i) => i !== time && !(keepOption ?? []).includes(i))
       : options.columns.map((c) => indexOf(c, 'codes'));
-  const kept =
-    keepOption ?? fields.map((_, i) => i).filter((i) => i !== time && !selected.includes(i));
+  const kept = keepOption ?? fields.map((_, i) => i).filter((i) => i !== time && !selected.includes(i));
   const used = [...selected, ...kept, ...(time === undefined ? [] : [time])];
   const dup = used.find((c, k) => used.indexOf(c) !== k);
   if (dup !== undefined) {
-    throw new BridgeworkError('invalid-option', `column ${dup + 1} is selected for two uses (codes, time, kept)`, {
-      param: 'columns',
-      value: dup + 1,
-    });
+    throw new BridgeworkError(
+      'invalid-option',
+      `column ${dup + 1} is selected for two uses (codes, time, kept)`,
+      {
+        param: 'columns',
+        value: dup + 1,
+      },
+    );
   }
   if (selected.length === 0) {
-    throw new BridgeworkError('invalid-option', `${file}: no column is left to hold codes`, { param: 'columns' });
+    throw new BridgeworkError('invalid-option', `${file}: no column is left to hold codes`, {
+      param: 'columns',
+    });
   }
   const channels = selected.length;
   const blockFrames = checkBlock(channels, options.blockFrames);
@@ -211,7 +229,8 @@ export async function openCsvCodes(file: string, options: CsvCodeOptions = {}): 
           }
           stamps[filled] = v;
         }
-        for (let k = 0; k < kept.length; k++) (texts[k] as string[])[filled] = parts[kept[k] as number] as string;
+        for (let k = 0; k < kept.length; k++)
+          (texts[k] as string[])[filled] = parts[kept[k] as number] as string;
         filled++;
       };
       const block = (): RecordingBlock => ({

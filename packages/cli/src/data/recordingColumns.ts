@@ -28,5 +28,7 @@ export interface RecordingColumns {
 /** The time column's heading in CSV: `time (s)` for seconds, else the name with its ticks. */
 export function timeHeading(time: TimeColumn): string {
   if (time.type === 'seconds') return time.name;
-  return time.secondsPerTick === undefined ? `${time.name} (ticks)` : `${time.name} (ticks of ${time.secondsPerTick} s)`;
+  return time.secondsPerTick === undefined
+    ? `${time.name} (ticks)`
+    : `${time.name} (ticks of ${time.secondsPerTick} s)`;
 }

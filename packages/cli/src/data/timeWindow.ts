@@ -14,7 +14,10 @@ const units: Readonly<Record<string, number>> = { ms: 1e-3, s: 1, min: 60, h: 36
 
 function parseSeconds(text: string, option: string): number {
   const m = /^\s*(\d+(?:\.\d*)?|\.\d+)(?:e([+-]?\d+))?\s*(ms|s|min|h)?\s*$/.exec(text);
-  const value = m === null ? Number.NaN : Number(`${m[1]}${m[2] === undefined ? '' : `e${m[2]}`}`) * (units[m[3] ?? 's'] as number);
+  const value =
+    m === null
+      ? Number.NaN
+      : Number(`${m[1]}${m[2] === undefined ? '' : `e${m[2]}`}`) * (units[m[3] ?? 's'] as number);
   if (!Number.isFinite(value)) {
     throw new BridgeworkError(
       'invalid-option',
@@ -42,10 +45,14 @@ function parseSeconds(text: string, option: string): number {
 export function parseTimeWindow(text: string, option: string): TimeWindow {
   const parts = String(text).split('..');
   if (parts.length > 2) {
-    throw new BridgeworkError('invalid-option', `${option}: '${text}' is not a window; write 10s or 120s..130s`, {
-      param: option,
-      value: text,
-    });
+    throw new BridgeworkError(
+      'invalid-option',
+      `${option}: '${text}' is not a window; write 10s or 120s..130s`,
+      {
+        param: option,
+        value: text,
+      },
+    );
   }
   const [a, b] = parts as [string, string | undefined];
   const window =
@@ -143,7 +150,9 @@ export async function windowMeans(
     const s = stamp as number | bigint;
     origin ??= s;
     const perTick = time?.type === 'seconds' ? 1 : (time?.secondsPerTick as number);
-    return typeof s === 'bigint' ? Number(s - (origin as bigint)) * perTick : (s - (origin as number)) * perTick;
+    return typeof s === 'bigint'
+      ? Number(s - (origin as bigint)) * perTick
+      : (s - (origin as number)) * perTick;
   };
   outer: for await (const block of source.blocks()) {
     const codes: CodeLanes = block.codes;

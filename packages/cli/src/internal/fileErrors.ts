@@ -45,7 +45,9 @@ export function describeFsError(e: unknown): string {
     default: {
       const code = (e as NodeJS.ErrnoException).code;
       const message = e instanceof Error ? e.message : String(e);
-      return code === undefined ? message : `${message.replace(/^[A-Z]+: /, '').replace(/, \w+ '.*'$/, '')} (${code})`;
+      return code === undefined
+        ? message
+        : `${message.replace(/^[A-Z]+: /, '').replace(/, \w+ '.*'$/, '')} (${code})`;
     }
   }
 }
@@ -64,7 +66,8 @@ export async function describeOutputError(e: unknown, path: string): Promise<str
     const folder = dirname(resolve(path));
     try {
       const s = await stat(folder);
-      if (s.isDirectory()) return `the folder ${folder} does not allow new files (a kernel or virtual file system?)`;
+      if (s.isDirectory())
+        return `the folder ${folder} does not allow new files (a kernel or virtual file system?)`;
     } catch (f) {
       if ((f as NodeJS.ErrnoException).code === 'ENOTDIR') return describeFsError(f);
     }
@@ -80,9 +83,13 @@ export async function statInput(file: string): Promise<number> {
     if (s.isDirectory())
       throw new BridgeworkError('io-error', `cannot read ${file}: it is a folder`, { param: file });
     if (!s.isFile())
-      throw new BridgeworkError('io-error', `cannot read ${file}: not a regular file (a device, pipe or socket)`, {
-        param: file,
-      });
+      throw new BridgeworkError(
+        'io-error',
+        `cannot read ${file}: not a regular file (a device, pipe or socket)`,
+        {
+          param: file,
+        },
+      );
     if (s.size === 0 && (await holdsData(file))) {
       throw new BridgeworkError(
         'io-error',

@@ -4,8 +4,7 @@ import {
   type ParsedArgs,
   type PositionalSpec,
 } from '../../args/optionTable.js';
-import { outputFormats, parquetCompressions } from '../../data/outputFormats.js';
-import { sampleTypes, timeStampTypes } from '../../data/recordingLayout.js';
+import { outputFormats, parquetCompressions, sampleTypes, timeStampTypes } from '../../data/formatLists.js';
 import { channelFileArgument, forceOption } from '../sharedOptions.js';
 
 /** The positional arguments of `bridgework convert`. */
@@ -74,7 +73,8 @@ export const convertOptions = [
     min: 0,
     max: 1_048_576,
     default: 0,
-    description: 'Raw: bytes at the start of every frame, before the codes; skipped, except a time stamp in them.',
+    description:
+      'Raw: bytes at the start of every frame, before the codes; skipped, except a time stamp in them.',
   },
   {
     name: 'frame-trailer',
@@ -110,7 +110,8 @@ export const convertOptions = [
     placeholder: 'seconds',
     unit: 's',
     min: 0,
-    description: 'Raw: seconds per tick of the time stamp (1e-6 for a microsecond counter); needed for time windows.',
+    description:
+      'Raw: seconds per tick of the time stamp (1e-6 for a microsecond counter); needed for time windows.',
   },
   {
     name: 'sample-rate',
@@ -220,10 +221,11 @@ export type ConvertArgs = ParsedArgs<typeof convertOptions, typeof convertArgume
 /** `bridgework convert`: converter codes to engineering units. */
 export const convertCommand = defineCommand({
   name: 'convert',
-  summary: 'Convert recorded converter codes (CSV or raw) to engineering units as CSV, raw floats, Arrow or Parquet.',
+  summary:
+    'Convert recorded converter codes (CSV or raw) to engineering units as CSV, raw floats, Arrow or Parquet.',
   description:
-    'Reads converter codes from a CSV file (one column per channel, header optional, RFC 4180 quoting; time and other columns passed through) or a raw recording (16-, 24- or 32-bit integers or floats of either byte order, channels interleaved frame by frame, with optional file and frame headers and a per-frame time stamp) and writes the quantity of every sample: as CSV, raw float32/float64, an Apache Arrow IPC file or stream, or Apache Parquet, one column per channel with the time or frame column; the columnar formats carry the units, channel names, bridgework version and the channel file\'s SHA-256 in their metadata. The file is streamed in blocks, so files larger than memory work; a progress bar is shown on a terminal.\n\n' +
-    'Codes at or beyond the converter rails, or outside the range the map can invert, are never turned into plausible numbers: they are written as NaN (null in Arrow and Parquet), and a summary per channel is printed on standard error. Corrections from the data: --zero-window takes each channel\'s zero reading from a window of the recording; --temperature-from corrects strain channels block by block from a temperature channel. The output file is written atomically: an interrupted or failed run leaves no file behind.',
+    "Reads converter codes from a CSV file (one column per channel, header optional, RFC 4180 quoting; time and other columns passed through) or a raw recording (16-, 24- or 32-bit integers or floats of either byte order, channels interleaved frame by frame, with optional file and frame headers and a per-frame time stamp) and writes the quantity of every sample: as CSV, raw float32/float64, an Apache Arrow IPC file or stream, or Apache Parquet, one column per channel with the time or frame column; the columnar formats carry the units, channel names, bridgework version and the channel file's SHA-256 in their metadata. The file is streamed in blocks, so files larger than memory work; a progress bar is shown on a terminal.\n\n" +
+    "Codes at or beyond the converter rails, or outside the range the map can invert, are never turned into plausible numbers: they are written as NaN (null in Arrow and Parquet), and a summary per channel is printed on standard error. Corrections from the data: --zero-window takes each channel's zero reading from a window of the recording; --temperature-from corrects strain channels block by block from a temperature channel. The output file is written atomically: an interrupted or failed run leaves no file behind.",
   positionals: convertArguments,
   options: convertOptions,
   examples: [
@@ -234,7 +236,8 @@ export const convertCommand = defineCommand({
     {
       command:
         'bridgework convert rig.yaml rig.dat --from int24be --frame-header 8 --time-stamp uint64le --tick 1e-6 -o rig.parquet',
-      description: 'A logger layout: 8-byte frame headers holding a microsecond stamp, 24-bit big-endian codes.',
+      description:
+        'A logger layout: 8-byte frame headers holding a microsecond stamp, 24-bit big-endian codes.',
     },
     {
       command: 'bridgework convert hook.yaml log.csv --columns hook_code --channels hook -o hook.csv',

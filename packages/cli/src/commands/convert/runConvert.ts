@@ -61,7 +61,10 @@ function positionsOf(
     }
     const why = allowed(channels[i] as LoadedChannel);
     if (why !== undefined) {
-      throw new BridgeworkError('invalid-option', `${option}: '${name}' ${why}`, { param: option, value: name });
+      throw new BridgeworkError('invalid-option', `${option}: '${name}' ${why}`, {
+        param: option,
+        value: name,
+      });
     }
     return i;
   });
@@ -94,10 +97,14 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
   const channelFile = args.positionals.channelFile;
   const output = options.out === undefined || options.out === '-' ? undefined : options.out;
   if (options.sampleRate !== undefined && !(options.sampleRate > 0)) {
-    throw new BridgeworkError('invalid-option', `--sample-rate must be above 0 Hz; got ${options.sampleRate}`, {
-      param: '--sample-rate',
-      value: options.sampleRate,
-    });
+    throw new BridgeworkError(
+      'invalid-option',
+      `--sample-rate must be above 0 Hz; got ${options.sampleRate}`,
+      {
+        param: '--sample-rate',
+        value: options.sampleRate,
+      },
+    );
   }
   if (output !== undefined) await refuseOutputOverInputs(output, [input, channelFile]);
   const names = options.channels === undefined ? undefined : parseChannelList(options.channels);
@@ -126,7 +133,10 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
       : { timeColumn: /^\d+$/.test(options.timeColumn) ? Number(options.timeColumn) : options.timeColumn }),
     ...(options.keepColumns === undefined
       ? {}
-      : { keep: options.keepColumns === 'none' ? 'none' : parseColumnList(options.keepColumns, '--keep-columns') }),
+      : {
+          keep:
+            options.keepColumns === 'none' ? 'none' : parseColumnList(options.keepColumns, '--keep-columns'),
+        }),
   });
   if (source.channels !== all.length) {
     throw new BridgeworkError(
@@ -146,7 +156,9 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
       options.temperatureCorrects === undefined
         ? all.flatMap((c, i) => (c.spec.sensor.kind === 'strain-gauge' ? [i] : []))
         : positionsOf(options.temperatureCorrects, '--temperature-corrects', all, (c) =>
-            isTemperature(c) ? 'is a temperature channel; its own reading needs no temperature correction' : undefined,
+            isTemperature(c)
+              ? 'is a temperature channel; its own reading needs no temperature correction'
+              : undefined,
           );
     if (corrects.length === 0) {
       throw new BridgeworkError(
@@ -157,21 +169,29 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
     }
     temperature = { from, corrects };
   } else if (options.temperatureCorrects !== undefined) {
-    throw new BridgeworkError('missing-option', '--temperature-corrects needs --temperature-from (the temperature channel)', {
-      param: '--temperature-from',
-    });
+    throw new BridgeworkError(
+      'missing-option',
+      '--temperature-corrects needs --temperature-from (the temperature channel)',
+      {
+        param: '--temperature-from',
+      },
+    );
   }
 
   // Zero readings from a window of the data.
   let channels: Channel[] = all.map((c) => c.channel);
-  let zero: { window: string; means: WindowMeans; zeroed: number[]; temperatureCelsius: number | undefined } | undefined;
+  let zero:
+    | { window: string; means: WindowMeans; zeroed: number[]; temperatureCelsius: number | undefined }
+    | undefined;
   if (options.zeroWindow !== undefined) {
     const window = parseTimeWindow(options.zeroWindow, '--zero-window');
     const zeroed =
       options.zeroChannels === undefined
         ? all.flatMap((c, i) => (isTemperature(c) ? [] : [i]))
         : positionsOf(options.zeroChannels, '--zero-channels', all, (c) =>
-            isTemperature(c) ? 'is a temperature channel: its reading is absolute and has no zero' : undefined,
+            isTemperature(c)
+              ? 'is a temperature channel: its reading is absolute and has no zero'
+              : undefined,
           );
     if (zeroed.length === 0) {
       throw new BridgeworkError('invalid-option', '--zero-window: the recording has no channel to re-zero', {
@@ -182,7 +202,8 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
       source,
       window,
       options.sampleRate === undefined ? {} : { sampleRateHertz: options.sampleRate },
-      (j, code) => code > (channels[j] as Channel).validCodes.min && code < (channels[j] as Channel).validCodes.max,
+      (j, code) =>
+        code > (channels[j] as Channel).validCodes.min && code < (channels[j] as Channel).validCodes.max,
     );
     for (const j of [...zeroed, ...(temperature === undefined ? [] : [temperature.from])]) {
       if ((means.validCodes[j] as number) === 0) {
@@ -194,7 +215,11 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
       }
     }
     const zeroTemperature =
-      temperature === undefined ? undefined : (channels[temperature.from] as Channel).quantityFromCode(means.meanCodes[temperature.from] as number);
+      temperature === undefined
+        ? undefined
+        : (channels[temperature.from] as Channel).quantityFromCode(
+            means.meanCodes[temperature.from] as number,
+          );
     channels = channels.map((c, j) => {
       if (!zeroed.includes(j)) return c;
       const spec = (all[j] as LoadedChannel).spec;
@@ -229,20 +254,26 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
     'bridgework.channels': JSON.stringify(channelColumns),
     'bridgework.flagged':
       'samples whose code is at or beyond the converter rails, or outside what the sensor can produce, are null (NaN in CSV and raw outputs)',
-    ...(options.sampleRate === undefined ? {} : { 'bridgework.sample-rate-hertz': String(options.sampleRate) }),
+    ...(options.sampleRate === undefined
+      ? {}
+      : { 'bridgework.sample-rate-hertz': String(options.sampleRate) }),
     ...(zero === undefined
       ? {}
       : {
           'bridgework.zero-window': zero.window,
           'bridgework.zero-codes': JSON.stringify(
-            Object.fromEntries(zero.zeroed.map((j) => [(all[j] as LoadedChannel).name, zero?.means.meanCodes[j]])),
+            Object.fromEntries(
+              zero.zeroed.map((j) => [(all[j] as LoadedChannel).name, zero?.means.meanCodes[j]]),
+            ),
           ),
         }),
     ...(temperature === undefined
       ? {}
       : {
           'bridgework.temperature-from': (all[temperature.from] as LoadedChannel).name,
-          'bridgework.temperature-corrects': temperature.corrects.map((j) => (all[j] as LoadedChannel).name).join(','),
+          'bridgework.temperature-corrects': temperature.corrects
+            .map((j) => (all[j] as LoadedChannel).name)
+            .join(','),
         }),
   };
   const columns: RecordingColumns = {
@@ -286,7 +317,9 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
   if (zero !== undefined) {
     summary += `zero readings from frames ${zero.means.firstFrame} to ${zero.means.lastFrame}: ${zero.zeroed
       .map((j) => `${(all[j] as LoadedChannel).name} ${formatCode(zero?.means.meanCodes[j] as number)}`)
-      .join(', ')}${zero.temperatureCelsius === undefined ? '' : ` at ${zero.temperatureCelsius.toFixed(2)} °C`}\n`;
+      .join(
+        ', ',
+      )}${zero.temperatureCelsius === undefined ? '' : ` at ${zero.temperatureCelsius.toFixed(2)} °C`}\n`;
   }
   if (temperature !== undefined && result.temperatureGaps.frames > 0) {
     const g = result.temperatureGaps;
