@@ -88,8 +88,10 @@ export async function createParquetWriter(
     },
     { highWaterMark: 0 },
   );
-  const output = await pw.transformParquetStream(input, properties);
+  // The crate reads the first batch (for the schema) before it hands out its byte stream, so the
+  // stream is awaited by the consumer, not here (the first batch comes with the first block).
   const done = (async () => {
+    const output = await pw.transformParquetStream(input, properties);
     const reader = (output as ReadableStream<Uint8Array>).getReader();
     for (;;) {
       const { value, done: end } = await reader.read();
