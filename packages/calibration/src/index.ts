@@ -8,12 +8,11 @@ export {
   type LoadUnit,
 } from './createCertificateScale.js';
 export {
-  createFitter,
-  type Fitter,
+  fitPolynomial,
   type InverseMethod,
   type PolynomialFit,
   type PolynomialFitOptions,
-} from './createFitter.js';
+} from './fitPolynomial.js';
 export {
   createLoadCellClass,
   loadCellAccuracyClasses,
@@ -46,7 +45,21 @@ export type {
   ShuntRatios,
   StrainFromShuntOptions,
 } from './shuntOptions.js';
+export {
+  nearestPreferredValue,
+  preferredSeries,
+  preferredValues,
+  type NearestPreferredValueOptions,
+  type PreferredRounding,
+  type PreferredSeries,
+  type PreferredValue,
+} from './preferredValues.js';
 export { shuntOhmsForStrain, shuntRatios, strainFromShunt } from './shuntStrain.js';
+export {
+  spanCorrectionFromShunt,
+  type SpanCorrection,
+  type SpanCorrectionOptions,
+} from './spanCorrectionFromShunt.js';
 export {
   ratioChangeFromShunt,
   shuntEquivalentLoad,
