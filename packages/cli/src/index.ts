@@ -50,6 +50,8 @@ export {
 export {
   checkRawLayout,
   sampleTypes,
+  type CheckedRawLayout,
+  type CheckedTimeStamp,
   timeStampTypes,
   type RawLayout,
   type SampleType,
@@ -75,6 +77,7 @@ export {
   type ConvertedBlock,
   type ConvertingChannel,
   type ConvertRecordingOptions,
+  type LaneConversion,
   type RecordingWriter,
   type TemperatureGaps,
 } from './data/convertRecording.js';

@@ -3,6 +3,15 @@ import { createClipCounter, type ClipSummary } from './clipCounter.js';
 import type { CodeSource, RecordingBlock } from './codeSource.js';
 import type { CodeLanes, TimeStamps } from './decodeFrames.js';
 
+/** What a lane's conversion reports. */
+export interface LaneConversion {
+  /** How the conversion went. */
+  readonly status: {
+    /** Samples written as NaN (codes at or beyond the rails, or out of the sensor's range). */
+    readonly rejected: number;
+  };
+}
+
 /**
  * What the conversion needs of a channel: its name and its batch conversion. The channel
  * package's `Channel` has this shape; its `convert` writes NaN for every code it cannot convert and
@@ -23,7 +32,7 @@ export interface ConvertingChannel {
     codes: CodeLanes,
     out: Float64Array,
     options: { readonly temperatureCelsius?: number; readonly maxLocations?: number },
-  ): { readonly status: { readonly rejected: number } };
+  ): LaneConversion;
 }
 
 /** A block of converted values handed to a {@link RecordingWriter}. */

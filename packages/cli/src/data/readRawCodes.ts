@@ -17,7 +17,7 @@ export interface RawCodeOptions extends RawLayout {
  * @remarks
  * After the file header, the file must hold a whole number of frames: this is checked here, before
  * any output is written, and again while reading in case the file changed. Each block is read into
- * one reused byte buffer and decoded into one lane per channel (see {@link decodeFrames}); a time
+ * one reused byte buffer and decoded into one lane per channel (one loop per stored type); a time
  * stamp in the frame header is decoded into the block's `timeStamps`. Memory: the byte buffer
  * (`blockFrames × frameBytes`), the lanes (4 or 8 bytes per code) and the stamps, allocated once.
  *

@@ -46,15 +46,32 @@ export interface RawLayout {
   readonly timeStamp?: TimeStampLayout;
 }
 
+/** A time stamp of a {@link CheckedRawLayout}. */
+export interface CheckedTimeStamp {
+  /** How it is stored. */
+  readonly type: TimeStampType;
+  /** Its offset from the start of the frame, in bytes. */
+  readonly offsetBytes: number;
+  /** Its size in bytes. */
+  readonly bytes: number;
+  /** Seconds per tick, when stated. */
+  readonly secondsPerTick?: number;
+}
+
 /** A {@link RawLayout} with every default applied and the byte offsets worked out. */
 export interface CheckedRawLayout {
+  /** How each code is stored. */
   readonly sample: SampleType;
+  /** Codes per frame. */
   readonly channels: number;
+  /** Bytes before the first frame. */
   readonly fileHeaderBytes: number;
+  /** Bytes at the start of each frame. */
   readonly frameHeaderBytes: number;
+  /** Bytes at the end of each frame. */
   readonly frameTrailerBytes: number;
-  readonly timeStamp: Required<Omit<TimeStampLayout, 'secondsPerTick'>> &
-    Pick<TimeStampLayout, 'secondsPerTick'> & { readonly bytes: number };
+  /** The time stamp, or `undefined`. */
+  readonly timeStamp: CheckedTimeStamp | undefined;
   /** Bytes of one code. */
   readonly sampleBytes: number;
   /** Bytes of one frame. */
@@ -77,9 +94,7 @@ const MAX_HEADER_BYTES = 1 << 20;
  * checkRawLayout({ sample: 'int24be', channels: 8, frameHeaderBytes: 8, timeStamp: { type: 'uint64le' } }).frameBytes; // 32
  * ```
  */
-export function checkRawLayout(layout: RawLayout): Omit<CheckedRawLayout, 'timeStamp'> & {
-  readonly timeStamp: CheckedRawLayout['timeStamp'] | undefined;
-} {
+export function checkRawLayout(layout: RawLayout): CheckedRawLayout {
   const o = checkOptions('layout', layout, {
     known: ['sample', 'channels', 'fileHeaderBytes', 'frameHeaderBytes', 'frameTrailerBytes', 'timeStamp'],
     required: ['sample', 'channels'],
@@ -91,7 +106,7 @@ export function checkRawLayout(layout: RawLayout): Omit<CheckedRawLayout, 'timeS
   const fileHeaderBytes = size('fileHeaderBytes');
   const frameHeaderBytes = size('frameHeaderBytes');
   const frameTrailerBytes = size('frameTrailerBytes');
-  let timeStamp: CheckedRawLayout['timeStamp'] | undefined;
+  let timeStamp: CheckedTimeStamp | undefined;
   if (o['timeStamp'] !== undefined) {
     const t = checkOptions('layout.timeStamp', o['timeStamp'], {
       known: ['type', 'offsetBytes', 'secondsPerTick'],
