@@ -15,7 +15,7 @@ import { fileURLToPath } from 'node:url';
 import { DuckDBInstance } from '@duckdb/node-api';
 import type { Channel } from '@bridgework/channel';
 import { sqlExpression, type SqlDialect, type SqlMap } from '@bridgework/firmware';
-import { loadChannels } from 'bridgework';
+import { loadChannels } from '../packages/cli/src/channels/loadChannels.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { channelInternals } from '../packages/channel/src/createChannel.js';
 import { postgresUnavailable, startPostgres, type TestPostgres } from './support/postgres.js';
