@@ -21,7 +21,7 @@ import { channelInternals } from '../packages/channel/src/createChannel.js';
 import { postgresUnavailable, startPostgres, type TestPostgres } from './support/postgres.js';
 
 const N = 1_000_000;
-const example = fileURLToPath(new URL('../examples/footbridge-monitoring.yaml', import.meta.url));
+const example = fileURLToPath(new URL('../packages/cli/demo/footbridge-monitoring.yaml', import.meta.url));
 const hopperSpec = {
   // The channel of examples/hopper-scale-channel.ts (a load cell read as mass), restated.
   name: 'hopper cell B',
