@@ -127,188 +127,205 @@ export function convertLinearFractional(
   outStride: number,
 ): void {
   if (!(count > 0)) return;
-  const { a, b, c, d, lo, hi } = k;
-  if (integerTestApplies(codes, lo, hi)) {
-    const lowI = Math.floor(lo) + 1;
-    const highI = Math.ceil(hi) - 1;
-    for (let s = 0; s < count; s += BLOCK) {
-      const n = s + BLOCK < count ? BLOCK : count - s;
-      const i = start + s * stride;
-      const o = outStart + s * outStride;
-      const flags =
-        stride === 1 && outStride === 1
-          ? mobiusInt32(codes, out, a, b, c, d, lowI, highI, i, o, n)
-          : mobiusInt32Strided(codes, out, a, b, c, d, lowI, highI, i, stride, o, outStride, n);
-      if (flags < 0) revisit(codes, out, k, tally, i, stride, o, outStride, n);
-    }
+  if (integerTestApplies(codes, k.lo, k.hi)) {
+    if (stride === 1 && outStride === 1) mobiusInt32(codes, out, k, tally, start, outStart, count);
+    else mobiusInt32Lane(codes, out, k, tally, start, stride, outStart, outStride, count);
     return;
   }
   if (buffersOverlap(codes, out)) {
-    if (!sameElements(codes, out, start, stride, outStart, outStride))
+    if (!sameElements(codes, out, start, stride, outStart, outStride)) {
       throw new BridgeworkError('invalid-shape', '`out` overlaps `codes` without being the same elements', {
         param: 'out',
       });
-    for (let s = 0; s < count; s += BLOCK) {
-      const n = s + BLOCK < count ? BLOCK : count - s;
-      const i = start + s * stride;
-      // Test first, then write: a rejected code must still be read as itself.
-      if (allInside(codes, lo, hi, i, stride, n))
-        mobiusFloat(codes, out, a, b, c, d, i, stride, i, stride, n);
-      else convertBlockOneByOne(codes, out, k, tally, i, stride, n);
     }
+    mobiusInPlace(codes as Float64Array, k, tally, start, stride, count);
     return;
   }
-  for (let s = 0; s < count; s += BLOCK) {
-    const n = s + BLOCK < count ? BLOCK : count - s;
-    const i = start + s * stride;
-    const o = outStart + s * outStride;
-    mobiusFloat(codes, out, a, b, c, d, i, stride, o, outStride, n);
-    if (!allInside(codes, lo, hi, i, stride, n)) revisit(codes, out, k, tally, i, stride, o, outStride, n);
-  }
+  mobiusFloat(codes, out, k, tally, start, stride, outStart, outStride, count);
 }
 
 /**
- * `n` contiguous integer codes from `i` into `out` from `o`; returns the or-ed range flags (negative
- * when a code lies outside [lowI, highI]).
+ * `count` contiguous integer codes from `start` into `out` from `outStart`. The coefficients are
+ * read from `k` inside (one call per conversion: doubles passed per block would be boxed).
  */
 function mobiusInt32(
   codes: Int32Array,
   out: Float64Array,
-  a: number,
-  b: number,
-  c: number,
-  d: number,
-  lowI: number,
-  highI: number,
-  i: number,
-  o: number,
-  n: number,
-): number {
-  let flags = 0;
-  const end = i + n;
-  const end8 = end - 7;
-  for (; i < end8; i += 8, o += 8) {
-    const x0 = codes[i] as number;
-    const x1 = codes[i + 1] as number;
-    const x2 = codes[i + 2] as number;
-    const x3 = codes[i + 3] as number;
-    const x4 = codes[i + 4] as number;
-    const x5 = codes[i + 5] as number;
-    const x6 = codes[i + 6] as number;
-    const x7 = codes[i + 7] as number;
-    out[o] = (a * x0 + b) / (c * x0 + d);
-    out[o + 1] = (a * x1 + b) / (c * x1 + d);
-    out[o + 2] = (a * x2 + b) / (c * x2 + d);
-    out[o + 3] = (a * x3 + b) / (c * x3 + d);
-    out[o + 4] = (a * x4 + b) / (c * x4 + d);
-    out[o + 5] = (a * x5 + b) / (c * x5 + d);
-    out[o + 6] = (a * x6 + b) / (c * x6 + d);
-    out[o + 7] = (a * x7 + b) / (c * x7 + d);
-    flags |=
-      (x0 - lowI) |
-      (highI - x0) |
-      (x1 - lowI) |
-      (highI - x1) |
-      (x2 - lowI) |
-      (highI - x2) |
-      (x3 - lowI) |
-      (highI - x3) |
-      (x4 - lowI) |
-      (highI - x4) |
-      (x5 - lowI) |
-      (highI - x5) |
-      (x6 - lowI) |
-      (highI - x6) |
-      (x7 - lowI) |
-      (highI - x7);
+  k: LinearFractionalKernel,
+  tally: RejectTally,
+  start: number,
+  outStart: number,
+  count: number,
+): void {
+  const { a, b, c, d } = k;
+  const lowI = Math.floor(k.lo) + 1;
+  const highI = Math.ceil(k.hi) - 1;
+  const end = start + count;
+  let i = start;
+  let o = outStart;
+  while (i < end) {
+    const blockStart = i;
+    const blockEnd = end - i > BLOCK ? i + BLOCK : end;
+    const end8 = blockEnd - 7;
+    let flags = 0;
+    for (; i < end8; i += 8, o += 8) {
+      const x0 = codes[i] as number;
+      const x1 = codes[i + 1] as number;
+      const x2 = codes[i + 2] as number;
+      const x3 = codes[i + 3] as number;
+      const x4 = codes[i + 4] as number;
+      const x5 = codes[i + 5] as number;
+      const x6 = codes[i + 6] as number;
+      const x7 = codes[i + 7] as number;
+      out[o] = (a * x0 + b) / (c * x0 + d);
+      out[o + 1] = (a * x1 + b) / (c * x1 + d);
+      out[o + 2] = (a * x2 + b) / (c * x2 + d);
+      out[o + 3] = (a * x3 + b) / (c * x3 + d);
+      out[o + 4] = (a * x4 + b) / (c * x4 + d);
+      out[o + 5] = (a * x5 + b) / (c * x5 + d);
+      out[o + 6] = (a * x6 + b) / (c * x6 + d);
+      out[o + 7] = (a * x7 + b) / (c * x7 + d);
+      flags |=
+        (x0 - lowI) |
+        (highI - x0) |
+        (x1 - lowI) |
+        (highI - x1) |
+        (x2 - lowI) |
+        (highI - x2) |
+        (x3 - lowI) |
+        (highI - x3) |
+        (x4 - lowI) |
+        (highI - x4) |
+        (x5 - lowI) |
+        (highI - x5) |
+        (x6 - lowI) |
+        (highI - x6) |
+        (x7 - lowI) |
+        (highI - x7);
+    }
+    for (; i < blockEnd; i++, o++) {
+      const x = codes[i] as number;
+      out[o] = (a * x + b) / (c * x + d);
+      flags |= (x - lowI) | (highI - x);
+    }
+    if (flags < 0) revisit(codes, out, k, tally, blockStart, 1, o - (i - blockStart), 1, i - blockStart);
   }
-  for (; i < end; i++, o++) {
-    const x = codes[i] as number;
-    out[o] = (a * x + b) / (c * x + d);
-    flags |= (x - lowI) | (highI - x);
-  }
-  return flags;
 }
 
-/** As {@link mobiusInt32} with strides (one lane of an interleaved buffer). */
-function mobiusInt32Strided(
+/** As {@link mobiusInt32} with strides (one lane of an interleaved buffer), four ways unrolled. */
+function mobiusInt32Lane(
   codes: Int32Array,
   out: Float64Array,
-  a: number,
-  b: number,
-  c: number,
-  d: number,
-  lowI: number,
-  highI: number,
-  i: number,
+  k: LinearFractionalKernel,
+  tally: RejectTally,
+  start: number,
   stride: number,
-  o: number,
+  outStart: number,
   outStride: number,
-  n: number,
-): number {
-  let flags = 0;
+  count: number,
+): void {
+  const { a, b, c, d } = k;
+  const lowI = Math.floor(k.lo) + 1;
+  const highI = Math.ceil(k.hi) - 1;
   const i2 = 2 * stride;
   const i3 = 3 * stride;
   const i4 = 4 * stride;
   const o2 = 2 * outStride;
   const o3 = 3 * outStride;
   const o4 = 4 * outStride;
-  let k = 0;
-  for (; k + 4 <= n; k += 4, i += i4, o += o4) {
-    const x0 = codes[i] as number;
-    const x1 = codes[i + stride] as number;
-    const x2 = codes[i + i2] as number;
-    const x3 = codes[i + i3] as number;
-    out[o] = (a * x0 + b) / (c * x0 + d);
-    out[o + outStride] = (a * x1 + b) / (c * x1 + d);
-    out[o + o2] = (a * x2 + b) / (c * x2 + d);
-    out[o + o3] = (a * x3 + b) / (c * x3 + d);
-    flags |=
-      (x0 - lowI) |
-      (highI - x0) |
-      (x1 - lowI) |
-      (highI - x1) |
-      (x2 - lowI) |
-      (highI - x2) |
-      (x3 - lowI) |
-      (highI - x3);
+  for (let s = 0; s < count; s += BLOCK) {
+    const n = count - s > BLOCK ? BLOCK : count - s;
+    const blockI = start + s * stride;
+    const blockO = outStart + s * outStride;
+    let i = blockI;
+    let o = blockO;
+    let flags = 0;
+    let m = 0;
+    for (; m + 4 <= n; m += 4, i += i4, o += o4) {
+      const x0 = codes[i] as number;
+      const x1 = codes[i + stride] as number;
+      const x2 = codes[i + i2] as number;
+      const x3 = codes[i + i3] as number;
+      out[o] = (a * x0 + b) / (c * x0 + d);
+      out[o + outStride] = (a * x1 + b) / (c * x1 + d);
+      out[o + o2] = (a * x2 + b) / (c * x2 + d);
+      out[o + o3] = (a * x3 + b) / (c * x3 + d);
+      flags |=
+        (x0 - lowI) |
+        (highI - x0) |
+        (x1 - lowI) |
+        (highI - x1) |
+        (x2 - lowI) |
+        (highI - x2) |
+        (x3 - lowI) |
+        (highI - x3);
+    }
+    for (; m < n; m++, i += stride, o += outStride) {
+      const x = codes[i] as number;
+      out[o] = (a * x + b) / (c * x + d);
+      flags |= (x - lowI) | (highI - x);
+    }
+    if (flags < 0) revisit(codes, out, k, tally, blockI, stride, blockO, outStride, n);
   }
-  for (; k < n; k++, i += stride, o += outStride) {
-    const x = codes[i] as number;
-    out[o] = (a * x + b) / (c * x + d);
-    flags |= (x - lowI) | (highI - x);
-  }
-  return flags;
 }
 
-/** Codes of any value (fractional, beyond ±2^30): the map only; the range is tested apart. */
+/** Codes of any value (fractional, beyond ±2^30), into separate memory: map, then the range test per block. */
 function mobiusFloat(
   codes: Codes,
   out: Float64Array,
-  a: number,
-  b: number,
-  c: number,
-  d: number,
-  i: number,
+  k: LinearFractionalKernel,
+  tally: RejectTally,
+  start: number,
   stride: number,
-  o: number,
+  outStart: number,
   outStride: number,
-  n: number,
+  count: number,
 ): void {
-  for (let k = 0; k < n; k++, i += stride, o += outStride) {
-    const x = codes[i] as number;
-    out[o] = (a * x + b) / (c * x + d);
+  const { a, b, c, d, lo, hi } = k;
+  for (let s = 0; s < count; s += BLOCK) {
+    const n = count - s > BLOCK ? BLOCK : count - s;
+    const blockI = start + s * stride;
+    const blockO = outStart + s * outStride;
+    let inside = true;
+    for (let m = 0, i = blockI, o = blockO; m < n; m++, i += stride, o += outStride) {
+      const x = codes[i] as number;
+      out[o] = (a * x + b) / (c * x + d);
+      inside = inside && x > lo && x < hi;
+    }
+    if (!inside) revisit(codes, out, k, tally, blockI, stride, blockO, outStride, n);
   }
 }
 
-/** Whether every one of `n` codes from `i` lies strictly inside (lo, hi) (NaN does not). */
-function allInside(codes: Codes, lo: number, hi: number, i: number, stride: number, n: number): boolean {
-  let inside = true;
-  for (let k = 0; k < n; k++, i += stride) {
-    const x = codes[i] as number;
-    inside = inside && x > lo && x < hi;
+/**
+ * A Float64Array converted in place: each block is range-tested before any of it is written (a
+ * rejected code must still be read as itself), then mapped, or taken sample by sample.
+ */
+function mobiusInPlace(
+  codes: Float64Array,
+  k: LinearFractionalKernel,
+  tally: RejectTally,
+  start: number,
+  stride: number,
+  count: number,
+): void {
+  const { a, b, c, d, lo, hi } = k;
+  for (let s = 0; s < count; s += BLOCK) {
+    const n = count - s > BLOCK ? BLOCK : count - s;
+    const blockI = start + s * stride;
+    let inside = true;
+    for (let m = 0, i = blockI; m < n; m++, i += stride) {
+      const x = codes[i] as number;
+      inside = inside && x > lo && x < hi;
+    }
+    for (let m = 0, i = blockI; m < n; m++, i += stride) {
+      const x = codes[i] as number;
+      if (inside || (x > lo && x < hi)) codes[i] = (a * x + b) / (c * x + d);
+      else {
+        codes[i] = Number.NaN;
+        tally.reject(x, i);
+      }
+    }
   }
-  return inside;
 }
 
 /** Marks the rejected samples of one block as NaN and records them. */
@@ -328,27 +345,6 @@ function revisit(
     if (!(x > k.lo && x < k.hi)) {
       out[o] = Number.NaN;
       tally.reject(x, o);
-    }
-  }
-}
-
-/** One block converted in place sample by sample: each code is tested before its slot is written. */
-function convertBlockOneByOne(
-  codes: Codes,
-  out: Float64Array,
-  k: LinearFractionalKernel,
-  tally: RejectTally,
-  i: number,
-  stride: number,
-  n: number,
-): void {
-  const { a, b, c, d, lo, hi } = k;
-  for (let m = 0; m < n; m++, i += stride) {
-    const x = codes[i] as number;
-    if (x > lo && x < hi) out[i] = (a * x + b) / (c * x + d);
-    else {
-      out[i] = Number.NaN;
-      tally.reject(x, i);
     }
   }
 }
@@ -431,22 +427,8 @@ export function convertInterleavedLinearFractional(
       else if (g === 4) flags = mobiusGroup4(ints, out, kernels, bounds, j, start, n, count);
       else if (g === 2) flags = mobiusGroup2(ints, out, kernels, bounds, j, start, n, count);
       else {
-        const k = kernels[j]!;
-        flags = mobiusInt32Strided(
-          ints,
-          out,
-          k.a,
-          k.b,
-          k.c,
-          k.d,
-          bounds[2 * j]!,
-          bounds[2 * j + 1]!,
-          start,
-          n,
-          start,
-          n,
-          count,
-        );
+        mobiusInt32Lane(ints, out, kernels[j]!, tallies[j]!, start, n, start, n, count);
+        flags = 0;
       }
       if (flags < 0) {
         for (let m = 0; m < g; m++)
