@@ -7,7 +7,12 @@
  * ratio to the baseline is taken per round, and every output is folded into a printed sink.
  */
 import { compile } from 'mathjs';
-import { createChannel, createInterleavedConverter, type Channel } from '@bridgework/channel';
+import {
+  createChannel,
+  createInterleavedConverter,
+  type Channel,
+  type ChannelSpec,
+} from '@bridgework/channel';
 import { compare, report, sinkValue } from './harness.js';
 
 const N = 10_000_000;
@@ -25,8 +30,8 @@ const spec = {
   adc: { bits: 24, referenceVolts: 5, ratiometric: true },
   zero: { code: 1234 },
   environment: { temperatureCelsius: 12, zeroTemperatureCelsius: 18 },
-  output: { quantity: 'microstrain' },
-} as const;
+  output: { quantity: 'strain', unit: 'µε' },
+} as const satisfies ChannelSpec;
 const channel: Channel = createChannel(spec);
 
 function codes(seed: number, n: number): Int32Array {

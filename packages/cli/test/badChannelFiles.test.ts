@@ -47,13 +47,13 @@ describe('bad channel files', () => {
   it('a quantity in the wrong unit', async () => {
     const path = edited(
       'unit.yaml',
-      'gaugeOhms: 350 ohm\n    bridge:\n      arrangement: full-poisson',
-      'gaugeOhms: 350 m\n    bridge:\n      arrangement: full-poisson',
+      'gaugeOhms: 350 Ω\n      gaugeFactorToleranceFraction: 0.5 %',
+      'gaugeOhms: 350 m\n      gaugeFactorToleranceFraction: 0.5 %',
     );
     const r = await report(path);
     expect(r.code).toBe(exitCodes.badInput);
     expect(r.stderr).toMatch(
-      /: channels\.hanger-h3\.sensor\.gaugeOhms: must be a quantity in ohm: '350 m' is a length; expected a resistance, such as '350 ohm'\n$/,
+      /: channels\.hanger-h3\.sensor\.gaugeOhms: '350 m' is a length; expected a resistance, such as '350 Ω'\n$/,
     );
   });
 
@@ -100,22 +100,22 @@ describe('bad channel files', () => {
   it('a negative resistance, with or without a unit', async () => {
     const path = file(
       'negative.yaml',
-      example
-        .replace('r0Ohms: 1000 ohm', 'r0Ohms: -1000 ohm')
-        .replace('gaugeOhms: 350 ohm', 'gaugeOhms: -350'),
+      example.replace('r0Ohms: 1000 Ω', 'r0Ohms: -1000 ohm').replace('gaugeOhms: 350 Ω', 'gaugeOhms: -350'),
     );
     const r = await report(path);
     expect(r.code).toBe(exitCodes.badInput);
     expect(r.stderr).toMatch(/has 2 problems:\n/);
-    expect(r.stderr).toMatch(/: channels\.hanger-h3\.sensor\.gaugeOhms: must be > 0; got -350\n/);
-    expect(r.stderr).toMatch(/: channels\.deck-temp\.sensor\.r0Ohms: must be > 0; got -1000\n/);
+    expect(r.stderr).toMatch(/: channels\.hanger-h3\.sensor\.gaugeOhms: must be > 0; got -350 Ω\n/);
+    expect(r.stderr).toMatch(/: channels\.deck-temp\.sensor\.r0Ohms: must be > 0; got -1000 Ω\n/);
   });
 
   it('an expression is never evaluated', async () => {
     const path = edited('expression.yaml', 'volts: 5 V, remoteSense', "volts: '2*2.5 V', remoteSense");
     const r = await report(path);
     expect(r.code).toBe(exitCodes.badInput);
-    expect(r.stderr).toMatch(/: channels\.hanger-h3\.excitation\.volts: must be a quantity in V: .+\n$/);
+    expect(r.stderr).toMatch(
+      /: channels\.hanger-h3\.excitation\.volts: '2\*2\.5 V' is not a quantity: write a number and a unit, such as '5 V' \(no expressions\)\n$/,
+    );
     expect(r.stdout).toBe('');
   });
 
@@ -149,14 +149,14 @@ describe('bad channel files', () => {
     ]);
   });
 
-  it('a span the converter cannot reach, found when the budget is made', async () => {
+  it('a span the converter cannot reach, found when the file is validated, with the limit and a way out', async () => {
     const path = edited('span.yaml', 'range: [-300, 1200]', 'range: [-300, 90000]');
     const r = await report(path);
     expect(r.code).toBe(exitCodes.badInput);
     const at = position(readFileSync(path, 'utf8'), 'range: [-300, 90000]');
     expect(r.stderr).toMatch(
       new RegExp(
-        `^bridgework report: .+:${at}: channels\\.gusset-g2\\.output\\.range: the budget point \\(the end of the span of larger magnitude\\) must map to a code inside the channel's valid codes; 90000 µε maps to [\\d.]+\\n$`,
+        `^bridgework report: [\\s\\S]+:${at}: channels\\.gusset-g2\\.output\\.range: 90000 µε is past what this channel reads \\(at most 30\\d\\d\\d µε, the converter's full scale at gain 64\\); lower amplifier\\.gain to 16 or narrow output\\.range\\n$`,
       ),
     );
   });

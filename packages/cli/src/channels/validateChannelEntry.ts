@@ -50,9 +50,9 @@ export function validateChannelEntry(
     nameIssue.length === 0
       ? raw
       : Object.fromEntries(Object.entries(raw as object).filter(([k]) => k !== 'name'));
-  const result = validateChannelSpec(entry, {
-    convertUnit: (text, unit) => parseQuantity(text, unit as Parameters<QuantityParser>[1]),
-  });
+  // The channel package reads quantities with units itself (its unit table).
+  void parseQuantity;
+  const result = validateChannelSpec(entry);
   const issues = [...nameIssue, ...result.issues.map(restate)];
   return issues.length === 0 && result.ok ? { value: result.value, issues } : { issues };
 }
