@@ -8,7 +8,7 @@
 import { STANDARD_GRAVITY_METERS_PER_SECOND_SQUARED, formatValue } from '@bridgework/core';
 import { createCertificateScale } from '@bridgework/calibration';
 import { leadDesensitization } from '@bridgework/compensation';
-import type { OutputQuantity } from '../outputQuantities.js';
+import { displayUnitFor, type OutputQuantity } from '../outputQuantities.js';
 import {
   choiceField,
   INVALID,
@@ -256,8 +256,11 @@ export const transducerKind: SensorKind<typeof fields, 'transducer'> = {
       reportAt('bridge.completionOhms', 'must be absent for a transducer (it has no completion resistors)');
     }
   },
-  describe: (s) =>
-    `bridge transducer, capacity ${formatQuantity(s.capacity, dimensionTable[ratedDimension[s.ratedQuantity]].si)}, rated output ${formatSignificant(s.ratedOutputVoltsPerVolt * 1e3)} mV/V`,
+  describe: (s) => {
+    // The capacity in the unit people read it in (bar, kN, t, kN·m).
+    const shown = displayUnitFor(s.ratedQuantity, s.capacity);
+    return `bridge transducer, capacity ${formatQuantity(s.capacity * shown.factor, shown.unit)}, rated output ${formatSignificant(s.ratedOutputVoltsPerVolt * 1e3)} mV/V`;
+  },
   defaultSpan(ctx) {
     const s = ctx.sensor;
     const { capacityUnit, outputUnit } = scaleUnits(s, ctx.quantity);

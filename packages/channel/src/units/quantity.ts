@@ -258,9 +258,7 @@ export function parseQuantity(text: string | number, unit: string): number {
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for a unit not in the table.
  */
 export function dimensionOfUnit(unit: string): Dimension {
-  const found =
-    anywhere.get(normalizeUnitText(unit)) ??
-    (unit === '' ? byDimension.get('dimensionless')?.get('') : undefined);
+  const found = unit === '' ? byDimension.get('fraction')?.get('') : anywhere.get(normalizeUnitText(unit));
   if (found === undefined) {
     throw new BridgeworkError(
       'invalid-option',
