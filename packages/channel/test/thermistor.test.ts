@@ -79,9 +79,12 @@ describe('thermistor: exact maps', () => {
     const ch = createChannel({
       ...spec,
       sensor: {
-        ...(spec.sensor as object),
+        kind: 'thermistor',
+        referenceOhms: '10 kΩ',
+        betaKelvin: '3977 K',
+        rangeCelsius: [-40, 125],
         dissipationConstantWattsPerKelvin: '2 mW/K',
-      } as ChannelSpec['sensor'],
+      },
     });
     expect(ch.map.form).toBe('exact');
     for (const code of [-2_000_000, 0, 1_500_000]) {

@@ -13,11 +13,9 @@ export type AnySensorKind = SensorKind<any, string>;
 
 /** The `sensor` variants of a list of kinds, keyed by name. */
 export type VariantsOf<K extends readonly AnySensorKind[]> = {
-  [X in K[number] as X['name']]: SchemaNode<
-    ObjectIn<X['fields'] & Fields>,
-    ObjectOut<X['fields'] & Fields>,
-    'required'
-  >;
+  [X in K[number] as X['name']]: X extends SensorKind<infer F, string>
+    ? SchemaNode<ObjectIn<F>, ObjectOut<F>, 'required'>
+    : never;
 };
 
 /** The schema and the rules for a list of sensor kinds. */
