@@ -24,8 +24,8 @@ import { dimensionTable, type Dimension } from '../units/unitTable.js';
 import { KIND_PARAMETERS_START, Parameter, type KindContext, type SensorKind } from './SensorKind.js';
 
 /** What a transducer's capacity is. */
-type RatedQuantity = 'force' | 'mass' | 'pressure' | 'torque';
-const ratedQuantities: readonly RatedQuantity[] = ['force', 'mass', 'pressure', 'torque'];
+const ratedQuantities = ['force', 'mass', 'pressure', 'torque'] as const;
+type RatedQuantity = (typeof ratedQuantities)[number];
 const ratedDimension: Readonly<Record<RatedQuantity, Dimension>> = {
   force: 'force',
   mass: 'mass',
