@@ -301,7 +301,11 @@ export function commonFields<const A extends string>(arrangements: readonly A[])
       { doc: 'Analog-to-digital converter' },
     ),
     zero: objectField(
-      { code: numberField({ doc: 'Converter code read at zero load', integer: true }) },
+      {
+        code: numberField({
+          doc: 'Converter code read at zero load (a mean of codes need not be an integer)',
+        }),
+      },
       { doc: 'Zero reading, for the exact two-reading method', presence: 'optional' },
     ),
     polarity: choiceField(['normal', 'inverted'] as const, {
