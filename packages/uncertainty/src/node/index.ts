@@ -412,7 +412,8 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
         });
         const setup = prepareMonteCarlo(ro);
         checkMonteCarloModel(mainModel, setup.plan.names, ro);
-        const procedure = runProcedure(setup.settings);
+        // Adaptive runs take two sequences per worker at a time (a sequence is a block or two).
+        const procedure = runProcedure({ ...setup.settings, lookahead: 2 * count });
         let gum: Propagation | undefined;
         let gumError: { error: unknown } | undefined;
         let gumDone = false;
