@@ -21,10 +21,13 @@ import {
   type ResolutionBudget,
 } from '@bridgework/chain';
 import {
+  MONTE_CARLO_MAX_TRIALS,
   monteCarlo,
   propagate,
   type InputQuantities,
+  type MonteCarloProgress,
   type MonteCarloResult,
+  type PositionalModel,
   type Propagation,
 } from '@bridgework/uncertainty';
 import type { Channel } from '../Channel.js';
@@ -44,12 +47,14 @@ import { designChecks, type ChannelDesignCheck, type DesignLimits } from './desi
 
 /** Monte Carlo settings of a budget. */
 export interface MonteCarloBudgetOptions {
-  /** Number of trials, an integer in [1000, 10⁷]. Default 10⁶ (JCGM 101 7.2.2). */
+  /** Number of trials, an integer in [1000, 5·10⁷] (the uncertainty package's bound by memory). Default 10⁶ (JCGM 101 7.2.2). */
   readonly trials?: number;
   /** Seed of the random streams, an integer in [0, 2⁵³ − 1]. Default 1. */
   readonly seed?: number;
   /** Keep the model values in trial order in `monteCarlo.values` (8 bytes per trial). Default false. */
   readonly returnValues?: boolean;
+  /** Called as the trials are done (the uncertainty package's `onProgress`: after every block of 16 384 trials). */
+  readonly onProgress?: (progress: MonteCarloProgress) => void;
 }
 
 /** Options of {@link channelBudget}. */
@@ -150,8 +155,8 @@ export interface ChannelBudget {
 export const BUDGET_CAUTION =
   'Results support, and do not replace, qualified engineering judgement; follow local codes, legal-metrology rules and licensed practice.';
 
-/** The most Monte Carlo trials a budget runs (80 MB of values). */
-export const MAX_BUDGET_TRIALS = 10_000_000;
+/** The most Monte Carlo trials a budget runs: the uncertainty package's bound (10 bytes per trial). */
+export const MAX_BUDGET_TRIALS = MONTE_CARLO_MAX_TRIALS;
 
 /** One uncertain input of the parametric model. */
 interface UncertainInput {
@@ -172,7 +177,19 @@ function readMonteCarlo(value: unknown): MonteCarloBudgetOptions | undefined {
       { param: 'options.monteCarlo', value },
     );
   }
-  const o = checkOptions('options.monteCarlo', value, { known: ['trials', 'seed', 'returnValues'] });
+  const o = checkOptions('options.monteCarlo', value, {
+    known: ['trials', 'seed', 'returnValues', 'onProgress'],
+  });
+  if (o['onProgress'] !== undefined && typeof o['onProgress'] !== 'function') {
+    throw new BridgeworkError(
+      'wrong-type',
+      `\`options.monteCarlo.onProgress\` must be a function; got ${formatValue(o['onProgress'])}`,
+      {
+        param: 'options.monteCarlo.onProgress',
+        value: o['onProgress'],
+      },
+    );
+  }
   if (o['trials'] !== undefined)
     checkInteger('options.monteCarlo.trials', o['trials'], { min: 1000, max: MAX_BUDGET_TRIALS });
   if (o['seed'] !== undefined)
@@ -416,11 +433,17 @@ export function channelBudget(channel: Channel, options: ChannelBudgetOptions = 
     inputs[u.name] = { value: p0[u.index] as number, distribution: 'rectangular', halfWidth: u.halfWidth };
   const names = uncertain.map((u) => u.name);
   const indices = uncertain.map((u) => u.index);
+  // The positional form: the engine hands the inputs over in one array, in `order`; nothing is
+  // looked up by name or built per trial.
   const p = p0.slice();
   const k = names.length;
-  const modelFn = (x: Readonly<Record<string, number>>): number => {
-    for (let i = 0; i < k; i++) p[indices[i] as number] = x[names[i] as string] as number;
-    return evaluate(x['reading'] as number, p);
+  const slots = Int32Array.from(indices);
+  const modelFn: PositionalModel = {
+    order: ['reading', ...names],
+    evaluate(x) {
+      for (let i = 0; i < k; i++) p[slots[i] as number] = x[i + 1] as number;
+      return evaluate(x[0] as number, p);
+    },
   };
   const combined = propagate({ model: modelFn, inputs, coverage });
   const monte =
@@ -433,6 +456,7 @@ export function channelBudget(channel: Channel, options: ChannelBudgetOptions = 
           trials: mc.trials ?? 1_000_000,
           seed: mc.seed ?? 1,
           ...(mc.returnValues === true ? { returnValues: true } : {}),
+          ...(mc.onProgress === undefined ? {} : { onProgress: mc.onProgress }),
         });
 
   const lines: ChannelBudgetLine[] = [];
