@@ -5,6 +5,10 @@
  */
 import { nodeIo } from './cliIo.js';
 import { runCli } from './runCli.js';
+import { stopWithParent } from './internal/pendingTempFiles.js';
+
+// The repository's `pnpm bridgework` and `pnpm demo` set this: pnpm does not pass SIGTERM on.
+if (process.env['BRIDGEWORK_STOP_WITH_PARENT'] === '1') stopWithParent();
 
 // Setting exitCode (rather than calling process.exit) lets piped output drain completely.
 process.exitCode = await runCli(process.argv.slice(2), nodeIo());

@@ -3,7 +3,7 @@ import { constants as fsConstants } from 'node:fs';
 import { link, open, rename, stat, unlink, type FileHandle } from 'node:fs/promises';
 import { basename, dirname, join, resolve } from 'node:path';
 import { BridgeworkError } from '@bridgework/core';
-import { addPendingTempFile, removePendingTempFile } from '../internal/pendingTempFiles.js';
+import { addPendingTempFile, removePendingTempFile, stopIfOrphaned } from '../internal/pendingTempFiles.js';
 
 /** Options of {@link openAtomicFile} and {@link writeFileAtomic}. */
 export interface AtomicFileOptions {
@@ -158,6 +158,8 @@ export async function openAtomicFile(path: string, options: AtomicFileOptions = 
       } catch (e) {
         throw ioError(`cannot write ${path}: ${reason(e)}`, path, e);
       }
+      // A run whose parent has gone (see stopWithParent) ends here, before its output appears.
+      stopIfOrphaned();
       try {
         if (force) {
           await rename(tempPath, target);
