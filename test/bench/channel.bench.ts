@@ -51,7 +51,7 @@ const gusset: ChannelSpec = {
   adc: { bits: 24, referenceVolts: 2.5, ratiometric: true },
   zero: { code: -18433 },
   environment: { temperatureCelsius: 15, rangeCelsius: [5, 25] },
-  output: { quantity: 'microstrain', range: [-300, 1200] },
+  output: { quantity: 'strain', unit: 'µε', range: [-300, 1200] },
 };
 /** Channels without a single Möbius kernel (issue 19 item 4). */
 const others: readonly ChannelSpec[] = [
