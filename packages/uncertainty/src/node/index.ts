@@ -318,7 +318,7 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
     slots[CONTROL.failed] = request.blockCount;
     const m = request.trials;
     const candidates = coverage === undefined ? 0 : m - coveredCount(coverage, m);
-    // Thresholds come from block 0's values (thresholdsFromSortedSample): a side holds at most
+    // Thresholds come from block 0's values (thresholdsFromSample): a side holds at most
     // M − q + 2.5 % of M + 1024 values overall; each worker gets room for its share, twice over.
     const wantTails = coverage !== undefined && m >= 16 * 8192 && candidates < m / 2;
     const room = Math.ceil((candidates + 0.025 * m + 1024) * Math.min(1, 2 / workers.length));
