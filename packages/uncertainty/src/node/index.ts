@@ -182,8 +182,10 @@ function workerStopped(detail: string): BridgeworkError {
  * Each worker imports the model module once (and, with `model.argument`, makes the model from
  * it). A run uses the procedure of `monteCarlo` unchanged: the main thread checks the options and
  * plans the seeding blocks; the workers claim blocks from a shared counter and write model
- * values and block statistics into shared memory; the main thread merges the block statistics in
- * block order and selects the coverage intervals. Every block's values depend only on the seed
+ * values and block statistics into shared memory, and in a fixed run collect and sort the
+ * coverage-interval tails of their blocks (thresholds from block 0); the main thread merges the
+ * block statistics in block order and the sorted tails by value. The shared buffers are kept
+ * between runs while each is at most 64 MB, until `close()`. Every block's values depend only on the seed
  * and the block's index (see `monteCarlo`), so the result is bit-identical to `monteCarlo` in one
  * thread, whatever the number of workers. When the model fails, blocks after the failing one are
  * no longer started and the error of the earliest failing trial is thrown — the one a single
