@@ -1,8 +1,9 @@
 import {
   BridgeworkError,
-  checkFinite,
+  checkFiniteResult,
   checkLength,
-  checkObject,
+  checkOptions,
+  checkStrain,
   rosetteLegAngles,
   type RosetteLayout,
 } from '@bridgework/core';
@@ -52,7 +53,10 @@ const MIN_GEOMETRY_DETERMINANT = 1e-6;
  * @returns The corrected leg strains `[εa, εb, εc]`, m/m.
  * @throws {@link @bridgework/core!BridgeworkError} `singular` when legs are (nearly) parallel;
  *   `invalid-option`, `invalid-shape` for a bad layout, `strains` or Kt array; `out-of-range` for
- *   Kt outside (−1, 1) or ν0 outside (−1, 0.5]; `not-finite`, `wrong-type` for bad numbers.
+ *   Kt outside (−1, 1), ν0 outside (−1, 0.5] or a strain outside (−1, 1) m/m (also when Kt so near 1
+ *   makes the correction overflow); `not-finite`, `wrong-type` for bad numbers;
+ *   `unknown-option` for a key it does not know (naming the closest), `missing-option` for a
+ *   required one.
  * @example
  * ```ts
  * correctRosetteTransverse({
@@ -63,10 +67,13 @@ const MIN_GEOMETRY_DETERMINANT = 1e-6;
  * ```
  */
 export function correctRosetteTransverse(options: CorrectRosetteTransverseOptions): [number, number, number] {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['layout', 'strains', 'transverseSensitivity', 'poissonRatio0'],
+    required: ['layout', 'strains', 'transverseSensitivity'],
+  });
   const angles = rosetteLegAngles(o['layout'] as RosetteLayout);
   const raw = checkLength<unknown>('strains', o['strains'], 3);
-  const strains = raw.map((e, i) => checkFinite(`strains[${i}]`, e));
+  const strains = raw.map((e, i) => checkStrain(`strains[${i}]`, e));
   const k = checkTransverseSensitivities(o['transverseSensitivity'], 3);
   const nu0 = checkPoissonRatio0(o['poissonRatio0']);
 
@@ -88,5 +95,10 @@ export function correctRosetteTransverse(options: CorrectRosetteTransverseOption
   });
   const [ex, ey] = solve3(rows, scaled);
   const sum = ex + ey;
-  return scaled.map((e, i) => (e - k[i]! * sum) / (1 - k[i]!)) as [number, number, number];
+  const blame = { what: 'the corrected strains', param: 'transverseSensitivity', value: o['transverseSensitivity'] };
+  return scaled.map((e, i) => checkFiniteResult((e - k[i]! * sum) / (1 - k[i]!), blame)) as [
+    number,
+    number,
+    number,
+  ];
 }

@@ -76,13 +76,22 @@ export interface CheckPositiveOptions {
  * checkPositive('meterOhms', Infinity, { allowInfinity: true }); // Infinity
  * ```
  */
-export function checkPositive(param: string, value: unknown, options: CheckPositiveOptions = {}): number {
+export function checkPositive(param: string, value: unknown, options?: CheckPositiveOptions): number {
+  const allowInfinity = allowsInfinity(options);
   if (typeof value !== 'number') fail('wrong-type', param, 'a number', value);
   if (Number.isNaN(value) || value === -Infinity) fail('not-finite', param, 'a finite number', value);
-  if (value === Infinity && options.allowInfinity !== true)
-    fail('not-finite', param, 'a finite number', value);
+  if (value === Infinity && !allowInfinity) fail('not-finite', param, 'a finite number', value);
   if (!(value > 0)) fail('not-positive', param, '> 0', value, 0);
   return value;
+}
+
+function allowsInfinity(options: CheckPositiveOptions | undefined): boolean {
+  if (options === undefined) return false;
+  const o = checkOptions('options', options, { known: ['allowInfinity'] });
+  const allow = o['allowInfinity'];
+  if (allow === undefined) return false;
+  if (typeof allow !== 'boolean') fail('wrong-type', 'options.allowInfinity', 'a boolean', allow);
+  return allow;
 }
 
 /**
@@ -115,6 +124,24 @@ export interface RangeLimits {
   readonly maxExclusive?: boolean;
 }
 
+const limitKeys = ['min', 'max', 'minExclusive', 'maxExclusive'];
+
+/** Checks a {@link RangeLimits} object (a developer's argument, so a slip is caught at once). */
+function checkLimits(limits: unknown): RangeLimits {
+  const o = checkOptions('limits', limits, { known: limitKeys });
+  for (const end of ['min', 'max']) {
+    const v = o[end];
+    if (v !== undefined && (typeof v !== 'number' || Number.isNaN(v))) {
+      fail(typeof v === 'number' ? 'not-finite' : 'wrong-type', `limits.${end}`, 'a number (±Infinity allowed)', v);
+    }
+  }
+  for (const flag of ['minExclusive', 'maxExclusive']) {
+    const v = o[flag];
+    if (v !== undefined && typeof v !== 'boolean') fail('wrong-type', `limits.${flag}`, 'a boolean', v);
+  }
+  return o as RangeLimits;
+}
+
 /**
  * Describes an interval in the message grammar, e.g. `in [-200, 850]` or `in (-1, 0.5]`.
  *
@@ -122,6 +149,7 @@ export interface RangeLimits {
  * @returns The requirement text.
  */
 export function describeRange(limits: RangeLimits): string {
+  checkLimits(limits);
   const lo = limits.min ?? -Infinity;
   const hi = limits.max ?? Infinity;
   const open = limits.minExclusive === true || lo === -Infinity ? '(' : '[';
@@ -136,13 +164,15 @@ export function describeRange(limits: RangeLimits): string {
  * @param value - The value to check.
  * @param limits - The interval; ends are closed unless marked exclusive.
  * @returns `value`, typed as a number.
- * @throws {@link BridgeworkError} `wrong-type`, `not-finite`, or `out-of-range` (with `limit` = [min, max]).
+ * @throws {@link BridgeworkError} `wrong-type`, `not-finite`, or `out-of-range` (with `limit` = [min, max]);
+ *   `unknown-option`, `wrong-type` or `not-finite` for malformed `limits`.
  * @example
  * ```ts
  * checkRange('poissonRatio', 0.3, { min: -1, max: 0.5, minExclusive: true }); // 0.3
  * ```
  */
 export function checkRange(param: string, value: unknown, limits: RangeLimits): number {
+  checkLimits(limits);
   const x = checkFinite(param, value);
   const lo = limits.min ?? -Infinity;
   const hi = limits.max ?? Infinity;
@@ -185,8 +215,18 @@ export function checkInteger(param: string, value: unknown, limits: RangeLimits 
  * ```
  */
 export function checkOneOf<const T extends string>(param: string, value: unknown, choices: readonly T[]): T {
+  if (!Array.isArray(choices)) fail('wrong-type', 'choices', 'an array of strings', choices);
   if (typeof value === 'string' && (choices as readonly string[]).includes(value)) return value as T;
-  fail('invalid-option', param, `one of ${choices.map((c) => `'${c}'`).join(', ')}`, value, choices);
+  // A slip of letter case (`'Quarter'`) is named; other near misses are left to the list.
+  const lower = typeof value === 'string' ? value.toLowerCase() : undefined;
+  const near = choices.find((c) => typeof c === 'string' && c.toLowerCase() === lower);
+  const requirement = `one of ${choices.map((c) => `'${c}'`).join(', ')}`;
+  if (near === undefined) fail('invalid-option', param, requirement, value, choices);
+  throw new BridgeworkError(
+    'invalid-option',
+    `\`${param}\` must be ${requirement}; got ${formatValue(value)} (did you mean '${near}'?)`,
+    { param, value, limit: choices },
+  );
 }
 
 /**
@@ -203,6 +243,7 @@ export function checkOneOf<const T extends string>(param: string, value: unknown
  * ```
  */
 export function requireOption<T>(param: string, value: T | undefined | null, why?: string): T {
+  if (why !== undefined && typeof why !== 'string') fail('wrong-type', 'why', 'a string', why);
   if (value === undefined || value === null) {
     throw new BridgeworkError(
       'missing-option',
@@ -227,6 +268,9 @@ export function requireOption<T>(param: string, value: T | undefined | null, why
  * ```
  */
 export function checkLength<T>(param: string, value: readonly T[] | unknown, length: number): readonly T[] {
+  if (typeof length !== 'number' || !Number.isInteger(length) || length < 0) {
+    fail(typeof length === 'number' ? 'out-of-range' : 'wrong-type', 'length', 'an integer >= 0', length);
+  }
   if (!Array.isArray(value) || value.length !== length) {
     fail('invalid-shape', param, `an array of length ${length}`, value, length);
   }
@@ -256,6 +300,30 @@ export interface OptionKeys {
   readonly required?: readonly string[];
 }
 
+function checkNames(param: string, value: unknown): readonly string[] {
+  if (!Array.isArray(value) || !value.every((k) => typeof k === 'string')) {
+    fail('wrong-type', param, 'an array of strings', value);
+  }
+  return value as readonly string[];
+}
+
+/** Checks the `keys` argument of {@link checkOptions} by the rule it enforces. */
+function checkOptionKeys(keys: unknown): void {
+  const o = checkObject('keys', keys);
+  for (const key of Object.keys(o)) {
+    if (key !== 'known' && key !== 'required') {
+      const near = closestName(key, ['known', 'required']);
+      throw new BridgeworkError(
+        'unknown-option',
+        `\`keys.${key}\` is not a known option${near === undefined ? ' (known: known, required)' : `; did you mean \`${near}\`?`}`,
+        { param: `keys.${key}`, value: o[key], limit: ['known', 'required'] },
+      );
+    }
+  }
+  checkNames('keys.known', o['known']);
+  if (o['required'] !== undefined) checkNames('keys.required', o['required']);
+}
+
 /**
  * Checks an options object against the keys a function reads: the one rule of every public
  * options object in bridgework.
@@ -272,7 +340,8 @@ export interface OptionKeys {
  * @param keys - The known and required keys.
  * @returns `value`, typed as a record.
  * @throws {@link BridgeworkError} `wrong-type` (not a plain object), `unknown-option` (with
- *   `limit` = the known keys), `missing-option`.
+ *   `limit` = the known keys), `missing-option`; `wrong-type` or `unknown-option` for malformed
+ *   `keys`.
  * @example
  * ```ts
  * checkOptions('options', { whiteDensity: 1e-8 }, { known: ['whiteDensity', 'cornerHertz'], required: ['whiteDensity'] });
@@ -281,6 +350,7 @@ export interface OptionKeys {
  * ```
  */
 export function checkOptions(param: string, value: unknown, keys: OptionKeys): Record<string, unknown> {
+  checkOptionKeys(keys);
   const o = checkObject(param, value);
   for (const key of Object.keys(o)) {
     if (!keys.known.includes(key)) {
@@ -303,4 +373,182 @@ export function checkOptions(param: string, value: unknown, keys: OptionKeys): R
     }
   }
   return o;
+}
+
+/**
+ * Checks that `value` is a strain in m/m strictly inside (−1, 1) and returns it.
+ *
+ * @remarks
+ * The one domain of a strain given to bridgework outside a bridge (whose own range follows from
+ * its gauges): no bonded gauge survives ±100 % strain, and a value of 1 or more is almost always
+ * a microstrain given where a strain was expected.
+ *
+ * @param param - The option name used in the message.
+ * @param value - The value to check.
+ * @returns `value`, typed as a number.
+ * @throws {@link BridgeworkError} `wrong-type`, `not-finite`, or `out-of-range` (with `limit` = [−1, 1]).
+ * @example
+ * ```ts
+ * checkStrain('strain', 1e-3); // 0.001
+ * // checkStrain('strain', 1000) throws out-of-range: "use strainFromMicrostrain for µε"
+ * ```
+ */
+export function checkStrain(param: string, value: unknown): number {
+  const strain = checkFinite(param, value);
+  if (!(Math.abs(strain) < 1)) {
+    throw new BridgeworkError(
+      'out-of-range',
+      `\`${param}\` must be a strain in m/m in (-1, 1) (use strainFromMicrostrain for µε); got ${formatValue(strain)}`,
+      { param, value: strain, limit: [-1, 1] },
+    );
+  }
+  return strain;
+}
+
+/** What a result is and which input the caller can change, for {@link checkFiniteResult}. */
+export interface FiniteResultBlame {
+  /** What was computed, in words (`the wire resistance`). */
+  readonly what: string;
+  /** The caller's option that drives the result out of range, as a dotted path. */
+  readonly param: string;
+  /** The value the caller gave for it. */
+  readonly value: unknown;
+}
+
+/**
+ * Returns a computed number when it is finite; otherwise throws `out-of-range` naming the input
+ * the caller gave (never an internal quantity).
+ *
+ * @remarks
+ * The last guard of a function whose documented domain is "where the result is finite": an
+ * accepted input never yields NaN or ±Infinity. Use it after computing in a form that does not
+ * overflow on the way, so that only a result that truly lies beyond binary64 (|x| > 1.8e308) or
+ * is undefined is refused.
+ *
+ * @param result - The computed value.
+ * @param blame - What it is, and the option (with its value) that the caller can change.
+ * @returns `result`.
+ * @throws {@link BridgeworkError} `out-of-range` with `param` = `blame.param`.
+ * @example
+ * ```ts
+ * checkFiniteResult(1.2, { what: 'the wire resistance', param: 'lengthMeters', value: 10 }); // 1.2
+ * ```
+ */
+export function checkFiniteResult(result: number, blame: FiniteResultBlame): number {
+  if (Number.isFinite(result)) return result;
+  throw new BridgeworkError(
+    'out-of-range',
+    `\`${blame.param}\` must keep ${blame.what} finite (within ±1.8e308); got ${formatValue(blame.value)}`,
+    { param: blame.param, value: blame.value },
+  );
+}
+
+/**
+ * The resistances bridgework accepts, in Ω: 1 nΩ to 1 PΩ (every gauge, RTD, thermistor, lead,
+ * completion, shunt, source and meter resistance of a real instrument lies far inside).
+ *
+ * @remarks
+ * Bounding resistances keeps every product the exact network formulas form (up to the cube of a
+ * resistance) and every current and power inside binary64, so an accepted resistance never gives
+ * a non-finite result. Zero (a lead or source of no resistance) and +∞ (an ideal meter) are
+ * accepted where an option says so.
+ */
+export const OHMS_LIMITS: Readonly<{ min: number; max: number }> = Object.freeze({ min: 1e-9, max: 1e15 });
+
+const ALLOW_INFINITY: CheckPositiveOptions = Object.freeze({ allowInfinity: true });
+
+/** Options of {@link checkOhms}. */
+export interface CheckOhmsOptions {
+  /** Accept 0 (a lead or source without resistance). Default false. */
+  readonly allowZero?: boolean;
+  /** Accept +∞ (an open circuit, such as an ideal meter). Default false. */
+  readonly allowInfinity?: boolean;
+}
+
+/**
+ * Checks that `value` is a resistance in Ω inside {@link OHMS_LIMITS} (with `allowZero`, anywhere
+ * in [0, 1e15]; with `allowInfinity`, also +∞) and returns it.
+ *
+ * @param param - The option name used in the message.
+ * @param value - The value to check.
+ * @param options - `allowZero`, `allowInfinity`.
+ * @returns `value`, typed as a number.
+ * @throws {@link BridgeworkError} `wrong-type`, `not-finite`; `not-positive` (or `negative` with
+ *   `allowZero`); `out-of-range` outside [1e-9, 1e15] Ω ([0, 1e15] Ω with `allowZero`).
+ * @example
+ * ```ts
+ * checkOhms('gaugeOhms', 350); // 350
+ * checkOhms('ohmsPerLead', 0, { allowZero: true }); // 0
+ * ```
+ */
+export function checkOhms(param: string, value: unknown, options?: CheckOhmsOptions): number {
+  let allowZero = false;
+  let allowInfinity = false;
+  if (options !== undefined) {
+    const o = checkOptions('options', options, { known: ['allowZero', 'allowInfinity'] });
+    for (const flag of ['allowZero', 'allowInfinity']) {
+      if (o[flag] !== undefined && typeof o[flag] !== 'boolean') {
+        fail('wrong-type', `options.${flag}`, 'a boolean', o[flag]);
+      }
+    }
+    allowZero = o['allowZero'] === true;
+    allowInfinity = o['allowInfinity'] === true;
+  }
+  const x = allowZero
+    ? value === Infinity && allowInfinity
+      ? Infinity
+      : checkNonNegative(param, value)
+    : allowInfinity
+      ? checkPositive(param, value, ALLOW_INFINITY)
+      : checkPositive(param, value);
+  if (x === Infinity) return x;
+  // A resistance that may be 0 only adds to others, so any small value is harmless.
+  const min = allowZero ? 0 : OHMS_LIMITS.min;
+  if (!(x >= min && x <= OHMS_LIMITS.max)) {
+    const open = allowInfinity ? ' or Infinity' : '';
+    fail('out-of-range', param, `a resistance in [${min}, ${OHMS_LIMITS.max}] Ω${open}`, value, [
+      min,
+      OHMS_LIMITS.max,
+    ]);
+  }
+  return x;
+}
+
+/**
+ * The gauge factors bridgework accepts: 0.01 to 1000 (metal-foil and wire gauges are near 2,
+ * semiconductor gauges up to about 200).
+ */
+export const GAUGE_FACTOR_LIMITS: Readonly<{ min: number; max: number }> = Object.freeze({ min: 0.01, max: 1000 });
+
+/**
+ * Checks that `value` is a gauge factor in {@link GAUGE_FACTOR_LIMITS} and returns it.
+ *
+ * @param param - The option name used in the message.
+ * @param value - The value to check.
+ * @returns `value`, typed as a number.
+ * @throws {@link BridgeworkError} `wrong-type`, `not-finite`, `not-positive`; `out-of-range`
+ *   outside [0.01, 1000].
+ * @example
+ * ```ts
+ * checkGaugeFactor('gaugeFactor', 2.1); // 2.1
+ * ```
+ */
+export function checkGaugeFactor(param: string, value: unknown): number {
+  return checkRange(param, checkPositive(param, value), GAUGE_FACTOR_LIMITS);
+}
+
+/**
+ * Checks that `value` is a temperature in °C above absolute zero (> −273.15) and returns it.
+ *
+ * @param param - The option name used in the message.
+ * @param value - The value to check.
+ * @returns `value`, typed as a number.
+ * @throws {@link BridgeworkError} `wrong-type`, `not-finite`; `out-of-range` at or below −273.15 °C.
+ * @example
+ * ```ts
+ * checkCelsius('temperatureCelsius', 25); // 25
+ * ```
+ */
+export function checkCelsius(param: string, value: unknown): number {
+  return checkRange(param, value, { min: -273.15, minExclusive: true });
 }
