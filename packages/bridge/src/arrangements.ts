@@ -109,5 +109,7 @@ export const arrangementTable: Readonly<Record<StrainArrangement, ArrangementInf
  * ```
  */
 export function needsPoissonRatio(arrangement: StrainArrangement): boolean {
-  return arrangementTable[checkOneOf('arrangement', arrangement, strainArrangements)].arms.some((g) => g !== null && g[1] !== 0);
+  return arrangementTable[checkOneOf('arrangement', arrangement, strainArrangements)].arms.some(
+    (g) => g !== null && g[1] !== 0,
+  );
 }

@@ -229,7 +229,15 @@ function ratioAt(n: Quad, d: Quad, x: number): number {
  */
 export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
   const o = checkOptions('options', options, {
-    known: ['arrangement', 'gaugeFactor', 'gaugeOhms', 'completionOhms', 'poissonRatio', 'leads', 'sourceOhms'],
+    known: [
+      'arrangement',
+      'gaugeFactor',
+      'gaugeOhms',
+      'completionOhms',
+      'poissonRatio',
+      'leads',
+      'sourceOhms',
+    ],
     required: ['arrangement', 'gaugeFactor'],
   });
   const arrangement = checkOneOf('arrangement', o['arrangement'], strainArrangements);
@@ -245,7 +253,9 @@ export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
     );
   }
   const checkedPoisson =
-    o['poissonRatio'] === undefined ? undefined : checkRange('poissonRatio', o['poissonRatio'], POISSON_LIMITS);
+    o['poissonRatio'] === undefined
+      ? undefined
+      : checkRange('poissonRatio', o['poissonRatio'], POISSON_LIMITS);
   const poissonRatio = needsPoissonRatio(arrangement) ? checkedPoisson : undefined;
   const sourceOhms = o['sourceOhms'] === undefined ? 0 : checkOhms('sourceOhms', o['sourceOhms'], ZERO_OK);
   const info = arrangementTable[arrangement];
@@ -434,7 +444,8 @@ export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
     armsOhms(strain: number): [number, number, number, number] {
       const e = checkStrain('strain', strain);
       const arms: [number, number, number, number] = [p1 + g1 * e, p2 + g2 * e, p3 + g3 * e, p4 + g4 * e];
-      for (const r of arms) checkFiniteResult(r, { what: 'every arm resistance', param: 'strain', value: strain });
+      for (const r of arms)
+        checkFiniteResult(r, { what: 'every arm resistance', param: 'strain', value: strain });
       return arms;
     },
   };

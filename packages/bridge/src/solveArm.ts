@@ -5,7 +5,7 @@ import { ACROSS, OPPOSITE, PARTNER, SIGN, checkArms, checkCircuit } from './inte
 export interface SolveArmOptions {
   /** The four arms `[R1, R2, R3, R4]` in Ω (each in [1e-9, 1e15]) with exactly one entry `null`: the arm to solve for. */
   readonly armsOhms: readonly [number | null, number | null, number | null, number | null];
-  /** Source EMF of the excitation in V, in (0, 1e6]. */
+  /** Source EMF of the excitation in V, in [1e-9, 1e6]. */
   readonly excitationVolts: number;
   /** The meter reading V(S+) − V(S−) in V (finite, either sign). */
   readonly outputVolts: number;

@@ -5,7 +5,7 @@ import { checkArms, checkCircuit, networkTerms, type Arms } from './internal/net
 export interface SolveBridgeOptions {
   /** The four arm resistances `[R1, R2, R3, R4]` in Ω, each in [1e-9, 1e15] (ring order, see docs/conventions.md). */
   readonly armsOhms: readonly [number, number, number, number];
-  /** Source EMF of the excitation in V, in (0, 1e6], before its internal resistance. */
+  /** Source EMF of the excitation in V, in [1e-9, 1e6], before its internal resistance. */
   readonly excitationVolts: number;
   /** Internal resistance of the excitation source plus any series resistance in Ω (0 or in [1e-9, 1e15]). Default 0. */
   readonly sourceOhms?: number;
@@ -60,7 +60,7 @@ export interface BridgeSolution {
  * of the full network (mathjs `lusolve`).
  *
  * Resistances are bounded to `OHMS_LIMITS` of the core package (1 nΩ … 1 PΩ) and the excitation
- * to 1 MV, which keeps every product of the closed forms, every current and every power finite:
+ * to [1 nV, 1 MV] (`VOLTS_LIMITS`), which keeps every product of the closed forms, every current and every power finite:
  * no accepted input gives a non-finite field.
  *
  * @param options - Arms, excitation EMF, source and meter resistance.
@@ -68,7 +68,7 @@ export interface BridgeSolution {
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-shape` when `armsOhms` is not four entries;
  *   `not-positive`, `not-finite` or `wrong-type` for a bad arm, excitation or meter resistance;
  *   `negative` for a negative source resistance; `out-of-range` for a resistance outside
- *   [1e-9, 1e15] Ω or an excitation above 1e6 V; `unknown-option` for a key it does not know
+ *   [1e-9, 1e15] Ω or an excitation outside [1e-9, 1e6] V; `unknown-option` for a key it does not know
  *   (naming the closest); `missing-option` without `armsOhms` or `excitationVolts`.
  * @example
  * ```ts

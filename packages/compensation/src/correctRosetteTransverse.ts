@@ -95,7 +95,11 @@ export function correctRosetteTransverse(options: CorrectRosetteTransverseOption
   });
   const [ex, ey] = solve3(rows, scaled);
   const sum = ex + ey;
-  const blame = { what: 'the corrected strains', param: 'transverseSensitivity', value: o['transverseSensitivity'] };
+  const blame = {
+    what: 'the corrected strains',
+    param: 'transverseSensitivity',
+    value: o['transverseSensitivity'],
+  };
   return scaled.map((e, i) => checkFiniteResult((e - k[i]! * sum) / (1 - k[i]!), blame)) as [
     number,
     number,

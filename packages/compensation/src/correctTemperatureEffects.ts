@@ -7,10 +7,10 @@ import {
   checkStrain,
   formatValue,
   requireOption,
+  blameOption,
 } from '@bridgework/core';
 import type { ThermalOutput } from './createThermalOutput.js';
 import { gaugeFactorAt } from './gaugeFactorAt.js';
-import { blameCaller } from './internal/blame.js';
 
 const gaugeTemperatureKeys = [
   'gaugeFactorSetting',
@@ -99,7 +99,7 @@ function check(o: Record<string, unknown>): Checked {
     const to = thermal as ThermalOutput;
     thermalStrain =
       to.apparentStrainAt(temperatureCelsius, gaugeFactorSetting) -
-      blameCaller(
+      blameOption(
         { param: 'zeroCelsius', value: zeroCelsius, requirement: "must lie in the thermal output's range" },
         () => to.apparentStrainAt(zeroCelsius, gaugeFactorSetting),
       );

@@ -54,6 +54,10 @@ export function correctTransversePair(options: CorrectTransversePairOptions): [n
   const sx = ex * (1 - nu0 * kx);
   const sy = ey * (1 - nu0 * ky);
   const det = 1 - kx * ky;
-  const blame = { what: 'the corrected strains', param: 'transverseSensitivity', value: o['transverseSensitivity'] };
+  const blame = {
+    what: 'the corrected strains',
+    param: 'transverseSensitivity',
+    value: o['transverseSensitivity'],
+  };
   return [checkFiniteResult((sx - kx * sy) / det, blame), checkFiniteResult((sy - ky * sx) / det, blame)];
 }

@@ -78,7 +78,9 @@ export function createBetaThermistor(options: BetaThermistorOptions): Thermistor
           checkTemperature(o['referenceCelsius'], undefined, 'referenceCelsius'),
           { max: MAX_REFERENCE_CELSIUS },
         );
-  const beta = checkRange('betaKelvin', checkPositive('betaKelvin', o['betaKelvin']), { max: MAX_BETA_KELVIN });
+  const beta = checkRange('betaKelvin', checkPositive('betaKelvin', o['betaKelvin']), {
+    max: MAX_BETA_KELVIN,
+  });
   const rangeCelsius = checkOptionalRange(o['rangeCelsius']);
   const kelvin0 = t0 + ZERO_CELSIUS_KELVIN;
 

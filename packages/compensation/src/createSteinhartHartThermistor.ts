@@ -73,7 +73,10 @@ const POLISH_STEPS = 3;
  * ```
  */
 export function createSteinhartHartThermistor(options: SteinhartHartOptions): Thermistor {
-  const o = checkOptions('options', options, { known: ['a', 'b', 'c', 'rangeCelsius'], required: ['a', 'b', 'c'] });
+  const o = checkOptions('options', options, {
+    known: ['a', 'b', 'c', 'rangeCelsius'],
+    required: ['a', 'b', 'c'],
+  });
   const a = checkFinite('a', o['a']);
   const b = checkPositive('b', o['b']);
   const c = checkFinite('c', o['c']);

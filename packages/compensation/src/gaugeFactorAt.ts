@@ -59,7 +59,11 @@ export function gaugeFactorAt(options: GaugeFactorAtOptions): number {
     throw new BridgeworkError(
       'out-of-range',
       `\`temperatureCelsius\` must keep the gauge factor GF·(1 + β·(T − T0)) in [${GAUGE_FACTOR_LIMITS.min}, ${GAUGE_FACTOR_LIMITS.max}]; got ${formatValue(temperatureCelsius)} (GF would be ${formatValue(result)})`,
-      { param: 'temperatureCelsius', value: temperatureCelsius, limit: [GAUGE_FACTOR_LIMITS.min, GAUGE_FACTOR_LIMITS.max] },
+      {
+        param: 'temperatureCelsius',
+        value: temperatureCelsius,
+        limit: [GAUGE_FACTOR_LIMITS.min, GAUGE_FACTOR_LIMITS.max],
+      },
     );
   }
   return result;

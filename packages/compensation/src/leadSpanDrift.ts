@@ -48,7 +48,9 @@ export function leadSpanDrift(options: LeadSpanDriftOptions): number {
   });
   const wiring = checkOneOf('wiring', o['wiring'], ['four-wire', 'six-wire']);
   const inputOhms = checkOhms('inputOhms', o['inputOhms']);
-  const referenceOhmsPerLead = checkOhms('referenceOhmsPerLead', o['referenceOhmsPerLead'], { allowZero: true });
+  const referenceOhmsPerLead = checkOhms('referenceOhmsPerLead', o['referenceOhmsPerLead'], {
+    allowZero: true,
+  });
   const ohmsPerLead = checkOhms('ohmsPerLead', o['ohmsPerLead'], { allowZero: true });
   if (wiring === 'six-wire') return 0;
   return (-2 * (ohmsPerLead - referenceOhmsPerLead)) / (inputOhms + 2 * ohmsPerLead);

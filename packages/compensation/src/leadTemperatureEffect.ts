@@ -1,6 +1,5 @@
-import { checkOhms, checkOptions, checkStrain } from '@bridgework/core';
+import { checkOhms, checkOptions, checkStrain, blameOption } from '@bridgework/core';
 import type { QuarterBridgeGaugeOptions } from './leadDesensitization.js';
-import { blameCaller } from './internal/blame.js';
 import { checkQuarterSetup, quarterBridge, quarterGaugeKeys } from './internal/leads.js';
 
 /** Options of {@link leadTemperatureEffect}. */
@@ -72,8 +71,12 @@ export function leadTemperatureEffect(options: LeadTemperatureEffectOptions): Le
   const strain = o['strain'] === undefined ? 0 : checkStrain('strain', o['strain']);
   const reference = quarterBridge(setup, referenceOhmsPerLead);
   const now = quarterBridge(setup, ohmsPerLead);
-  const indicatedStrain = blameCaller(
-    { param: 'strain', value: strain, requirement: 'must give a reading the bridge can take at both lead resistances' },
+  const indicatedStrain = blameOption(
+    {
+      param: 'strain',
+      value: strain,
+      requirement: 'must give a reading the bridge can take at both lead resistances',
+    },
     () => reference.strainFromRatio(now.ratioFromStrain(strain)),
   );
   return {

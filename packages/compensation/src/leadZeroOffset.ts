@@ -1,6 +1,5 @@
-import { checkOhms, checkOptions } from '@bridgework/core';
+import { checkOhms, checkOptions, blameOption } from '@bridgework/core';
 import type { QuarterBridgeGaugeOptions } from './leadDesensitization.js';
-import { blameCaller } from './internal/blame.js';
 import { checkQuarterSetup, quarterBridge, quarterGaugeKeys } from './internal/leads.js';
 
 /** Options of {@link leadZeroOffset}. */
@@ -55,8 +54,12 @@ export function leadZeroOffset(options: LeadZeroOffsetOptions): LeadZeroOffset {
   const setup = checkQuarterSetup(o);
   const ohmsPerLead = checkOhms('ohmsPerLead', o['ohmsPerLead'], { allowZero: true });
   const offsetRatio = quarterBridge(setup, ohmsPerLead).offsetRatio;
-  const apparentStrain = blameCaller(
-    { param: 'ohmsPerLead', value: ohmsPerLead, requirement: 'must leave a zero offset the bridge without leads can read' },
+  const apparentStrain = blameOption(
+    {
+      param: 'ohmsPerLead',
+      value: ohmsPerLead,
+      requirement: 'must leave a zero offset the bridge without leads can read',
+    },
     () => quarterBridge(setup, undefined).strainFromRatio(offsetRatio),
   );
   return { offsetRatio, apparentStrain };

@@ -7,9 +7,9 @@ import {
   checkOneOf,
   checkOptions,
   formatValue,
+  blameOption,
 } from '@bridgework/core';
 import type { Rtd } from './createRtd.js';
-import { blameCaller } from './internal/blame.js';
 
 /** How an RTD is connected: two leads, three leads (one sense lead) or four leads (Kelvin). */
 export type RtdWiring = 'two-wire' | 'three-wire' | 'four-wire';
@@ -88,7 +88,15 @@ export interface RtdLeadError {
  */
 export function rtdLeadError(options: RtdLeadErrorOptions): RtdLeadError {
   const o = checkOptions('options', options, {
-    known: ['rtd', 'temperatureCelsius', 'ohmsPerLead', 'wiring', 'leadMismatchOhms', 'readout', 'completionOhms'],
+    known: [
+      'rtd',
+      'temperatureCelsius',
+      'ohmsPerLead',
+      'wiring',
+      'leadMismatchOhms',
+      'readout',
+      'completionOhms',
+    ],
     required: ['rtd', 'temperatureCelsius', 'ohmsPerLead', 'wiring'],
   });
   const rtd = o['rtd'] as Rtd;
@@ -154,15 +162,17 @@ export function rtdLeadError(options: RtdLeadErrorOptions): RtdLeadError {
       o['completionOhms'] === undefined ? rtd.r0Ohms : checkOhms('completionOhms', o['completionOhms']);
     const armsOhms: [number, number, number, number] =
       wiring === 'two-wire' ? [rt + lead1 + lead2, rc, rc, rc] : [rt + lead1, rc + lead2, rc, rc];
-    measuredOhms = blameCaller({ ...leads, requirement: 'must leave a bridge the instrument can solve' }, () =>
-      solveArm({
-        armsOhms: [null, rc, rc, rc],
-        excitationVolts: 1,
-        outputVolts: solveBridge({ armsOhms, excitationVolts: 1 }).outputVolts,
-      }),
+    measuredOhms = blameOption(
+      { ...leads, requirement: 'must leave a bridge the instrument can solve' },
+      () =>
+        solveArm({
+          armsOhms: [null, rc, rc, rc],
+          excitationVolts: 1,
+          outputVolts: solveBridge({ armsOhms, excitationVolts: 1 }).outputVolts,
+        }),
     );
   }
-  const indicatedCelsius = blameCaller(
+  const indicatedCelsius = blameOption(
     { ...leads, requirement: "must leave the measured resistance inside the sensor's range" },
     () => rtd.temperatureAt(measuredOhms),
   );

@@ -121,7 +121,10 @@ export function wireOhms(options: WireOhmsOptions): number {
   }
   const diameterMeters =
     o['diameterMeters'] !== undefined
-      ? checkRange('diameterMeters', checkPositive('diameterMeters', o['diameterMeters']), { min: 1e-6, max: 1 })
+      ? checkRange('diameterMeters', checkPositive('diameterMeters', o['diameterMeters']), {
+          min: 1e-6,
+          max: 1,
+        })
       : awgDiameterMeters(requireOption('awg', o['awg'] as number | undefined, 'or `diameterMeters`'));
   const lengthMeters = checkNonNegative('lengthMeters', o['lengthMeters']);
   const temperatureCelsius =

@@ -79,7 +79,12 @@ describe('rtdLeadError', () => {
   });
 
   it.each([
-    ['no rtd', { temperatureCelsius: 0, ohmsPerLead: 1, wiring: 'two-wire' }, 'missing-option', 'options.rtd'],
+    [
+      'no rtd',
+      { temperatureCelsius: 0, ohmsPerLead: 1, wiring: 'two-wire' },
+      'missing-option',
+      'options.rtd',
+    ],
     [
       'an object as rtd',
       { rtd: { r0Ohms: 100 }, temperatureCelsius: 0, ohmsPerLead: 1, wiring: 'two-wire' },

@@ -106,7 +106,12 @@ describe('indicatedTransverseStrain and correctTransverseGauge', () => {
   });
 
   it.each([
-    ['missing strain', { transverseStrain: 0, transverseSensitivity: 0.02 }, 'missing-option', 'options.strain'],
+    [
+      'missing strain',
+      { transverseStrain: 0, transverseSensitivity: 0.02 },
+      'missing-option',
+      'options.strain',
+    ],
     [
       'missing transverse strain',
       { strain: 1e-3, transverseSensitivity: 0.02 },

@@ -56,10 +56,14 @@ function checkStrict(options: unknown): boolean {
   const o = checkOptions('options', options, { known: ['strict'] });
   const strict = o['strict'];
   if (strict !== undefined && typeof strict !== 'boolean') {
-    throw new BridgeworkError('wrong-type', `\`options.strict\` must be a boolean; got ${formatValue(strict)}`, {
-      param: 'options.strict',
-      value: strict,
-    });
+    throw new BridgeworkError(
+      'wrong-type',
+      `\`options.strict\` must be a boolean; got ${formatValue(strict)}`,
+      {
+        param: 'options.strict',
+        value: strict,
+      },
+    );
   }
   return strict === true;
 }

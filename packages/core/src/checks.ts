@@ -132,7 +132,12 @@ function checkLimits(limits: unknown): RangeLimits {
   for (const end of ['min', 'max']) {
     const v = o[end];
     if (v !== undefined && (typeof v !== 'number' || Number.isNaN(v))) {
-      fail(typeof v === 'number' ? 'not-finite' : 'wrong-type', `limits.${end}`, 'a number (±Infinity allowed)', v);
+      fail(
+        typeof v === 'number' ? 'not-finite' : 'wrong-type',
+        `limits.${end}`,
+        'a number (±Infinity allowed)',
+        v,
+      );
     }
   }
   for (const flag of ['minExclusive', 'maxExclusive']) {
@@ -518,7 +523,10 @@ export function checkOhms(param: string, value: unknown, options?: CheckOhmsOpti
  * The gauge factors bridgework accepts: 0.01 to 1000 (metal-foil and wire gauges are near 2,
  * semiconductor gauges up to about 200).
  */
-export const GAUGE_FACTOR_LIMITS: Readonly<{ min: number; max: number }> = Object.freeze({ min: 0.01, max: 1000 });
+export const GAUGE_FACTOR_LIMITS: Readonly<{ min: number; max: number }> = Object.freeze({
+  min: 0.01,
+  max: 1000,
+});
 
 /**
  * Checks that `value` is a gauge factor in {@link GAUGE_FACTOR_LIMITS} and returns it.
@@ -551,4 +559,88 @@ export function checkGaugeFactor(param: string, value: unknown): number {
  */
 export function checkCelsius(param: string, value: unknown): number {
   return checkRange(param, value, { min: -273.15, minExclusive: true });
+}
+
+/**
+ * The voltages bridgework accepts, in V: magnitudes up to 1 MV, and at least 1 nV where a voltage
+ * must be positive (an excitation, a reference).
+ *
+ * @remarks
+ * With {@link OHMS_LIMITS} this keeps every current, power and count a bridge channel forms inside
+ * binary64.
+ */
+export const VOLTS_LIMITS: Readonly<{ min: number; max: number }> = Object.freeze({ min: 1e-9, max: 1e6 });
+
+/** Options of {@link checkVolts}. */
+export interface CheckVoltsOptions {
+  /** Accept either sign (a node voltage, a reading): |v| ≤ 1e6 V. Default false: v in [1e-9, 1e6] V. */
+  readonly signed?: boolean;
+}
+
+/**
+ * Checks that `value` is a voltage inside {@link VOLTS_LIMITS} and returns it: positive in
+ * [1e-9, 1e6] V, or with `signed` any value of magnitude up to 1e6 V.
+ *
+ * @param param - The option name used in the message.
+ * @param value - The value to check.
+ * @param options - `signed`.
+ * @returns `value`, typed as a number.
+ * @throws {@link BridgeworkError} `wrong-type`, `not-finite`; `not-positive` (unsigned);
+ *   `out-of-range` beyond the limits.
+ * @example
+ * ```ts
+ * checkVolts('excitationVolts', 5); // 5
+ * checkVolts('commonModeVolts', -2.5, { signed: true }); // -2.5
+ * ```
+ */
+export function checkVolts(param: string, value: unknown, options?: CheckVoltsOptions): number {
+  let signed = false;
+  if (options !== undefined) {
+    const s = checkOptions('options', options, { known: ['signed'] })['signed'];
+    if (s !== undefined && typeof s !== 'boolean') fail('wrong-type', 'options.signed', 'a boolean', s);
+    signed = s === true;
+  }
+  if (signed) return checkRange(param, value, { min: -VOLTS_LIMITS.max, max: VOLTS_LIMITS.max });
+  return checkRange(param, checkPositive(param, value), VOLTS_LIMITS);
+}
+
+/** The caller's option an inner failure is reported against (see {@link blameOption}). */
+export interface OptionBlame {
+  /** The caller's option, as a dotted path. */
+  readonly param: string;
+  /** The value the caller gave for it. */
+  readonly value: unknown;
+  /** What the option must do, in the message grammar (`must leave a reading the bridge can take`). */
+  readonly requirement: string;
+}
+
+/**
+ * Runs a computation on values derived from the caller's options; a {@link BridgeworkError} from
+ * inside it (which names an internal quantity such as `ratio` or `armsOhms[0]`) is re-raised as
+ * `out-of-range` against the option the caller gave, with the inner message as the reason and
+ * the inner error as `cause`.
+ *
+ * @param blame - The option, its value and what it must do.
+ * @param compute - The computation.
+ * @returns What `compute` returns.
+ * @throws {@link BridgeworkError} `out-of-range` with `param` = `blame.param`, for any
+ *   `BridgeworkError` from `compute`; other errors pass through unchanged.
+ * @example
+ * ```ts
+ * blameOption({ param: 'ohmsPerLead', value: 1e9, requirement: 'must leave a reading the bridge can take' }, () =>
+ *   bridge.strainFromRatio(ratio),
+ * );
+ * ```
+ */
+export function blameOption<T>(blame: OptionBlame, compute: () => T): T {
+  try {
+    return compute();
+  } catch (e) {
+    if (!(e instanceof BridgeworkError)) throw e;
+    throw new BridgeworkError(
+      'out-of-range',
+      `\`${blame.param}\` ${blame.requirement}; got ${formatValue(blame.value)} (${e.message})`,
+      { param: blame.param, value: blame.value, cause: e },
+    );
+  }
 }

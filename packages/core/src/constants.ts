@@ -43,7 +43,9 @@ export const ZERO_CELSIUS_KELVIN = 273.15;
  * ```
  */
 export function kelvinFromCelsius(temperatureCelsius: number): number {
-  return checkRange('temperatureCelsius', temperatureCelsius, { min: -ZERO_CELSIUS_KELVIN }) + ZERO_CELSIUS_KELVIN;
+  return (
+    checkRange('temperatureCelsius', temperatureCelsius, { min: -ZERO_CELSIUS_KELVIN }) + ZERO_CELSIUS_KELVIN
+  );
 }
 
 /**

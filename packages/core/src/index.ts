@@ -10,6 +10,7 @@ export {
 } from './BridgeworkError.js';
 export {
   GAUGE_FACTOR_LIMITS,
+  blameOption,
   checkCelsius,
   checkFinite,
   checkInteger,
@@ -24,13 +25,17 @@ export {
   checkGaugeFactor,
   checkRange,
   checkStrain,
+  checkVolts,
   describeRange,
   formatValue,
   requireOption,
   OHMS_LIMITS,
+  VOLTS_LIMITS,
   type CheckOhmsOptions,
+  type CheckVoltsOptions,
   type CheckPositiveOptions,
   type FiniteResultBlame,
+  type OptionBlame,
   type OptionKeys,
   type RangeLimits,
 } from './checks.js';

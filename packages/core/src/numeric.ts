@@ -162,7 +162,6 @@ function differenceOfProductsChecked(a: unknown, b: unknown, c: unknown, d: unkn
   return result;
 }
 
-
 /**
  * The exact decimal expansion of a double, as a string (no rounding at all).
  *

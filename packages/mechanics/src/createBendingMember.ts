@@ -1,10 +1,4 @@
-import {
-  BridgeworkError,
-  checkFinite,
-  checkFiniteResult,
-  checkOptions,
-  checkStrain,
-} from '@bridgework/core';
+import { BridgeworkError, checkFinite, checkFiniteResult, checkOptions, checkStrain } from '@bridgework/core';
 import { checkGeometry } from './internal/inputs.js';
 import { readModulus, sectionOrDirect } from './internal/members.js';
 import type { Section } from './sectionProperties.js';
@@ -110,7 +104,9 @@ export function createBendingMember(options: BendingMemberOptions): BendingMembe
     'm³',
   );
   const leverArmMeters =
-    o['leverArmMeters'] === undefined ? undefined : checkGeometry('leverArmMeters', o['leverArmMeters'], 1, 'm');
+    o['leverArmMeters'] === undefined
+      ? undefined
+      : checkGeometry('leverArmMeters', o['leverArmMeters'], 1, 'm');
   const rigidity = modulusPascals * sectionModulusCubicMeters; // N·m per unit strain
 
   function leverArm(): number {

@@ -251,7 +251,12 @@ export function createRosette(options: RosetteOptions): Rosette {
 }
 
 /** Refuses a reduced strain outside (−1, 1): the legs are inconsistent for this layout. */
-function checkReducedStrain(name: string, value: number, legs: readonly unknown[], conditionNumber: number): void {
+function checkReducedStrain(
+  name: string,
+  value: number,
+  legs: readonly unknown[],
+  conditionNumber: number,
+): void {
   if (Math.abs(value) < 1) return;
   throw new BridgeworkError(
     'out-of-range',

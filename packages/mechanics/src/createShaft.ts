@@ -1,10 +1,4 @@
-import {
-  checkFinite,
-  checkFiniteResult,
-  checkOptions,
-  checkStrain,
-  requireOption,
-} from '@bridgework/core';
+import { checkFinite, checkFiniteResult, checkOptions, checkStrain, requireOption } from '@bridgework/core';
 import { checkExclusive, checkModulus, checkPoissonRatio, shearModulusOf } from './internal/inputs.js';
 import { checkDiameters, circularSectionProperties } from './sectionProperties.js';
 

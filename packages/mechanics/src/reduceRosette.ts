@@ -37,6 +37,9 @@ export interface ReduceRosetteOptions {
  * ```
  */
 export function reduceRosette(options: ReduceRosetteOptions): RosetteReduction {
-  const o = checkOptions('options', options, { known: ['layout', 'strains'], required: ['layout', 'strains'] });
+  const o = checkOptions('options', options, {
+    known: ['layout', 'strains'],
+    required: ['layout', 'strains'],
+  });
   return createRosette({ layout: o['layout'] as RosetteLayout }).reduce(o['strains'] as RosetteLegStrains);
 }

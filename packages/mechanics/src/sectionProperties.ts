@@ -1,4 +1,11 @@
-import { BridgeworkError, checkNonNegative, checkObject, checkOneOf, checkOptions, formatValue } from '@bridgework/core';
+import {
+  BridgeworkError,
+  checkNonNegative,
+  checkObject,
+  checkOneOf,
+  checkOptions,
+  formatValue,
+} from '@bridgework/core';
 import { checkGeometry } from './internal/inputs.js';
 
 /** A solid rectangular section, bent about the axis parallel to its width. */

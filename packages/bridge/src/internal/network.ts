@@ -1,4 +1,4 @@
-import { checkLength, checkOhms, checkPositive, checkRange, differenceOfProducts } from '@bridgework/core';
+import { checkLength, checkOhms, checkVolts, differenceOfProducts } from '@bridgework/core';
 
 /** The four arms as a tuple, R1…R4 in ring order. */
 export type Arms = readonly [number, number, number, number];
@@ -47,12 +47,9 @@ export interface Circuit {
   readonly meterOhms: number;
 }
 
-/** The largest excitation accepted, in V: far above any bridge's, and it keeps every current finite. */
-export const MAX_EXCITATION_VOLTS = 1e6;
-
-/** Checks an excitation EMF: (0, 1e6] V. */
+/** Checks an excitation EMF: in `VOLTS_LIMITS` of the core package, [1e-9, 1e6] V. */
 export function checkExcitation(param: string, value: unknown): number {
-  return checkRange(param, checkPositive(param, value), { max: MAX_EXCITATION_VOLTS });
+  return checkVolts(param, value);
 }
 
 export function checkCircuit(options: Record<string, unknown>): Circuit {
