@@ -433,13 +433,18 @@ export interface FiniteResultBlame {
  * @param result - The computed value.
  * @param blame - What it is, and the option (with its value) that the caller can change.
  * @returns `result`.
- * @throws {@link BridgeworkError} `out-of-range` with `param` = `blame.param`.
+ * @throws {@link BridgeworkError} `out-of-range` with `param` = `blame.param`; `wrong-type`,
+ *   `unknown-option` or `missing-option` for a malformed `blame` or a `result` that is not a number.
  * @example
  * ```ts
  * checkFiniteResult(1.2, { what: 'the wire resistance', param: 'lengthMeters', value: 10 }); // 1.2
  * ```
  */
 export function checkFiniteResult(result: number, blame: FiniteResultBlame): number {
+  const b = checkOptions('blame', blame, { known: ['what', 'param', 'value'], required: ['what', 'param'] });
+  if (typeof b['what'] !== 'string') fail('wrong-type', 'blame.what', 'a string', b['what']);
+  if (typeof b['param'] !== 'string') fail('wrong-type', 'blame.param', 'a string', b['param']);
+  if (typeof result !== 'number') fail('wrong-type', 'result', 'a number', result);
   if (Number.isFinite(result)) return result;
   throw new BridgeworkError(
     'out-of-range',
@@ -624,7 +629,9 @@ export interface OptionBlame {
  * @param compute - The computation.
  * @returns What `compute` returns.
  * @throws {@link BridgeworkError} `out-of-range` with `param` = `blame.param`, for any
- *   `BridgeworkError` from `compute`; other errors pass through unchanged.
+ *   `BridgeworkError` from `compute`; other errors pass through unchanged; `wrong-type`,
+ *   `unknown-option` or `missing-option` for a malformed `blame` or a `compute` that is not a
+ *   function.
  * @example
  * ```ts
  * blameOption({ param: 'ohmsPerLead', value: 1e9, requirement: 'must leave a reading the bridge can take' }, () =>
@@ -633,6 +640,14 @@ export interface OptionBlame {
  * ```
  */
 export function blameOption<T>(blame: OptionBlame, compute: () => T): T {
+  const b = checkOptions('blame', blame, {
+    known: ['param', 'value', 'requirement'],
+    required: ['param', 'requirement'],
+  });
+  if (typeof b['param'] !== 'string') fail('wrong-type', 'blame.param', 'a string', b['param']);
+  if (typeof b['requirement'] !== 'string')
+    fail('wrong-type', 'blame.requirement', 'a string', b['requirement']);
+  if (typeof compute !== 'function') fail('wrong-type', 'compute', 'a function', compute);
   try {
     return compute();
   } catch (e) {
