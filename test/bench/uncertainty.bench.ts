@@ -14,7 +14,11 @@ import { availableParallelism, loadavg } from 'node:os';
 import { performance } from 'node:perf_hooks';
 import { monteCarlo, sampleCoverageIntervals, type InputQuantities } from '@bridgework/uncertainty';
 import { createMonteCarloPool } from '@bridgework/uncertainty/node';
-import { twelveInputModel, twelveInputs } from '../../packages/uncertainty/test/support/benchModel.js';
+import {
+  twelveInputModel,
+  twelveInputPositional,
+  twelveInputs,
+} from '../../packages/uncertainty/test/support/benchModel.js';
 import { compare, report, sinkValue } from './harness.js';
 
 const trials = 1_000_000;
@@ -94,7 +98,7 @@ function naiveByHand(): number {
 let seed = 0;
 const ours = (): number => {
   const r = monteCarlo({ model: twelveInputModel, inputs, trials, seed: seed++ });
-  return r.value + r.interval.low + r.shortestInterval.high;
+  return r.value + r.interval.min + r.shortestInterval.max;
 };
 
 console.log(
@@ -124,6 +128,31 @@ console.log(
 );
 console.log(`  speed-up over naive generic: ${(1 / single.ratioToBaseline).toFixed(2)}×`);
 
+// Model forms (issue 13 item 5): named reads through the record, the positional form, and a
+// record read in a loop by computed keys (how a model over a parameter list written by name
+// tends to look). Same draws, same values; GUM comparison off so only the trials count.
+const orderOfInputs = twelveInputPositional.order;
+const parameters = new Float64Array(orderOfInputs.length);
+function recordReadInLoop(x: Readonly<Record<string, number>>): number {
+  for (let i = 0; i < orderOfInputs.length; i++) parameters[i] = x[orderOfInputs[i]!]!;
+  return twelveInputPositional.evaluate(parameters);
+}
+const formCases = [
+  { name: 'record model, named reads', model: twelveInputModel },
+  { name: 'positional model { order, evaluate }', model: twelveInputPositional },
+  { name: 'record model read in a loop by key', model: recordReadInLoop },
+] as const;
+const formResults = compare(
+  formCases.map((c, k) => ({
+    name: c.name,
+    opsPerCall: trials,
+    run: (call: number) =>
+      monteCarlo({ model: c.model, inputs, trials, seed: call + 1000 * k, compareWithGum: false }).value,
+  })),
+  { rounds: 7, minMillisPerRound: 100, warmupCalls: 3 },
+);
+report('uncertainty: model forms, 12 inputs, 10⁶ trials, per trial (ratio to the record form)', formResults);
+
 // Selection of the tails against a full sort, on the same 10⁶ model values.
 const values = monteCarlo({
   model: twelveInputModel,
@@ -144,7 +173,7 @@ const intervalResults = compare(
       opsPerCall: trials,
       run: () => {
         const r = sampleCoverageIntervals(values, 0.95);
-        return r.interval.low + r.shortestInterval.high;
+        return r.interval.min + r.shortestInterval.max;
       },
     },
   ],
@@ -155,7 +184,7 @@ report('uncertainty: coverage intervals of 10⁶ values, per value', intervalRes
 // Two worker threads against one thread, alternating, ratio per round.
 const pool = await createMonteCarloPool({
   model: {
-    module: new URL('../../packages/uncertainty/test/support/benchModel.ts', import.meta.url),
+    module: new URL('../../packages/uncertainty/test/support/benchModel.js', import.meta.url),
     exportName: 'twelveInputModel',
   },
   workers: 2,
@@ -164,8 +193,8 @@ const check = await pool.run({ inputs, trials, seed: 77 });
 const reference = monteCarlo({ model: twelveInputModel, inputs, trials, seed: 77 });
 const identical =
   check.value === reference.value &&
-  check.interval.low === reference.interval.low &&
-  check.shortestInterval.high === reference.shortestInterval.high;
+  check.interval.min === reference.interval.min &&
+  check.shortestInterval.max === reference.shortestInterval.max;
 for (let i = 0; i < 3; i++) await pool.run({ inputs, trials, seed: i }); // warm-up
 const rounds = 9;
 const single2: number[] = [];

@@ -4,7 +4,7 @@
  * same code drives the in-process runner (synchronously) and the worker pool (asynchronously).
  */
 import { BridgeworkError } from '@bridgework/core';
-import type { Interval } from '../types.js';
+import type { Interval } from '@bridgework/core';
 import { numericalTolerance } from '../validateGum.js';
 import { BLOCK_TRIALS, mergeMoments, type MomentAccumulator } from './engine.js';
 import { coveredCount, sampleIntervalsInPlace, type SampleIntervals } from './select.js';
@@ -19,6 +19,8 @@ export interface BlockRequest {
   readonly blockCount: number;
   /** Trials in those blocks: blockCount·BLOCK_TRIALS, or fewer when the last block ends the run. */
   readonly trials: number;
+  /** Trials of the run evaluated before this request (for progress). */
+  readonly trialsBefore: number;
 }
 
 /** The reply to a {@link BlockRequest}. */
@@ -76,14 +78,14 @@ export interface AdaptiveSpread {
   readonly value: number;
   /** s_u(y): the same for the standard uncertainty. */
   readonly standardUncertainty: number;
-  /** s_ylow: the same for the lower end of the probabilistically symmetric interval. */
-  readonly low: number;
-  /** s_yhigh: the same for its upper end. */
-  readonly high: number;
+  /** s_ylow: the same for the lower end (`min`) of the probabilistically symmetric interval. */
+  readonly min: number;
+  /** s_yhigh: the same for its upper end (`max`). */
+  readonly max: number;
   /** The same for the lower end of the shortest interval. */
-  readonly shortestLow: number;
+  readonly shortestMin: number;
   /** The same for the upper end of the shortest interval. */
-  readonly shortestHigh: number;
+  readonly shortestMax: number;
 }
 
 /** What the adaptive procedure did. */
@@ -162,6 +164,7 @@ export function* runProcedure(
       firstBlock: 0,
       blockCount: Math.ceil(settings.trials / BLOCK_TRIALS),
       trials: settings.trials,
+      trialsBefore: 0,
     };
     const reply = (yield request) as BlockReply;
     mergeBlocks(all, reply, request);
@@ -171,10 +174,10 @@ export function* runProcedure(
   // JCGM 101 7.9.4: sequences of M = max(J, 10⁴) trials, J the smallest integer ≥ 100/(1 − p),
   // here rounded up to whole seeding blocks so that every trial is computed once.
   const { significantDigits, maxTrials, interval } = settings.adaptive;
-  const j = Math.ceil(100 / (1 - settings.coverage) - 1e-9);
-  const blocksPerSequence = Math.ceil(Math.max(j, 1e4) / BLOCK_TRIALS);
-  const perSequence = blocksPerSequence * BLOCK_TRIALS;
-  let buffer = new Float64Array(4 * perSequence);
+  const perSequence = adaptiveSequenceTrials(settings.coverage);
+  const blocksPerSequence = perSequence / BLOCK_TRIALS;
+  const most = Math.floor(maxTrials / perSequence) * perSequence; // the trials of the sequences allowed
+  let buffer = new Float64Array(Math.min(4 * perSequence, most));
   const scratch = new Float64Array(perSequence);
   const sequences: SequenceResult[] = [];
   for (let h = 0; ; h++) {
@@ -190,10 +193,12 @@ export function* runProcedure(
       firstBlock: h * blocksPerSequence,
       blockCount: blocksPerSequence,
       trials: perSequence,
+      trialsBefore: h * perSequence,
     };
     const reply = (yield request) as BlockReply;
     if (buffer.length < (h + 1) * perSequence) {
-      const grown = new Float64Array(2 * buffer.length);
+      // Doubling, but never past the sequences maxTrials allows: at most 8 bytes per allowed trial.
+      const grown = new Float64Array(Math.min(2 * buffer.length, most));
       grown.set(buffer.subarray(0, h * perSequence));
       buffer = grown;
     }
@@ -212,15 +217,15 @@ export function* runProcedure(
     const spread: AdaptiveSpread = {
       value: spreadOfAverage(sequences.map((s) => s.value)),
       standardUncertainty: spreadOfAverage(sequences.map((s) => s.standardUncertainty)),
-      low: spreadOfAverage(sequences.map((s) => s.interval.low)),
-      high: spreadOfAverage(sequences.map((s) => s.interval.high)),
-      shortestLow: spreadOfAverage(sequences.map((s) => s.shortestInterval.low)),
-      shortestHigh: spreadOfAverage(sequences.map((s) => s.shortestInterval.high)),
+      min: spreadOfAverage(sequences.map((s) => s.interval.min)),
+      max: spreadOfAverage(sequences.map((s) => s.interval.max)),
+      shortestMin: spreadOfAverage(sequences.map((s) => s.shortestInterval.min)),
+      shortestMax: spreadOfAverage(sequences.map((s) => s.shortestInterval.max)),
     };
     const tolerance = numericalTolerance(Math.sqrt(all.m2 / (all.count - 1)), significantDigits);
     const tested = [spread.value, spread.standardUncertainty];
-    if (interval !== 'shortest') tested.push(spread.low, spread.high);
-    if (interval !== 'symmetric') tested.push(spread.shortestLow, spread.shortestHigh);
+    if (interval !== 'shortest') tested.push(spread.min, spread.max);
+    if (interval !== 'symmetric') tested.push(spread.shortestMin, spread.shortestMax);
     if (tested.every((s) => 2 * s <= tolerance)) {
       const report: AdaptiveReport = {
         sequences: sequences.length,
@@ -233,6 +238,15 @@ export function* runProcedure(
       return yield* finish(buffer.subarray(0, all.count), all, settings, report);
     }
   }
+}
+
+/**
+ * Trials per sequence of the adaptive procedure: M = max(J, 10⁴), J the smallest integer
+ * ≥ 100/(1 − p) (JCGM 101 7.9.4), rounded up to whole seeding blocks.
+ */
+export function adaptiveSequenceTrials(coverage: number): number {
+  const j = Math.ceil(100 / (1 - coverage) - 1e-9);
+  return Math.ceil(Math.max(j, 1e4) / BLOCK_TRIALS) * BLOCK_TRIALS;
 }
 
 /**
