@@ -22,7 +22,8 @@ export interface BaseCall {
   readonly invoke: (args: unknown[]) => unknown;
   /**
    * Result paths where a non-finite number is the documented answer (`strainRange.max` of a
-   * quarter bridge is +∞), as dotted patterns; `*` matches any one key or index.
+   * quarter bridge is +∞), as dotted patterns; `*` matches any one key or index, a leading `**.`
+   * any prefix.
    */
   readonly nonFinite?: readonly string[];
   /**
@@ -87,6 +88,11 @@ function isEvaluator(x: Record<string, unknown>): boolean {
 
 function matches(pattern: string, path: Path): boolean {
   if (pattern === '') return path.length === 0;
+  // `**.key` matches `key` at any depth.
+  if (pattern.startsWith('**.')) {
+    const tail = pattern.slice(3).split('.');
+    return path.length >= tail.length && matches(tail.join('.'), path.slice(path.length - tail.length));
+  }
   const parts = pattern.split('.');
   return parts.length === path.length && parts.every((p, i) => p === '*' || p === String(path[i]));
 }

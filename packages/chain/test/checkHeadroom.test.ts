@@ -135,7 +135,7 @@ describe('checkHeadroom: bad inputs', () => {
     [
       'a point without common mode',
       { points: [{ differentialVolts: 0 }], gain: 1 },
-      'wrong-type',
+      'missing-option',
       'points[0].commonModeVolts',
     ],
     [

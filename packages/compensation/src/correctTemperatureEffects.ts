@@ -4,7 +4,7 @@ import {
   checkFinite,
   checkGaugeFactor,
   checkOptions,
-  checkStrain,
+  checkFiniteResult,
   formatValue,
   requireOption,
   blameOption,
@@ -135,8 +135,8 @@ function check(o: Record<string, unknown>): Checked {
  * @returns The corrected mechanical strain since zeroing, m/m.
  * @throws {@link @bridgework/core!BridgeworkError} `missing-option` when β is given without its
  *   reference temperature; `out-of-range` for a temperature outside the thermal output's range or
- *   one that makes GF(T) leave [0.01, 1000], a temperature at or below −273.15 °C, a strain outside
- *   (−1, 1) m/m or a gauge factor outside [0.01, 1000]; `wrong-type` for a `thermalOutput` that is
+ *   one that makes GF(T) leave [0.01, 1000], a temperature at or below −273.15 °C, a gauge factor
+ *   outside [0.01, 1000], or a strain whose result would exceed binary64; `wrong-type` for a `thermalOutput` that is
  *   not an evaluator; `not-positive`, `not-finite` for bad numbers; `unknown-option` for a key it
  *   does not know (naming the closest), `missing-option` for a required one.
  * @example
@@ -158,9 +158,13 @@ export function correctTemperatureEffects(options: CorrectTemperatureEffectsOpti
     known: [...gaugeTemperatureKeys, 'indicatedStrain'],
     required: [...gaugeTemperatureRequired, 'indicatedStrain'],
   });
-  const indicatedStrain = checkStrain('indicatedStrain', o['indicatedStrain']);
+  const indicatedStrain = checkFinite('indicatedStrain', o['indicatedStrain']);
   const c = check(o);
-  return ((indicatedStrain - c.thermalStrain) * c.gaugeFactorSetting) / c.gaugeFactorNow;
+  return checkFiniteResult(((indicatedStrain - c.thermalStrain) * c.gaugeFactorSetting) / c.gaugeFactorNow, {
+    what: 'the corrected strain',
+    param: 'indicatedStrain',
+    value: indicatedStrain,
+  });
 }
 
 /**
@@ -188,7 +192,11 @@ export function indicatedStrainWithTemperatureEffects(
     known: [...gaugeTemperatureKeys, 'strain'],
     required: [...gaugeTemperatureRequired, 'strain'],
   });
-  const strain = checkStrain('strain', o['strain']);
+  const strain = checkFinite('strain', o['strain']);
   const c = check(o);
-  return (strain * c.gaugeFactorNow) / c.gaugeFactorSetting + c.thermalStrain;
+  return checkFiniteResult((strain * c.gaugeFactorNow) / c.gaugeFactorSetting + c.thermalStrain, {
+    what: 'the indicated strain',
+    param: 'strain',
+    value: strain,
+  });
 }

@@ -1,4 +1,4 @@
-import { checkFiniteResult, checkLength, checkOptions, checkStrain } from '@bridgework/core';
+import { checkFinite, checkFiniteResult, checkLength, checkOptions } from '@bridgework/core';
 import { checkPoissonRatio0, checkTransverseSensitivities } from './internal/transverse.js';
 
 /** Options of {@link correctTransversePair}. */
@@ -31,7 +31,8 @@ export interface CorrectTransversePairOptions {
  * @returns The true strains `[εx, εy]`, m/m.
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-shape` unless `strains` has two
  *   entries (and a Kt array two); `out-of-range` for Kt outside (−1, 1) or ν0 outside (−1, 0.5];
- *   `out-of-range` for a strain outside (−1, 1) m/m; `not-finite`, `wrong-type` for bad numbers;
+ *   `out-of-range` (against `strains`) when a corrected strain would exceed binary64; `not-finite`,
+ *   `wrong-type` for bad numbers;
  *   `unknown-option` for a key it does not know (naming the closest), `missing-option` for a
  *   required one.
  * @example
@@ -46,8 +47,8 @@ export function correctTransversePair(options: CorrectTransversePairOptions): [n
     required: ['strains', 'transverseSensitivity'],
   });
   const strains = checkLength<unknown>('strains', o['strains'], 2);
-  const ex = checkStrain('strains[0]', strains[0]);
-  const ey = checkStrain('strains[1]', strains[1]);
+  const ex = checkFinite('strains[0]', strains[0]);
+  const ey = checkFinite('strains[1]', strains[1]);
   const [kx, ky] = checkTransverseSensitivities(o['transverseSensitivity'], 2) as [number, number];
   const nu0 = checkPoissonRatio0(o['poissonRatio0']);
   // Readings scaled back to Fa: ε̂·(1 − ν0·K) = ε_axial + K·ε_transverse.
@@ -56,8 +57,8 @@ export function correctTransversePair(options: CorrectTransversePairOptions): [n
   const det = 1 - kx * ky;
   const blame = {
     what: 'the corrected strains',
-    param: 'transverseSensitivity',
-    value: o['transverseSensitivity'],
+    param: 'strains',
+    value: o['strains'],
   };
   return [checkFiniteResult((sx - kx * sy) / det, blame), checkFiniteResult((sy - ky * sx) / det, blame)];
 }

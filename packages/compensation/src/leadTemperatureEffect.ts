@@ -1,4 +1,4 @@
-import { checkOhms, checkOptions, checkStrain, blameOption } from '@bridgework/core';
+import { blameOption, checkFinite, checkOhms, checkOptions } from '@bridgework/core';
 import type { QuarterBridgeGaugeOptions } from './leadDesensitization.js';
 import { checkQuarterSetup, quarterBridge, quarterGaugeKeys } from './internal/leads.js';
 
@@ -46,7 +46,7 @@ const ZERO_OK = { allowZero: true } as const;
  * @param options - Bridge, wiring, reference and present lead resistance, true strain.
  * @returns Zero shift (V/V), indicated and apparent strain (m/m), span change (fraction).
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for a wiring other than
- *   two- or three-wire; `out-of-range` for a strain outside (−1, 1) m/m or the bridge's strain
+ *   two- or three-wire; `out-of-range` for a strain outside the bridge's strain
  *   range (also when the reading at the new lead resistance is beyond what the reference bridge
  *   reads), a gauge factor outside [0.01, 1000] or a resistance outside `OHMS_LIMITS`;
  *   `not-positive`, `negative`, `not-finite`, `wrong-type` for bad numbers;
@@ -68,7 +68,7 @@ export function leadTemperatureEffect(options: LeadTemperatureEffectOptions): Le
   const setup = checkQuarterSetup(o);
   const referenceOhmsPerLead = checkOhms('referenceOhmsPerLead', o['referenceOhmsPerLead'], ZERO_OK);
   const ohmsPerLead = checkOhms('ohmsPerLead', o['ohmsPerLead'], ZERO_OK);
-  const strain = o['strain'] === undefined ? 0 : checkStrain('strain', o['strain']);
+  const strain = o['strain'] === undefined ? 0 : checkFinite('strain', o['strain']);
   const reference = quarterBridge(setup, referenceOhmsPerLead);
   const now = quarterBridge(setup, ohmsPerLead);
   const indicatedStrain = blameOption(

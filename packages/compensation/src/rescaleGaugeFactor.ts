@@ -1,4 +1,4 @@
-import { checkGaugeFactor, checkOptions, checkStrain } from '@bridgework/core';
+import { checkFinite, checkFiniteResult, checkGaugeFactor, checkOptions } from '@bridgework/core';
 
 /** Options of {@link rescaleGaugeFactor}. */
 export interface RescaleGaugeFactorOptions {
@@ -24,7 +24,8 @@ export interface RescaleGaugeFactorOptions {
  * @param options - The indicated strain and the two gauge factors.
  * @returns The strain referred to `toGaugeFactor`, m/m.
  * @throws {@link @bridgework/core!BridgeworkError} `not-positive`, `not-finite`, `wrong-type`;
- *   `out-of-range` for a strain outside (−1, 1) m/m or a gauge factor outside [0.01, 1000];
+ *   `out-of-range` for a gauge factor outside [0.01, 1000], or a strain whose rescaled value would
+ *   exceed binary64;
  *   `unknown-option` for a key it does not know (naming the closest), `missing-option` for a
  *   required one.
  * @example
@@ -38,8 +39,12 @@ export function rescaleGaugeFactor(options: RescaleGaugeFactorOptions): number {
     known: ['strain', 'fromGaugeFactor', 'toGaugeFactor'],
     required: ['strain', 'fromGaugeFactor', 'toGaugeFactor'],
   });
-  const strain = checkStrain('strain', o['strain']);
+  const strain = checkFinite('strain', o['strain']);
   const from = checkGaugeFactor('fromGaugeFactor', o['fromGaugeFactor']);
   const to = checkGaugeFactor('toGaugeFactor', o['toGaugeFactor']);
-  return (strain * from) / to;
+  return checkFiniteResult((strain * from) / to, {
+    what: 'the rescaled strain',
+    param: 'strain',
+    value: strain,
+  });
 }

@@ -38,14 +38,21 @@ describe('regressions: finite inputs never give non-finite outputs (issue 15, it
     ).toThrowBridgeworkError('out-of-range', { param: 'completionOhms' });
   });
 
-  it('correctRosetteTransverse refuses a strain of 1e308 (outside (−1, 1) m/m), not NaN', () => {
+  it('correctRosetteTransverse gives a finite correction for a strain of 1e308, and refuses one that overflows', () => {
+    // The correction is linear in the legs: at 1e308 it is 1e308 times the correction at 1 (the
+    // solve is done on scaled legs, so nothing overflows on the way; it gave NaN before).
+    const options = { layout: 'rectangular', transverseSensitivity: 0.02 } as const;
+    const unit = correctRosetteTransverse({ ...options, strains: [0, 1, 0] });
+    const huge = correctRosetteTransverse({ ...options, strains: [0, 1e308, 0] });
+    expect(huge).toBeNear(
+      unit.map((e) => e * 1e308),
+      { rel: 1e-14, abs: 1e-15 * 1e308 },
+    );
+    // Leg b's factor exceeds 1, so the largest double would overflow: refused against `strains`.
+    expect(unit[1]).toBeGreaterThan(1);
     expect(() =>
-      correctRosetteTransverse({
-        layout: 'rectangular',
-        strains: [1e308, 0, 0],
-        transverseSensitivity: 0.02,
-      }),
-    ).toThrowBridgeworkError('out-of-range', { param: 'strains[0]' });
+      correctRosetteTransverse({ ...options, strains: [0, Number.MAX_VALUE, 0] }),
+    ).toThrowBridgeworkError('out-of-range', { param: 'strains' });
   });
 
   it('wireOhms refuses a diameter so small that the resistance would be infinite', () => {
