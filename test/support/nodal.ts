@@ -82,7 +82,11 @@ export function solveNetwork(network: Network): NetworkSolution {
     .filter((r) => r.ohms !== 0 && r.ohms !== Infinity)
     .map((r) => ({ a: find(r.a), b: find(r.b), g: div(one, big(r.ohms)) }))
     .filter((r) => r.a !== r.b);
-  const sources = (network.sources ?? []).map((s) => ({ plus: find(s.plus), minus: find(s.minus), volts: s.volts }));
+  const sources = (network.sources ?? []).map((s) => ({
+    plus: find(s.plus),
+    minus: find(s.minus),
+    volts: s.volts,
+  }));
   const injections = (network.injections ?? []).map((i) => ({ node: find(i.node), amps: i.amps }));
   const named = [
     ...resistors.flatMap((r) => [r.a, r.b]),
@@ -123,7 +127,9 @@ export function solveNetwork(network: Network): NetworkSolution {
   const x =
     size === 0
       ? []
-      : ((math.lusolve(math.matrix(g), math.matrix(rhs.map((v) => [v]))) as Matrix).toArray() as BigNumber[][]);
+      : ((
+          math.lusolve(math.matrix(g), math.matrix(rhs.map((v) => [v]))) as Matrix
+        ).toArray() as BigNumber[][]);
   const volts = (node: string): BigNumber => {
     const n = find(node);
     if (n === ground) return zero;
@@ -209,8 +215,19 @@ function bridgeResistors(n: Omit<BridgeNetwork, 'excitationVolts'>): Resistor[] 
 /** Solves the bridge with its EMF (nodes `emf`, `E+`, `E-` = ground, `S+`, `S-`). */
 export function solveBridgeNetwork(n: BridgeNetwork): BridgeState {
   const resistors = bridgeResistors(n);
-  const s = solveNetwork({ resistors, sources: [{ plus: 'emf', minus: 'E-', volts: n.excitationVolts }], ground: 'E-' });
-  const [arm1, arm2, arm3, arm4, , meter] = resistors as [Resistor, Resistor, Resistor, Resistor, Resistor, Resistor];
+  const s = solveNetwork({
+    resistors,
+    sources: [{ plus: 'emf', minus: 'E-', volts: n.excitationVolts }],
+    ground: 'E-',
+  });
+  const [arm1, arm2, arm3, arm4, , meter] = resistors as [
+    Resistor,
+    Resistor,
+    Resistor,
+    Resistor,
+    Resistor,
+    Resistor,
+  ];
   return {
     outputVolts: sub(s.volts('S+'), s.volts('S-')).toNumber(),
     bridgeVolts: s.volts('E+').toNumber(),

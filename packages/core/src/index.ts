@@ -9,30 +9,20 @@ export {
   type SpecIssue,
 } from './BridgeworkError.js';
 export {
-  GAUGE_FACTOR_LIMITS,
   blameOption,
-  checkCelsius,
   checkFinite,
   checkInteger,
   checkLength,
   checkNonNegative,
   checkObject,
-  checkOhms,
   checkOneOf,
   checkOptions,
-  checkPositive,
   checkFiniteResult,
-  checkGaugeFactor,
+  checkPositive,
   checkRange,
-  checkStrain,
-  checkVolts,
   describeRange,
   formatValue,
   requireOption,
-  OHMS_LIMITS,
-  VOLTS_LIMITS,
-  type CheckOhmsOptions,
-  type CheckVoltsOptions,
   type CheckPositiveOptions,
   type FiniteResultBlame,
   type OptionBlame,
@@ -40,6 +30,18 @@ export {
   type RangeLimits,
 } from './checks.js';
 export { closestName, editDistance } from './closestName.js';
+export {
+  GAUGE_FACTOR_LIMITS,
+  OHMS_LIMITS,
+  VOLTS_LIMITS,
+  checkCelsius,
+  checkGaugeFactor,
+  checkOhms,
+  checkStrain,
+  checkVolts,
+  type CheckOhmsOptions,
+  type CheckVoltsOptions,
+} from './limits.js';
 export { checkInterval, type Interval } from './Interval.js';
 export {
   BOLTZMANN_JOULES_PER_KELVIN,
