@@ -26,13 +26,15 @@ import {
   withValue,
   type BaseCall,
 } from './harness.js';
-import { knownDefects, knownOptionDefects, type KnownDefect } from './knownDefects.js';
+import { isKnown, knownDefects, knownOptionDefects, type KnownDefect } from './knownDefects.js';
 import type { FuzzFailure, FuzzJob, FuzzReport } from './worker.js';
 
 /** Splits findings into known ones (by entry) and new ones; entries that match nothing are stale. */
 function sortOut(found: readonly string[], known: readonly KnownDefect[]) {
-  const fresh = found.filter((f) => !known.some((k) => f.startsWith(k.cases)));
-  const stale = known.filter((k) => !found.some((f) => f.startsWith(k.cases))).map((k) => k.cases);
+  const fresh = found.filter((f) => !known.some((k) => isKnown(f, k)));
+  const stale = known
+    .filter((k) => k.random !== true && !found.some((f) => isKnown(f, k)))
+    .map((k) => String(k.cases));
   return { fresh, stale };
 }
 
