@@ -222,12 +222,10 @@ export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
 
   let leadsInArms: [number, number, number, number] = [0, 0, 0, 0];
   let seriesOhms = sourceOhms;
-  let leads: LeadsOptions | undefined;
   if (o['leads'] !== undefined) {
     const l = checkObject('leads', o['leads']);
     const ohmsPerLead = checkNonNegative('leads.ohmsPerLead', l['ohmsPerLead']);
     const wiring = checkOneOf('leads.wiring', l['wiring'], info.wirings);
-    leads = { ohmsPerLead, wiring };
     if (wiring === 'two-wire') {
       leadsInArms =
         arrangement === 'quarter' ? [2 * ohmsPerLead, 0, 0, 0] : [2 * ohmsPerLead, 0, 2 * ohmsPerLead, 0];

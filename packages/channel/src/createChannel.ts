@@ -27,7 +27,7 @@ import {
 // (@types/node) declare it in full; this empty declaration merges with theirs, and lets a project
 // with neither (lib ES2022 alone) type-check these declarations.
 declare global {
-  // eslint-disable-next-line @typescript-eslint/no-explicit-any, @typescript-eslint/no-empty-object-type, @typescript-eslint/no-unused-vars
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any, @typescript-eslint/no-empty-object-type
   interface TransformStream<I = any, O = any> {}
 }
 /** Codes accepted by the converters: integer codes, or codes already averaged to non-integers. */

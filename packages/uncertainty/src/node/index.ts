@@ -274,7 +274,6 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
       })),
     );
     const counts = replies.map((r) => (r.type === 'tails' ? r : { low: -1, high: -1 }));
-    const total = (side: 'low' | 'high'): number => counts.reduce((a, c) => a + c[side], 0);
     if (counts.every((c) => c.low >= 0)) {
       const side = (which: 'low' | 'high'): Float64Array[] =>
         parts.map(
