@@ -167,7 +167,7 @@ describe('bridgework uncertainty', () => {
   it('prints a table of the Monte Carlo and GUM results with the clause 8 verdict', async () => {
     const r = await run(argv);
     expect(r.stdout).toMatch(
-      /^Monte Carlo uncertainty \(JCGM 101\): examples\/footbridge-monitoring\.yaml$/m,
+      /^Monte Carlo uncertainty \(JCGM 101\): packages\/cli\/demo\/footbridge-monitoring\.yaml$/m,
     );
     expect(r.stdout).toMatch(
       /12000 trials per channel in 2 batches; seed 5 \(batch i runs with seed \+ i·2³²\)/,
