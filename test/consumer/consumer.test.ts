@@ -43,7 +43,7 @@ import {
 } from './support/bundle.js';
 import { startLocalRegistry, type LocalRegistry, type PackedPackage } from './support/localRegistry.js';
 import { readmeExample, toCommonJs } from './support/readmeExamples.js';
-import { run, runOk } from './support/run.js';
+import { run, runOk, type RunResult } from './support/run.js';
 import { readPackedManifest, readTarball } from './support/tarball.js';
 
 const root = fileURLToPath(new URL('../..', import.meta.url));
@@ -62,6 +62,10 @@ let tmp = '';
 let tarballs: PackedPackage[] = [];
 let registry: LocalRegistry | undefined;
 let registryWithBumps: LocalRegistry | undefined;
+/** An empty registry for `npm publish --dry-run` (npm asks who is logged in and whether the version exists). */
+let emptyRegistry: LocalRegistry | undefined;
+/** The dry-run publications of the unpacked tarballs, started while npm installs (they are independent). */
+let publications: Promise<RunResult[]> = Promise.resolve([]);
 /** Where each throwaway project lives. */
 const at = {
   project: '',
@@ -125,6 +129,27 @@ beforeAll(async () => {
   );
 
   registry = await startLocalRegistry(tarballs);
+  emptyRegistry = await startLocalRegistry([]);
+  const empty = emptyRegistry;
+  // From the unpacked folder, as `npm publish` in a package folder: npm then normalises the
+  // manifest itself and warns about what it corrects (a `./dist/bin.js` bin is dropped, for one).
+  publications = Promise.all(
+    tarballs.map(async (t) => {
+      const dir = join(tmp, 'unpacked', basename(t.file, '.tgz'));
+      mkdirSync(dir, { recursive: true });
+      await runOk('tar', ['-xzf', t.file, '-C', dir], { cwd: tmp });
+      const args = [
+        'publish',
+        join(dir, 'package'),
+        '--dry-run',
+        '--json',
+        `--registry=${empty.url}`,
+        ...npmArgs(empty),
+      ];
+      return run('npm', args, { cwd: tmp });
+    }),
+  );
+  publications.catch(() => undefined); // awaited (and reported) by its test
   registryWithBumps = await startLocalRegistry([
     ...tarballs,
     await bumpedCore('0.1.1'),
@@ -169,6 +194,8 @@ beforeAll(async () => {
 afterAll(async () => {
   await registry?.close();
   await registryWithBumps?.close();
+  await publications.catch(() => undefined);
+  await emptyRegistry?.close();
   if (tmp === '') return;
   if (keep) console.log(`consumer test folder kept: ${tmp}`);
   else rmSync(tmp, { recursive: true, force: true });
@@ -239,16 +266,9 @@ describe('the packed tarballs', () => {
     }
   });
 
-  it('publish cleanly: npm publish --dry-run of each warns about nothing', async () => {
-    // An empty registry: npm asks who is logged in and whether the version exists already.
-    const empty = await startLocalRegistry([]);
-    const results = await Promise.all(
-      tarballs.map((t) =>
-        run('npm', ['publish', t.file, '--dry-run', `--registry=${empty.url}`, ...npmArgs(empty)], {
-          cwd: tmp,
-        }),
-      ),
-    ).finally(() => empty.close());
+  it('publish cleanly: npm publish --dry-run of each unpacked tarball warns about nothing', async () => {
+    const results = await publications;
+    expect(results).toHaveLength(tarballs.length);
     results.forEach((r, i) => {
       const name = tarballs[i]!.name;
       expect(r.status, `${name}\n${r.stderr}`).toBe(0);
@@ -256,7 +276,16 @@ describe('the packed tarballs', () => {
         r.stderr.split('\n').filter((l) => /\bwarn|\berr/i.test(l)),
         name,
       ).toEqual([]);
-      expect(r.stdout, name).toContain(`+ ${name}@${tarballs[i]!.version}`);
+      // npm, packing the unpacked folder by its own rules, takes exactly the files pnpm packed.
+      const report = (JSON.parse(r.stdout) as Record<string, { id: string; files: { path: string }[] }>)[
+        name
+      ];
+      expect(report?.id).toBe(`${name}@${tarballs[i]!.version}`);
+      expect(report?.files.map((f) => `package/${f.path}`).sort(), name).toEqual(
+        readTarball(tarballs[i]!.file)
+          .map((e) => e.path)
+          .sort(),
+      );
     });
   });
 });
@@ -448,9 +477,22 @@ describe('(d) the CLI installed globally, run from an unrelated folder', () => {
     expect(r.stdout).toMatch(/support, and do not replace,\s+qualified engineering judgement/);
   });
 
-  it('runs demo with the example files shipped inside the package', async () => {
-    const r = await bridgework(['demo']);
+  it('runs demo with the channel file shipped inside the package, not a look-alike in the folder', async () => {
+    // A decoy where a repository-relative lookup would land (issue 18, item 1).
+    mkdirSync(join(at.elsewhere, 'examples'), { recursive: true });
+    writeFileSync(join(at.elsewhere, 'examples', 'footbridge-monitoring.yaml'), 'channels: not a channel\n');
+    const r = await bridgework(['demo', '--dir', 'demo-out']);
     expect(r.status, r.stdout + r.stderr).toBe(0);
+    const shipped = join(
+      at.prefix,
+      'lib',
+      'node_modules',
+      'bridgework',
+      'demo',
+      'footbridge-monitoring.yaml',
+    );
+    expect(r.stdout.split('\n')[0]).toBe(`bridgework demo: the design report of ${shipped},`);
+    expect(r.stdout).toContain('Every check passed');
     expect(r.stdout).toMatch(/support, and do not replace,\s+qualified engineering judgement/);
   });
 });
