@@ -46,6 +46,42 @@ export type {
   StrainFromShuntOptions,
 } from './shuntOptions.js';
 export {
+  checkEccentricity,
+  instrumentAccuracyClasses,
+  type EccentricityCheck,
+  type EccentricityCheckOptions,
+  type EccentricityRow,
+  type InstrumentAccuracyClass,
+} from './platform/checkEccentricity.js';
+export {
+  fitCornerFactors,
+  type CornerFactors,
+  type CornerFactorsOptions,
+  type CornerIndication,
+} from './platform/fitCornerFactors.js';
+export {
+  fitSummingTrims,
+  summingNetworkRatio,
+  type SummingNetworkOptions,
+  type SummingNetworkRatioOptions,
+  type SummingTrims,
+  type SummingTrimsOptions,
+  type TrimPlacement,
+} from './platform/summingNetwork.js';
+export {
+  fitMultiComponent,
+  type LoadingPoint,
+  type LoadStateMonteCarloOptions,
+  type LoadStateOptions,
+  type LoadStateUncertainty,
+  type MultiComponentCalibration,
+  type MultiComponentFitOptions,
+  type MultiComponentInverse,
+  type MultiComponentInverseOptions,
+  type RejectedTerm,
+} from './multicomponent/fitMultiComponent.js';
+export { interactionTermChoices, type InteractionTerms, type ModelTerm } from './multicomponent/terms.js';
+export {
   nearestPreferredValue,
   preferredSeries,
   preferredValues,
