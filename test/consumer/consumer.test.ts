@@ -199,7 +199,7 @@ afterAll(async () => {
   if (tmp === '') return;
   if (keep) console.log(`consumer test folder kept: ${tmp}`);
   else rmSync(tmp, { recursive: true, force: true });
-});
+}, 120_000);
 
 describe('the packed tarballs', () => {
   it('hold dist, sources, README, LICENSE and CHANGELOG; no build info, tests, scripts or workspace ranges', () => {

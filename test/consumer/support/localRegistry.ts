@@ -80,7 +80,11 @@ export async function startLocalRegistry(packages: readonly PackedPackage[]): Pr
   return {
     url: base,
     npmArgs: [`--@bridgework:registry=${base}`, `--//127.0.0.1:${address.port}/:_authToken=consumer-test`],
-    close: () => new Promise<void>((resolve) => server.close(() => resolve())),
+    close: () =>
+      new Promise<void>((resolve) => {
+        server.close(() => resolve());
+        server.closeAllConnections(); // npm keeps its sockets alive
+      }),
   };
 }
 
