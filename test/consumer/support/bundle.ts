@@ -7,7 +7,7 @@ import { gzipSync } from 'node:zlib';
 import { build } from 'esbuild';
 
 /** The budget of the conversion path (`createChannel` + `convert`), gzipped bytes. */
-export const CONVERSION_PATH_BUDGET_GZIP_BYTES = 63_000;
+export const CONVERSION_PATH_BUDGET_GZIP_BYTES = 66_000;
 
 /**
  * The target once the channel's budget and constants no longer hang on the conversion path
