@@ -262,7 +262,6 @@ export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
 
   let leadsInArms: [number, number, number, number] = [0, 0, 0, 0];
   let seriesOhms = sourceOhms;
-  let leads: LeadsOptions | undefined;
   if (o['leads'] !== undefined) {
     const l = checkOptions('leads', o['leads'], {
       known: ['ohmsPerLead', 'wiring'],
@@ -270,7 +269,6 @@ export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
     });
     const ohmsPerLead = checkOhms('leads.ohmsPerLead', l['ohmsPerLead'], ZERO_OK);
     const wiring = checkOneOf('leads.wiring', l['wiring'], info.wirings);
-    leads = { ohmsPerLead, wiring };
     if (wiring === 'two-wire') {
       leadsInArms =
         arrangement === 'quarter' ? [2 * ohmsPerLead, 0, 0, 0] : [2 * ohmsPerLead, 0, 2 * ohmsPerLead, 0];
