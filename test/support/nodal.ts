@@ -20,7 +20,6 @@ const zero = math.bignumber(0);
 const one = math.bignumber(1);
 const add = (x: BigNumber, y: BigNumber): BigNumber => math.add(x, y) as BigNumber;
 const sub = (x: BigNumber, y: BigNumber): BigNumber => math.subtract(x, y) as BigNumber;
-const mul = (x: BigNumber, y: BigNumber): BigNumber => math.multiply(x, y) as BigNumber;
 const div = (x: BigNumber, y: BigNumber): BigNumber => math.divide(x, y) as BigNumber;
 
 /** A resistor between two named nodes: 0 Ω is a wire (its nodes merge), `Infinity` is absent. */

@@ -1,4 +1,3 @@
-import type { BridgeworkError } from './BridgeworkError.js';
 import { checkNonNegative, checkRange } from './checks.js';
 
 /**
