@@ -66,7 +66,7 @@ export const constants: Partial<Record<LibraryPackage, readonly string[]>> = {
     'errorCodes',
     'leadWirings',
   ],
-  bridge: ['strainArrangements'],
+  bridge: ['arrangementTable', 'strainArrangements'],
   compensation: [
     'ANNEALED_COPPER',
     'CALIBRATION_POISSON_RATIO',
