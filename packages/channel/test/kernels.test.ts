@@ -158,7 +158,7 @@ describe('issue 15 item 1: conversion in place keeps rail codes rejected', () =>
     excitation: { volts: 5 },
     amplifier: { gain: 128 },
     adc: { bits: 24, referenceVolts: 5, ratiometric: true },
-    output: { quantity: 'microstrain' },
+    output: { quantity: 'strain', unit: 'µε' },
   };
   const codes = [1000, RAIL_HIGH, RAIL_LOW, 1e12];
 
