@@ -291,8 +291,12 @@ describe('mainsRejection', () => {
     const delta = 1.7228547477543545e-9;
     expect(50 - delta + 2 * delta).toBeGreaterThan(50 + delta); // the rounding that misled the scan
     const r = mainsRejection({ filter, mainsHertz: 50, deviationHertz: delta });
-    // |sinc(f)| next to its null at n = 50: |sin(π(f − 50))|/(πf) ≈ δ/50 at either edge.
-    expect(10 ** (-r.worstDecibels / 20)).toBeNear(delta / 50, { rel: 1e-6 });
+    // |sinc(f)| next to its null at 50 Hz is |sin(π(f − 50))|/(πf) = (|f − 50|/f)·(1 − O(1e-17)),
+    // worst at the band end farther from 50 as doubles (f − 50 is exact there: Sterbenz).
+    const lo = 50 - delta;
+    const hi = 50 + delta;
+    const worst = Math.max((50 - lo) / lo, (hi - 50) / hi);
+    expect(10 ** (-r.worstDecibels / 20)).toBeNear(worst, { rel: 1e-12 });
     expect(10 ** (-r.worstDecibels / 20)).toBeGreaterThanOrEqual(denseScan(filter, 50, delta) * (1 - 1e-12));
   });
 
