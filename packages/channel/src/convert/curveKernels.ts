@@ -10,9 +10,9 @@
  * compensation package, then the output unit), in the same order, so its results are bit-identical
  * to that path (checked over every code of a 24-bit range in the tests): above 0 °C the quadratic's
  * root in the cancellation-free form t = 2x/(A + √(A² + 4Bx)), x = R/R0 − 1; below 0 °C the same
- * safeguarded Newton iteration on the quartic, started from the quadratic's root. Anything else (a
- * code outside the valid codes, a resistance outside the curve's range, an iteration that does
- * not converge) goes to the scalar path, which decides between a value and a rejection.
+ * safeguarded Newton iteration on the quartic, started from the quadratic's root. A code outside
+ * the valid codes or a resistance outside the curve's range is rejected, as the scalar path
+ * rejects it; an iteration that would not converge goes to the scalar path.
  */
 import { createRtd } from '@bridgework/compensation';
 import type { Codes, RejectTally } from './kernel.js';
@@ -136,20 +136,23 @@ export function convertCallendarVanDusen(
     let t = Number.NaN;
     if (x > lo && x < hi) {
       const ohms = (ra * x + rb) / (rc * x + rd);
+      // The scalar path refuses a resistance outside the curve's range (or not a number): rejected.
       if (ohms >= minOhms && ohms <= maxOhms) {
         const target = ohms / r0Ohms - 1;
         const disc = aa + b4 * target;
         const quadratic = disc >= 0 ? (2 * target) / (a + Math.sqrt(disc)) : target / a;
         t = target >= 0 ? quadratic : belowZero(k, target, quadratic);
+        if (t !== t) {
+          // An iteration that would not converge: the scalar path decides (its value is in the unit).
+          const q = scalar(x);
+          if (q === q) {
+            out[o] = q;
+            continue;
+          }
+        }
       }
     }
-    if (t === t) {
-      out[o] = unit === 0 ? t : unit === 1 ? t + ZERO_CELSIUS_KELVIN : (t * 9) / 5 + 32;
-      continue;
-    }
-    // Not a plain sample: the scalar path decides (and classifies a rejection).
-    const q = scalar(x);
-    if (q === q) out[o] = q;
+    if (t === t) out[o] = unit === 0 ? t : unit === 1 ? t + ZERO_CELSIUS_KELVIN : (t * 9) / 5 + 32;
     else {
       out[o] = Number.NaN;
       tally.reject(x, o);
@@ -186,7 +189,10 @@ export interface QuadraticKernel {
 
 /**
  * Converts with a quadratic kernel, as {@link convertCallendarVanDusen} does with its own: codes
- * outside the kernel's interval, and any sample whose root is not a number, go to the scalar path.
+ * outside the kernel's interval, and any sample whose root is not a finite number, go to the
+ * scalar path. Contiguous Int32 codes take blocks of 256 computed four at a time, with the range
+ * test (the integer test of ./kernel.ts) and a finiteness test (q − q is 0 only for a finite q)
+ * folded per block; a block that fails either is revisited sample by sample.
  */
 export function convertQuadratic(
   codes: Codes,
@@ -199,26 +205,121 @@ export function convertQuadratic(
   outStart: number,
   outStride: number,
 ): void {
+  if (
+    codes instanceof Int32Array &&
+    stride === 1 &&
+    outStride === 1 &&
+    k.lo >= -(2 ** 30) &&
+    k.hi <= 2 ** 30
+  ) {
+    quadraticInt32(codes, out, k, tally, start, count, outStart);
+    return;
+  }
+  quadraticSamples(codes, out, k, tally, start, stride, count, outStart, outStride);
+}
+
+/** The sign s of q = 2C/(s·√(B² − 4AC) − B): +1 where B < 0, −1 where B > 0 (one sign over the codes). */
+function rootSign(k: QuadraticKernel): number {
+  return k.b0 + k.b1 * ((k.lo + k.hi) / 2) < 0 ? 1 : -1;
+}
+
+/** One sample at a time (any codes, strides, in place). */
+function quadraticSamples(
+  codes: Codes,
+  out: Float64Array,
+  k: QuadraticKernel,
+  tally: RejectTally,
+  start: number,
+  stride: number,
+  count: number,
+  outStart: number,
+  outStride: number,
+): void {
   const { a0, a1, b0, b1, c0, c1, lo, hi, scalar } = k;
-  const negative = b0 + b1 * ((lo + hi) / 2) < 0;
+  const sg = rootSign(k);
   for (let n = 0, i = start, o = outStart; n < count; n++, i += stride, o += outStride) {
     const x = codes[i] as number;
+    let q = Number.NaN;
     if (x > lo && x < hi) {
-      const qa = a0 + a1 * x;
       const qb = b0 + b1 * x;
       const qc = c0 + c1 * x;
-      const root = Math.sqrt(qb * qb - 4 * qa * qc);
-      const q = (2 * qc) / (negative ? root - qb : -qb - root);
-      if (q === q) {
-        out[o] = q;
-        continue;
-      }
+      q = (2 * qc) / (sg * Math.sqrt(qb * qb - 4 * (a0 + a1 * x) * qc) - qb);
     }
-    const q = scalar(x);
+    if (q - q !== 0) q = scalar(x);
     if (q === q) out[o] = q;
     else {
       out[o] = Number.NaN;
       tally.reject(x, o);
     }
+  }
+}
+
+/** Contiguous Int32 codes: blocks of 256, four samples per step, flags folded per block. */
+function quadraticInt32(
+  codes: Int32Array,
+  out: Float64Array,
+  k: QuadraticKernel,
+  tally: RejectTally,
+  start: number,
+  count: number,
+  outStart: number,
+): void {
+  const { a0, a1, b0, b1, c0, c1 } = k;
+  const sg = rootSign(k);
+  const lowI = Math.floor(k.lo) + 1;
+  const highI = Math.ceil(k.hi) - 1;
+  const end = start + count;
+  let i = start;
+  let o = outStart;
+  while (i < end) {
+    const blockStart = i;
+    const blockOut = o;
+    const blockEnd = end - i > 256 ? i + 256 : end;
+    const end4 = blockEnd - 3;
+    let flags = 0;
+    let finite = 0;
+    for (; i < end4; i += 4, o += 4) {
+      const x0 = codes[i] as number;
+      const x1 = codes[i + 1] as number;
+      const x2 = codes[i + 2] as number;
+      const x3 = codes[i + 3] as number;
+      const qb0 = b0 + b1 * x0;
+      const qb1 = b0 + b1 * x1;
+      const qb2 = b0 + b1 * x2;
+      const qb3 = b0 + b1 * x3;
+      const qc0 = c0 + c1 * x0;
+      const qc1 = c0 + c1 * x1;
+      const qc2 = c0 + c1 * x2;
+      const qc3 = c0 + c1 * x3;
+      const q0 = (2 * qc0) / (sg * Math.sqrt(qb0 * qb0 - 4 * (a0 + a1 * x0) * qc0) - qb0);
+      const q1 = (2 * qc1) / (sg * Math.sqrt(qb1 * qb1 - 4 * (a0 + a1 * x1) * qc1) - qb1);
+      const q2 = (2 * qc2) / (sg * Math.sqrt(qb2 * qb2 - 4 * (a0 + a1 * x2) * qc2) - qb2);
+      const q3 = (2 * qc3) / (sg * Math.sqrt(qb3 * qb3 - 4 * (a0 + a1 * x3) * qc3) - qb3);
+      out[o] = q0;
+      out[o + 1] = q1;
+      out[o + 2] = q2;
+      out[o + 3] = q3;
+      finite += q0 - q0 + (q1 - q1) + (q2 - q2) + (q3 - q3);
+      flags |=
+        (x0 - lowI) |
+        (highI - x0) |
+        (x1 - lowI) |
+        (highI - x1) |
+        (x2 - lowI) |
+        (highI - x2) |
+        (x3 - lowI) |
+        (highI - x3);
+    }
+    for (; i < blockEnd; i++, o++) {
+      const x = codes[i] as number;
+      const qb = b0 + b1 * x;
+      const qc = c0 + c1 * x;
+      const q = (2 * qc) / (sg * Math.sqrt(qb * qb - 4 * (a0 + a1 * x) * qc) - qb);
+      out[o] = q;
+      finite += q - q;
+      flags |= (x - lowI) | (highI - x);
+    }
+    if (flags < 0 || finite !== 0)
+      quadraticSamples(codes, out, k, tally, blockStart, 1, i - blockStart, blockOut, 1);
   }
 }

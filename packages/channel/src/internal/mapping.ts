@@ -401,13 +401,12 @@ function fitQuadratic(exact: (code: number) => number, lo: number, hi: number): 
   const bLo = kernel.b0 + kernel.b1 * first;
   const bHi = kernel.b0 + kernel.b1 * last;
   if (!(bLo > 0 === bHi > 0) || bLo === 0 || bHi === 0) return undefined;
-  const negative = kernel.b0 + kernel.b1 * ((lo + hi) / 2) < 0;
+  const sg = kernel.b0 + kernel.b1 * ((lo + hi) / 2) < 0 ? 1 : -1;
+  // The kernel's expression (convert/curveKernels.ts), operation for operation.
   const f = (x: number) => {
-    const qa = kernel.a0 + kernel.a1 * x;
     const qb = kernel.b0 + kernel.b1 * x;
     const qc = kernel.c0 + kernel.c1 * x;
-    const root = Math.sqrt(qb * qb - 4 * qa * qc);
-    return (2 * qc) / (negative ? root - qb : -qb - root);
+    return (2 * qc) / (sg * Math.sqrt(qb * qb - 4 * (kernel.a0 + kernel.a1 * x) * qc) - qb);
   };
   let scale = 0;
   let worst = 0;
