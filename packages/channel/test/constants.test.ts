@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { emitCHeader } from '@bridgework/firmware';
-import { createChannel, type ChannelSpec } from '@bridgework/channel';
+import { channelConstants, createChannel, type ChannelSpec } from '@bridgework/channel';
 
 function hasGcc(): boolean {
   try {
@@ -21,14 +21,14 @@ describe('constants: the channel hands its map to the firmware package', () => {
     // codes and one code is 5e6/(0.002·2^30) = 1.25e9/2^29 hundredths of a gram exactly.
     const ch = createChannel({
       name: 'hopper cell',
-      sensor: { kind: 'transducer', capacity: 50, ratedOutputVoltsPerVolt: 0.002 },
+      sensor: { kind: 'transducer', capacity: '50 kg', ratedOutputVoltsPerVolt: '2 mV/V' },
       bridge: { wiring: 'six-wire' },
       excitation: { volts: 5, remoteSense: true },
       amplifier: { gain: 128 },
       adc: { bits: 24, referenceVolts: 5, ratiometric: true },
       output: { quantity: 'mass', range: [0, 50], firmwareResolution: 1e-5 },
     });
-    const c = ch.constants();
+    const c = channelConstants(ch);
     expect(c.fixed.multiplier).toBe(1_250_000_000);
     expect(c.fixed.shift).toBe(29);
     // The map is linear, so the minimax line is the map itself: no approximation error.
@@ -48,9 +48,9 @@ describe('constants: the channel hands its map to the firmware package', () => {
       excitation: { volts: 5 },
       amplifier: { gain: 128 },
       adc: { bits: 24, referenceVolts: 5, ratiometric: true },
-      output: { quantity: 'microstrain', range: [-3000, 3000], firmwareResolution: 0.01 },
+      output: { quantity: 'strain', unit: 'µε', range: [-3000, 3000], firmwareResolution: 0.01 },
     });
-    const c = ch.constants({ verification: 'sampled' });
+    const c = channelConstants(ch, { verification: 'sampled' });
     // Quarter-bridge nonlinearity over ±3000 µε is about 0.3 %: the best line is off by a few µε.
     const lineError = c.fixed.totalError!.maxAbsError * 0.01;
     expect(lineError).toBeGreaterThan(0.5);
@@ -75,9 +75,9 @@ describe('constants: the channel hands its map to the firmware package', () => {
       excitation: { volts: 5, remoteSense: true },
       amplifier: { gain: 64 },
       adc: { bits: 24, referenceVolts: 5, ratiometric: true },
-      output: { quantity: 'microstrain', range: [-1500, 1500] },
+      output: { quantity: 'strain', unit: 'µε', range: [-1500, 1500] },
     };
-    const c = createChannel(spec).constants({ verification: 'sampled' });
+    const c = channelConstants(createChannel(spec), { verification: 'sampled' });
     const header = emitCHeader({ channels: [c.firmwareChannel], prefix: 'bridge' });
     const dir = mkdtempSync(join(tmpdir(), 'bridgework-channel-'));
     writeFileSync(join(dir, 'channel.h'), header);
@@ -106,20 +106,20 @@ describe('constants: the channel hands its map to the firmware package', () => {
       sensor: { kind: 'strain-gauge', gaugeFactor: 2.1 },
       excitation: { volts: 5 },
       adc: { bits: 12, referenceVolts: 5, ratiometric: true },
-      output: { quantity: 'microstrain', range: [0, 1] },
+      output: { quantity: 'strain', unit: 'µε', range: [0, 1] },
     });
-    expect(() => ch.constants()).toThrowBridgeworkError('out-of-range', { param: 'output.range' });
+    expect(() => channelConstants(ch)).toThrowBridgeworkError('out-of-range', { param: 'output.range' });
     const ok = createChannel({
       sensor: { kind: 'strain-gauge', gaugeFactor: 2.1 },
       excitation: { volts: 5 },
       amplifier: { gain: 128 },
       adc: { bits: 24, referenceVolts: 5, ratiometric: true },
-      output: { quantity: 'microstrain', range: [-100, 100] },
+      output: { quantity: 'strain', unit: 'µε', range: [-100, 100] },
     });
-    expect(() => ok.constants({ polynomialDegree: 9 })).toThrowBridgeworkError('out-of-range', {
+    expect(() => channelConstants(ok, { polynomialDegree: 9 })).toThrowBridgeworkError('out-of-range', {
       param: 'polynomialDegree',
     });
-    expect(() => ok.constants({ outputResolution: 0 })).toThrowBridgeworkError('not-positive', {
+    expect(() => channelConstants(ok, { outputResolution: 0 })).toThrowBridgeworkError('not-positive', {
       param: 'outputResolution',
     });
   });

@@ -7,7 +7,7 @@
 import { execFileSync } from 'node:child_process';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { createChannel, type Channel, type ChannelConstants } from '@bridgework/channel';
+import { channelConstants, createChannel, type Channel, type ChannelConstants } from '@bridgework/channel';
 import { emitCHeader, emitJson } from '@bridgework/firmware';
 import { describe, expect, it } from 'vitest';
 import { SAFETY_CAUTION } from '../src/caution.js';
@@ -48,7 +48,7 @@ const channels: Record<string, Channel> = Object.fromEntries(
   footbridgeNames.map((n) => [n, createChannel(footbridgeSpecs[n])]),
 );
 const constants: Record<string, ChannelConstants> = Object.fromEntries(
-  footbridgeNames.map((n) => [n, channels[n]!.constants({ verification: 'sampled' })]),
+  footbridgeNames.map((n) => [n, channelConstants(channels[n]!, { verification: 'sampled' })]),
 );
 
 describe('bridgework constants on the example file', () => {

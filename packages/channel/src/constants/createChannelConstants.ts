@@ -14,6 +14,7 @@ import {
 } from '@bridgework/firmware';
 import type { Mapping } from '../internal/mapping.js';
 import type { ResolvedChannel } from '../internal/resolve.js';
+import { asciiUnit } from '../units/quantity.js';
 
 /** Options of a channel's `constants`. */
 export interface ConstantsOptions {
@@ -61,16 +62,6 @@ export interface ChannelConstants {
   readonly firmwareChannel: FirmwareChannel;
 }
 
-const units: Record<string, string> = {
-  strain: 'm/m',
-  microstrain: 'ue',
-  stress: 'Pa',
-  force: 'N',
-  mass: 'kg',
-  temperature: 'degC',
-  ratio: 'V/V',
-};
-
 export function createChannelConstants(
   r: ResolvedChannel,
   nominal: Mapping,
@@ -85,11 +76,11 @@ export function createChannelConstants(
   const resolution =
     o['outputResolution'] !== undefined
       ? checkPositive('outputResolution', o['outputResolution'])
-      : (r.output.firmwareResolution ?? defaultResolution(span));
+      : (r.spec.output.firmwareResolution ?? defaultResolution(span));
   const { model } = nominal;
   // The span's codes, kept strictly inside the valid codes.
   const ends = [span.min, span.max]
-    .map((q) => model.exactCodeFromRatio(model.ratioFromQuantity(q)))
+    .map((q) => model.exactCodeFromRatio(model.ratioFromValue(q)))
     .sort((a, b) => a - b);
   const codeMin = Math.max(Math.ceil(ends[0] as number), Math.floor(nominal.lo) + 1);
   const codeMax = Math.min(Math.floor(ends[1] as number), Math.ceil(nominal.hi) - 1);
@@ -99,9 +90,9 @@ export function createChannelConstants(
       limit: [codeMin, codeMax],
     });
   }
-  const exact = nominal.kernel === undefined ? nominal.quantityFromCode : kernelMap(nominal);
+  const exact = nominal.kernel === undefined ? nominal.valueFromCode : kernelMap(nominal);
   const line = minimaxLine(exact, codeMin, codeMax);
-  const quantityUnit = units[r.output.quantity] ?? '';
+  const quantityUnit = asciiUnit(r.unit);
   const verification = (o['verification'] as VerificationMode | undefined) ?? 'auto';
   const fixed = fixedPointMap({
     scale: line.scale,

@@ -6,6 +6,7 @@ import {
   type VerificationMode,
 } from '@bridgework/firmware';
 import { BridgeworkError, isBridgeworkError } from '@bridgework/core';
+import { channelConstants } from '@bridgework/channel';
 import { inChannel, type LoadedChannels } from '../channels/loadChannels.js';
 import { splitOptionList } from '../internal/splitOptionList.js';
 
@@ -69,7 +70,8 @@ function commentSafe(text: string): string {
 export function constantsText(loaded: LoadedChannels, options: ConstantsTextOptions): string {
   const channels = loaded.channels.map(
     (c) =>
-      inChannel(loaded, c, () => c.channel.constants({ verification: options.verification })).firmwareChannel,
+      inChannel(loaded, c, () => channelConstants(c.channel, { verification: options.verification }))
+        .firmwareChannel,
   );
   const emitOptions = {
     channels,
