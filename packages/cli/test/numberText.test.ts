@@ -11,7 +11,8 @@ import { numberTextPaths, writeDigits, writeShortest } from '../src/data/numberT
 const buffer = new Uint8Array(40);
 const decoder = new TextDecoder();
 const shortest = (v: number): string => decoder.decode(buffer.subarray(0, writeShortest(v, buffer, 0)));
-const digits = (v: number, d: number): string => decoder.decode(buffer.subarray(0, writeDigits(v, d, buffer, 0)));
+const digits = (v: number, d: number): string =>
+  decoder.decode(buffer.subarray(0, writeDigits(v, d, buffer, 0)));
 
 // Exponent form outside 1e-7 ≤ |x| < 1e21, as Number::toString (ECMA-262 §6.1.6.1.20) lays it out.
 const D = Decimal.clone({ precision: 1200, toExpNeg: -7, toExpPos: 21 });
@@ -40,11 +41,58 @@ const measured = fc
 const widened = fc.float({ noNaN: true, noDefaultInfinity: true }).map((x) => x);
 
 const edges = [
-  0, -0, 1, -1, 0.1, 0.2, 0.3, 0.1 + 0.2, 2.5, 1.5, 0.5, 0.125, 9.5, 99.95, 4.35, -2.675, 1e21, 1e-7, 1e-6,
-  9.999999e20, 999999999999999900000, 123456789012345680000, 1e22, 1e23, 5e-324, 2 ** -1074 * 3, 2 ** -1022,
-  2 ** -1022 - 2 ** -1074, 1.7976931348623157e308, 2 ** 53, 2 ** 53 + 2, 2 ** 60, 2 ** -60, 2 ** 1023, 1e300,
-  1e-300, 1e280, 1e-280, 4e280, 1.5e308, 9007199254740993, 0.000001234, 123456.789, Math.PI, Math.E, 1 / 3,
-  2 / 3, 1e16, 1e17, 99999999999999999, 9999999999999998, 12345678901234567890,
+  0,
+  -0,
+  1,
+  -1,
+  0.1,
+  0.2,
+  0.3,
+  0.1 + 0.2,
+  2.5,
+  1.5,
+  0.5,
+  0.125,
+  9.5,
+  99.95,
+  4.35,
+  -2.675,
+  1e21,
+  1e-7,
+  1e-6,
+  9.999999e20,
+  999999999999999900000,
+  123456789012345680000,
+  1e22,
+  1e23,
+  5e-324,
+  2 ** -1074 * 3,
+  2 ** -1022,
+  2 ** -1022 - 2 ** -1074,
+  1.7976931348623157e308,
+  2 ** 53,
+  2 ** 53 + 2,
+  2 ** 60,
+  2 ** -60,
+  2 ** 1023,
+  1e300,
+  1e-300,
+  1e280,
+  1e-280,
+  4e280,
+  1.5e308,
+  9007199254740993,
+  0.000001234,
+  123456.789,
+  Math.PI,
+  Math.E,
+  1 / 3,
+  2 / 3,
+  1e16,
+  1e17,
+  99999999999999999,
+  9999999999999998,
+  12345678901234567890,
 ];
 
 describe('writeShortest', () => {
