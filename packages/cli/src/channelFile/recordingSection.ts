@@ -1,6 +1,5 @@
 import { closestName, formatValue, type SpecIssue } from '@bridgework/core';
 import { sampleTypes, timeStampTypes, type SampleType, type TimeStampType } from '../data/formatLists.js';
-import type { QuantityParser } from './loadChannelFile.js';
 
 /** A per-frame time stamp of a raw recording, as the `recording` section states it. */
 export interface RecordingTimeStamp {
@@ -92,7 +91,7 @@ const isColumn = (x: unknown): x is string | number =>
 export function validateRecordingSection(
   raw: unknown,
   channelNames: readonly string[],
-  parseQuantity: QuantityParser,
+  parseQuantity: (text: string, unit: 'Hz' | 's') => number,
 ): { readonly value?: RecordingSection; readonly issues: readonly SpecIssue[] } {
   const issues: SpecIssue[] = [];
   const at = (path: string, message: string, extra: Partial<SpecIssue> = {}): void => {
