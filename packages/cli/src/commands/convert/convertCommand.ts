@@ -206,7 +206,8 @@ export const convertOptions = [
     min: 1,
     max: 17,
     defaultText: 'shortest exact round trip',
-    description: 'CSV: digits written per value (fewer digits write faster).',
+    description:
+      'CSV: significant digits per value: the exact value correctly rounded (ties to even), trailing zeros dropped; fewer digits make a smaller file. The default writes the shortest text that reads back as the same double.',
   },
   {
     name: 'fail-on-clip',
