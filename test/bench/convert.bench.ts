@@ -46,7 +46,7 @@ const spec = (gaugeFactor: number) => ({
   bridge: { arrangement: 'quarter', wiring: 'three-wire', ohmsPerLead: 0.5 },
   excitation: { volts: 5 },
   amplifier: { gain: 128 },
-  adc: { bits: 24, referenceVolts: 5, ratiometric: true, dataRateHertz: 1000 },
+  adc: { bits: 24, referenceVolts: 5, ratiometric: true, filter: { order: 3, dataRateHertz: 1000 } },
   output: { quantity: 'strain', unit: 'µε' },
 });
 const channelFile = join(dir, 'rig.json');
@@ -87,6 +87,8 @@ const input = join(dir, 'rig.bin');
 const csvInput = join(dir, 'rig-small.bin');
 makeRecording(input, totalCodes);
 makeRecording(csvInput, csvCodes);
+const tinyInput = join(dir, 'rig-one-frame.bin');
+makeRecording(tinyInput, channels);
 const inputBytes = statSync(input).size;
 
 interface Case {
@@ -131,6 +133,13 @@ const cases: Case[] = [
       '-e',
       `require('node:stream').pipeline(require('node:fs').createReadStream(${JSON.stringify(input)}),require('node:fs').createWriteStream(${JSON.stringify(out)}),(e)=>{if(e)throw e})`,
     ],
+  },
+  {
+    // Start-up: loading node and the command, reading the channel file, one frame: what every run pays.
+    name: 'convert, one frame (start-up)',
+    values: channels,
+    bytes: channels * 4,
+    argv: convert(tinyInput, 'float32le'),
   },
   { name: 'convert → float32le', values: totalCodes, bytes: inputBytes, argv: convert(input, 'float32le') },
   { name: 'convert → float64le', values: totalCodes, bytes: inputBytes, argv: convert(input, 'float64le') },
