@@ -5,11 +5,22 @@
  * in the same run (rounds in rotating order; the ratio of speeds is taken per round and its median
  * reported). CSV is measured on a tenth of the codes, in values of output per second, with the
  * shortest round-trip digits and with fewer digits. Peak memory (max RSS) of each conversion is
- * printed. `--codes=N` and `--rounds=N` change the size and the rounds. Targets (issue 17): raw → float32/float64/Arrow at ≥ 50 % of the copy's speed; CSV at
+ * printed, and the CPU time (user + system, from GNU time where /usr/bin/time exists) of every run,
+ * which on a shared machine measures the work where wall time also measures the queue. `--codes=N`
+ * and `--rounds=N` change the size and the rounds. Targets (issue 17): raw → float32/float64/Arrow at ≥ 50 % of the copy's speed; CSV at
  * ≥ 20 million values/s.
  */
 import { spawnSync } from 'node:child_process';
-import { closeSync, mkdtempSync, openSync, rmSync, statSync, writeSync } from 'node:fs';
+import {
+  closeSync,
+  existsSync,
+  mkdtempSync,
+  openSync,
+  readFileSync,
+  rmSync,
+  statSync,
+  writeSync,
+} from 'node:fs';
 import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -35,7 +46,7 @@ const spec = (gaugeFactor: number) => ({
   bridge: { arrangement: 'quarter', wiring: 'three-wire', ohmsPerLead: 0.5 },
   excitation: { volts: 5 },
   amplifier: { gain: 128 },
-  adc: { bits: 24, referenceVolts: 5, ratiometric: true, dataRateHertz: 1000 },
+  adc: { bits: 24, referenceVolts: 5, ratiometric: true, filter: { order: 3, dataRateHertz: 1000 } },
   output: { quantity: 'strain', unit: 'µε' },
 });
 const channelFile = join(dir, 'rig.json');
@@ -76,6 +87,8 @@ const input = join(dir, 'rig.bin');
 const csvInput = join(dir, 'rig-small.bin');
 makeRecording(input, totalCodes);
 makeRecording(csvInput, csvCodes);
+const tinyInput = join(dir, 'rig-one-frame.bin');
+makeRecording(tinyInput, channels);
 const inputBytes = statSync(input).size;
 
 interface Case {
@@ -121,6 +134,13 @@ const cases: Case[] = [
       `require('node:stream').pipeline(require('node:fs').createReadStream(${JSON.stringify(input)}),require('node:fs').createWriteStream(${JSON.stringify(out)}),(e)=>{if(e)throw e})`,
     ],
   },
+  {
+    // Start-up: loading node and the command, reading the channel file, one frame: what every run pays.
+    name: 'convert, one frame (start-up)',
+    values: channels,
+    bytes: channels * 4,
+    argv: convert(tinyInput, 'float32le'),
+  },
   { name: 'convert → float32le', values: totalCodes, bytes: inputBytes, argv: convert(input, 'float32le') },
   { name: 'convert → float64le', values: totalCodes, bytes: inputBytes, argv: convert(input, 'float64le') },
   { name: 'convert → arrow', values: totalCodes, bytes: inputBytes, argv: convert(input, 'arrow') },
@@ -151,13 +171,30 @@ const cases: Case[] = [
   },
 ];
 
-function runOnce(c: Case): { seconds: number; rssKiB: number; outBytes: number } {
+// CPU time (user + system) of each run, from GNU time when the machine has it: on a machine shared
+// with other work, wall time measures the queue as much as the program; CPU time measures its work.
+const gnuTime = existsSync('/usr/bin/time') ? '/usr/bin/time' : undefined;
+const cpuFile = join(dir, 'cpu.txt');
+
+function runOnce(c: Case): { seconds: number; cpu: number; rssKiB: number; outBytes: number } {
   rmSync(out, { force: true });
   rmSync(rss, { force: true });
+  const program = c.program ?? process.execPath;
   const t0 = performance.now();
-  const r = spawnSync(c.program ?? process.execPath, c.argv, { encoding: 'utf8' });
+  const r =
+    gnuTime === undefined
+      ? spawnSync(program, c.argv, { encoding: 'utf8' })
+      : spawnSync(gnuTime, ['-f', '%U %S', '-o', cpuFile, program, ...c.argv], { encoding: 'utf8' });
   const seconds = (performance.now() - t0) / 1000;
   if (r.status !== 0) throw new Error(`${c.name} failed (${r.status}): ${r.stderr}`);
+  const cpu =
+    gnuTime === undefined
+      ? Number.NaN
+      : readFileSync(cpuFile, 'utf8')
+          .trim()
+          .split(/\s+/)
+          .slice(-2)
+          .reduce((a, x) => a + Number(x), 0);
   let rssKiB: number;
   try {
     rssKiB = Number(spawnSync('cat', [rss], { encoding: 'utf8' }).stdout) || 0;
@@ -166,10 +203,11 @@ function runOnce(c: Case): { seconds: number; rssKiB: number; outBytes: number }
   }
   const outBytes = statSync(out).size;
   rmSync(out, { force: true });
-  return { seconds, rssKiB, outBytes };
+  return { seconds, cpu, rssKiB, outBytes };
 }
 
 const times = cases.map(() => [] as number[]);
+const cpus = cases.map(() => [] as number[]);
 const peaks = cases.map(() => 0);
 const sizes = cases.map(() => 0);
 for (const c of cases.slice(0, 3)) runOnce(c); // warm the page cache and the file system
@@ -178,6 +216,7 @@ for (let r = 0; r < rounds; r++) {
     const i = (k + r) % cases.length;
     const m = runOnce(cases[i] as Case);
     (times[i] as number[]).push(m.seconds);
+    (cpus[i] as number[]).push(m.cpu);
     peaks[i] = Math.max(peaks[i] as number, m.rssKiB);
     sizes[i] = m.outBytes;
   }
@@ -197,7 +236,7 @@ console.log(
     .join(' ')}`,
 );
 console.log(
-  'case                          median s   input MB/s   M values/s   speed vs cp   out MB   max RSS MiB',
+  'case                          median s   input MB/s   M values/s   speed vs cp  vs cp+fsync   out MB  max RSS MiB   CPU s  M values/CPU s',
 );
 cases.forEach((c, i) => {
   const t = times[i] as number[];
@@ -205,6 +244,10 @@ cases.forEach((c, i) => {
   const ratio = c.bytes === inputBytes ? median(t.map((x, r) => (cp[r] as number) / x)) : Number.NaN;
   const synced = c.bytes === inputBytes ? median(t.map((x, r) => (cpSync[r] as number) / x)) : Number.NaN;
   console.log(
-    `${c.name.padEnd(30)}${s.toFixed(3).padStart(8)}${(c.bytes / s / 1e6).toFixed(0).padStart(13)}${(c.values / s / 1e6).toFixed(1).padStart(13)}${(Number.isNaN(ratio) ? '—' : ratio.toFixed(2)).padStart(14)}${(Number.isNaN(synced) ? '—' : synced.toFixed(2)).padStart(14)}${((sizes[i] as number) / 1e6).toFixed(0).padStart(9)}${(peaks[i] ? ((peaks[i] as number) / 1024).toFixed(0) : '—').padStart(14)}`,
+    `${c.name.padEnd(30)}${s.toFixed(3).padStart(8)}${(c.bytes / s / 1e6).toFixed(0).padStart(13)}${(c.values / s / 1e6).toFixed(1).padStart(13)}${(Number.isNaN(ratio) ? '—' : ratio.toFixed(2)).padStart(14)}${(Number.isNaN(synced) ? '—' : synced.toFixed(2)).padStart(14)}${((sizes[i] as number) / 1e6).toFixed(0).padStart(9)}${(peaks[i] ? ((peaks[i] as number) / 1024).toFixed(0) : '—').padStart(14)}${median(
+      cpus[i] as number[],
+    )
+      .toFixed(2)
+      .padStart(8)}${(c.values / median(cpus[i] as number[]) / 1e6).toFixed(1).padStart(16)}`,
   );
 });

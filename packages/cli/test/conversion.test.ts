@@ -15,7 +15,6 @@ import {
 } from '../src/data/convertRecording.js';
 import { createCsvWriter } from '../src/data/createCsvWriter.js';
 import { createRawWriter } from '../src/data/createRawWriter.js';
-import { writeDigits } from '../src/data/numberText.js';
 import { openCodeSource } from '../src/data/openCodeSource.js';
 import { writeRecording } from '../src/data/openRecordingOutput.js';
 import { streamSink, type OutputSink } from '../src/data/outputSink.js';
@@ -139,53 +138,6 @@ describe('createCsvWriter', () => {
         param: 'digits',
       },
     );
-  });
-});
-
-describe('writeDigits', () => {
-  const text = (v: number, d: number): string => {
-    const buf = new Uint8Array(40);
-    return new TextDecoder().decode(buf.subarray(0, writeDigits(v, d, buf, 0)));
-  };
-
-  it('equals the language’s correctly rounded toPrecision, written shortest, for any double and digits (property)', () => {
-    // Reference: ECMAScript Number.prototype.toPrecision (exact decimal rounding) and Number::toString.
-    fc.assert(
-      fc.property(
-        fc.double({ noNaN: true, noDefaultInfinity: true }),
-        fc.integer({ min: 1, max: 17 }),
-        (v, d) => {
-          expect(text(v, d)).toBe(String(Number(v.toPrecision(d))));
-        },
-      ),
-      { numRuns: 20_000 },
-    );
-  });
-
-  it('handles ties, carries, powers of ten and the notation thresholds', () => {
-    const cases: [number, number][] = [
-      [0.5, 1],
-      [1.5, 1],
-      [2.5, 1],
-      [9.5, 1],
-      [99.95, 3],
-      [0.125, 2],
-      [1e21, 3],
-      [9.999999e20, 3],
-      [1e-7, 2],
-      [1.23e-6, 3],
-      [-0.000001, 1],
-      [123456789012345, 15],
-      [0.1 + 0.2, 15],
-      [5e-324, 3],
-      [1.7976931348623157e308, 5],
-      [1000, 2],
-      [1e22, 1],
-      [1e-22, 4],
-      [4.35, 2],
-      [-2.675, 3],
-    ];
-    for (const [v, d] of cases) expect(text(v, d), `${v} to ${d}`).toBe(String(Number(v.toPrecision(d))));
   });
 });
 

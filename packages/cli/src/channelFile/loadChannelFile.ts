@@ -5,6 +5,7 @@ import { formatIssues } from './formatIssues.js';
 import { reservedNames, type ChannelDocument } from './parseChannelDocument.js';
 import { readChannelDocument } from './readChannelDocument.js';
 import { channelFileLimits } from './channelFileLimits.js';
+import { validateRecordingSection, type RecordingSection } from './recordingSection.js';
 
 /**
  * The quantity converter handed to the channel schema: `(text, unit) => number` with `unit` one of
@@ -49,6 +50,8 @@ export interface ChannelFile<T> {
   readonly project: ProjectInfo;
   /** The channels, in file order. */
   readonly channels: readonly NamedChannel<T>[];
+  /** The layout of the channels' recordings (the file's `recording` section), when it has one. */
+  readonly recording?: RecordingSection;
 }
 
 /** Options of {@link loadChannelFile} and {@link validateChannelDocument}. */
@@ -57,7 +60,7 @@ export interface LoadChannelFileOptions<T> {
   readonly validateChannel: ChannelValidator<T>;
 }
 
-const topLevelKeys = ['$schema', 'project', 'channels'] as const;
+const topLevelKeys = ['$schema', 'project', 'channels', 'recording'] as const;
 const projectKeys = ['title', 'description', 'reference'] as const;
 /** What a channel name (a key under `channels`) must match: a letter, then letters, digits, `_` and `-`, at most 63 in all. */
 export const channelNamePattern = /^[A-Za-z][A-Za-z0-9_-]{0,62}$/;
@@ -90,7 +93,9 @@ function unknownKeys(record: Record<string, unknown>, known: readonly string[], 
  * @remarks
  * Layout: the top level is a mapping with `channels` (required: a non-empty mapping from channel
  * name to channel spec), `project` (optional: `title`, `description`, `reference`, each a
- * string) and `$schema` (optional: a text naming the JSON Schema for editors, otherwise ignored). Names start with a letter and hold letters, digits, `_` and `-` (at most 63), so they
+ * string), `recording` (optional: the layout of the channels' recordings, see
+ * {@link validateRecordingSection}) and `$schema` (optional: a text naming the JSON Schema for
+ * editors, otherwise ignored). Names start with a letter and hold letters, digits, `_` and `-` (at most 63), so they
  * can become C identifiers and CSV headings; names that every JavaScript object carries
  * (`constructor`, `toString`, `__proto__`...) are refused. Unknown fields are errors (typo
  * protection), with the closest known name suggested. A file with more than
@@ -113,6 +118,7 @@ export function validateChannelDocument<T>(
   const issues: SpecIssue[] = [];
   const channels: NamedChannel<T>[] = [];
   const project: Record<string, string> = {};
+  let recording: RecordingSection | undefined;
   const root = document.data;
   issues.push(...document.valueIssues.filter((v) => !within(v.path, 'channels')));
   if (!isRecord(root)) {
@@ -197,6 +203,12 @@ export function validateChannelDocument<T>(
       }
     }
   }
+  if (isRecord(root) && root['recording'] !== undefined) {
+    const names = isRecord(root['channels']) ? Object.keys(root['channels']) : [];
+    const section = validateRecordingSection(root['recording'], names, parseQuantity);
+    issues.push(...section.issues);
+    recording = section.value;
+  }
   if (issues.length > 0) {
     const count = issues.length === 1 ? 'a problem' : `${issues.length} problems`;
     throw new BridgeworkError(
@@ -205,7 +217,7 @@ export function validateChannelDocument<T>(
       { param: document.file, issues },
     );
   }
-  return { file: document.file, project, channels };
+  return { file: document.file, project, channels, ...(recording === undefined ? {} : { recording }) };
 }
 
 /**

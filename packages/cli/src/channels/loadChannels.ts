@@ -95,27 +95,33 @@ function channelError(document: ChannelDocument, name: string, e: BridgeworkErro
  * the converter cannot reach, say) is reported with the file and the channel's path too.
  *
  * @param path - The channel file.
- * @param names - The channels to make, or `undefined` for all of them.
+ * @param names - The channels to make, or `undefined` for all of them; or a function of the
+ *   validated file that returns them (to take them from the file's `recording` section).
  * @returns The file and the channels.
  * @throws {@link @bridgework/core!BridgeworkError} `io-error`, `parse-error`, `invalid-spec` (every
  * problem, `file:line:column: channels.<name>.<field>: message`), `invalid-option` for an unknown
  * channel name.
  */
-export async function loadChannels(path: string, names?: readonly string[]): Promise<LoadedChannels> {
+export async function loadChannels(
+  path: string,
+  names?: readonly string[] | ((file: ChannelFile<ChannelSpec>) => readonly string[] | undefined),
+): Promise<LoadedChannels> {
   const document = await readChannelDocument(path);
   const file = validateChannelDocument(document, { validateChannel: validateFileEntry });
   const rawChannels = (document.data as { channels: Record<string, unknown> }).channels;
-  const channels = selectChannels(file, names).map(({ name, spec }) => {
-    const named: ChannelSpec = { ...spec, name };
-    let channel: Channel;
-    try {
-      channel = createChannel(named);
-    } catch (e) {
-      if (!isBridgeworkError(e)) throw e;
-      throw channelError(document, name, e);
-    }
-    return { name, spec: named, raw: rawChannels[name], channel };
-  });
+  const channels = selectChannels(file, typeof names === 'function' ? names(file) : names).map(
+    ({ name, spec }) => {
+      const named: ChannelSpec = { ...spec, name };
+      let channel: Channel;
+      try {
+        channel = createChannel(named);
+      } catch (e) {
+        if (!isBridgeworkError(e)) throw e;
+        throw channelError(document, name, e);
+      }
+      return { name, spec: named, raw: rawChannels[name], channel };
+    },
+  );
   return { file, document, channels };
 }
 

@@ -80,21 +80,31 @@ export function recordingSchema(columns: RecordingColumns): Schema {
  * Channel columns are views of the block's value lanes (no copy); a flagged sample (NaN) is null,
  * with a validity bitmap built only for a lane that holds one. Time stamps are views too; the frame
  * column is filled per block (64-bit integers written as two 32-bit halves, no `BigInt` per frame).
- * A batch refers to the block's memory, so it must be serialized before the block is reused.
+ * A batch refers to the block's memory, so it must be serialized before the block is reused; the
+ * builder's own arrays (frame column, bitmaps) come in two sets used in turn, so a batch stays
+ * valid while the next one is built.
  */
 export function createBatchBuilder(columns: RecordingColumns, blockFrames: number) {
   const schema = recordingSchema(columns);
   const struct = new Struct(schema.fields);
-  const frameIndex = columns.time === undefined ? new BigInt64Array(blockFrames) : undefined;
-  const frameWords = frameIndex === undefined ? undefined : new Uint32Array(frameIndex.buffer);
   const channelCount = columns.channels.length;
-  const bitmaps = columns.channels.map(() => new Uint8Array(Math.ceil(blockFrames / 8)));
   const timeDataType = schema.fields[0]!.type as DataType;
+  const sets = [0, 1].map(() => {
+    const frameIndex = columns.time === undefined ? new BigInt64Array(blockFrames) : undefined;
+    return {
+      frameIndex,
+      frameWords: frameIndex === undefined ? undefined : new Uint32Array(frameIndex.buffer),
+      bitmaps: columns.channels.map(() => new Uint8Array(Math.ceil(blockFrames / 8))),
+    };
+  });
+  let turn = 0;
 
   return {
     schema,
     /** The batch of one block. */
     batch(block: ConvertedBlock): RecordBatch {
+      const { frameIndex, frameWords, bitmaps } = sets[turn] as (typeof sets)[number];
+      turn ^= 1;
       const n = block.frames;
       let time: Data;
       if (frameWords !== undefined && frameIndex !== undefined) {

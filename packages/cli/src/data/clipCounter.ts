@@ -41,6 +41,32 @@ export interface ClipCounter {
     firstFrame: number,
     rejected: readonly number[],
   ): void;
+  /**
+   * Scales one channel's lane of a converted block by `factor` in place (the display unit), counts
+   * its NaN samples and checks them against what the converter reported, in one pass. Call it for
+   * every lane of a block, then {@link ClipCounter.endBlock}.
+   *
+   * @param channel - The channel (0-based).
+   * @param lane - The lane's values (the first `frames` are read).
+   * @param frames - Frames in the block.
+   * @param firstFrame - Index of the block's first frame in the recording.
+   * @param rejected - Samples of this lane that the converter reported as NaN.
+   * @param factor - Multiplies every value (default 1: the lane is only read).
+   */
+  addLane(
+    channel: number,
+    lane: Float64Array,
+    frames: number,
+    firstFrame: number,
+    rejected: number,
+    factor?: number,
+  ): void;
+  /**
+   * Ends a block whose lanes went through {@link ClipCounter.addLane}.
+   *
+   * @param frames - Frames in the block.
+   */
+  endBlock(frames: number): void;
   /** The summary so far. */
   summary(): ClipSummary;
 }
@@ -52,7 +78,10 @@ export interface ClipCounter {
  * The counter does not trust the converter's figures alone: it scans each converted block, counts
  * NaN samples per channel (with the first and last frame of each), and throws if a count differs
  * from what the converter reported or if a sample is ±Infinity — either would be a converter
- * defect, which must stop the conversion rather than reach an output file.
+ * defect, which must stop the conversion rather than reach an output file. The scan is one pass
+ * per lane that tests `v − v !== 0` (true for NaN and ±∞ alone), made while the lane is still in
+ * the cache right after its conversion (and fused with the display-unit scaling); only a lane with
+ * flagged samples is scanned again to locate them.
  *
  * @param channels - Channels per frame (integer in [1, 4096]).
  * @returns The counter.
@@ -73,6 +102,53 @@ export function createClipCounter(channels: number): ClipCounter {
   const last = new Array<number | undefined>(channels).fill(undefined);
   let frames = 0;
   let total = 0;
+  const addLane = (
+    c: number,
+    lane: Float64Array,
+    blockFrames: number,
+    firstFrame: number,
+    rejected: number,
+    factor = 1,
+  ): void => {
+    // One pass: scale, and count the values that are not finite (v − v is NaN for NaN and ±∞).
+    let flagged = 0;
+    if (factor !== 1) {
+      for (let f = 0; f < blockFrames; f++) {
+        const v = (lane[f] as number) * factor;
+        lane[f] = v;
+        if (v - v !== 0) flagged++;
+      }
+    } else {
+      for (let f = 0; f < blockFrames; f++) {
+        const v = lane[f] as number;
+        if (v - v !== 0) flagged++;
+      }
+    }
+    if (flagged > 0) {
+      // Rare: locate the NaN samples, and stop at an infinite one.
+      for (let f = 0; f < blockFrames; f++) {
+        const v = lane[f] as number;
+        if (v !== v) {
+          if (first[c] === undefined) first[c] = firstFrame + f;
+          last[c] = firstFrame + f;
+        } else if (v === Infinity || v === -Infinity) {
+          throw new BridgeworkError(
+            'model-not-finite',
+            `the converter returned ${v} for channel ${c + 1} at frame ${firstFrame + f}; flagged samples must be NaN`,
+            { param: 'values', value: v },
+          );
+        }
+      }
+    }
+    if (flagged !== rejected) {
+      // A converter defect, not bad input: stop with a plain Error (reported as an internal error).
+      throw new Error(
+        `the converter reported ${rejected} clipped samples of channel ${c + 1} in frames ${firstFrame} to ${firstFrame + blockFrames - 1}, but ${flagged} are NaN`,
+      );
+    }
+    counts[c] = (counts[c] as number) + flagged;
+    total += flagged;
+  };
   return {
     add(values, laneStride, blockFrames, firstFrame, rejected) {
       if (values.length < (channels - 1) * laneStride + blockFrames || laneStride < blockFrames) {
@@ -82,35 +158,20 @@ export function createClipCounter(channels: number): ClipCounter {
           { param: 'values', value: values.length, limit: (channels - 1) * laneStride + blockFrames },
         );
       }
-      let found = 0;
       for (let c = 0; c < channels; c++) {
-        const base = c * laneStride;
-        let inLane = 0;
-        for (let f = 0; f < blockFrames; f++) {
-          const v = values[base + f] as number;
-          if (v !== v) {
-            inLane++;
-            if (first[c] === undefined) first[c] = firstFrame + f;
-            last[c] = firstFrame + f;
-          } else if (v === Infinity || v === -Infinity) {
-            throw new BridgeworkError(
-              'model-not-finite',
-              `the converter returned ${v} for channel ${c + 1} at frame ${firstFrame + f}; flagged samples must be NaN`,
-              { param: 'values', value: v },
-            );
-          }
-        }
-        if (inLane !== rejected[c]) {
-          // A converter defect, not bad input: stop with a plain Error (reported as an internal error).
-          throw new Error(
-            `the converter reported ${rejected[c]} clipped samples of channel ${c + 1} in frames ${firstFrame} to ${firstFrame + blockFrames - 1}, but ${inLane} are NaN`,
-          );
-        }
-        counts[c] = (counts[c] as number) + inLane;
-        found += inLane;
+        addLane(
+          c,
+          values.subarray(c * laneStride, c * laneStride + blockFrames),
+          blockFrames,
+          firstFrame,
+          rejected[c] as number,
+        );
       }
       frames += blockFrames;
-      total += found;
+    },
+    addLane,
+    endBlock(blockFrames) {
+      frames += blockFrames;
     },
     summary() {
       return {

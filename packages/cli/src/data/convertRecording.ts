@@ -55,8 +55,19 @@ export interface ConvertedBlock {
 
 /** Where converted blocks go: a CSV, raw, Arrow or Parquet writer. */
 export interface RecordingWriter {
-  /** Writes a block; the arrays may be reused once the promise resolves. */
+  /**
+   * Writes a block; its arrays may be reused once the promise resolves. A writer that copies what
+   * it needs resolves at once and writes in the background; one that writes the block's own
+   * memory resolves when that is written.
+   */
   writeBlock(block: ConvertedBlock): Promise<void>;
+  /**
+   * How many blocks the writer may hold at once (1 or 2; default 1). With 2, the pipeline converts
+   * into two sets of arrays in turn and calls `writeBlock` again before the previous call has
+   * resolved, waiting for a set's earlier call only before refilling it; the writer keeps its
+   * writes in order.
+   */
+  readonly blocksInFlight?: number;
   /** Writes what remains (a header for an empty recording, a file footer). */
   finish(): Promise<void>;
 }
@@ -115,17 +126,19 @@ const MAX_KEPT_TEMPERATURES = 10_000;
  * write.
  *
  * @remarks
- * One `Float64Array` of `blockFrames × channels` values is allocated and reused, so memory does
- * not grow with the file. Each lane is converted by its channel's own `convert` (the channel
+ * The value arrays are allocated once and reused, so memory does not grow with the file. Each lane is converted by its channel's own `convert` (the channel
  * package's exact map, the same arithmetic whatever the input's layout). With `temperature`, the
  * temperature channel's lane is converted first, the mean of its valid values is the block's
  * temperature, and each corrected channel's lane is converted at that temperature (the channel
  * package's per-block temperature path: thermal output and gauge factor at that temperature). A
  * block whose temperature channel has no valid value cannot be corrected: its corrected lanes are
  * written as NaN and counted in `temperatureGaps` (never converted at a guessed temperature).
- * Values are multiplied by `factors` (the display unit) after conversion. Each block is written
- * (and the writer awaited) before the next is read; the values are checked by
- * {@link createClipCounter}.
+ * Each lane is scaled by its `factor` (the display unit) and checked by {@link createClipCounter}
+ * right after its conversion, in one pass while it is still in the cache. The source reads the next
+ * block while this one is converted, and writers that copy a block into their own buffers write it
+ * in the background while the next is converted; a writer that holds the block's own memory
+ * (`blocksInFlight: 2`) gets two sets of arrays in turn. Memory: one or two sets of
+ * `blockFrames × channels` values, plus what the source and the writer hold.
  *
  * @param options - Source, channels, factors, temperature correction, writer and progress hook.
  * @returns Frames converted, clipped samples, temperature gaps and block temperatures.
@@ -149,27 +162,50 @@ export async function convertRecording(options: ConvertRecordingOptions): Promis
   }
   const factors = options.factors ?? channels.map(() => 1);
   const stride = source.blockFrames;
-  const values = new Float64Array(stride * n);
+  // One set of arrays per block the writer may hold (see RecordingWriter.blocksInFlight).
+  const sets = writer.blocksInFlight === 2 ? 2 : 1;
+  const slots = Array.from({ length: sets }, () => ({
+    values: new Float64Array(stride * n),
+    rejected: new Array<number>(n).fill(0),
+    stamps: undefined as TimeStamps | undefined,
+    written: Promise.resolve(),
+  }));
   const counter = createClipCounter(n);
-  const rejected = new Array<number>(n).fill(0);
   const corrected = new Set(temperature?.corrects ?? []);
   const blockTemperatures: number[] = [];
   let gapFrames = 0;
   let gapFirst: number | undefined;
   let gapLast: number | undefined;
   let frames = 0;
+  let slotIndex = 0;
   for await (const block of source.blocks()) {
+    const slot = slots[slotIndex] as (typeof slots)[number];
+    slotIndex = (slotIndex + 1) % sets;
+    await slot.written; // the writer is done with this set's arrays
+    const { values, rejected } = slot;
     const count = block.frames;
     const lane = (j: number): [CodeLanes, Float64Array] => [
       block.codes.subarray(j * block.laneStride, j * block.laneStride + count),
       values.subarray(j * stride, j * stride + count),
     ];
+    /** Converts lane j (at `at` °C when given), then scales and checks it while it is in the cache. */
+    const convertLane = (j: number, at: number | undefined): void => {
+      const [codes, out] = lane(j);
+      const status = (channels[j] as ConvertingChannel).convert(
+        codes,
+        out,
+        at === undefined ? { maxLocations: 0 } : { temperatureCelsius: at, maxLocations: 0 },
+      ).status;
+      rejected[j] = status.rejected;
+      counter.addLane(j, out, count, block.firstFrame, status.rejected, factors[j] as number);
+    };
     let blockTemperature: number | undefined;
     if (temperature !== undefined) {
+      // The temperature lane first (in °C, before any display scaling of its own).
       const [codes, out] = lane(temperature.from);
-      rejected[temperature.from] = channels[temperature.from]!.convert(codes, out, {
+      const status = (channels[temperature.from] as ConvertingChannel).convert(codes, out, {
         maxLocations: 0,
-      }).status.rejected;
+      }).status;
       let sum = 0;
       let valid = 0;
       for (let f = 0; f < count; f++) {
@@ -179,6 +215,15 @@ export async function convertRecording(options: ConvertRecordingOptions): Promis
           valid++;
         }
       }
+      rejected[temperature.from] = status.rejected;
+      counter.addLane(
+        temperature.from,
+        out,
+        count,
+        block.firstFrame,
+        status.rejected,
+        factors[temperature.from] as number,
+      );
       if (valid > 0) {
         blockTemperature = sum / valid;
         if (blockTemperatures.length < MAX_KEPT_TEMPERATURES) blockTemperatures.push(blockTemperature);
@@ -191,34 +236,44 @@ export async function convertRecording(options: ConvertRecordingOptions): Promis
     }
     for (let j = 0; j < n; j++) {
       if (temperature !== undefined && j === temperature.from) continue;
-      const [codes, out] = lane(j);
-      if (corrected.has(j) && blockTemperature === undefined) {
+      if (!corrected.has(j)) convertLane(j, undefined);
+      else if (blockTemperature !== undefined) convertLane(j, blockTemperature);
+      else {
+        const out = values.subarray(j * stride, j * stride + count);
         out.fill(Number.NaN);
         rejected[j] = count;
-        continue;
+        counter.addLane(j, out, count, block.firstFrame, count);
       }
-      const at = corrected.has(j) ? { temperatureCelsius: blockTemperature as number } : {};
-      rejected[j] = channels[j]!.convert(codes, out, { ...at, maxLocations: 0 }).status.rejected;
     }
-    for (let j = 0; j < n; j++) {
-      const factor = factors[j] as number;
-      if (factor === 1) continue;
-      const base = j * stride;
-      for (let f = 0; f < count; f++) values[base + f] = (values[base + f] as number) * factor;
+    counter.endBlock(count);
+    // With two sets in flight the source's stamps are refilled before the writer is done: copy them.
+    let timeStamps = block.timeStamps;
+    if (sets === 2 && timeStamps !== undefined) {
+      if (slot.stamps?.constructor !== timeStamps.constructor) {
+        const Type = timeStamps.constructor as new (length: number) => TimeStamps;
+        slot.stamps = new Type(stride);
+      }
+      (slot.stamps as Float64Array).set(timeStamps.subarray(0, count) as Float64Array);
+      timeStamps = slot.stamps;
     }
-    counter.add(values, stride, count, block.firstFrame, rejected);
-    await writer.writeBlock({
+    const written = writer.writeBlock({
       frames: count,
       firstFrame: block.firstFrame,
       values,
       laneStride: stride,
-      timeStamps: block.timeStamps,
-      passThrough: block.passThrough,
-      rejected,
+      timeStamps,
+      passThrough: sets === 2 ? block.passThrough?.map((texts) => texts.slice(0, count)) : block.passThrough,
+      rejected: sets === 2 ? [...rejected] : rejected,
     });
+    if (sets === 1) await written;
+    else {
+      written.catch(() => undefined); // met when awaited (before this set is refilled, or below)
+      slot.written = written;
+    }
     frames += count;
     options.onBlock?.(block);
   }
+  for (const slot of slots) await slot.written;
   await writer.finish();
   return {
     frames,

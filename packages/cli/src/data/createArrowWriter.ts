@@ -1,7 +1,7 @@
 import { RecordBatchFileWriter, RecordBatchStreamWriter } from 'apache-arrow';
 import { createBatchBuilder } from './arrowBatches.js';
 import type { RecordingWriter } from './convertRecording.js';
-import type { OutputSink } from './outputSink.js';
+import { createWriteQueue, type OutputSink } from './outputSink.js';
 import type { RecordingColumns } from './recordingColumns.js';
 
 /** The two Arrow IPC forms: the random-access file (`.arrow`) and the stream (`.arrows`, pipes). */
@@ -38,8 +38,9 @@ class ChunkCollector {
  *
  * @remarks
  * Serialization is apache-arrow's own `RecordBatchFileWriter` (or `RecordBatchStreamWriter`); the
- * batches are views of the block's memory, and the bytes of each batch are written to the sink and
- * awaited before the next block is converted, so memory is one block whatever the file size.
+ * batches are views of the block's memory, whose bytes are queued for writing while the pipeline
+ * converts the next block into a second set of arrays (`blocksInFlight: 2`); a set is refilled only
+ * once its batch is written, so memory is two blocks whatever the file size.
  * Flagged samples are null (their slot holds NaN).
  *
  * @param sink - Where the bytes go.
@@ -65,19 +66,25 @@ export function createArrowWriter(
   // sink it has when it starts (its `reset` leaves an identical sink in place).
   (writer as unknown as { _sink: ChunkCollector })._sink = collector;
   let started = false;
-  const drain = async (): Promise<void> => {
-    for (const chunk of collector.take()) await sink.write(chunk);
+  const queue = createWriteQueue(sink);
+  /** Queues the collected chunks; resolves when the last is written. */
+  const drain = (): Promise<void> => {
+    let last = Promise.resolve();
+    for (const chunk of collector.take()) last = queue.write(chunk);
+    return last;
   };
   return {
-    async writeBlock(block) {
+    blocksInFlight: 2,
+    writeBlock(block) {
       started = true;
       writer.write(builder.batch(block));
-      await drain();
+      return drain();
     },
     async finish() {
       if (!started) writer.reset(undefined, builder.schema);
       writer.finish();
       await drain();
+      await queue.flush();
     },
   };
 }

@@ -2,7 +2,7 @@ import { checkInteger } from '@bridgework/core';
 import { quoteCsvField } from '../internal/csvText.js';
 import type { RecordingWriter } from './convertRecording.js';
 import { writeDigits, writeShortest } from './numberText.js';
-import type { OutputSink } from './outputSink.js';
+import { createWriteQueue, type OutputSink } from './outputSink.js';
 import { timeHeading, type RecordingColumns } from './recordingColumns.js';
 
 /** Options of {@link createCsvWriter}. */
@@ -16,7 +16,7 @@ export interface CsvWriterOptions {
   readonly digits?: number;
 }
 
-/** Size of the reused output buffer: 1 MiB. */
+/** Size of each of the two output buffers: 1 MiB. */
 const BUFFER_BYTES = 1 << 20;
 /** Longest text of one number plus its separator (`-1.2345678901234567e-308,` is 25 bytes). */
 const MAX_CELL_BYTES = 32;
@@ -26,9 +26,9 @@ const MAX_CELL_BYTES = 32;
  * recording has one), the passed-through columns, then one per channel.
  *
  * @remarks
- * Values are formatted one by one straight into a reused 1 MiB byte buffer (see
- * {@link writeShortest} and {@link writeDigits}), which is handed to the sink (and awaited)
- * whenever it fills and at the end of each block: nothing grows with the block or the file. Lines
+ * Values are formatted one by one straight into a 1 MiB byte buffer (see {@link writeShortest}
+ * and {@link writeDigits}), which is queued for writing whenever it fills and at the end of each
+ * block, while formatting goes on in a second buffer: nothing grows with the block or the file. Lines
  * end with `\n`; the header holds the time column, the passed-through names and `name (unit)` for
  * each channel, quoted per RFC 4180 when needed, as are passed-through texts. NaN (a clipped or
  * out-of-range sample) is written as `NaN`; −0 as `0`. Time stamps are written exactly (64-bit
@@ -59,26 +59,33 @@ export function createCsvWriter(
     ...columns.channels.map((c) => `${c.name} (${c.unit})`),
   ];
   const header = options.header === false ? undefined : `${names.map((h) => quoteCsvField(h)).join(',')}\n`;
-  const buffer = Buffer.allocUnsafe(BUFFER_BYTES);
+  // Two buffers: one is filled while the other is written.
+  const queue = createWriteQueue(sink);
+  const buffers = [Buffer.allocUnsafe(BUFFER_BYTES), Buffer.allocUnsafe(BUFFER_BYTES)];
+  const written: Promise<void>[] = [Promise.resolve(), Promise.resolve()];
+  let slot = 0;
+  let buffer = buffers[0] as Buffer;
   const limit = BUFFER_BYTES - MAX_CELL_BYTES;
   let used = 0;
   let headerDone = header === undefined;
 
   const flush = async (): Promise<void> => {
     if (used === 0) return;
-    const n = used;
+    written[slot] = queue.write(buffer.subarray(0, used));
     used = 0;
-    await sink.write(buffer.subarray(0, n));
+    slot ^= 1;
+    await written[slot];
+    buffer = buffers[slot] as Buffer;
   };
   const writeText = async (text: string): Promise<void> => {
     const bytes = Buffer.byteLength(text, 'utf8');
     if (used + bytes > limit) await flush();
-    if (bytes > limit) await sink.write(text);
+    if (bytes > limit) await queue.write(text);
     else used += buffer.write(text, used, 'utf8');
   };
   const writeHeader = async (): Promise<void> => {
     headerDone = true;
-    await sink.write(header as string);
+    await queue.write(header as string);
   };
 
   return {
@@ -111,6 +118,7 @@ export function createCsvWriter(
     async finish() {
       if (!headerDone) await writeHeader();
       await flush();
+      await queue.flush();
     },
   };
 }

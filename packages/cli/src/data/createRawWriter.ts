@@ -1,6 +1,6 @@
 import { checkOneOf } from '@bridgework/core';
 import type { RecordingWriter } from './convertRecording.js';
-import type { OutputSink } from './outputSink.js';
+import { createWriteQueue, type OutputSink } from './outputSink.js';
 import { rawOutputFormats, type RawOutputFormat } from './outputFormats.js';
 
 const littleEndianHost = new Uint8Array(new Uint32Array([1]).buffer)[0] === 1;
@@ -10,11 +10,13 @@ const littleEndianHost = new Uint8Array(new Uint32Array([1]).buffer)[0] === 1;
  * (the input's interleaving), nothing else (no header, no time column).
  *
  * @remarks
- * Each block's lanes are interleaved into one reused buffer of `blockFrames × channels` values
- * and written in one call. float64 keeps every value exactly; float32 rounds each to the nearest
- * float32 (`Math.fround`, ties to even: a relative error of at most 2^-24, about 6e-8), NaN stays
- * NaN. The byte order is the format's (`le`: least significant byte first); on a host of that
- * order the values are written as they lie in memory.
+ * Each block's lanes are interleaved into one of two output buffers of `blockFrames × channels`
+ * values, whose write is queued: the next block is converted and interleaved into the other buffer
+ * while this one is written (a buffer is reused only once its write has finished). float64 keeps
+ * every value exactly; float32 rounds each to the nearest float32 (ties to even, as a
+ * `Float32Array` store does: a relative error of at most 2^-24, about 6e-8), NaN stays NaN. The
+ * byte order is the format's (`le`: least significant byte first); on a host of that order the
+ * values are written as they lie in memory. Memory: the two buffers.
  *
  * @param sink - Where the bytes go.
  * @param format - The value type and byte order.
@@ -36,27 +38,61 @@ export function createRawWriter(
   checkOneOf('format', format, rawOutputFormats);
   const wide = format.startsWith('float64');
   const little = format.endsWith('le');
-  const out = wide ? new Float64Array(blockFrames * channels) : new Float32Array(blockFrames * channels);
-  const bytes = new Uint8Array(out.buffer);
-  const view = new DataView(out.buffer);
+  const queue = createWriteQueue(sink);
+  const make = (): Float64Array | Float32Array =>
+    wide ? new Float64Array(blockFrames * channels) : new Float32Array(blockFrames * channels);
+  const outs = [make(), make()];
+  const written: Promise<void>[] = [Promise.resolve(), Promise.resolve()];
+  let slot = 0;
   return {
     async writeBlock(block) {
       const { values, laneStride, frames } = block;
       if (channels === 1 && wide && little === littleEndianHost) {
-        await sink.write(new Uint8Array(values.buffer, values.byteOffset, frames * 8));
+        // The lane is the output: write it as it lies (and wait, the block's memory is the caller's).
+        await queue.write(new Uint8Array(values.buffer, values.byteOffset, frames * 8));
         return;
       }
-      // Frame by frame: sequential writes, one read stream per lane.
-      for (let f = 0, o = 0; f < frames; f++) {
-        for (let j = 0, i = f; j < channels; j++, i += laneStride) out[o++] = values[i] as number;
-      }
+      await written[slot];
+      const out = outs[slot] as Float64Array | Float32Array;
+      interleave(values, laneStride, frames, channels, out);
       const count = frames * channels;
       if (little !== littleEndianHost) {
+        const view = new DataView(out.buffer);
         if (wide) for (let i = 0; i < count; i++) view.setFloat64(8 * i, out[i] as number, little);
         else for (let i = 0; i < count; i++) view.setFloat32(4 * i, out[i] as number, little);
       }
-      await sink.write(bytes.subarray(0, count * (wide ? 8 : 4)));
+      written[slot] = queue.write(new Uint8Array(out.buffer, 0, count * (wide ? 8 : 4)));
+      slot ^= 1;
     },
-    async finish() {},
+    async finish() {
+      await queue.flush();
+    },
   };
+}
+
+/** Frame by frame: sequential writes, one sequential read stream per lane. */
+function interleave(
+  values: Float64Array,
+  laneStride: number,
+  frames: number,
+  channels: number,
+  out: Float64Array | Float32Array,
+): void {
+  if (channels === 8) {
+    // The common logger width, unrolled.
+    for (let f = 0, o = 0; f < frames; f++, o += 8) {
+      out[o] = values[f] as number;
+      out[o + 1] = values[f + laneStride] as number;
+      out[o + 2] = values[f + 2 * laneStride] as number;
+      out[o + 3] = values[f + 3 * laneStride] as number;
+      out[o + 4] = values[f + 4 * laneStride] as number;
+      out[o + 5] = values[f + 5 * laneStride] as number;
+      out[o + 6] = values[f + 6 * laneStride] as number;
+      out[o + 7] = values[f + 7 * laneStride] as number;
+    }
+    return;
+  }
+  for (let f = 0, o = 0; f < frames; f++) {
+    for (let j = 0, i = f; j < channels; j++, i += laneStride) out[o++] = values[i] as number;
+  }
 }

@@ -1,27 +1,488 @@
 /**
- * Number text for CSV output, written straight into a byte buffer.
+ * Number text for CSV output, written as ASCII bytes straight into a buffer, exactly.
  *
- * Two forms, both exactly the text JavaScript gives, so a test can compare them character for
- * character with the language's own formatting:
- * - shortest round trip: `String(v)`, the shortest decimal that reads back as the same double;
- * - `digits` significant digits: `String(Number(v.toPrecision(digits)))`, the value correctly
- *   rounded to that many digits, written without trailing zeros.
+ * Two forms:
+ * - shortest round trip ({@link writeShortest}): the text ECMAScript's `String(v)` gives, digit for
+ *   digit — the fewest significant digits that read back as the same double, the closest such
+ *   decimal to the double when several have that length, the even one on a tie;
+ * - `digits` significant digits ({@link writeDigits}): the exact binary value correctly rounded to
+ *   that many digits (ties to even, IEEE 754's default rounding), trailing zeros dropped.
  *
- * The second has a fast path in integer arithmetic (no string is made) for up to 15 digits, with
- * an exact check that sends every case it cannot decide to the language's own formatting.
+ * Both lay the digits out as Number::toString does (plain notation for decimal exponents from −7
+ * to 20, else `d.ddde±x`), so a reader sees one format whichever is chosen.
+ *
+ * Method. A finite double is a = m·2^q with an integer m < 2^53. A fast path scales a by 10^j so
+ * that t = a·10^j lies in [10^16, 10^17), with one double-double product (Dekker's exact product of
+ * a and the leading part of a double-double 10^j, plus a times its trailing part): the relative
+ * error of t is below 2^-103, so t is known within 2^-46 whatever a is. The integer part of t gives
+ * 17 digits, and every decision (which way a digit rounds, whether a decimal lies within half a
+ * unit in the last place of a) compares t with a threshold: the fast path decides only when t is
+ * at least 2^-40 away from it, and otherwise (and for subnormal, huge or tiny values and exact
+ * powers of two) defers to an exact path in BigInt arithmetic, which also serves as the reference
+ * the fast path is tested against.
+ *
+ * Why three lengths suffice for the shortest form of a normal double: a decimal of at most 15
+ * significant digits that reads back as a is a's correct rounding to 15 digits (Matula's theorem:
+ * 10^15 < 2^52), so it is found by rounding to 15 digits and dropping the trailing zeros; failing
+ * that, the closest 16-digit decimal (the correct rounding to 16 digits) is the answer if it reads
+ * back as a, and 17 digits always do.
  */
 
-/** 10^0 … 10^22: every one is a double exactly (5^22 < 2^53). */
-const POW10: readonly number[] = Array.from({ length: 23 }, (_, k) => 10 ** k);
+const littleEndianHost = new Uint8Array(new Uint32Array([1]).buffer)[0] === 1;
+const f64 = new Float64Array(1);
+const u32 = new Uint32Array(f64.buffer);
+const HI = littleEndianHost ? 1 : 0;
+const LO = 1 - HI;
 
-/** Writes ASCII text; returns the new position. */
+/** 2^27 + 1: Veltkamp's splitting constant for binary64. */
+const SPLIT = 134_217_729;
+/** How far (in units of t's last integer digit) t must be from a decision's threshold for the fast path to decide. */
+const MARGIN = 2 ** -40;
+/** log10(2). */
+const LOG10_2 = 0.30102999566398119521;
+
+// Double-double powers of ten 10^j for j in [J_MIN, J_MAX]: hi + lo within 2^-105 relative of
+// 10^j, and Veltkamp's split of hi, built on first use.
+const J_MIN = -270;
+const J_MAX = 310;
+const powHi = new Float64Array(J_MAX - J_MIN + 1);
+const powLo = new Float64Array(J_MAX - J_MIN + 1);
+const powSplitHi = new Float64Array(J_MAX - J_MIN + 1);
+const powSplitLo = new Float64Array(J_MAX - J_MIN + 1);
+const powReady = new Uint8Array(J_MAX - J_MIN + 1);
+
+/** 2^e as a BigInt, e ≥ 0. */
+function bigPow2(e: number): bigint {
+  return 1n << BigInt(e);
+}
+/** 10^e as a BigInt, e ≥ 0. */
+function bigPow10(e: number): bigint {
+  return 10n ** BigInt(e);
+}
+
+/** Mantissa and exponent of a positive finite double: a = m·2^q exactly, m < 2^53. */
+function bigParts(a: number): { m: bigint; q: number; ebits: number; frac: bigint } {
+  f64[0] = a;
+  const hi = u32[HI] as number;
+  const lo = u32[LO] as number;
+  const ebits = (hi >>> 20) & 0x7ff;
+  const frac = (BigInt(hi & 0xfffff) << 32n) | BigInt(lo);
+  return ebits === 0
+    ? { m: frac, q: -1074, ebits, frac }
+    : { m: frac | (1n << 52n), q: ebits - 1075, ebits, frac };
+}
+
+function fillPow(j: number): void {
+  const i = j - J_MIN;
+  let hi: number;
+  let lo: number;
+  if (j >= 0) {
+    const exact = bigPow10(j);
+    hi = Number(exact); // round to nearest
+    lo = Number(exact - BigInt(hi));
+  } else {
+    hi = Number(`1e${j}`); // correctly rounded
+    // 10^j − hi = (2^-q − m·10^-j)·2^q / 10^-j, evaluated to 2^-119 of itself.
+    const { m, q } = bigParts(hi);
+    const s = bigPow10(-j);
+    const num = bigPow2(-q) - m * s;
+    lo = Number((num << 120n) / s) * 2 ** -120 * 2 ** q;
+  }
+  const c = SPLIT * hi;
+  const sh = c - (c - hi);
+  powHi[i] = hi;
+  powLo[i] = lo;
+  powSplitHi[i] = sh;
+  powSplitLo[i] = hi - sh;
+  powReady[i] = 1;
+}
+
+// Results of the fast decomposition, in typed arrays (module-level `let`s cost a check per use).
+/** t's fraction F in [0, 1] (1 only by rounding; decisions keep MARGIN away), and W, half an ulp of a in units of t. */
+const fastReal = new Float64Array(2);
+/**
+ * A and B, the 17-digit integer part of t as A·10^9 + B (10^7 ≤ A < 10^8, 0 ≤ B < 10^9); the
+ * decimal exponent E (10^E ≤ a < 10^(E+1)); whether t is exact (10^j is a double: 0 ≤ j ≤ 22, so
+ * F and ties are exact); whether a's mantissa is even (a decimal exactly half an ulp away reads
+ * back as a).
+ */
+const fastInt = new Int32Array(5);
+const F_ = 0;
+const W_ = 1;
+const A_ = 0;
+const B_ = 1;
+const E_ = 2;
+const EXACT_ = 3;
+const EVEN_ = 4;
+
+/**
+ * Scales a positive normal double a in the fast path's range into t = a·10^(16−E) in
+ * [10^16, 10^17) and fills fastReal and fastInt. Returns false when a is outside the range (about
+ * 1e-280 to 4e280) or an exact power of two (whose rounding interval is lopsided), so the exact
+ * path must be used.
+ */
+function decompose(a: number): boolean {
+  f64[0] = a;
+  const hiw = u32[HI] as number;
+  const ebits = hiw >>> 20; // a > 0: no sign bit
+  if (ebits < 93 || ebits > 1953) return false;
+  const low = u32[LO] as number;
+  if ((hiw & 0xfffff) === 0 && low === 0) return false;
+  const be = ebits - 1023;
+  let e = Math.floor(be * LOG10_2);
+  for (let attempt = 0; attempt < 3; attempt++) {
+    const i = 16 - e - J_MIN;
+    if (powReady[i] === 0) fillPow(16 - e);
+    const ph = powHi[i] as number;
+    const c = SPLIT * a;
+    const ah = c - (c - a);
+    const al = a - ah;
+    const bh = powSplitHi[i] as number;
+    const bl = powSplitLo[i] as number;
+    const p = a * ph;
+    const err = ah * bh - p + ah * bl + al * bh + al * bl;
+    const lo = err + a * (powLo[i] as number);
+    const h = p + lo;
+    const l = lo - (h - p);
+    // Far outside [10^16, 10^17): the exponent estimate is one off.
+    if (h < 1e16 - 16) {
+      e--;
+      continue;
+    }
+    if (h > 1e17 + 16) {
+      e++;
+      continue;
+    }
+    // h > 2^53 is an integer and |l| ≤ 8: the integer part of t is h + floor(l).
+    const hA = Math.floor(h / 1e9);
+    const fl = Math.floor(l);
+    // h − hA·1e9 is exact (hA·1e9 = (hA·5^9)·2^9 is a double, and so is the difference).
+    let B = (h - hA * 1e9 + fl) | 0;
+    let A = hA | 0;
+    if (B < 0) {
+      B += 1_000_000_000;
+      A--;
+    } else if (B >= 1_000_000_000) {
+      B -= 1_000_000_000;
+      A++;
+    }
+    if (A < 10_000_000) {
+      e--;
+      continue;
+    }
+    if (A >= 100_000_000) {
+      e++;
+      continue;
+    }
+    fastInt[A_] = A;
+    fastInt[B_] = B;
+    fastInt[E_] = e;
+    fastInt[EXACT_] = powLo[i] === 0 ? 1 : 0;
+    fastInt[EVEN_] = (low & 1) === 0 ? 1 : 0;
+    fastReal[F_] = l - fl;
+    // Half an ulp of a in units of t: 2^(be−53)·10^(16−e).
+    fastReal[W_] = ph * (POW2[be - 53 - POW2_MIN] as number);
+    return true;
+  }
+  return false;
+}
+
+/** 2^k for k in [POW2_MIN, POW2_MAX] (the half-ulps of the fast path's range). */
+const POW2_MIN = -1000;
+const POW2_MAX = 1000;
+const POW2 = new Float64Array(POW2_MAX - POW2_MIN + 1).map((_, i) => 2 ** (i + POW2_MIN));
+
+/** ASCII digits of one number, most significant first, and their count (trailing zeros dropped). */
+const digitText = new Uint8Array(24);
+let digitCount = 0;
+/** Two-digit ASCII pairs 00…99. */
+const PAIRS = new Uint8Array(200);
+for (let i = 0; i < 100; i++) {
+  PAIRS[2 * i] = 48 + Math.floor(i / 10);
+  PAIRS[2 * i + 1] = 48 + (i % 10);
+}
+const POW10_INT = [1, 10, 100, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9];
+
+/** Writes the four digits of x (0 ≤ x < 10^4) at digitText[at]. */
+function fourDigits(x: number, at: number): void {
+  const hi = (x / 100) | 0;
+  const lo = x - hi * 100;
+  digitText[at] = PAIRS[2 * hi] as number;
+  digitText[at + 1] = PAIRS[2 * hi + 1] as number;
+  digitText[at + 2] = PAIRS[2 * lo] as number;
+  digitText[at + 3] = PAIRS[2 * lo + 1] as number;
+}
+
+/**
+ * Puts the digits of A·10^9 + B (after carrying B ≥ 10^9 into A, and A = 10^8 into the exponent)
+ * into digitText; returns the decimal exponent of the first digit.
+ */
+function finishDigits(A: number, B: number, e: number): number {
+  if (B >= 1_000_000_000) {
+    B -= 1_000_000_000;
+    A++;
+  }
+  if (A === 100_000_000) {
+    A = 10_000_000;
+    e++;
+  }
+  const a1 = (A / 10_000) | 0;
+  fourDigits(a1, 0);
+  fourDigits(A - a1 * 10_000, 4);
+  const b0 = (B / 100_000_000) | 0;
+  digitText[8] = 48 + b0;
+  const r = B - b0 * 100_000_000;
+  const b1 = (r / 10_000) | 0;
+  fourDigits(b1, 9);
+  fourDigits(r - b1 * 10_000, 13);
+  let n = 17;
+  while (n > 1 && digitText[n - 1] === 48) n--;
+  digitCount = n;
+  return e;
+}
+
+/**
+ * Writes the digits in digitText (digitCount of them) with decimal exponent e (the first digit's
+ * place) as Number::toString lays them out.
+ */
+function layout(negative: boolean, e: number, buffer: Uint8Array, pos: number): number {
+  const k = digitCount;
+  const n = e + 1; // ECMAScript's n: the decimal point sits after n digits
+  if (negative) buffer[pos++] = 45;
+  if (0 < n && n <= 21) {
+    if (k <= n) {
+      for (let i = 0; i < k; i++) buffer[pos++] = digitText[i] as number;
+      for (let i = k; i < n; i++) buffer[pos++] = 48;
+    } else {
+      for (let i = 0; i < n; i++) buffer[pos++] = digitText[i] as number;
+      buffer[pos++] = 46;
+      for (let i = n; i < k; i++) buffer[pos++] = digitText[i] as number;
+    }
+  } else if (-6 < n && n <= 0) {
+    buffer[pos++] = 48;
+    buffer[pos++] = 46;
+    for (let i = n; i < 0; i++) buffer[pos++] = 48;
+    for (let i = 0; i < k; i++) buffer[pos++] = digitText[i] as number;
+  } else {
+    buffer[pos++] = digitText[0] as number;
+    if (k > 1) {
+      buffer[pos++] = 46;
+      for (let i = 1; i < k; i++) buffer[pos++] = digitText[i] as number;
+    }
+    buffer[pos++] = 101; // e
+    let x = n - 1;
+    if (x < 0) {
+      buffer[pos++] = 45;
+      x = -x;
+    } else buffer[pos++] = 43;
+    if (x >= 100) {
+      const h = (x / 100) | 0;
+      buffer[pos++] = 48 + h;
+      x -= h * 100;
+      buffer[pos++] = PAIRS[2 * x] as number;
+      buffer[pos++] = PAIRS[2 * x + 1] as number;
+    } else if (x >= 10) {
+      buffer[pos++] = PAIRS[2 * x] as number;
+      buffer[pos++] = PAIRS[2 * x + 1] as number;
+    } else buffer[pos++] = 48 + x;
+  }
+  return pos;
+}
+
 function writeAscii(text: string, buffer: Uint8Array, pos: number): number {
   for (let i = 0; i < text.length; i++) buffer[pos++] = text.charCodeAt(i);
   return pos;
 }
 
 /**
- * Writes the shortest round-trip text of `v` (`String(v)`; NaN as `NaN`, −0 as `0`).
+ * Rounding decision for r = R + F against `half` (an integer, or 0.5 for the last digit): 1 up,
+ * 0 down, −1 undecided (t too close to the half to tell). When t is exact, a tie is decided here,
+ * to the even candidate (`downEven`: the candidate below is even).
+ */
+function roundsUp(R: number, half: number, F: number, exact: boolean, downEven: boolean): number {
+  if (exact) {
+    if (half === 0.5) return F > 0.5 ? 1 : F < 0.5 ? 0 : downEven ? 0 : 1;
+    if (R !== half) return R > half ? 1 : 0;
+    return F > 0 ? 1 : downEven ? 0 : 1;
+  }
+  if (half === 0.5) {
+    if (F > 0.5 + MARGIN) return 1;
+    if (F < 0.5 - MARGIN) return 0;
+    return -1;
+  }
+  if (R > half) return 1;
+  if (R < half - 1) return 0;
+  if (R === half) return F > MARGIN ? 1 : -1;
+  return F < 1 - MARGIN ? 0 : -1; // R = half − 1
+}
+
+/**
+ * Whether a candidate `delta` (candidate − t, in units of t) away from a reads back as a: 1 yes,
+ * 0 no, −1 undecided. Exactly half an ulp away (decidable only when t is an exact integer) it
+ * reads back as a when a's mantissa is even.
+ */
+function within(delta: number, W: number, exactInteger: boolean): number {
+  const d = delta < 0 ? -delta : delta;
+  if (exactInteger) return d < W || (d === W && fastInt[EVEN_] === 1) ? 1 : 0;
+  if (d < W - MARGIN) return 1;
+  if (d > W + MARGIN) return 0;
+  return -1;
+}
+
+/**
+ * The fast path of {@link writeShortest} for a > 0: fills digitText and returns the decimal
+ * exponent, or NaN when it cannot decide (then the exact path is used).
+ */
+function shortestFast(a: number): number {
+  if (!decompose(a)) return Number.NaN;
+  const A = fastInt[A_] as number;
+  const B = fastInt[B_] as number;
+  const e = fastInt[E_] as number;
+  const exact = fastInt[EXACT_] === 1;
+  const F = fastReal[F_] as number;
+  const W = fastReal[W_] as number;
+  const exactInteger = exact && F === 0;
+  // 15 digits: round at the hundreds of the 17-digit integer.
+  const B100 = (B / 100) | 0;
+  let R = B - B100 * 100;
+  let up = roundsUp(R, 50, F, exact, (B100 & 1) === 0);
+  if (up < 0) return Number.NaN;
+  let ok = within(up * 100 - R - F, W, exactInteger);
+  if (ok === 1) return finishDigits(A, B - R + up * 100, e);
+  if (ok < 0) return Number.NaN;
+  // 16 digits.
+  const B10 = (B / 10) | 0;
+  R = B - B10 * 10;
+  up = roundsUp(R, 5, F, exact, (B10 & 1) === 0);
+  if (up < 0) return Number.NaN;
+  ok = within(up * 10 - R - F, W, exactInteger);
+  if (ok === 1) return finishDigits(A, B - R + up * 10, e);
+  if (ok < 0) return Number.NaN;
+  // 17 digits: always within half an ulp (W > 1.1 > 0.5 for a normal double).
+  up = roundsUp(0, 0.5, F, exact, (B & 1) === 0);
+  if (up < 0) return Number.NaN;
+  return finishDigits(A, B + up, e);
+}
+
+/** The fast path of {@link writeDigits} for a > 0 and 1 ≤ p ≤ 17; NaN when undecided. */
+function digitsFast(a: number, p: number): number {
+  if (!decompose(a)) return Number.NaN;
+  const A = fastInt[A_] as number;
+  const B = fastInt[B_] as number;
+  const e = fastInt[E_] as number;
+  const exact = fastInt[EXACT_] === 1;
+  const F = fastReal[F_] as number;
+  if (p === 17) {
+    const up = roundsUp(0, 0.5, F, exact, (B & 1) === 0);
+    return up < 0 ? Number.NaN : finishDigits(A, B + up, e);
+  }
+  const drop = 17 - p; // digits dropped
+  if (drop < 9) {
+    const u = POW10_INT[drop] as number;
+    const Bu = (B / u) | 0;
+    const R = B - Bu * u;
+    const up = roundsUp(R, u / 2, F, exact, (Bu & 1) === 0);
+    return up < 0 ? Number.NaN : finishDigits(A, B - R + up * u, e);
+  }
+  const ua = POW10_INT[drop - 9] as number; // unit within A
+  const Au = (A / ua) | 0;
+  const RA = A - Au * ua;
+  const R = RA * 1e9 + B; // < 10^16: exact
+  const up = roundsUp(R, ua * 5e8, F, exact, (Au & 1) === 0);
+  if (up < 0) return Number.NaN;
+  return finishDigits(A - RA + up * ua, 0, e);
+}
+
+// ---------------------------------------------------------------------------------------------
+// The exact path (BigInt): the reference, and the fallback of the fast path.
+
+/** Exact decimal exponent of a > 0: 10^e ≤ a < 10^(e+1). a = M / D. */
+function exactExponent(M: bigint, D: bigint, a: number): number {
+  let e = Math.floor(Math.log10(a));
+  const below = (x: number): boolean =>
+    // a < 10^x ?
+    x >= 0 ? M < D * bigPow10(x) : M * bigPow10(-x) < D;
+  while (below(e)) e--;
+  while (!below(e + 1)) e++;
+  return e;
+}
+
+/** Puts a digit string into digitText, trailing zeros dropped. */
+function scratchFromString(s: string): void {
+  let n = s.length;
+  while (n > 1 && s.charCodeAt(n - 1) === 48) n--;
+  for (let i = 0; i < n; i++) digitText[i] = s.charCodeAt(i);
+  digitCount = n;
+}
+
+/**
+ * Exact decimal of a > 0 (finite): `p` significant digits correctly rounded (ties to even), or with
+ * p = 0 the shortest decimal that reads back as a (closest, then even). Fills digitText;
+ * returns the decimal exponent.
+ */
+function exactDecimal(a: number, p: number): number {
+  const { m, q, ebits, frac } = bigParts(a);
+  const M = q >= 0 ? m << BigInt(q) : m;
+  const D = q >= 0 ? 1n : bigPow2(-q);
+  const e = exactExponent(M, D, a);
+  /** floor and remainder of a·10^s: a·10^s = N/Dd. */
+  const scaled = (s: number): { N: bigint; Dd: bigint } =>
+    s >= 0 ? { N: M * bigPow10(s), Dd: D } : { N: M, Dd: D * bigPow10(-s) };
+  if (p > 0) {
+    const { N, Dd } = scaled(p - 1 - e);
+    let d = N / Dd;
+    const r2 = 2n * (N % Dd);
+    if (r2 > Dd || (r2 === Dd && d % 2n === 1n)) d++;
+    let ee = e;
+    if (d === bigPow10(p)) {
+      d = bigPow10(p - 1);
+      ee++;
+    }
+    scratchFromString(d.toString());
+    return ee;
+  }
+  // Shortest: for each length, the candidates below and above a that lie in a's rounding interval
+  // (half an ulp either side; half of that below an exact power of two; ends included when m is
+  // even, as reading rounds ties to even); the closest wins, the even one on a tie.
+  const even = m % 2n === 0n;
+  const lowerCloser = frac === 0n && ebits > 1;
+  for (let len = 1; len <= 17; len++) {
+    const K = e + 1 - len; // candidate = d·10^K
+    const { N, Dd } = scaled(-K);
+    const below = N / Dd;
+    // Everything times 2^z2·10^z10 is an integer.
+    const z2 = Math.max(0, 2 - q);
+    const z10 = Math.max(0, -K);
+    const aUnits = m * bigPow2(q + z2) * bigPow10(z10);
+    const gapUp = bigPow2(q - 1 + z2) * bigPow10(z10);
+    const gapLow = lowerCloser ? bigPow2(q - 2 + z2) * bigPow10(z10) : gapUp;
+    let best: bigint | undefined;
+    let bestDistance = 0n;
+    for (const d of N % Dd === 0n ? [below] : [below, below + 1n]) {
+      if (d === 0n) continue;
+      const delta = d * bigPow2(z2) * bigPow10(K + z10) - aUnits;
+      const distance = delta < 0n ? -delta : delta;
+      const gap = delta < 0n ? gapLow : gapUp;
+      if (distance > gap || (distance === gap && !even)) continue;
+      if (best === undefined || distance < bestDistance || (distance === bestDistance && d % 2n === 0n)) {
+        best = d;
+        bestDistance = distance;
+      }
+    }
+    if (best !== undefined) {
+      const s = best.toString();
+      scratchFromString(s);
+      return s.length > len ? e + 1 : e; // a carry to 10^len moves the exponent up
+    }
+  }
+  throw new Error(`no decimal of at most 17 digits reads back as ${a}`);
+}
+
+// ---------------------------------------------------------------------------------------------
+
+/**
+ * Writes the shortest round-trip text of `v`: exactly `String(v)` (NaN as `NaN`, ±Infinity as
+ * `Infinity`/`-Infinity`), except that −0 is written `0` (as `String(-0)` does).
  *
  * @param v - The value.
  * @param buffer - The output bytes (at least 25 free at `pos`).
@@ -29,28 +490,27 @@ function writeAscii(text: string, buffer: Uint8Array, pos: number): number {
  * @returns The position after the text.
  */
 export function writeShortest(v: number, buffer: Uint8Array, pos: number): number {
-  return writeAscii(String(v), buffer, pos);
+  if (v !== v) return writeAscii('NaN', buffer, pos);
+  if (v === 0) {
+    buffer[pos] = 48;
+    return pos + 1;
+  }
+  const negative = v < 0;
+  const a = negative ? -v : v;
+  if (a === Infinity) return writeAscii(negative ? '-Infinity' : 'Infinity', buffer, pos);
+  let e = shortestFast(a);
+  if (e !== e) e = exactDecimal(a, 0);
+  return layout(negative, e, buffer, pos);
 }
 
-/** Scratch for the digits of one number. */
-const digitScratch = new Uint8Array(24);
-
 /**
- * Writes `v` correctly rounded to `digits` significant digits, in the text
- * `String(Number(v.toPrecision(digits)))` gives (no trailing zeros; exponent form below 1e-6 and
- * from 1e21 on).
- *
- * @remarks
- * Fast path (1–15 digits, decimal exponent of `v` within ±22 of the digits): with e the decimal
- * exponent of |v| and k = digits − 1 − e, the scaled value s = |v|·10^k is formed with one
- * correctly rounded operation (10^|k| is exact), so |s − |v|·10^k| ≤ ulp(s)/2. The digits are
- * round(|v|·10^k); s decides that rounding unless its fraction lies within ulp(s) of one half, and
- * those cases (and every value outside the fast path's range) go to `toPrecision`, which rounds
- * exactly. The integer's digits are then written with trailing zeros dropped and the decimal point
- * or exponent placed as ECMAScript's Number::toString places them.
+ * Writes `v` correctly rounded to `digits` significant digits (the exact binary value rounded to
+ * nearest, ties to even), trailing zeros dropped, laid out as Number::toString lays out a number
+ * (plain notation for decimal exponents from −7 to 20, else `d.ddde±x`); NaN as `NaN`, zeros as
+ * `0`.
  *
  * @param v - The value.
- * @param digits - Significant digits (integer in [1, 17]).
+ * @param digits - Significant digits (integer in [1, 17]; not checked here).
  * @param buffer - The output bytes (at least 25 free at `pos`).
  * @param pos - Where to write.
  * @returns The position after the text.
@@ -61,73 +521,32 @@ export function writeDigits(v: number, digits: number, buffer: Uint8Array, pos: 
     buffer[pos] = 48;
     return pos + 1;
   }
-  const a = v < 0 ? -v : v;
-  if (digits > 15 || !(a >= 1e-300 && a < 1e300)) return slowDigits(v, digits, buffer, pos);
-  // Decimal exponent e with 10^e <= a < 10^(e+1), up to one off (checked through m below).
-  let e = Math.floor(Math.log10(a));
-  const k = digits - 1 - e;
-  if (k > 22 || k < -22) return slowDigits(v, digits, buffer, pos);
-  const s = k >= 0 ? a * (POW10[k] as number) : a / (POW10[-k] as number);
-  let m = Math.floor(s);
-  // e one off (a next to a power of ten): m has one digit too many or too few; decide exactly instead.
-  if (m >= (POW10[digits] as number) || m < (POW10[digits - 1] as number)) {
-    return slowDigits(v, digits, buffer, pos);
-  }
-  const frac = s - m;
-  // ulp(s) within a factor 2 (log2 may be off by one); the margin 2·ulp covers the error ulp(s)/2.
-  const ulp = 2 ** (Math.floor(Math.log2(s)) - 52);
-  if (Math.abs(frac - 0.5) <= 2 * ulp) return slowDigits(v, digits, buffer, pos);
-  if (frac > 0.5) {
-    m++;
-    if (m === POW10[digits]) {
-      m = POW10[digits - 1] as number;
-      e++;
-    }
-  }
-  // Digits of m, most significant first, trailing zeros dropped.
-  let hi = Math.floor(m / 1e8);
-  let lo = m - hi * 1e8;
-  for (let i = 0; i < 8; i++) {
-    digitScratch[15 - i] = lo % 10;
-    lo = Math.floor(lo / 10);
-  }
-  for (let i = 8; i < 16; i++) {
-    digitScratch[15 - i] = hi % 10;
-    hi = Math.floor(hi / 10);
-  }
-  const first = 16 - digits;
-  let last = 15;
-  while (last > first && digitScratch[last] === 0) last--;
-  const n = last - first + 1;
-  if (v < 0) buffer[pos++] = 45;
-  const point = e + 1; // ECMAScript's n: the decimal point sits after `point` digits
-  if (n <= point && point <= 21) {
-    for (let i = first; i <= last; i++) buffer[pos++] = 48 + (digitScratch[i] as number);
-    for (let i = n; i < point; i++) buffer[pos++] = 48;
-  } else if (0 < point && point <= 21) {
-    for (let i = 0; i < n; i++) {
-      if (i === point) buffer[pos++] = 46;
-      buffer[pos++] = 48 + (digitScratch[first + i] as number);
-    }
-  } else if (-6 < point && point <= 0) {
-    buffer[pos++] = 48;
-    buffer[pos++] = 46;
-    for (let i = point; i < 0; i++) buffer[pos++] = 48;
-    for (let i = first; i <= last; i++) buffer[pos++] = 48 + (digitScratch[i] as number);
-  } else {
-    buffer[pos++] = 48 + (digitScratch[first] as number);
-    if (n > 1) {
-      buffer[pos++] = 46;
-      for (let i = first + 1; i <= last; i++) buffer[pos++] = 48 + (digitScratch[i] as number);
-    }
-    buffer[pos++] = 101; // e
-    const x = point - 1;
-    buffer[pos++] = x < 0 ? 45 : 43;
-    pos = writeAscii(String(x < 0 ? -x : x), buffer, pos);
-  }
-  return pos;
+  const negative = v < 0;
+  const a = negative ? -v : v;
+  if (a === Infinity) return writeAscii(negative ? '-Infinity' : 'Infinity', buffer, pos);
+  let e = digitsFast(a, digits);
+  if (e !== e) e = exactDecimal(a, digits);
+  return layout(negative, e, buffer, pos);
 }
 
-function slowDigits(v: number, digits: number, buffer: Uint8Array, pos: number): number {
-  return writeAscii(String(Number(v.toPrecision(digits))), buffer, pos);
-}
+/**
+ * The two paths apart, for tests: the fast path's text, or `undefined` where it defers; and the
+ * exact path's text.
+ *
+ * @internal
+ */
+export const numberTextPaths = {
+  fast(v: number, digits: number): string | undefined {
+    const a = Math.abs(v);
+    const e = digits === 0 ? shortestFast(a) : digitsFast(a, digits);
+    if (e !== e) return undefined;
+    const buffer = new Uint8Array(32);
+    return new TextDecoder().decode(buffer.subarray(0, layout(v < 0, e, buffer, 0)));
+  },
+  exact(v: number, digits: number): string {
+    const a = Math.abs(v);
+    const e = exactDecimal(a, digits);
+    const buffer = new Uint8Array(32);
+    return new TextDecoder().decode(buffer.subarray(0, layout(v < 0, e, buffer, 0)));
+  },
+};

@@ -41,3 +41,66 @@ export function streamSink(stream: CliStream, options: { readonly binary?: boole
     },
   };
 }
+
+/**
+ * Writes queued in order, one at a time, while the caller goes on working (see
+ * {@link createWriteQueue}).
+ */
+export interface WriteQueue {
+  /**
+   * Queues a chunk behind the writes already queued.
+   *
+   * @param chunk - Bytes (not to be changed until the promise resolves) or text.
+   * @returns Resolves when the chunk is written, so its memory may be reused; rejects if this or
+   *   an earlier write failed.
+   */
+  write(chunk: string | Uint8Array): Promise<void>;
+  /** Resolves when every queued chunk is written; rejects with the first failure. */
+  flush(): Promise<void>;
+}
+
+/**
+ * A queue of writes to a sink, so that a writer can fill its next buffer while the last one is
+ * being written (double buffering).
+ *
+ * @remarks
+ * Chunks reach the sink in the order queued, each after the previous one's write has resolved (an
+ * {@link OutputSink} takes one write at a time). After a failure no later chunk is written and
+ * every later promise rejects with that failure. A promise the caller has not awaited yet never
+ * counts as an unhandled rejection: the caller meets the failure at its next `write` it awaits, or
+ * at `flush`.
+ *
+ * @param sink - Where the chunks go.
+ * @returns The queue.
+ * @example
+ * ```ts
+ * const queue = createWriteQueue(file);
+ * const written = queue.write(bufferA); // fill bufferB meanwhile
+ * await written; // bufferA is free again
+ * await queue.flush();
+ * ```
+ */
+export function createWriteQueue(sink: OutputSink): WriteQueue {
+  let tail: Promise<void> = Promise.resolve();
+  let failed = false;
+  let failure: unknown;
+  return {
+    write(chunk) {
+      const written = tail.then(() => {
+        if (failed) throw failure;
+        return sink.write(chunk);
+      });
+      tail = written.catch((e: unknown) => {
+        if (!failed) {
+          failed = true;
+          failure = e;
+        }
+      });
+      return written;
+    },
+    async flush() {
+      await tail;
+      if (failed) throw failure;
+    },
+  };
+}

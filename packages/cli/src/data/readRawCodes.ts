@@ -16,10 +16,12 @@ export interface RawCodeOptions extends RawLayout {
  *
  * @remarks
  * After the file header, the file must hold a whole number of frames: this is checked here, before
- * any output is written, and again while reading in case the file changed. Each block is read into
- * one reused byte buffer and decoded into one lane per channel (one loop per stored type); a time
- * stamp in the frame header is decoded into the block's `timeStamps`. Memory: the byte buffer
- * (`blockFrames × frameBytes`), the lanes (4 or 8 bytes per code) and the stamps, allocated once.
+ * any output is written, and again while reading in case the file changed. Blocks are read ahead:
+ * while one block is decoded and converted, the next is read into a second byte buffer. Each block
+ * is decoded into one lane per channel (one loop per stored type); a time stamp in the frame
+ * header is decoded into the block's `timeStamps`. Memory: two byte buffers
+ * (`blockFrames × frameBytes` each), the lanes (4 or 8 bytes per code) and the stamps, allocated
+ * once.
  *
  * @param file - The file path.
  * @param options - The layout and the block size.
@@ -68,22 +70,37 @@ export async function openRawCodes(file: string, options: RawCodeOptions): Promi
     totalFrames: dataBytes / frameBytes,
     async *blocks() {
       const blockBytes = blockFrames * frameBytes;
-      const bytes = new Uint8Array(blockBytes);
+      // Two byte buffers: the next block is read into one while the other is decoded.
+      const buffers = [new Uint8Array(blockBytes), new Uint8Array(blockBytes)];
       const codes = fitsInt32(layout.sample)
         ? new Int32Array(blockFrames * channels)
         : new Float64Array(blockFrames * channels);
       const stamps = timeStamp === undefined ? undefined : timeStampArray(timeStamp.type, blockFrames);
       const handle = await openInput(file);
+      const fill = async (bytes: Uint8Array, at: number): Promise<number> => {
+        let filled = 0;
+        while (filled < blockBytes) {
+          const { bytesRead } = await handle.read(bytes, filled, blockBytes - filled, at + filled);
+          if (bytesRead === 0) break;
+          filled += bytesRead;
+        }
+        return filled;
+      };
+      let reading: Promise<number> | undefined;
+      const readAhead = (bytes: Uint8Array, at: number): Promise<number> => {
+        const p = fill(bytes, at);
+        p.catch(() => undefined); // met when awaited; never an unhandled rejection meanwhile
+        return p;
+      };
       try {
         let position = fileHeaderBytes;
         let frame = 0;
+        let slot = 0;
+        reading = readAhead(buffers[0] as Uint8Array, position);
         for (;;) {
-          let filled = 0;
-          while (filled < blockBytes) {
-            const { bytesRead } = await handle.read(bytes, filled, blockBytes - filled, position + filled);
-            if (bytesRead === 0) break;
-            filled += bytesRead;
-          }
+          const filled = await (reading as Promise<number>);
+          reading = undefined;
+          const bytes = buffers[slot] as Uint8Array;
           position += filled;
           if (filled % frameBytes !== 0) {
             throw new BridgeworkError(
@@ -94,6 +111,8 @@ export async function openRawCodes(file: string, options: RawCodeOptions): Promi
           }
           const frames = filled / frameBytes;
           if (frames === 0) return;
+          slot ^= 1;
+          if (frames === blockFrames) reading = readAhead(buffers[slot] as Uint8Array, position);
           decodeFrames(bytes, frames, geometry, codes, blockFrames);
           if (stamps !== undefined && timeStamp !== undefined) {
             decodeTimeStamps(bytes, frames, frameBytes, timeStamp.offsetBytes, timeStamp.type, stamps);
@@ -111,6 +130,8 @@ export async function openRawCodes(file: string, options: RawCodeOptions): Promi
           if (frames < blockFrames) return;
         }
       } finally {
+        // A read still under way (the consumer stopped early, or failed) ends before the file closes.
+        if (reading !== undefined) await reading.catch(() => undefined);
         await handle.close();
       }
     },

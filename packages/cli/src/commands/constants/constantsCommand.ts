@@ -15,9 +15,26 @@ export const constantsOptions = [
     name: 'format',
     type: 'choice',
     placeholder: 'format',
-    choices: ['c', 'json'],
+    choices: ['c', 'json', 'sql'],
     default: 'c',
-    description: 'Output format: a C99 header, or JSON.',
+    description:
+      "Output format: a C99 header, JSON, or SQL (a SELECT that turns a table of codes into values in the user's engine: the exact map of a linear-fractional channel, equal to the library bit for bit; a nonlinear channel's verified float64 polynomial with its bound).",
+  },
+  {
+    name: 'dialect',
+    type: 'choice',
+    placeholder: 'engine',
+    choices: ['duckdb', 'postgresql', 'spark', 'trino'],
+    default: 'duckdb',
+    description: 'SQL: the engine whose literal and identifier syntax to write.',
+  },
+  {
+    name: 'table',
+    type: 'string',
+    placeholder: 'name',
+    default: 'codes',
+    description:
+      'SQL: the table (or view, or schema.table) holding the codes, one column per channel named after it.',
   },
   outOption,
   forceOption,
@@ -55,7 +72,7 @@ export type ConstantsArgs = ParsedArgs<typeof constantsOptions, typeof constants
 /** `bridgework constants`: firmware constants of each channel. */
 export const constantsCommand = defineCommand({
   name: 'constants',
-  summary: 'Firmware constants of each channel as a C header or JSON.',
+  summary: 'Firmware constants of each channel as a C header or JSON, or its map as SQL.',
   description:
     'Writes the code-to-quantity map of each channel for firmware over its span of interest: a fixed-point map (integer multiply, add and shift on the minimax line of the exact map) and float32 and float64 Chebyshev polynomials, each with its proved rounding bound and its error against the exact channel map, as a C99 header (default) or as JSON. One header holds every selected channel; identifiers are the prefix and the channel name, so several channels and several headers can live in one firmware. The header and the JSON carry the safety caution.',
   positionals: constantsArguments,
@@ -72,6 +89,10 @@ export const constantsCommand = defineCommand({
     {
       command: 'bridgework constants hopper.yaml --format json',
       description: 'Print the constants as JSON.',
+    },
+    {
+      command: 'bridgework constants rig.yaml --format sql --dialect trino --table lake.rig_codes -o rig.sql',
+      description: "Each channel's map as SQL, for reprocessing an archive in the user's own engine.",
     },
   ],
   load: () => import('./runConstants.js'),

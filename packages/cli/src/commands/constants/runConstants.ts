@@ -1,6 +1,8 @@
+import { BridgeworkError } from '@bridgework/core';
 import { loadChannels } from '../../channels/loadChannels.js';
 import { exitCodes } from '../../exitCodes.js';
 import { readVersion } from '../../internal/readVersion.js';
+import { constantsSql } from '../../report/constantsSql.js';
 import { constantsText, parseTypeList } from '../../report/constantsText.js';
 import type { CommandContext } from '../CommandContext.js';
 import { openResultOutput } from '../resultOutput.js';
@@ -19,6 +21,13 @@ import type { ConstantsArgs } from './constantsCommand.js';
 export async function run(args: ConstantsArgs, context: CommandContext): Promise<number> {
   const { options } = args;
   const types = options.types === undefined ? undefined : parseTypeList(options.types);
+  if (options.format === 'sql' && types !== undefined) {
+    throw new BridgeworkError(
+      'invalid-option',
+      "--types chooses firmware evaluators; --format sql writes each channel's map as SQL and takes none",
+      { param: '--types', value: options.types },
+    );
+  }
   const loaded = await loadChannels(
     args.positionals.channelFile,
     options.channel === undefined ? undefined : [options.channel],
@@ -26,16 +35,25 @@ export async function run(args: ConstantsArgs, context: CommandContext): Promise
   const output = await openResultOutput(context, options.out, options.force);
   try {
     await output.write(
-      constantsText(loaded, {
-        format: options.format,
-        prefix: options.prefix,
-        verification: options.verification,
-        generator: `bridgework ${await readVersion()}`,
-        ...(types === undefined ? {} : { types }),
-      }),
+      options.format === 'sql'
+        ? constantsSql(loaded, {
+            dialect: options.dialect,
+            table: options.table,
+            verification: options.verification,
+            generator: `bridgework ${await readVersion()}`,
+          })
+        : constantsText(loaded, {
+            format: options.format,
+            prefix: options.prefix,
+            verification: options.verification,
+            generator: `bridgework ${await readVersion()}`,
+            ...(types === undefined ? {} : { types }),
+          }),
     );
     const n = loaded.channels.length;
-    await output.commit(`the constants of ${n} channel${n === 1 ? '' : 's'}`);
+    await output.commit(
+      `the ${options.format === 'sql' ? 'SQL maps' : 'constants'} of ${n} channel${n === 1 ? '' : 's'}`,
+    );
     return exitCodes.ok;
   } finally {
     await output.abort();

@@ -43,15 +43,15 @@ export const convertOptions = [
     type: 'choice',
     placeholder: 'format',
     choices: ['csv', ...sampleTypes],
-    defaultText: 'csv for .csv and .txt files, else int32le',
+    defaultText: "the channel file's recording section, else csv for .csv and .txt files, else int32le",
     description:
-      'Format of the codes file: csv, or a raw recording of one stored code type: int16, uint16, int24 (packed 3 bytes), uint24, int32, uint32, float32 or float64, each le (little-endian) or be (big-endian).',
+      "Format of the codes file: csv, or a raw recording of one stored code type: int16, uint16, int24 (packed 3 bytes), uint24, int32, uint32, float32 or float64, each le (little-endian) or be (big-endian). Given, it describes the recording alone: the channel file's recording section is not used.",
   },
   {
     name: 'channels',
     type: 'string',
     placeholder: 'names',
-    defaultText: 'every channel, in file order',
+    defaultText: "the recording section's channels, else every channel, in file order",
     description:
       'Channels of the channel file that the data holds, comma-separated, in the order of the CSV code columns or of the raw interleaving.',
   },
@@ -62,7 +62,7 @@ export const convertOptions = [
     unit: 'bytes',
     min: 0,
     max: 1_048_576,
-    default: 0,
+    defaultText: "the channel file's recording section, else 0",
     description: 'Raw: bytes at the start of the file, before the first frame, skipped.',
   },
   {
@@ -72,7 +72,7 @@ export const convertOptions = [
     unit: 'bytes',
     min: 0,
     max: 1_048_576,
-    default: 0,
+    defaultText: "the channel file's recording section, else 0",
     description:
       'Raw: bytes at the start of every frame, before the codes; skipped, except a time stamp in them.',
   },
@@ -83,7 +83,7 @@ export const convertOptions = [
     unit: 'bytes',
     min: 0,
     max: 1_048_576,
-    default: 0,
+    defaultText: "the channel file's recording section, else 0",
     description: 'Raw: bytes at the end of every frame, after the codes (a checksum, say), skipped.',
   },
   {
@@ -101,7 +101,7 @@ export const convertOptions = [
     unit: 'bytes',
     min: 0,
     max: 1_048_576,
-    default: 0,
+    defaultText: "the channel file's recording section, else 0",
     description: 'Raw: offset of the time stamp from the start of the frame.',
   },
   {
@@ -206,7 +206,8 @@ export const convertOptions = [
     min: 1,
     max: 17,
     defaultText: 'shortest exact round trip',
-    description: 'CSV: digits written per value (fewer digits write faster).',
+    description:
+      'CSV: significant digits per value: the exact value correctly rounded (ties to even), trailing zeros dropped; fewer digits make a smaller file. The default writes the shortest text that reads back as the same double.',
   },
   {
     name: 'fail-on-clip',
@@ -225,7 +226,8 @@ export const convertCommand = defineCommand({
     'Convert recorded converter codes (CSV or raw) to engineering units as CSV, raw floats, Arrow or Parquet.',
   description:
     "Reads converter codes from a CSV file (one column per channel, header optional, RFC 4180 quoting; time and other columns passed through) or a raw recording (16-, 24- or 32-bit integers or floats of either byte order, channels interleaved frame by frame, with optional file and frame headers and a per-frame time stamp) and writes the quantity of every sample: as CSV, raw float32/float64, an Apache Arrow IPC file or stream, or Apache Parquet, one column per channel with the time or frame column; the columnar formats carry the units, channel names, bridgework version and the channel file's SHA-256 in their metadata. The file is streamed in blocks, so files larger than memory work; a progress bar is shown on a terminal.\n\n" +
-    "Codes at or beyond the converter rails, or outside the range the map can invert, are never turned into plausible numbers: they are written as NaN (null in Arrow and Parquet), and a summary per channel is printed on standard error. Corrections from the data: --zero-window takes each channel's zero reading from a window of the recording; --temperature-from corrects strain channels block by block from a temperature channel. The output file is written atomically: an interrupted or failed run leaves no file behind.",
+    "Codes at or beyond the converter rails, or outside the range the map can invert, are never turned into plausible numbers: they are written as NaN (null in Arrow and Parquet), and a summary per channel is printed on standard error. Corrections from the data: --zero-window takes each channel's zero reading from a window of the recording; --temperature-from corrects strain channels block by block from a temperature channel. The output file is written atomically: an interrupted or failed run leaves no file behind.\n\n" +
+    "A channel file's recording section states the layout of its channels' recordings once (format, channels in frame order, header sizes, time stamp, sample rate, CSV columns); options given here override it field by field, and --from replaces it.",
   positionals: convertArguments,
   options: convertOptions,
   examples: [

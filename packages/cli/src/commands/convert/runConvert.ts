@@ -7,7 +7,8 @@ import { SAFETY_CAUTION } from '../../caution.js';
 import { loadChannels, type LoadedChannel } from '../../channels/loadChannels.js';
 import { formatClipSummary } from '../../data/clipCounter.js';
 import { convertRecording, type BlockTemperature } from '../../data/convertRecording.js';
-import { openCodeSource } from '../../data/openCodeSource.js';
+import { openCodeSource, type OpenCodeSourceOptions } from '../../data/openCodeSource.js';
+import type { RecordingSection } from '../../channelFile/recordingSection.js';
 import { writeRecording } from '../../data/openRecordingOutput.js';
 import { outputFormatFromPath } from '../../data/outputFormats.js';
 import type { ChannelColumn, RecordingColumns } from '../../data/recordingColumns.js';
@@ -96,47 +97,28 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
   const input = args.positionals.codesFile;
   const channelFile = args.positionals.channelFile;
   const output = options.out === undefined || options.out === '-' ? undefined : options.out;
-  if (options.sampleRate !== undefined && !(options.sampleRate > 0)) {
-    throw new BridgeworkError(
-      'invalid-option',
-      `--sample-rate must be above 0 Hz; got ${options.sampleRate}`,
-      {
-        param: '--sample-rate',
-        value: options.sampleRate,
-      },
-    );
-  }
   if (output !== undefined) await refuseOutputOverInputs(output, [input, channelFile]);
   const names = options.channels === undefined ? undefined : parseChannelList(options.channels);
-  const loaded = await loadChannels(channelFile, names);
+  // The channel file's recording section gives the layout, unless --from describes another one.
+  const loaded = await loadChannels(
+    channelFile,
+    (file) => names ?? (options.from === undefined ? file.recording?.channels : undefined),
+  );
+  const section = options.from === undefined ? loaded.file.recording : undefined;
   const all = loaded.channels;
+  const sampleRate = options.sampleRate ?? section?.sampleRateHertz;
+  if (sampleRate !== undefined && !(sampleRate > 0)) {
+    throw new BridgeworkError('invalid-option', `--sample-rate must be above 0 Hz; got ${sampleRate}`, {
+      param: '--sample-rate',
+      value: sampleRate,
+    });
+  }
+  const layout = recordingLayout(options, section);
 
   const source = await openCodeSource(input, {
     channels: all.length,
     blockFrames: options.block,
-    ...(options.from === undefined ? {} : { format: options.from }),
-    fileHeaderBytes: options.fileHeader,
-    frameHeaderBytes: options.frameHeader,
-    frameTrailerBytes: options.frameTrailer,
-    ...(options.timeStamp === undefined
-      ? {}
-      : {
-          timeStamp: {
-            type: options.timeStamp,
-            offsetBytes: options.timeStampAt,
-            ...(options.tick === undefined ? {} : { secondsPerTick: options.tick }),
-          },
-        }),
-    ...(options.columns === undefined ? {} : { columns: parseColumnList(options.columns) }),
-    ...(options.timeColumn === undefined
-      ? {}
-      : { timeColumn: /^\d+$/.test(options.timeColumn) ? Number(options.timeColumn) : options.timeColumn }),
-    ...(options.keepColumns === undefined
-      ? {}
-      : {
-          keep:
-            options.keepColumns === 'none' ? 'none' : parseColumnList(options.keepColumns, '--keep-columns'),
-        }),
+    ...layout,
   });
   if (source.channels !== all.length) {
     throw new BridgeworkError(
@@ -201,7 +183,7 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
     const means = await windowMeans(
       source,
       window,
-      options.sampleRate === undefined ? {} : { sampleRateHertz: options.sampleRate },
+      sampleRate === undefined ? {} : { sampleRateHertz: sampleRate },
       (j, code) =>
         code > (channels[j] as Channel).validCodes.min && code < (channels[j] as Channel).validCodes.max,
     );
@@ -254,9 +236,11 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
     'bridgework.channels': JSON.stringify(channelColumns),
     'bridgework.flagged':
       'samples whose code is at or beyond the converter rails, or outside what the sensor can produce, are null (NaN in CSV and raw outputs)',
-    ...(options.sampleRate === undefined
-      ? {}
-      : { 'bridgework.sample-rate-hertz': String(options.sampleRate) }),
+    'bridgework.recording.layout-from':
+      section === undefined
+        ? 'command line'
+        : `command line over the recording section of ${basename(channelFile)}`,
+    ...(sampleRate === undefined ? {} : { 'bridgework.sample-rate-hertz': String(sampleRate) }),
     ...(zero === undefined
       ? {}
       : {
@@ -331,6 +315,56 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
   return flagged && options.failOnClip ? exitCodes.failedCheck : exitCodes.ok;
 }
 
+/** A mean code in full (shortest round trip), so that it can be copied into `zero.code` exactly. */
 function formatCode(code: number): string {
-  return Number.isInteger(code) ? String(code) : code.toFixed(2);
+  return String(code);
+}
+
+/**
+ * The recording's layout: each option given on the command line, else the channel file's
+ * recording section's field (none when `--from` is given: the section then does not apply).
+ */
+function recordingLayout(
+  options: ConvertArgs['options'],
+  section: RecordingSection | undefined,
+): OpenCodeSourceOptions {
+  const pick = <T>(given: T | undefined, fromFile: T | undefined): T | undefined => given ?? fromFile;
+  const format = pick(options.from, section?.format);
+  const fileHeaderBytes = pick(options.fileHeader, section?.fileHeaderBytes);
+  const frameHeaderBytes = pick(options.frameHeader, section?.frameHeaderBytes);
+  const frameTrailerBytes = pick(options.frameTrailer, section?.frameTrailerBytes);
+  const stampType = pick(options.timeStamp, section?.timeStamp?.type);
+  const offsetBytes = pick(options.timeStampAt, section?.timeStamp?.offsetBytes) ?? 0;
+  const secondsPerTick = pick(options.tick, section?.timeStamp?.secondsPerTick);
+  const columns = options.columns === undefined ? section?.codeColumns : parseColumnList(options.columns);
+  const timeColumn =
+    options.timeColumn === undefined
+      ? section?.timeColumn
+      : /^\d+$/.test(options.timeColumn)
+        ? Number(options.timeColumn)
+        : options.timeColumn;
+  const keep =
+    options.keepColumns === undefined
+      ? section?.keepColumns
+      : options.keepColumns === 'none'
+        ? 'none'
+        : parseColumnList(options.keepColumns, '--keep-columns');
+  return {
+    ...(format === undefined ? {} : { format }),
+    ...(fileHeaderBytes === undefined ? {} : { fileHeaderBytes }),
+    ...(frameHeaderBytes === undefined ? {} : { frameHeaderBytes }),
+    ...(frameTrailerBytes === undefined ? {} : { frameTrailerBytes }),
+    ...(stampType === undefined
+      ? {}
+      : {
+          timeStamp: {
+            type: stampType,
+            offsetBytes,
+            ...(secondsPerTick === undefined ? {} : { secondsPerTick }),
+          },
+        }),
+    ...(columns === undefined ? {} : { columns }),
+    ...(timeColumn === undefined ? {} : { timeColumn }),
+    ...(keep === undefined ? {} : { keep }),
+  };
 }

@@ -1,0 +1,181 @@
+// The CSV writer's number text (packages/cli/src/data/numberText.ts) against references outside
+// it: ECMAScript's own Number::toString for the shortest round-trip form, and decimal.js at full
+// precision over the double's exact value (core's exactDecimalString) for the correctly rounded
+// form with a stated number of digits.
+import { exactDecimalString } from '@bridgework/core';
+import { Decimal } from 'decimal.js';
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { numberTextPaths, writeDigits, writeShortest } from '../src/data/numberText.js';
+
+const buffer = new Uint8Array(40);
+const decoder = new TextDecoder();
+const shortest = (v: number): string => decoder.decode(buffer.subarray(0, writeShortest(v, buffer, 0)));
+const digits = (v: number, d: number): string =>
+  decoder.decode(buffer.subarray(0, writeDigits(v, d, buffer, 0)));
+
+// Exponent form outside 1e-7 ≤ |x| < 1e21, as Number::toString (ECMA-262 §6.1.6.1.20) lays it out.
+const D = Decimal.clone({ precision: 1200, toExpNeg: -7, toExpPos: 21 });
+/** Reference: the double's exact value rounded to d significant digits, ties to even (IEEE 754-2008 §5.12.2). */
+function referenceDigits(v: number, d: number): string {
+  if (v === 0) return '0';
+  return new D(exactDecimalString(v)).toSignificantDigits(d, Decimal.ROUND_HALF_EVEN).toString();
+}
+
+/** Doubles from their 64 bits: every exponent, subnormals included (no NaN or ±∞). */
+const anyFinite = fc
+  .tuple(fc.integer({ min: 0, max: 0xffffffff }), fc.integer({ min: 0, max: 0xffffffff }))
+  .map(([hi, lo]) => {
+    const f = new Float64Array(1);
+    const u = new Uint32Array(f.buffer);
+    u[0] = lo;
+    u[1] = hi;
+    return f[0] as number;
+  })
+  .filter((v) => Number.isFinite(v));
+/** Values as loggers and converted channels produce them: a few digits at a typical magnitude. */
+const measured = fc
+  .tuple(fc.integer({ min: -99_999_999, max: 99_999_999 }), fc.integer({ min: -12, max: 6 }))
+  .map(([m, k]) => m * 10 ** k);
+/** float32 values widened to double (the raw float32 input path). */
+const widened = fc.float({ noNaN: true, noDefaultInfinity: true }).map((x) => x);
+
+const edges = [
+  0,
+  -0,
+  1,
+  -1,
+  0.1,
+  0.2,
+  0.3,
+  0.1 + 0.2,
+  2.5,
+  1.5,
+  0.5,
+  0.125,
+  9.5,
+  99.95,
+  4.35,
+  -2.675,
+  1e21,
+  1e-7,
+  1e-6,
+  9.999999e20,
+  999999999999999900000,
+  123456789012345680000,
+  1e22,
+  1e23,
+  5e-324,
+  2 ** -1074 * 3,
+  2 ** -1022,
+  2 ** -1022 - 2 ** -1074,
+  1.7976931348623157e308,
+  2 ** 53,
+  2 ** 53 + 2,
+  2 ** 60,
+  2 ** -60,
+  2 ** 1023,
+  1e300,
+  1e-300,
+  1e280,
+  1e-280,
+  4e280,
+  1.5e308,
+  9007199254740993,
+  0.000001234,
+  123456.789,
+  Math.PI,
+  Math.E,
+  1 / 3,
+  2 / 3,
+  1e16,
+  1e17,
+  99999999999999999,
+  9999999999999998,
+  12345678901234567890,
+];
+
+describe('writeShortest', () => {
+  it('is String(v) for every double (property over 64-bit patterns, measured values and float32 values)', () => {
+    // Reference: ECMAScript Number::toString (ECMA-262 §6.1.6.1.20), the shortest round trip.
+    for (const arb of [anyFinite, measured, widened]) {
+      fc.assert(
+        fc.property(arb, (v) => {
+          expect(shortest(v)).toBe(String(v));
+        }),
+        { numRuns: 10_000 },
+      );
+    }
+  });
+
+  it('is String(v) at the edges: powers of two and ten, subnormals, notation thresholds, NaN and ±∞', () => {
+    for (const v of [...edges, ...edges.map((x) => -x), NaN, Infinity, -Infinity]) {
+      expect(shortest(v), String(v)).toBe(String(v));
+    }
+    for (let k = -1074; k <= 1023; k++) expect(shortest(2 ** k), `2^${k}`).toBe(String(2 ** k));
+    for (let k = -323; k <= 308; k++) {
+      const v = Number(`1e${k}`);
+      for (const w of [v, v * (1 + Number.EPSILON), v * (1 - Number.EPSILON / 2)]) {
+        expect(shortest(w), String(w)).toBe(String(w));
+      }
+    }
+  });
+
+  it('fast and exact paths agree wherever the fast path decides', () => {
+    let decided = 0;
+    fc.assert(
+      fc.property(fc.oneof(anyFinite, measured), (v) => {
+        if (v === 0) return;
+        const fast = numberTextPaths.fast(v, 0);
+        expect(numberTextPaths.exact(v, 0)).toBe(String(v));
+        if (fast !== undefined) {
+          decided++;
+          expect(fast).toBe(String(v));
+        }
+      }),
+      { numRuns: 5_000 },
+    );
+    // The fast path must carry the load (it defers only near a decision's threshold).
+    expect(decided).toBeGreaterThan(4_000);
+  });
+});
+
+describe('writeDigits', () => {
+  it('is the exact value correctly rounded to d digits, ties to even (decimal.js reference, property)', () => {
+    for (const arb of [anyFinite, measured, widened]) {
+      fc.assert(
+        fc.property(arb, fc.integer({ min: 1, max: 17 }), (v, d) => {
+          expect(digits(v, d)).toBe(referenceDigits(v, d));
+        }),
+        { numRuns: 4_000 },
+      );
+    }
+  });
+
+  it('rounds exact ties to even, carries into the next power of ten, and never writes Infinity for a finite value', () => {
+    for (const v of [...edges, ...edges.map((x) => -x)]) {
+      for (let d = 1; d <= 17; d++) expect(digits(v, d), `${v} to ${d}`).toBe(referenceDigits(v, d));
+    }
+    // Ties (the double is exactly halfway): IEEE 754's default rounding keeps the even digit.
+    expect(digits(2.5, 1)).toBe('2');
+    expect(digits(3.5, 1)).toBe('4');
+    expect(digits(0.125, 2)).toBe('0.12');
+    expect(digits(-1054994633229674.5, 16)).toBe('-1054994633229674');
+    expect(digits(9.5, 1)).toBe('10');
+    expect(digits(1.5e308, 1)).toBe('2e+308');
+    expect(digits(NaN, 3)).toBe('NaN');
+  });
+
+  it('reads back within half a unit in the d-th digit, and at 17 digits as the same double', () => {
+    fc.assert(
+      fc.property(anyFinite, fc.integer({ min: 1, max: 17 }), (v, d) => {
+        const text = digits(v, d);
+        if (d === 17) expect(Number(text)).toBe(v);
+        const error = new D(text).minus(new D(exactDecimalString(v))).abs();
+        const halfUnit = new D(10).pow(new D(exactDecimalString(Math.abs(v) || 1)).e - d + 1).div(2);
+        expect(error.lte(halfUnit)).toBe(true);
+      }),
+      { numRuns: 3_000 },
+    );
+  });
+});
