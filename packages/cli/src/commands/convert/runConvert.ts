@@ -16,7 +16,6 @@ import { exitCodes } from '../../exitCodes.js';
 import { refuseOutputOverInputs } from '../../internal/fileErrors.js';
 import { readVersion } from '../../internal/readVersion.js';
 import { splitOptionList } from '../../internal/splitOptionList.js';
-import { displayUnit } from '../../report/displayUnit.js';
 import type { CommandContext } from '../CommandContext.js';
 import type { ConvertArgs } from './convertCommand.js';
 
@@ -108,7 +107,7 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
   }
   if (output !== undefined) await refuseOutputOverInputs(output, [input, channelFile]);
   const names = options.channels === undefined ? undefined : parseChannelList(options.channels);
-  const loaded = await loadChannels(channelFile, names);
+  const loaded = await loadChannels(channelFile, names, context.channels);
   const all = loaded.channels;
 
   const source = await openCodeSource(input, {
@@ -237,7 +236,7 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
 
   // Columns and metadata.
   const display = options.unit === 'display';
-  const units = channels.map((c) => (display ? displayUnit(c) : { unit: c.unit, factor: 1 }));
+  const units = channels.map((c) => (display ? c.display : { unit: c.unit, factor: 1 }));
   const channelColumns: ChannelColumn[] = all.map((c, j) => ({
     name: c.name,
     unit: (units[j] as { unit: string }).unit,
