@@ -219,3 +219,38 @@ describe('budget: transducer temperature effects over the stated range', () => {
     });
   });
 });
+
+describe('budget: a span end too close to the end of the sensor’s range for its tolerances', () => {
+  // IEC 60751: the Callendar–Van Dusen curve is defined up to 850 °C. With a 0.5 % excitation
+  // tolerance on an absolute reference, a reading at 849 °C moves by about 10 °C: past the curve.
+  const rtd = (range: [number, number]) =>
+    createChannel({
+      sensor: { kind: 'rtd' },
+      excitation: { volts: 1 },
+      adc: { bits: 24, referenceVolts: 1 },
+      tolerances: { excitationVoltsFraction: 0.005 },
+      output: { quantity: 'temperature', range },
+    });
+
+  it('is refused against output.range, in the user’s unit, with a way out', () => {
+    expect(() => channelBudget(rtd([0, 849]))).toThrowBridgeworkError('out-of-range', {
+      param: 'output.range',
+    });
+    expect(() => channelBudget(rtd([0, 849]))).toThrow(/849 °C .*excitation.*narrow output\.range/);
+  });
+
+  it('is evaluated when the span leaves room', () => {
+    expect(channelBudget(rtd([0, 800])).ok).toBe(true);
+  });
+
+  it('the default span of an RTD leaves 1 % of the curve’s range at each end (−200 … 850 °C)', () => {
+    const c = createChannel({
+      sensor: { kind: 'rtd' },
+      excitation: { volts: 1 },
+      adc: { bits: 24, referenceVolts: 1 },
+      output: { quantity: 'temperature' },
+    });
+    expect(c.span.min).toBeNear(-189.5, { abs: 1e-9 });
+    expect(c.span.max).toBeNear(839.5, { abs: 1e-9 });
+  });
+});

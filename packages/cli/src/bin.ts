@@ -1,7 +1,7 @@
 #!/usr/bin/env node
 /**
  * The `bridgework` executable. It loads only the argument parser and the command table; each
- * command's module (and heavy dependencies such as mathjs and yaml) is imported when it runs.
+ * command's module (and heavy dependencies such as the channel package and yaml) is imported when it runs.
  */
 import { nodeIo } from './cliIo.js';
 import { exitCodes } from './exitCodes.js';

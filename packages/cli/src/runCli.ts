@@ -1,6 +1,7 @@
 import { isBridgeworkError } from '@bridgework/core';
 import { formatCommandHelp, formatProgramHelp } from './args/formatHelp.js';
 import { parseCommandLine } from './args/parseCommandLine.js';
+import type { ChannelFactory } from './channels/loadChannels.js';
 import type { CliIo } from './cliIo.js';
 import { createCommandContext } from './commands/createCommandContext.js';
 import { commands } from './commands/registry.js';
@@ -24,7 +25,7 @@ import { readVersion } from './internal/readVersion.js';
  * and returns 1. Nothing is thrown to the caller.
  *
  * Only the option tables are loaded up front; each command's body and its heavy dependencies
- * (mathjs, yaml) are imported when it runs, so `bridgework --help` starts quickly.
+ * (the channel package, yaml) are imported when it runs, so `bridgework --help` starts quickly.
  *
  * @param argv - The arguments.
  * @param io - Streams, environment and working folder (see {@link nodeIo} for the real process).
@@ -38,6 +39,25 @@ import { readVersion } from './internal/readVersion.js';
  * ```
  */
 export async function runCli(argv: readonly string[], io: CliIo): Promise<number> {
+  return runCommandLine(argv, io);
+}
+
+/**
+ * {@link runCli} with the channel factory its commands use (internal: not exported by the
+ * package). A test hands in a kit of the channel package with a sensor kind of its own and runs
+ * every command on it, which shows that the commands name no sensor kind.
+ *
+ * @param argv - The arguments.
+ * @param io - Streams, environment and working folder.
+ * @param channels - How channel files' entries are validated and made (default: the channel
+ *   package's `validateChannelSpec` and `createChannel`).
+ * @returns The exit code.
+ */
+export async function runCommandLine(
+  argv: readonly string[],
+  io: CliIo,
+  channels?: ChannelFactory,
+): Promise<number> {
   const [first, ...rest] = argv;
   if (first === undefined) {
     io.stderr.write(`bridgework: a command is required\n\n${formatProgramHelp(commands)}`);
@@ -73,7 +93,7 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
     }
     usage = false;
     const body = await spec.load();
-    return await body.run(parsed, createCommandContext(spec.name, io));
+    return await body.run(parsed, createCommandContext(spec.name, io, channels));
   } catch (e) {
     if (isBridgeworkError(e)) {
       const hint = usage ? `Run 'bridgework ${spec.name} --help' for its options.\n` : '';

@@ -8,8 +8,10 @@
 import { existsSync, mkdirSync, readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
+import { checkRows } from '../src/report/checkRows.js';
 import { runCli } from '../src/runCli.js';
-import { exampleShown, footbridgeNames } from './support/footbridge.js';
+import { channelBudget, createChannel } from '@bridgework/channel';
+import { exampleShown, footbridgeNames, footbridgeSpecs } from './support/footbridge.js';
 import { memoryIo } from './support/memoryIo.js';
 
 const executablePath = '/usr/bin/chromium';
@@ -158,7 +160,17 @@ describe('HTML report in a browser', () => {
         );
         // A summary and one section per channel, each with its checks and its inputs.
         expect(await page.locator('main > section').count()).toBe(1 + footbridgeNames.length);
-        expect(await page.locator('ul.checks li.pass').count()).toBe(6 + 2 + 2);
+        // Every design check of the channel package's budgets, each with its mark (the
+        // plausible-input checks that pass share one row per channel).
+        const checks = footbridgeNames.flatMap((n) =>
+          checkRows(channelBudget(createChannel(footbridgeSpecs[n])).checks),
+        );
+        expect(checks.filter((k) => k.name === 'inputs in their usual ranges')).toHaveLength(3);
+        for (const status of ['pass', 'warn', 'fail'] as const)
+          expect(await page.locator(`ul.checks li.${status}`).count(), status).toBe(
+            checks.filter((k) => k.status === status).length,
+          );
+        expect(await page.locator('ul.checks li.warn').count()).toBe(1); // the gusset's share of the range
         expect(await page.locator('div.inputs').count()).toBe(footbridgeNames.length);
         expect(requests).toEqual([]); // self-contained: nothing fetched
         await page.screenshot({ path: `${results}cli-report.png`, fullPage: true });

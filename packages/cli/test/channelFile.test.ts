@@ -13,7 +13,7 @@ import { parseChannelDocument, splitFieldPath } from '../src/channelFile/parseCh
 import { checkJsonSyntax } from '../src/internal/checkJsonSyntax.js';
 import fc from 'fast-check';
 import { readChannelDocument } from '../src/channelFile/readChannelDocument.js';
-import type { SiUnit } from '../src/units/parseQuantity.js';
+import { parseQuantity } from '@bridgework/channel';
 import { caught } from './support/caught.js';
 import { useTempDir } from './support/tempDir.js';
 
@@ -21,11 +21,11 @@ const tmp = useTempDir('channel-file');
 
 /**
  * TEST ONLY: a tiny validator standing in for the channel package's schema, with just enough
- * rules (required fields, unknown fields, units through the given parser) to exercise the loader.
- * It is not the channel spec.
+ * rules (required fields, unknown fields, units through the channel package's `parseQuantity`) to
+ * exercise the loader. It is not the channel spec.
  */
-const fields: Record<string, SiUnit> = { gaugeOhms: 'ohm', excitationVolts: 'V' };
-const validate: ChannelValidator<Record<string, number>> = (raw, parseQuantity) => {
+const fields: Record<string, string> = { gaugeOhms: 'Ω', excitationVolts: 'V' };
+const validate: ChannelValidator<Record<string, number>> = (raw) => {
   const issues: SpecIssue[] = [];
   const value: Record<string, number> = {};
   if (typeof raw !== 'object' || raw === null || Array.isArray(raw))
@@ -226,7 +226,7 @@ channels:
         'bad.yaml has 5 problems:',
         "bad.yaml:1:1: projects: unknown field; did you mean 'project'?",
         'bad.yaml:6:5: channels.hook.excitationVolt: unknown field',
-        "bad.yaml:5:5: channels.hook.gaugeOhms: '5 m' is a length; expected a resistance, such as '350 ohm'",
+        "bad.yaml:5:5: channels.hook.gaugeOhms: '5 m' is a length; expected a resistance, such as '350 Ω'",
         'bad.yaml:4:3: channels.hook.excitationVolts: is required',
         'bad.yaml:7:3: channels.9lives: is not a valid channel name: start with a letter; use letters, digits, _ and - (at most 63)',
       ].join('\n'),

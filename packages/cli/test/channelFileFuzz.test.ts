@@ -19,7 +19,7 @@ import { isBridgeworkError } from '@bridgework/core';
 import { describe, expect, it } from 'vitest';
 import { validateChannelDocument } from '../src/channelFile/loadChannelFile.js';
 import { parseChannelDocument } from '../src/channelFile/parseChannelDocument.js';
-import { validateFileEntry } from '../src/channels/loadChannels.js';
+import { fileEntryValidator } from '../src/channels/loadChannels.js';
 import { runCli } from '../src/runCli.js';
 import { examplePath } from './support/footbridge.js';
 import { useTempDir } from './support/tempDir.js';
@@ -93,7 +93,7 @@ describe('channel-file fuzz', () => {
         try {
           const document = parseChannelDocument(text, file);
           data = document.data;
-          loaded = validateChannelDocument(document, { validateChannel: validateFileEntry });
+          loaded = validateChannelDocument(document, { validateChannel: fileEntryValidator() });
         } catch (e) {
           expect(isBridgeworkError(e), `${where}\n${String(e)}`).toBe(true);
           const err = e as Error & { code: string };

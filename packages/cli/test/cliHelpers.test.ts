@@ -1,7 +1,6 @@
 /**
  * The command's internal helpers take checked inputs (issue 15 item 11): every bad value in every
- * field of the plot functions' options, and bad arguments to the number formatting and batching
- * helpers, give a `BridgeworkError` (or a valid result), never a TypeError, a RangeError or a hang.
+ * field of the plot functions' options, and bad arguments to the number formatting helpers, give a `BridgeworkError` (or a valid result), never a TypeError, a RangeError or a hang.
  */
 import { isBridgeworkError } from '@bridgework/core';
 import { describe, expect, it } from 'vitest';
@@ -9,7 +8,6 @@ import { barChart, type BarChartOptions } from '../src/html/barChart.js';
 import { linePlot, type LinePlotOptions } from '../src/html/linePlot.js';
 import { niceTicks } from '../src/html/niceTicks.js';
 import { formatCode, formatNumber, formatPercent, formatStated } from '../src/report/formatNumber.js';
-import { batchSizes } from '../src/uncertainty/batchedMonteCarlo.js';
 
 const bad: readonly unknown[] = [
   NaN,
@@ -171,10 +169,7 @@ describe('CLI helpers take checked inputs', () => {
     expect(formatCode(NaN)).toBe('NaN');
   });
 
-  it('batchSizes and niceTicks refuse what they cannot do', () => {
-    expect(() => batchSizes(Infinity)).toThrowBridgeworkError('not-finite');
-    expect(() => batchSizes(1e12)).toThrowBridgeworkError('out-of-range');
-    expect(batchSizes(25_000)).toEqual([8334, 8333, 8333]);
+  it('niceTicks refuses what it cannot do', () => {
     for (const [lo, hi] of [
       [NaN, 1],
       [0, Infinity],

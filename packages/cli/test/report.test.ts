@@ -63,7 +63,11 @@ describe('bridgework report on the example file', () => {
     expect(Number(/converter input ([\d.]+) mV\/V/.exec(section('hanger-h3'))?.[1])).toBeNear(mvv, {
       abs: 5e-5, // printed to 5 significant digits
     });
-    expect(stdout).toMatch(/Every check passed\./);
+    // The gusset gauge uses 2.5 % of the converter's range (the channel package warns below 5 %).
+    expect(stdout).toMatch(
+      /^ {4}WARN {2}share of the converter's range used by the span: the span uses 2\.51 %/m,
+    );
+    expect(stdout).toMatch(/No check failed, but 1 warning: see the WARN lines above\./);
   });
 
   it('prints JSON with the same budgets as the channel package computes from the SI specs', async () => {
@@ -85,7 +89,7 @@ describe('bridgework report on the example file', () => {
           effectiveDegreesOfFreedom: null;
         };
         noise: { totalRms: number };
-        checks: { limit: string; ok: boolean; marginVolts: number }[];
+        checks: { id: string; status: string; ok: boolean; value: number | null; limit: number | null }[];
       }[];
     };
     expect(json.caution).toBe(SAFETY_CAUTION);
@@ -105,8 +109,13 @@ describe('bridgework report on the example file', () => {
       expect(c.lines.map((l) => [l.name, l.value, l.standardUncertainty, l.model])).toEqual(
         b.lines.map((l) => [l.name, l.value, l.standardUncertainty ?? null, l.model]),
       );
-      expect(c.checks.map((k) => [k.limit, k.ok, k.marginVolts])).toEqual(
-        b.frontEnd.value.headroom.margins.map((m) => [m.limit, m.ok, m.marginVolts]),
+      // Every design check of the budget, its figure and threshold as computed (null where not finite).
+      const orNull = (x: number) => (Number.isFinite(x) ? x : null);
+      expect(c.checks.map((k) => [k.id, k.status, k.ok, k.value, k.limit])).toEqual(
+        b.checks.map((k) => [k.id, k.status, k.ok, orNull(k.value), orNull(k.limit)]),
+      );
+      expect(c.checks.filter((k) => k.id.startsWith('headroom-')).map((k) => k.value)).toEqual(
+        b.frontEnd.value.headroom.margins.map((m) => m.nodeVolts),
       );
     }
   });
@@ -172,9 +181,11 @@ describe('bridgework report: output files and failed checks', () => {
     const r = await run('report', failing, '--html', html);
     expect(r.code).toBe(exitCodes.failedCheck);
     expect(r.stdout).toMatch(
-      /^ {4}FAIL {2}amplifier output, low swing: 2\.42 V against 3\.50 V, margin −1\.08 V: .+$/m,
+      /^ {4}FAIL {2}amplifier output, low swing: 2\.424 V against 3\.5 V, margin -1\.076 V: .+$/m,
     );
-    expect(r.stdout).toMatch(/A design check failed: see the FAIL lines above \(exit code 2\)\./);
+    expect(r.stdout).toMatch(
+      /A design check failed: see the FAIL lines above \(exit code 2\); 1 warning as well\./,
+    );
     expect(r.stdout).toMatch(/^ {2}hanger-h3 .* 1 failed$/m);
     expect(readFileSync(html, 'utf8')).toContain(
       '<li class="fail"><span class="badge">fail</span> <strong>amplifier output, low swing</strong>',

@@ -1,15 +1,19 @@
 /**
- * The parts of the design report: number formatting, the shown units, the sampled curves of the
- * HTML plots (checked against the textbook quarter-bridge inverse), the headroom checks and the
- * inputs table.
+ * The parts of the design report: number formatting, the shown units, the channel's sampled
+ * curves that the HTML plots draw (checked against the textbook quarter-bridge inverse), the rows
+ * of the design checks and the inputs table.
  */
 import { channelBudget, createChannel } from '@bridgework/channel';
 import { describe, expect, it } from 'vitest';
 import { loadChannels } from '../src/channels/loadChannels.js';
-import { channelCurves } from '../src/report/channelCurves.js';
 import { channelInputs } from '../src/report/channelInputs.js';
-import { designChecks } from '../src/report/designChecks.js';
-import { displayUnit } from '../src/report/displayUnit.js';
+import {
+  checkDetail,
+  checksOutcome,
+  countChecks,
+  statusMark,
+  thresholdText,
+} from '../src/report/checkRows.js';
 import { formatNumber, formatPercent, formatProbability, formatStated } from '../src/report/formatNumber.js';
 import { footbridgeSpecs, examplePath } from './support/footbridge.js';
 
@@ -40,25 +44,18 @@ describe('formatNumber and friends', () => {
   });
 });
 
-describe('displayUnit', () => {
-  const span = (min: number, max: number) => ({ min, max });
-  it.each([
-    ['m/m', span(-1e-3, 2e-3), 'µε', 1e6],
-    ['µε', span(-300, 1200), 'µε', 1],
-    ['V/V', span(0, 2e-3), 'mV/V', 1e3],
-    ['Pa', span(0, 250e6), 'MPa', 1e-6],
-    ['N', span(-10e3, 120e3), 'kN', 1e-3],
-    ['N', span(0, 5000), 'N', 1],
-    ['N', span(0, 20e6), 'MN', 1e-6],
-    ['kg', span(0, 2000), 'kg', 1],
-    ['kg', span(0, 50e3), 't', 1e-3],
-    ['°C', span(-30, 60), '°C', 1],
-  ] as const)('%s over %o is shown in %s', (unit, s, shown, factor) => {
-    expect(displayUnit({ unit, span: s })).toEqual({ unit: shown, factor });
+describe('the shown unit (Channel.display)', () => {
+  it('shows the footbridge channels in the unit people read', async () => {
+    const loaded = await loadChannels(examplePath);
+    const shown = Object.fromEntries(loaded.channels.map((c) => [c.name, c.channel.display]));
+    // A force span of −10 … 120 kN is shown in kN; strain in µε (factor 10⁶ from m/m).
+    expect(shown['hanger-h3']).toEqual({ unit: 'kN', factor: 1e-3 });
+    for (const c of loaded.channels)
+      if (c.channel.unit === 'm/m') expect(c.channel.display).toEqual({ unit: 'µε', factor: 1e6 });
   });
 });
 
-describe('channelCurves', () => {
+describe('Channel.curve, as the plots draw it', () => {
   // A quarter bridge without lead resistance, ratiometric: ratio r = code/(G·2^(N−1)) and the
   // textbook inverse ε = 4r/(GF(1 − 2r)) (arm 1 active, docs/bridge.md).
   const gf = 2;
@@ -73,11 +70,11 @@ describe('channelCurves', () => {
   });
   const ratio = (code: number) => code / (gain * 2 ** 23);
   const strain = (r: number) => (4 * r) / (gf * (1 - 2 * r));
-  const curves = channelCurves(channel, 201);
+  const curves = channel.curve(201);
 
   it('samples the exact map evenly in code from one end of the span to the other', () => {
     expect(curves.codes).toHaveLength(201);
-    expect(curves.quantity[0]).toBeNear(-2e-3, { abs: 1e-16 }); // Newton to 1e-9 of a code
+    expect(curves.quantity[0]).toBeNear(-2e-3, { abs: 1e-16 });
     expect(curves.quantity[200]).toBeNear(2e-3, { abs: 1e-16 });
     for (let i = 0; i < 201; i += 20) {
       const c = curves.codes[i]!;
@@ -102,15 +99,10 @@ describe('channelCurves', () => {
     // Both are sampled (201 and 257 points) near a smooth extreme: they agree to 1e-3.
     expect(worst).toBeNear(line.value, { rel: 1e-3 });
   });
-
-  it('rejects a point count outside [11, 10001]', () => {
-    expect(() => channelCurves(channel, 10)).toThrowBridgeworkError('out-of-range', { param: 'points' });
-    expect(() => channelCurves(channel, 20.5)).toThrowBridgeworkError('not-integer', { param: 'points' });
-  });
 });
 
-describe('designChecks', () => {
-  it('lists every headroom margin, and a failed one with the chain package’s message', () => {
+describe('design check rows', () => {
+  it('show every check of the budget, a failed headroom with the chain package’s message', () => {
     const spec = footbridgeSpecs['hanger-h3'];
     const failing = channelBudget(
       createChannel({
@@ -118,13 +110,33 @@ describe('designChecks', () => {
         amplifier: { ...spec.amplifier, limits: { ...spec.amplifier!.limits, outputVolts: [3.5, 4.9] } },
       }),
     );
-    const rows = designChecks(failing);
-    expect(rows.map((r) => r.limit)).toEqual(failing.frontEnd.value.headroom.margins.map((m) => m.limit));
-    const low = rows.find((r) => r.limit === 'output-low')!;
-    expect(low.ok).toBe(false);
-    expect(low.marginVolts).toBeLessThan(0);
-    expect(low.detail).toContain(failing.frontEnd.issues.find((i) => i.limit === 'output-low')!.message);
-    expect(rows.filter((r) => !r.ok)).toHaveLength(failing.frontEnd.issues.length);
+    const headroom = failing.checks.filter((k) => k.id.startsWith('headroom-'));
+    expect(headroom.map((k) => k.id)).toEqual(
+      failing.frontEnd.value.headroom.margins.map((m) => `headroom-${m.limit}`),
+    );
+    const low = failing.checks.find((k) => k.id === 'headroom-output-low')!;
+    expect(statusMark(low)).toBe('FAIL');
+    expect(checkDetail(low)).toContain(
+      failing.frontEnd.issues.find((i) => i.limit === 'output-low')!.message,
+    );
+    expect(headroom.filter((k) => k.status === 'fail')).toHaveLength(failing.frontEnd.issues.length);
+    const counts = countChecks(failing.checks);
+    expect(counts.pass + counts.warn + counts.fail).toBe(failing.checks.length);
+    expect(checksOutcome(counts)).toMatch(/^\d+ failed/);
+  });
+
+  it('state each threshold in its unit, shares in percent', () => {
+    const checks = channelBudget(createChannel(footbridgeSpecs['hanger-h3'])).checks;
+    const byId = (id: string) => checks.find((k) => k.id === id)!;
+    // A no-break space holds each figure to its unit when the text report wraps.
+    expect(thresholdText(byId('span-codes'))).toBe('threshold 100\u00a0codes');
+    expect(thresholdText(byId('span-share'))).toBe('threshold 5\u00a0%');
+    expect(thresholdText(byId('finite'))).toBe('');
+    expect(checkDetail(byId('span-share'))).toMatch(
+      /^the span uses [\d.]+ % of the converter's range \(threshold 5\u00a0%\)$/,
+    );
+    expect(checksOutcome({ pass: 3, warn: 0, fail: 0 })).toBe('pass');
+    expect(checksOutcome({ pass: 1, warn: 2, fail: 1 })).toBe('1 failed, 2 warnings');
   });
 });
 

@@ -80,13 +80,13 @@ describe('report wording', () => {
     expect(stdout).toMatch(/nonlinearity of a linear map \(largest over the span\)/);
     expect(stdout).not.toMatch(/largest power in one gauge/);
     expect(section(stdout, 'gusset-g2')).toMatch(
-      /largest power in one bridge arm holding a gauge, with its lead wire: 4\.43 mW/,
+      /largest power in one bridge arm holding a sensing element, with its lead wire: 4\.43 mW/,
     );
     expect(section(stdout, 'deck-temp')).toMatch(
-      /largest power in one bridge arm holding the RTD, with its lead wire:/,
+      /largest power in one bridge arm holding a sensing element, with its lead wire:/,
     );
     const t = await run('report', transducer);
-    expect(t.stdout).toMatch(/largest power in one bridge arm holding a gauge: /);
+    expect(t.stdout).toMatch(/largest power in one bridge arm holding a sensing element: /);
   });
 
   it('draws only standard uncertainties on the error budget\'s "Standard uncertainty" axis', async () => {

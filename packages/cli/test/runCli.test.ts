@@ -92,7 +92,7 @@ describe('runCli: a channel file that cannot be read', () => {
 
   it('validates the arguments first (usage errors win)', async () => {
     const r = await run('uncertainty', 'no-such-file.yaml', '--coverage', '2');
-    expect(r.stderr).toMatch(/`--coverage` must be in \[0\.5, 0\.999\]; got 2/);
+    expect(r.stderr).toMatch(/`--coverage` must be in \[0\.5, 0\.9999\]; got 2/);
   });
 });
 

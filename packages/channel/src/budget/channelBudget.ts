@@ -425,6 +425,7 @@ export function channelBudget(channel: Channel, options: ChannelBudgetOptions = 
   ];
   const useFast = fast !== undefined && fastModelAgrees(r, fast, vectors, checkCodes, spanScale);
   const evaluate: ParametricModel = useFast ? fast : exactParametricModel(r);
+  checkReadableAtLimits(evaluate, p0, uncertain, checkCodes, [at, span.min, span.max], unit);
 
   const inputs: Record<string, InputQuantities[string]> = {
     reading: { value: code, standardUncertainty: noiseRmsCodes },
@@ -543,6 +544,53 @@ export function channelBudget(channel: Channel, options: ChannelBudgetOptions = 
     ok: checks.every((c) => c.status !== 'fail'),
     caution: BUDGET_CAUTION,
   };
+}
+
+/**
+ * Every budget input at either limit of its tolerance must leave the readings of the budget point
+ * and the span's ends inside what the sensor can produce (the derivatives and the Monte Carlo
+ * trials evaluate the model there): otherwise the span is too close to the end of the sensor's
+ * range for these tolerances, and the user is told so in terms of output.range.
+ */
+function checkReadableAtLimits(
+  evaluate: ParametricModel,
+  p0: Float64Array,
+  uncertain: readonly UncertainInput[],
+  codes: readonly number[],
+  values: readonly number[],
+  unit: string,
+): void {
+  for (const u of uncertain) {
+    for (const s of [-1, 1]) {
+      const p = withValue(p0, u.index, (p0[u.index] as number) + s * u.halfWidth);
+      codes.forEach((code, i) => {
+        let v: number;
+        try {
+          v = evaluate(code, p);
+        } catch {
+          v = Number.NaN;
+        }
+        if (Number.isFinite(v)) return;
+        const value = values[i] as number;
+        throw new BridgeworkError(
+          'out-of-range',
+          `the reading at ${formatQuantity(value, unit)} lies past the end of what the sensor covers when the ${u.name} is at its tolerance limit (${s < 0 ? '−' : '+'}${formatSignificant(u.halfWidth)}): the budget cannot be evaluated there; narrow output.range away from that end, or state a smaller tolerance`,
+          {
+            param: 'output.range',
+            value,
+            issues: [
+              {
+                code: 'out-of-range',
+                path: 'output.range',
+                message: `reaches ${formatQuantity(value, unit)}, where the reading with the ${u.name} at its tolerance limit lies past the end of what the sensor covers`,
+                suggestion: 'narrow output.range away from that end, or state a smaller tolerance',
+              },
+            ],
+          },
+        );
+      });
+    }
+  }
 }
 
 function withValue(p: Float64Array, index: number, value: number): Float64Array {

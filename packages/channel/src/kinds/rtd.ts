@@ -87,8 +87,11 @@ export const rtdKind: SensorKind<typeof fields, 'rtd'> = {
       const [min, max] = s.element === 'film' ? c.filmRangeCelsius : c.wireWoundRangeCelsius;
       return { min, max };
     }
+    // The curve's whole range less 1 % of its width at each end: the budget's tolerances move a
+    // reading at the very end of IEC 60751's range past it (0.1 % of excitation is about 2 °C at 850 °C).
     const [min, max] = curve(s).rangeCelsius;
-    return { min, max };
+    const room = 0.01 * (max - min);
+    return { min: min + room, max: max - room };
   },
   exactMap(ctx, p) {
     const s = ctx.sensor;

@@ -20,7 +20,7 @@ import {
 } from 'yaml';
 import { writeFileAtomic } from '../files/atomicFile.js';
 import { describeFsError } from '../internal/fileErrors.js';
-import { validateFileEntry } from '../channels/loadChannels.js';
+import { fileEntryValidator } from '../channels/loadChannels.js';
 import { channelFileLimits } from './channelFileLimits.js';
 import { validateChannelDocument } from './loadChannelFile.js';
 import { parseChannelDocument, reservedNames, type ChannelFileSyntax } from './parseChannelDocument.js';
@@ -416,7 +416,7 @@ export async function openChannelFileEditor(path: string): Promise<ChannelFileEd
     async save(options = {}) {
       if (options.validate !== false) {
         validateChannelDocument(parseChannelDocument(text, path, syntax), {
-          validateChannel: validateFileEntry,
+          validateChannel: fileEntryValidator(),
         });
       }
       await writeFileAtomic(target, text, {

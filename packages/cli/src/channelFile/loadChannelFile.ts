@@ -1,17 +1,10 @@
 import { BridgeworkError, formatValue, type SpecIssue } from '@bridgework/core';
 import { closestName } from '@bridgework/core';
-import { parseQuantity, type SiUnit } from '../units/parseQuantity.js';
 import { formatIssues } from './formatIssues.js';
 import { reservedNames, type ChannelDocument } from './parseChannelDocument.js';
 import { readChannelDocument } from './readChannelDocument.js';
 import { channelFileLimits } from './channelFileLimits.js';
 import { validateRecordingSection, type RecordingSection } from './recordingSection.js';
-
-/**
- * The quantity converter handed to the channel schema: `(text, unit) => number` with `unit` one of
- * {@link SiUnit}, throwing a `BridgeworkError` whose message names the problem ({@link parseQuantity}).
- */
-export type QuantityParser = (text: string, unit: SiUnit) => number;
 
 /** What a channel validator returns: the typed spec when there are no issues. */
 export interface ChannelValidation<T> {
@@ -21,8 +14,13 @@ export interface ChannelValidation<T> {
   readonly issues: readonly SpecIssue[];
 }
 
-/** Validates one channel's raw data: the channel package's schema, adapted. */
-export type ChannelValidator<T> = (raw: unknown, parseQuantity: QuantityParser) => ChannelValidation<T>;
+/**
+ * Validates one channel's raw data (the channel package's `validateChannelSpec`), given the
+ * channel's name (its key in the file). Quantities with units are read by the validator itself
+ * (the channel package's unit table; `parseQuantity` of `@bridgework/channel` for a section of
+ * its own).
+ */
+export type ChannelValidator<T> = (raw: unknown, name: string) => ChannelValidation<T>;
 
 /** Optional project metadata at the top of a channel file. */
 export interface ProjectInfo {
@@ -190,7 +188,7 @@ export function validateChannelDocument<T>(
         }
         const prefix = `channels.${name}`;
         const ownIssues = document.valueIssues.filter((v) => within(v.path, prefix));
-        const result = options.validateChannel(raw, parseQuantity);
+        const result = options.validateChannel(raw, name);
         issues.push(...ownIssues);
         for (const issue of result.issues) {
           const path = `${prefix}${issue.path === '' ? '' : `.${issue.path}`}`;

@@ -1,22 +1,41 @@
-import { createChannel, validateChannelSpec, type Channel, type ChannelSpec } from '@bridgework/channel';
+import { createChannel, validateChannelSpec, type Channel, type ValidChannelSpec } from '@bridgework/channel';
 import { BridgeworkError, isBridgeworkError, type SpecIssue } from '@bridgework/core';
 import {
   selectChannels,
   validateChannelDocument,
   type ChannelValidation,
   type ChannelFile,
-  type QuantityParser,
 } from '../channelFile/loadChannelFile.js';
 import { formatIssues } from '../channelFile/formatIssues.js';
 import type { ChannelDocument } from '../channelFile/parseChannelDocument.js';
 import { readChannelDocument } from '../channelFile/readChannelDocument.js';
 
+/**
+ * How the entries of a channel file become channels: the channel package's `validateChannelSpec`
+ * and `createChannel`, or a kit of the same two functions over other sensor kinds (the channel
+ * package's `createChannelKit`). The command reads nothing of a channel but what the `Channel`
+ * and its budget tell, so any kit's channels report, convert and run Monte Carlo alike.
+ */
+export interface ChannelFactory {
+  /** Validates one spec once; issues are data, never thrown. */
+  validateChannelSpec(spec: unknown): {
+    readonly ok: boolean;
+    readonly value: unknown;
+    readonly issues: readonly SpecIssue[];
+  };
+  /** Makes the channel of a validated spec (without checking it again). */
+  createChannel(spec: unknown): Channel;
+}
+
+/** The channel package's own factory: its built-in sensor kinds. */
+const builtInChannels: ChannelFactory = { validateChannelSpec, createChannel };
+
 /** One channel of a file, ready to use. */
 export interface LoadedChannel {
   /** The channel's name (its key in the file). */
   readonly name: string;
-  /** The validated spec, defaults applied, with `name` set to the key. */
-  readonly spec: ChannelSpec;
+  /** The validated spec, defaults applied, with `name` set to the key (`Channel.spec`). */
+  readonly spec: ValidChannelSpec;
   /** The entry exactly as written in the file (for "from the file" notes in reports). */
   readonly raw: unknown;
   /** The channel, made by `createChannel`. */
@@ -26,7 +45,7 @@ export interface LoadedChannel {
 /** A channel file with its selected channels made. */
 export interface LoadedChannels {
   /** The validated file. */
-  readonly file: ChannelFile<ChannelSpec>;
+  readonly file: ChannelFile<unknown>;
   /** The parsed document (its raw data and positions). */
   readonly document: ChannelDocument;
   /** The selected channels, in the order asked for (or file order). */
@@ -34,31 +53,34 @@ export interface LoadedChannels {
 }
 
 /**
- * Validates one entry of a file's `channels` mapping with the channel package's
- * `validateChannelSpec`, once: its issues are passed on as they are (the loader prefixes their
- * paths). The channel's name is its key in the file, so a `name` field inside the entry is a
- * problem of the file.
+ * The validator of one entry of a file's `channels` mapping: the factory's `validateChannelSpec`,
+ * once, with the channel's name (its key in the file) set, so a `name` field inside the entry is
+ * a problem of the file. Issues are passed on as they are (the loader prefixes their paths).
+ *
+ * @param channels - The factory (default: the channel package's own).
+ * @returns The validator.
  */
-export function validateFileEntry(
-  raw: unknown,
-  parseQuantity: QuantityParser,
-): ChannelValidation<ChannelSpec> {
-  const hasName = typeof raw === 'object' && raw !== null && Object.hasOwn(raw, 'name');
-  const nameIssue: SpecIssue[] = hasName
-    ? [
-        {
-          code: 'unknown-option',
-          path: 'name',
-          message: "is not a field of a channel in a file: the channel's name is its key",
-        },
-      ]
-    : [];
-  const entry = hasName ? Object.fromEntries(Object.entries(raw).filter(([k]) => k !== 'name')) : raw;
-  // The channel package reads quantities written with units itself (its unit table).
-  void parseQuantity;
-  const result = validateChannelSpec(entry);
-  const issues = [...nameIssue, ...result.issues];
-  return issues.length === 0 && result.ok ? { value: result.value, issues } : { issues };
+export function fileEntryValidator(
+  channels: ChannelFactory = builtInChannels,
+): (raw: unknown, name: string) => ChannelValidation<unknown> {
+  return (raw, name) => {
+    const hasName = typeof raw === 'object' && raw !== null && Object.hasOwn(raw, 'name');
+    if (hasName)
+      return {
+        issues: [
+          {
+            code: 'unknown-option',
+            path: 'name',
+            message: "is not a field of a channel in a file: the channel's name is its key",
+          },
+        ],
+      };
+    const entry = typeof raw === 'object' && raw !== null && !Array.isArray(raw) ? { ...raw, name } : raw;
+    const result = channels.validateChannelSpec(entry);
+    return result.ok && result.issues.length === 0
+      ? { value: result.value, issues: [] }
+      : { issues: result.issues };
+  };
 }
 
 /**
@@ -97,6 +119,7 @@ function channelError(document: ChannelDocument, name: string, e: BridgeworkErro
  * @param path - The channel file.
  * @param names - The channels to make, or `undefined` for all of them; or a function of the
  *   validated file that returns them (to take them from the file's `recording` section).
+ * @param factory - How entries are validated and made (default: the channel package's own).
  * @returns The file and the channels.
  * @throws {@link @bridgework/core!BridgeworkError} `io-error`, `parse-error`, `invalid-spec` (every
  * problem, `file:line:column: channels.<name>.<field>: message`), `invalid-option` for an unknown
@@ -104,22 +127,22 @@ function channelError(document: ChannelDocument, name: string, e: BridgeworkErro
  */
 export async function loadChannels(
   path: string,
-  names?: readonly string[] | ((file: ChannelFile<ChannelSpec>) => readonly string[] | undefined),
+  names?: readonly string[] | ((file: ChannelFile<unknown>) => readonly string[] | undefined),
+  factory: ChannelFactory = builtInChannels,
 ): Promise<LoadedChannels> {
   const document = await readChannelDocument(path);
-  const file = validateChannelDocument(document, { validateChannel: validateFileEntry });
+  const file = validateChannelDocument(document, { validateChannel: fileEntryValidator(factory) });
   const rawChannels = (document.data as { channels: Record<string, unknown> }).channels;
   const channels = selectChannels(file, typeof names === 'function' ? names(file) : names).map(
     ({ name, spec }) => {
-      const named: ChannelSpec = { ...spec, name };
       let channel: Channel;
       try {
-        channel = createChannel(named);
+        channel = factory.createChannel(spec);
       } catch (e) {
         if (!isBridgeworkError(e)) throw e;
         throw channelError(document, name, e);
       }
-      return { name, spec: named, raw: rawChannels[name], channel };
+      return { name, spec: channel.spec, raw: rawChannels[name], channel };
     },
   );
   return { file, document, channels };

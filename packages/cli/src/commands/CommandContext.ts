@@ -1,3 +1,4 @@
+import type { ChannelFactory } from '../channels/loadChannels.js';
 import type { CliIo } from '../cliIo.js';
 import type { ProgressBar, ProgressBarOptions } from '../terminal/progressBar.js';
 import type { TextStyle } from '../terminal/textStyle.js';
@@ -14,6 +15,13 @@ export interface CommandContext {
   readonly stderrStyle: TextStyle;
   /** A progress bar on standard error (inactive unless it is a terminal). */
   progressBar(options: ProgressBarOptions): ProgressBar;
+  /**
+   * How channel files' entries are validated and made into channels; when absent, the channel
+   * package's `validateChannelSpec` and `createChannel` (its built-in sensor kinds). A test hands
+   * in a kit with one more kind (the channel package's `createChannelKit`) to show that no
+   * command names a sensor kind.
+   */
+  readonly channels?: ChannelFactory;
   /** Writes a line to standard error, prefixed with `bridgework <command>: `. */
   warn(message: string): void;
 }

@@ -36,13 +36,13 @@ export interface PlotsBlock {
 export interface ReportCheck {
   /** What was checked (`'amplifier headroom'`). */
   readonly name: string;
-  /** Whether it passed. */
-  readonly ok: boolean;
+  /** `'pass'`, `'warn'` (a reviewer would question it) or `'fail'`. */
+  readonly status: 'pass' | 'warn' | 'fail';
   /** The figures behind the verdict (`'peak input 3.1 mV of 19.5 mV'`). */
   readonly detail: string;
 }
 
-/** A list of design checks with pass/fail marks. */
+/** A list of design checks with pass, warn and fail marks. */
 export interface ChecksBlock {
   /** The block kind. */
   readonly kind: 'checks';
@@ -142,7 +142,7 @@ function block(b: ReportBlock): string {
       return `<ul class="checks">${b.checks
         .map(
           (c) =>
-            `<li class="${c.ok ? 'pass' : 'fail'}"><span class="badge">${c.ok ? 'pass' : 'fail'}</span> <strong>${escapeHtml(c.name)}</strong> <span class="detail">${escapeHtml(c.detail)}</span></li>`,
+            `<li class="${c.status}"><span class="badge">${c.status}</span> <strong>${escapeHtml(c.name)}</strong> <span class="detail">${escapeHtml(c.detail)}</span></li>`,
         )
         .join('')}</ul>`;
     case 'inputs':

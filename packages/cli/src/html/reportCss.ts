@@ -39,6 +39,7 @@ ul.checks li { padding: 4px 0; }
   border-radius: 10px; padding: 1px 8px; color: #fff; text-transform: uppercase; letter-spacing: 0.03em; }
 li.pass .badge { background: var(--pass); }
 li.fail .badge { background: var(--fail); }
+li.warn .badge { background: var(--warn-line); }
 .detail { color: var(--muted); }
 .inputs { display: grid; grid-template-columns: repeat(auto-fit, minmax(min(100%, 380px), 1fr)); gap: 0 28px; }
 .inputs table { width: 100%; }

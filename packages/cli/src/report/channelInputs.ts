@@ -1,25 +1,5 @@
-import { channelSpecFields, type ChannelSpec } from '@bridgework/channel';
+import { channelSpecFields, type ValidChannelSpec } from '@bridgework/channel';
 import type { InputGroup, InputRow } from '../html/renderHtmlReport.js';
-
-/** How units of the spec schema are printed for people. */
-const unitSymbols: Readonly<Record<string, string>> = {
-  ohm: 'Ω',
-  degC: '°C',
-  'm^2': 'm²',
-  'm/s^2': 'm/s²',
-  '1': '',
-};
-
-/** Units that the schema leaves unnamed (plain numbers) but the field's name states. */
-function unitFromName(path: string, quantityUnit: string): string {
-  if (path === 'output.range' || path === 'output.firmwareResolution') return quantityUnit;
-  if (path === 'zero.code') return 'code';
-  if (/VoltsPerRootHz$/.test(path)) return 'V/√Hz';
-  if (/AmpsPerRootHz$/.test(path)) return 'A/√Hz';
-  if (/PerKelvin$/.test(path)) return '1/K';
-  if (/Microstrain$/.test(path)) return 'µε';
-  return '';
-}
 
 let fieldUnits: Map<string, string> | undefined;
 
@@ -72,8 +52,10 @@ function rows(
   const dotted = path.join('.');
   const rawValue = at(raw, path);
   // Fields in the channel's own unit (output.range) have no fixed unit in the schema.
-  const unit = schemaUnit(dotted, sensorKind) === 'output unit' ? '' : schemaUnit(dotted, sensorKind);
-  const shown = unitSymbols[unit] ?? unit;
+  // The field reference states each field's unit; `output unit` fields (output.range) are in the
+  // channel's unit.
+  const schema = schemaUnit(dotted, sensorKind);
+  const unit = schema === 'output unit' ? quantityUnit : schema;
   const text = interval
     ? valueText([(value as { min: number }).min, (value as { max: number }).max])
     : valueText(value);
@@ -82,7 +64,7 @@ function rows(
     {
       name: path.slice(1).join('.') || (path[0] as string),
       value: text,
-      unit: shown === '' ? unitFromName(dotted, quantityUnit) : shown,
+      unit,
       note: rawValue === undefined ? 'default' : w === '' ? 'in the file' : `"${w}" in the file`,
     },
   ];
@@ -90,8 +72,8 @@ function rows(
 
 /**
  * The inputs of a channel as tables for the HTML report: every field of the validated spec
- * (defaults applied), grouped by section (sensor, bridge, excitation...), with its SI value and
- * unit, and whether it was written in the file (with the text as written when it carried a unit,
+ * (defaults applied), grouped by section (sensor, bridge, excitation...), with its value in the
+ * unit the channel package's field reference states for it (`channelSpecFields`), and whether it was written in the file (with the text as written when it carried a unit,
  * e.g. `"35 m" in the file`) or is a default.
  *
  * @param spec - The validated spec.
@@ -99,7 +81,7 @@ function rows(
  * @param quantityUnit - The channel's output unit (for `output.range`).
  * @returns One group per section of the spec, in the spec's order.
  */
-export function channelInputs(spec: ChannelSpec, raw: unknown, quantityUnit: string): InputGroup[] {
+export function channelInputs(spec: ValidChannelSpec, raw: unknown, quantityUnit: string): InputGroup[] {
   const groups: InputGroup[] = [];
   const loose: InputRow[] = [];
   for (const [key, value] of Object.entries(spec)) {

@@ -1,24 +1,20 @@
-import { channelBudget, type ChannelBudget } from '@bridgework/channel';
+import { channelBudget, type ChannelBudget, type ChannelInput, type DisplayUnit } from '@bridgework/channel';
 import { inChannel, type LoadedChannel, type LoadedChannels } from '../channels/loadChannels.js';
 import type { ProjectInfo } from '../channelFile/loadChannelFile.js';
-import { designChecks, type DesignCheckRow } from './designChecks.js';
 import { describeChannel } from './describeChannel.js';
-import { displayUnit, type DisplayUnit } from './displayUnit.js';
 
 /** The design report of one channel: its budget and what the report shows of it. */
 export interface ChannelDesign {
   /** The channel as loaded from the file. */
   readonly loaded: LoadedChannel;
-  /** The channel package's budget at the default point (the span's end of larger magnitude). */
+  /** The channel package's budget at the default point (the span's end of larger magnitude), with its design checks. */
   readonly budget: ChannelBudget;
-  /** The unit the quantity is shown in for people. */
+  /** The unit the quantity is shown in for people (`Channel.display`). */
   readonly display: DisplayUnit;
-  /** The hardware in words (two lines). */
+  /** The hardware in words (two lines: the channel's own description with its wiring; the front end). */
   readonly description: readonly [string, string];
-  /** The headroom checks. */
-  readonly checks: readonly DesignCheckRow[];
-  /** The converter input at the budget point as a fraction of the excitation, V/V. */
-  readonly inputRatioAtPoint: number;
+  /** What the converter sees at the budget point (`Channel.inputAt`). */
+  readonly point: ChannelInput;
 }
 
 /** The design report of a channel file. */
@@ -29,14 +25,15 @@ export interface DesignReport {
   readonly project: ProjectInfo;
   /** One entry per selected channel. */
   readonly channels: readonly ChannelDesign[];
-  /** True when every check of every channel passed. */
+  /** True when no design check of any channel failed (warnings allowed). */
   readonly ok: boolean;
 }
 
 /**
  * Computes the design report of the channels of a file: each channel's budget (noise,
- * resolution, nonlinearity, leads, temperature, tolerances, combined and expanded uncertainty;
- * see `Channel.budget`) and its headroom checks. Every number comes from the channel package.
+ * resolution, nonlinearity, leads, temperature, tolerances, combined and expanded uncertainty)
+ * and its design checks (`channelBudget` of the channel package). Every number comes from the
+ * channel package; the report only chooses what to show.
  *
  * @param loaded - The channel file and its selected channels.
  * @returns The report.
@@ -47,10 +44,9 @@ export function designReport(loaded: LoadedChannels): DesignReport {
     return {
       loaded: c,
       budget,
-      display: displayUnit(c.channel),
+      display: c.channel.display,
       description: describeChannel(c.channel, budget),
-      checks: designChecks(budget),
-      inputRatioAtPoint: c.channel.inputAt(budget.at).inputRatio,
+      point: inChannel(loaded, c, () => c.channel.inputAt(budget.at)),
     };
   });
   return {

@@ -6,7 +6,7 @@ import {
   type ReportMeta,
   type ReportSection,
 } from '../html/renderHtmlReport.js';
-import { channelCurves } from './channelCurves.js';
+import { checkRows } from './checkRows.js';
 import { channelInputs } from './channelInputs.js';
 import type { ChannelDesign, DesignReport } from './designReport.js';
 import { formatCode, formatNumber, formatPercent, formatProbability, formatStated } from './formatNumber.js';
@@ -32,15 +32,11 @@ export interface DesignReportHtmlOptions {
   readonly date?: string;
 }
 
-const quantityLabels: Readonly<Record<string, string>> = {
-  strain: 'Strain',
-  microstrain: 'Strain',
-  stress: 'Stress',
-  force: 'Force',
-  mass: 'Mass',
-  temperature: 'Temperature',
-  ratio: 'Bridge ratio',
-};
+/** A quantity's name as an axis label: `'bending-moment'` → `'Bending moment'`; the ratio is the bridge's. */
+function quantityLabel(quantity: string): string {
+  const words = quantity === 'ratio' ? 'bridge ratio' : quantity.replace(/-/g, ' ');
+  return `${words.charAt(0).toUpperCase()}${words.slice(1)}`;
+}
 
 /** A phrase as a sentence: capital first letter, final full stop. */
 const sentence = (text: string): string => `${text.charAt(0).toUpperCase()}${text.slice(1)}.`;
@@ -52,9 +48,9 @@ function scaled(values: ArrayLike<number>, factor: number): Float64Array {
 function plots(c: ChannelDesign, points: number): ReportBlock[] {
   const { display, budget } = c;
   const name = c.loaded.name;
-  const curves = channelCurves(c.loaded.channel, points);
+  const curves = c.loaded.channel.curve(points);
   const x = scaled(curves.quantity, display.factor);
-  const label = quantityLabels[budget.quantity] ?? budget.quantity;
+  const label = quantityLabel(budget.quantity);
   const quantityAxis = { label, unit: display.unit };
   const n = curves.quantity.length;
   const ends = [0, n - 1].map((i) => ({ q: x[i] as number, y: (curves.inputRatio[i] as number) * 1e3 }));
@@ -154,11 +150,14 @@ function channelSection(c: ChannelDesign, points: number): ReportSection {
       kind: 'text',
       text:
         `Span ${st(budget.span.min)} … ${st(budget.span.max)} ${u}. The budget is evaluated at ${st(budget.at)} ${u} ` +
-        `(code ${formatCode(budget.code)}, converter input ${formatNumber(c.inputRatioAtPoint * 1e3, 5)} mV/V, ` +
+        `(code ${formatCode(budget.code)}, converter input ${formatNumber(c.point.inputRatio * 1e3, 5)} mV/V, ` +
         `${s(Math.abs(budget.quantityPerCode))} ${u} per code): combined standard uncertainty ${s(uc)} ${u}, ` +
         `expanded uncertainty ${s(budget.combined.expandedUncertainty)} ${u} (${p}, k = ${formatNumber(budget.combined.coverageFactor)}).`,
     },
-    { kind: 'checks', checks: c.checks.map((k) => ({ name: k.name, ok: k.ok, detail: k.detail })) },
+    {
+      kind: 'checks',
+      checks: checkRows(budget.checks),
+    },
     ...plots(c, points),
     {
       kind: 'table',
@@ -247,7 +246,7 @@ function channelSection(c: ChannelDesign, points: number): ReportSection {
       kind: 'text',
       text: 'The inputs, as validated: every field in SI (°C for temperatures), marked as written in the channel file (with the text as written when it carried a unit) or as a default.',
     },
-    { kind: 'inputs', groups: channelInputs(c.loaded.spec, c.loaded.raw, c.loaded.channel.unit) },
+    { kind: 'inputs', groups: channelInputs(c.loaded.channel.spec, c.loaded.raw, c.loaded.channel.unit) },
   ];
   return { title: `${c.loaded.name}: ${c.loaded.channel.quantity} (${u})`, blocks };
 }
@@ -258,9 +257,11 @@ function summarySection(report: DesignReport): ReportSection {
     blocks: [
       {
         kind: 'text',
-        text: report.ok
-          ? 'Every design check of every channel passed.'
-          : 'A design check failed: see the checks marked FAIL below.',
+        text: !report.ok
+          ? 'A design check failed: see the checks marked fail below.'
+          : report.channels.every((c) => c.budget.checks.every((k) => k.status === 'pass'))
+            ? 'Every design check of every channel passed.'
+            : 'No design check failed, but some warn: see the checks marked warn below.',
       },
       { kind: 'table', columns: summaryColumns, rows: summaryRows(report, plainTextStyle) },
     ],
@@ -269,15 +270,15 @@ function summarySection(report: DesignReport): ReportSection {
 
 /**
  * The design report as a self-contained HTML page: a summary, then per channel its hardware in
- * words, the headroom checks, four plots (converter input against the quantity with the
+ * words, the design checks (pass, warn or fail, with figures and thresholds), four plots (converter input against the quantity with the
  * terminal line, the nonlinearity of that line, the error budget bars, the noise contributions),
  * the budget with each line's model, the noise and resolution tables, and the channel's inputs.
  *
  * @remarks
  * The page is made by {@link renderHtmlReport} (inline CSS and SVG, no scripts, nothing fetched;
  * the safety caution at the top and in the footer) with {@link linePlot} and {@link barChart}.
- * The curves sample the exact map ({@link channelCurves}); every other number is the channel
- * package's budget, shown in the unit people read ({@link displayUnit}).
+ * The curves are the channel's exact map over its span (`Channel.curve`); every other number is
+ * the channel package's budget, shown in the unit people read (`Channel.display`).
  *
  * @param report - The design report.
  * @param options - Curve points, generator and date.

@@ -2,10 +2,12 @@ import { SAFETY_CAUTION } from '../caution.js';
 import { wrapText } from '../internal/wrapText.js';
 import { formatTable } from '../terminal/formatTable.js';
 import type { TextStyle } from '../terminal/textStyle.js';
+import type { ChannelDesignCheck } from '@bridgework/channel';
 import type { ChannelDesign, DesignReport } from './designReport.js';
 import { formatCode, formatNumber, formatPercent, formatProbability, formatStated } from './formatNumber.js';
 import { noiseSourceName } from './noiseSourceName.js';
 import { summaryColumns, summaryRows } from './summaryTable.js';
+import { checkRows, countChecks, statusMark } from './checkRows.js';
 import { budgetLineName, gaugePowerLabel, resolutionFormulas, shownFigure } from './reportWording.js';
 
 const WIDTH = 100;
@@ -100,11 +102,18 @@ function resolutionText(c: ChannelDesign): string {
 }
 
 function checksText(c: ChannelDesign, style: TextStyle): string {
-  const lines = ['checks (front end at the ends of the span):'];
-  for (const k of c.checks) {
-    const mark = k.ok ? style.green('pass') : style.red(style.bold('FAIL'));
-    lines.push(`  ${mark}  ${k.name}: ${k.detail}`);
-  }
+  const mark = (k: Pick<ChannelDesignCheck, 'status'>): string => {
+    const m = statusMark(k);
+    return m === 'pass' ? style.green(m) : m === 'WARN' ? style.yellow(m) : style.red(style.bold(m));
+  };
+  const lines = ['design checks (each figure against the threshold it is held to):'];
+  // Each check on its own line (wrapped under its text), after a four-letter mark.
+  for (const k of checkRows(c.budget.checks))
+    lines.push(
+      ...wrapText(`${k.name}: ${k.detail}`, WIDTH - 10).map((l, i) =>
+        i === 0 ? `  ${mark(k)}  ${l}` : `        ${l}`,
+      ),
+    );
   lines.push(`${gaugePowerLabel(c)}: ${formatNumber(c.budget.frontEnd.value.gaugeWatts * 1e3, 3)} mW`);
   return `${lines.join('\n')}\n`;
 }
@@ -116,7 +125,7 @@ function channelText(c: ChannelDesign, style: TextStyle): string {
   const head = `${style.bold(c.loaded.name)}: ${quantity}${unit === c.loaded.channel.unit ? ` (${unit})` : `, shown in ${unit}`}`;
   const point =
     `span ${stated(c, budget.span.min)} … ${stated(c, budget.span.max)} ${unit}; budget at ${stated(c, budget.at)} ${unit}: ` +
-    `code ${formatCode(budget.code)}, converter input ${formatNumber(c.inputRatioAtPoint * 1e3, 5)} mV/V, ` +
+    `code ${formatCode(budget.code)}, converter input ${formatNumber(c.point.inputRatio * 1e3, 5)} mV/V, ` +
     `${shown(c, Math.abs(budget.quantityPerCode))} ${unit} per code`;
   const about = [...c.description, point].flatMap((l) => wrapText(l, WIDTH - 2));
   return [
@@ -130,14 +139,28 @@ function channelText(c: ChannelDesign, style: TextStyle): string {
   ].join('\n');
 }
 
+/** The last line of a report: every check passed, warnings only, or a failure (exit code 2). */
+function verdictText(report: DesignReport, style: TextStyle): string {
+  const warnings = report.channels.reduce((n, c) => n + countChecks(c.budget.checks).warn, 0);
+  const w = `${warnings} warning${warnings === 1 ? '' : 's'}`;
+  if (!report.ok)
+    return style.red(
+      `A design check failed: see the FAIL lines above (exit code 2)${warnings > 0 ? `; ${w} as well` : ''}.`,
+    );
+  return warnings === 0
+    ? 'Every check passed.'
+    : style.yellow(`No check failed, but ${w}: see the WARN lines above.`);
+}
+
 /**
  * The design report as text for a terminal (or a log): a header, then per channel its hardware
  * in words, the budget table in the shown unit (effect at the budget point, standard uncertainty,
  * share of the combined variance), combined and expanded uncertainty, noise by source,
- * resolution and the headroom checks; then a summary of all channels and the safety caution.
+ * resolution and the design checks of the channel package (pass, warn or fail, each figure
+ * against its threshold; the plausible-input checks that pass are folded into one line); then a summary of all channels and the safety caution.
  *
  * @remarks
- * Quantities are shown in the unit people read (µε, kN, mV/V; see {@link displayUnit}); the
+ * Quantities are shown in the unit people read (µε, kN, mV/V: the channel's `display` unit); the
  * models behind each line are in the JSON and HTML reports. Lines are at most about 100 columns.
  * The text holds no date, so the same file gives the same report. Figures below 10⁻¹² of the
  * span's width (numerical dust, `DUST_FRACTION`) are shown as `< limit`.
@@ -154,10 +177,6 @@ export function formatTextReport(report: DesignReport, style: TextStyle): string
     head.push(...wrapText(report.project.description, WIDTH, '  '));
   const parts = [head.join('\n'), ...report.channels.map((c) => channelText(c, style))];
   parts.push(`${style.bold('Summary')}\n${indent(formatTable(summaryColumns, summaryRows(report, style)))}`);
-  parts.push(
-    report.ok
-      ? 'Every check passed.'
-      : style.red('A design check failed: see the FAIL lines above (exit code 2).'),
-  );
+  parts.push(verdictText(report, style));
   return `${parts.join('\n\n').replace(/\n{3,}/g, '\n\n')}\n\n${wrapText(SAFETY_CAUTION, WIDTH).join('\n')}\n`;
 }

@@ -51,17 +51,17 @@ export function budgetLineName(line: ChannelBudgetLine): string {
 }
 
 /**
- * What the gauge power figure is: the power in the hottest bridge arm that holds a gauge (or the
- * RTD), which includes the arm's lead wire when the channel has lead resistance.
+ * What the gauge power figure is: the power in the hottest bridge arm that holds a sensing
+ * element (a gauge, an RTD, a thermistor: whatever the sensor kind puts in the bridge), which
+ * includes the arm's lead wire when the channel has lead resistance.
  */
 export function gaugePowerLabel(c: ChannelDesign): string {
   const leads = c.budget.lines.some(
     (l) => l.kind === 'leads' && typeof l.inputs['ohmsPerLead'] === 'number' && l.inputs['ohmsPerLead'] > 0,
   );
-  const sensor = c.loaded.spec.sensor.kind === 'rtd' ? 'the RTD' : 'a gauge';
   return leads
-    ? `largest power in one bridge arm holding ${sensor}, with its lead wire`
-    : `largest power in one bridge arm holding ${sensor}`;
+    ? 'largest power in one bridge arm holding a sensing element, with its lead wire'
+    : 'largest power in one bridge arm holding a sensing element';
 }
 
 /**

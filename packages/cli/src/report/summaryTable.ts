@@ -1,6 +1,7 @@
 import type { TableColumn } from '../terminal/formatTable.js';
 import type { TextStyle } from '../terminal/textStyle.js';
 import type { DesignReport } from './designReport.js';
+import { checksOutcome, countChecks } from './checkRows.js';
 import { formatNumber, formatProbability, formatStated } from './formatNumber.js';
 
 /** The columns of the summary table of a design report. */
@@ -16,24 +17,28 @@ export const summaryColumns: readonly TableColumn[] = [
 /**
  * The summary of a design report, one row per channel: name, quantity and shown unit, span,
  * combined standard uncertainty, expanded uncertainty with its coverage probability, and the
- * checks (`pass` or `n failed`), in the shown unit.
+ * design checks (`pass`, `n warnings`, `n failed`), in the shown unit.
  *
  * @param report - The design report.
  * @param style - Colours for the checks cell (plain for HTML).
  * @returns The rows.
  */
-export function summaryRows(report: DesignReport, style: Pick<TextStyle, 'green' | 'red'>): string[][] {
+export function summaryRows(
+  report: DesignReport,
+  style: Pick<TextStyle, 'green' | 'red' | 'yellow'>,
+): string[][] {
   return report.channels.map((c) => {
     const b = c.budget;
     const f = c.display.factor;
-    const failed = c.checks.filter((k) => !k.ok).length;
+    const counts = countChecks(b.checks);
+    const outcome = checksOutcome(counts);
     return [
       c.loaded.name,
       `${b.quantity} (${c.display.unit})`,
       `${formatStated(b.span.min * f)} … ${formatStated(b.span.max * f)}`,
       formatNumber(b.combined.standardUncertainty * f),
       `${formatNumber(b.combined.expandedUncertainty * f)} (${formatProbability(b.combined.coverage)})`,
-      failed === 0 ? style.green('pass') : style.red(`${failed} failed`),
+      counts.fail > 0 ? style.red(outcome) : counts.warn > 0 ? style.yellow(outcome) : style.green(outcome),
     ];
   });
 }

@@ -1,10 +1,10 @@
 import { SAFETY_CAUTION } from '../caution.js';
 import { wrapText } from '../internal/wrapText.js';
-import type { DisplayUnit } from '../report/displayUnit.js';
+import type { ChannelBudget, DisplayUnit } from '@bridgework/channel';
+import type { GumValidation, MonteCarloResult } from '@bridgework/uncertainty';
 import { formatNumber, formatProbability, formatStated } from '../report/formatNumber.js';
 import { formatTable } from '../terminal/formatTable.js';
 import type { TextStyle } from '../terminal/textStyle.js';
-import type { BatchedMonteCarloResult } from './batchedMonteCarlo.js';
 
 /** One channel's Monte Carlo run, for the text and JSON outputs. */
 export interface ChannelUncertainty {
@@ -14,10 +14,12 @@ export interface ChannelUncertainty {
   readonly quantity: string;
   /** Its own unit (`'N'`). */
   readonly unit: string;
-  /** The unit people read it in. */
+  /** The unit people read it in (`Channel.display`). */
   readonly display: DisplayUnit;
-  /** The run. */
-  readonly result: BatchedMonteCarloResult;
+  /** The channel's budget at its budget point (its `combined` is the GUM result at the same coverage). */
+  readonly budget: ChannelBudget;
+  /** The Monte Carlo run (`budget.monteCarlo`), with its comparison to the GUM result. */
+  readonly result: MonteCarloResult;
 }
 
 /** Decimals that show a value to the resolution of its uncertainty's third significant digit. */
@@ -31,12 +33,12 @@ function fixed(x: number, decimals: number): string {
 }
 
 function channelText(c: ChannelUncertainty, style: TextStyle): string {
-  const { result, display } = c;
+  const { result, display, budget } = c;
   const f = display.factor;
   const u = display.unit;
-  const gum = result.budget.combined;
+  const gum = budget.combined;
   const d = decimalsFor(Math.min(result.standardUncertainty, gum.standardUncertainty) * f);
-  const at = `${formatStated(result.budget.at * f)} ${u}`;
+  const at = `${formatStated(budget.at * f)} ${u}`;
   const p = formatProbability(result.coverage);
   const rows = [
     [
@@ -71,7 +73,7 @@ function channelText(c: ChannelUncertainty, style: TextStyle): string {
     ],
     rows,
   );
-  const v = result.gumValidation;
+  const v = result.gumValidation as GumValidation;
   const verdict = v.validated
     ? style.green('the GUM interval is validated')
     : style.yellow('the GUM interval is not validated: use the Monte Carlo interval');
@@ -90,7 +92,7 @@ function channelText(c: ChannelUncertainty, style: TextStyle): string {
 }
 
 /**
- * The text output of `bridgework uncertainty`: what was run (trials, batches, seed), then per
+ * The text output of `bridgework uncertainty`: what was run (trials, seed), then per
  * channel the Monte Carlo estimate, standard uncertainty and both coverage intervals beside the
  * GUM result, and the JCGM 101 clause 8 comparison; then the safety caution.
  *
@@ -110,8 +112,7 @@ export function formatUncertainty(
     ...wrapText(
       first === undefined
         ? ''
-        : `${first.trials} trials per channel in ${first.batches.length} batch${first.batches.length === 1 ? '' : 'es'}; ` +
-            `seed ${first.seeds[0]} (batch i runs with seed + i·2³²): the same seed and trials give the same result. ` +
+        : `${first.trials} trials per channel; seed ${first.seed}: the same seed and trials give the same result on every machine. ` +
             'Each channel is evaluated at its budget point, with the distributions of its budget: the reading ' +
             '(normal, the noise) and every stated tolerance (rectangular).',
       100,
@@ -135,18 +136,16 @@ export function uncertaintyPayload(
 ): Record<string, unknown> {
   return {
     file,
-    seedRule: 'batch i runs with seed + i * 2^32',
-    channels: channels.map(({ name, quantity, unit, result }) => {
-      const gum = result.budget.combined;
+    channels: channels.map(({ name, quantity, unit, budget, result }) => {
+      const gum = budget.combined;
       return {
         name,
         quantity,
         unit,
-        at: result.budget.at,
+        at: budget.at,
         coverage: result.coverage,
         trials: result.trials,
-        batches: result.batches,
-        seeds: result.seeds,
+        seed: result.seed,
         monteCarlo: {
           value: result.value,
           standardUncertainty: result.standardUncertainty,

@@ -83,8 +83,13 @@ export function syntheticReport(): { html: string; plots: readonly SyntheticPlot
           {
             kind: 'checks',
             checks: [
-              { name: 'amplifier headroom', ok: true, detail: 'peak input 3.1 mV of 19.5 mV' },
-              { name: 'converter headroom', ok: false, detail: 'peak code 8 390 000 of 8 388 607' },
+              { name: 'amplifier headroom', status: 'pass', detail: 'peak input 3.1 mV of 19.5 mV' },
+              {
+                name: 'share of the converter range',
+                status: 'warn',
+                detail: 'the span uses 2 % (threshold 5 %)',
+              },
+              { name: 'converter headroom', status: 'fail', detail: 'peak code 8 390 000 of 8 388 607' },
             ],
           },
           { kind: 'plots', plots: [output, nonlinearity, budget, noise] },

@@ -31,6 +31,7 @@ export async function run(args: ConstantsArgs, context: CommandContext): Promise
   const loaded = await loadChannels(
     args.positionals.channelFile,
     options.channel === undefined ? undefined : [options.channel],
+    context.channels,
   );
   const output = await openResultOutput(context, options.out, options.force);
   try {

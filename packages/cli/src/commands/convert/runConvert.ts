@@ -17,7 +17,6 @@ import { exitCodes } from '../../exitCodes.js';
 import { refuseOutputOverInputs } from '../../internal/fileErrors.js';
 import { readVersion } from '../../internal/readVersion.js';
 import { splitOptionList } from '../../internal/splitOptionList.js';
-import { displayUnit } from '../../report/displayUnit.js';
 import type { CommandContext } from '../CommandContext.js';
 import type { ConvertArgs } from './convertCommand.js';
 
@@ -103,6 +102,7 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
   const loaded = await loadChannels(
     channelFile,
     (file) => names ?? (options.from === undefined ? file.recording?.channels : undefined),
+    context.channels,
   );
   const section = options.from === undefined ? loaded.file.recording : undefined;
   const all = loaded.channels;
@@ -219,7 +219,7 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
 
   // Columns and metadata.
   const display = options.unit === 'display';
-  const units = channels.map((c) => (display ? displayUnit(c) : { unit: c.unit, factor: 1 }));
+  const units = channels.map((c) => (display ? c.display : { unit: c.unit, factor: 1 }));
   const channelColumns: ChannelColumn[] = all.map((c, j) => ({
     name: c.name,
     unit: (units[j] as { unit: string }).unit,

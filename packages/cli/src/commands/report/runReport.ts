@@ -15,15 +15,15 @@ import { openResultOutput } from '../resultOutput.js';
 import type { ReportArgs } from './reportCommand.js';
 
 /**
- * The body of `bridgework report`: loads the channel file, computes each channel's budget
- * (`Channel.budget` of the channel package) and prints the text report or `--json`, and with
+ * The body of `bridgework report`: loads the channel file, computes each channel's budget and
+ * design checks (`channelBudget` of the channel package) and prints the text report or `--json`, and with
  * `--html` writes the HTML report.
  *
  * @remarks
  * Output files are opened (and checked for existence without `--force`) once the channel file is
  * read, before the budgets are computed, and committed only when everything is computed, so a
- * failed run writes nothing. The exit code is
- * 2 when a design check fails; the reports are still written.
+ * failed run writes nothing. The exit code is 2 when a design check fails (a warning does not
+ * change it); the reports are still written.
  *
  * @param args - The parsed command line.
  * @param context - The command context.
@@ -45,6 +45,7 @@ export async function run(args: ReportArgs, context: CommandContext): Promise<nu
     const loaded = await loadChannels(
       args.positionals.channelFile,
       options.channel === undefined ? undefined : [options.channel],
+      context.channels,
     );
     const force = { force: options.force };
     const html = options.html === undefined ? undefined : await openAtomicFile(options.html, force);

@@ -1,10 +1,9 @@
-import { createChannel } from '@bridgework/channel';
+import { channelBudget } from '@bridgework/channel';
+import type { MonteCarloResult } from '@bridgework/uncertainty';
 import { inChannel, loadChannels } from '../../channels/loadChannels.js';
 import { exitCodes } from '../../exitCodes.js';
 import { readVersion } from '../../internal/readVersion.js';
-import { displayUnit } from '../../report/displayUnit.js';
 import { reportJson } from '../../report/reportJson.js';
-import { batchedMonteCarlo } from '../../uncertainty/batchedMonteCarlo.js';
 import {
   formatUncertainty,
   uncertaintyPayload,
@@ -15,51 +14,52 @@ import { openResultOutput } from '../resultOutput.js';
 import type { UncertaintyArgs } from './uncertaintyCommand.js';
 
 /**
- * The body of `bridgework uncertainty`: for each selected channel, a seeded, batched Monte Carlo
- * run of its budget model ({@link batchedMonteCarlo}) with a progress bar on a terminal, printed
- * beside the GUM result as text or JSON.
+ * The body of `bridgework uncertainty`: for each selected channel, the channel package's Monte
+ * Carlo evaluation of its budget (`channelBudget(channel, { monteCarlo: { trials, seed,
+ * onProgress } })`, JCGM 101) with a progress bar on a terminal, printed beside the GUM result as
+ * text or JSON.
  *
  * @remarks
- * `--coverage` replaces the channels' `tolerances.coverageProbability`, so the Monte Carlo
- * intervals and the GUM expanded uncertainty use the same probability.
+ * `--coverage` is the budget's `coverageProbability` (it replaces the channels'
+ * `tolerances.coverageProbability`), so the Monte Carlo intervals and the GUM expanded
+ * uncertainty use the same probability.
  *
  * @param args - The parsed command line.
  * @param context - The command context.
  * @returns `exitCodes.ok`.
  * @throws {@link @bridgework/core!BridgeworkError} for a bad channel file or an existing output
- * without `--force`.
+ * without `--force`; `model-not-finite` (with the channel's file and path) when a trial's inputs
+ * make the channel's map fail.
  */
 export async function run(args: UncertaintyArgs, context: CommandContext): Promise<number> {
   const { options } = args;
   const loaded = await loadChannels(
     args.positionals.channelFile,
     options.channel === undefined ? undefined : [options.channel],
+    context.channels,
   );
   const output = await openResultOutput(context, options.out, options.force);
   try {
     const runs: ChannelUncertainty[] = loaded.channels.map((c) => {
-      const channel =
-        options.coverage === undefined
-          ? c.channel
-          : createChannel({
-              ...c.spec,
-              tolerances: { ...c.spec.tolerances, coverageProbability: options.coverage },
-            });
       const bar = context.progressBar({ label: c.name, total: options.trials, unit: 'trials' });
       try {
-        const result = inChannel(loaded, c, () =>
-          batchedMonteCarlo(channel, {
-            trials: options.trials,
-            seed: options.seed,
-            onProgress: (done) => bar.update(done),
+        const budget = inChannel(loaded, c, () =>
+          channelBudget(c.channel, {
+            monteCarlo: {
+              trials: options.trials,
+              seed: options.seed,
+              onProgress: (progress) => bar.update(progress.trials),
+            },
+            ...(options.coverage === undefined ? {} : { coverageProbability: options.coverage }),
           }),
         );
         return {
           name: c.name,
-          quantity: channel.quantity,
-          unit: channel.unit,
-          display: displayUnit(channel),
-          result,
+          quantity: c.channel.quantity,
+          unit: c.channel.unit,
+          display: c.channel.display,
+          budget,
+          result: budget.monteCarlo as MonteCarloResult,
         };
       } finally {
         bar.finish();
