@@ -32,15 +32,9 @@ export function isKnown(finding: string, k: KnownDefect): boolean {
   return typeof k.cases === 'string' ? finding.startsWith(k.cases) : k.cases.test(finding);
 }
 
-const { firmware, uncertainty, channel } = defectOwners;
+const { firmware, channel } = defectOwners;
 
 export const knownDefects: readonly KnownDefect[] = [
-  {
-    cases: /^sampleCoverageIntervals: 0\.\d+ = 10n \(a bigint\)/,
-    owner: uncertainty,
-    note: 'a bigint among the values is a TypeError',
-    random: true,
-  },
   {
     cases: 'emitSql: 1.keepColumns = ',
     owner: firmware,
@@ -65,13 +59,6 @@ export const knownDefects: readonly KnownDefect[] = [
 
 /** Option objects that still accept a misspelt key, with their owner (same rule as above). */
 export const knownOptionDefects: readonly KnownDefect[] = [
-  {
-    cases: 'validateGum: 0.gum ',
-    owner: uncertainty,
-    note: 'gum and monteCarlo are checked as objects, not against their known keys',
-  },
-  { cases: 'validateGum: 0.monteCarlo ', owner: uncertainty, note: 'as above' },
-  { cases: 'validateGum: 0.monteCarlo.interval ', owner: uncertainty, note: 'use checkInterval' },
   { cases: 'fixedPointMap: 0 ', owner: firmware, note: 'options checked as an object, not against its keys' },
   { cases: 'floatMap: 0 ', owner: firmware, note: 'as above' },
   { cases: 'emitCHeader: 0 ', owner: firmware, note: 'as above' },
