@@ -6,7 +6,7 @@ import {
   fitSummingTrims,
   summingNetworkRatio,
 } from '@bridgework/calibration';
-import { junctionRatio } from './support/mnaSolve.js';
+import { junctionRatio } from './support/summingJunction.js';
 
 /**
  * An invented four-cell platform on a deck flexible enough that a load over one quarter goes
