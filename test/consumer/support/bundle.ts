@@ -6,14 +6,13 @@
 import { gzipSync } from 'node:zlib';
 import { build } from 'esbuild';
 
-/** The budget of the conversion path (`createChannel` + `convert`), gzipped bytes. */
-export const CONVERSION_PATH_BUDGET_GZIP_BYTES = 66_000;
-
 /**
- * The target once the channel's budget and constants no longer hang on the conversion path
- * (issue 18, item 8): tighten {@link CONVERSION_PATH_BUDGET_GZIP_BYTES} to this when that lands.
+ * The budget of the conversion path (`createChannel` + `convert`), gzipped bytes: issue 18's
+ * target of 40 kB, met since the budget and the firmware constants left the channel object
+ * (38.8–39.0 kB measured on 2026-12-05). A change that crosses it must split something off the
+ * conversion path, not raise the figure.
  */
-export const CONVERSION_PATH_TARGET_GZIP_BYTES = 40_000;
+export const CONVERSION_PATH_BUDGET_GZIP_BYTES = 40_000;
 
 /** A bundle and its size. */
 export interface Bundle {
