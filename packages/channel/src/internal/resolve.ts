@@ -66,7 +66,9 @@ export function resolveChannel(spec: AnySpec, rules: ChannelRules): ResolvedChan
   const kindParameters = kind.parameters(spec.sensor as never);
   const nominal = new Float64Array(KIND_PARAMETERS_START + kindParameters.length);
   nominal[Parameter.excitationVolts] = spec.excitation.volts;
-  nominal[Parameter.gain] = spec.amplifier.gain;
+  // A shunt calibration's span factor k: the channel reads k·(code − zero-input code), the same as
+  // converting with the gain the shunt measured, amplifier.gain / k.
+  nominal[Parameter.gain] = spec.amplifier.gain / (spec.spanCorrection?.factor ?? 1);
   nominal[Parameter.referenceVolts] = spec.adc.referenceVolts;
   nominal[Parameter.offsetVolts] = 0;
   nominal[Parameter.completionOhms] = b.completionOhms ?? 0;
