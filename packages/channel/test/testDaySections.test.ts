@@ -1,7 +1,7 @@
 import { Decimal } from 'decimal.js';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { createChannel, validateChannelSpec, type ChannelSpec } from '@bridgework/channel';
+import { channelBudget, createChannel, validateChannelSpec, type ChannelSpec } from '@bridgework/channel';
 
 const D = Decimal.clone({ precision: 40, rounding: Decimal.ROUND_HALF_EVEN });
 
@@ -99,5 +99,31 @@ describe('calibration', () => {
     expect(unit.issues.map((i) => [i.path, i.code])).toEqual([['calibration.unit', 'conflicting-options']]);
     const cov = validateChannelSpec({ ...loadCell, calibration: { ...section, covariance: [1, 0, 0, 1] } });
     expect(cov.issues.map((i) => [i.path, i.code])).toEqual([['calibration.covariance', 'invalid-shape']]);
+  });
+});
+
+describe('calibration in the budget', () => {
+  it("adds the fitted curve's standard uncertainty at the budget point: √(gᵀVg)/|P′(q)| in the channel's unit (JCGM 100 H.3, first order)", () => {
+    const c = [1.2e-6, 4.0e-5, -2.0e-9];
+    const covariance = [4e-16, -1e-17, 1e-19, -1e-17, 9e-19, -2e-20, 1e-19, -2e-20, 8e-22];
+    const channel = createChannel({
+      ...loadCell,
+      calibration: { unit: 'kN', coefficients: c, covariance, range: [0, 50] },
+    });
+    const budget = channelBudget(channel, { at: 40 });
+    const line = budget.lines.find((l) => l.name === 'calibration fit');
+    expect(line?.kind).toBe('calibration');
+    const g = [1, 40, 1600];
+    let variance = 0;
+    for (let i = 0; i < 3; i++)
+      for (let j = 0; j < 3; j++) variance += g[i]! * covariance[3 * i + j]! * g[j]!;
+    const slope = c[1]! + 2 * c[2]! * 40;
+    // The GUM's sensitivity is a numerical derivative of the exact map: agreement to 1e-6.
+    expect(line?.standardUncertainty).toBeNear(Math.sqrt(variance) / Math.abs(slope), { rel: 1e-6 });
+    // The rated output no longer counts: the calibration replaced the sensor's map.
+    expect(budget.lines.find((l) => l.name === 'rated output')?.standardUncertainty ?? 0).toBeNear(0, {
+      abs: 1e-15,
+    });
+    expect(budget.combined.standardUncertainty).toBeGreaterThanOrEqual(line!.standardUncertainty!);
   });
 });

@@ -74,9 +74,9 @@ export function createChannelModel(r: ResolvedChannel, p: Float64Array): Channel
   // A calibration against reference loads replaces the sensor's ratio ↔ quantity map.
   const calibration = spec.calibration;
   const kindMap =
-    calibration === undefined || spec.output.quantity === 'ratio'
+    calibration === undefined || r.calibrationSlot === undefined
       ? sensorMap
-      : calibratedKindMap(sensorMap, calibration, r.dimension, zeroRatio);
+      : calibratedKindMap(sensorMap, calibration, r.dimension, zeroRatio, p[r.calibrationSlot] as number);
   const asRatio = spec.output.quantity === 'ratio';
   const unit = r.unit;
   const dimension = r.dimension;

@@ -5,7 +5,7 @@
  * provenance (when, with what, from which readings).
  */
 import { defaultOutputUnit, outputQuantities, type OutputQuantity } from '../outputQuantities.js';
-import { calibrationProblem } from '../internal/calibrationMap.js';
+import { calibrationProblem } from '../internal/calibrationPolynomial.js';
 import {
   choiceField,
   intervalField,
