@@ -186,7 +186,9 @@ describe('sampleCoverageIntervals (JCGM 101 7.7)', () => {
       'wrong-type',
       { param: 'values[30]' },
     );
-    expect(() => sampleCoverageIntervals([...y, , 1] as number[], 0.9)).toThrowBridgeworkError('wrong-type', {
+    const holey: number[] = [...y];
+    holey[31] = 1; // index 30 is a hole
+    expect(() => sampleCoverageIntervals(holey, 0.9)).toThrowBridgeworkError('wrong-type', {
       param: 'values[30]',
     });
     expect(() => sampleCoverageIntervals('abc' as unknown as number[], 0.9)).toThrowBridgeworkError(

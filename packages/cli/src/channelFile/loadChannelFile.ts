@@ -1,4 +1,5 @@
 import { BridgeworkError, formatValue, type SpecIssue } from '@bridgework/core';
+import { parseQuantity } from '@bridgework/channel';
 import { closestName } from '@bridgework/core';
 import { formatIssues } from './formatIssues.js';
 import { reservedNames, type ChannelDocument } from './parseChannelDocument.js';

@@ -39,7 +39,7 @@ const SPLIT = 134_217_729;
 /** How far (in units of t's last integer digit) t must be from a decision's threshold for the fast path to decide. */
 const MARGIN = 2 ** -40;
 /** log10(2). */
-const LOG10_2 = 0.30102999566398119521;
+const LOG10_2 = 0.3010299956639812;
 
 // Double-double powers of ten 10^j for j in [J_MIN, J_MAX]: hi + lo within 2^-105 relative of
 // 10^j, and Veltkamp's split of hi, built on first use.
