@@ -185,7 +185,8 @@ describe('the recording section of a channel file', () => {
       'recording.frameHeader',
       'unknown field; expected one of format',
     ],
-    ['  format: int42be\n', 'recording.format', "did you mean 'int32be'?"],
+    // Two swapped digits are one typo (core's closestName), as near as one wrong digit: the earlier listed wins.
+    ['  format: int42be\n', 'recording.format', "did you mean 'int24be'?"],
     ['  frameHeaderBytes: 8\n', 'recording.format', 'is required'],
     [
       '  format: int16le\n  channels: [deck-temp, hanger-h4]\n',
