@@ -43,24 +43,12 @@ export const knownDefects: readonly KnownDefect[] = [
     note: 'calibration: rows[0].fractionOfMpe = Infinity',
   },
   { cases: 'fitTwoPoint().loadAt: 0 = 1e308', note: 'calibration: result Infinity' },
-  // uncertainty (owner: the uncertainty helper)
-  {
-    cases: /^sampleCoverageIntervals: 0\.\d+ = 10n \(a bigint\)/,
-    note: 'uncertainty: a bigint among the values is a TypeError',
-    random: true,
-  },
   // firmware (owner: the firmware helper)
   { cases: 'emitSql: 1.keepColumns = ', note: 'firmware: a non-array keepColumns is a TypeError (keep.map)' },
 ];
 
 /** Option objects that still accept a misspelt key, with their owner (same rule as above). */
 export const knownOptionDefects: readonly KnownDefect[] = [
-  {
-    cases: 'validateGum: 0.gum ',
-    note: 'uncertainty: gum and monteCarlo are checked as objects, not against their known keys',
-  },
-  { cases: 'validateGum: 0.monteCarlo ', note: 'uncertainty: as above' },
-  { cases: 'validateGum: 0.monteCarlo.interval ', note: 'uncertainty: use checkInterval' },
   { cases: 'fixedPointMap: 0 ', note: 'firmware: options checked as an object, not against its keys' },
   { cases: 'floatMap: 0 ', note: 'firmware: as above' },
   { cases: 'emitCHeader: 0 ', note: 'firmware: as above' },
