@@ -54,6 +54,20 @@ export const firmwareCalls: readonly BaseCall[] = [
   f('roundShift', () => [7n, 1, 'half-even']),
   f('fixedPointMap', () => [fixedOptions()]),
   f('floatMap', () => [affineOptions()]),
+  f('matrixMap', () => [
+    {
+      matrix: [
+        [2000, -30],
+        [5, 1980],
+      ],
+      offsets: [-0.05, 0.03],
+      inputRanges: [
+        { min: -1.5, max: 1.5 },
+        { min: -1.5, max: 1.5 },
+      ],
+      precision: 'float32',
+    },
+  ]),
   f('floatMap', () => [polynomialOptions()], { variant: 'polynomial' }),
   f('emitCHeader', () => [
     {
