@@ -48,8 +48,10 @@ export interface MatrixMap {
    * The outputs as the emitted C computes them (every operation rounded to the precision, in the
    * C function's order), for checks.
    *
-   * @param inputs - N inputs.
+   * @param inputs - N inputs, each within its input range.
    * @returns M outputs.
+   * @throws {@link @bridgework/core!BridgeworkError} `invalid-shape` for the wrong number of
+   *   inputs, `not-finite`, and `out-of-range` for an input outside its range.
    */
   evaluate(inputs: ArrayLike<number>): number[];
   /**
@@ -231,12 +233,28 @@ export function matrixMap(options: MatrixMapOptions): MatrixMap {
   }));
 
   const evaluate = (inputs: ArrayLike<number>): number[] => {
-    if (inputs.length !== n) {
-      throw new BridgeworkError('invalid-shape', `\`inputs\` must hold ${n} numbers; got ${inputs.length}`, {
-        param: 'inputs',
-      });
+    if (typeof inputs !== 'object' || inputs === null || inputs.length !== n) {
+      throw new BridgeworkError(
+        'invalid-shape',
+        `\`inputs\` must hold ${n} numbers; got ${formatValue(inputs)}`,
+        {
+          param: 'inputs',
+          value: inputs,
+        },
+      );
     }
-    const x = Array.from({ length: n }, (_, i) => round(checkFinite(`inputs[${i}]`, inputs[i])));
+    const x = Array.from({ length: n }, (_, i) => {
+      const v = checkFinite(`inputs[${i}]`, inputs[i]);
+      const r = ranges[i] as Interval;
+      if (!(v >= r.min && v <= r.max)) {
+        throw new BridgeworkError(
+          'out-of-range',
+          `\`inputs[${i}]\` must lie in its input range [${r.min}, ${r.max}], where the bound holds; got ${v}`,
+          { param: `inputs[${i}]`, value: v, limit: r },
+        );
+      }
+      return round(v);
+    });
     return cr.map((row) => {
       let s = 0;
       for (let i = 0; i < n; i++)
