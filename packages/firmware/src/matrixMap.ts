@@ -250,7 +250,7 @@ export function matrixMap(options: MatrixMapOptions): MatrixMap {
         throw new BridgeworkError(
           'out-of-range',
           `\`inputs[${i}]\` must lie in its input range [${r.min}, ${r.max}], where the bound holds; got ${v}`,
-          { param: `inputs[${i}]`, value: v, limit: r },
+          { param: `inputs[${i}]`, value: v, limit: [r.min, r.max] },
         );
       }
       return round(v);
