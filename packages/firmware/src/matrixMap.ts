@@ -43,7 +43,12 @@ export interface MatrixMap {
    */
   readonly bounds: readonly number[];
   /** The parts of each bound: the constants' and inputs' rounding, and the arithmetic's. */
-  readonly boundParts: readonly { readonly rounding: number; readonly arithmetic: number }[];
+  readonly boundParts: readonly {
+    /** The constants' and inputs' rounding to the precision (0 in float64). */
+    readonly rounding: number;
+    /** The subtraction and inner product's arithmetic, underflow included. */
+    readonly arithmetic: number;
+  }[];
   /**
    * The outputs as the emitted C computes them (every operation rounded to the precision, in the
    * C function's order), for checks.
