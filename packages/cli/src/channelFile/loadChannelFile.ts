@@ -59,7 +59,7 @@ export interface LoadChannelFileOptions<T> {
   readonly validateChannel: ChannelValidator<T>;
 }
 
-const topLevelKeys = ['$schema', 'project', 'channels', 'recording'] as const;
+const topLevelKeys = ['$schema', 'project', 'channels', 'recording', 'groups'] as const;
 const projectKeys = ['title', 'description', 'reference'] as const;
 /** What a channel name (a key under `channels`) must match: a letter, then letters, digits, `_` and `-`, at most 63 in all. */
 export const channelNamePattern = /^[A-Za-z][A-Za-z0-9_-]{0,62}$/;
@@ -93,8 +93,9 @@ function unknownKeys(record: Record<string, unknown>, known: readonly string[], 
  * Layout: the top level is a mapping with `channels` (required: a non-empty mapping from channel
  * name to channel spec), `project` (optional: `title`, `description`, `reference`, each a
  * string), `recording` (optional: the layout of the channels' recordings, see
- * {@link validateRecordingSection}) and `$schema` (optional: a text naming the JSON Schema for
- * editors, otherwise ignored). Names start with a letter and hold letters, digits, `_` and `-` (at most 63), so they
+ * {@link validateRecordingSection}), `groups` (optional: multi-bridge groups, validated by the
+ * CLI's `validateGroups` once the channels are) and `$schema` (optional: a text naming the JSON
+ * Schema for editors, otherwise ignored). Names start with a letter and hold letters, digits, `_` and `-` (at most 63), so they
  * can become C identifiers and CSV headings; names that every JavaScript object carries
  * (`constructor`, `toString`, `__proto__`...) are refused. Unknown fields are errors (typo
  * protection), with the closest known name suggested. A file with more than

@@ -1,10 +1,12 @@
 import { channelSpecJsonSchema } from '@bridgework/channel';
 import { channelNamePattern } from '../channelFile/loadChannelFile.js';
 import { recordingSectionJsonSchema } from '../channelFile/recordingSection.js';
+import { groupsJsonSchema } from '../groups/groupsJsonSchema.js';
 
 /**
  * The JSON Schema (draft 2020-12) of a channel file, for editors: `project` metadata, a
- * `channels` mapping from channel name to channel spec and the `recording` layout.
+ * `channels` mapping from channel name to channel spec, the `recording` layout and the
+ * multi-bridge `groups`.
  *
  * @remarks
  * The channel part is the channel package's `channelSpecJsonSchema()` (generated from the schema
@@ -52,6 +54,7 @@ export function channelFileJsonSchema(): Record<string, unknown> {
         additionalProperties: { $ref: '#/$defs/channel' },
       },
       recording: recordingSectionJsonSchema(),
+      groups: groupsJsonSchema(),
     },
     $defs: { channel: { ...channel, properties } },
   };

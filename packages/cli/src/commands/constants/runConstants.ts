@@ -1,5 +1,7 @@
 import { BridgeworkError } from '@bridgework/core';
 import { loadChannels } from '../../channels/loadChannels.js';
+import { withGroups } from '../../groups/groupConstants.js';
+import { loadGroups } from '../../groups/loadGroups.js';
 import { exitCodes } from '../../exitCodes.js';
 import { readVersion } from '../../internal/readVersion.js';
 import { constantsSql } from '../../report/constantsSql.js';
@@ -35,22 +37,41 @@ export async function run(args: ConstantsArgs, context: CommandContext): Promise
   );
   const output = await openResultOutput(context, options.out, options.force);
   try {
-    await output.write(
-      options.format === 'sql'
-        ? constantsSql(loaded, {
-            dialect: options.dialect,
-            table: options.table,
-            verification: options.verification,
-            generator: `bridgework ${await readVersion()}`,
-          })
-        : constantsText(loaded, {
-            format: options.format,
-            prefix: options.prefix,
-            verification: options.verification,
-            generator: `bridgework ${await readVersion()}`,
-            ...(types === undefined ? {} : { types }),
-          }),
-    );
+    const generator = `bridgework ${await readVersion()}`;
+    if (options.format === 'sql') {
+      await output.write(
+        constantsSql(loaded, {
+          dialect: options.dialect,
+          table: options.table,
+          verification: options.verification,
+          generator,
+        }),
+      );
+      if (options.channel === undefined && (await loadGroups(loaded)).length > 0)
+        context.io.stderr.write(
+          "bridgework constants: the SQL holds the channels only; the file's multi-bridge groups are written by the C and JSON formats\n",
+        );
+    } else {
+      const text = constantsText(loaded, {
+        format: options.format,
+        prefix: options.prefix,
+        verification: options.verification,
+        generator,
+        ...(types === undefined ? {} : { types }),
+      });
+      // The file's multi-bridge groups follow when every channel is written.
+      const groups = options.channel === undefined ? await loadGroups(loaded) : [];
+      await output.write(
+        groups.length === 0
+          ? text
+          : withGroups(text, groups, {
+              format: options.format,
+              prefix: options.prefix,
+              types,
+              source: `${loaded.file.file} by ${generator}`,
+            }),
+      );
+    }
     const n = loaded.channels.length;
     await output.commit(
       `the ${options.format === 'sql' ? 'SQL maps' : 'constants'} of ${n} channel${n === 1 ? '' : 's'}`,
