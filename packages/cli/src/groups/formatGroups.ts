@@ -44,7 +44,11 @@ export function formatGroupText(report: GroupReport, style: TextStyle): string {
  */
 export function groupHtmlSection(report: GroupReport): ReportSection {
   const blocks: ReportBlock[] = report.paragraphs.map((text) => ({ kind: 'text', text }));
-  if (report.checks.length > 0) blocks.push({ kind: 'checks', checks: report.checks });
+  if (report.checks.length > 0)
+    blocks.push({
+      kind: 'checks',
+      checks: report.checks.map((c) => ({ name: c.name, status: c.ok ? 'pass' : 'fail', detail: c.detail })),
+    });
   if (report.residuals !== undefined) {
     blocks.push({
       kind: 'plots',
