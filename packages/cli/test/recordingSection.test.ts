@@ -131,6 +131,12 @@ describe('the recording section of a channel file', () => {
     // Without the override the frame size is wrong and the recording is refused, not misread.
     const refused = await run(['convert', channelFile, noTrailer, '-o', outPath('refused.csv')]);
     expect(refused.code).toBe(exitCodes.badInput);
+    // A tick or stamp offset without a stamp (the section's is not used with --from) is refused.
+    const noStamp = await run(['convert', channelFile, noTrailer, '--from', 'int32le', '--tick', '1e-6']);
+    expect(noStamp.code).toBe(exitCodes.badInput);
+    expect(noStamp.stderr).toContain(
+      '--tick describes a time stamp in the frame header, but the recording has none',
+    );
     // --from describes another recording: the section is not used (all three channels, int32le).
     const all = ['hanger-h3', 'gusset-g2', 'deck-temp'].map((n) =>
       createChannel(footbridgeSpecs[n as 'hanger-h3']),

@@ -370,6 +370,14 @@ function recordingLayout(
   const stampType = pick(options.timeStamp, section?.timeStamp?.type);
   const offsetBytes = pick(options.timeStampAt, section?.timeStamp?.offsetBytes) ?? 0;
   const secondsPerTick = pick(options.tick, section?.timeStamp?.secondsPerTick);
+  if (stampType === undefined && (options.timeStampAt !== undefined || options.tick !== undefined)) {
+    const given = options.tick !== undefined ? '--tick' : '--time-stamp-at';
+    throw new BridgeworkError(
+      'missing-option',
+      `${given} describes a time stamp in the frame header, but the recording has none; give its type with --time-stamp (or timeStamp in the channel file's recording section)`,
+      { param: '--time-stamp' },
+    );
+  }
   const columns = options.columns === undefined ? section?.codeColumns : parseColumnList(options.columns);
   const timeColumn =
     options.timeColumn === undefined
