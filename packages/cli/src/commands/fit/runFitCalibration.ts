@@ -9,7 +9,6 @@ import { inChannel, loadChannels } from '../../channels/loadChannels.js';
 import { exitCodes } from '../../exitCodes.js';
 import { readVersion } from '../../internal/readVersion.js';
 import { wrapText } from '../../internal/wrapText.js';
-import { displayUnit } from '../../report/displayUnit.js';
 import { formatNumber, formatPercent, formatStated } from '../../report/formatNumber.js';
 import { reportJson } from '../../report/reportJson.js';
 import { runDate } from '../../report/runDate.js';
@@ -282,7 +281,7 @@ export function calibrationSection(
 }
 
 function fitText(fit: CalibrationFit, channel: Channel, style: TextStyle): string {
-  const d = displayUnit(channel);
+  const d = channel.display;
   const q = (x: number, digits = 4) => `${formatNumber(x * d.factor, digits)}`;
   const rows = fit.points.map((p) => [
     `${formatStated(p.load * d.factor)}`,

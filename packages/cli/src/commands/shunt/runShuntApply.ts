@@ -13,7 +13,6 @@ import {
 import { exitCodes } from '../../exitCodes.js';
 import { readVersion } from '../../internal/readVersion.js';
 import { wrapText } from '../../internal/wrapText.js';
-import { displayUnit } from '../../report/displayUnit.js';
 import { formatCode, formatNumber, formatPercent } from '../../report/formatNumber.js';
 import { reportJson } from '../../report/reportJson.js';
 import { runDate } from '../../report/runDate.js';
@@ -236,7 +235,7 @@ export function theChannel(loaded: LoadedChannels, option: string | undefined): 
 }
 
 function applicationText(a: ShuntApplication, channel: Channel, file: string, style: TextStyle): string {
-  const d = displayUnit(channel);
+  const d = channel.display;
   const q = (x: number | undefined) => (x === undefined ? '—' : `${formatNumber(x * d.factor, 5)} ${d.unit}`);
   const u = (x: number | undefined) => (x === undefined || x === 0 ? '' : ` ± ${formatNumber(x, 2)}`);
   const table = formatTable(

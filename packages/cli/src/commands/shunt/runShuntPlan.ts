@@ -5,7 +5,6 @@ import { inChannel, loadChannels } from '../../channels/loadChannels.js';
 import { exitCodes } from '../../exitCodes.js';
 import { readVersion } from '../../internal/readVersion.js';
 import { wrapText } from '../../internal/wrapText.js';
-import { displayUnit } from '../../report/displayUnit.js';
 import { formatCode, formatNumber, formatPercent, formatStated } from '../../report/formatNumber.js';
 import { reportJson } from '../../report/reportJson.js';
 import { formatTable } from '../../terminal/formatTable.js';
@@ -50,7 +49,7 @@ export function planShunt(
   },
 ): ShuntPlan {
   const shunt = channelShunt(channel, { arm: options.arm, placement: options.placement });
-  const d = displayUnit(channel);
+  const d = channel.display;
   const describe = (q: number) => `${formatNumber(q * d.factor, 4)} ${d.unit}`;
   let simulate: number | undefined;
   let exact: ShuntStep;
@@ -83,7 +82,7 @@ export function planShunt(
 }
 
 function planText(plan: ShuntPlan, channel: Channel, style: TextStyle): string {
-  const d = displayUnit(channel);
+  const d = channel.display;
   const q = (x: number) => `${formatNumber(x * d.factor, 5)} ${d.unit}`;
   const ohms = (x: number) => `${formatStated(x)} Ω`;
   const head = [
