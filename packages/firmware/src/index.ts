@@ -23,6 +23,7 @@ export {
   type FloatPrecision,
   type PolynomialFloatMap,
 } from './floatMap.js';
+export { matrixMap, MAX_MATRIX_SIZE, type MatrixMap, type MatrixMapOptions } from './matrixMap.js';
 export { fixedPointRoundings, roundShift, type FixedPointRounding } from './roundShift.js';
 export {
   EXHAUSTIVE_CODE_LIMIT,

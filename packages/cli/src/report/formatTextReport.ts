@@ -140,10 +140,10 @@ function channelText(c: ChannelDesign, style: TextStyle): string {
 }
 
 /** The last line of a report: every check passed, warnings only, or a failure (exit code 2). */
-function verdictText(report: DesignReport, style: TextStyle): string {
+function verdictText(report: DesignReport, style: TextStyle, groupsOk: boolean): string {
   const warnings = report.channels.reduce((n, c) => n + countChecks(c.budget.checks).warn, 0);
   const w = `${warnings} warning${warnings === 1 ? '' : 's'}`;
-  if (!report.ok)
+  if (!report.ok || !groupsOk)
     return style.red(
       `A design check failed: see the FAIL lines above (exit code 2)${warnings > 0 ? `; ${w} as well` : ''}.`,
     );
@@ -167,16 +167,22 @@ function verdictText(report: DesignReport, style: TextStyle): string {
  *
  * @param report - The design report.
  * @param style - Colours (plain when writing to a file or pipe).
+ * @param groups - The file's multi-bridge groups as text sections (placed after the channels), and
+ *   whether their checks passed.
  * @returns The report, ending with the caution and a newline.
  */
-export function formatTextReport(report: DesignReport, style: TextStyle): string {
+export function formatTextReport(
+  report: DesignReport,
+  style: TextStyle,
+  groups: { readonly sections: readonly string[]; readonly ok: boolean } = { sections: [], ok: true },
+): string {
   const title = report.project.title ?? report.file;
   const head = [style.bold(`Design report: ${title}`), `  channel file: ${report.file}`];
   if (report.project.reference !== undefined) head.push(`  reference: ${report.project.reference}`);
   if (report.project.description !== undefined)
     head.push(...wrapText(report.project.description, WIDTH, '  '));
-  const parts = [head.join('\n'), ...report.channels.map((c) => channelText(c, style))];
+  const parts = [head.join('\n'), ...report.channels.map((c) => channelText(c, style)), ...groups.sections];
   parts.push(`${style.bold('Summary')}\n${indent(formatTable(summaryColumns, summaryRows(report, style)))}`);
-  parts.push(verdictText(report, style));
+  parts.push(verdictText(report, style, groups.ok));
   return `${parts.join('\n\n').replace(/\n{3,}/g, '\n\n')}\n\n${wrapText(SAFETY_CAUTION, WIDTH).join('\n')}\n`;
 }

@@ -1,4 +1,6 @@
 import { loadChannels } from '../../channels/loadChannels.js';
+import { withGroups } from '../../groups/groupConstants.js';
+import { loadGroups } from '../../groups/loadGroups.js';
 import { exitCodes } from '../../exitCodes.js';
 import { readVersion } from '../../internal/readVersion.js';
 import { constantsText, parseTypeList } from '../../report/constantsText.js';
@@ -26,14 +28,25 @@ export async function run(args: ConstantsArgs, context: CommandContext): Promise
   );
   const output = await openResultOutput(context, options.out, options.force);
   try {
+    const generator = `bridgework ${await readVersion()}`;
+    const text = constantsText(loaded, {
+      format: options.format,
+      prefix: options.prefix,
+      verification: options.verification,
+      generator,
+      ...(types === undefined ? {} : { types }),
+    });
+    // The file's multi-bridge groups follow when every channel is written.
+    const groups = options.channel === undefined ? await loadGroups(loaded) : [];
     await output.write(
-      constantsText(loaded, {
-        format: options.format,
-        prefix: options.prefix,
-        verification: options.verification,
-        generator: `bridgework ${await readVersion()}`,
-        ...(types === undefined ? {} : { types }),
-      }),
+      groups.length === 0
+        ? text
+        : withGroups(text, groups, {
+            format: options.format,
+            prefix: options.prefix,
+            types,
+            source: `${loaded.file.file} by ${generator}`,
+          }),
     );
     const n = loaded.channels.length;
     await output.commit(`the constants of ${n} channel${n === 1 ? '' : 's'}`);
