@@ -140,7 +140,7 @@ function channelText(c: ChannelDesign, style: TextStyle): string {
 }
 
 /** The last line of a report: every check passed, warnings only, or a failure (exit code 2). */
-function verdictText(report: DesignReport, groupsOk: boolean, style: TextStyle): string {
+function verdictText(report: DesignReport, style: TextStyle, groupsOk: boolean): string {
   const warnings = report.channels.reduce((n, c) => n + countChecks(c.budget.checks).warn, 0);
   const w = `${warnings} warning${warnings === 1 ? '' : 's'}`;
   if (!report.ok || !groupsOk)
@@ -183,6 +183,6 @@ export function formatTextReport(
     head.push(...wrapText(report.project.description, WIDTH, '  '));
   const parts = [head.join('\n'), ...report.channels.map((c) => channelText(c, style)), ...groups.sections];
   parts.push(`${style.bold('Summary')}\n${indent(formatTable(summaryColumns, summaryRows(report, style)))}`);
-  parts.push(verdictText(report, groups.ok, style));
+  parts.push(verdictText(report, style, groups.ok));
   return `${parts.join('\n\n').replace(/\n{3,}/g, '\n\n')}\n\n${wrapText(SAFETY_CAUTION, WIDTH).join('\n')}\n`;
 }
