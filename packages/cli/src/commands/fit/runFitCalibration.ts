@@ -1,4 +1,4 @@
-import { dirname, relative, sep } from 'node:path';
+import { dirname, relative, resolve, sep } from 'node:path';
 import { isDeepStrictEqual } from 'node:util';
 import { fitPolynomial, type PolynomialFit } from '@bridgework/calibration';
 import { createChannel, parseQuantity, type Channel, type ChannelSpec } from '@bridgework/channel';
@@ -16,7 +16,9 @@ import { runDate } from '../../report/runDate.js';
 import { formatTable } from '../../terminal/formatTable.js';
 import type { TextStyle } from '../../terminal/textStyle.js';
 import type { CommandContext } from '../CommandContext.js';
+import { openAtomicFile, type AtomicFile } from '../../files/atomicFile.js';
 import { openResultOutput } from '../resultOutput.js';
+import { fitCalibrationHtml } from './fitCalibrationHtml.js';
 import { codeRatioMap } from '../shunt/codeRatioMap.js';
 import { readSmallTable, type SmallTable } from '../shunt/readSmallTable.js';
 import { theChannel } from '../shunt/runShuntApply.js';
@@ -365,7 +367,14 @@ export async function run(args: FitArgs, context: CommandContext): Promise<numbe
     );
   }
   const table = await readSmallTable(args.positionals.pointsFile, ['load', 'reading']);
-  const { fit } = inChannel(loaded, target, () =>
+  const out = options.out === '-' ? undefined : options.out;
+  if (options.html !== undefined && out !== undefined && resolve(options.html) === resolve(out)) {
+    throw new BridgeworkError('conflicting-options', '`--html` and `--out` must name different files', {
+      param: '--html',
+      value: options.html,
+    });
+  }
+  const { fit, polynomial } = inChannel(loaded, target, () =>
     fitCalibration(target.channel, table, {
       degree: options.degree,
       reading: options.reading,
@@ -374,32 +383,45 @@ export async function run(args: FitArgs, context: CommandContext): Promise<numbe
   );
   const ok = fit.inverseRange !== undefined;
   const date = options.date ?? runDate(context.io.env);
+  let html: AtomicFile | undefined;
   let written = false;
-  if (options.write && ok) {
-    const editor = await openChannelFileEditor(path);
-    if (!isDeepStrictEqual(editor.original, loaded.document.data)) {
-      throw new BridgeworkError(
-        'io-error',
-        `${path} changed since it was read; nothing was written: run the command again`,
-        {
-          param: path,
-        },
-      );
-    }
-    setChannelSection(
-      editor,
-      target.name,
-      'calibration',
-      calibrationSection(fit, date, relative(dirname(path), table.file).split(sep).join('/')),
-      {
-        comment: `calibration against reference loads (bridgework fit-calibration, ${date})`,
-      },
-    );
-    await editor.save();
-    written = true;
-  }
   const output = await openResultOutput(context, options.out, options.force);
   try {
+    if (options.html !== undefined) {
+      html = await openAtomicFile(options.html, { force: options.force });
+      await html.write(
+        fitCalibrationHtml(fit, polynomial, {
+          display: displayUnit(target.channel),
+          channelFile: path,
+          date,
+          generator: `bridgework ${await readVersion()}`,
+        }),
+      );
+    }
+    // Every output is open (an existing file without --force stops here): now the write-back.
+    if (options.write && ok) {
+      const editor = await openChannelFileEditor(path);
+      if (!isDeepStrictEqual(editor.original, loaded.document.data)) {
+        throw new BridgeworkError(
+          'io-error',
+          `${path} changed since it was read; nothing was written: run the command again`,
+          {
+            param: path,
+          },
+        );
+      }
+      setChannelSection(
+        editor,
+        target.name,
+        'calibration',
+        calibrationSection(fit, date, relative(dirname(path), table.file).split(sep).join('/')),
+        {
+          comment: `calibration against reference loads (bridgework fit-calibration, ${date})`,
+        },
+      );
+      await editor.save();
+      written = true;
+    }
     if (options.json) {
       await output.write(
         reportJson({ file: path, ...fit, written, date }, { generator: `bridgework ${await readVersion()}` }),
@@ -414,8 +436,13 @@ export async function run(args: FitArgs, context: CommandContext): Promise<numbe
         `${fitText(fit, target.channel, output.style)}\n\n${note}\n\n${wrapText(SAFETY_CAUTION, 100).join('\n')}\n`,
       );
     }
+    if (html !== undefined) {
+      await html.commit();
+      context.io.stderr.write(`wrote the HTML page to ${options.html}\n`);
+    }
     await output.commit('the calibration fit');
   } finally {
+    await html?.abort();
     await output.abort();
   }
   return ok ? exitCodes.ok : exitCodes.failedCheck;
