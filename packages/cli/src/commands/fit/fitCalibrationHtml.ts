@@ -3,7 +3,7 @@ import { linePlot } from '../../html/linePlot.js';
 import { renderHtmlReport, type ReportSection } from '../../html/renderHtmlReport.js';
 import type { DisplayUnit } from '../../report/displayUnit.js';
 import { formatNumber, formatPercent, formatStated } from '../../report/formatNumber.js';
-import type { CalibrationFit } from './runFitCalibration.js';
+import type { CalibrationFit } from './calibrationFit.js';
 
 /**
  * The HTML page of `bridgework fit-calibration --html`: the fit, the points table, and two plots
