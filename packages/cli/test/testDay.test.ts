@@ -214,6 +214,20 @@ describe('the test day of examples/test-day', () => {
       '--degree',
       '2',
     ];
+    // An output that exists (no --force) stops the command before anything is written back.
+    writeFileSync(at('taken.txt'), 'keep');
+    const refused = await run(...args, '--write', '-o', at('taken.txt'));
+    expect(refused.code).toBe(exitCodes.badInput);
+    expect(readFileSync(at('slipway-winch.yaml'), 'utf8')).toBe(before);
+    expect(readFileSync(at('taken.txt'), 'utf8')).toBe('keep');
+    // The HTML page: the error plot (four runs and the ±u(fit) band) and the residuals, with the caution.
+    const page = await run(...args, '--html', at('fit.html'), '-o', at('fit.txt'));
+    expect(page.code).toBe(exitCodes.ok);
+    const html = readFileSync(at('fit.html'), 'utf8');
+    expect(html).toMatch(/data-plot="calibration-error"[^>]*data-series-count="6"/);
+    expect(html).toMatch(/data-plot="calibration-residuals"[^>]*data-series-count="4"/);
+    expect(html).toMatch(/support, and do not replace,\s+qualified engineering judgement/);
+
     const r = await run(...args, '--json');
     expect(r.code).toBe(exitCodes.ok);
     const fit = JSON.parse(r.stdout);

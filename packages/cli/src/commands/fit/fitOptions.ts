@@ -57,6 +57,13 @@ export const fitOptions = [
     defaultText: 'today (UTC; SOURCE_DATE_EPOCH when set)',
     description: 'The date recorded in the section (ISO 8601).',
   },
+  {
+    name: 'html',
+    type: 'string',
+    placeholder: 'file',
+    description:
+      "Also write a self-contained HTML page with plots (the calibrated channel's error at each point against load with the fit's uncertainty, the residuals) to this file.",
+  },
   jsonOption,
   outOption,
   forceOption,

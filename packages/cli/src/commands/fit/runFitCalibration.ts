@@ -1,4 +1,4 @@
-import { dirname, relative, sep } from 'node:path';
+import { dirname, relative, resolve, sep } from 'node:path';
 import { isDeepStrictEqual } from 'node:util';
 import { fitPolynomial, type PolynomialFit } from '@bridgework/calibration';
 import { createChannel, parseQuantity, type Channel, type ChannelSpec } from '@bridgework/channel';
@@ -15,78 +15,15 @@ import { runDate } from '../../report/runDate.js';
 import { formatTable } from '../../terminal/formatTable.js';
 import type { TextStyle } from '../../terminal/textStyle.js';
 import type { CommandContext } from '../CommandContext.js';
+import { openAtomicFile, type AtomicFile } from '../../files/atomicFile.js';
 import { openResultOutput } from '../resultOutput.js';
+import { fitCalibrationHtml } from './fitCalibrationHtml.js';
 import { codeRatioMap } from '../shunt/codeRatioMap.js';
 import { readSmallTable, type SmallTable } from '../shunt/readSmallTable.js';
 import { theChannel } from '../shunt/runShuntApply.js';
 import type { FitArgs } from './fitOptions.js';
+import type { CalibrationFit, ErrorFigure, FittedPoint } from './calibrationFit.js';
 import { loadCellErrors, type CalibrationPoint, type ErrorTerm } from './loadCellErrors.js';
-
-/** One point of the fit report. */
-export interface FittedPoint extends CalibrationPoint {
-  /** The reading as written in the points file. */
-  readonly given: number;
-  /** Reading minus fitted reading, V/V. */
-  readonly residual: number;
-  /**
-   * The load the calibrated channel indicates for this reading minus the load applied (channel
-   * unit); for a fit without an inverse, the residual over the fit's slope, or undefined where the
-   * slope vanishes.
-   */
-  readonly error: number | undefined;
-  /** Standard uncertainty of the fitted curve at this load, in load (channel unit). */
-  readonly fitUncertainty: number;
-}
-
-/** An error term in the reading's unit, in load and as a fraction of the span. */
-export interface ErrorFigure extends ErrorTerm {
-  /** In load (channel unit): the reading's value over the mean slope of the span. */
-  readonly load: number;
-  /** As a fraction of the span's reading. */
-  readonly fractionOfSpan: number;
-}
-
-/** The fit of one channel's calibration (the JSON payload). */
-export interface CalibrationFit {
-  /** The channel. */
-  readonly channel: string;
-  /** The channel's unit (loads, errors). */
-  readonly unit: string;
-  /** The polynomial degree. */
-  readonly degree: number;
-  /** What the reading column held. */
-  readonly reading: 'codes' | 'mV/V' | 'V/V';
-  /** The points file and its SHA-256. */
-  readonly pointsFile: string;
-  /** SHA-256 of its bytes. */
-  readonly pointsSha256: string;
-  /** Coefficients c0…cd: bridge ratio (V/V) against load (channel unit). */
-  readonly coefficients: readonly number[];
-  /** Their covariance. */
-  readonly covariance: readonly (readonly number[])[];
-  /** Their standard uncertainties. */
-  readonly standardUncertainties: readonly number[];
-  /** Residual standard deviation, V/V (undefined with no degree of freedom). */
-  readonly residualStandardDeviation: number | undefined;
-  /** Degrees of freedom. */
-  readonly degreesOfFreedom: number;
-  /** The reference loads' span. */
-  readonly range: { readonly min: number; readonly max: number };
-  /** Loads over which the fit has an inverse (undefined: it turns inside the span). */
-  readonly inverseRange: { readonly min: number; readonly max: number } | undefined;
-  /** The points. */
-  readonly points: readonly FittedPoint[];
-  /** Largest |error| of the calibrated channel at the points, channel unit. */
-  readonly largestError: number;
-  /** Largest standard uncertainty of the fitted curve over the span, in load. */
-  readonly largestFitUncertainty: number;
-  /** OIML R 60 error terms of the readings. */
-  readonly nonlinearity: ErrorFigure;
-  /** Hysteresis error (undefined without unloading points). */
-  readonly hysteresis: ErrorFigure | undefined;
-  /** Repeatability error (undefined without repeated loads). */
-  readonly repeatability: ErrorFigure | undefined;
-}
 
 const finiteOrUndefined = (x: number): number | undefined => (Number.isFinite(x) ? x : undefined);
 
@@ -364,7 +301,14 @@ export async function run(args: FitArgs, context: CommandContext): Promise<numbe
     );
   }
   const table = await readSmallTable(args.positionals.pointsFile, ['load', 'reading']);
-  const { fit } = inChannel(loaded, target, () =>
+  const out = options.out === '-' ? undefined : options.out;
+  if (options.html !== undefined && out !== undefined && resolve(options.html) === resolve(out)) {
+    throw new BridgeworkError('conflicting-options', '`--html` and `--out` must name different files', {
+      param: '--html',
+      value: options.html,
+    });
+  }
+  const { fit, polynomial } = inChannel(loaded, target, () =>
     fitCalibration(target.channel, table, {
       degree: options.degree,
       reading: options.reading,
@@ -373,32 +317,45 @@ export async function run(args: FitArgs, context: CommandContext): Promise<numbe
   );
   const ok = fit.inverseRange !== undefined;
   const date = options.date ?? runDate(context.io.env);
+  let html: AtomicFile | undefined;
   let written = false;
-  if (options.write && ok) {
-    const editor = await openChannelFileEditor(path);
-    if (!isDeepStrictEqual(editor.original, loaded.document.data)) {
-      throw new BridgeworkError(
-        'io-error',
-        `${path} changed since it was read; nothing was written: run the command again`,
-        {
-          param: path,
-        },
-      );
-    }
-    setChannelSection(
-      editor,
-      target.name,
-      'calibration',
-      calibrationSection(fit, date, relative(dirname(path), table.file).split(sep).join('/')),
-      {
-        comment: `calibration against reference loads (bridgework fit-calibration, ${date})`,
-      },
-    );
-    await editor.save();
-    written = true;
-  }
   const output = await openResultOutput(context, options.out, options.force);
   try {
+    if (options.html !== undefined) {
+      html = await openAtomicFile(options.html, { force: options.force });
+      await html.write(
+        fitCalibrationHtml(fit, polynomial, {
+          display: displayUnit(target.channel),
+          channelFile: path,
+          date,
+          generator: `bridgework ${await readVersion()}`,
+        }),
+      );
+    }
+    // Every output is open (an existing file without --force stops here): now the write-back.
+    if (options.write && ok) {
+      const editor = await openChannelFileEditor(path);
+      if (!isDeepStrictEqual(editor.original, loaded.document.data)) {
+        throw new BridgeworkError(
+          'io-error',
+          `${path} changed since it was read; nothing was written: run the command again`,
+          {
+            param: path,
+          },
+        );
+      }
+      setChannelSection(
+        editor,
+        target.name,
+        'calibration',
+        calibrationSection(fit, date, relative(dirname(path), table.file).split(sep).join('/')),
+        {
+          comment: `calibration against reference loads (bridgework fit-calibration, ${date})`,
+        },
+      );
+      await editor.save();
+      written = true;
+    }
     if (options.json) {
       await output.write(
         reportJson({ file: path, ...fit, written, date }, { generator: `bridgework ${await readVersion()}` }),
@@ -413,8 +370,13 @@ export async function run(args: FitArgs, context: CommandContext): Promise<numbe
         `${fitText(fit, target.channel, output.style)}\n\n${note}\n\n${wrapText(SAFETY_CAUTION, 100).join('\n')}\n`,
       );
     }
+    if (html !== undefined) {
+      await html.commit();
+      context.io.stderr.write(`wrote the HTML page to ${options.html}\n`);
+    }
     await output.commit('the calibration fit');
   } finally {
+    await html?.abort();
     await output.abort();
   }
   return ok ? exitCodes.ok : exitCodes.failedCheck;

@@ -308,26 +308,27 @@ export async function run(args: ShuntApplyArgs, context: CommandContext): Promis
     }),
   );
   const date = options.date ?? runDate(context.io.env);
-  let written = false;
-  if (options.write && application.ok) {
-    const editor = await openChannelFileEditor(path);
-    if (!isDeepStrictEqual(editor.original, loaded.document.data)) {
-      throw new BridgeworkError(
-        'io-error',
-        `${path} changed since it was read; nothing was written: run the command again`,
-        {
-          param: path,
-        },
-      );
-    }
-    setChannelSection(editor, target.name, 'spanCorrection', spanCorrectionSection(application, date), {
-      comment: `span correction from a shunt calibration (bridgework shunt-apply, ${date})`,
-    });
-    await editor.save();
-    written = true;
-  }
   const output = await openResultOutput(context, options.out, options.force);
+  let written = false;
   try {
+    // The output is open (an existing file without --force stops here): now the write-back.
+    if (options.write && application.ok) {
+      const editor = await openChannelFileEditor(path);
+      if (!isDeepStrictEqual(editor.original, loaded.document.data)) {
+        throw new BridgeworkError(
+          'io-error',
+          `${path} changed since it was read; nothing was written: run the command again`,
+          {
+            param: path,
+          },
+        );
+      }
+      setChannelSection(editor, target.name, 'spanCorrection', spanCorrectionSection(application, date), {
+        comment: `span correction from a shunt calibration (bridgework shunt-apply, ${date})`,
+      });
+      await editor.save();
+      written = true;
+    }
     if (options.json) {
       await output.write(
         reportJson(
