@@ -1,7 +1,7 @@
 import type { PolynomialFit } from '@bridgework/calibration';
 import { linePlot } from '../../html/linePlot.js';
 import { renderHtmlReport, type ReportSection } from '../../html/renderHtmlReport.js';
-import type { DisplayUnit } from '../../report/displayUnit.js';
+import type { DisplayUnit } from '@bridgework/channel';
 import { formatNumber, formatPercent, formatStated } from '../../report/formatNumber.js';
 import type { CalibrationFit } from './calibrationFit.js';
 

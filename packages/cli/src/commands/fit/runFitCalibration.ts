@@ -325,7 +325,7 @@ export async function run(args: FitArgs, context: CommandContext): Promise<numbe
       html = await openAtomicFile(options.html, { force: options.force });
       await html.write(
         fitCalibrationHtml(fit, polynomial, {
-          display: displayUnit(target.channel),
+          display: target.channel.display,
           channelFile: path,
           date,
           generator: `bridgework ${await readVersion()}`,
