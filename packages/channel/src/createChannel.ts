@@ -18,10 +18,10 @@ import type { ChannelSpec, OutputSpec } from './spec/ChannelSpec.js';
 import { validateChannelSpec } from './validateChannelSpec.js';
 import { createChannelBudget, type BudgetOptions, type ChannelBudget } from './budget/createChannelBudget.js';
 import {
-  createChannelConstants,
+  channelConstants,
   type ChannelConstants,
   type ConstantsOptions,
-} from './constants/createChannelConstants.js';
+} from './constants/channelConstants.js';
 
 /** Codes accepted by the converters: integer codes, or codes already averaged to non-integers. */
 export type CodeBuffer = Int32Array | Float64Array;
@@ -96,9 +96,10 @@ export interface Channel {
    */
   budget(options?: BudgetOptions): ChannelBudget;
   /**
-   * Firmware constants for the channel's map (fixed-point and float, with proved bounds).
+   * Firmware constants for the channel's map: for each type the cheapest function meeting a total
+   * error target against this exact map, verified over every code (see `channelConstants`).
    *
-   * @param options - Word sizes, rounding, polynomial degree, verification mode.
+   * @param options - Target, output step, types, word sizes, verification mode.
    */
   constants(options?: ConstantsOptions): ChannelConstants;
 }
@@ -242,7 +243,7 @@ export function createChannel(
       });
     },
     budget: (opts) => createChannelBudget(resolved, nominal, span, opts),
-    constants: (opts) => createChannelConstants(resolved, nominal, span, opts),
+    constants: (opts) => channelConstants(channel, opts),
   };
   internals.set(channel, { resolved, mappingAt });
   return channel;

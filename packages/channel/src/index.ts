@@ -6,7 +6,12 @@ export {
   type ChannelNoiseTerm,
   type MonteCarloBudgetOptions,
 } from './budget/createChannelBudget.js';
-export { type ChannelConstants, type ConstantsOptions } from './constants/createChannelConstants.js';
+export {
+  CHANNEL_MAP_RELATIVE_ACCURACY,
+  channelConstants,
+  type ChannelConstants,
+  type ConstantsOptions,
+} from './constants/channelConstants.js';
 export {
   type ConversionResult,
   type ConversionStatus,

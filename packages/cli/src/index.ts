@@ -117,7 +117,14 @@ export { channelCurves, type ChannelCurves } from './report/channelCurves.js';
 export { channelInputs } from './report/channelInputs.js';
 export { noiseSourceName } from './report/noiseSourceName.js';
 export { runDate } from './report/runDate.js';
-export { constantsText, parseTypeList, type ConstantsTextOptions } from './report/constantsText.js';
+export {
+  constantsFiles,
+  constantsText,
+  parsePerChannel,
+  parseTypeList,
+  type ConstantsFiles,
+  type ConstantsTextOptions,
+} from './report/constantsText.js';
 
 // Monte Carlo in batches
 export {

@@ -10,12 +10,12 @@ export interface CodeRange {
 }
 
 /** Checks `codeMin` ≤ `codeMax`, both int32. */
-export function checkCodeRange(o: Record<string, unknown>): CodeRange {
-  const codeMin = checkInteger('codeMin', o['codeMin'], CODE_LIMITS);
-  const codeMax = checkInteger('codeMax', o['codeMax'], CODE_LIMITS);
+export function checkCodeRange(o: Record<string, unknown>, prefix = ''): CodeRange {
+  const codeMin = checkInteger(`${prefix}codeMin`, o['codeMin'], CODE_LIMITS);
+  const codeMax = checkInteger(`${prefix}codeMax`, o['codeMax'], CODE_LIMITS);
   if (codeMax < codeMin) {
-    throw new BridgeworkError('out-of-range', `\`codeMax\` must be >= codeMin (${codeMin}); got ${codeMax}`, {
-      param: 'codeMax',
+    throw new BridgeworkError('out-of-range', `\`${prefix}codeMax\` must be >= codeMin (${codeMin}); got ${codeMax}`, {
+      param: `${prefix}codeMax`,
       value: codeMax,
       limit: [codeMin, CODE_LIMITS.max],
     });

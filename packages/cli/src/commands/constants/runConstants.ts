@@ -1,43 +1,77 @@
+import { basename } from 'node:path';
+import { BridgeworkError } from '@bridgework/core';
 import { loadChannels } from '../../channels/loadChannels.js';
 import { exitCodes } from '../../exitCodes.js';
+import { openAtomicFile } from '../../files/atomicFile.js';
 import { readVersion } from '../../internal/readVersion.js';
-import { constantsText, parseTypeList } from '../../report/constantsText.js';
+import { constantsFiles, parsePerChannel, parseTypeList } from '../../report/constantsText.js';
 import type { CommandContext } from '../CommandContext.js';
 import { openResultOutput } from '../resultOutput.js';
 import type { ConstantsArgs } from './constantsCommand.js';
 
 /**
  * The body of `bridgework constants`: the firmware constants of the selected channels as one C
- * header or JSON ({@link constantsText}), to a file (atomically) or standard output.
+ * header or JSON ({@link constantsFiles}), to a file (atomically) or standard output, with the C
+ * test program on request; a summary line per function on standard error.
  *
  * @param args - The parsed command line.
  * @param context - The command context.
  * @returns `exitCodes.ok`.
- * @throws {@link @bridgework/core!BridgeworkError} for a bad channel file, `--prefix` or `--types`,
- * or an existing output without `--force`.
+ * @throws {@link @bridgework/core!BridgeworkError} for a bad channel file or option, a target no form
+ * meets (nothing is written then), or an existing output without `--force`.
  */
 export async function run(args: ConstantsArgs, context: CommandContext): Promise<number> {
   const { options } = args;
   const types = options.types === undefined ? undefined : parseTypeList(options.types);
+  if (options.testProgram !== undefined && options.format !== 'c') {
+    throw new BridgeworkError('conflicting-options', '`--test-program` checks a C header: it needs `--format c`', {
+      param: '--test-program',
+      value: options.testProgram,
+    });
+  }
   const loaded = await loadChannels(
     args.positionals.channelFile,
     options.channel === undefined ? undefined : [options.channel],
   );
+  const names = loaded.channels.map((c) => c.name);
+  const targetErrors =
+    options.targetError === undefined ? undefined : parsePerChannel(options.targetError, '--target-error', names);
+  const outputSteps =
+    options.outputStep === undefined ? undefined : parsePerChannel(options.outputStep, '--output-step', names);
+  const headerName =
+    options.out === undefined || options.out === '-' ? `${options.prefix}_constants.h` : basename(options.out);
   const output = await openResultOutput(context, options.out, options.force);
+  const program =
+    options.testProgram === undefined ? undefined : await openAtomicFile(options.testProgram, { force: options.force });
   try {
-    await output.write(
-      constantsText(loaded, {
-        format: options.format,
-        prefix: options.prefix,
-        verification: options.verification,
-        generator: `bridgework ${await readVersion()}`,
-        ...(types === undefined ? {} : { types }),
-      }),
-    );
+    const files = constantsFiles(loaded, {
+      format: options.format,
+      prefix: options.prefix,
+      verification: options.verification,
+      generator: `bridgework ${await readVersion()}`,
+      ...(types === undefined ? {} : { types }),
+      ...(targetErrors === undefined ? {} : { targetErrors }),
+      ...(outputSteps === undefined ? {} : { outputSteps }),
+      design: {
+        coefficientBits: options.coefficientBits,
+        accumulatorBits: options.accumulatorBits === '32' ? 32 : 64,
+        hardwareDivide: options.hardwareDivide,
+        maxTableBytes: options.maxTableBytes,
+      },
+      ...(program === undefined ? {} : { testProgramHeader: headerName }),
+    });
+    for (const line of files.summary) context.io.stderr.write(`${line}\n`);
+    await output.write(files.text);
+    if (program !== undefined) await program.write(files.testProgram as string);
     const n = loaded.channels.length;
     await output.commit(`the constants of ${n} channel${n === 1 ? '' : 's'}`);
+    if (program !== undefined) {
+      await program.commit();
+      context.io.stderr.write(`wrote the test program to ${options.testProgram}\n`);
+    }
     return exitCodes.ok;
   } finally {
     await output.abort();
+    await program?.abort();
   }
 }
