@@ -11,14 +11,26 @@ import {
 } from '@bridgework/core';
 import { evaluatorTypes, type EvaluatorType, type FirmwareChannel } from './emitOptions.js';
 import type { ExactValue } from './exactValue.js';
-import { firmwareCost, type FirmwareFixedMap, type FirmwareFloatMap, type FirmwareMap } from './firmwareCost.js';
+import {
+  firmwareCost,
+  type FirmwareFixedMap,
+  type FirmwareFloatMap,
+  type FirmwareMap,
+} from './firmwareCost.js';
 import { buildFixedPiecewise } from './fixedPiecewiseMap.js';
 import { fixedPointMap } from './fixedPointMap.js';
 import { floatMap } from './floatMap.js';
 import { buildFloatMobius, fitMobius } from './floatMobiusMap.js';
 import { buildFloatPiecewise } from './floatPiecewiseMap.js';
 import { BINARY64, roundToBinary, upperDouble } from './internal/binary.js';
-import { callReference, checkBits, checkCodeRange, resolveVerification, sampleCodes } from './internal/codes.js';
+import {
+  callReference,
+  checkBits,
+  checkCodeRange,
+  readOptions,
+  resolveVerification,
+  sampleCodes,
+} from './internal/codes.js';
 import { boundString } from './internal/decimal.js';
 import { exactRational, rationalFromNumber } from './internal/exact.js';
 import { fastEvaluator } from './internal/fast.js';
@@ -150,7 +162,7 @@ const GRID = 4096;
  * ```
  */
 export function designFirmwareConstants(options: DesignFirmwareConstantsOptions): FirmwareChannel {
-  const o = checkOptions('options', options, {
+  const o = readOptions(options, {
     known: [
       'name',
       'exact',
@@ -192,17 +204,24 @@ export function designFirmwareConstants(options: DesignFirmwareConstantsOptions)
   const target = checkPositive('targetError', o['targetError']);
   const types = checkTypes(o['types']);
   const outputUnit =
-    o['outputUnit'] === undefined ? undefined : checkOutputUnit(exactRational('outputUnit', o['outputUnit']), o);
+    o['outputUnit'] === undefined
+      ? undefined
+      : checkOutputUnit(exactRational('outputUnit', o['outputUnit']), o);
   if (types.includes('fixed') && outputUnit === undefined) {
-    throw new BridgeworkError('missing-option', '`outputUnit` must be given to design a fixed-point function', {
-      param: 'outputUnit',
-    });
+    throw new BridgeworkError(
+      'missing-option',
+      '`outputUnit` must be given to design a fixed-point function',
+      {
+        param: 'outputUnit',
+      },
+    );
   }
   const coefficientBits = checkBits('coefficientBits', o['coefficientBits'], 32, 8, 32);
   const accumulatorBits = checkAccumulatorBits(o['accumulatorBits']);
   const rounding =
     o['rounding'] === undefined ? 'half-even' : checkOneOf('rounding', o['rounding'], fixedPointRoundings);
-  const hardwareDivide = o['hardwareDivide'] === undefined ? false : checkBoolean('hardwareDivide', o['hardwareDivide']);
+  const hardwareDivide =
+    o['hardwareDivide'] === undefined ? false : checkBoolean('hardwareDivide', o['hardwareDivide']);
   const maxTableBytes =
     o['maxTableBytes'] === undefined
       ? 4096
@@ -239,7 +258,8 @@ export function designFirmwareConstants(options: DesignFirmwareConstantsOptions)
     if (bestEstimate !== undefined) best.set(type, bestEstimate);
   }
   const chosen = new Map<EvaluatorType, { candidate: Candidate; total: TotalErrorBound }>();
-  const sampled = method === 'sampled' ? sampleCodes(range, [Math.floor((range.codeMin + range.codeMax) / 2)]) : undefined;
+  const sampled =
+    method === 'sampled' ? sampleCodes(range, [Math.floor((range.codeMin + range.codeMax) / 2)]) : undefined;
   for (let round = 0; chosen.size < types.length; round++) {
     const pending = types.filter((t) => !chosen.has(t));
     const trial = pending.map((t) => {
@@ -248,10 +268,22 @@ export function designFirmwareConstants(options: DesignFirmwareConstantsOptions)
       if (next === undefined) throw targetNotMet(t, target, quantityUnit, best.get(t));
       return { type: t, candidate: next };
     });
-    const results = verify(f, range, sampled, trial.map((x) => ({ type: x.type, candidate: x.candidate, outputUnit })));
+    const results = verify(
+      f,
+      range,
+      sampled,
+      trial.map((x) => ({ type: x.type, candidate: x.candidate, outputUnit })),
+    );
     trial.forEach((x, i) => {
       const r = results[i] as ScanTotals;
-      const total = totalOf(r, x.candidate, x.type === 'fixed' ? outputUnit : undefined, reference, target, method);
+      const total = totalOf(
+        r,
+        x.candidate,
+        x.type === 'fixed' ? outputUnit : undefined,
+        reference,
+        target,
+        method,
+      );
       const queue = queues.get(x.type) as Candidate[];
       queue.shift();
       const previous = best.get(x.type);
@@ -260,7 +292,13 @@ export function designFirmwareConstants(options: DesignFirmwareConstantsOptions)
       }
       if (total.bound <= target) chosen.set(x.type, { candidate: x.candidate, total });
     });
-    if (round > 64) throw targetNotMet(pending[0] as EvaluatorType, target, quantityUnit, best.get(pending[0] as EvaluatorType));
+    if (round > 64)
+      throw targetNotMet(
+        pending[0] as EvaluatorType,
+        target,
+        quantityUnit,
+        best.get(pending[0] as EvaluatorType),
+      );
   }
   const get = (t: EvaluatorType) => chosen.get(t);
   const totals: { -readonly [K in EvaluatorType]?: TotalErrorBound } = {};
@@ -284,11 +322,15 @@ export function designFirmwareConstants(options: DesignFirmwareConstantsOptions)
 function checkAccumulatorBits(value: unknown): 32 | 64 {
   if (value === undefined) return 64;
   if (value !== 32 && value !== 64) {
-    throw new BridgeworkError('invalid-option', `\`accumulatorBits\` must be 32 or 64; got ${formatValue(value)}`, {
-      param: 'accumulatorBits',
-      value,
-      limit: [32, 64],
-    });
+    throw new BridgeworkError(
+      'invalid-option',
+      `\`accumulatorBits\` must be 32 or 64; got ${formatValue(value)}`,
+      {
+        param: 'accumulatorBits',
+        value,
+        limit: [32, 64],
+      },
+    );
   }
   return value;
 }
@@ -305,13 +347,20 @@ function checkBoolean(param: string, value: unknown): boolean {
 
 function checkReferenceError(value: unknown): ReferenceError {
   if (value === undefined) return { bound: 0, source: 'none stated' };
-  const o = checkOptions('referenceError', value, { known: ['bound', 'source'], required: ['bound', 'source'] });
+  const o = checkOptions('referenceError', value, {
+    known: ['bound', 'source'],
+    required: ['bound', 'source'],
+  });
   const bound = checkNonNegative('referenceError.bound', checkFinite('referenceError.bound', o['bound']));
   if (typeof o['source'] !== 'string') {
-    throw new BridgeworkError('wrong-type', `\`referenceError.source\` must be a string; got ${formatValue(o['source'])}`, {
-      param: 'referenceError.source',
-      value: o['source'],
-    });
+    throw new BridgeworkError(
+      'wrong-type',
+      `\`referenceError.source\` must be a string; got ${formatValue(o['source'])}`,
+      {
+        param: 'referenceError.source',
+        value: o['source'],
+      },
+    );
   }
   return { bound, source: o['source'] };
 }
@@ -319,10 +368,14 @@ function checkReferenceError(value: unknown): ReferenceError {
 function checkTypes(value: unknown): readonly EvaluatorType[] {
   if (value === undefined) return evaluatorTypes;
   if (!Array.isArray(value) || value.length === 0) {
-    throw new BridgeworkError('invalid-shape', `\`types\` must be a non-empty array; got ${formatValue(value)}`, {
-      param: 'types',
-      value,
-    });
+    throw new BridgeworkError(
+      'invalid-shape',
+      `\`types\` must be a non-empty array; got ${formatValue(value)}`,
+      {
+        param: 'types',
+        value,
+      },
+    );
   }
   const list = value.map((t: unknown, i: number) => checkOneOf(`types[${i}]`, t, evaluatorTypes));
   if (new Set(list).size !== list.length) {
@@ -333,11 +386,15 @@ function checkTypes(value: unknown): readonly EvaluatorType[] {
 
 function checkOutputUnit(unit: Rational, o: Record<string, unknown>): Rational {
   if (sign(unit) <= 0) {
-    throw new BridgeworkError('not-positive', `\`outputUnit\` must be > 0; got ${formatValue(o['outputUnit'])}`, {
-      param: 'outputUnit',
-      value: o['outputUnit'],
-      limit: 0,
-    });
+    throw new BridgeworkError(
+      'not-positive',
+      `\`outputUnit\` must be > 0; got ${formatValue(o['outputUnit'])}`,
+      {
+        param: 'outputUnit',
+        value: o['outputUnit'],
+        limit: 0,
+      },
+    );
   }
   return unit;
 }
@@ -400,7 +457,11 @@ function createDesigner(input: DesignerInput) {
   let grid: { codes: number[]; values: number[] } | undefined;
   const gridValues = () => {
     if (grid === undefined) {
-      const codes = [...new Set([...Array.from({ length: GRID + 1 }, (_, i) => codeMin + Math.round(((n - 1) * i) / GRID))])];
+      const codes = [
+        ...new Set([
+          ...Array.from({ length: GRID + 1 }, (_, i) => codeMin + Math.round(((n - 1) * i) / GRID)),
+        ]),
+      ];
       grid = { codes, values: codes.map(f) };
     }
     return grid;
@@ -412,7 +473,10 @@ function createDesigner(input: DesignerInput) {
       const centre = Math.floor((codeMin + codeMax + 1) / 2);
       const { coefficients } = remezLine(codes, values, centre);
       const [c0, c1] = coefficients;
-      const estimate = codes.reduce((m, c, i) => Math.max(m, Math.abs(c0 + c1 * (c - centre) - (values[i] as number))), 0);
+      const estimate = codes.reduce(
+        (m, c, i) => Math.max(m, Math.abs(c0 + c1 * (c - centre) - (values[i] as number))),
+        0,
+      );
       line = { c0, c1, centre, estimate };
     }
     return line;
@@ -460,7 +524,14 @@ function createDesigner(input: DesignerInput) {
         quantityUnit: input.quantityUnit,
         verification: 'sampled',
       });
-      return { map, design, arithmetic: map.errorBound, estimate: l.estimate, cost: firmwareCost(map).cost, description };
+      return {
+        map,
+        design,
+        arithmetic: map.errorBound,
+        estimate: l.estimate,
+        cost: firmwareCost(map).cost,
+        description,
+      };
     } catch (e) {
       if (e instanceof BridgeworkError && e.code === 'overflow') return undefined;
       throw e;
@@ -511,7 +582,8 @@ function createDesigner(input: DesignerInput) {
         ? upperDouble(mul(rationalFromNumber(map.arithmeticBound), input.outputUnit as Rational))
         : map.arithmeticBound;
     const design = piecewiseDesign(poly);
-    const segments = poly.segmentCount === 1 ? 'one segment' : `${poly.segmentCount} segments of 2^${bits} codes`;
+    const segments =
+      poly.segmentCount === 1 ? 'one segment' : `${poly.segmentCount} segments of 2^${bits} codes`;
     return {
       map,
       design,
@@ -524,7 +596,10 @@ function createDesigner(input: DesignerInput) {
 
   /** Bytes of one segment's table for a type and degree. */
   function segmentBytes(type: EvaluatorType, degree: number): number {
-    if (type === 'fixed') return (degree + 1) * (input.coefficientBits <= 8 ? 1 : input.coefficientBits <= 16 ? 2 : 4) + degree + 1;
+    if (type === 'fixed')
+      return (
+        (degree + 1) * (input.coefficientBits <= 8 ? 1 : input.coefficientBits <= 16 ? 2 : 4) + degree + 1
+      );
     return (degree + 1) * (type === 'float32' ? 4 : 8);
   }
 
@@ -539,7 +614,10 @@ function createDesigner(input: DesignerInput) {
         if (c === undefined) return false;
         const bound = c.estimate + c.arithmetic + reference.bound;
         if (bestEstimate === undefined || bound < bestEstimate.bound) {
-          bestEstimate = { bound, description: `${c.description}, ${firmwareCost(c.map).tableBytes} bytes, estimated` };
+          bestEstimate = {
+            bound,
+            description: `${c.description}, ${firmwareCost(c.map).tableBytes} bytes, estimated`,
+          };
         }
         if (meets(c.estimate, c.arithmetic)) {
           found.push(c);
@@ -549,7 +627,10 @@ function createDesigner(input: DesignerInput) {
       };
       // Fixed point cannot beat half an output step.
       if (type === 'fixed' && lsb / 2 > budget) {
-        return { candidates: [], bestEstimate: { bound: lsb / 2 + reference.bound, description: 'the output rounding alone' } };
+        return {
+          candidates: [],
+          bestEstimate: { bound: lsb / 2 + reference.bound, description: 'the output rounding alone' },
+        };
       }
       consider(affineCandidate(type));
       if (type !== 'fixed' && input.hardwareDivide) consider(mobiusCandidate(type));
@@ -617,8 +698,16 @@ function verify(
   const k = jobs.length;
   const evaluate = jobs.map((j) => fastEvaluator(j.candidate.map));
   const design = jobs.map((j) => j.candidate.design);
-  const scale = jobs.map((j) => (j.type === 'fixed' ? 1 / roundToBinary(j.outputUnit as Rational, BINARY64) : 1));
-  const out: ScanTotals[] = jobs.map(() => ({ maxTotal: 0, worstCode: range.codeMin, maxApproximation: 0, referenceMagnitude: 0, count: 0 }));
+  const scale = jobs.map((j) =>
+    j.type === 'fixed' ? 1 / roundToBinary(j.outputUnit as Rational, BINARY64) : 1,
+  );
+  const out: ScanTotals[] = jobs.map(() => ({
+    maxTotal: 0,
+    worstCode: range.codeMin,
+    maxApproximation: 0,
+    referenceMagnitude: 0,
+    count: 0,
+  }));
   const visit = (code: number) => {
     const q = f(code);
     for (let i = 0; i < k; i++) {
@@ -626,10 +715,14 @@ function verify(
       const s = scale[i] as number;
       const y = (evaluate[i] as (c: number) => number)(code);
       if (!Number.isFinite(y)) {
-        throw new BridgeworkError('overflow', `the ${(jobs[i] as { type: string }).type} result at code ${code} must be finite; it overflows`, {
-          param: 'exact',
-          value: code,
-        });
+        throw new BridgeworkError(
+          'overflow',
+          `the ${(jobs[i] as { type: string }).type} result at code ${code} must be finite; it overflows`,
+          {
+            param: 'exact',
+            value: code,
+          },
+        );
       }
       const ref = q * s;
       const e = Math.abs(y - ref);
@@ -706,7 +799,11 @@ function totalOf(
 function chooseVectors(
   f: (code: number) => number,
   range: { codeMin: number; codeMax: number },
-  maps: { fixed: FirmwareFixedMap | undefined; float32: FirmwareFloatMap | undefined; float64: FirmwareFloatMap | undefined },
+  maps: {
+    fixed: FirmwareFixedMap | undefined;
+    float32: FirmwareFloatMap | undefined;
+    float64: FirmwareFloatMap | undefined;
+  },
   totals: { readonly [K in EvaluatorType]?: TotalErrorBound },
 ): readonly TestVector[] {
   const { codeMin, codeMax } = range;

@@ -128,7 +128,15 @@ function fixedAffineSection(prefix: string, ch: EmittedChannel, map: FixedPointM
   const total = ch.totals.fixed;
   const error =
     total === undefined
-      ? [ownErrorText(map.maxAbsError, map.errorBound, map.verification, 'LSB', '(code - offset) * scale / LSB')]
+      ? [
+          ownErrorText(
+            map.maxAbsError,
+            map.errorBound,
+            map.verification,
+            'LSB',
+            '(code - offset) * scale / LSB',
+          ),
+        ]
       : totalText(total, unit, `${map.source.outputUnit} * output`, 'the line (code - offset) * scale');
   const lines = block([
     `${fn}: fixed point, affine. output = ${roundingWords[map.rounding]}(((code - ${P}_OFFSET_CODE) * ${P}_MULTIPLIER + ${P}_BIAS) / 2^${P}_SHIFT), an integer number of output steps of ${map.source.outputUnit} ${unit}.`,
@@ -180,8 +188,21 @@ function fixedPiecewiseSection(prefix: string, ch: EmittedChannel, map: FixedPie
   const floor = helperName(prefix, 'floor', 32);
   const error =
     total === undefined
-      ? [ownErrorText(map.arithmeticBound, map.arithmeticBound, undefined, 'LSB', 'the piecewise polynomial / output step')]
-      : totalText(total, unit, `${map.outputUnit} * output`, `the piecewise ${DEGREE[n] as string} polynomial as fitted`);
+      ? [
+          ownErrorText(
+            map.arithmeticBound,
+            map.arithmeticBound,
+            undefined,
+            'LSB',
+            'the piecewise polynomial / output step',
+          ),
+        ]
+      : totalText(
+          total,
+          unit,
+          `${map.outputUnit} * output`,
+          `the piecewise ${DEGREE[n] as string} polynomial as fitted`,
+        );
   const steps = Array.from({ length: n }, (_, k) => n - 1 - k)
     .map((j) => `y = floor(y * t / 2^S[i][${j}]) + C[i][${j}]`)
     .join('; ');
@@ -331,7 +352,15 @@ function mobiusSection(prefix: string, ch: EmittedChannel, map: FloatMobiusMap):
   const total = ch.totals[type];
   const error =
     total === undefined
-      ? [ownErrorText(map.arithmeticBound, map.arithmeticBound, undefined, unit, 'the Moebius form with its source values')]
+      ? [
+          ownErrorText(
+            map.arithmeticBound,
+            map.arithmeticBound,
+            undefined,
+            unit,
+            'the Moebius form with its source values',
+          ),
+        ]
       : totalText(total, unit, 'y', 'the Moebius form as fitted');
   const lines = block([
     `${fn}: ${type}, linear-fractional (Moebius) form, in ${unit}: x = (${T})(code - ${P}_CENTRE); y = (${P}_B + ${P}_A * x) / (${one} + ${P}_C * x), every operation rounded in ${T}. For targets that divide in hardware.`,
@@ -539,10 +568,14 @@ function checkDistinctNames(lines: readonly string[]): void {
     const name = /^#define (\w+)/.exec(line)?.[1] ?? /^static inline \w+ (\w+)\(/.exec(line)?.[1];
     if (name === undefined) continue;
     if (seen.has(name)) {
-      throw new BridgeworkError('conflicting-options', `\`channels\` must give distinct C names; '${name}' repeats`, {
-        param: 'channels',
-        value: name,
-      });
+      throw new BridgeworkError(
+        'conflicting-options',
+        `\`channels\` must give distinct C names; '${name}' repeats`,
+        {
+          param: 'channels',
+          value: name,
+        },
+      );
     }
     seen.add(name);
   }

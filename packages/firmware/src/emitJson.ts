@@ -1,6 +1,11 @@
 import type { EmitOptions, EvaluatorType } from './emitOptions.js';
 import { FIRMWARE_CAUTION } from './emitCHeader.js';
-import { firmwareCost, type FirmwareCost, type FirmwareFixedMap, type FirmwareFloatMap } from './firmwareCost.js';
+import {
+  firmwareCost,
+  type FirmwareCost,
+  type FirmwareFixedMap,
+  type FirmwareFloatMap,
+} from './firmwareCost.js';
 import type { FixedPiecewiseMap } from './fixedPiecewiseMap.js';
 import type { FixedPointMap } from './fixedPointMap.js';
 import type { FloatMap } from './floatMap.js';
@@ -129,7 +134,11 @@ function floatJson(fn: string, m: FloatMap): Record<string, unknown> {
 }
 
 /** One function's entry: its constants, its total error when stated, and its cost. */
-function functionJson(ch: EmittedChannel, type: EvaluatorType, fn: string): Record<string, unknown> | undefined {
+function functionJson(
+  ch: EmittedChannel,
+  type: EvaluatorType,
+  fn: string,
+): Record<string, unknown> | undefined {
   const map = ch[type];
   if (map === undefined) return undefined;
   let body: Record<string, unknown>;

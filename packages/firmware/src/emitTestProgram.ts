@@ -1,9 +1,10 @@
-import { BridgeworkError, checkOptions, formatValue } from '@bridgework/core';
+import { BridgeworkError, formatValue } from '@bridgework/core';
 import type { EmitOptions } from './emitOptions.js';
 import { FIRMWARE_CAUTION } from './emitCHeader.js';
 import { emitModel, type EmittedChannel } from './internal/channels.js';
 import { INDENT } from './internal/cText.js';
 import { FIRMWARE_GENERATOR_VERSION } from './version.js';
+import { readOptions } from './internal/codes.js';
 
 /** Options of {@link emitTestProgram}: those of {@link emitCHeader} and the header's file name. */
 export interface EmitTestProgramOptions extends EmitOptions {
@@ -87,7 +88,10 @@ function channelCheck(prefix: string, ch: EmittedChannel): string[] {
  * ```
  */
 export function emitTestProgram(options: EmitTestProgramOptions): string {
-  const o = checkOptions('options', options, { known: ['channels', 'prefix', 'types', 'header'], required: ['channels', 'header'] });
+  const o = readOptions(options, {
+    known: ['channels', 'prefix', 'types', 'header'],
+    required: ['channels', 'header'],
+  });
   const header = o['header'];
   if (typeof header !== 'string' || !HEADER_NAME.test(header) || header.includes('..')) {
     throw new BridgeworkError(

@@ -41,11 +41,14 @@ export interface FirmwareCost {
   readonly cost: number;
 }
 
-function make(
-  parts: Omit<FirmwareCost, 'cost'>,
-): FirmwareCost {
+function make(parts: Omit<FirmwareCost, 'cost'>): FirmwareCost {
   const ops =
-    parts.multiplies + parts.additions + parts.shifts + parts.comparisons + parts.conversions + 8 * parts.divisions;
+    parts.multiplies +
+    parts.additions +
+    parts.shifts +
+    parts.comparisons +
+    parts.conversions +
+    8 * parts.divisions;
   return Object.freeze({ ...parts, cost: ops + parts.tableBytes / 32 });
 }
 
@@ -86,7 +89,8 @@ export function firmwareCost(map: FirmwareMap): FirmwareCost {
     if (fixed.kind === 'affine') {
       const wide = fixed.accumulatorBits > 32;
       const rounding = fixed.shift === 0 ? 0 : 1;
-      const extraAdds = fixed.shift === 0 ? 0 : fixed.rounding === 'floor' ? 0 : fixed.rounding === 'half-away' ? 2 : 1;
+      const extraAdds =
+        fixed.shift === 0 ? 0 : fixed.rounding === 'floor' ? 0 : fixed.rounding === 'half-away' ? 2 : 1;
       const extraShifts = fixed.rounding === 'half-even' && fixed.shift > 0 ? 1 : 0;
       return make({
         tableBytes: 4 + (wide ? 16 : 8),

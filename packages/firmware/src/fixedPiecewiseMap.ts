@@ -1,14 +1,7 @@
-import {
-  BridgeworkError,
-  checkInteger,
-  checkOptions,
-  formatValue,
-  requireOption,
-  type Interval,
-} from '@bridgework/core';
+import { BridgeworkError, checkInteger, formatValue, requireOption, type Interval } from '@bridgework/core';
 import type { ExactValue } from './exactValue.js';
 import { BINARY64, roundToBinary, upperDouble } from './internal/binary.js';
-import { checkBits } from './internal/codes.js';
+import { checkBits, readOptions } from './internal/codes.js';
 import { decimalString } from './internal/decimal.js';
 import { exactRational, rationalFromNumber } from './internal/exact.js';
 import { checkPiecewisePolynomial } from './internal/piecewiseChecks.js';
@@ -187,7 +180,10 @@ function designSegment(
   // First guesses from the real sizes; the integer proof below lowers any that do not fit.
   const caps = a.map((_, j) => {
     const half = j === 0 ? 0.5 : 0;
-    let cap = Math.min(capFor((aAbs[j] as number) + half, coefLimit), capFor(B[j] as number, 2 ** LOG2_LIMIT - 4));
+    let cap = Math.min(
+      capFor((aAbs[j] as number) + half, coefLimit),
+      capFor(B[j] as number, 2 ** LOG2_LIMIT - 4),
+    );
     if (j >= 1 && T > 0) cap = Math.min(cap, capFor((B[j] as number) * T, 2 ** LOG2_LIMIT - 4));
     return cap;
   });
@@ -275,18 +271,22 @@ function designSegment(
  * ```
  */
 export function fixedPiecewiseMap(options: FixedPiecewiseMapOptions): FixedPiecewiseMap {
-  const o = checkOptions('options', options, {
+  const o = readOptions(options, {
     known: ['polynomial', 'outputUnit', 'coefficientBits', 'quantityUnit'],
     required: ['polynomial', 'outputUnit'],
   });
   const polynomial = checkPiecewisePolynomial('polynomial', requireOption('polynomial', o['polynomial']));
   const outputUnit = exactRational('outputUnit', o['outputUnit']);
   if (sign(outputUnit) <= 0) {
-    throw new BridgeworkError('not-positive', `\`outputUnit\` must be > 0; got ${formatValue(o['outputUnit'])}`, {
-      param: 'outputUnit',
-      value: o['outputUnit'],
-      limit: 0,
-    });
+    throw new BridgeworkError(
+      'not-positive',
+      `\`outputUnit\` must be > 0; got ${formatValue(o['outputUnit'])}`,
+      {
+        param: 'outputUnit',
+        value: o['outputUnit'],
+        limit: 0,
+      },
+    );
   }
   const coefficientBits = checkBits('coefficientBits', o['coefficientBits'], 32, 8, 32);
   const quantityUnit = checkQuantityUnit(o['quantityUnit']);
@@ -314,14 +314,19 @@ export function buildFixedPiecewise(
   let highest = -Infinity;
   for (let i = 0; i < segmentCount; i++) {
     const s = segmentCodes(polynomial, i);
-    const a = (polynomial.coefficients[i] as readonly number[]).map((c) => div(rationalFromNumber(c), outputUnit));
+    const a = (polynomial.coefficients[i] as readonly number[]).map((c) =>
+      div(rationalFromNumber(c), outputUnit),
+    );
     const seg = designSegment(a, s.first - s.centre, s.last - s.centre, coefficientBits);
     if (seg === undefined) return undefined;
     segments.push(seg);
     // Output range: the polynomial's extremes (sampled at the ends and Chebyshev points) widened
     // by the segment's arithmetic bound and one LSB; used for display and the output-word check.
     for (const t of [s.first - s.centre, s.last - s.centre, 0]) {
-      const v = roundToBinary(a.reduceRight((acc: Rational, c) => add(mul(acc, rat(BigInt(t))), c), ZERO), BINARY64);
+      const v = roundToBinary(
+        a.reduceRight((acc: Rational, c) => add(mul(acc, rat(BigInt(t))), c), ZERO),
+        BINARY64,
+      );
       lowest = Math.min(lowest, v - seg.arithmeticBound);
       highest = Math.max(highest, v + seg.arithmeticBound);
     }
@@ -349,7 +354,8 @@ export function buildFixedPiecewise(
     let y = coef[base + degree] as number;
     // Every product and sum is an integer below 2^31 (proved), so binary64 holds it exactly and
     // floor(p·2^−S) is the C floor shift.
-    for (let j = degree - 1; j >= 0; j--) y = Math.floor(y * t * (scale[base + j] as number)) + (coef[base + j] as number);
+    for (let j = degree - 1; j >= 0; j--)
+      y = Math.floor(y * t * (scale[base + j] as number)) + (coef[base + j] as number);
     return Math.floor(y * (scale[base + degree] as number));
   };
   const map: FixedPiecewiseMap = Object.freeze({

@@ -2,14 +2,19 @@ import {
   BridgeworkError,
   checkInteger,
   checkOneOf,
-  checkOptions,
   formatValue,
   requireOption,
   type Interval,
 } from '@bridgework/core';
 import type { ExactValue } from './exactValue.js';
 import { BINARY64, roundToBinary, upperDouble } from './internal/binary.js';
-import { checkBits, checkCodeRange, resolveVerification, sampleCodes } from './internal/codes.js';
+import {
+  checkBits,
+  checkCodeRange,
+  readOptions,
+  resolveVerification,
+  sampleCodes,
+} from './internal/codes.js';
 import { decimalString } from './internal/decimal.js';
 import { exactRational, rationalFromNumber } from './internal/exact.js';
 import { registerFastEvaluator } from './internal/fast.js';
@@ -286,7 +291,7 @@ function chooseShift(
  * ```
  */
 export function fixedPointMap(options: FixedPointMapOptions): FixedPointMap {
-  const o = checkOptions('options', options, {
+  const o = readOptions(options, {
     known: [
       'scale',
       'offset',
@@ -383,7 +388,8 @@ export function fixedPointMap(options: FixedPointMapOptions): FixedPointMap {
     delta: roundToBinary(delta, BINARY64),
     beta: roundToBinary(beta, BINARY64),
   };
-  const scan = method === 'exhaustive' ? scanAll(kernel) : scanCodes(kernel, sampleCodes(range, [offsetCode]));
+  const scan =
+    method === 'exhaustive' ? scanAll(kernel) : scanCodes(kernel, sampleCodes(range, [offsetCode]));
 
   const evaluateExact = (code: number): bigint =>
     roundShiftUnchecked((BigInt(code) - offsetCodeBig) * multiplier + bias, s, rounding);

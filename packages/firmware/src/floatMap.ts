@@ -1,14 +1,7 @@
-import {
-  BridgeworkError,
-  checkInteger,
-  checkOneOf,
-  checkOptions,
-  formatValue,
-  requireOption,
-} from '@bridgework/core';
+import { BridgeworkError, checkInteger, checkOneOf, formatValue, requireOption } from '@bridgework/core';
 import type { ExactValue } from './exactValue.js';
 import { BINARY32, BINARY64, roundToBinary, upperDouble, type BinaryFormat } from './internal/binary.js';
-import { checkCodeRange, resolveVerification, sampleCodes } from './internal/codes.js';
+import { checkCodeRange, readOptions, resolveVerification, sampleCodes } from './internal/codes.js';
 import { decimalString } from './internal/decimal.js';
 import { exactRational, rationalFromNumber } from './internal/exact.js';
 import { registerFastEvaluator } from './internal/fast.js';
@@ -234,7 +227,7 @@ function readCoefficients(o: Record<string, unknown>, kind: 'affine' | 'polynomi
  * ```
  */
 export function floatMap(options: FloatMapOptions): FloatMap {
-  const o = checkOptions('options', options, {
+  const o = readOptions(options, {
     known: [
       'kind',
       'scale',

@@ -1,24 +1,12 @@
-import { BridgeworkError, checkInteger, checkOneOf, checkOptions, requireOption } from '@bridgework/core';
+import { BridgeworkError, checkInteger, checkOneOf, requireOption } from '@bridgework/core';
 import type { ExactValue } from './exactValue.js';
 import { BINARY32, BINARY64, roundToBinary, upperDouble, type BinaryFormat } from './internal/binary.js';
-import { callReference, checkCodeRange } from './internal/codes.js';
+import { callReference, checkCodeRange, readOptions } from './internal/codes.js';
 import { decimalString } from './internal/decimal.js';
 import { exactRational, rationalFromNumber } from './internal/exact.js';
 import { registerFastEvaluator } from './internal/fast.js';
 import type { FloatPrecision } from './internal/floatEval.js';
-import {
-  abs,
-  add,
-  cmp,
-  div,
-  max,
-  mul,
-  mulPow2,
-  rat,
-  sign,
-  sub,
-  type Rational,
-} from './internal/rational.js';
+import { abs, add, cmp, div, max, mul, mulPow2, rat, sign, sub, type Rational } from './internal/rational.js';
 import { checkQuantityUnit } from './internal/text.js';
 
 /** Options of {@link floatMobiusMap}. */
@@ -113,21 +101,24 @@ function units(format: BinaryFormat): { u: Rational; eta: Rational } {
  *   the option codes for bad options.
  * @example
  * ```ts
- * // y = 100·code/(1000 + code) over codes 0 … 1000, centred at 500: b = 100·500/1500,
- * // a = 100·1000/1500² per code, c = 1/1500 per code.
- * const map = floatMobiusMap({ a: '100000/2250000', b: '50000/1500', c: '1/1500', centre: 500, precision: 'float32', codeMin: 0, codeMax: 1000 });
+ * // y = 100·code/(1000 + code) over codes 0 … 1000, centred at 500: with x = code − 500,
+ * // y = (50000 + 100·x)/(1500 + x), so b = 50000/1500, a = 100/1500 and c = 1/1500 per code.
+ * const map = floatMobiusMap({ a: '100/1500', b: '50000/1500', c: '1/1500', centre: 500, precision: 'float32', codeMin: 0, codeMax: 1000 });
  * map.evaluate(1000); // ≈ 50
  * ```
  */
 export function floatMobiusMap(options: FloatMobiusMapOptions): FloatMobiusMap {
-  const o = checkOptions('options', options, {
+  const o = readOptions(options, {
     known: ['a', 'b', 'c', 'centre', 'precision', 'codeMin', 'codeMax', 'quantityUnit'],
     required: ['a', 'b', 'c', 'precision', 'codeMin', 'codeMax'],
   });
   const a = exactRational('a', o['a']);
   const b = exactRational('b', o['b']);
   const c = exactRational('c', o['c']);
-  const precision = checkOneOf('precision', requireOption('precision', o['precision']), ['float32', 'float64'] as const);
+  const precision = checkOneOf('precision', requireOption('precision', o['precision']), [
+    'float32',
+    'float64',
+  ] as const);
   const range = checkCodeRange(o);
   const centre =
     o['centre'] === undefined
@@ -272,7 +263,10 @@ function solve3(m: readonly (readonly number[])[]): [number, number, number] | u
   for (let col = 0; col < 3; col++) {
     let pivot = col;
     for (let i = col + 1; i < 3; i++) {
-      if (Math.abs((r[i] as Float64Array)[col] as number) > Math.abs((r[pivot] as Float64Array)[col] as number)) pivot = i;
+      if (
+        Math.abs((r[i] as Float64Array)[col] as number) > Math.abs((r[pivot] as Float64Array)[col] as number)
+      )
+        pivot = i;
     }
     const top = r[pivot] as Float64Array;
     if (top[col] === 0) return undefined;

@@ -1,4 +1,4 @@
-import { BridgeworkError, checkInteger, checkOneOf, checkOptions, requireOption } from '@bridgework/core';
+import { BridgeworkError, checkInteger, checkOneOf, requireOption } from '@bridgework/core';
 import { BINARY32, BINARY64, roundToBinary, upperDouble } from './internal/binary.js';
 import { rationalFromNumber } from './internal/exact.js';
 import { registerFastEvaluator } from './internal/fast.js';
@@ -8,6 +8,7 @@ import { checkPiecewisePolynomial } from './internal/piecewiseChecks.js';
 import { ZERO } from './internal/rational.js';
 import { checkQuantityUnit } from './internal/text.js';
 import { segmentCodes, type PiecewisePolynomial } from './piecewisePolynomial.js';
+import { readOptions } from './internal/codes.js';
 
 /** Options of {@link floatPiecewiseMap}. */
 export interface FloatPiecewiseMapOptions {
@@ -88,7 +89,7 @@ export interface FloatPiecewiseMap {
  * ```
  */
 export function floatPiecewiseMap(options: FloatPiecewiseMapOptions): FloatPiecewiseMap {
-  const o = checkOptions('options', options, {
+  const o = readOptions(options, {
     known: ['polynomial', 'precision', 'quantityUnit'],
     required: ['polynomial', 'precision'],
   });

@@ -43,7 +43,11 @@ export {
   type PolynomialFloatMap,
 } from './floatMap.js';
 export { floatMobiusMap, type FloatMobiusMap, type FloatMobiusMapOptions } from './floatMobiusMap.js';
-export { floatPiecewiseMap, type FloatPiecewiseMap, type FloatPiecewiseMapOptions } from './floatPiecewiseMap.js';
+export {
+  floatPiecewiseMap,
+  type FloatPiecewiseMap,
+  type FloatPiecewiseMapOptions,
+} from './floatPiecewiseMap.js';
 export {
   fitPiecewisePolynomial,
   MAX_PIECEWISE_DEGREE,

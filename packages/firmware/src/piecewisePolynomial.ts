@@ -1,5 +1,5 @@
-import { BridgeworkError, checkInteger, checkOptions, formatValue, requireOption } from '@bridgework/core';
-import { checkCodeRange, checkReference } from './internal/codes.js';
+import { BridgeworkError, checkInteger, formatValue, requireOption } from '@bridgework/core';
+import { checkCodeRange, checkReference, readOptions } from './internal/codes.js';
 import { chebyshevInterpolant } from './internal/fit.js';
 
 /** The highest polynomial degree of a piecewise map. */
@@ -131,12 +131,13 @@ export interface FitPiecewisePolynomialOptions {
  * ```
  */
 export function fitPiecewisePolynomial(options: FitPiecewisePolynomialOptions): PiecewisePolynomial {
-  const o = checkOptions('options', options, {
+  const o = readOptions(options, {
     known: ['exact', 'codeMin', 'codeMax', 'segmentBits', 'degree'],
     required: ['exact', 'codeMin', 'codeMax', 'segmentBits', 'degree'],
   });
   const exact = checkReference(requireOption('exact', o['exact']));
-  if (exact === undefined) throw new BridgeworkError('missing-option', '`exact` must be given', { param: 'exact' });
+  if (exact === undefined)
+    throw new BridgeworkError('missing-option', '`exact` must be given', { param: 'exact' });
   const range = checkCodeRange(o);
   const segmentBits = checkInteger('segmentBits', o['segmentBits'], { min: 1, max: 31 });
   const degree = checkInteger('degree', o['degree'], { min: 0, max: MAX_PIECEWISE_DEGREE });

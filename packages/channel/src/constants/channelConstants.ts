@@ -4,13 +4,7 @@
  * `validCodes`, `span`, `unit`, `name`, the spec's optional `output.firmwareResolution` and the
  * budget's combined standard uncertainty), so it does not depend on how the channel is built.
  */
-import {
-  BridgeworkError,
-  checkFinite,
-  checkOptions,
-  checkPositive,
-  formatValue,
-} from '@bridgework/core';
+import { BridgeworkError, checkFinite, checkOptions, checkPositive, formatValue } from '@bridgework/core';
 import {
   designFirmwareConstants,
   type EvaluatorType,
@@ -181,7 +175,8 @@ export function channelConstants(channel: Channel, options: ConstantsOptions = {
   const { codeMin, codeMax } = spanCodes(channel);
   const spanMagnitude = Math.max(Math.abs(channel.span.min), Math.abs(channel.span.max));
   const spanStep = powerOfTenBelow(spanMagnitude > 0 ? spanMagnitude * 1e-4 : 1e-4);
-  const explicitTarget = o['targetError'] === undefined ? undefined : checkPositive('targetError', o['targetError']);
+  const explicitTarget =
+    o['targetError'] === undefined ? undefined : checkPositive('targetError', o['targetError']);
   const specResolution = channel.spec.output.firmwareResolution;
   const resolution =
     o['outputResolution'] !== undefined

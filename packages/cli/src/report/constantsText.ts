@@ -83,7 +83,11 @@ const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for a malformed entry, an unknown or
  *   repeated channel, or a value that is not a positive finite number.
  */
-export function parsePerChannel(text: string, option: string, channels: readonly string[]): Map<string, number> {
+export function parsePerChannel(
+  text: string,
+  option: string,
+  channels: readonly string[],
+): Map<string, number> {
   const out = new Map<string, number>();
   const value = (v: string, entry: string): number => {
     const x = Number(v.trim());
@@ -124,18 +128,27 @@ function commentSafe(text: string): string {
 /** The form of a map in a few words. */
 function formOf(map: FirmwareMap): string {
   if (map.kind === 'piecewise-polynomial') {
-    const degree = ['constant', 'linear', 'quadratic', 'cubic', 'quartic', 'quintic'][map.degree] ?? `degree ${map.degree}`;
+    const degree =
+      ['constant', 'linear', 'quadratic', 'cubic', 'quartic', 'quintic'][map.degree] ??
+      `degree ${map.degree}`;
     return `piecewise ${degree}, ${map.segmentCount} segment${map.segmentCount === 1 ? '' : 's'}`;
   }
   return map.kind === 'mobius' ? 'Moebius' : map.kind;
 }
 
-function summaryLines(name: string, unit: string, c: ChannelConstants, types: readonly EvaluatorType[]): string[] {
+function summaryLines(
+  name: string,
+  unit: string,
+  c: ChannelConstants,
+  types: readonly EvaluatorType[],
+): string[] {
   return types.flatMap((t) => {
     const map = c[t];
     const total = c.totals[t];
     if (map === undefined || total === undefined) return [];
-    const how = total.proved ? `proved over all ${total.codesChecked} codes` : `measured on ${total.codesChecked} codes`;
+    const how = total.proved
+      ? `proved over all ${total.codesChecked} codes`
+      : `measured on ${total.codesChecked} codes`;
     return [
       `${name} ${t}: ${formOf(map)}, ${firmwareCost(map).tableBytes} bytes; total error <= ${total.bound.toPrecision(3)} ${unit} (${how}; target ${c.targetError.toPrecision(3)} ${unit})`,
     ];

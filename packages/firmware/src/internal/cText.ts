@@ -56,7 +56,12 @@ export function block(paragraphs: readonly string[]): string[] {
  * The statement of a function's total error against the exact map: the only figure called the
  * error. `expression` names what is compared (e.g. `0.01 * output`).
  */
-export function totalText(total: TotalErrorBound, unit: string, expression: string, partsWhat: string): string[] {
+export function totalText(
+  total: TotalErrorBound,
+  unit: string,
+  expression: string,
+  partsWhat: string,
+): string[] {
   const worst = `the largest difference found is ${shortString(total.againstReference)} ${unit} at code ${total.worstCode}`;
   const reference =
     total.referenceError > 0
@@ -66,13 +71,19 @@ export function totalText(total: TotalErrorBound, unit: string, expression: stri
     ? `proved: every one of the ${total.codesChecked} codes was evaluated as this function computes it and compared with the exact map (${worst})${reference}.`
     : `measured, not proved: the approximation error on ${total.codesChecked} sampled codes plus the analytic arithmetic bound (${worst})${reference}.`;
   return [
-    `TOTAL ERROR: |${expression} - exact map| <= ${bound(total.bound)} ${unit} over the whole code range, ${how} Target ${bound(total.target)} ${unit}: met.`,
+    `TOTAL ERROR: |${expression} - exact map| <= ${bound(total.bound)} ${unit} over the whole code range, ${how} Target ${shortString(total.target)} ${unit}: met.`,
     `Parts of it (not the error): approximation (${partsWhat} against the exact map) <= ${bound(total.approximation)} ${unit}, measured over the same codes; arithmetic (rounding in this function's number format) <= ${bound(total.arithmetic)} ${unit}, analytic bound.`,
   ];
 }
 
 /** The statement for a map emitted without an exact map: its arithmetic error only. */
-export function ownErrorText(maxAbs: number, analytic: number, v: Verification | undefined, unit: string, formula: string): string {
+export function ownErrorText(
+  maxAbs: number,
+  analytic: number,
+  v: Verification | undefined,
+  unit: string,
+  formula: string,
+): string {
   const head = `No total error is stated: no exact map was given to the generator. Arithmetic error against this function's own formula (${formula}):`;
   if (v === undefined) return `${head} <= ${bound(analytic)} ${unit}, analytic bound.`;
   const worst = `largest at code ${v.worstCode}: ${shortString(v.worstError)} ${unit}`;

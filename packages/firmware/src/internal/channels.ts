@@ -22,7 +22,7 @@ import type { FloatPiecewiseMap } from '../floatPiecewiseMap.js';
 import { segmentCodes } from '../piecewisePolynomial.js';
 import { fixedPointRoundings, roundShiftUnchecked } from '../roundShift.js';
 import type { TestVector, TotalErrorBound } from '../totalError.js';
-import { CODE_LIMITS } from './codes.js';
+import { CODE_LIMITS, readOptions } from './codes.js';
 import { checkQuantityUnit } from './text.js';
 
 export interface EmittedChannel {
@@ -141,8 +141,10 @@ function checkFixed(param: string, value: unknown): FirmwareFixedMap {
 /** Checks a table of finite constants of a precision. */
 function checkConstants(param: string, values: readonly unknown[], precision: 'float32' | 'float64'): void {
   for (const v of values) {
-    const ok = typeof v === 'number' && Number.isFinite(v) && (precision === 'float64' || Math.fround(v) === v);
-    if (!ok) fail('invalid-option', param, `must hold finite ${precision} constants; got ${formatValue(v)}`, v);
+    const ok =
+      typeof v === 'number' && Number.isFinite(v) && (precision === 'float64' || Math.fround(v) === v);
+    if (!ok)
+      fail('invalid-option', param, `must hold finite ${precision} constants; got ${formatValue(v)}`, v);
   }
 }
 
@@ -162,11 +164,18 @@ function checkFixedPiecewise(param: string, value: unknown): FixedPiecewiseMap {
     if (!Array.isArray(c) || c.length !== m.degree + 1 || !Array.isArray(sh) || sh.length !== m.degree + 1) {
       fail('invalid-option', p, `must hold ${m.degree + 1} coefficients and shifts`, seg);
     }
-    c.forEach((v, j) => checkInteger(`${p}.coefficients[${j}]`, v, { min: -(2 ** 31) + 1, max: 2 ** 31 - 1 }));
+    c.forEach((v, j) =>
+      checkInteger(`${p}.coefficients[${j}]`, v, { min: -(2 ** 31) + 1, max: 2 ** 31 - 1 }),
+    );
     sh.forEach((v, j) => checkInteger(`${p}.shifts[${j}]`, v, { min: 0, max: 30 }));
     const s = segmentCodes(m, i);
     const T = BigInt(Math.max(Math.abs(s.first - s.centre), Math.abs(s.last - s.centre)));
-    const proof = proveSegment(c.map((v) => BigInt(v)), sh.slice(0, m.degree), T, cb);
+    const proof = proveSegment(
+      c.map((v) => BigInt(v)),
+      sh.slice(0, m.degree),
+      T,
+      cb,
+    );
     if (typeof proof === 'number') {
       fail('overflow', p, 'must keep every intermediate value within int32_t; it overflows', seg);
     }
@@ -192,14 +201,29 @@ function checkLayout(param: string, m: FixedPiecewiseMap | FloatPiecewiseMap): v
 function checkFloat(param: string, value: unknown, precision: 'float32' | 'float64'): FirmwareFloatMap {
   const m = checkObject(param, value) as unknown as FirmwareFloatMap;
   if (m.precision !== precision) {
-    fail('invalid-option', `${param}.precision`, `must be '${precision}'; got ${formatValue(m.precision)}`, m.precision);
+    fail(
+      'invalid-option',
+      `${param}.precision`,
+      `must be '${precision}'; got ${formatValue(m.precision)}`,
+      m.precision,
+    );
   }
-  const kind = checkOneOf(`${param}.kind`, m.kind, ['affine', 'polynomial', 'piecewise-polynomial', 'mobius'] as const);
+  const kind = checkOneOf(`${param}.kind`, m.kind, [
+    'affine',
+    'polynomial',
+    'piecewise-polynomial',
+    'mobius',
+  ] as const);
   if (kind === 'piecewise-polynomial') {
     const pm = m as FloatPiecewiseMap;
     checkLayout(param, pm);
     if (!Array.isArray(pm.coefficients) || pm.coefficients.length !== pm.segmentCount) {
-      fail('invalid-option', `${param}.coefficients`, `must hold ${pm.segmentCount} segments`, pm.coefficients);
+      fail(
+        'invalid-option',
+        `${param}.coefficients`,
+        `must hold ${pm.segmentCount} segments`,
+        pm.coefficients,
+      );
     }
     pm.coefficients.forEach((row, i) => {
       if (!Array.isArray(row) || row.length !== pm.degree + 1) {
@@ -242,11 +266,19 @@ const TOTAL_KEYS = [
 /** Checks a total error record (it is written into headers as a promise). */
 function checkTotal(param: string, value: unknown): TotalErrorBound {
   const t = checkOptions(param, value, { known: TOTAL_KEYS, required: TOTAL_KEYS });
-  for (const key of ['bound', 'againstReference', 'referenceError', 'approximation', 'arithmetic', 'target']) {
+  for (const key of [
+    'bound',
+    'againstReference',
+    'referenceError',
+    'approximation',
+    'arithmetic',
+    'target',
+  ]) {
     const v = checkFinite(`${param}.${key}`, t[key]);
     if (v < 0) fail('invalid-option', `${param}.${key}`, `must be >= 0; got ${v}`, v);
   }
-  if (typeof t['proved'] !== 'boolean') fail('wrong-type', `${param}.proved`, 'must be true or false', t['proved']);
+  if (typeof t['proved'] !== 'boolean')
+    fail('wrong-type', `${param}.proved`, 'must be true or false', t['proved']);
   checkOneOf(`${param}.method`, t['method'], ['exhaustive', 'sampled'] as const);
   if (t['proved'] === true && t['method'] !== 'exhaustive') {
     fail('invalid-option', `${param}.proved`, 'must be false for a sampled verification', t['proved']);
@@ -260,7 +292,11 @@ function checkTotal(param: string, value: unknown): TotalErrorBound {
 }
 
 /** Checks test vectors against the maps written. */
-function checkVectors(param: string, value: unknown, wanted: readonly EvaluatorType[]): readonly TestVector[] {
+function checkVectors(
+  param: string,
+  value: unknown,
+  wanted: readonly EvaluatorType[],
+): readonly TestVector[] {
   if (value === undefined) return [];
   if (!Array.isArray(value)) fail('wrong-type', param, 'must be an array of test vectors', value);
   return (value as unknown[]).map((v, i) => {
@@ -279,7 +315,7 @@ function checkVectors(param: string, value: unknown, wanted: readonly EvaluatorT
 
 /** Checks the emitters' options and returns the channels to write. */
 export function emitModel(options: EmitOptions): EmitModel {
-  const o = checkOptions('options', options, { known: ['channels', 'prefix', 'types'], required: ['channels'] });
+  const o = readOptions(options, { known: ['channels', 'prefix', 'types'], required: ['channels'] });
   const prefix = checkPrefix(o['prefix']);
   const types = checkTypes(o['types']);
   const list = o['channels'];
@@ -364,7 +400,8 @@ export function emitModel(options: EmitOptions): EmitModel {
             known: ['bound', 'source'],
             required: ['bound', 'source'],
           }) as unknown as ReferenceError);
-    const targetError = ch['targetError'] === undefined ? undefined : checkFinite(`${p}.targetError`, ch['targetError']);
+    const targetError =
+      ch['targetError'] === undefined ? undefined : checkFinite(`${p}.targetError`, ch['targetError']);
     return {
       name: name as string,
       identifier,

@@ -13,7 +13,11 @@ const BINOMIAL: number[][] = (() => {
   const rows: number[][] = [[1]];
   for (let k = 1; k <= 16; k++) {
     const prev = rows[k - 1] as number[];
-    rows.push(Array.from({ length: k + 1 }, (_, j) => (j === 0 || j === k ? 1 : (prev[j - 1] as number) + (prev[j] as number))));
+    rows.push(
+      Array.from({ length: k + 1 }, (_, j) =>
+        j === 0 || j === k ? 1 : (prev[j - 1] as number) + (prev[j] as number),
+      ),
+    );
   }
   return rows;
 })();
@@ -72,7 +76,8 @@ export function chebyshevInterpolant(
   // Discrete orthogonality of T_j at these nodes: c_j = (2/n) Σ v_k T_j(s_k), c_0 halved.
   const cheb = Array.from({ length: n }, (_, j) => {
     let sum = 0;
-    for (let k = 0; k < n; k++) sum += (values[k] as number) * Math.cos((j * Math.PI * (2 * k + 1)) / (2 * n));
+    for (let k = 0; k < n; k++)
+      sum += (values[k] as number) * Math.cos((j * Math.PI * (2 * k + 1)) / (2 * n));
     return ((j === 0 ? 1 : 2) * sum) / n;
   });
   const T = chebyshevMonomials(degree);

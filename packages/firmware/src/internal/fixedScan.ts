@@ -89,7 +89,8 @@ export function scanAll(k: FixedKernel): ScanResult {
   if (k.shift > 52) {
     // Remainders would pass 2^53: step through BigInt instead (slower, still exact).
     const r = emptyResult();
-    for (let d = k.dMin; d <= k.dMax; d++) record(r, d + k.offsetCode, pointAt(k, d).rho + (d * k.delta + k.beta));
+    for (let d = k.dMin; d <= k.dMax; d++)
+      record(r, d + k.offsetCode, pointAt(k, d).rho + (d * k.delta + k.beta));
     return r;
   }
   const T = 2 ** k.shift;

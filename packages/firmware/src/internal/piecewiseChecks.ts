@@ -29,11 +29,15 @@ export function checkPiecewisePolynomial(param: string, value: unknown): Piecewi
   list.forEach((row: unknown, i: number) => {
     const p = `${param}.coefficients[${i}]`;
     if (!Array.isArray(row) || row.length !== degree + 1) {
-      throw new BridgeworkError('invalid-shape', `\`${p}\` must hold ${degree + 1} numbers; got ${formatValue(row)}`, {
-        param: p,
-        value: row,
-        limit: degree + 1,
-      });
+      throw new BridgeworkError(
+        'invalid-shape',
+        `\`${p}\` must hold ${degree + 1} numbers; got ${formatValue(row)}`,
+        {
+          param: p,
+          value: row,
+          limit: degree + 1,
+        },
+      );
     }
     row.forEach((c: unknown, j: number) => checkFinite(`${p}[${j}]`, c));
   });

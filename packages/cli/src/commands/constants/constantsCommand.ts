@@ -42,7 +42,7 @@ export const constantsOptions = [
     name: 'target-error',
     type: 'string',
     placeholder: 'value',
-    defaultText: "max(u_c/10, one output step) per channel",
+    defaultText: 'max(u_c/10, one output step) per channel',
     description:
       "The total error each function must meet against the channel's exact map, in the channel's output unit: one number for every channel, or name=value entries (deck-temp=0.01,gusset-g2=0.5). The cheapest form meeting it is chosen; if none does, the command fails naming the best bound reached and writes nothing.",
   },
@@ -59,7 +59,7 @@ export const constantsOptions = [
     type: 'string',
     placeholder: 'file',
     description:
-      'Also write a small C99 program that checks the header\'s test vectors on the target (exact results and the stated total errors); it includes the header by the name of --out (or <prefix>_constants.h).',
+      "Also write a small C99 program that checks the header's test vectors on the target (exact results and the stated total errors); it includes the header by the name of --out (or <prefix>_constants.h).",
   },
   {
     name: 'hardware-divide',
@@ -111,7 +111,8 @@ export type ConstantsArgs = ParsedArgs<typeof constantsOptions, typeof constants
 /** `bridgework constants`: firmware constants of each channel. */
 export const constantsCommand = defineCommand({
   name: 'constants',
-  summary: 'Firmware constants of each channel as a C header or JSON, each function within a stated total error.',
+  summary:
+    'Firmware constants of each channel as a C header or JSON, each function within a stated total error.',
   description:
     "Writes the code-to-quantity map of each channel for firmware over its span of interest: a fixed-point function (integer arithmetic only), a float32 and a float64 function, each the cheapest form (affine, piecewise polynomial with segments found by a shift, or linear-fractional where the target divides in hardware) whose total error against the channel's exact map meets the target, verified over every code of the span. The header states each function's total error (proved or measured), its parts, its table size and operation count, and carries test vectors; --test-program writes a C program that checks them on the target. A target that no form meets is an error, and nothing is written. One header holds every selected channel; identifiers are the prefix and the channel name. The header and the JSON carry the safety caution.",
   positionals: constantsArguments,

@@ -24,10 +24,14 @@ export async function run(args: ConstantsArgs, context: CommandContext): Promise
   const { options } = args;
   const types = options.types === undefined ? undefined : parseTypeList(options.types);
   if (options.testProgram !== undefined && options.format !== 'c') {
-    throw new BridgeworkError('conflicting-options', '`--test-program` checks a C header: it needs `--format c`', {
-      param: '--test-program',
-      value: options.testProgram,
-    });
+    throw new BridgeworkError(
+      'conflicting-options',
+      '`--test-program` checks a C header: it needs `--format c`',
+      {
+        param: '--test-program',
+        value: options.testProgram,
+      },
+    );
   }
   const loaded = await loadChannels(
     args.positionals.channelFile,
@@ -35,14 +39,22 @@ export async function run(args: ConstantsArgs, context: CommandContext): Promise
   );
   const names = loaded.channels.map((c) => c.name);
   const targetErrors =
-    options.targetError === undefined ? undefined : parsePerChannel(options.targetError, '--target-error', names);
+    options.targetError === undefined
+      ? undefined
+      : parsePerChannel(options.targetError, '--target-error', names);
   const outputSteps =
-    options.outputStep === undefined ? undefined : parsePerChannel(options.outputStep, '--output-step', names);
+    options.outputStep === undefined
+      ? undefined
+      : parsePerChannel(options.outputStep, '--output-step', names);
   const headerName =
-    options.out === undefined || options.out === '-' ? `${options.prefix}_constants.h` : basename(options.out);
+    options.out === undefined || options.out === '-'
+      ? `${options.prefix}_constants.h`
+      : basename(options.out);
   const output = await openResultOutput(context, options.out, options.force);
   const program =
-    options.testProgram === undefined ? undefined : await openAtomicFile(options.testProgram, { force: options.force });
+    options.testProgram === undefined
+      ? undefined
+      : await openAtomicFile(options.testProgram, { force: options.force });
   try {
     const files = constantsFiles(loaded, {
       format: options.format,
