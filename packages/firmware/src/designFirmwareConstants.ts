@@ -268,10 +268,22 @@ export function designFirmwareConstants(options: DesignFirmwareConstantsOptions)
       if (next === undefined) throw targetNotMet(t, target, quantityUnit, best.get(t));
       return { type: t, candidate: next };
     });
+    // A sampled check also covers every segment edge (where interpolation errors peak) and the
+    // spread codes of the test vectors, so every vector code is among the codes checked.
+    const codes =
+      sampled === undefined
+        ? undefined
+        : [
+            ...new Set([
+              ...sampled,
+              ...spreadCodes(range),
+              ...trial.flatMap((x) => edgeCodes(x.candidate.map)),
+            ]),
+          ].sort((a, b) => a - b);
     const results = verify(
       f,
       range,
-      sampled,
+      codes,
       trial.map((x) => ({ type: x.type, candidate: x.candidate, outputUnit })),
     );
     trial.forEach((x, i) => {
@@ -636,6 +648,10 @@ function createDesigner(input: DesignerInput) {
       if (type !== 'fixed' && input.hardwareDivide) consider(mobiusCandidate(type));
       const top = input.maxDegree ?? (type === 'fixed' ? 4 : MAX_PIECEWISE_DEGREE);
       for (let degree = 1; degree <= top; degree++) {
+        // Operations grow with the degree: once a found form is cheaper than the operations of
+        // this degree alone (no table), no higher degree can win.
+        const cheapest = found.reduce((m, c) => Math.min(m, c.cost), Infinity);
+        if (operationsOf(type, degree) >= cheapest) break;
         for (let bits = allBits; bits >= 1; bits--) {
           const { segmentCount } = segmentation(codeMin, codeMax, bits);
           if (segmentCount * segmentBytes(type, degree) > input.maxTableBytes) break;
@@ -647,6 +663,13 @@ function createDesigner(input: DesignerInput) {
       return { candidates: found, bestEstimate };
     },
   };
+}
+
+/** The weighted operations of a piecewise polynomial of a degree, without its table (firmwareCost). */
+function operationsOf(type: EvaluatorType, degree: number): number {
+  // fixed: n multiplies, n + 2 additions, n + 3 shifts, n + 1 comparisons; float: n, n + 2, 2 and
+  // one conversion.
+  return type === 'fixed' ? 4 * degree + 6 : 2 * degree + 5;
 }
 
 /** Ascending Horner of a piecewise polynomial in binary64 (the designed function). */
@@ -762,7 +785,10 @@ function totalOf(
   // Fixed-point errors were measured in output LSB: back to the quantity unit, exactly.
   const inUnits = rationalFromNumber(measuredUnits);
   const againstReference = outputUnit === undefined ? inUnits : mul(inUnits, outputUnit);
-  const approximation = upperDouble(rationalFromNumber(r.maxApproximation * (1 + 4 * u)));
+  // Sampled: the fit was also measured on every segment's probe codes (estimate); take the larger.
+  const approximationMeasured =
+    method === 'sampled' ? Math.max(r.maxApproximation, c.estimate) : r.maxApproximation;
+  const approximation = upperDouble(rationalFromNumber(approximationMeasured * (1 + 4 * u)));
   const arithmetic = c.arithmetic;
   let bound: number;
   let against: number;
@@ -792,6 +818,34 @@ function totalOf(
   });
 }
 
+/** 11 evenly spaced codes and 12 fixed-seed pseudo-random codes inside the range. */
+function spreadCodes(range: { codeMin: number; codeMax: number }): number[] {
+  const { codeMin, codeMax } = range;
+  const span = codeMax - codeMin;
+  const out: number[] = [];
+  for (let i = 1; i < 12; i++) out.push(codeMin + Math.floor((span * i) / 12));
+  let state = 0x1b873593;
+  for (let i = 0; i < 12; i++) {
+    state ^= state << 13;
+    state ^= state >>> 17;
+    state ^= state << 5;
+    out.push(codeMin + Math.floor(((state >>> 0) / 2 ** 32) * (span + 1)));
+  }
+  return out;
+}
+
+/** The first and last code of the segments of a piecewise map (of every segment, or of about `most`). */
+function edgeCodes(map: FirmwareMap, most = Infinity): number[] {
+  if (map.kind !== 'piecewise-polynomial') return [];
+  const step = Math.max(1, Math.ceil(map.segmentCount / most));
+  const out: number[] = [];
+  for (let i = 0; i < map.segmentCount; i += step) {
+    const s = segmentCodes(map, i);
+    out.push(s.first, s.last);
+  }
+  return out;
+}
+
 /**
  * Test vectors: both rails, segment edges (at most 24 per function), each function's worst code,
  * and a spread of 24 more (an even grid and fixed-seed pseudo-random codes).
@@ -818,24 +872,9 @@ function chooseVectors(
     if (w !== undefined) add1(w.worstCode, 'worst-error');
   }
   for (const m of [maps.fixed, maps.float32, maps.float64]) {
-    if (m === undefined || m.kind !== 'piecewise-polynomial') continue;
-    const count = m.segmentCount;
-    const step = Math.max(1, Math.ceil(count / 12));
-    for (let i = 0; i < count; i += step) {
-      const s = segmentCodes(m, i);
-      add1(s.first, 'segment-edge');
-      add1(s.last, 'segment-edge');
-    }
+    if (m !== undefined) for (const code of edgeCodes(m, 12)) add1(code, 'segment-edge');
   }
-  const span = codeMax - codeMin;
-  for (let i = 1; i < 12; i++) add1(codeMin + Math.floor((span * i) / 12), 'spread');
-  let state = 0x1b873593;
-  for (let i = 0; i < 12; i++) {
-    state ^= state << 13;
-    state ^= state >>> 17;
-    state ^= state << 5;
-    add1(codeMin + Math.floor(((state >>> 0) / 2 ** 32) * (span + 1)), 'spread');
-  }
+  for (const code of spreadCodes(range)) add1(code, 'spread');
   const codes = [...reasons.keys()].sort((a, b) => a - b);
   return Object.freeze(
     codes.map((code) =>

@@ -100,9 +100,10 @@ const KNOWN = [
 
 /** The largest power of ten not above x (x > 0). */
 function powerOfTenBelow(x: number): number {
-  let p = 10 ** Math.floor(Math.log10(x));
-  if (p > x) p /= 10;
-  return p;
+  // The double nearest 10^e, read from its decimal text (10 ** e can be an ulp off).
+  let e = Math.floor(Math.log10(x));
+  if (Number(`1e${e}`) > x) e -= 1;
+  return Number(`1e${e}`);
 }
 
 /**

@@ -136,6 +136,19 @@ function formOf(map: FirmwareMap): string {
   return map.kind === 'mobius' ? 'Moebius' : map.kind;
 }
 
+/** Three significant digits without trailing zeros. */
+function short(x: number): string {
+  return String(Number(x.toPrecision(3)));
+}
+
+/** A bound to three significant digits, rounded up so that it stays a bound. */
+function shortUp(x: number): string {
+  const rounded = Number(x.toPrecision(3));
+  return String(
+    rounded >= x ? rounded : Number((rounded + 10 ** (Math.floor(Math.log10(x)) - 2)).toPrecision(3)),
+  );
+}
+
 function summaryLines(
   name: string,
   unit: string,
@@ -150,7 +163,7 @@ function summaryLines(
       ? `proved over all ${total.codesChecked} codes`
       : `measured on ${total.codesChecked} codes`;
     return [
-      `${name} ${t}: ${formOf(map)}, ${firmwareCost(map).tableBytes} bytes; total error <= ${total.bound.toPrecision(3)} ${unit} (${how}; target ${c.targetError.toPrecision(3)} ${unit})`,
+      `${name} ${t}: ${formOf(map)}, ${firmwareCost(map).tableBytes} bytes; total error <= ${shortUp(total.bound)} ${unit} (${how}; target ${short(c.targetError)} ${unit})`,
     ];
   });
 }
