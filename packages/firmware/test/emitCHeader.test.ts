@@ -29,7 +29,7 @@ const identifiers = channels.map((c) => cIdentifierFromName(c.name));
 function codesFor(ch: FirmwareChannel): number[] {
   const map = (ch.fixed ?? ch.float32 ?? ch.float64)!;
   const { codeMin, codeMax } = map;
-  const offset = ch.fixed?.offsetCode ?? 0;
+  const offset = ch.fixed?.kind === 'affine' ? ch.fixed.offsetCode : 0;
   const special = [codeMin - 1, codeMin, codeMin + 1, codeMax - 1, codeMax, codeMax + 1, 0, offset - 2];
   special.push(offset - 1, offset, offset + 1, offset + 2);
   const random = fc.sample(fc.integer({ min: codeMin, max: codeMax }), 1500);

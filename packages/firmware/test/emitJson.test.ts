@@ -1,6 +1,13 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { emitJson, FIRMWARE_GENERATOR_VERSION, type EmitOptions } from '@bridgework/firmware';
+import {
+  emitJson,
+  FIRMWARE_GENERATOR_VERSION,
+  type EmitOptions,
+  type FixedPiecewiseMap,
+  type FixedPointMap,
+  type FloatMap,
+} from '@bridgework/firmware';
 import { designedChannels, testChannels } from './support/channels.js';
 
 const channels = testChannels();
@@ -23,7 +30,7 @@ describe('emitJson', () => {
   });
 
   it('holds the same constants as the maps, with functions named as in the header', () => {
-    const [weight] = channels;
+    const weight = channels[0] as unknown as { fixed: FixedPointMap; float32: FloatMap; float64: FloatMap };
     const j = json.channels[0]!;
     expect(j.fixed.function).toBe('hopper_weight_fixed');
     expect(j.fixed.multiplier).toBe(weight!.fixed!.multiplier);
@@ -73,7 +80,7 @@ describe('emitJson', () => {
     expect(oven.fixed.totalError).toEqual(designed[0]!.totals!.fixed);
     expect(oven.fixed.cost.tableBytes).toBeGreaterThan(0);
     expect(oven.fixed.segments.map((s: { coefficients: number[] }) => s.coefficients)).toEqual(
-      (designed[0]!.fixed as { segments: { coefficients: number[] }[] }).segments.map((s) => s.coefficients),
+      (designed[0]!.fixed as FixedPiecewiseMap).segments.map((s) => s.coefficients),
     );
     expect(oven.float32.polynomial.segmentBits).toBe(10);
     expect(oven.testVectors).toEqual(designed[0]!.testVectors);
