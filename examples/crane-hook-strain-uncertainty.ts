@@ -84,10 +84,10 @@ lines.push(
 lines.push(`  effective degrees of freedom ${gum.effectiveDegreesOfFreedom.toPrecision(3).padStart(9)}`);
 lines.push(`  coverage factor (95 %)       ${gum.coverageFactor.toFixed(3).padStart(9)}`);
 lines.push(
-  `  95 % interval, µε            [${ue(gum.interval.low).trim()}, ${ue(gum.interval.high).trim()}]   [${ue(mcm.interval.low).trim()}, ${ue(mcm.interval.high).trim()}] (symmetric)`,
+  `  95 % interval, µε            [${ue(gum.interval.min).trim()}, ${ue(gum.interval.max).trim()}]   [${ue(mcm.interval.min).trim()}, ${ue(mcm.interval.max).trim()}] (symmetric)`,
 );
 lines.push(
-  `  shortest 95 % interval, µε                     [${ue(mcm.shortestInterval.low).trim()}, ${ue(mcm.shortestInterval.high).trim()}]`,
+  `  shortest 95 % interval, µε                     [${ue(mcm.shortestInterval.min).trim()}, ${ue(mcm.shortestInterval.max).trim()}]`,
 );
 lines.push(`  trials                                         ${mcm.trials}`);
 const v = mcm.gumValidation!;

@@ -8,7 +8,7 @@
  * 0.93 Ω per conductor.
  *
  * Run: pnpm exec tsx --conditions=@bridgework/source examples/footbridge-hanger.ts
- * (`pnpm demo` runs the command's demo on examples/footbridge-monitoring.yaml, the same bridge.)
+ * (`pnpm demo` runs the command's demo on packages/cli/demo/footbridge-monitoring.yaml, the same bridge.)
  */
 import { createStrainBridge, solveBridge, type StrainBridgeOptions } from '@bridgework/bridge';
 import { microstrainFromStrain, millivoltsPerVoltFromRatio, strainFromMicrostrain } from '@bridgework/core';

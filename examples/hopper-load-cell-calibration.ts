@@ -12,9 +12,9 @@
  */
 import {
   createCertificateScale,
-  createFitter,
   createLoadCellClass,
   evaluateCertificate,
+  fitPolynomial,
   ratioChangeFromShunt,
   shuntEquivalentLoad,
   shuntOhmsForRatioChange,
@@ -39,7 +39,8 @@ const shuntOhms = 59_000;
 const shuntReadingOnSite = ratioFromMillivoltsPerVolt(1.47832); // logged with the shunt in, minus zero
 
 const lines: string[] = [];
-const pct = (x: number | undefined): string => (x === undefined ? '–' : `${x.toFixed(4)} %`);
+// The library returns fractions of rated output; the report shows them in percent.
+const pct = (x: number | undefined): string => (x === undefined ? '–' : `${(100 * x).toFixed(4)} %`);
 lines.push('bridgework example: batching-hopper load cell, 2000 kg C3 (invented scenario)');
 lines.push('');
 
@@ -48,17 +49,16 @@ const cert = evaluateCertificate({ loads, runs });
 lines.push('1. Five-point up/down run, two runs');
 lines.push(`   rated output             ${millivoltsPerVoltFromRatio(cert.ratedOutput).toFixed(6)} mV/V`);
 lines.push(
-  `   zero balance             ${millivoltsPerVoltFromRatio(cert.zeroBalance).toFixed(6)} mV/V (${pct(cert.zeroBalancePercent)} RO)`,
+  `   zero balance             ${millivoltsPerVoltFromRatio(cert.zeroBalance).toFixed(6)} mV/V (${pct(cert.zeroBalanceFraction)} RO)`,
 );
-lines.push(`   terminal nonlinearity    ${pct(cert.terminalNonlinearityPercent)} RO`);
-lines.push(`   best-fit nonlinearity    ${pct(cert.bestFitNonlinearityPercent)} RO`);
-lines.push(`   hysteresis               ${pct(cert.hysteresisPercent)} RO`);
-lines.push(`   combined error           ${pct(cert.combinedErrorPercent)} RO`);
-lines.push(`   repeatability            ${pct(cert.repeatabilityPercent)} RO`);
+lines.push(`   terminal nonlinearity    ${pct(cert.terminalNonlinearityFraction)} RO`);
+lines.push(`   best-fit nonlinearity    ${pct(cert.bestFitNonlinearityFraction)} RO`);
+lines.push(`   hysteresis               ${pct(cert.hysteresisFraction)} RO`);
+lines.push(`   combined error           ${pct(cert.combinedErrorFraction)} RO`);
+lines.push(`   repeatability            ${pct(cert.repeatabilityFraction)} RO`);
 
 // A least-squares line with uncertainties, from all 20 readings.
-const fitter = await createFitter();
-const fit = fitter.fitPolynomial({
+const fit = fitPolynomial({
   loads: runs.flatMap(() => [...loads, ...loads]),
   readings: runs.flatMap((r) => [...r.ascending, ...r.descending]),
   degree: 1,

@@ -65,4 +65,16 @@ describe('examples', () => {
       expect(predicted).toBeNear(indicated, { abs: 0.02 }); // printed to 2 decimals (µε)
     });
   });
+
+  it('test-rig-coupling-calibration: digital corner factors are 1/sensitivity; GUM and Monte Carlo agree', () => {
+    const out = run('test-rig-coupling-calibration.ts');
+    // Each cell's reading per kg is s_i, so the factor that makes Σ k_i·r_i the load is 1/s_i
+    // (kg per V/V; printed per mV/V): 300/2.006 … (the example's cells are 2.006 mV/V per 300 kg).
+    const factors = /digital factors \(kg per mV\/V\): ([\d., ]+)/.exec(out)![1]!.split(', ').map(Number);
+    [2.006, 1.994, 2.011, 1.989].forEach((s, i) => expect(factors[i]!).toBeNear(300 / s, { abs: 0.0005 }));
+    const rows = [...out.matchAll(/^ {5}(Fx|Fy|Fz|Mx|My|Mz) +([\d.]+) \| +([\d.]+)$/gm)];
+    expect(rows).toHaveLength(6);
+    // JCGM 101 against JCGM 100 on a nearly linear model: within 2 % with 2·10⁴ trials.
+    for (const r of rows) expect(Number(r[3])).toBeNear(Number(r[2]), { rel: 0.02 });
+  });
 });

@@ -34,7 +34,7 @@ const allowed: Record<string, readonly string[]> = {
   chain: ['core', 'bridge'],
   uncertainty: ['core'],
   mechanics: ['core'],
-  calibration: ['core', 'bridge'],
+  calibration: ['core', 'bridge', 'uncertainty'],
   firmware: ['core'],
   channel: ['core', 'bridge', 'compensation', 'chain', 'uncertainty', 'mechanics', 'calibration', 'firmware'],
   cli: [

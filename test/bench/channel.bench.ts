@@ -8,9 +8,11 @@
  */
 import { compile } from 'mathjs';
 import { createChannel, createInterleavedConverter, type Channel } from '@bridgework/channel';
-import { compare, report, sinkValue } from './harness.js';
+import { checkBaseline, compare, report, reportBaselineCheck, sinkValue } from './harness.js';
 
-const N = 10_000_000;
+/** `--short`: only the baseline self-check, on 10⁶ codes (the suite runs it; see test/bench.test.ts). */
+const short = process.argv.includes('--short');
+const N = short ? 1_000_000 : 10_000_000;
 const spec = {
   name: 'footbridge hanger',
   sensor: {
@@ -44,19 +46,47 @@ const outA = new Float64Array(N);
 const outB = new Float64Array(N);
 const pick = (call: number) => (call % 2 === 0 ? ([inA, outA] as const) : ([inB, outB] as const));
 
-// The baseline: the plainest affine conversion a developer would write.
+// The baseline: the fastest plain affine conversion a developer would write — the constants as
+// parameters, the length in a local, one function that only ever sees Int32Array → Float64Array.
+function affine(input: Int32Array, out: Float64Array, a: number, b: number): number {
+  const n = input.length;
+  for (let i = 0; i < n; i++) out[i] = a * (input[i] as number) + b;
+  return out[n >> 1] as number;
+}
 const a = 1.1e-3;
 const b = -2.5;
-function affine(input: Int32Array, out: Float64Array): number {
-  for (let i = 0; i < input.length; i++) out[i] = a * (input[i] as number) + b;
-  return out[input.length >> 1] as number;
+const baseline = {
+  name: 'plain affine loop out[i] = a*in[i] + b',
+  opsPerCall: N,
+  run: (call: number) => {
+    const [input, out] = pick(call);
+    return affine(input, out, a, b);
+  },
+};
+// The self-check: the same loop as a separate function object (no shared JIT feedback), timed by
+// a bare loop. If the harness slowed the baseline, every ratio below would flatter the channel.
+const standaloneAffine = new Function(`return ${affine.toString()}`)() as typeof affine;
+reportBaselineCheck(
+  'affine loop',
+  checkBaseline(
+    baseline,
+    (call) => {
+      const [input, out] = pick(call);
+      return standaloneAffine(input, out, a, b);
+    },
+    short ? { rounds: 7, minMillisPerRound: 60 } : { rounds: 9, minMillisPerRound: 200 },
+  ),
+);
+if (short) {
+  console.log(`(sink ${sinkValue().toExponential(3)})`);
+  process.exit();
 }
 
 report(
   `channel: ${N.toExponential(0)} codes, full exact map (quarter three-wire, cable leads, zero reading, GF temperature coefficient)`,
   compare(
     [
-      { name: 'plain affine loop out[i] = a*in[i] + b', opsPerCall: N, run: (call) => affine(...pick(call)) },
+      baseline,
       {
         name: 'channel.convert (exact map, rail detection)',
         opsPerCall: N,
@@ -119,7 +149,7 @@ report(
   `channel: ${N.toExponential(0)} codes as 8 interleaved channels`,
   compare(
     [
-      { name: 'plain affine loop out[i] = a*in[i] + b', opsPerCall: N, run: (call) => affine(...pick(call)) },
+      baseline,
       {
         name: 'interleaved convert, 8 channels',
         opsPerCall: N,

@@ -7,7 +7,8 @@ import { execFileSync, spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import { compare, report, sinkValue } from './harness.js';
 
-const root = fileURLToPath(new URL('../../', import.meta.url));
+// Compiled into .bench-build/test/bench/: the repository is three folders up.
+const root = fileURLToPath(new URL('../../../', import.meta.url));
 const bin = `${root}packages/cli/dist/bin.js`;
 const targetSeconds = 0.3;
 

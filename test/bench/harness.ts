@@ -103,3 +103,76 @@ export function report(title: string, results: readonly BenchResult[]): void {
     );
   }
 }
+
+/** The outcome of {@link checkBaseline}. */
+export interface BaselineCheck {
+  /** Median time per operation of the baseline as the harness runs it, ns. */
+  readonly harnessNsPerOp: number;
+  /** Median time per operation of the standalone copy timed by a bare loop, ns. */
+  readonly standaloneNsPerOp: number;
+  /** Median over rounds of harness time / standalone time. */
+  readonly ratio: number;
+  /** Whether the two agree within the tolerance. */
+  readonly ok: boolean;
+}
+
+/**
+ * The bench's honesty check: the baseline as the harness runs it must be as fast as a standalone
+ * copy of the same loop timed by a bare `for` loop in the same process. A baseline slowed by the
+ * harness (a polymorphic call site, constants read through closures, typed arrays of several
+ * kinds through one function) would make every ratio flatter the code under test.
+ *
+ * @param baseline - The baseline case exactly as passed to {@link compare}.
+ * @param standalone - The same work through a separate copy of the loop function (made with
+ *   `new Function` from the same source, so it shares no JIT feedback), called directly.
+ * @param options - Rounds and the tolerance (default 0.15: the two may differ by at most 15 %).
+ * @returns The figures; `ok` false when they differ by more than the tolerance.
+ */
+export function checkBaseline(
+  baseline: BenchCase,
+  standalone: (call: number) => number,
+  options: {
+    readonly rounds?: number;
+    readonly minMillisPerRound?: number;
+    readonly tolerance?: number;
+  } = {},
+): BaselineCheck {
+  const rounds = options.rounds ?? 9;
+  const minMs = options.minMillisPerRound ?? 150;
+  const tolerance = options.tolerance ?? 0.15;
+  for (let i = 0; i < 3; i++) {
+    sink += baseline.run(i) * 1e-30;
+    sink += standalone(i) * 1e-30;
+  }
+  const t0 = performance.now();
+  sink += baseline.run(0) * 1e-30;
+  const calls = Math.max(1, Math.round(minMs / Math.max(performance.now() - t0, 1e-3)));
+  const harness: number[] = [];
+  const direct: number[] = [];
+  for (let r = 0; r < rounds; r++) {
+    // Alternate which runs first, so a drift of the machine's load favours neither.
+    const first = r % 2 === 0;
+    if (first) harness.push(timeCase(baseline, calls, r * calls));
+    let acc = 0;
+    const s0 = performance.now();
+    for (let i = 0; i < calls; i++) acc += standalone(r * calls + i);
+    direct.push(((performance.now() - s0) * 1e6) / (calls * baseline.opsPerCall));
+    sink += Number.isFinite(acc) ? acc * 1e-30 : 1;
+    if (!first) harness.push(timeCase(baseline, calls, r * calls));
+  }
+  const ratio = median(harness.map((h, i) => h / (direct[i] as number)));
+  return {
+    harnessNsPerOp: median(harness),
+    standaloneNsPerOp: median(direct),
+    ratio,
+    ok: Math.abs(ratio - 1) <= tolerance,
+  };
+}
+
+/** Prints a baseline check and sets a failing exit code when it is off. */
+export function reportBaselineCheck(name: string, check: BaselineCheck): void {
+  console.log(
+    `\nbaseline self-check (${name}): harness ${check.harnessNsPerOp.toFixed(3)} ns/op, standalone copy ${check.standaloneNsPerOp.toFixed(3)} ns/op, ratio ${check.ratio.toFixed(3)} — ${check.ok ? 'ok' : 'OFF BY MORE THAN 15 %: the ratios of this benchmark would not be honest'}`,
+  );
+  if (!check.ok) process.exitCode = 1;
+}

@@ -94,7 +94,7 @@ function naiveByHand(): number {
 let seed = 0;
 const ours = (): number => {
   const r = monteCarlo({ model: twelveInputModel, inputs, trials, seed: seed++ });
-  return r.value + r.interval.low + r.shortestInterval.high;
+  return r.value + r.interval.min + r.shortestInterval.max;
 };
 
 console.log(
@@ -144,7 +144,7 @@ const intervalResults = compare(
       opsPerCall: trials,
       run: () => {
         const r = sampleCoverageIntervals(values, 0.95);
-        return r.interval.low + r.shortestInterval.high;
+        return r.interval.min + r.shortestInterval.max;
       },
     },
   ],
@@ -155,7 +155,7 @@ report('uncertainty: coverage intervals of 10⁶ values, per value', intervalRes
 // Two worker threads against one thread, alternating, ratio per round.
 const pool = await createMonteCarloPool({
   model: {
-    module: new URL('../../packages/uncertainty/test/support/benchModel.ts', import.meta.url),
+    module: new URL('../../packages/uncertainty/test/support/benchModel.js', import.meta.url),
     exportName: 'twelveInputModel',
   },
   workers: 2,
@@ -164,8 +164,8 @@ const check = await pool.run({ inputs, trials, seed: 77 });
 const reference = monteCarlo({ model: twelveInputModel, inputs, trials, seed: 77 });
 const identical =
   check.value === reference.value &&
-  check.interval.low === reference.interval.low &&
-  check.shortestInterval.high === reference.shortestInterval.high;
+  check.interval.min === reference.interval.min &&
+  check.shortestInterval.max === reference.shortestInterval.max;
 for (let i = 0; i < 3; i++) await pool.run({ inputs, trials, seed: i }); // warm-up
 const rounds = 9;
 const single2: number[] = [];

@@ -2,7 +2,7 @@ import {
   BridgeworkError,
   STANDARD_GRAVITY_METERS_PER_SECOND_SQUARED,
   checkFinite,
-  checkObject,
+  checkOptions,
   checkOneOf,
   checkPositive,
   formatValue,
@@ -123,7 +123,19 @@ const CONVENTIONAL_DENSITY = 8000;
  * ```
  */
 export function createCertificateScale(options: CertificateScaleOptions): CertificateScale {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: [
+      'capacity',
+      'capacityUnit',
+      'ratedOutputVoltsPerVolt',
+      'zeroVoltsPerVolt',
+      'outputUnit',
+      'calibrationGravityMetersPerSecondSquared',
+      'localGravityMetersPerSecondSquared',
+      'buoyancy',
+    ],
+    required: ['capacity', 'capacityUnit', 'ratedOutputVoltsPerVolt'],
+  });
   const capacity = checkPositive('capacity', o['capacity']);
   const capacityUnit = checkOneOf('capacityUnit', o['capacityUnit'], [
     'newton',
@@ -143,7 +155,12 @@ export function createCertificateScale(options: CertificateScaleOptions): Certif
   let airFactor = 1; // (1 − ρa/ρw)/(1 − ρ0/ρw) for the reference weights
   let conventionalFactor = 1; // 1 − ρ0/ρc
   if (o['buoyancy'] !== false) {
-    const b = o['buoyancy'] === undefined ? {} : checkObject('buoyancy', o['buoyancy']);
+    const b =
+      o['buoyancy'] === undefined
+        ? {}
+        : checkOptions('buoyancy', o['buoyancy'], {
+            known: ['airDensityKilogramsPerCubicMeter', 'weightDensityKilogramsPerCubicMeter'],
+          });
     const air =
       b['airDensityKilogramsPerCubicMeter'] === undefined
         ? CONVENTIONAL_AIR

@@ -2,7 +2,7 @@ import {
   BridgeworkError,
   checkFinite,
   checkInteger,
-  checkObject,
+  checkOptions,
   checkOneOf,
   checkPositive,
   checkRange,
@@ -228,7 +228,10 @@ export interface LoadCellClass {
  * ```
  */
 export function createLoadCellClass(options: LoadCellClassOptions): LoadCellClass {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['accuracyClass', 'nLC', 'maxCapacity', 'pLC', 'minLoad', 'maxLoad', 'y'],
+    required: ['accuracyClass', 'nLC', 'maxCapacity'],
+  });
   const accuracyClass = checkOneOf('accuracyClass', o['accuracyClass'], loadCellAccuracyClasses);
   const nLC = checkInteger('nLC', o['nLC'], { min: 1 });
   const maxCapacity = checkPositive('maxCapacity', o['maxCapacity']);
@@ -293,7 +296,10 @@ export function createLoadCellClass(options: LoadCellClassOptions): LoadCellClas
     mpe: (load: number) => mpe(checkLoad('load', load)),
     mpeInIntervals: (load: number) => intervals(checkLoad('load', load)),
     checkErrors(errorOptions: LoadCellErrorsOptions): CheckResult<LoadCellErrorCheck> {
-      const e = checkObject('options', errorOptions);
+      const e = checkOptions('options', errorOptions, {
+        known: ['loads', 'errors'],
+        required: ['loads', 'errors'],
+      });
       const loads = checkFiniteArray('loads', e['loads']).map((x, i) => checkLoad(`loads[${i}]`, x));
       const errors = checkFiniteArray('errors', e['errors'], loads.length);
       const rows = loads.map((load, i) => {
@@ -318,7 +324,10 @@ export function createLoadCellClass(options: LoadCellClassOptions): LoadCellClas
     },
     creepLimits: (load?: number) => creepLimits(load === undefined ? maxLoad : checkLoad('load', load)),
     checkCreep(creepOptions: CreepCheckOptions): CheckResult<CreepCheck> {
-      const c = checkObject('options', creepOptions);
+      const c = checkOptions('options', creepOptions, {
+        known: ['load', 'minutes', 'readings'],
+        required: ['minutes', 'readings'],
+      });
       const load = c['load'] === undefined ? maxLoad : checkLoad('load', c['load']);
       const minutes = checkFiniteArray('minutes', c['minutes']);
       const readings = checkFiniteArray('readings', c['readings'], minutes.length);

@@ -1,5 +1,5 @@
-import { BridgeworkError, checkObject, formatValue } from '@bridgework/core';
-import { checkFiniteArray } from './internal/checks.js';
+import { BridgeworkError, checkOptions, formatValue } from '@bridgework/core';
+import { checkBoundedArray } from './internal/checks.js';
 
 /** One loading run of a transducer calibration: readings at each reference load, up then down. */
 export interface CertificateRun {
@@ -31,7 +31,7 @@ export interface StraightLine {
   readonly slope: number;
 }
 
-/** The evaluation at one reference load (deviations in % of rated output). */
+/** The evaluation at one reference load (deviations as fractions of rated output). */
 export interface CertificatePoint {
   /** The reference load. */
   readonly load: number;
@@ -39,16 +39,16 @@ export interface CertificatePoint {
   readonly ascending: number;
   /** Mean descending reading over the runs (`undefined` without descending runs). */
   readonly descending: number | undefined;
-  /** Ascending mean minus the terminal line, % of rated output. */
-  readonly terminalDeviationPercent: number;
-  /** Descending mean minus the terminal line, % of rated output (`undefined` without descending runs). */
-  readonly descendingTerminalDeviationPercent: number | undefined;
-  /** Ascending mean minus the best-fit line, % of rated output. */
-  readonly bestFitDeviationPercent: number;
-  /** Descending minus ascending mean, % of rated output (`undefined` without descending runs). */
-  readonly hysteresisPercent: number | undefined;
-  /** Largest minus smallest ascending reading over the runs, % of rated output (`undefined` for one run). */
-  readonly repeatabilityPercent: number | undefined;
+  /** Ascending mean minus the terminal line, as a fraction of rated output. */
+  readonly terminalDeviationFraction: number;
+  /** Descending mean minus the terminal line, as a fraction of rated output (`undefined` without descending runs). */
+  readonly descendingTerminalDeviationFraction: number | undefined;
+  /** Ascending mean minus the best-fit line, as a fraction of rated output. */
+  readonly bestFitDeviationFraction: number;
+  /** Descending minus ascending mean, as a fraction of rated output (`undefined` without descending runs). */
+  readonly hysteresisFraction: number | undefined;
+  /** Largest minus smallest ascending reading over the runs, as a fraction of rated output (`undefined` for one run). */
+  readonly repeatabilityFraction: number | undefined;
 }
 
 /** The evaluation of a transducer calibration (see {@link evaluateCertificate}). */
@@ -59,18 +59,18 @@ export interface CertificateEvaluation {
   readonly ratedOutput: number;
   /** Zero balance: mean ascending reading at zero load, reading unit. */
   readonly zeroBalance: number;
-  /** Zero balance in % of rated output. */
-  readonly zeroBalancePercent: number;
-  /** Largest |ascending − terminal line|, % of rated output. */
-  readonly terminalNonlinearityPercent: number;
-  /** Largest |ascending − least-squares line|, % of rated output. */
-  readonly bestFitNonlinearityPercent: number;
-  /** Largest |descending − ascending|, % of rated output (`undefined` without descending runs). */
-  readonly hysteresisPercent: number | undefined;
-  /** Largest deviation of any ascending or descending mean from the terminal line, % of rated output. */
-  readonly combinedErrorPercent: number;
-  /** Largest spread of ascending readings between runs at one load, % of rated output (`undefined` for one run). */
-  readonly repeatabilityPercent: number | undefined;
+  /** Zero balance as a fraction of rated output. */
+  readonly zeroBalanceFraction: number;
+  /** Largest |ascending − terminal line|, as a fraction of rated output. */
+  readonly terminalNonlinearityFraction: number;
+  /** Largest |ascending − least-squares line|, as a fraction of rated output. */
+  readonly bestFitNonlinearityFraction: number;
+  /** Largest |descending − ascending|, as a fraction of rated output (`undefined` without descending runs). */
+  readonly hysteresisFraction: number | undefined;
+  /** Largest deviation of any ascending or descending mean from the terminal line, as a fraction of rated output. */
+  readonly combinedErrorFraction: number;
+  /** Largest spread of ascending readings between runs at one load, as a fraction of rated output (`undefined` for one run). */
+  readonly repeatabilityFraction: number | undefined;
   /** The terminal line through the mean ascending readings at zero and at capacity. */
   readonly terminalLine: StraightLine;
   /** The least-squares line through the mean ascending readings. */
@@ -106,7 +106,7 @@ function leastSquaresLine(x: readonly number[], y: readonly number[]): StraightL
  *
  * @remarks
  * Definitions (common practice for strain-gauge load cells and force transducers; every figure in
- * % of rated output RO):
+ * fraction of rated output RO):
  * - rated output RO: the output at capacity minus the output at zero load (ascending, averaged
  *   over runs); zero balance: the output at zero load;
  * - terminal-line nonlinearity: the largest deviation of the mean ascending curve from the straight
@@ -129,20 +129,22 @@ function leastSquaresLine(x: readonly number[], y: readonly number[]): StraightL
  * @throws {@link @bridgework/core!BridgeworkError} `too-few-points` for fewer than three loads or no
  *   run; `invalid-shape` when `runs` is not an array, a run's readings do not match the loads, or descending readings are
  *   given for some runs only; `out-of-range` when the loads do not start at 0 or do not increase,
- *   or the rated output is zero; `not-finite`, `wrong-type` for a bad reading.
+ *   the rated output is zero, a load or reading lies beyond ±1e100, or the rated output is so small
+ *   against the readings that a fraction would overflow; `not-finite`, `wrong-type` for a bad
+ *   reading; `unknown-option`, `missing-option` by the options rule (also for each run).
  * @example
  * ```ts
  * const e = evaluateCertificate({
  *   loads: [0, 500, 1000],
  *   runs: [{ ascending: [0, 1.0004e-3, 2e-3], descending: [0.0002e-3, 1.0008e-3, 2e-3] }],
  * });
- * e.terminalNonlinearityPercent; // ≈ 0.02
- * e.hysteresisPercent; // ≈ 0.02 (and combinedErrorPercent ≈ 0.04)
+ * e.terminalNonlinearityFraction; // ≈ 2e-4 (0.02 % of rated output in a report)
+ * e.hysteresisFraction; // ≈ 2e-4 (and combinedErrorFraction ≈ 4e-4)
  * ```
  */
 export function evaluateCertificate(options: CertificateOptions): CertificateEvaluation {
-  const o = checkObject('options', options);
-  const loads = checkFiniteArray('loads', o['loads']);
+  const o = checkOptions('options', options, { known: ['loads', 'runs'], required: ['loads', 'runs'] });
+  const loads = checkBoundedArray('loads', o['loads']);
   if (loads.length < 3) {
     throw new BridgeworkError(
       'too-few-points',
@@ -188,13 +190,16 @@ export function evaluateCertificate(options: CertificateOptions): CertificateEva
     });
   }
   const runs = (o['runs'] as unknown[]).map((run, r) => {
-    const ro = checkObject(`runs[${r}]`, run);
+    const ro = checkOptions(`runs[${r}]`, run, {
+      known: ['ascending', 'descending'],
+      required: ['ascending'],
+    });
     return {
-      ascending: checkFiniteArray(`runs[${r}].ascending`, ro['ascending'], loads.length),
+      ascending: checkBoundedArray(`runs[${r}].ascending`, ro['ascending'], loads.length),
       descending:
         ro['descending'] === undefined
           ? undefined
-          : checkFiniteArray(`runs[${r}].descending`, ro['descending'], loads.length),
+          : checkBoundedArray(`runs[${r}].descending`, ro['descending'], loads.length),
     };
   });
   const withDescending = runs.filter((run) => run.descending !== undefined).length;
@@ -219,7 +224,7 @@ export function evaluateCertificate(options: CertificateOptions): CertificateEva
       value: 0,
     });
   }
-  const percent = (deviation: number): number => (100 * deviation) / ratedOutput;
+  const fraction = (deviation: number): number => deviation / ratedOutput;
   const zero = ascending[0] as number;
   const terminalLine: StraightLine = { offset: zero, slope: ((ascending[last] as number) - zero) / capacity };
   const onTerminal = (x: number): number => terminalLine.offset + terminalLine.slope * x;
@@ -233,36 +238,57 @@ export function evaluateCertificate(options: CertificateOptions): CertificateEva
       load,
       ascending: asc,
       descending: desc,
-      terminalDeviationPercent: percent(asc - onTerminal(load)),
-      descendingTerminalDeviationPercent: desc === undefined ? undefined : percent(desc - onTerminal(load)),
-      bestFitDeviationPercent: percent(asc - (bestFitLine.offset + bestFitLine.slope * load)),
-      hysteresisPercent: desc === undefined ? undefined : percent(desc - asc),
-      repeatabilityPercent:
-        spread === undefined ? undefined : percent(Math.max(...spread) - Math.min(...spread)),
+      terminalDeviationFraction: fraction(asc - onTerminal(load)),
+      descendingTerminalDeviationFraction: desc === undefined ? undefined : fraction(desc - onTerminal(load)),
+      bestFitDeviationFraction: fraction(asc - (bestFitLine.offset + bestFitLine.slope * load)),
+      hysteresisFraction: desc === undefined ? undefined : fraction(desc - asc),
+      repeatabilityFraction:
+        spread === undefined ? undefined : fraction(Math.max(...spread) - Math.min(...spread)),
     };
   });
-  const terminal = points.map((pt) => pt.terminalDeviationPercent);
+  const terminal = points.map((pt) => pt.terminalDeviationFraction);
   const descendingTerminal = points.flatMap((pt) =>
-    pt.descendingTerminalDeviationPercent === undefined ? [] : [pt.descendingTerminalDeviationPercent],
+    pt.descendingTerminalDeviationFraction === undefined ? [] : [pt.descendingTerminalDeviationFraction],
   );
   const hysteresis = points.flatMap((pt) =>
-    pt.hysteresisPercent === undefined ? [] : [pt.hysteresisPercent],
+    pt.hysteresisFraction === undefined ? [] : [pt.hysteresisFraction],
   );
   const repeatability = points.flatMap((pt) =>
-    pt.repeatabilityPercent === undefined ? [] : [pt.repeatabilityPercent],
+    pt.repeatabilityFraction === undefined ? [] : [pt.repeatabilityFraction],
   );
-  return {
+  const result: CertificateEvaluation = {
     capacity,
     ratedOutput,
     zeroBalance: zero,
-    zeroBalancePercent: percent(zero),
-    terminalNonlinearityPercent: largestMagnitude(terminal),
-    bestFitNonlinearityPercent: largestMagnitude(points.map((pt) => pt.bestFitDeviationPercent)),
-    hysteresisPercent: hysteresis.length === 0 ? undefined : largestMagnitude(hysteresis),
-    combinedErrorPercent: largestMagnitude([...terminal, ...descendingTerminal]),
-    repeatabilityPercent: repeatability.length === 0 ? undefined : largestMagnitude(repeatability),
+    zeroBalanceFraction: fraction(zero),
+    terminalNonlinearityFraction: largestMagnitude(terminal),
+    bestFitNonlinearityFraction: largestMagnitude(points.map((pt) => pt.bestFitDeviationFraction)),
+    hysteresisFraction: hysteresis.length === 0 ? undefined : largestMagnitude(hysteresis),
+    combinedErrorFraction: largestMagnitude([...terminal, ...descendingTerminal]),
+    repeatabilityFraction: repeatability.length === 0 ? undefined : largestMagnitude(repeatability),
     terminalLine,
     bestFitLine,
     points,
   };
+  // Readings are bounded by 1e100, so sums stay finite; a rated output tiny against the readings
+  // can still make a fraction overflow: refuse it rather than return ±Infinity.
+  const figures = [
+    result.zeroBalanceFraction,
+    result.terminalNonlinearityFraction,
+    result.bestFitNonlinearityFraction,
+    result.combinedErrorFraction,
+    result.hysteresisFraction ?? 0,
+    result.repeatabilityFraction ?? 0,
+    bestFitLine.offset,
+    bestFitLine.slope,
+    terminalLine.slope,
+  ];
+  if (!figures.every(Number.isFinite)) {
+    throw new BridgeworkError(
+      'out-of-range',
+      `\`runs\` must show a rated output that is not vanishingly small against the readings (the figures as fractions of it overflow); got a rated output of ${formatValue(ratedOutput)}`,
+      { param: 'runs', value: ratedOutput },
+    );
+  }
+  return result;
 }

@@ -1,4 +1,4 @@
-import { BridgeworkError, checkFinite, checkObject, formatValue } from '@bridgework/core';
+import { BridgeworkError, checkFinite, checkOptions, formatValue } from '@bridgework/core';
 
 /** Options of {@link fitTwoPoint}: a zero point and a span point. */
 export interface TwoPointFitOptions {
@@ -40,7 +40,7 @@ export interface TwoPointFit {
  * both formed from the zero point, so the zero point maps back exactly and the round trip is
  * within a few ulps of the span. This is the usual zero/span adjustment of an instrument (common
  * practice); it carries no uncertainty estimate, since two points leave no degrees of freedom: use
- * {@link createFitter} with more points for that.
+ * {@link fitPolynomial} with more points for that.
  *
  * @param options - The zero and span points.
  * @returns The line and its two maps.
@@ -54,7 +54,10 @@ export interface TwoPointFit {
  * ```
  */
 export function fitTwoPoint(options: TwoPointFitOptions): TwoPointFit {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['zeroLoad', 'zeroReading', 'spanLoad', 'spanReading'],
+    required: ['zeroReading', 'spanLoad', 'spanReading'],
+  });
   const x0 = o['zeroLoad'] === undefined ? 0 : checkFinite('zeroLoad', o['zeroLoad']);
   const y0 = checkFinite('zeroReading', o['zeroReading']);
   const x1 = checkFinite('spanLoad', o['spanLoad']);

@@ -8,12 +8,11 @@ export {
   type LoadUnit,
 } from './createCertificateScale.js';
 export {
-  createFitter,
-  type Fitter,
+  fitPolynomial,
   type InverseMethod,
   type PolynomialFit,
   type PolynomialFitOptions,
-} from './createFitter.js';
+} from './fitPolynomial.js';
 export {
   createLoadCellClass,
   loadCellAccuracyClasses,
@@ -46,7 +45,57 @@ export type {
   ShuntRatios,
   StrainFromShuntOptions,
 } from './shuntOptions.js';
+export {
+  checkEccentricity,
+  instrumentAccuracyClasses,
+  type EccentricityCheck,
+  type EccentricityCheckOptions,
+  type EccentricityRow,
+  type InstrumentAccuracyClass,
+} from './platform/checkEccentricity.js';
+export {
+  fitCornerFactors,
+  type CornerFactors,
+  type CornerFactorsOptions,
+  type CornerIndication,
+} from './platform/fitCornerFactors.js';
+export {
+  fitSummingTrims,
+  summingNetworkRatio,
+  type SummingNetworkOptions,
+  type SummingNetworkRatioOptions,
+  type SummingTrims,
+  type SummingTrimsOptions,
+  type TrimPlacement,
+} from './platform/summingNetwork.js';
+export {
+  fitMultiComponent,
+  type LoadingPoint,
+  type LoadStateMonteCarloOptions,
+  type LoadStateOptions,
+  type LoadStateUncertainty,
+  type MultiComponentCalibration,
+  type MultiComponentFitOptions,
+  type MultiComponentInverse,
+  type MultiComponentInverseOptions,
+  type RejectedTerm,
+} from './multicomponent/fitMultiComponent.js';
+export { interactionTermChoices, type InteractionTerms, type ModelTerm } from './multicomponent/terms.js';
+export {
+  nearestPreferredValue,
+  preferredSeries,
+  preferredValues,
+  type NearestPreferredValueOptions,
+  type PreferredRounding,
+  type PreferredSeries,
+  type PreferredValue,
+} from './preferredValues.js';
 export { shuntOhmsForStrain, shuntRatios, strainFromShunt } from './shuntStrain.js';
+export {
+  spanCorrectionFromShunt,
+  type SpanCorrection,
+  type SpanCorrectionOptions,
+} from './spanCorrectionFromShunt.js';
 export {
   ratioChangeFromShunt,
   shuntEquivalentLoad,

@@ -1,4 +1,4 @@
-import { BridgeworkError, checkFinite, checkObject, checkPositive, formatValue } from '@bridgework/core';
+import { BridgeworkError, checkFinite, checkPositive, formatValue } from '@bridgework/core';
 import { networkRatio, shuntOhmsForNetworkRatio } from './internal/shuntNetwork.js';
 import { strainShuntSetup, type StrainShuntSetup } from './internal/strainShuntSetup.js';
 import type { ShuntOhmsForStrainOptions, ShuntRatios, StrainFromShuntOptions } from './shuntOptions.js';
@@ -37,8 +37,8 @@ function resistanceEquivalentFactor(setup: StrainShuntSetup): number {
  * ```
  */
 export function shuntRatios(options: StrainFromShuntOptions): ShuntRatios {
-  const setup = strainShuntSetup(options);
-  const shuntOhms = checkPositive('shuntOhms', checkObject('options', options)['shuntOhms']);
+  const setup = strainShuntSetup(options, 'shuntOhms');
+  const shuntOhms = checkPositive('shuntOhms', (options as unknown as Record<string, unknown>)['shuntOhms']);
   return ratios(setup, shuntOhms);
 }
 
@@ -79,8 +79,8 @@ export function shuntRatios(options: StrainFromShuntOptions): ShuntRatios {
  * ```
  */
 export function strainFromShunt(options: StrainFromShuntOptions): number {
-  const setup = strainShuntSetup(options);
-  const shuntOhms = checkPositive('shuntOhms', checkObject('options', options)['shuntOhms']);
+  const setup = strainShuntSetup(options, 'shuntOhms');
+  const shuntOhms = checkPositive('shuntOhms', (options as unknown as Record<string, unknown>)['shuntOhms']);
   if (setup.definition === 'resistance-equivalent') {
     return (
       (-setup.sign * resistanceEquivalentFactor(setup)) /
@@ -122,8 +122,8 @@ export function strainFromShunt(options: StrainFromShuntOptions): number {
  * ```
  */
 export function shuntOhmsForStrain(options: ShuntOhmsForStrainOptions): number {
-  const setup = strainShuntSetup(options);
-  const strain = checkFinite('strain', checkObject('options', options)['strain']);
+  const setup = strainShuntSetup(options, 'strain');
+  const strain = checkFinite('strain', (options as unknown as Record<string, unknown>)['strain']);
   if (!(setup.sign * strain < 0)) {
     const arm = setup.network.index + 1;
     const wanted = setup.sign > 0 ? 'negative' : 'positive';

@@ -4,13 +4,13 @@ import {
   checkFinite,
   checkInteger,
   checkLength,
-  checkObject,
+  checkOptions,
   checkOneOf,
   checkPositive,
   formatValue,
   type LeadsOptions,
 } from '@bridgework/core';
-import { checkNonZero } from './internal/checks.js';
+import { checkNonZero, finiteResult } from './internal/checks.js';
 import {
   networkRatio,
   shuntOhmsForNetworkRatio,
@@ -58,8 +58,11 @@ export interface ShuntEquivalentLoadOptions {
   readonly ratioChange: number;
 }
 
-function transducerNetwork(options: unknown): ShuntNetwork {
-  const o = checkObject('options', options);
+/** The keys every transducer shunt function reads besides its own target. */
+const transducerKeys = ['bridgeOhms', 'armsOhms', 'arm', 'leads', 'sourceOhms'] as const;
+
+function transducerNetwork(options: unknown, target: 'shuntOhms' | 'ratioChange'): ShuntNetwork {
+  const o = checkOptions('options', options, { known: [...transducerKeys, target], required: [target] });
   if (o['bridgeOhms'] !== undefined && o['armsOhms'] !== undefined) {
     throw new BridgeworkError('conflicting-options', '`bridgeOhms` and `armsOhms` must not both be given', {
       param: 'armsOhms',
@@ -75,7 +78,10 @@ function transducerNetwork(options: unknown): ShuntNetwork {
   const arm = o['arm'] === undefined ? 1 : checkInteger('arm', o['arm'], { min: 1, max: 4 });
   let leads: LeadsOptions | undefined;
   if (o['leads'] !== undefined) {
-    const l = checkObject('leads', o['leads']);
+    const l = checkOptions('leads', o['leads'], {
+      known: ['ohmsPerLead', 'wiring'],
+      required: ['ohmsPerLead', 'wiring'],
+    });
     leads = {
       ohmsPerLead: l['ohmsPerLead'] as number,
       wiring: checkOneOf('leads.wiring', l['wiring'], ['four-wire', 'six-wire'] as const),
@@ -116,8 +122,8 @@ function transducerNetwork(options: unknown): ShuntNetwork {
  * ```
  */
 export function ratioChangeFromShunt(options: RatioChangeFromShuntOptions): number {
-  const network = transducerNetwork(options);
-  const shuntOhms = checkPositive('shuntOhms', checkObject('options', options)['shuntOhms']);
+  const network = transducerNetwork(options, 'shuntOhms');
+  const shuntOhms = checkPositive('shuntOhms', (options as unknown as Record<string, unknown>)['shuntOhms']);
   return networkRatio(network, shuntOhms) - networkRatio(network, Infinity);
 }
 
@@ -142,8 +148,8 @@ export function ratioChangeFromShunt(options: RatioChangeFromShuntOptions): numb
  * ```
  */
 export function shuntOhmsForRatioChange(options: ShuntOhmsForRatioChangeOptions): number {
-  const network = transducerNetwork(options);
-  const change = checkFinite('ratioChange', checkObject('options', options)['ratioChange']);
+  const network = transducerNetwork(options, 'ratioChange');
+  const change = checkFinite('ratioChange', (options as unknown as Record<string, unknown>)['ratioChange']);
   const sign = network.index % 2 === 0 ? 1 : -1;
   if (!(sign * change < 0)) {
     throw new BridgeworkError(
@@ -176,9 +182,12 @@ export function shuntOhmsForRatioChange(options: ShuntOhmsForRatioChangeOptions)
  * ```
  */
 export function shuntEquivalentLoad(options: ShuntEquivalentLoadOptions): number {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['capacity', 'ratedOutputVoltsPerVolt', 'ratioChange'],
+    required: ['capacity', 'ratedOutputVoltsPerVolt', 'ratioChange'],
+  });
   const capacity = checkPositive('capacity', o['capacity']);
   const ratedOutput = checkNonZero('ratedOutputVoltsPerVolt', o['ratedOutputVoltsPerVolt']);
   const change = checkFinite('ratioChange', o['ratioChange']);
-  return (capacity * change) / ratedOutput;
+  return finiteResult('ratioChange', change, (capacity * change) / ratedOutput, 'the equivalent load');
 }

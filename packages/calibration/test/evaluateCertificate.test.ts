@@ -1,11 +1,6 @@
 import fc from 'fast-check';
-import { beforeAll, describe, expect, it } from 'vitest';
-import { createFitter, evaluateCertificate, type Fitter } from '@bridgework/calibration';
-
-let fitter: Fitter;
-beforeAll(async () => {
-  fitter = await createFitter();
-});
+import { describe, expect, it } from 'vitest';
+import { evaluateCertificate, fitPolynomial } from '@bridgework/calibration';
 
 /**
  * A synthetic load cell (invented): zero z, rated output RO, a parabolic bow a·u(u − 1) on the way up
@@ -29,7 +24,7 @@ describe('evaluateCertificate: closed-form figures of a synthetic cell', () => {
     expect(e.capacity).toBe(2000);
     expect(e.ratedOutput).toBeNear(ro, { rel: 1e-13 });
     expect(e.zeroBalance).toBe(z);
-    expect(e.zeroBalancePercent).toBeNear((100 * z) / ro, { rel: 1e-12 });
+    expect(e.zeroBalanceFraction).toBeNear(z / ro, { rel: 1e-12 });
     expect(e.terminalLine.offset).toBe(z);
     expect(e.terminalLine.slope).toBeNear(ro / capacity, { rel: 1e-13 });
   });
@@ -37,14 +32,14 @@ describe('evaluateCertificate: closed-form figures of a synthetic cell', () => {
   it('terminal nonlinearity = |a|/4 / RO at mid-range', () => {
     // a·u(u − 1) is largest in magnitude at u = 1/2: |a|/4 = 1e-7 → 100·1e-7/2e-3 = 0.005 %.
     // Absolute 1e-10 %: the deviations are differences of readings of 2e-3 (ulp 4e-19 → 2e-14 %).
-    expect(e.terminalNonlinearityPercent).toBeNear(0.005, { abs: 1e-10 });
-    expect(e.points[2]!.terminalDeviationPercent).toBeNear(0.005, { abs: 1e-10 });
+    expect(e.terminalNonlinearityFraction).toBeNear(0.005 / 100, { abs: 1e-10 / 100 });
+    expect(e.points[2]!.terminalDeviationFraction).toBeNear(0.005 / 100, { abs: 1e-10 / 100 });
   });
 
   it('best-fit nonlinearity = half the terminal one for a symmetric bow on five equal steps', () => {
     // u(u − 1) at u = 0, ¼, ½, ¾, 1 is 0, −3/16, −1/4, −3/16, 0: by symmetry the least-squares line
     // is flat at the mean −1/8, so the largest deviation is |a|/8 (at u = 0, ½ and 1) = 0.0025 %.
-    expect(e.bestFitNonlinearityPercent).toBeNear(0.0025, { abs: 1e-10 });
+    expect(e.bestFitNonlinearityFraction).toBeNear(0.0025 / 100, { abs: 1e-10 / 100 });
     expect(e.bestFitLine.slope).toBeNear(ro / capacity, { rel: 1e-9 });
     expect(e.bestFitLine.offset).toBeNear(z - a / 8, { rel: 1e-9 });
   });
@@ -53,14 +48,14 @@ describe('evaluateCertificate: closed-form figures of a synthetic cell', () => {
     // Descending − ascending = h·sin(πu): largest at u = ½, 100·6e-7/2e-3 = 0.03 %. Descending minus
     // the terminal line = a·u(u − 1) + h·sin(πu), also largest at ½: 1e-7 + 6e-7 → 0.035 %
     // (at u = ¼: 0.75e-7 + 4.24e-7 = 4.99e-7, smaller).
-    expect(e.hysteresisPercent!).toBeNear(0.03, { abs: 1e-10 });
-    expect(e.combinedErrorPercent).toBeNear(0.035, { abs: 1e-10 });
-    expect(e.points[0]!.hysteresisPercent).toBe(0);
-    expect(e.repeatabilityPercent).toBeUndefined();
+    expect(e.hysteresisFraction!).toBeNear(0.03 / 100, { abs: 1e-10 / 100 });
+    expect(e.combinedErrorFraction).toBeNear(0.035 / 100, { abs: 1e-10 / 100 });
+    expect(e.points[0]!.hysteresisFraction).toBe(0);
+    expect(e.repeatabilityFraction).toBeUndefined();
   });
 
   it('the best-fit line equals the QR least-squares fit of the same points (a different method)', () => {
-    const fit = fitter.fitPolynomial({ loads, readings: ascending, degree: 1 });
+    const fit = fitPolynomial({ loads, readings: ascending, degree: 1 });
     expect(e.bestFitLine.offset).toBeNear(fit.coefficients[0]!, { rel: 1e-13 });
     expect(e.bestFitLine.slope).toBeNear(fit.coefficients[1]!, { rel: 1e-13 });
   });
@@ -73,12 +68,12 @@ describe('evaluateCertificate: repeated runs', () => {
     const delta = 4e-7;
     const run2 = ascending.map((r, i) => (i === 2 ? r + delta : r));
     const e = evaluateCertificate({ loads, runs: [{ ascending }, { ascending: run2 }] });
-    expect(e.repeatabilityPercent!).toBeNear(0.02, { abs: 1e-10 });
-    expect(e.points[2]!.repeatabilityPercent!).toBeNear(0.02, { abs: 1e-10 });
-    expect(e.points[1]!.repeatabilityPercent).toBe(0);
-    expect(e.terminalNonlinearityPercent).toBeNear(0.015, { abs: 1e-10 });
-    expect(e.hysteresisPercent).toBeUndefined();
-    expect(e.combinedErrorPercent).toBeNear(0.015, { abs: 1e-10 });
+    expect(e.repeatabilityFraction!).toBeNear(0.02 / 100, { abs: 1e-10 / 100 });
+    expect(e.points[2]!.repeatabilityFraction!).toBeNear(0.02 / 100, { abs: 1e-10 / 100 });
+    expect(e.points[1]!.repeatabilityFraction).toBe(0);
+    expect(e.terminalNonlinearityFraction).toBeNear(0.015 / 100, { abs: 1e-10 / 100 });
+    expect(e.hysteresisFraction).toBeUndefined();
+    expect(e.combinedErrorFraction).toBeNear(0.015 / 100, { abs: 1e-10 / 100 });
   });
 
   it('keeps its figures under a change of load unit and reading scale (fast-check)', () => {
@@ -92,13 +87,15 @@ describe('evaluateCertificate: repeated runs', () => {
             loads: loads.map((x) => x * k),
             runs: [{ ascending: ascending.map((r) => r * m), descending: descending.map((r) => r * m) }],
           });
-          // Percentages are dimensionless: equal to rounding (absolute 1e-9 % on figures of ~0.03 %).
-          expect(scaled.terminalNonlinearityPercent).toBeNear(base.terminalNonlinearityPercent, {
-            abs: 1e-9,
+          // Fractions are dimensionless: equal to rounding (absolute 1e-11 on figures of ~3e-4).
+          expect(scaled.terminalNonlinearityFraction).toBeNear(base.terminalNonlinearityFraction, {
+            abs: 1e-11,
           });
-          expect(scaled.bestFitNonlinearityPercent).toBeNear(base.bestFitNonlinearityPercent, { abs: 1e-9 });
-          expect(scaled.hysteresisPercent!).toBeNear(base.hysteresisPercent!, { abs: 1e-9 });
-          expect(scaled.combinedErrorPercent).toBeNear(base.combinedErrorPercent, { abs: 1e-9 });
+          expect(scaled.bestFitNonlinearityFraction).toBeNear(base.bestFitNonlinearityFraction, {
+            abs: 1e-11,
+          });
+          expect(scaled.hysteresisFraction!).toBeNear(base.hysteresisFraction!, { abs: 1e-11 });
+          expect(scaled.combinedErrorFraction).toBeNear(base.combinedErrorFraction, { abs: 1e-11 });
         },
       ),
       { numRuns: 200 },
@@ -111,8 +108,8 @@ describe('evaluateCertificate: repeated runs', () => {
       runs: [{ ascending: ascending.map((r) => -r), descending: descending.map((r) => -r) }],
     });
     expect(e.ratedOutput).toBeNear(-ro, { rel: 1e-13 });
-    expect(e.terminalNonlinearityPercent).toBeNear(0.005, { abs: 1e-10 });
-    expect(e.points[2]!.terminalDeviationPercent).toBeNear(0.005, { abs: 1e-10 });
+    expect(e.terminalNonlinearityFraction).toBeNear(0.005 / 100, { abs: 1e-10 / 100 });
+    expect(e.points[2]!.terminalDeviationFraction).toBeNear(0.005 / 100, { abs: 1e-10 / 100 });
   });
 });
 

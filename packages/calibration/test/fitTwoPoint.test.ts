@@ -56,7 +56,8 @@ describe('fitTwoPoint', () => {
     ['spanReading', { zeroReading: 1, spanLoad: 10, spanReading: 1 }, 'singular'],
     ['zeroReading', { zeroReading: Number.NaN, spanLoad: 10, spanReading: 1 }, 'not-finite'],
     ['spanLoad', { zeroReading: 0, spanLoad: '10', spanReading: 1 }, 'wrong-type'],
-    ['spanReading', { zeroReading: 0, spanLoad: 10 }, 'wrong-type'],
+    ['options.spanReading', { zeroReading: 0, spanLoad: 10 }, 'missing-option'],
+    ['options.spanReadng', { zeroReading: 0, spanLoad: 10, spanReadng: 1 }, 'unknown-option'],
     ['zeroLoad', { zeroLoad: -Infinity, zeroReading: 0, spanLoad: 10, spanReading: 1 }, 'not-finite'],
     ['options', 'line', 'wrong-type'],
   ] as const)('%s: %j → %s', (param, options, code) => {

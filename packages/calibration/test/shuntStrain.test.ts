@@ -348,7 +348,9 @@ describe('shunt calibration: bad input', () => {
     ['gaugeOhms', { ...base, gaugeOhms: Number.NaN }, 'not-finite'],
     ['gaugeOhms', { ...base, gaugeOhms: -350 }, 'not-positive'],
     ['gaugeOhms', { ...base, gaugeOhms: '350' }, 'wrong-type'],
-    ['gaugeOhms', { gaugeFactor: 2, shuntOhms: 1e5 }, 'wrong-type'],
+    ['options.gaugeOhms', { gaugeFactor: 2, shuntOhms: 1e5 }, 'missing-option'],
+    ['options.gaugeOhm', { ...base, gaugeOhm: 350 }, 'unknown-option'],
+    ['leads.ohmsPerLeed', { ...base, leads: { ohmsPerLeed: 1, wiring: 'two-wire' } }, 'unknown-option'],
     ['gaugeFactor', { ...base, gaugeFactor: Infinity }, 'not-finite'],
     ['gaugeFactor', { ...base, gaugeFactor: 0 }, 'not-positive'],
     ['shuntOhms', { ...base, shuntOhms: Number.NaN }, 'not-finite'],
@@ -382,8 +384,8 @@ describe('shunt calibration: bad input', () => {
       shuntOhmsForStrain({ gaugeOhms: 350, gaugeFactor: 2, strain: Number.NaN }),
     ).toThrowBridgeworkError('not-finite', { param: 'strain' });
     expect(() => shuntOhmsForStrain({ gaugeOhms: 350, gaugeFactor: 2 } as never)).toThrowBridgeworkError(
-      'wrong-type',
-      { param: 'strain' },
+      'missing-option',
+      { param: 'options.strain' },
     );
     expect(() => strainFromShunt(null as never)).toThrowBridgeworkError('wrong-type', { param: 'options' });
     expect(() => shuntRatios({ ...base, shuntOhms: -1 })).toThrowBridgeworkError('not-positive', {

@@ -23,6 +23,13 @@ import {
   type ConstantsOptions,
 } from './constants/channelConstants.js';
 
+// The WHATWG stream type named in this module's declarations. Browsers (lib "DOM") and Node
+// (@types/node) declare it in full; this empty declaration merges with theirs, and lets a project
+// with neither (lib ES2022 alone) type-check these declarations.
+declare global {
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any, @typescript-eslint/no-empty-object-type, @typescript-eslint/no-unused-vars
+  interface TransformStream<I = any, O = any> {}
+}
 /** Codes accepted by the converters: integer codes, or codes already averaged to non-integers. */
 export type CodeBuffer = Int32Array | Float64Array;
 

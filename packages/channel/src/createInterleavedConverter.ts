@@ -14,6 +14,13 @@ import {
   type ConvertOptions,
 } from './convert/ConversionStatus.js';
 
+// The WHATWG stream type named in this module's declarations. Browsers (lib "DOM") and Node
+// (@types/node) declare it in full; this empty declaration merges with theirs, and lets a project
+// with neither (lib ES2022 alone) type-check these declarations.
+declare global {
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any, @typescript-eslint/no-empty-object-type, @typescript-eslint/no-unused-vars
+  interface TransformStream<I = any, O = any> {}
+}
 /** Options of an interleaved conversion: as for one channel, with one temperature per channel. */
 export interface InterleavedConvertOptions extends Omit<ConvertOptions, 'temperatureCelsius'> {
   /** Gauge temperature of each channel for this block, °C (`undefined` entries keep the channel's). */

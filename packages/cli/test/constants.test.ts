@@ -59,7 +59,7 @@ describe('bridgework constants on the example file', () => {
     expect(r.code).toBe(exitCodes.ok);
     const [first, ...rest] = r.stdout.split('\n');
     expect(first).toMatch(
-      /^\/\* From the channel file examples\/footbridge-monitoring\.yaml \(channels hanger-h3, gusset-g2, deck-temp\) by bridgework \d+\.\d+\.\d+\. \*\/$/,
+      /^\/\* From the channel file packages\/cli\/demo\/footbridge-monitoring\.yaml \(channels hanger-h3, gusset-g2, deck-temp\) by bridgework \d+\.\d+\.\d+\. \*\/$/,
     );
     const expected = emitCHeader({
       channels: footbridgeNames.map((n) => constants[n]!.firmwareChannel),

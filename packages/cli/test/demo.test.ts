@@ -9,7 +9,7 @@ import { dirname, join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { exitCodes } from '../src/exitCodes.js';
 import { runCli } from '../src/runCli.js';
-import { exampleShown, repoRoot } from './support/footbridge.js';
+import { examplePath, exampleShown, repoRoot } from './support/footbridge.js';
 import { useTestFiles } from './support/files.js';
 import { memoryIo } from './support/memoryIo.js';
 
@@ -28,14 +28,21 @@ describe('bridgework demo', () => {
     expect(r.code).toBe(exitCodes.ok);
     expect(r.stderr).toBe('');
     expect(r.stdout).toMatch(
-      /^bridgework demo: the design report of examples\/footbridge-monitoring\.yaml,\n/,
+      /^bridgework demo: the design report of packages\/cli\/demo\/footbridge-monitoring\.yaml,\n/,
     );
     // The report is the one `bridgework report` prints for the example.
     const report = await run('report', exampleShown);
     expect(r.stdout).toContain(report.stdout);
     const html = join(dir, 'footbridge-monitoring.html');
     const header = join(dir, 'footbridge_constants.h');
-    expect(r.stdout).toContain(`  HTML report with plots  ${html}\n  C header of constants   ${header}\n`);
+    const copy = join(dir, 'footbridge-monitoring.yaml');
+    expect(r.stdout).toContain(
+      `  HTML report with plots  ${html}\n  C header of constants   ${header}\n  channel file (a copy)   ${copy}\n`,
+    );
+    // The copy is the example with the editor's schema line pointing into the package.
+    expect(readFileSync(copy, 'utf8').replace(/^# yaml-language-server: .*\n/, '')).toBe(
+      readFileSync(examplePath, 'utf8').replace(/^# yaml-language-server: .*\n/, ''),
+    );
     const page = readFileSync(html, 'utf8');
     expect(page.match(/<svg [^>]*class="bw-plot/g)).toHaveLength(12);
     expect(page).toMatch(/do not replace, qualified engineering judgement/);
@@ -97,7 +104,9 @@ describe('pnpm demo', () => {
       encoding: 'utf8',
       env: { ...process.env, NO_COLOR: '1' },
     });
-    expect(out).toMatch(/^bridgework demo: the design report of examples\/footbridge-monitoring\.yaml,/);
+    expect(out).toMatch(
+      /^bridgework demo: the design report of packages\/cli\/demo\/footbridge-monitoring\.yaml,/,
+    );
     expect(out).toMatch(/Every check passed\./);
     expect(existsSync(join(dir, 'footbridge-monitoring.html'))).toBe(true);
   });

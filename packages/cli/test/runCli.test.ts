@@ -99,7 +99,7 @@ describe('runCli: a channel file that cannot be read', () => {
 describe('the executable', () => {
   const bin = `${packageDir}src/bin.ts`;
   it('is declared as dist/bin.js with a node shebang', () => {
-    expect(pkg.bin).toEqual({ bridgework: './dist/bin.js' });
+    expect(pkg.bin).toEqual({ bridgework: 'dist/bin.js' });
     expect(readFileSync(bin, 'utf8').split('\n')[0]).toBe('#!/usr/bin/env node');
   });
 

@@ -32,10 +32,10 @@ function intervalsBySorting(values: Float64Array, p: number) {
   const q = Number.isInteger(p * m) ? p * m : Math.floor(p * m + 0.5);
   const r = Number.isInteger((m - q) / 2) ? (m - q) / 2 : (m - q + 1) / 2;
   // Order statistics y_(k) are 1-based in JCGM 101.
-  const symmetric = { low: y[r - 1]!, high: y[r + q - 1]! };
+  const symmetric = { min: y[r - 1]!, max: y[r + q - 1]! };
   let best = 1;
   for (let k = 2; k <= m - q; k++) if (y[k + q - 1]! - y[k - 1]! < y[best + q - 1]! - y[best - 1]!) best = k;
-  return { symmetric, shortest: { low: y[best - 1]!, high: y[best + q - 1]! } };
+  return { symmetric, shortest: { min: y[best - 1]!, max: y[best + q - 1]! } };
 }
 
 describe('batch sizes', () => {
@@ -104,7 +104,7 @@ describe('batchedMonteCarlo', () => {
     const a = Math.abs(gf.value);
     // ±0.95a holds 95 % of a rectangle. Sampling error of the 2.5 % and 97.5 % quantiles at
     // 40 000 trials: √(p(1 − p)/M)·2a ≈ 0.0016a; the small gain and noise terms widen it slightly.
-    expect((r.interval.high - r.interval.low) / 2).toBeNear(0.95 * a, { rel: 0.01 });
+    expect((r.interval.max - r.interval.min) / 2).toBeNear(0.95 * a, { rel: 0.01 });
     // u(y) of the sample against the GUM's root-sum-square: relative standard error of a standard
     // deviation of a near-rectangular sample ≈ √(0.8/(4M)) ≈ 0.2 %; allow 1 %.
     expect(r.standardUncertainty).toBeNear(r.budget.combined.standardUncertainty, { rel: 0.01 });
@@ -146,7 +146,7 @@ describe('bridgework uncertainty', () => {
         name: string;
         trials: number;
         seeds: number[];
-        monteCarlo: { value: number; standardUncertainty: number; interval: { low: number; high: number } };
+        monteCarlo: { value: number; standardUncertainty: number; interval: { min: number; max: number } };
         gum: { standardUncertainty: number; coverageFactor: number };
         gumValidation: { validated: boolean };
       }[];
@@ -167,7 +167,7 @@ describe('bridgework uncertainty', () => {
   it('prints a table of the Monte Carlo and GUM results with the clause 8 verdict', async () => {
     const r = await run(argv);
     expect(r.stdout).toMatch(
-      /^Monte Carlo uncertainty \(JCGM 101\): examples\/footbridge-monitoring\.yaml$/m,
+      /^Monte Carlo uncertainty \(JCGM 101\): packages\/cli\/demo\/footbridge-monitoring\.yaml$/m,
     );
     expect(r.stdout).toMatch(
       /12000 trials per channel in 2 batches; seed 5 \(batch i runs with seed \+ i·2³²\)/,

@@ -45,7 +45,7 @@ export {
 } from './quantities.js';
 export { sampleCoverageIntervals, type CoverageIntervals } from './sampleCoverageIntervals.js';
 export { typeAEvaluation, type TypeAEvaluation } from './typeAEvaluation.js';
-export type { Interval, MeasurementModel, VectorMeasurementModel } from './types.js';
+export type { MeasurementModel, VectorMeasurementModel } from './types.js';
 export {
   numericalTolerance,
   validateGum,

@@ -22,7 +22,8 @@ import { sampleIntervalsInPlace } from './internal/select.js';
 import { checkModel } from './internal/model.js';
 import { propagateScalar, type Propagation } from './propagate.js';
 import { normalizeInputs, type InputQuantities } from './quantities.js';
-import type { Interval, MeasurementModel } from './types.js';
+import type { Interval } from '@bridgework/core';
+import type { MeasurementModel } from './types.js';
 import { validateGum, type GumValidation } from './validateGum.js';
 
 export type { AdaptiveInterval, AdaptiveReport, AdaptiveSpread } from './internal/driver.js';
@@ -294,7 +295,7 @@ export function monteCarloResult(
  *     d: { value: 0, standardUncertainty: 1 },
  *   },
  * });
- * r.interval; // ≈ { low: -3.92, high: 3.92 } (JCGM 101 9.2.2)
+ * r.interval; // ≈ { min: -3.92, max: 3.92 } (JCGM 101 9.2.2)
  * r.gumValidation?.validated; // true
  * ```
  */

@@ -11,7 +11,8 @@ import {
 import { checkModel, describePoint, toOutputs } from './internal/model.js';
 import { acquireRecord, type TrialRecord } from './internal/trialRecord.js';
 import { normalizeInputs, type InputQuantities, type NormalizedInput } from './quantities.js';
-import type { Interval, MeasurementModel, VectorMeasurementModel } from './types.js';
+import type { Interval } from '@bridgework/core';
+import type { MeasurementModel, VectorMeasurementModel } from './types.js';
 
 /** Options of {@link propagate} for a scalar model. */
 export interface PropagateOptions {
@@ -467,7 +468,7 @@ function outputPropagation(s: Internals, k: number): Propagation {
     coverage: s.coverage,
     coverageFactor: k95,
     expandedUncertainty,
-    interval: { low: value - expandedUncertainty, high: value + expandedUncertainty },
+    interval: { min: value - expandedUncertainty, max: value + expandedUncertainty },
     secondOrderVariance: k === 0 ? s.secondOrderVariance : 0,
   };
 }

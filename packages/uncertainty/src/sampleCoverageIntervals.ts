@@ -1,6 +1,6 @@
 import { BridgeworkError, checkRange, formatValue } from '@bridgework/core';
 import { coveredCount, sampleIntervalsInPlace } from './internal/select.js';
-import type { Interval } from './types.js';
+import type { Interval } from '@bridgework/core';
 
 /** The two coverage intervals of JCGM 101 7.7 (see {@link sampleCoverageIntervals}). */
 export interface CoverageIntervals {
@@ -29,7 +29,7 @@ export interface CoverageIntervals {
  * @example
  * ```ts
  * sampleCoverageIntervals([1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13, 14, 15, 16, 17, 18, 19, 20, 21], 0.9);
- * // { interval: { low: 2, high: 21 }, shortestInterval: { low: 1, high: 20 } }
+ * // { interval: { min: 2, max: 21 }, shortestInterval: { min: 1, max: 20 } }
  * ```
  */
 export function sampleCoverageIntervals(

@@ -3,11 +3,3 @@ export type MeasurementModel = (x: Readonly<Record<string, number>>) => number;
 
 /** A vector-valued measurement model (several outputs from the same inputs, JCGM 102's multivariate model). */
 export type VectorMeasurementModel = (x: Readonly<Record<string, number>>) => readonly number[];
-
-/** A closed interval (low ≤ high), in the unit of the output. */
-export interface Interval {
-  /** Lower end. */
-  readonly low: number;
-  /** Upper end. */
-  readonly high: number;
-}

@@ -1,5 +1,5 @@
 import { BridgeworkError, checkFinite, checkInteger, checkNonNegative, checkObject } from '@bridgework/core';
-import type { Interval } from './types.js';
+import type { Interval } from '@bridgework/core';
 
 /**
  * The numerical tolerance δ of a value expressed to a number of significant decimal digits
@@ -94,7 +94,7 @@ export interface GumValidation {
  * ```ts
  * validateGum({
  *   gum: { value: 0, expandedUncertainty: 3.92 },
- *   monteCarlo: { standardUncertainty: 2.0, interval: { low: -3.88, high: 3.88 } },
+ *   monteCarlo: { standardUncertainty: 2.0, interval: { min: -3.88, max: 3.88 } },
  * }); // { dLow: 0.040000000000000036, dHigh: 0.040000000000000036, tolerance: 0.05, significantDigits: 2, validated: true }
  * ```
  */
@@ -106,11 +106,11 @@ export function validateGum(options: ValidateGumOptions): GumValidation {
   const expanded = checkNonNegative('gum.expandedUncertainty', gum['expandedUncertainty']);
   const u = checkNonNegative('monteCarlo.standardUncertainty', mc['standardUncertainty']);
   const interval = checkObject('monteCarlo.interval', mc['interval']);
-  const low = checkFinite('monteCarlo.interval.low', interval['low']);
-  const high = checkFinite('monteCarlo.interval.high', interval['high']);
+  const low = checkFinite('monteCarlo.interval.min', interval['min']);
+  const high = checkFinite('monteCarlo.interval.max', interval['max']);
   if (high < low) {
-    throw new BridgeworkError('out-of-range', '`monteCarlo.interval.high` must be >= `low`', {
-      param: 'monteCarlo.interval.high',
+    throw new BridgeworkError('out-of-range', '`monteCarlo.interval.max` must be >= `min`', {
+      param: 'monteCarlo.interval.max',
       value: high,
       limit: low,
     });

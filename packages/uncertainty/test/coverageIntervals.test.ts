@@ -18,8 +18,8 @@ function byFullSort(values: readonly number[], p: number) {
   let best = 1;
   for (let k = 1; k <= m - q; k++) if (y[k + q - 1]! - y[k - 1]! < y[best + q - 1]! - y[best - 1]!) best = k;
   return {
-    interval: { low: y[r - 1]!, high: y[r + q - 1]! },
-    shortestInterval: { low: y[best - 1]!, high: y[best + q - 1]! },
+    interval: { min: y[r - 1]!, max: y[r + q - 1]! },
+    shortestInterval: { min: y[best - 1]!, max: y[best + q - 1]! },
   };
 }
 
@@ -108,12 +108,12 @@ describe('sampleCoverageIntervals (JCGM 101 7.7)', () => {
         const ref = byFullSort(v, p);
         // Exact (abs: 0 compares with ===, so −0 and +0 are equal: their order is not specified).
         expect([
-          ours.interval.low,
-          ours.interval.high,
-          ours.shortestInterval.low,
-          ours.shortestInterval.high,
+          ours.interval.min,
+          ours.interval.max,
+          ours.shortestInterval.min,
+          ours.shortestInterval.max,
         ]).toBeNear(
-          [ref.interval.low, ref.interval.high, ref.shortestInterval.low, ref.shortestInterval.high],
+          [ref.interval.min, ref.interval.max, ref.shortestInterval.min, ref.shortestInterval.max],
           { abs: 0 },
         );
       }),
@@ -138,8 +138,8 @@ describe('sampleCoverageIntervals (JCGM 101 7.7)', () => {
     // widths 20 − 1 = 19 and 21 − 2 = 19 tie, so the first: [1, 20]. Shuffled input.
     const y = [13, 2, 21, 8, 1, 17, 5, 11, 20, 3, 14, 9, 19, 4, 16, 7, 12, 18, 6, 15, 10];
     expect(sampleCoverageIntervals(y, 0.9)).toEqual({
-      interval: { low: 1, high: 20 },
-      shortestInterval: { low: 1, high: 20 },
+      interval: { min: 1, max: 20 },
+      shortestInterval: { min: 1, max: 20 },
     });
     // M = 20, p = 0.9: q = 18, M − q = 2 → r = 1: [1, 19] of 1…20; widths 18, 18: first.
     expect(
@@ -147,13 +147,13 @@ describe('sampleCoverageIntervals (JCGM 101 7.7)', () => {
         [...Array(20).keys()].map((k) => k + 1),
         0.9,
       ).interval,
-    ).toEqual({ low: 1, high: 19 });
+    ).toEqual({ min: 1, max: 19 });
     // A skewed sample, M = 21, p = 0.5: q = ⌊10.5 + ½⌋ = 11, r = 5: symmetric [y₍₅₎, y₍₁₆₎] = [0.4, 21];
     // the shortest interval moves to the dense side: r = 1 gives [0, y₍₁₂₎] = [0, 5], width 5.
     const skewed = [0, 0.1, 0.2, 0.3, 0.4, 0.5, 0.6, 0.7, 0.8, 0.9, 1, 5, 9, 13, 17, 21, 25, 29, 33, 37, 41];
     expect(sampleCoverageIntervals(skewed, 0.5)).toEqual({
-      interval: { low: 0.4, high: 21 },
-      shortestInterval: { low: 0, high: 5 },
+      interval: { min: 0.4, max: 21 },
+      shortestInterval: { min: 0, max: 5 },
     });
   });
 

@@ -38,13 +38,13 @@ describe('monteCarlo: JCGM 101 9.2 (additive models, 10⁶ trials)', () => {
     expect(r.standardUncertainty).toBeNear(2, { abs: 4 * (2 / Math.sqrt(2 * m)) });
     const end = 2 * coverageFactor(0.95);
     const sd = quantileSd(0.025, m, normalPdf(1.959964) / 2);
-    expect([r.interval.low, r.interval.high]).toBeNear([-end, end], { abs: 4 * sd });
-    expect([r.interval.low, r.interval.high]).toBeNear([-3.92, 3.92], { abs: 4 * sd + 0.005 });
+    expect([r.interval.min, r.interval.max]).toBeNear([-end, end], { abs: 4 * sd });
+    expect([r.interval.min, r.interval.max]).toBeNear([-3.92, 3.92], { abs: 4 * sd + 0.005 });
     // The shortest interval of a symmetric output is the symmetric one, but its ends are picked
     // from where the width is flat, so they scatter more: twice the tolerance.
-    expect([r.shortestInterval.low, r.shortestInterval.high]).toBeNear([-end, end], { abs: 8 * sd });
+    expect([r.shortestInterval.min, r.shortestInterval.max]).toBeNear([-end, end], { abs: 8 * sd });
     expect(r.gum?.standardUncertainty).toBeNear(2, { rel: 1e-12 });
-    expect(r.gum?.interval.high).toBeNear(3.92, { abs: 0.005 });
+    expect(r.gum?.interval.max).toBeNear(3.92, { abs: 0.005 });
     expect(r.gumValidation?.validated).toBe(true);
     expect(r.gumValidation?.tolerance).toBe(0.05); // u = 2.0 = 20 × 10⁻¹ with ndig = 2
   });
@@ -63,7 +63,7 @@ describe('monteCarlo: JCGM 101 9.2 (additive models, 10⁶ trials)', () => {
     const end = 2 * Math.sqrt(3) * (2 - root);
     const sd = quantileSd(0.025, m, root ** 3 / 6 / (2 * Math.sqrt(3)));
     expect(end).toBeNear(3.88, { abs: 0.005 });
-    expect([r.interval.low, r.interval.high]).toBeNear([-end, end], { abs: 4 * sd });
+    expect([r.interval.min, r.interval.max]).toBeNear([-end, end], { abs: 4 * sd });
     expect(r.standardUncertainty).toBeNear(2, { abs: 4 * 2 * Math.sqrt((2.7 - 1) / (4 * m)) }); // kurtosis 3 − 1.2/4
     // The GUM interval ±3.92 against ±3.88: d = 0.04, below δ = 0.05 for ndig = 2 but not δ = 0.005
     // for ndig = 3 (JCGM 101 8.2 with 7.9.2).
@@ -127,7 +127,7 @@ describe('monteCarlo: JCGM 101 9.3 (mass calibration, a non-linear model)', () =
     const high = quantile(0.975);
     const density = (cdf(high + 1e-4) - cdf(high - 1e-4)) / 2e-4;
     const sd = quantileSd(0.025, m, density);
-    expect([r.interval.low, r.interval.high]).toBeNear([low, high], { abs: 4 * sd });
+    expect([r.interval.min, r.interval.max]).toBeNear([low, high], { abs: 4 * sd });
     // The first-order GUM misses the ρW and ρR terms (their sensitivities vanish at the estimates):
     // u = 0.0539 mg, and the comparison of clause 8 fails by far at ndig = 2 (δ = 0.0005 mg).
     expect(r.gum?.standardUncertainty).toBeNear(0.0539, { abs: 5e-5 });
@@ -151,8 +151,8 @@ describe('monteCarlo: distributions, correlations and reproducibility', () => {
     }); // kurtosis 9
     const t = coverageFactor(0.95, 5);
     const density = (8 / (3 * Math.PI * Math.sqrt(5))) * (1 + (t * t) / 5) ** -3; // t₅ density: Γ(3)/(√(5π)Γ(5/2))
-    expect([r.interval.low, r.interval.high]).toBeNear([-t, t], { abs: 4 * quantileSd(0.025, m, density) });
-    expect(r.gum?.interval.high).toBeNear(t, { rel: 1e-12 });
+    expect([r.interval.min, r.interval.max]).toBeNear([-t, t], { abs: 4 * quantileSd(0.025, m, density) });
+    expect(r.gum?.interval.max).toBeNear(t, { rel: 1e-12 });
     expect(r.gumValidation?.validated).toBe(true);
   });
 

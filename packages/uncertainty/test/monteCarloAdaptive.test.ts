@@ -22,13 +22,13 @@ function spread(values: number[]): number {
 
 /** The statistics of each sequence, from the model values (mean, sd, JCGM 101 7.7 by a full sort). */
 function sequenceStatistics(values: Float64Array, perSequence: number) {
-  const out: { y: number; u: number; low: number; high: number }[] = [];
+  const out: { y: number; u: number; min: number; max: number }[] = [];
   for (let start = 0; start < values.length; start += perSequence) {
     const v = Array.from(values.subarray(start, start + perSequence));
     const y = v.reduce((x, z) => x + z, 0) / v.length;
     const u = Math.sqrt(v.reduce((x, z) => x + (z - y) ** 2, 0) / (v.length - 1));
     const { interval } = sampleCoverageIntervals(v, 0.95);
-    out.push({ y, u, low: interval.low, high: interval.high });
+    out.push({ y, u, min: interval.min, max: interval.max });
   }
   return out;
 }
@@ -50,8 +50,8 @@ describe('monteCarlo: the adaptive procedure of JCGM 101 7.9', () => {
       const s = [
         spread(first.map((q) => q.y)),
         spread(first.map((q) => q.u)),
-        spread(first.map((q) => q.low)),
-        spread(first.map((q) => q.high)),
+        spread(first.map((q) => q.min)),
+        spread(first.map((q) => q.max)),
       ];
       return { delta, s, stable: s.every((v) => 2 * v <= delta) };
     };
@@ -61,8 +61,8 @@ describe('monteCarlo: the adaptive procedure of JCGM 101 7.9', () => {
     expect([
       report.spread.value,
       report.spread.standardUncertainty,
-      report.spread.low,
-      report.spread.high,
+      report.spread.min,
+      report.spread.max,
     ]).toBeNear(last.s, { rel: 1e-9 });
     for (let h = 2; h < report.sequences; h++) expect(test(h).stable).toBe(false);
     expect(report.sequences).toBeGreaterThanOrEqual(2);

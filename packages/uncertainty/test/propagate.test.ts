@@ -193,7 +193,7 @@ describe('propagate: sensitivities and the law of propagation', () => {
     expect(r.coverageFactor).toBe(coverageFactor(0.95, 30));
     expect(r.coverageFactor).toBeNear(2.04, { abs: 0.005 }); // JCGM 100 Table G.2 has 2.04 for ν = 30 (from memory)
     expect(r.expandedUncertainty).toBeNear(r.coverageFactor * 0.5, { ulps: 1 });
-    expect(r.interval.low).toBeNear(3 - r.expandedUncertainty, { ulps: 1 });
+    expect(r.interval.min).toBeNear(3 - r.expandedUncertainty, { ulps: 1 });
     const t = propagate({
       model: ({ m }) => m!,
       inputs: { m: { value: 10, distribution: 't', scale: 0.2, degreesOfFreedom: 4 } },
@@ -265,9 +265,9 @@ describe('propagate: second-order terms (JCGM 100 5.1.2, eq. 10)', () => {
     const first = propagate(massCalibration);
     expect(first.value).toBeNear(1.234, { abs: 5e-5 });
     expect(first.standardUncertainty).toBeNear(0.0539, { abs: 5e-5 });
-    expect([first.interval.low, first.interval.high]).toBeNear([1.1285, 1.3395], { abs: 1e-4 });
+    expect([first.interval.min, first.interval.max]).toBeNear([1.1285, 1.3395], { abs: 1e-4 });
     expect(r.standardUncertainty).toBeNear(0.075, { abs: 5e-5 });
-    expect([r.interval.low, r.interval.high]).toBeNear([1.087, 1.381], { abs: 1e-4 });
+    expect([r.interval.min, r.interval.max]).toBeNear([1.087, 1.381], { abs: 1e-4 });
   });
 
   it('are refused with correlations or a vector model', () => {

@@ -7,7 +7,7 @@ import { createStrainBridge, type StrainBridge, type StrainBridgeOptions } from 
 import {
   BridgeworkError,
   checkInteger,
-  checkObject,
+  checkOptions,
   checkOneOf,
   checkPositive,
   formatValue,
@@ -37,8 +37,32 @@ export interface StrainShuntSetup {
   readonly instrument: StrainBridge;
 }
 
-export function strainShuntSetup(options: unknown): StrainShuntSetup {
-  const o = checkObject('options', options);
+/** The keys every strain shunt function reads besides its own target. */
+const sharedKeys = [
+  'gaugeOhms',
+  'gaugeFactor',
+  'arm',
+  'arrangement',
+  'completionOhms',
+  'poissonRatio',
+  'leads',
+  'sourceOhms',
+  'placement',
+  'definition',
+  'instrumentModelsLeads',
+] as const;
+
+export function strainShuntSetup(options: unknown, target: 'shuntOhms' | 'strain'): StrainShuntSetup {
+  const o = checkOptions('options', options, {
+    known: [...sharedKeys, target],
+    required: ['gaugeOhms', 'gaugeFactor', target],
+  });
+  if (o['leads'] !== undefined) {
+    checkOptions('leads', o['leads'], {
+      known: ['ohmsPerLead', 'wiring'],
+      required: ['ohmsPerLead', 'wiring'],
+    });
+  }
   const definition =
     o['definition'] === undefined
       ? 'resistance-equivalent'

@@ -2,8 +2,9 @@ import { BridgeworkError, formatValue, type SpecIssue } from '@bridgework/core';
 import { closestName } from '@bridgework/core';
 import { parseQuantity, type SiUnit } from '../units/parseQuantity.js';
 import { formatIssues } from './formatIssues.js';
-import type { ChannelDocument } from './parseChannelDocument.js';
+import { reservedNames, type ChannelDocument } from './parseChannelDocument.js';
 import { readChannelDocument } from './readChannelDocument.js';
+import { channelFileLimits } from './channelFileLimits.js';
 
 /**
  * The quantity converter handed to the channel schema: `(text, unit) => number` with `unit` one of
@@ -65,12 +66,17 @@ function isRecord(x: unknown): x is Record<string, unknown> {
   return typeof x === 'object' && x !== null && !Array.isArray(x);
 }
 
+/** Is `path` the field `at` or inside it? */
+const within = (path: string, at: string): boolean =>
+  path === at || path.startsWith(`${at}.`) || path.startsWith(`${at}[`);
+
 function unknownKeys(record: Record<string, unknown>, known: readonly string[], prefix: string): SpecIssue[] {
   return Object.keys(record)
     .filter((k) => !known.includes(k))
     .map((k) => {
       const near = closestName(k, known);
       return {
+        code: 'unknown-option' as const,
         path: `${prefix}${k}`,
         message: `unknown field${near === undefined ? `; expected one of ${known.join(', ')}` : `; did you mean '${near}'?`}`,
       };
@@ -85,9 +91,14 @@ function unknownKeys(record: Record<string, unknown>, known: readonly string[], 
  * Layout: the top level is a mapping with `channels` (required: a non-empty mapping from channel
  * name to channel spec), `project` (optional: `title`, `description`, `reference`, each a
  * string) and `$schema` (optional: a text naming the JSON Schema for editors, otherwise ignored). Names start with a letter and hold letters, digits, `_` and `-` (at most 63), so they
- * can become C identifiers and CSV headings. Unknown fields are errors (typo protection), with
- * the closest known name suggested. Issues from `validateChannel` are prefixed with
- * `channels.<name>.`.
+ * can become C identifiers and CSV headings; names that every JavaScript object carries
+ * (`constructor`, `toString`, `__proto__`...) are refused. Unknown fields are errors (typo
+ * protection), with the closest known name suggested. A file with more than
+ * `channelFileLimits.maxChannels` (1000) channels is refused before any channel is validated.
+ * Issues from `validateChannel` keep every field (code, message, limit, expected, suggestion);
+ * only their paths are prefixed with `channels.<name>.`. A number literal beyond a double's
+ * range (the document's `valueIssues`) is reported for its field instead of what the validator
+ * says about the resulting ±Infinity.
  *
  * @param document - The parsed file.
  * @param options - The channel validator.
@@ -103,10 +114,11 @@ export function validateChannelDocument<T>(
   const channels: NamedChannel<T>[] = [];
   const project: Record<string, string> = {};
   const root = document.data;
+  issues.push(...document.valueIssues.filter((v) => !within(v.path, 'channels')));
   if (!isRecord(root)) {
     issues.push({ path: '', message: `must be a mapping with a 'channels' field; got ${formatValue(root)}` });
   } else {
-    issues.push(...unknownKeys(root, topLevelKeys, ''));
+    issues.push(...unknownKeys(root, topLevelKeys, '').filter((i) => !reservedNames.has(i.path)));
     // `$schema` names the JSON Schema for editors; the command only checks that it is a text.
     if (root['$schema'] !== undefined && typeof root['$schema'] !== 'string')
       issues.push({ path: '$schema', message: `must be a text; got ${formatValue(root['$schema'])}` });
@@ -115,7 +127,9 @@ export function validateChannelDocument<T>(
       if (!isRecord(p)) {
         issues.push({ path: 'project', message: `must be a mapping; got ${formatValue(p)}` });
       } else {
-        issues.push(...unknownKeys(p, projectKeys, 'project.'));
+        issues.push(
+          ...unknownKeys(p, projectKeys, 'project.').filter((i) => !reservedNames.has(i.path.slice(8))),
+        );
         for (const k of projectKeys) {
           const v = p[k];
           if (v === undefined) continue;
@@ -132,8 +146,34 @@ export function validateChannelDocument<T>(
         path: 'channels',
         message: `must be a non-empty mapping from channel name to channel; got ${formatValue(list)}`,
       });
+    } else if (Object.keys(list).length > channelFileLimits.maxChannels) {
+      throw new BridgeworkError(
+        'invalid-spec',
+        `${document.file} has ${Object.keys(list).length} channels; a channel file may hold at most ${channelFileLimits.maxChannels}: split it into several files`,
+        {
+          param: document.file,
+          limit: channelFileLimits.maxChannels,
+          issues: [
+            {
+              code: 'out-of-range',
+              path: 'channels',
+              message: `holds ${Object.keys(list).length} channels`,
+              limit: `${channelFileLimits.maxChannels} channels`,
+              suggestion: 'split the file into several files',
+            },
+          ],
+        },
+      );
     } else {
       for (const [name, raw] of Object.entries(list)) {
+        if (reservedNames.has(name)) {
+          issues.push({
+            code: 'invalid-option',
+            path: `channels.${name}`,
+            message: `'${name}' cannot name a channel: it is a name every JavaScript object carries; choose another name`,
+          });
+          continue;
+        }
         if (!channelNamePattern.test(name)) {
           issues.push({
             path: `channels.${name}`,
@@ -142,14 +182,17 @@ export function validateChannelDocument<T>(
           });
           continue;
         }
+        const prefix = `channels.${name}`;
+        const ownIssues = document.valueIssues.filter((v) => within(v.path, prefix));
         const result = options.validateChannel(raw, parseQuantity);
+        issues.push(...ownIssues);
         for (const issue of result.issues) {
-          issues.push({
-            path: `channels.${name}${issue.path === '' ? '' : `.${issue.path}`}`,
-            message: issue.message,
-          });
+          const path = `${prefix}${issue.path === '' ? '' : `.${issue.path}`}`;
+          // A number beyond a double's range is named by the parser; the schema would only see ±Infinity.
+          if (ownIssues.some((v) => within(path, v.path))) continue;
+          issues.push({ ...issue, path });
         }
-        if (result.issues.length === 0 && result.value !== undefined)
+        if (ownIssues.length === 0 && result.issues.length === 0 && result.value !== undefined)
           channels.push({ name, spec: result.value });
       }
     }

@@ -1,6 +1,18 @@
-import { BridgeworkError } from '@bridgework/core';
+import { BridgeworkError, type SpecIssue } from '@bridgework/core';
 import { checkJsonSyntax } from '../internal/checkJsonSyntax.js';
-import { isMap, isScalar, isSeq, LineCounter, parseDocument, type Document, type Node } from 'yaml';
+import {
+  isAlias,
+  isMap,
+  isScalar,
+  isSeq,
+  LineCounter,
+  Parser,
+  parseDocument,
+  type CST,
+  type Document,
+  type Node,
+} from 'yaml';
+import { channelFileLimits } from './channelFileLimits.js';
 
 /** A place in a text file: 1-based line and column. */
 export interface SourcePosition {
@@ -21,6 +33,11 @@ export interface ChannelDocument {
   readonly syntax: ChannelFileSyntax;
   /** The content as plain JavaScript values (objects, arrays, strings, numbers, booleans, null). */
   readonly data: unknown;
+  /**
+   * Problems of single values that parsing found and that belong to a field (a number literal
+   * beyond the range of a double, such as `1e400`): reported with the field's other problems.
+   */
+  readonly valueIssues: readonly SpecIssue[];
   /**
    * Where a field is written: `'channels.hook.bridge.ohmsPerLead'` or `'channels[0].adc'`. For a
    * field that is missing, the position of its deepest existing parent; `undefined` when not even
@@ -77,7 +94,7 @@ function positionOf(text: string, offset: number): SourcePosition {
 }
 
 function parseJson(text: string, file: string): unknown {
-  const problem = checkJsonSyntax(text);
+  const problem = checkJsonSyntax(text, channelFileLimits.maxDepth);
   if (problem !== undefined) {
     const p = positionOf(text, problem.offset);
     throw parseError(`${file}:${p.line}:${p.column}: malformed JSON: ${problem.message}`, file);
@@ -86,27 +103,199 @@ function parseJson(text: string, file: string): unknown {
 }
 
 /**
+ * The offset of the first collection nested deeper than `limit` in YAML's concrete syntax tree,
+ * found without recursion (the tree is built by yaml's iterative parser, so depth costs no stack
+ * there; only building values from it would).
+ */
+function tooDeep(source: string, limit: number): number | undefined {
+  for (const token of new Parser().parse(source)) {
+    const stack: [CST.Token | undefined, number][] = [[token, 0]];
+    while (stack.length > 0) {
+      const [t, depth] = stack.pop() as [CST.Token | undefined, number];
+      if (t === undefined) continue;
+      if (t.type === 'document') stack.push([t.value, depth]);
+      else if (t.type === 'block-map' || t.type === 'block-seq' || t.type === 'flow-collection') {
+        if (depth + 1 > limit) return t.offset;
+        for (const item of t.items) {
+          if ('key' in item && item.key !== undefined && item.key !== null) stack.push([item.key, depth + 1]);
+          if ('value' in item && item.value !== undefined) stack.push([item.value, depth + 1]);
+        }
+      }
+    }
+  }
+  return undefined;
+}
+
+/** Is this literal a non-zero number written with more digits than a double can tell from 0? */
+function underflows(source: string, value: number): boolean {
+  return (
+    value === 0 &&
+    /^[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?$/.test(source) &&
+    /[1-9]/.test(source.replace(/[eE].*$/, ''))
+  );
+}
+
+/** Names that plain JavaScript objects carry already (`constructor`, `toString`, `__proto__`...). */
+export const reservedNames: ReadonlySet<string> = new Set(Object.getOwnPropertyNames(Object.prototype));
+
+/**
+ * A key named like a member of every JavaScript object is no field of a channel file: an
+ * unknown field wherever it stands (names of channels, directly under `channels`, are judged by
+ * the loader).
+ */
+function reservedKey(key: string, parent: string, path: string, issues: SpecIssue[]): void {
+  if (!reservedNames.has(key) || parent === 'channels') return;
+  issues.push({
+    code: 'unknown-option',
+    path,
+    message: `unknown field: '${key}' is a name every JavaScript object carries, never a field of a channel file`,
+  });
+}
+
+/** JSON read without a usable syntax tree: `JSON.parse` gives ±Infinity only for a literal that overflows. */
+function nonFiniteNumbers(value: unknown, path: string, issues: SpecIssue[]): void {
+  if (typeof value === 'number' && !Number.isFinite(value)) {
+    issues.push({
+      code: 'out-of-range',
+      path,
+      message: 'the number is beyond the largest a double can hold (about 1.8e308)',
+      limit: '1.7976931348623157e308',
+    });
+  } else if (Array.isArray(value)) value.forEach((v, i) => nonFiniteNumbers(v, `${path}[${i}]`, issues));
+  else if (typeof value === 'object' && value !== null) {
+    for (const [k, v] of Object.entries(value)) {
+      const child = path === '' ? k : `${path}.${k}`;
+      reservedKey(k, path, child, issues);
+      nonFiniteNumbers(v, child, issues);
+    }
+  }
+}
+
+interface Walk {
+  readonly issues: SpecIssue[];
+  readonly problems: { readonly offset: number; readonly message: string }[];
+  readonly sizes: Map<Node, { nodes: number; depth: number }>;
+  aliasNodes: number;
+}
+
+/**
+ * Checks the composed YAML tree (at most `maxDepth` deep, so recursion is bounded): every alias
+ * refers to an anchor before it and outside itself; the nodes that aliases copy, and the depth they
+ * reach, stay within the limits; number literals fit a double. Returns the node count and depth of
+ * `node` with aliases expanded.
+ */
+function walk(node: unknown, path: string, doc: Document, w: Walk): { nodes: number; depth: number } {
+  if (isAlias(node)) {
+    const offset = node.range?.[0] ?? 0;
+    const target = node.resolve(doc);
+    const size = target === undefined ? undefined : w.sizes.get(target as Node);
+    if (target === undefined) {
+      w.problems.push({
+        offset,
+        message: `the alias *${node.source} has no anchor &${node.source} before it`,
+      });
+      return { nodes: 1, depth: 0 };
+    }
+    if (size === undefined) {
+      w.problems.push({ offset, message: `the alias *${node.source} refers to a node that contains it` });
+      return { nodes: 1, depth: 0 };
+    }
+    w.aliasNodes += size.nodes;
+    if (w.aliasNodes > channelFileLimits.maxAliasNodes) {
+      w.problems.push({
+        offset,
+        message: `aliases copy more than ${channelFileLimits.maxAliasNodes} nodes in all; a channel file may share a block between channels, not multiply it`,
+      });
+      throw w; // stop walking: the count only grows from here
+    }
+    return size;
+  }
+  let nodes = 1;
+  let depth = 0;
+  if (isMap(node) || isSeq(node)) {
+    node.items.forEach((item, i) => {
+      const isPair = isMap(node);
+      const pair = item as { key: unknown; value: unknown };
+      const key = isPair ? (isScalar(pair.key) ? String(pair.key.value) : '?') : `[${i}]`;
+      const child = isPair ? pair.value : item;
+      const childPath = isPair ? (path === '' ? key : `${path}.${key}`) : `${path}${key}`;
+      if (isPair) reservedKey(key, path, childPath, w.issues);
+      if (isPair && !isScalar(pair.key)) {
+        // A list, mapping or alias as a key: JavaScript objects have text keys only.
+        w.problems.push({
+          offset: (pair.key as Node | null)?.range?.[0] ?? node.range?.[0] ?? 0,
+          message: 'a key must be a plain text (a name), not a list, a mapping or an alias',
+        });
+        throw w;
+      }
+      const s = walk(child, childPath, doc, w);
+      nodes += s.nodes;
+      depth = Math.max(depth, s.depth);
+    });
+    depth += 1;
+    if (depth > channelFileLimits.maxDepth) {
+      w.problems.push({
+        offset: node.range?.[0] ?? 0,
+        message: `nested more than ${channelFileLimits.maxDepth} levels deep (through aliases)`,
+      });
+      throw w;
+    }
+  } else if (isScalar(node) && typeof node.value === 'number') {
+    const source = (node.source ?? '').trim();
+    const written = source === '' ? String(node.value) : source;
+    if (!Number.isFinite(node.value) && !/^[-+]?\.(?:inf|Inf|INF|nan|NaN|NAN)$/.test(written)) {
+      w.issues.push({
+        code: 'out-of-range',
+        path,
+        message: `the number ${written} is beyond the largest a double can hold (about 1.8e308)`,
+        limit: '1.7976931348623157e308',
+      });
+    } else if (underflows(written, node.value)) {
+      w.issues.push({
+        code: 'out-of-range',
+        path,
+        message: `the number ${written} is too small for a double and would be read as 0 (the smallest is about 4.9e-324)`,
+        limit: '4.9e-324',
+      });
+    }
+  }
+  const size = { nodes, depth };
+  if (node !== null && typeof node === 'object') w.sizes.set(node as Node, size);
+  return size;
+}
+
+/**
  * Parses the text of a channel file (YAML 1.2 or JSON) with a map of field paths to positions.
  *
  * @remarks
  * YAML is read with the `yaml` package's core schema: no custom tags (an unknown tag such as
- * `!include` is an error, not a string), duplicate keys are errors, no merge keys, no dates, and
- * aliases are limited (so a crafted file cannot expand without bound). Every syntax error is
- * reported with its line and column, all at once:
+ * `!include` is an error, not a string), duplicate keys are errors, no merge keys, no dates.
+ * Every syntax error is reported with its line and column, all at once:
  * `hopper.yaml:7:5: malformed YAML: Map keys must be unique`.
  *
+ * The file must keep the limits of {@link channelFileLimits}: at most 1 MiB of text, 32 levels
+ * of nesting (checked on the syntax tree before any value is built), and aliases that copy at
+ * most 10 000 nodes in all; an alias must refer to an anchor written before it and outside
+ * itself. Each is a `parse-error` with the position.
+ *
  * JSON is checked against the strict JSON grammar first (RFC 8259: no comments, no trailing
- * commas, no NaN; the first error is named with its line and column), then read again through the YAML parser (JSON is YAML 1.2) to find duplicate keys,
- * which `JSON.parse` would silently drop, and to map field paths to positions.
+ * commas, no NaN; the first error is named with its line and column), then read again through
+ * the YAML parser (JSON is YAML 1.2) to find duplicate keys, which `JSON.parse` would silently
+ * drop, and to map field paths to positions.
  *
  * Values are returned as they are written; YAML's `.nan` and `.inf` become NaN and Infinity and
- * must be rejected by the schema where a finite number is needed.
+ * must be rejected by the schema where a finite number is needed. A number literal beyond the
+ * range of a double (`1e400`), or a non-zero one that would be read as 0 (`1e-400`), is a
+ * problem of its field: it is listed in `valueIssues` with the field's path. So is a key named
+ * like a member of every JavaScript object (`constructor`, `toString`, `__proto__`...): no field
+ * of a channel file has such a name, so it is an unknown field wherever it stands.
  *
  * @param text - The file's text.
  * @param file - The file name for messages.
  * @param syntax - `'yaml'` or `'json'`. Default: `'json'` for a `.json` name, else `'yaml'`.
  * @returns The parsed document.
- * @throws {@link @bridgework/core!BridgeworkError} `parse-error` listing every syntax error with its position.
+ * @throws {@link @bridgework/core!BridgeworkError} `parse-error` listing every syntax error with its position,
+ * or naming the limit that the file passes.
  * @example
  * ```ts
  * const doc = parseChannelDocument('channels:\n  hook:\n    excitation: { volts: 5 V }\n', 'hook.yaml');
@@ -119,44 +308,78 @@ export function parseChannelDocument(
   syntax?: ChannelFileSyntax,
 ): ChannelDocument {
   const kind = syntax ?? (/\.json$/i.test(file) ? 'json' : 'yaml');
+  if (text.length > channelFileLimits.maxBytes) {
+    throw parseError(
+      `${file} is larger than a channel file may be (${channelFileLimits.maxBytes} bytes, 1 MiB); split it into several files`,
+      file,
+    );
+  }
   const source = text.replace(/^\uFEFF/, '');
   const json = kind === 'json' ? parseJson(source, file) : undefined;
+  const deep = tooDeep(source, channelFileLimits.maxDepth);
+  if (deep !== undefined) {
+    const p = positionOf(source, deep);
+    throw parseError(
+      `${file}:${p.line}:${p.column}: malformed ${kind === 'json' ? 'JSON' : 'YAML'}: nested more than ${channelFileLimits.maxDepth} levels deep`,
+      file,
+    );
+  }
   const lines = new LineCounter();
   const doc = parseDocument(source, {
     lineCounter: lines,
-    prettyErrors: true,
+    // Positions are computed from each error's offset below; the pretty context is not needed.
+    prettyErrors: false,
     uniqueKeys: true,
     merge: false,
   });
+  const at = (offset: number): string => {
+    const { line, col } = lines.linePos(offset);
+    return `${file}:${line}:${col}`;
+  };
   const problems = [...doc.errors, ...doc.warnings];
   if (kind === 'json') {
     const duplicates = doc.errors.filter((e) => e.code === 'DUPLICATE_KEY');
     if (duplicates.length > 0) {
-      throw parseError(
-        duplicates
-          .map((e) => `${file}:${e.linePos?.[0].line}:${e.linePos?.[0].col}: duplicate key in JSON`)
-          .join('\n'),
-        file,
-      );
+      throw parseError(duplicates.map((e) => `${at(e.pos[0])}: duplicate key in JSON`).join('\n'), file);
     }
-    const usable = doc.errors.length === 0;
-    return { file, syntax: kind, data: json, locate: usable ? locator(doc, lines) : () => undefined };
-  }
-  if (problems.length > 0) {
+  } else if (problems.length > 0) {
     throw parseError(
-      problems
-        .map((e) => {
-          const p = e.linePos?.[0];
-          return `${file}${p === undefined ? '' : `:${p.line}:${p.col}`}: malformed YAML: ${firstLine(e.message)}`;
-        })
+      problems.map((e) => `${at(e.pos[0])}: malformed YAML: ${firstLine(e.message)}`).join('\n'),
+      file,
+    );
+  }
+  const usable = doc.errors.length === 0;
+  const w: Walk = { issues: [], problems: [], sizes: new Map(), aliasNodes: 0 };
+  if (usable) {
+    try {
+      walk(doc.contents, '', doc, w);
+    } catch (e) {
+      if (e !== w) throw e;
+    }
+  }
+  if (w.problems.length > 0) {
+    throw parseError(
+      w.problems
+        .map((p) => `${at(p.offset)}: malformed ${kind === 'json' ? 'JSON' : 'YAML'}: ${p.message}`)
         .join('\n'),
       file,
     );
   }
+  if (kind === 'json' && !usable) nonFiniteNumbers(json, '', w.issues);
+  let data: unknown = json;
+  if (kind === 'yaml') {
+    try {
+      data = doc.toJS({ maxAliasCount: channelFileLimits.maxAliasNodes });
+    } catch (e) {
+      // The walk above has checked every alias; this is the yaml package's own guard.
+      throw parseError(`${file}: malformed YAML: ${(e as Error).message}`, file);
+    }
+  }
   return {
     file,
     syntax: kind,
-    data: doc.toJS({ maxAliasCount: 100 }) as unknown,
-    locate: locator(doc, lines),
+    data,
+    valueIssues: w.issues,
+    locate: usable ? locator(doc, lines) : () => undefined,
   };
 }

@@ -1,9 +1,15 @@
-import { createChannel, type Channel, type ChannelSpec } from '@bridgework/channel';
-import { BridgeworkError, isBridgeworkError } from '@bridgework/core';
-import { selectChannels, validateChannelDocument, type ChannelFile } from '../channelFile/loadChannelFile.js';
+import { createChannel, validateChannelSpec, type Channel, type ChannelSpec } from '@bridgework/channel';
+import { BridgeworkError, isBridgeworkError, type SpecIssue } from '@bridgework/core';
+import {
+  selectChannels,
+  validateChannelDocument,
+  type ChannelValidation,
+  type ChannelFile,
+  type QuantityParser,
+} from '../channelFile/loadChannelFile.js';
+import { formatIssues } from '../channelFile/formatIssues.js';
 import type { ChannelDocument } from '../channelFile/parseChannelDocument.js';
 import { readChannelDocument } from '../channelFile/readChannelDocument.js';
-import { validateChannelEntry } from './validateChannelEntry.js';
 
 /** One channel of a file, ready to use. */
 export interface LoadedChannel {
@@ -28,6 +34,59 @@ export interface LoadedChannels {
 }
 
 /**
+ * Validates one entry of a file's `channels` mapping with the channel package's
+ * `validateChannelSpec`, once: its issues are passed on as they are (the loader prefixes their
+ * paths). The channel's name is its key in the file, so a `name` field inside the entry is a
+ * problem of the file.
+ */
+export function validateFileEntry(
+  raw: unknown,
+  parseQuantity: QuantityParser,
+): ChannelValidation<ChannelSpec> {
+  const hasName = typeof raw === 'object' && raw !== null && Object.hasOwn(raw, 'name');
+  const nameIssue: SpecIssue[] = hasName
+    ? [
+        {
+          code: 'unknown-option',
+          path: 'name',
+          message: "is not a field of a channel in a file: the channel's name is its key",
+        },
+      ]
+    : [];
+  const entry = hasName ? Object.fromEntries(Object.entries(raw).filter(([k]) => k !== 'name')) : raw;
+  const result = validateChannelSpec(entry, {
+    convertUnit: (text, unit) => parseQuantity(text, unit as Parameters<QuantityParser>[1]),
+  });
+  const issues = [...nameIssue, ...result.issues];
+  return issues.length === 0 && result.ok ? { value: result.value, issues } : { issues };
+}
+
+/**
+ * The error of a channel step (making it, its budget, its constants) with the file, the channel
+ * and the position: the error's issues, when it has them, with their paths inside the file;
+ * otherwise its message as it is, under the channel's path.
+ */
+function channelError(document: ChannelDocument, name: string, e: BridgeworkError): BridgeworkError {
+  const prefix = `channels.${name}`;
+  const issues: SpecIssue[] =
+    e.issues.length > 0
+      ? e.issues.map((i) => ({ ...i, path: i.path === '' ? prefix : `${prefix}.${i.path}` }))
+      : [{ code: e.code, path: prefix, message: e.message }];
+  const count = issues.length === 1 ? 'a problem' : `${issues.length} problems`;
+  return new BridgeworkError(
+    e.code,
+    `${document.file} has ${count}:\n${formatIssues(document.file, issues, document.locate).trimEnd()}`,
+    {
+      param: issues.length === 1 ? (issues[0] as SpecIssue).path : prefix,
+      ...(e.value === undefined ? {} : { value: e.value }),
+      ...(e.limit === undefined ? {} : { limit: e.limit }),
+      issues,
+      cause: e,
+    },
+  );
+}
+
+/**
  * Reads and validates a channel file and makes the channels named on the command line.
  *
  * @remarks
@@ -44,7 +103,7 @@ export interface LoadedChannels {
  */
 export async function loadChannels(path: string, names?: readonly string[]): Promise<LoadedChannels> {
   const document = await readChannelDocument(path);
-  const file = validateChannelDocument(document, { validateChannel: validateChannelEntry });
+  const file = validateChannelDocument(document, { validateChannel: validateFileEntry });
   const rawChannels = (document.data as { channels: Record<string, unknown> }).channels;
   const channels = selectChannels(file, names).map(({ name, spec }) => {
     const named: ChannelSpec = { ...spec, name };
@@ -53,18 +112,7 @@ export async function loadChannels(path: string, names?: readonly string[]): Pro
       channel = createChannel(named);
     } catch (e) {
       if (!isBridgeworkError(e)) throw e;
-      const message = e.message.replace(`channel '${name}': `, '');
-      const where = document.locate(`channels.${name}`);
-      const at = where === undefined ? path : `${path}:${where.line}:${where.column}`;
-      throw new BridgeworkError(
-        'invalid-spec',
-        `${path} has a problem:\n${at}: channels.${name}: ${message}`,
-        {
-          param: path,
-          issues: [{ path: `channels.${name}`, message }],
-          cause: e,
-        },
-      );
+      throw channelError(document, name, e);
     }
     return { name, spec: named, raw: rawChannels[name], channel };
   });
@@ -77,10 +125,9 @@ export async function loadChannels(path: string, names?: readonly string[]): Pro
  * `hook.yaml:7:5: channels.hook.output.range: …`.
  *
  * @remarks
- * Some problems of a channel show only when it is used, not when it is made: an `output.range`
- * beyond the converter's full scale, for example, has no budget point. The error keeps its code
- * (so the exit code is that of bad input); the budget point is named for what it is, the end of
- * the span of larger magnitude.
+ * Some problems of a channel show only when it is used, not when it is made. The error keeps its
+ * code (so the exit code is that of bad input) and its message text; its issues, when it has
+ * them, are placed in the file by their paths.
  *
  * @param loaded - The channel file.
  * @param channel - The channel.
@@ -94,19 +141,6 @@ export function inChannel<T>(loaded: LoadedChannels, channel: LoadedChannel, ste
     return step();
   } catch (e) {
     if (!isBridgeworkError(e)) throw e;
-    const span = e.param === 'at' || e.param === 'output.range';
-    const path = `channels.${channel.name}${span ? '.output.range' : ''}`;
-    const where = loaded.document.locate(path);
-    const at = where === undefined ? loaded.file.file : `${loaded.file.file}:${where.line}:${where.column}`;
-    const message = e.message
-      .replace(`channel '${channel.name}': `, '')
-      .replace(/^`at` must map/, 'the budget point (the end of the span of larger magnitude) must map')
-      .replace(/^`output\.range` must/, 'must');
-    throw new BridgeworkError(e.code, `${at}: ${path}: ${message}`, {
-      param: path,
-      ...(e.value === undefined ? {} : { value: e.value }),
-      ...(e.limit === undefined ? {} : { limit: e.limit }),
-      cause: e,
-    });
+    throw channelError(loaded.document, channel.name, e);
   }
 }

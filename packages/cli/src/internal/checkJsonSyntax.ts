@@ -1,9 +1,13 @@
 /**
  * A strict JSON syntax check (RFC 8259) that finds the offset of the first error, because V8's
  * `JSON.parse` messages name a position only for some errors and change between versions.
- * Returns `undefined` for valid JSON, else the offset and what was expected there.
+ * Returns `undefined` for valid JSON, else the offset and what was expected there. Objects and
+ * arrays nested more than `maxDepth` levels are an error (the check recurses once per level).
  */
-export function checkJsonSyntax(text: string): { offset: number; message: string } | undefined {
+export function checkJsonSyntax(
+  text: string,
+  maxDepth = 512,
+): { offset: number; message: string } | undefined {
   let i = 0;
   const n = text.length;
   class Stop {
@@ -49,9 +53,9 @@ export function checkJsonSyntax(text: string): { offset: number; message: string
     i += (m as RegExpExecArray)[0].length;
   };
   const value = (depth: number): void => {
-    if (depth > 512) fail('nested too deeply');
     space();
     const c = text[i];
+    if ((c === '{' || c === '[') && depth >= maxDepth) fail(`nested more than ${maxDepth} levels deep`);
     if (c === '{') {
       i++;
       space();

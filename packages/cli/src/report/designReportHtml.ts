@@ -13,6 +13,14 @@ import { formatCode, formatNumber, formatPercent, formatProbability, formatState
 import { plainTextStyle } from '../terminal/textStyle.js';
 import { noiseSourceName } from './noiseSourceName.js';
 import { summaryColumns, summaryRows } from './summaryTable.js';
+import {
+  allDust,
+  budgetLineName,
+  dustLimit,
+  gaugePowerLabel,
+  resolutionFormulas,
+  shownFigure,
+} from './reportWording.js';
 
 /** Options of {@link designReportHtml}. */
 export interface DesignReportHtmlOptions {
@@ -41,7 +49,7 @@ function scaled(values: ArrayLike<number>, factor: number): Float64Array {
   return Float64Array.from(values as ArrayLike<number>, (v) => v * factor);
 }
 
-function plots(c: ChannelDesign, points: number): ReportBlock {
+function plots(c: ChannelDesign, points: number): ReportBlock[] {
   const { display, budget } = c;
   const name = c.loaded.name;
   const curves = channelCurves(c.loaded.channel, points);
@@ -66,23 +74,25 @@ function plots(c: ChannelDesign, points: number): ReportBlock {
       },
     ],
   });
-  const nonlinearity = linePlot({
-    id: `${name}-nonlinearity`,
-    title: 'Nonlinearity of a linear map',
-    x: quantityAxis,
-    y: { label: 'Exact map − terminal line', unit: display.unit },
-    series: [{ name: 'nonlinearity error', x, y: scaled(curves.nonlinearity, display.factor) }],
-  });
+  // A linear map's nonlinearity is rounding left by double arithmetic: no curve of it is drawn.
+  const nonlinearity = allDust(c, curves.nonlinearity)
+    ? undefined
+    : linePlot({
+        id: `${name}-nonlinearity`,
+        title: 'Nonlinearity of a linear map',
+        x: quantityAxis,
+        y: { label: 'Exact map − terminal line', unit: display.unit },
+        series: [{ name: 'nonlinearity error', x, y: scaled(curves.nonlinearity, display.factor) }],
+      });
   const contributing = budget.lines.filter((l) => l.standardUncertainty !== undefined);
   const p = formatProbability(budget.combined.coverage);
+  // Standard uncertainties only: the expanded uncertainty is another quantity (k·u_c), named in the title.
   const errorBudget = barChart({
     id: `${name}-budget`,
-    title: `Error budget at ${formatStated(budget.at * display.factor)} ${display.unit}`,
-    categories: [
-      ...contributing.map((l) => l.name),
-      'combined standard uncertainty',
-      `expanded uncertainty (${p})`,
-    ],
+    title:
+      `Error budget at ${formatStated(budget.at * display.factor)} ${display.unit} ` +
+      `(expanded uncertainty ${formatNumber(budget.combined.expandedUncertainty * display.factor)} ${display.unit}, ${p})`,
+    categories: [...contributing.map((l) => l.name), 'combined standard uncertainty'],
     value: { label: 'Standard uncertainty', unit: display.unit },
     series: [
       {
@@ -90,11 +100,10 @@ function plots(c: ChannelDesign, points: number): ReportBlock {
         values: [
           ...contributing.map((l) => (l.standardUncertainty as number) * display.factor),
           budget.combined.standardUncertainty * display.factor,
-          budget.combined.expandedUncertainty * display.factor,
         ],
       },
     ],
-    emphasize: [contributing.length, contributing.length + 1],
+    emphasize: [contributing.length],
   });
   const terms = budget.noise.terms.filter((t) => t.rms > 0);
   const noise = barChart({
@@ -117,7 +126,18 @@ function plots(c: ChannelDesign, points: number): ReportBlock {
     ],
     emphasize: [terms.length],
   });
-  return { kind: 'plots', plots: [output, nonlinearity, errorBudget, noise] };
+  if (nonlinearity === undefined) {
+    return [
+      { kind: 'plots', plots: [output, errorBudget, noise] },
+      {
+        kind: 'text',
+        text:
+          `The exact map is linear: it departs from the terminal line by less than ${formatNumber(dustLimit(c), 2)} ${display.unit} ` +
+          '(10⁻¹² of the span, the rounding of double-precision arithmetic) anywhere on the span, so no nonlinearity curve is drawn.',
+      },
+    ];
+  }
+  return [{ kind: 'plots', plots: [output, nonlinearity, errorBudget, noise] }];
 }
 
 function channelSection(c: ChannelDesign, points: number): ReportSection {
@@ -139,7 +159,7 @@ function channelSection(c: ChannelDesign, points: number): ReportSection {
         `expanded uncertainty ${s(budget.combined.expandedUncertainty)} ${u} (${p}, k = ${formatNumber(budget.combined.coverageFactor)}).`,
     },
     { kind: 'checks', checks: c.checks.map((k) => ({ name: k.name, ok: k.ok, detail: k.detail })) },
-    plots(c, points),
+    ...plots(c, points),
     {
       kind: 'table',
       caption: `Error budget at ${st(budget.at)} ${u}`,
@@ -152,9 +172,9 @@ function channelSection(c: ChannelDesign, points: number): ReportSection {
       ],
       rows: [
         ...budget.lines.map((l) => [
-          l.name,
-          s(l.value),
-          l.standardUncertainty === undefined ? '—' : s(l.standardUncertainty),
+          budgetLineName(l),
+          shownFigure(c, l.value),
+          l.standardUncertainty === undefined ? '—' : shownFigure(c, l.standardUncertainty),
           l.standardUncertainty === undefined
             ? 'informative'
             : uc > 0
@@ -200,12 +220,28 @@ function channelSection(c: ChannelDesign, points: number): ReportSection {
       rows: [
         ['one converter code', s(budget.resolution.quantityPerCode), u],
         ['rms noise', s(budget.resolution.rms), u],
-        ['noise-free resolution (peak-to-peak)', s(budget.resolution.noiseFree), u],
-        ['noise-free divisions over the span', String(Math.floor(budget.resolution.noiseFreeCounts)), ''],
-        ["effective bits (converter's full scale)", budget.resolution.effectiveBits.toFixed(2), 'bit'],
-        ["noise-free bits (converter's full scale)", budget.resolution.noiseFreeBits.toFixed(2), 'bit'],
-        ['largest power in one gauge', formatNumber(budget.frontEnd.value.gaugeWatts * 1e3), 'mW'],
+        ['noise-free resolution (peak-to-peak noise, 6.6 × rms)', s(budget.resolution.noiseFree), u],
+        [
+          'noise-free divisions over the span (span / peak-to-peak noise)',
+          String(Math.floor(budget.resolution.noiseFreeCounts)),
+          '',
+        ],
+        [
+          `${resolutionFormulas.rms.name} = ${resolutionFormulas.rms.formula} (${resolutionFormulas.rms.alias})`,
+          budget.resolution.effectiveBits.toFixed(2),
+          'bit',
+        ],
+        [
+          `${resolutionFormulas.peakToPeak.name} = ${resolutionFormulas.peakToPeak.formula} (${resolutionFormulas.peakToPeak.alias})`,
+          budget.resolution.noiseFreeBits.toFixed(2),
+          'bit',
+        ],
+        [gaugePowerLabel(c), formatNumber(budget.frontEnd.value.gaugeWatts * 1e3), 'mW'],
       ],
+    },
+    {
+      kind: 'text',
+      text: sentence(`the bits are over the converter's full scale: ${resolutionFormulas.where}`),
     },
     {
       kind: 'text',

@@ -6,6 +6,7 @@ import type { ChannelDesign, DesignReport } from './designReport.js';
 import { formatCode, formatNumber, formatPercent, formatProbability, formatStated } from './formatNumber.js';
 import { noiseSourceName } from './noiseSourceName.js';
 import { summaryColumns, summaryRows } from './summaryTable.js';
+import { budgetLineName, gaugePowerLabel, resolutionFormulas, shownFigure } from './reportWording.js';
 
 const WIDTH = 100;
 
@@ -29,9 +30,9 @@ function budgetTable(c: ChannelDesign): string {
   const { budget, display } = c;
   const uc = budget.combined.standardUncertainty;
   const rows = budget.lines.map((l) => [
-    l.kind === 'resolution' ? `${l.name} (one code)` : l.name,
-    shown(c, l.value),
-    l.standardUncertainty === undefined ? '—' : shown(c, l.standardUncertainty),
+    budgetLineName(l),
+    shownFigure(c, l.value),
+    l.standardUncertainty === undefined ? '—' : shownFigure(c, l.standardUncertainty),
     l.standardUncertainty === undefined
       ? 'informative'
       : uc > 0
@@ -88,10 +89,14 @@ function resolutionText(c: ChannelDesign): string {
   const u = c.display.unit;
   const text =
     `resolution: one code is ${shown(c, r.quantityPerCode)} ${u}; noise ${shown(c, r.rms)} ${u} rms, ` +
-    `${shown(c, r.noiseFree)} ${u} noise-free (peak-to-peak); ${Math.floor(r.noiseFreeCounts)} noise-free divisions ` +
-    `over the span; ${r.effectiveBits.toFixed(1)} effective bits and ${r.noiseFreeBits.toFixed(1)} noise-free bits ` +
-    `over the converter's full scale`;
-  return `${wrapText(text, WIDTH - 2).join('\n  ')}\n`;
+    `${shown(c, r.noiseFree)} ${u} peak-to-peak (noise-free resolution); ${Math.floor(r.noiseFreeCounts)} noise-free ` +
+    `divisions over the span (span / peak-to-peak noise)`;
+  const { rms, peakToPeak, where } = resolutionFormulas;
+  const bits =
+    `resolution over the converter's full scale (${where}): ` +
+    `${rms.name} ${r.effectiveBits.toFixed(1)} bits = ${rms.formula} (${rms.alias}); ` +
+    `${peakToPeak.name} ${r.noiseFreeBits.toFixed(1)} bits = ${peakToPeak.formula} (${peakToPeak.alias})`;
+  return [text, bits].map((t) => `${wrapText(t, WIDTH - 2).join('\n  ')}\n`).join('');
 }
 
 function checksText(c: ChannelDesign, style: TextStyle): string {
@@ -100,7 +105,7 @@ function checksText(c: ChannelDesign, style: TextStyle): string {
     const mark = k.ok ? style.green('pass') : style.red(style.bold('FAIL'));
     lines.push(`  ${mark}  ${k.name}: ${k.detail}`);
   }
-  lines.push(`largest power in one gauge: ${formatNumber(c.budget.frontEnd.value.gaugeWatts * 1e3, 3)} mW`);
+  lines.push(`${gaugePowerLabel(c)}: ${formatNumber(c.budget.frontEnd.value.gaugeWatts * 1e3, 3)} mW`);
   return `${lines.join('\n')}\n`;
 }
 
@@ -134,7 +139,8 @@ function channelText(c: ChannelDesign, style: TextStyle): string {
  * @remarks
  * Quantities are shown in the unit people read (µε, kN, mV/V; see {@link displayUnit}); the
  * models behind each line are in the JSON and HTML reports. Lines are at most about 100 columns.
- * The text holds no date, so the same file gives the same report.
+ * The text holds no date, so the same file gives the same report. Figures below 10⁻¹² of the
+ * span's width (numerical dust, `DUST_FRACTION`) are shown as `< limit`.
  *
  * @param report - The design report.
  * @param style - Colours (plain when writing to a file or pipe).

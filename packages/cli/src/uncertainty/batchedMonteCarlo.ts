@@ -1,11 +1,6 @@
 import type { Channel, ChannelBudget } from '@bridgework/channel';
-import { BridgeworkError, checkInteger } from '@bridgework/core';
-import {
-  sampleCoverageIntervals,
-  validateGum,
-  type GumValidation,
-  type Interval,
-} from '@bridgework/uncertainty';
+import { BridgeworkError, checkInteger, type Interval } from '@bridgework/core';
+import { sampleCoverageIntervals, validateGum, type GumValidation } from '@bridgework/uncertainty';
 
 /** The most trials in one batch (one progress step). */
 export const BATCH_TRIALS = 10_000;

@@ -43,22 +43,22 @@ function channelText(c: ChannelUncertainty, style: TextStyle): string {
       'Monte Carlo (JCGM 101), symmetric',
       fixed(result.value * f, d),
       formatNumber(result.standardUncertainty * f),
-      fixed(result.interval.low * f, d),
-      fixed(result.interval.high * f, d),
+      fixed(result.interval.min * f, d),
+      fixed(result.interval.max * f, d),
     ],
     [
       'Monte Carlo (JCGM 101), shortest',
       '',
       '',
-      fixed(result.shortestInterval.low * f, d),
-      fixed(result.shortestInterval.high * f, d),
+      fixed(result.shortestInterval.min * f, d),
+      fixed(result.shortestInterval.max * f, d),
     ],
     [
       `GUM (JCGM 100), k = ${formatNumber(gum.coverageFactor)}`,
       fixed(gum.value * f, d),
       formatNumber(gum.standardUncertainty * f),
-      fixed(gum.interval.low * f, d),
-      fixed(gum.interval.high * f, d),
+      fixed(gum.interval.min * f, d),
+      fixed(gum.interval.max * f, d),
     ],
   ];
   const table = formatTable(

@@ -1,5 +1,5 @@
 /**
- * The example channel file of the demo, examples/footbridge-monitoring.yaml, and its three
+ * The example channel file of the demo, packages/cli/demo/footbridge-monitoring.yaml, and its three
  * channels restated here by hand as channel specs in plain SI numbers. The file writes many of
  * these values with units ("35 m", "205 GPa", "0.5 %", "561 mm^2", "15 degC"); the tests build
  * the channels from these specs with the channel package directly and compare, so a unit read
@@ -8,12 +8,10 @@
 import { fileURLToPath } from 'node:url';
 import type { ChannelSpec } from '@bridgework/channel';
 
-export const examplePath = fileURLToPath(
-  new URL('../../../../examples/footbridge-monitoring.yaml', import.meta.url),
-);
+export const examplePath = fileURLToPath(new URL('../../demo/footbridge-monitoring.yaml', import.meta.url));
 
 /** The path as the command shows it when run from the repository root. */
-export const exampleShown = 'examples/footbridge-monitoring.yaml';
+export const exampleShown = 'packages/cli/demo/footbridge-monitoring.yaml';
 
 export const repoRoot = fileURLToPath(new URL('../../../../', import.meta.url));
 

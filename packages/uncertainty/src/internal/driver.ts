@@ -4,7 +4,7 @@
  * same code drives the in-process runner (synchronously) and the worker pool (asynchronously).
  */
 import { BridgeworkError } from '@bridgework/core';
-import type { Interval } from '../types.js';
+import type { Interval } from '@bridgework/core';
 import { numericalTolerance } from '../validateGum.js';
 import { BLOCK_TRIALS, mergeMoments, type MomentAccumulator } from './engine.js';
 import { coveredCount, sampleIntervalsInPlace, type SampleIntervals } from './select.js';
@@ -76,14 +76,14 @@ export interface AdaptiveSpread {
   readonly value: number;
   /** s_u(y): the same for the standard uncertainty. */
   readonly standardUncertainty: number;
-  /** s_ylow: the same for the lower end of the probabilistically symmetric interval. */
-  readonly low: number;
-  /** s_yhigh: the same for its upper end. */
-  readonly high: number;
+  /** s_ylow: the same for the lower end (`min`) of the probabilistically symmetric interval. */
+  readonly min: number;
+  /** s_yhigh: the same for its upper end (`max`). */
+  readonly max: number;
   /** The same for the lower end of the shortest interval. */
-  readonly shortestLow: number;
+  readonly shortestMin: number;
   /** The same for the upper end of the shortest interval. */
-  readonly shortestHigh: number;
+  readonly shortestMax: number;
 }
 
 /** What the adaptive procedure did. */
@@ -212,15 +212,15 @@ export function* runProcedure(
     const spread: AdaptiveSpread = {
       value: spreadOfAverage(sequences.map((s) => s.value)),
       standardUncertainty: spreadOfAverage(sequences.map((s) => s.standardUncertainty)),
-      low: spreadOfAverage(sequences.map((s) => s.interval.low)),
-      high: spreadOfAverage(sequences.map((s) => s.interval.high)),
-      shortestLow: spreadOfAverage(sequences.map((s) => s.shortestInterval.low)),
-      shortestHigh: spreadOfAverage(sequences.map((s) => s.shortestInterval.high)),
+      min: spreadOfAverage(sequences.map((s) => s.interval.min)),
+      max: spreadOfAverage(sequences.map((s) => s.interval.max)),
+      shortestMin: spreadOfAverage(sequences.map((s) => s.shortestInterval.min)),
+      shortestMax: spreadOfAverage(sequences.map((s) => s.shortestInterval.max)),
     };
     const tolerance = numericalTolerance(Math.sqrt(all.m2 / (all.count - 1)), significantDigits);
     const tested = [spread.value, spread.standardUncertainty];
-    if (interval !== 'shortest') tested.push(spread.low, spread.high);
-    if (interval !== 'symmetric') tested.push(spread.shortestLow, spread.shortestHigh);
+    if (interval !== 'shortest') tested.push(spread.min, spread.max);
+    if (interval !== 'symmetric') tested.push(spread.shortestMin, spread.shortestMax);
     if (tested.every((s) => 2 * s <= tolerance)) {
       const report: AdaptiveReport = {
         sequences: sequences.length,

@@ -3,7 +3,7 @@
  * R. L. Rivest, "Algorithm 489: The algorithm SELECT — for finding the ith smallest of n
  * elements", Comm. ACM 18(3), 1975), expected 1.5·n comparisons.
  */
-import type { Interval } from '../types.js';
+import type { Interval } from '@bridgework/core';
 import { bucketSortInPlace } from './bucketSort.js';
 
 /** Ascending sort of finite values (bucket sort; the built-in sort if a value is not finite). */
@@ -82,7 +82,7 @@ function intervalsFromTails(
 ): SampleIntervals {
   // low[i] = y₍ᵢ₊₁₎ for i < M − q; high[i] = y₍q+i+1₎ for i < M − q.
   const r = Math.ceil(candidates / 2); // (M − q)/2 if an integer, else (M − q + 1)/2
-  const interval = { low: low[r - 1] as number, high: high[r - 1] as number };
+  const interval = { min: low[r - 1] as number, max: high[r - 1] as number };
   let best = 0;
   let bestWidth = Infinity;
   for (let i = 0; i < candidates; i++) {
@@ -92,7 +92,7 @@ function intervalsFromTails(
       best = i;
     }
   }
-  return { interval, shortestInterval: { low: low[best] as number, high: high[best] as number } };
+  return { interval, shortestInterval: { min: low[best] as number, max: high[best] as number } };
 }
 
 /** Two values that enclose the central part of a sample, and room for what lies beyond them. */

@@ -35,8 +35,16 @@ import type { WorkerMessage, WorkerReply } from './protocol.js';
 
 /** Where the workers find the model: a module and the name of the function it exports. */
 export interface ModelReference {
-  /** The module's URL (a `file:` URL or anything `import()` accepts), e.g. `new URL('./model.js', import.meta.url)`. */
-  readonly module: string | URL;
+  /**
+   * The module's URL (a `file:` URL or anything `import()` accepts), e.g. `new URL('./model.js', import.meta.url)`.
+   * Typed by the one property read (`href`), so the declarations need no DOM or Node globals.
+   */
+  readonly module:
+    | string
+    | {
+        /** The URL as text, as a `URL` object has it. */
+        readonly href: string;
+      };
   /** The exported function's name. Default `'model'`. */
   readonly exportName?: string;
 }
@@ -94,7 +102,10 @@ function startWorker(): Worker {
 
 function moduleHref(reference: Record<string, unknown>): string {
   const m = reference['module'];
-  if (m instanceof URL) return m.href;
+  if (typeof m === 'object' && m !== null && typeof (m as { href?: unknown }).href === 'string') {
+    const href = (m as { href: string }).href;
+    if (href.length > 0) return href;
+  }
   if (typeof m === 'string' && m.length > 0) return m;
   throw new BridgeworkError(
     'wrong-type',

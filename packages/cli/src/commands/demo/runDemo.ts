@@ -1,4 +1,4 @@
-import { mkdir, mkdtemp, stat } from 'node:fs/promises';
+import { mkdir, mkdtemp, readFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join, relative } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -17,26 +17,32 @@ import type { CommandContext } from '../CommandContext.js';
 import type { DemoArgs } from './demoCommand.js';
 
 /**
- * The demo's channel file, `examples/footbridge-monitoring.yaml` of the repository: the same
- * number of folders above `src/commands/demo/` and `dist/commands/demo/`.
+ * The demo's channel file, shipped in the package as `demo/footbridge-monitoring.yaml` and found
+ * relative to this module (`src/commands/demo/` in a clone, `dist/commands/demo/` once
+ * installed: the same number of folders below the package), never relative to the working folder.
  */
 export const demoChannelFile = fileURLToPath(
-  new URL('../../../../../examples/footbridge-monitoring.yaml', import.meta.url),
+  new URL('../../../demo/footbridge-monitoring.yaml', import.meta.url),
 );
 
-/** The files the demo writes, in its folder. */
-export const demoFiles = { html: 'footbridge-monitoring.html', header: 'footbridge_constants.h' } as const;
+/** The files the demo writes, in its folder: the reports and a copy of the channel file to edit. */
+export const demoFiles = {
+  html: 'footbridge-monitoring.html',
+  header: 'footbridge_constants.h',
+  channelFile: 'footbridge-monitoring.yaml',
+} as const;
 
 /**
  * The body of `bridgework demo`: the design report of the built-in example channel file, printed,
  * with its HTML report and C header written into a folder whose paths are printed.
  *
  * @remarks
- * The example is `examples/footbridge-monitoring.yaml` (an invented footbridge test: a hanger's
- * force from a full-poisson bridge, a gusset's strain from a quarter bridge, the deck's
- * temperature from an RTD). The folder is `--dir` (created if needed) or a new folder in the
- * system's temporary folder; existing files there are replaced only with `--force`. Both files
- * are opened before any work and written atomically. The header's bounds are verified by the
+ * The example is the package's `demo/footbridge-monitoring.yaml` (an invented footbridge test: a
+ * hanger's force from a full-poisson bridge, a gusset's strain from a quarter bridge, the deck's
+ * temperature from an RTD), so the demo works wherever the package is installed. The folder is
+ * `--dir` (created if needed) or a new folder in the system's temporary folder; existing files
+ * there are replaced only with `--force`. The HTML report, the C header and a copy of the channel
+ * file (to edit and run the other commands on) are opened before any work and written atomically. The header's bounds are verified by the
  * `'sampled'` mode (the analytic bound, checked on about 50 000 codes per map), so the demo takes
  * a few seconds; `bridgework constants` verifies exhaustively by default. The exit code is the report's: 2 when a
  * design check fails (the example's checks pass).
@@ -44,16 +50,17 @@ export const demoFiles = { html: 'footbridge-monitoring.html', header: 'footbrid
  * @param args - The parsed command line.
  * @param context - The command context.
  * @returns `exitCodes.ok` or `exitCodes.failedCheck`.
- * @throws {@link @bridgework/core!BridgeworkError} `io-error` when the example is missing (the
- * demo runs from a clone of the repository) or the folder cannot be made; `file-exists`.
+ * @throws {@link @bridgework/core!BridgeworkError} `io-error` when the example is missing from the
+ * package or the folder cannot be made; `file-exists`.
  */
 export async function run(args: DemoArgs, context: CommandContext): Promise<number> {
+  let example: string;
   try {
-    await stat(demoChannelFile);
+    example = await readFile(demoChannelFile, 'utf8');
   } catch (e) {
     throw new BridgeworkError(
       'io-error',
-      `the demo's channel file ${demoChannelFile} is missing: the demo runs from a clone of the bridgework repository`,
+      `the demo's channel file ${demoChannelFile} is missing: reinstall the bridgework package`,
       { param: demoChannelFile, cause: e },
     );
   }
@@ -76,6 +83,7 @@ export async function run(args: DemoArgs, context: CommandContext): Promise<numb
   }
   const htmlPath = join(dir, demoFiles.html);
   const headerPath = join(dir, demoFiles.header);
+  const copyPath = join(dir, demoFiles.channelFile);
   const files: AtomicFile[] = [];
   try {
     const force = { force: args.options.force };
@@ -83,6 +91,8 @@ export async function run(args: DemoArgs, context: CommandContext): Promise<numb
     files.push(html);
     const header = await openAtomicFile(headerPath, force);
     files.push(header);
+    const copy = await openAtomicFile(copyPath, force);
+    files.push(copy);
     const shown = relative(process.cwd(), demoChannelFile);
     const loaded = await loadChannels(shown.startsWith('..') ? demoChannelFile : shown);
     const report = designReport(loaded);
@@ -93,8 +103,14 @@ export async function run(args: DemoArgs, context: CommandContext): Promise<numb
       // quick (the RTD's exact map over 2.8 million codes takes seconds to verify exhaustively).
       constantsText(loaded, { format: 'c', prefix: 'footbridge', verification: 'sampled', generator }),
     );
+    // The copy points editors at the schema shipped in the package.
+    const schema = fileURLToPath(new URL('../../../schema/channel-file.schema.json', import.meta.url));
+    await copy.write(
+      example.replace(/^# yaml-language-server: \$schema=.*$/m, `# yaml-language-server: $schema=${schema}`),
+    );
     await html.commit();
     await header.commit();
+    await copy.commit();
     const style = context.stdoutStyle;
     const intro =
       `${style.bold('bridgework demo')}: the design report of ${loaded.file.file},\n` +
@@ -102,11 +118,12 @@ export async function run(args: DemoArgs, context: CommandContext): Promise<numb
     const outro =
       `\n${style.bold('The demo wrote:')}\n` +
       `  HTML report with plots  ${htmlPath}\n` +
-      `  C header of constants   ${headerPath}\n\n` +
-      'Open the HTML report in a browser. From this clone, run the command on a channel file of your own:\n' +
-      '  pnpm bridgework report <channel-file> --html report.html\n' +
-      '  pnpm bridgework constants <channel-file> -o constants.h\n' +
-      "(docs/cli.md and docs/channel-file.md explain them; 'pnpm bridgework --help' lists every command).\n";
+      `  C header of constants   ${headerPath}\n` +
+      `  channel file (a copy)   ${copyPath}\n\n` +
+      'Open the HTML report in a browser. Edit the copy of the channel file and run the command on it:\n' +
+      `  bridgework report ${copyPath} --html report.html\n` +
+      `  bridgework constants ${copyPath} -o constants.h\n` +
+      "('bridgework --help' lists every command; in a clone of the repository, 'pnpm bridgework' runs it).\n";
     await streamSink(context.io.stdout).write(intro + formatTextReport(report, style) + outro);
     return report.ok ? exitCodes.ok : exitCodes.failedCheck;
   } finally {

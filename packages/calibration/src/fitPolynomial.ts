@@ -2,14 +2,14 @@ import {
   BridgeworkError,
   checkFinite,
   checkInteger,
-  checkObject,
+  checkOptions,
   checkPositive,
   checkRange,
   formatValue,
   type Interval,
 } from '@bridgework/core';
-import { checkFiniteArray } from './internal/checks.js';
-import { loadLinearAlgebra, type LinearAlgebra } from './internal/linearAlgebra.js';
+import { MAGNITUDE_LIMIT, checkBoundedArray, finiteResult } from './internal/checks.js';
+import { factorDesign, solveDesign, unitCovariance } from './internal/leastSquares.js';
 import {
   derivative,
   horner,
@@ -18,7 +18,7 @@ import {
   solveMonotone,
 } from './internal/polynomial.js';
 
-/** Options of a fitter's {@link Fitter.fitPolynomial}. */
+/** Options of {@link fitPolynomial}. */
 export interface PolynomialFitOptions {
   /** Reference loads (the abscissa x), finite, any unit; at least `degree + 1` distinct values. */
   readonly loads: readonly number[];
@@ -43,7 +43,7 @@ export interface PolynomialFitOptions {
 /** The numeric method of a fit's inverse map. */
 export type InverseMethod = 'closed-form' | 'safeguarded-newton';
 
-/** A least-squares polynomial fit of reading against load (see {@link Fitter.fitPolynomial}). */
+/** A least-squares polynomial fit of reading against load (see {@link fitPolynomial}). */
 export interface PolynomialFit {
   /** Polynomial degree (1–3). */
   readonly degree: number;
@@ -104,43 +104,54 @@ export interface PolynomialFit {
   loadAt(reading: number): number;
 }
 
-/** A loaded least-squares fitter (see {@link createFitter}). */
-export interface Fitter {
-  /**
-   * Least-squares polynomial fit of readings against loads, with uncertainties and an inverse.
-   *
-   * @remarks
-   * Method: the loads are scaled to t ∈ [−1, 1], the Vandermonde matrix A (n×(d+1)) in t is
-   * factored A = Q·R by Householder QR (mathjs `qr`), and R₁·a = Q₁ᵀ·y is solved by back
-   * substitution (mathjs `usolve`); the normal equations, which square the condition number, are
-   * never formed. Coefficients are mapped to the caller's basis by the binomial expansion of
-   * t = (x − center)/halfRange, and so is the covariance V = T·(s²·R₁⁻¹R₁⁻ᵀ)·Tᵀ. This is the GUM's
-   * straight-line calibration generalised (JCGM 100:2008, H.3); it reproduces that example's
-   * published results and agrees with a 40-digit decimal.js solution of the normal equations to
-   * 1e-12. The inverse is closed-form for degree 1; for degrees 2 and 3 a safeguarded Newton
-   * iteration on the monotone range converges to 4ε of the scaled variable (about 1e-15 of the
-   * half-span) in at most 100 iterations.
-   *
-   * @param options - Loads, readings, degree, optional reading uncertainty and extrapolation.
-   * @returns The fit, its uncertainties, residuals and the two maps.
-   * @throws {@link @bridgework/core!BridgeworkError} `invalid-shape` for arrays that are not arrays
-   *   or differ in length; `not-finite`, `wrong-type` for a bad entry (param `readings[i]`);
-   *   `out-of-range`, `not-integer` for a degree other than 1–3; `too-few-points` for fewer points
-   *   than coefficients (or no more, without `readingStandardUncertainty`); `singular` when fewer
-   *   distinct loads than coefficients are given or the system is numerically rank deficient.
-   */
-  fitPolynomial(options: PolynomialFitOptions): PolynomialFit;
-}
-
-function fit(algebra: LinearAlgebra, options: PolynomialFitOptions): PolynomialFit {
-  const o = checkObject('options', options);
+/**
+ * Least-squares polynomial fit of readings against loads, with uncertainties and an inverse.
+ *
+ * @remarks
+ * Method: the loads are scaled to t ∈ [−1, 1], and the Vandermonde matrix A (n×(d+1)) in t is
+ * factored A = Q·R by Householder QR in plain doubles (the package's own kernel; Golub and Van
+ * Loan, _Matrix Computations_, 5.3.3), and R₁·a = Q₁ᵀ·y is solved by back substitution; the normal
+ * equations, which square the condition number, are never formed. Coefficients are mapped to the
+ * caller's basis by the binomial expansion of t = (x − center)/halfRange, and so is the covariance
+ * V = T·(s²·R₁⁻¹R₁⁻ᵀ)·Tᵀ. This is the GUM's straight-line calibration generalised (JCGM 100:2008,
+ * H.3); it reproduces that example's published results and agrees with a 40-digit decimal.js
+ * solution of the normal equations to 1e-12. The inverse is closed-form for degree 1; for degrees
+ * 2 and 3 a safeguarded Newton iteration on the monotone range converges to 4ε of the scaled
+ * variable (about 1e-15 of the half-span) in at most 100 iterations. Synchronous, and free of
+ * mathjs (mathjs is only the tests' oracle).
+ *
+ * @param options - Loads, readings, degree, optional reading uncertainty and extrapolation.
+ * @returns The fit, its uncertainties, residuals and the two maps.
+ * @throws {@link @bridgework/core!BridgeworkError} `unknown-option`, `missing-option` by the
+ *   options rule; `invalid-shape` for arrays that are not arrays or differ in length; `not-finite`,
+ *   `wrong-type` for a bad entry (param `readings[i]`); `out-of-range` for a load or reading beyond
+ *   ±1e150 (so that no sum of squares overflows); `out-of-range`, `not-integer` for a degree other
+ *   than 1–3; `too-few-points` for fewer points than coefficients (or no more, without
+ *   `readingStandardUncertainty`); `singular` when fewer distinct loads than coefficients are given
+ *   or the system is numerically rank deficient.
+ * @example
+ * ```ts
+ * const fit = fitPolynomial({ loads: [0, 1, 2, 3], readings: [0.1, 2.1, 3.9, 6.1], degree: 1 });
+ * fit.coefficients; // ≈ [0.08, 1.98]
+ * fit.loadAt(4); // ≈ 1.9798
+ * ```
+ */
+export function fitPolynomial(options: PolynomialFitOptions): PolynomialFit {
+  const o = checkOptions('options', options, {
+    known: ['loads', 'readings', 'degree', 'readingStandardUncertainty', 'extrapolationFraction'],
+    required: ['loads', 'readings', 'degree'],
+  });
   const degree = checkInteger('degree', o['degree'], { min: 1, max: 3 });
-  const loads = checkFiniteArray('loads', o['loads']);
-  const readings = checkFiniteArray('readings', o['readings'], loads.length);
+  const loads = checkBoundedArray('loads', o['loads']);
+  const readings = checkBoundedArray('readings', o['readings'], loads.length);
   const known =
     o['readingStandardUncertainty'] === undefined
       ? undefined
-      : checkPositive('readingStandardUncertainty', o['readingStandardUncertainty']);
+      : checkRange(
+          'readingStandardUncertainty',
+          checkPositive('readingStandardUncertainty', o['readingStandardUncertainty']),
+          { max: MAGNITUDE_LIMIT },
+        );
   const extrapolation =
     o['extrapolationFraction'] === undefined
       ? 0.05
@@ -166,45 +177,31 @@ function fit(algebra: LinearAlgebra, options: PolynomialFitOptions): PolynomialF
 
   const min = Math.min(...loads);
   const max = Math.max(...loads);
-  const center = 0.5 * (min + max);
-  const half = 0.5 * (max - min);
+  const center = 0.5 * min + 0.5 * max;
+  const half = 0.5 * max - 0.5 * min;
   const ts = loads.map((x) => (x - center) / half);
-  const a = ts.map((t) => Array.from({ length: p }, (_, k) => t ** k));
-
-  const { q, r } = algebra.qr(a);
-  const r1 = r.slice(0, p).map((row) => row.slice(0, p));
-  const diagonal = r1.map((row, j) => Math.abs(row[j] as number));
-  const largest = Math.max(...diagonal);
-  if (diagonal.some((d) => !(d > 64 * n * Number.EPSILON * largest))) {
+  const design = new Float64Array(n * p);
+  ts.forEach((t, i) => {
+    for (let k = 0; k < p; k++) design[i * p + k] = t ** k;
+  });
+  const factor = factorDesign(design, n, p, 64 * n * Number.EPSILON);
+  if (factor.accepted.length < p) {
     throw new BridgeworkError(
       'singular',
-      `\`loads\` give a numerically rank-deficient degree-${degree} system (|R_jj| below 64·n·ε·max|R_ii|)`,
+      `\`loads\` give a numerically rank-deficient degree-${degree} system (a column of the scaled design lies within 64·n·ε of the others)`,
       { param: 'loads' },
     );
   }
-  const qty = Array.from({ length: p }, (_, j) =>
-    readings.reduce((sum, y, i) => sum + ((q[i] as number[])[j] as number) * y, 0),
-  );
-  const scaled = algebra.usolve(r1, qty);
+  const scaled = Array.from(solveDesign(factor, readings));
   const residuals = readings.map((y, i) => y - horner(scaled, ts[i] as number));
   const dof = n - p;
   const s = dof > 0 ? Math.sqrt(residuals.reduce((sum, e) => sum + e * e, 0) / dof) : undefined;
   const scale = known ?? (s as number);
 
-  // Unit-variance covariance in t: R₁⁻¹·R₁⁻ᵀ, with R₁⁻¹ column by column from usolve.
-  const rInverseColumns = Array.from({ length: p }, (_, j) =>
-    algebra.usolve(
-      r1,
-      Array.from({ length: p }, (_, i) => (i === j ? 1 : 0)),
-    ),
-  );
-  const rInv = (i: number, j: number): number => (rInverseColumns[j] as number[])[i] as number;
+  // Unit-variance covariance in t: R₁⁻¹·R₁⁻ᵀ.
+  const unitFlat = unitCovariance(factor);
   const unitScaled = Array.from({ length: p }, (_, i) =>
-    Array.from({ length: p }, (_, j) => {
-      let sum = 0;
-      for (let k = 0; k < p; k++) sum += rInv(i, k) * rInv(j, k);
-      return sum;
-    }),
+    Array.from({ length: p }, (_, j) => unitFlat[i * p + j] as number),
   );
   const t = scaledToUnscaled(center, half, degree);
   const transform = (m: number[][]): number[][] =>
@@ -231,6 +228,15 @@ function fit(algebra: LinearAlgebra, options: PolynomialFitOptions): PolynomialF
   const coefficients = Array.from({ length: p }, (_, i) =>
     scaled.reduce((sum, ak, k) => sum + ((t[i] as number[])[k] as number) * ak, 0),
   );
+
+  const figures = [...coefficients, ...covariance.flat(), ...correlation.flat(), s ?? 0, scale];
+  if (!figures.every(Number.isFinite) || unitSd.some((u) => !(u > 0))) {
+    throw new BridgeworkError(
+      'out-of-range',
+      `\`loads\` must span a range whose powers up to ${degree} stay within the double range (the coefficients per unit load overflow or vanish); got loads from ${formatValue(min)} to ${formatValue(max)}: express them in a larger or smaller unit`,
+      { param: 'loads', value: [min, max] },
+    );
+  }
 
   // The inverse: the fit must be strictly monotone on the calibrated range ([−1, 1] in t).
   const slope = derivative(scaled);
@@ -274,15 +280,23 @@ function fit(algebra: LinearAlgebra, options: PolynomialFitOptions): PolynomialF
     inverseRange,
     inverseMethod: degree === 1 ? 'closed-form' : 'safeguarded-newton',
     readingAt(load: number): number {
-      return horner(scaled, (checkFinite('load', load) - center) / half);
+      const x = checkFinite('load', load);
+      return finiteResult('load', x, horner(scaled, (x - center) / half), 'the fitted reading');
     },
     readingUncertaintyAt(load: number): number {
-      const tt = (checkFinite('load', load) - center) / half;
+      const x = checkFinite('load', load);
+      const tt = (x - center) / half;
+      // g = (1, t, …, t^d) divided by max(1, |t|)^d, so no power overflows; scaled back at the end.
+      const big = Math.max(1, Math.abs(tt));
       let v = 0;
       for (let i = 0; i < p; i++) {
-        for (let j = 0; j < p; j++) v += tt ** i * ((unitScaled[i] as number[])[j] as number) * tt ** j;
+        for (let j = 0; j < p; j++) {
+          const gi = (tt / big) ** i / big ** (degree - i);
+          const gj = (tt / big) ** j / big ** (degree - j);
+          v += gi * ((unitScaled[i] as number[])[j] as number) * gj;
+        }
       }
-      return scale * Math.sqrt(Math.max(v, 0));
+      return finiteResult('load', x, scale * Math.sqrt(Math.max(v, 0)) * big ** degree, 'the uncertainty');
     },
     loadAt(reading: number): number {
       const y = checkFinite('reading', reading);
@@ -307,27 +321,4 @@ function fit(algebra: LinearAlgebra, options: PolynomialFitOptions): PolynomialF
       return center + half * tt;
     },
   };
-}
-
-/**
- * Loads the least-squares machinery (mathjs) once and returns a fitter whose fits are synchronous.
- *
- * @remarks
- * Importing mathjs costs about 0.8 s, so it is loaded here by a dynamic `import()` on first use,
- * never when `@bridgework/calibration` itself is imported; later calls return at once. A private
- * mathjs instance (`create` with only `qr` and `usolve`) is used, so no shared configuration is
- * touched. The shunt, two-point, certificate and class functions need no fitter.
- *
- * @returns A promise of the fitter.
- * @example
- * ```ts
- * const fitter = await createFitter();
- * const fit = fitter.fitPolynomial({ loads: [0, 1, 2, 3], readings: [0.1, 2.1, 3.9, 6.1], degree: 1 });
- * fit.coefficients; // ≈ [0.08, 1.98]
- * fit.loadAt(4); // ≈ 1.9798
- * ```
- */
-export async function createFitter(): Promise<Fitter> {
-  const algebra = await loadLinearAlgebra();
-  return { fitPolynomial: (options) => fit(algebra, options) };
 }
