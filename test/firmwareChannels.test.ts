@@ -145,7 +145,7 @@ describe('the Pt100 bath channel of issue 14 at 0.01 °C', () => {
   });
 });
 
-describe('the demo’s deck RTD channel (examples/footbridge-monitoring.yaml) at 0.01 °C', () => {
+describe('the demo’s deck RTD channel (packages/cli/demo/footbridge-monitoring.yaml) at 0.01 °C', () => {
   const deck = createChannel(footbridgeSpecs['deck-temp']);
   const c = channelConstants(deck, { targetError: 0.01 });
 

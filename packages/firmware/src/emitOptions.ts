@@ -6,7 +6,7 @@ import type { fixedPointMap } from './fixedPointMap.js';
 import type { floatMap } from './floatMap.js';
 import type { floatMobiusMap } from './floatMobiusMap.js';
 import type { floatPiecewiseMap } from './floatPiecewiseMap.js';
-import type { TestVector, TotalErrorBound } from './totalError.js';
+import type { TestVector, TotalErrors } from './totalError.js';
 
 /** Which evaluator of a channel an emitter writes: fixed-point, float32 or float64. */
 export type EvaluatorType = 'fixed' | 'float32' | 'float64';
@@ -33,7 +33,7 @@ export interface FirmwareChannel {
   /** The float64 map, likewise with `precision: 'float64'`. */
   readonly float64?: FirmwareFloatMap;
   /** Each map's total error against the exact map (from {@link designFirmwareConstants}). */
-  readonly totals?: { readonly [K in EvaluatorType]?: TotalErrorBound };
+  readonly totals?: TotalErrors;
   /** The exact map's own stated error (from {@link designFirmwareConstants}). */
   readonly reference?: ReferenceError;
   /** The total error the maps were designed to meet, quantity unit. */

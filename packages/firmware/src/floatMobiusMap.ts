@@ -50,7 +50,14 @@ export interface FloatMobiusMap {
   /** The quantity's unit name (may be empty). */
   readonly quantityUnit: string;
   /** The exact values the constants were rounded from, as decimals. */
-  readonly source: { readonly a: string; readonly b: string; readonly c: string };
+  readonly source: {
+    /** a, exact (or to 40 digits). */
+    readonly a: string;
+    /** b, exact (or to 40 digits). */
+    readonly b: string;
+    /** c, exact (or to 40 digits). */
+    readonly c: string;
+  };
   /**
    * The analytic bound of |result − (b + a·x)/(1 + c·x)| with the exact a, b, c over the range,
    * quantity unit: constant rounding, the conversion of x, two multiplies, two additions and the

@@ -57,7 +57,7 @@ export {
   type SegmentCodes,
 } from './piecewisePolynomial.js';
 export { fixedPointRoundings, roundShift, type FixedPointRounding } from './roundShift.js';
-export type { TestVector, TotalErrorBound } from './totalError.js';
+export type { TestVector, TotalErrorBound, TotalErrors } from './totalError.js';
 export {
   EXHAUSTIVE_CODE_LIMIT,
   verificationModes,

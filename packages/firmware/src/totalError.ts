@@ -63,3 +63,13 @@ export interface TestVector {
   /** The float64 function's result, when there is one. */
   readonly float64?: number;
 }
+
+/** The total error of each function of a channel, by evaluator type. */
+export interface TotalErrors {
+  /** The fixed-point function's total error, when there is one. */
+  readonly fixed?: TotalErrorBound;
+  /** The float32 function's total error, when there is one. */
+  readonly float32?: TotalErrorBound;
+  /** The float64 function's total error, when there is one. */
+  readonly float64?: TotalErrorBound;
+}

@@ -13,7 +13,7 @@ import {
   type FirmwareFloatMap,
   type FixedPointRounding,
   type ReferenceError,
-  type TotalErrorBound,
+  type TotalErrors,
   type VerificationMode,
 } from '@bridgework/firmware';
 import type { Channel } from '../createChannel.js';
@@ -80,7 +80,7 @@ export interface ChannelConstants {
   /** The float64 function, when designed. */
   readonly float64: FirmwareFloatMap | undefined;
   /** Each function's total error against the channel's exact map. */
-  readonly totals: { readonly [K in EvaluatorType]?: TotalErrorBound };
+  readonly totals: TotalErrors;
   /** Ready for `emitCHeader`, `emitJson` and `emitTestProgram` of `@bridgework/firmware`. */
   readonly firmwareChannel: FirmwareChannel;
 }

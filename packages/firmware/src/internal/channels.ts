@@ -21,7 +21,7 @@ import type { FloatMobiusMap } from '../floatMobiusMap.js';
 import type { FloatPiecewiseMap } from '../floatPiecewiseMap.js';
 import { segmentCodes } from '../piecewisePolynomial.js';
 import { fixedPointRoundings, roundShiftUnchecked } from '../roundShift.js';
-import type { TestVector, TotalErrorBound } from '../totalError.js';
+import type { TestVector, TotalErrorBound, TotalErrors } from '../totalError.js';
 import { CODE_LIMITS, readOptions } from './codes.js';
 import { checkQuantityUnit } from './text.js';
 
@@ -35,7 +35,7 @@ export interface EmittedChannel {
   readonly float32: FirmwareFloatMap | undefined;
   readonly float64: FirmwareFloatMap | undefined;
   /** Total errors of the written maps (only those of written types). */
-  readonly totals: { readonly [K in EvaluatorType]?: TotalErrorBound };
+  readonly totals: TotalErrors;
   readonly reference: ReferenceError | undefined;
   readonly targetError: number | undefined;
   /** Test vectors (empty when none were given). */
