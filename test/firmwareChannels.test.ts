@@ -249,3 +249,82 @@ describe('a Pt100 over −200 … 850 °C at 0.01 °C on a 32-bit integer core',
     expect(c.totals.fixed!.proved).toBe(HEAVY);
   });
 });
+
+describe('every sensor kind: designed to a tight target, compiled, every code against the exact map', () => {
+  // Small converters (16 to 18 bits) so that every code is swept in the default suite.
+  const kinds: [string, ChannelSpec, number][] = [
+    [
+      'large-strain quarter bridge',
+      {
+        name: 'quarter',
+        sensor: { kind: 'strain-gauge', gaugeFactor: 2.1 },
+        bridge: { arrangement: 'quarter', wiring: 'three-wire', ohmsPerLead: 0.8 },
+        excitation: { volts: 5 },
+        amplifier: { gain: 16 },
+        adc: { bits: 18, referenceVolts: 5, ratiometric: true },
+        output: { quantity: 'microstrain', range: [-20000, 20000] },
+      },
+      0.5,
+    ],
+    [
+      'full-bending-poisson bridge',
+      {
+        name: 'bending',
+        sensor: { kind: 'strain-gauge', gaugeFactor: 2.0 },
+        bridge: { arrangement: 'full-bending-poisson', poissonRatio: 0.3, wiring: 'four-wire' },
+        excitation: { volts: 5 },
+        amplifier: { gain: 32 },
+        adc: { bits: 16, referenceVolts: 5, ratiometric: true },
+        output: { quantity: 'microstrain', range: [-5000, 5000] },
+      },
+      0.05,
+    ],
+    [
+      'load cell (transducer)',
+      {
+        name: 'cell',
+        sensor: { kind: 'transducer', capacity: 500, ratedOutputVoltsPerVolt: 0.002 },
+        bridge: { wiring: 'four-wire', ohmsPerLead: 0.3 },
+        excitation: { volts: 5 },
+        amplifier: { gain: 128 },
+        adc: { bits: 18, referenceVolts: 5, ratiometric: true },
+        output: { quantity: 'mass', range: [0, 500] },
+      },
+      0.01,
+    ],
+    [
+      'Pt1000 RTD',
+      {
+        name: 'rtd',
+        sensor: { kind: 'rtd', r0Ohms: 1000 },
+        bridge: { wiring: 'three-wire', ohmsPerLead: 0.4 },
+        excitation: { volts: 1 },
+        amplifier: { gain: 4 },
+        adc: { bits: 18, referenceVolts: 1, ratiometric: true },
+        output: { quantity: 'temperature', range: [-100, 400] },
+      },
+      0.05,
+    ],
+  ];
+  it.for(kinds)('%s', ([, spec, target], ctx) => {
+    const ch = createChannel(spec);
+    const c = channelConstants(ch, { targetError: target, hardwareDivide: true });
+    for (const t of TYPES) {
+      expect(c.totals[t]!.bound, t).toBeLessThanOrEqual(target);
+      expect(c.totals[t]!.proved, t).toBe(true);
+    }
+    if (!needCompiler('gcc', () => ctx.skip())) return;
+    const codes = Int32Array.from({ length: c.codeMax - c.codeMin + 1 }, (_, i) => c.codeMin + i);
+    const reference = Float64Array.from(codes, (code) => ch.quantityFromCode(code));
+    const { dir, remove } = scratch();
+    try {
+      const { lines } = sweepCompiled(dir, c.firmwareChannel, codes, reference);
+      for (const t of TYPES) {
+        expect(lines[t]!.hash, t).toBe(hashOf(c.firmwareChannel, t, codes));
+        expect(lines[t]!.maxError, t).toBeLessThanOrEqual(c.totals[t]!.bound);
+      }
+    } finally {
+      remove();
+    }
+  });
+});
