@@ -105,7 +105,8 @@ describe('the repository', () => {
     );
     for (const [name, spec] of Object.entries(catalog())) {
       if (runtime.has(name)) expect(spec, name).toMatch(/^\^\d+\.\d+\.\d+$/);
-      else expect(spec, name).toMatch(/^\d+\.\d+\.\d+$/);
+      // An exact version; a pre-release tag is part of it (@duckdb/node-api 1.5.6-r.1).
+      else expect(spec, name).toMatch(/^\d+\.\d+\.\d+(-[0-9A-Za-z.]+)?$/);
     }
   });
 });

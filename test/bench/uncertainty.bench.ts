@@ -14,7 +14,11 @@ import { availableParallelism, loadavg } from 'node:os';
 import { performance } from 'node:perf_hooks';
 import { monteCarlo, sampleCoverageIntervals, type InputQuantities } from '@bridgework/uncertainty';
 import { createMonteCarloPool } from '@bridgework/uncertainty/node';
-import { twelveInputModel, twelveInputs } from '../../packages/uncertainty/test/support/benchModel.js';
+import {
+  twelveInputModel,
+  twelveInputPositional,
+  twelveInputs,
+} from '../../packages/uncertainty/test/support/benchModel.js';
 import { compare, report, sinkValue } from './harness.js';
 
 const trials = 1_000_000;
@@ -123,6 +127,31 @@ console.log(
   `  speed-up over naive by hand: ${(byHand.ratioToBaseline / single.ratioToBaseline).toFixed(2)}× (target ≥ 6)`,
 );
 console.log(`  speed-up over naive generic: ${(1 / single.ratioToBaseline).toFixed(2)}×`);
+
+// Model forms (issue 13 item 5): named reads through the record, the positional form, and a
+// record read in a loop by computed keys (how a model over a parameter list written by name
+// tends to look). Same draws, same values; GUM comparison off so only the trials count.
+const orderOfInputs = twelveInputPositional.order;
+const parameters = new Float64Array(orderOfInputs.length);
+function recordReadInLoop(x: Readonly<Record<string, number>>): number {
+  for (let i = 0; i < orderOfInputs.length; i++) parameters[i] = x[orderOfInputs[i]!]!;
+  return twelveInputPositional.evaluate(parameters);
+}
+const formCases = [
+  { name: 'record model, named reads', model: twelveInputModel },
+  { name: 'positional model { order, evaluate }', model: twelveInputPositional },
+  { name: 'record model read in a loop by key', model: recordReadInLoop },
+] as const;
+const formResults = compare(
+  formCases.map((c, k) => ({
+    name: c.name,
+    opsPerCall: trials,
+    run: (call: number) =>
+      monteCarlo({ model: c.model, inputs, trials, seed: call + 1000 * k, compareWithGum: false }).value,
+  })),
+  { rounds: 7, minMillisPerRound: 100, warmupCalls: 3 },
+);
+report('uncertainty: model forms, 12 inputs, 10⁶ trials, per trial (ratio to the record form)', formResults);
 
 // Selection of the tails against a full sort, on the same 10⁶ model values.
 const values = monteCarlo({

@@ -136,3 +136,33 @@ describe('evaluateCertificate: bad input', () => {
     expect(() => evaluateCertificate(options as never)).toThrowBridgeworkError(code, { param });
   });
 });
+
+describe('evaluateCertificate: finite inputs never give NaN (issue 15)', () => {
+  it('readings at ±1e308 are refused naming the reading; at the 1e100 limit the figures are finite', () => {
+    expect(() =>
+      evaluateCertificate({ loads: [0, 1, 2], runs: [{ ascending: [-1e308, 0, 1e308] }] }),
+    ).toThrowBridgeworkError('out-of-range', { param: 'runs[0].ascending[0]' });
+    const e = evaluateCertificate({ loads: [0, 1, 2], runs: [{ ascending: [-1e100, 0.1e100, 1e100] }] });
+    // Rated output 2e100; the midpoint sits 0.1e100 above the terminal line: 0.05 of RO (by hand).
+    expect(e.terminalNonlinearityFraction).toBeNear(0.05, { rel: 1e-14 });
+    expect(Number.isFinite(e.bestFitLine.slope)).toBe(true);
+  });
+
+  it('a rated output vanishing against the readings is refused rather than returned as Infinity', () => {
+    expect(() =>
+      evaluateCertificate({ loads: [0, 1, 2], runs: [{ ascending: [0, -1e100, 1e-300] }] }),
+    ).toThrowBridgeworkError('out-of-range', { param: 'runs' });
+    expect(() =>
+      evaluateCertificate({ loads: [0, 1, 2], runs: [{ ascending: [0, 1e100, 5e-324] }] }),
+    ).toThrowBridgeworkError('out-of-range', { param: 'runs' });
+  });
+
+  it('misspelt options are unknown-option (the options rule)', () => {
+    expect(() =>
+      evaluateCertificate({
+        loads: [0, 1, 2],
+        runs: [{ ascending: [0, 1, 2], decending: [0, 1, 2] }],
+      } as never),
+    ).toThrowBridgeworkError('unknown-option', { param: 'runs[0].decending' });
+  });
+});

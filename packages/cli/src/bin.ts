@@ -4,7 +4,16 @@
  * command's module (and heavy dependencies such as mathjs and yaml) is imported when it runs.
  */
 import { nodeIo } from './cliIo.js';
+import { exitCodes } from './exitCodes.js';
 import { runCli } from './runCli.js';
+
+// A reader that closes the pipe early (`bridgework convert … | head -2`) ends the command quietly,
+// with exit code 0, as Unix tools do; the exit handlers remove any temporary file.
+process.stdout.on('error', (e: NodeJS.ErrnoException) => {
+  if (e.code === 'EPIPE') process.exit(exitCodes.ok);
+  process.stderr.write(`bridgework: cannot write to standard output: ${e.message}\n`);
+  process.exit(exitCodes.badInput);
+});
 
 // Setting exitCode (rather than calling process.exit) lets piped output drain completely.
 process.exitCode = await runCli(process.argv.slice(2), nodeIo());

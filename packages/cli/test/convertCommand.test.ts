@@ -113,8 +113,9 @@ describe('bridgework convert on the example file', () => {
       'deck-temp,hanger-h3',
     ]);
     expect(r.code).toBe(exitCodes.ok);
+    // The other columns pass through (issue 17: time stamps were dropped), as written.
     const { header, rows } = parseCsv(r.stdout);
-    expect(header).toEqual(['deck-temp (°C)', 'hanger-h3 (N)']);
+    expect(header).toEqual(['time_s', 'gusset', 'deck-temp (°C)', 'hanger-h3 (N)']);
     const alone = createInterleavedConverter([channels[2]!, channels[0]!]);
     const pairs = Int32Array.from(
       { length: 100 },
@@ -122,11 +123,26 @@ describe('bridgework convert on the example file', () => {
     );
     const values = alone.convert(pairs).values;
     rows.forEach((row, f) => {
-      expect(row[0]).toBe(values[2 * f]);
-      if (f === 7) expect(row[1]).toBeNaN();
-      else expect(row[1]).toBe(values[2 * f + 1]);
+      expect(row[0]).toBe(Number((f * 0.1).toFixed(1)));
+      expect(row[1]).toBe(codes[f * 3 + 1]);
+      expect(row[2]).toBe(values[2 * f]);
+      if (f === 7) expect(row[3]).toBeNaN();
+      else expect(row[3]).toBe(values[2 * f + 1]);
     });
+    expect(r.stdout.split('\n')[1]).toBe(`0.0,${codes[1]},${values[0]},${values[1]}`);
     expect(r.stderr).toBe('clipped samples: 1 of 100 (1.0 %)\n  hanger-h3 (N): 1, frame 7\n');
+    const bare = await run([
+      'convert',
+      exampleShown,
+      input,
+      '--columns',
+      'deck,2',
+      '--channels',
+      'deck-temp,hanger-h3',
+      '--keep-columns',
+      'none',
+    ]);
+    expect(parseCsv(bare.stdout).header).toEqual(['deck-temp (°C)', 'hanger-h3 (N)']);
   });
 
   it('draws a progress bar only on a terminal', async () => {

@@ -47,8 +47,8 @@ describe('start-up path', () => {
     const loaded = [...files].map((f) => relative(src, f));
     expect(loaded).toContain('commands/registry.ts');
     for (const f of loaded) {
-      // data/codeSource.ts holds only types and the list of formats (no imports): the convert table uses it.
-      if (f === 'data/codeSource.ts') {
+      // data/formatLists.ts holds only the lists of formats (no imports): the convert table uses it.
+      if (f === 'data/formatLists.ts') {
         expect(staticImports(join(src, f))).toEqual([]);
         continue;
       }

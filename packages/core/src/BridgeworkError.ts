@@ -21,6 +21,8 @@ export type ErrorCode =
   | 'too-few-points'
   | 'not-positive-semidefinite'
   | 'model-not-finite'
+  | 'model-failed'
+  | 'closed'
   | 'overflow'
   | 'clipped'
   | 'invalid-spec'
@@ -62,6 +64,9 @@ export const errorCodeDescriptions: Readonly<Record<ErrorCode, string>> = {
   'too-few-points': 'Fewer data points were given than the method needs.',
   'not-positive-semidefinite': 'A correlation or covariance matrix is not positive semidefinite.',
   'model-not-finite': 'A user-supplied model returned NaN or ±Infinity.',
+  'model-failed':
+    'A user-supplied model threw an error that is not a bridgework error; the message shows where (the trial and its inputs), `cause` holds the original.',
+  closed: 'An object was used after it was closed (for example a Monte Carlo worker pool after `close()`).',
   overflow: 'An integer pipeline would overflow its word or accumulator.',
   clipped: 'A converter code at or beyond the rails, when the policy is to throw rather than flag.',
   'invalid-spec': 'A specification or file holds one or more problems; each is listed with its field path.',

@@ -65,3 +65,12 @@ export {
   type VerificationMode,
 } from './verification.js';
 export { FIRMWARE_GENERATOR_VERSION } from './version.js';
+export {
+  emitSql,
+  sqlDialects,
+  sqlExpression,
+  type EmitSqlOptions,
+  type SqlChannel,
+  type SqlDialect,
+  type SqlMap,
+} from './emitSql.js';

@@ -1,4 +1,4 @@
-import { BridgeworkError, checkObject, checkRange, formatValue } from '@bridgework/core';
+import { BridgeworkError, checkOptions, checkRange, formatValue } from '@bridgework/core';
 
 /** The correlation coefficient r(xᵢ, xⱼ) between two named input quantities (JCGM 100 5.2.2). */
 export interface Correlation {
@@ -78,7 +78,10 @@ export function normalizeCorrelations(names: readonly string[], correlations: un
   const seen = new Set<string>();
   correlations.forEach((entry: unknown, e) => {
     const path = `correlations[${e}]`;
-    const c = checkObject(path, entry);
+    const c = checkOptions(path, entry, {
+      known: ['between', 'coefficient'],
+      required: ['between', 'coefficient'],
+    });
     const between = c['between'];
     if (!Array.isArray(between) || between.length !== 2) {
       throw new BridgeworkError(

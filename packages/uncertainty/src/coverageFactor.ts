@@ -2,7 +2,7 @@ import {
   BridgeworkError,
   checkFinite,
   checkNonNegative,
-  checkObject,
+  checkOptions,
   checkPositive,
   checkRange,
   formatValue,
@@ -137,7 +137,10 @@ export interface WelchSatterthwaiteOptions {
  * ```
  */
 export function welchSatterthwaite(options: WelchSatterthwaiteOptions): number {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['components', 'combinedStandardUncertainty'],
+    required: ['components'],
+  });
   const components = o['components'];
   if (!Array.isArray(components)) {
     throw new BridgeworkError(
@@ -149,31 +152,53 @@ export function welchSatterthwaite(options: WelchSatterthwaiteOptions): number {
       },
     );
   }
-  let sumSquares = 0;
-  let denominator = 0;
-  components.forEach((c: unknown, i) => {
-    const entry = checkObject(`components[${i}]`, c);
-    const u = checkNonNegative(`components[${i}].contribution`, entry['contribution']);
-    const nu = checkPositive(`components[${i}].degreesOfFreedom`, entry['degreesOfFreedom'], {
-      allowInfinity: true,
+  const checked = components.map((c: unknown, i) => {
+    const entry = checkOptions(`components[${i}]`, c, {
+      known: ['contribution', 'degreesOfFreedom'],
+      required: ['contribution', 'degreesOfFreedom'],
     });
-    sumSquares += u * u;
-    if (nu !== Infinity && u > 0) denominator += (u * u * (u * u)) / nu;
+    return {
+      contribution: checkNonNegative(`components[${i}].contribution`, entry['contribution']),
+      degreesOfFreedom: checkPositive(`components[${i}].degreesOfFreedom`, entry['degreesOfFreedom'], {
+        allowInfinity: true,
+      }),
+    };
   });
   const combined =
     o['combinedStandardUncertainty'] === undefined
-      ? Math.sqrt(sumSquares)
+      ? rootSumOfSquares(checked.map((c) => c.contribution))
       : checkNonNegative(
           'combinedStandardUncertainty',
           checkFinite('combinedStandardUncertainty', o['combinedStandardUncertainty']),
         );
-  return effectiveDegreesOfFreedomOf(combined, denominator);
+  return effectiveDegreesOfFreedomOf(combined, checked);
 }
 
-/** ν_eff = u_c⁴/denominator, `Infinity` for a zero denominator or u_c = 0. */
-export function effectiveDegreesOfFreedomOf(combined: number, denominator: number): number {
-  if (denominator === 0 || combined === 0) return Infinity;
-  return (combined * combined * (combined * combined)) / denominator;
+/** √(Σ uᵢ²) without overflow or underflow: the sum is formed relative to the largest uᵢ. */
+function rootSumOfSquares(values: readonly number[]): number {
+  const largest = values.reduce((m, v) => Math.max(m, v), 0);
+  if (largest === 0) return 0;
+  let sum = 0;
+  for (const v of values) sum += (v / largest) * (v / largest);
+  return largest * Math.sqrt(sum);
+}
+
+/**
+ * ν_eff = u_c⁴ / Σ uᵢ⁴/νᵢ, formed as 1 / Σ (uᵢ/u_c)⁴/νᵢ so that neither sum overflows or
+ * underflows; `Infinity` when no component has finite νᵢ and uᵢ > 0, or u_c = 0.
+ */
+export function effectiveDegreesOfFreedomOf(
+  combined: number,
+  components: readonly { readonly contribution: number; readonly degreesOfFreedom: number }[],
+): number {
+  if (combined === 0) return Infinity;
+  let denominator = 0;
+  for (const { contribution, degreesOfFreedom } of components) {
+    if (degreesOfFreedom === Infinity || contribution === 0) continue;
+    const ratio = contribution / combined;
+    denominator += (ratio * ratio * (ratio * ratio)) / degreesOfFreedom;
+  }
+  return denominator === 0 ? Infinity : 1 / denominator;
 }
 
 /** The degrees of freedom the GUM uses for k: ν_eff truncated to the next lower integer (G.4.1), unless below 1. */

@@ -1,4 +1,4 @@
-import { BridgeworkError, checkFinite, checkPositive, checkObject, formatValue } from '@bridgework/core';
+import { BridgeworkError, checkFinite, checkOptions, checkPositive, formatValue } from '@bridgework/core';
 import type { Correlation } from './correlations.js';
 import type { InputQuantities, NormalQuantity } from './quantities.js';
 
@@ -79,6 +79,9 @@ export interface LineFit {
   quantities(): LineQuantities;
 }
 
+/** The largest ratio of two known u(yₖ) of one fit: their weights 1/u² then stay within 1e300. */
+const MAX_UNCERTAINTY_RATIO = 1e150;
+
 function numbers(param: string, value: unknown): number[] {
   if (!Array.isArray(value)) {
     throw new BridgeworkError(
@@ -99,7 +102,10 @@ function numbers(param: string, value: unknown): number[] {
  * Sxx = Σwₖ(xₖ − x̄)²: y₂ = Σwₖ(xₖ − x̄)(yₖ − ȳ)/Sxx and y₁ = ȳ + y₂(x₀ − x̄). The parameter
  * covariance is σ²·[[1/W + (x₀ − x̄)²/Sxx, (x₀ − x̄)/Sxx], [(x₀ − x̄)/Sxx, 1/Sxx]] with σ² = 1 when
  * the u(yₖ) are known, and σ² = s² = Σ residual²/(n − 2) otherwise (JCGM 100 H.3.2–H.3.3). Centring
- * on x̄ keeps the sums free of cancellation. This is the minimal general fit the GUM's worked
+ * on x̄ keeps the sums free of cancellation; x and y are scaled by powers of two (exactly) and the
+ * weights taken relative to the smallest u(yₖ), so data anywhere in the binary64 range neither
+ * overflow nor underflow in the sums, and ordinary data give the same doubles as unscaled. This is
+ * the minimal general fit the GUM's worked
  * example needs; polynomial calibration fits belong to the calibration package.
  *
  * @param options - Points, reference abscissa and optional known uncertainties.
@@ -107,7 +113,9 @@ function numbers(param: string, value: unknown): number[] {
  * @throws {@link @bridgework/core!BridgeworkError} `wrong-type`, `not-finite` for bad numbers;
  *   `invalid-shape` when x, y (or the uncertainties) differ in length; `too-few-points` for fewer
  *   than 3 points unweighted (2 weighted); `singular` when every x is the same; `not-positive`
- *   for an uncertainty ≤ 0.
+ *   for an uncertainty ≤ 0; `out-of-range` for known uncertainties more than 1e150 apart, or a
+ *   figure of the fit past binary64 (say a covariance in y units squared for y near 1e160);
+ *   `unknown-option`, `missing-option` for the options' keys.
  * @example
  * ```ts
  * const fit = fitLine({ x: [1, 2, 3], y: [2.1, 3.9, 6.0], x0: 2 });
@@ -116,7 +124,10 @@ function numbers(param: string, value: unknown): number[] {
  * ```
  */
 export function fitLine(options: FitLineOptions): LineFit {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['x', 'y', 'x0', 'yStandardUncertainties'],
+    required: ['x', 'y'],
+  });
   const x = numbers('x', o['x']);
   const y = numbers('y', o['y']);
   const n = x.length;
@@ -130,17 +141,16 @@ export function fitLine(options: FitLineOptions): LineFit {
   const x0 = o['x0'] === undefined ? 0 : checkFinite('x0', o['x0']);
   const given = o['yStandardUncertainties'];
   const weighted = given !== undefined;
-  let w: number[];
-  if (!weighted) w = x.map(() => 1);
-  else if (typeof given === 'number') {
+  let us: number[] | undefined;
+  if (weighted && typeof given === 'number') {
     const u = checkPositive('yStandardUncertainties', given);
-    w = x.map(() => 1 / (u * u));
-  } else {
-    const us = numbers('yStandardUncertainties', given);
-    if (us.length !== n) {
+    us = x.map(() => u);
+  } else if (weighted) {
+    const list = numbers('yStandardUncertainties', given);
+    if (list.length !== n) {
       throw new BridgeworkError(
         'invalid-shape',
-        `\`yStandardUncertainties\` must have ${n} entries; got ${us.length}`,
+        `\`yStandardUncertainties\` must have ${n} entries; got ${list.length}`,
         {
           param: 'yStandardUncertainties',
           value: given,
@@ -148,10 +158,16 @@ export function fitLine(options: FitLineOptions): LineFit {
         },
       );
     }
-    w = us.map((u, k) => {
-      const v = checkPositive(`yStandardUncertainties[${k}]`, u);
-      return 1 / (v * v);
-    });
+    us = list.map((u, k) => checkPositive(`yStandardUncertainties[${k}]`, u));
+    const smallest = us.reduce((m, u) => Math.min(m, u), Infinity);
+    const largest = us.reduce((m, u) => Math.max(m, u), 0);
+    if (largest / smallest > MAX_UNCERTAINTY_RATIO) {
+      throw new BridgeworkError(
+        'out-of-range',
+        `\`yStandardUncertainties\` must lie within a factor ${MAX_UNCERTAINTY_RATIO} of each other (their weights 1/u² within 1e300, the range of binary64); got ${formatValue(smallest)} to ${formatValue(largest)}`,
+        { param: 'yStandardUncertainties', value: given, limit: MAX_UNCERTAINTY_RATIO },
+      );
+    }
   }
   const least = weighted ? 2 : 3;
   if (n < least) {
@@ -165,15 +181,25 @@ export function fitLine(options: FitLineOptions): LineFit {
       },
     );
   }
+  // Work in units scaled by powers of two (exact): x by 2^ex and y by 2^ey, each about its largest
+  // magnitude, and the weights relative to 1/(2^eu)² with 2^eu just below the smallest u(yₖ). For
+  // ordinary data every result is the same double as without scaling; data near the ends of the
+  // binary64 range neither overflow nor underflow in the sums.
+  const ex = binaryExponent(x);
+  const ey = binaryExponent(y);
+  const eu = us === undefined ? 0 : binaryExponent([us.reduce((a, b) => Math.min(a, b), Infinity)]) - 1;
+  const xs = x.map((v) => ldexp(v, -ex));
+  const ys = y.map((v) => ldexp(v, -ey));
+  const w = us === undefined ? x.map(() => 1) : us.map((u) => 1 / ldexp(u, -eu) ** 2);
   const total = w.reduce((a, b) => a + b, 0);
-  const xMean = x.reduce((a, v, k) => a + (w[k] as number) * v, 0) / total;
-  const yMean = y.reduce((a, v, k) => a + (w[k] as number) * v, 0) / total;
+  const xMean = xs.reduce((a, v, k) => a + ((w[k] as number) / total) * v, 0);
+  const yMean = ys.reduce((a, v, k) => a + ((w[k] as number) / total) * v, 0);
   let sxx = 0;
   let sxy = 0;
   for (let k = 0; k < n; k++) {
-    const dx = (x[k] as number) - xMean;
+    const dx = (xs[k] as number) - xMean;
     sxx += (w[k] as number) * dx * dx;
-    sxy += (w[k] as number) * dx * ((y[k] as number) - yMean);
+    sxy += (w[k] as number) * dx * ((ys[k] as number) - yMean);
   }
   if (!(sxx > 0)) {
     throw new BridgeworkError(
@@ -185,41 +211,60 @@ export function fitLine(options: FitLineOptions): LineFit {
       },
     );
   }
-  const slope = sxy / sxx;
-  const intercept = yMean + slope * (x0 - xMean);
-  const residuals = y.map((v, k) => v - (yMean + slope * ((x[k] as number) - xMean)));
-  const ssr = residuals.reduce((a, r, k) => a + (w[k] as number) * r * r, 0);
-  const s2 = n > 2 ? ssr / (n - 2) : 0;
-  const sigma2 = weighted ? 1 : s2;
-  const shift = x0 - xMean;
-  const varSlope = sigma2 / sxx;
-  const varIntercept = sigma2 / total + shift * shift * varSlope;
-  const cov = shift * varSlope;
-  const interceptUncertainty = Math.sqrt(varIntercept);
-  const slopeUncertainty = Math.sqrt(varSlope);
-  const correlation =
-    interceptUncertainty > 0 && slopeUncertainty > 0 ? cov / (interceptUncertainty * slopeUncertainty) : 0;
+  // Scaled slope, residuals and their weighted sum of squares.
+  const slopeScaled = sxy / sxx;
+  const residualsScaled = ys.map((v, k) => v - (yMean + slopeScaled * ((xs[k] as number) - xMean)));
+  const ssrScaled = residualsScaled.reduce((a, r, k) => a + (w[k] as number) * r * r, 0);
+  const sScaled = n > 2 ? Math.sqrt(ssrScaled / (n - 2)) : 0;
+  // σ, the scale of the parameter uncertainties in y units: 2^eu with known u(yₖ), else s; kept
+  // as sigma·2^sigmaExp until the end, as the products below may leave the range on the way.
+  const sigma = weighted ? 1 : sScaled;
+  const sigmaExp = weighted ? eu : ey;
+  const x0Scaled = ldexp(x0, -ex);
+  const shift = x0Scaled - xMean;
+  const slope = finite('slope', ldexp(slopeScaled, ey - ex));
+  const intercept = finite('intercept', ldexp(yMean + slopeScaled * shift, ey));
+  const relativeIntercept = Math.sqrt(1 / total + (shift * shift) / sxx);
+  const interceptUncertainty = finite('intercept uncertainty', ldexp(sigma * relativeIntercept, sigmaExp));
+  const slopeUncertainty = finite('slope uncertainty', ldexp(sigma / Math.sqrt(sxx), sigmaExp - ex));
+  const covariance = finite('covariance', ldexp(((sigma * shift) / sxx) * sigma, 2 * sigmaExp - ex));
+  const correlation = sigma > 0 && relativeIntercept > 0 ? shift / Math.sqrt(sxx) / relativeIntercept : 0;
   const degreesOfFreedom = weighted ? Infinity : n - 2;
+  const residuals = residualsScaled.map((r) => ldexp(r, ey));
+  // Weighted, Σ wₖrₖ² is the dimensionless χ²; unweighted it is in y units squared.
+  const sumOfSquaredResiduals = finite(
+    'sum of squared residuals',
+    ldexp(ssrScaled, weighted ? 2 * (ey - eu) : 2 * ey),
+  );
+  const residualStandardDeviation = finite(
+    'residual standard deviation',
+    ldexp(sScaled, weighted ? ey - eu : ey),
+  );
   return {
     x0,
     intercept,
     slope,
     interceptUncertainty,
     slopeUncertainty,
-    covariance: cov,
+    covariance,
     correlation,
     degreesOfFreedom,
     residuals,
-    sumOfSquaredResiduals: ssr,
-    residualStandardDeviation: Math.sqrt(s2),
+    sumOfSquaredResiduals,
+    residualStandardDeviation,
     predict(at) {
-      const d = checkFinite('x', at) - x0;
-      const fromMean = at - xMean; // the same variance, written without cancellation
-      return {
-        value: intercept + slope * d,
-        standardUncertainty: Math.sqrt(sigma2 / total + fromMean * fromMean * varSlope),
-        degreesOfFreedom,
-      };
+      const atScaled = ldexp(checkFinite('x', at), -ex);
+      const fromMean = atScaled - xMean; // the same variance as from x₀, written without cancellation
+      const value = ldexp(yMean + slopeScaled * fromMean, ey);
+      const standardUncertainty = ldexp(sigma * Math.sqrt(1 / total + (fromMean * fromMean) / sxx), sigmaExp);
+      if (!Number.isFinite(value) || !Number.isFinite(standardUncertainty)) {
+        throw new BridgeworkError(
+          'out-of-range',
+          `\`x\` must be where the line's value and its uncertainty are representable in binary64; got ${formatValue(at)}`,
+          { param: 'x', value: at },
+        );
+      }
+      return { value, standardUncertainty, degreesOfFreedom };
     },
     quantities() {
       const nu = degreesOfFreedom === Infinity ? {} : { degreesOfFreedom };
@@ -235,4 +280,41 @@ export function fitLine(options: FitLineOptions): LineFit {
       };
     },
   };
+}
+
+/** The exponent e of the power of two 2^e at or just above the largest |v| (0 when all are 0). */
+function binaryExponent(values: readonly number[]): number {
+  let largest = 0;
+  for (const v of values) largest = Math.max(largest, Math.abs(v));
+  if (largest === 0) return 0;
+  if (!Number.isFinite(largest)) return 1023;
+  let e = Math.ceil(Math.log2(largest));
+  // Math.log2 may be off by one near powers of two: make 2^(e−1) < largest ≤ 2^e exactly.
+  while (2 ** e < largest) e++;
+  while (e > -1074 && 2 ** (e - 1) >= largest) e--;
+  return Math.max(-1022, Math.min(1023, e));
+}
+
+/** v·2^e, applied in steps so that no factor overflows or underflows on its own. */
+function ldexp(v: number, e: number): number {
+  let r = v;
+  let k = e;
+  while (k > 1000) {
+    r *= 2 ** 1000;
+    k -= 1000;
+  }
+  while (k < -1000) {
+    r *= 2 ** -1000;
+    k += 1000;
+  }
+  return r * 2 ** k;
+}
+
+function finite(name: string, value: number): number {
+  if (Number.isFinite(value)) return value;
+  throw new BridgeworkError(
+    'out-of-range',
+    `the fit's ${name} is not representable in binary64 (${formatValue(value)}): express x or y in other units`,
+    { param: 'y', value },
+  );
 }

@@ -16,12 +16,15 @@ export {
   type LineQuantities,
 } from './fitLine.js';
 export {
+  MONTE_CARLO_BYTES_PER_TRIAL,
+  MONTE_CARLO_MAX_TRIALS,
   monteCarlo,
   type AdaptiveInterval,
   type AdaptiveOptions,
   type AdaptiveReport,
   type AdaptiveSpread,
   type MonteCarloOptions,
+  type MonteCarloProgress,
   type MonteCarloResult,
 } from './monteCarlo.js';
 export {
@@ -45,7 +48,7 @@ export {
 } from './quantities.js';
 export { sampleCoverageIntervals, type CoverageIntervals } from './sampleCoverageIntervals.js';
 export { typeAEvaluation, type TypeAEvaluation } from './typeAEvaluation.js';
-export type { MeasurementModel, VectorMeasurementModel } from './types.js';
+export type { MeasurementModel, PositionalModel, VectorMeasurementModel } from './types.js';
 export {
   numericalTolerance,
   validateGum,

@@ -1,4 +1,11 @@
-import { BridgeworkError, checkObject, checkPositive, checkRange, formatValue } from '@bridgework/core';
+import {
+  BridgeworkError,
+  checkObject,
+  checkOptions,
+  checkPositive,
+  checkRange,
+  formatValue,
+} from '@bridgework/core';
 import { normalizeCorrelations, type Correlation, type CorrelationMatrix } from './correlations.js';
 import { coverageFactor, effectiveDegreesOfFreedomOf, truncatedDegreesOfFreedom } from './coverageFactor.js';
 import {
@@ -8,23 +15,33 @@ import {
   NotFiniteAtPoint,
   type PointEvaluator,
 } from './internal/derivatives.js';
-import { checkModel, describePoint, toOutputs } from './internal/model.js';
+import {
+  describePoint,
+  locateModelError,
+  resolveModel,
+  toOutputs,
+  type ResolvedModel,
+} from './internal/model.js';
 import { acquireRecord, type TrialRecord } from './internal/trialRecord.js';
 import { normalizeInputs, type InputQuantities, type NormalizedInput } from './quantities.js';
 import type { Interval } from '@bridgework/core';
-import type { MeasurementModel, VectorMeasurementModel } from './types.js';
+import type { MeasurementModel, PositionalModel, VectorMeasurementModel } from './types.js';
 
 /** Options of {@link propagate} for a scalar model. */
 export interface PropagateOptions {
-  /** The measurement model; it must return a finite number near the estimates. */
-  readonly model: MeasurementModel;
+  /**
+   * The measurement model, a function of the inputs by name or a {@link PositionalModel} taking
+   * them by position; it must return a finite number near the estimates.
+   */
+  readonly model: MeasurementModel | PositionalModel;
   /** The named input quantities. */
   readonly inputs: InputQuantities;
   /** Correlation coefficients between pairs of inputs (default: none). */
   readonly correlations?: readonly Correlation[];
   /**
-   * The analytic gradient ∂f/∂xᵢ at a point, by input name (every input must be present). When
-   * absent, sensitivities are numerical (Ridders' extrapolation, see {@link propagate}).
+   * The analytic gradient ∂f/∂xᵢ at a point, by input name (every input must be present), for a
+   * record model (a positional model carries its own `gradient`). When absent, sensitivities are
+   * numerical (Ridders' extrapolation, see {@link propagate}).
    */
   readonly gradient?: (x: Readonly<Record<string, number>>) => Readonly<Record<string, number>>;
   /** Add the second-order terms of JCGM 100 5.1.2 eq. (10); uncorrelated inputs only. Default false. */
@@ -42,13 +59,16 @@ export interface PropagateOptions {
 
 /** Options of {@link propagate} for a vector-valued model. */
 export interface VectorPropagateOptions {
-  /** The vector-valued measurement model; it must return the same number of finite outputs at every point. */
-  readonly model: VectorMeasurementModel;
+  /**
+   * The vector-valued measurement model (by name, or a {@link PositionalModel} by position); it
+   * must return the same number of finite outputs at every point.
+   */
+  readonly model: VectorMeasurementModel | PositionalModel<readonly number[]>;
   /** The named input quantities. */
   readonly inputs: InputQuantities;
   /** Correlation coefficients between pairs of inputs (default: none). */
   readonly correlations?: readonly Correlation[];
-  /** The analytic gradient of each output (one record per output, every input present). */
+  /** The analytic gradient of each output (one record per output, every input present), for a record model. */
   readonly gradient?: (x: Readonly<Record<string, number>>) => readonly Readonly<Record<string, number>>[];
   /** Coverage probability p of each output's expanded uncertainty, in (0, 1). Default 0.95. */
   readonly coverage?: number;
@@ -120,28 +140,44 @@ interface Internals {
   /** a[k·n + i] = c_ki·u_i. */
   readonly weighted: Float64Array;
   readonly jac: Float64Array;
-  readonly covariance: Float64Array;
+  /** V(y)/scale², so that no sum of products overflows or underflows. */
+  readonly scaledCovariance: Float64Array;
+  /** The scale: the largest |a[k·n + i]| (1 when all are 0). */
+  readonly scale: number;
   readonly coverage: number;
-  readonly secondOrderVariance: number;
+  /** The second-order variance over scale². */
+  readonly scaledSecondOrder: number;
   readonly statedDegreesOfFreedom: number | undefined;
 }
 
 /**
- * Evaluates the model at points through the shared trial record of these names (see
- * internal/trialRecord.ts), so the model sees the same object shape as in Monte Carlo runs.
+ * Evaluates the model at points (in the inputs' order): a record model through the shared trial
+ * record of these names (see internal/trialRecord.ts), so it sees the same object shape as in
+ * Monte Carlo runs; a positional model with the point rearranged into its order.
  */
 function evaluatorFor(
-  model: (x: Readonly<Record<string, number>>) => unknown,
+  model: ResolvedModel,
   view: TrialRecord,
+  names: readonly string[],
   m: number,
 ): PointEvaluator {
-  const { record, columns, cursor } = view;
+  const { record, rows, cursor } = view;
+  const x = new Float64Array(names.length);
+  const call = (point: Float64Array): unknown => {
+    try {
+      if (model.kind === 'positional') {
+        model.positions.forEach((p, i) => (x[i] = point[p] as number));
+        return model.evaluate(x);
+      }
+      cursor.row = 0;
+      rows.set(point);
+      return model.evaluate(record);
+    } catch (error) {
+      throw locateModelError(error, `at ${describePoint(names, point)}`);
+    }
+  };
   return (point) => {
-    cursor.index = 0;
-    columns.forEach((column, i) => {
-      column[0] = point[i] as number;
-    });
-    const raw = model(record);
+    const raw = call(point);
     const out = toOutputs(raw);
     if (out === undefined || out.length !== m || out.some((v) => !Number.isFinite(v)))
       throw new NotFiniteAtPoint(raw, point.slice());
@@ -155,6 +191,62 @@ function notFiniteError(names: readonly string[], failure: NotFiniteAtPoint): Br
     `\`model\` must return finite outputs near the estimates; got ${formatValue(failure.output)} at ${describePoint(names, failure.point)} while differentiating (check the model's domain, or supply \`gradient\`)`,
     { param: 'model', value: failure.output },
   );
+}
+
+function checkedEntry(path: string, v: unknown): number {
+  if (typeof v !== 'number' || !Number.isFinite(v)) {
+    throw new BridgeworkError(
+      'model-not-finite',
+      `\`${path}\` must be a finite number; got ${formatValue(v)}`,
+      {
+        param: path,
+        value: v,
+      },
+    );
+  }
+  return v;
+}
+
+function gradientShapeError(param: string, expected: string, raw: unknown, limit: number): BridgeworkError {
+  return new BridgeworkError(
+    'invalid-shape',
+    `\`${param}\` must return ${expected}; got ${formatValue(raw)}`,
+    {
+      param,
+      value: raw,
+      limit,
+    },
+  );
+}
+
+/** The Jacobian from a positional model's gradient (rows in `order`, mapped to the inputs' order). */
+function positionalGradientRows(
+  model: Extract<ResolvedModel, { kind: 'positional' }>,
+  gradient: (x: Float64Array) => unknown,
+  x: Float64Array,
+  m: number,
+  scalar: boolean,
+): Float64Array {
+  const n = x.length;
+  const inOrder = new Float64Array(n);
+  model.positions.forEach((p, i) => (inOrder[i] = x[p] as number));
+  const raw = gradient(inOrder);
+  const isRow = (r: unknown): r is ArrayLike<unknown> =>
+    Array.isArray(r) || r instanceof Float64Array || r instanceof Float32Array;
+  const rows: unknown[] = scalar ? [raw] : Array.isArray(raw) ? raw : [];
+  const expected = scalar ? `${n} numbers, one per input of \`order\`` : `${m} arrays of ${n} numbers`;
+  if (rows.length !== m || !rows.every((r) => isRow(r) && r.length === n)) {
+    throw gradientShapeError('model.gradient', expected, raw, scalar ? n : m);
+  }
+  const jac = new Float64Array(m * n);
+  rows.forEach((row, k) => {
+    const r = row as ArrayLike<unknown>;
+    for (let i = 0; i < n; i++) {
+      const path = scalar ? `model.gradient[${i}]` : `model.gradient[${k}][${i}]`;
+      jac[k * n + (model.positions[i] as number)] = checkedEntry(path, r[i]);
+    }
+  });
+  return jac;
 }
 
 function gradientRows(
@@ -171,67 +263,36 @@ function gradientRows(
   const raw = gradient(record);
   const rows: unknown[] = scalar ? [raw] : Array.isArray(raw) ? raw : [];
   if (rows.length !== m) {
-    throw new BridgeworkError(
-      'invalid-shape',
-      `\`gradient\` must return ${scalar ? 'a record' : `${m} records, one per output`}; got ${formatValue(raw)}`,
-      {
-        param: 'gradient',
-        value: raw,
-        limit: m,
-      },
-    );
+    throw gradientShapeError('gradient', scalar ? 'a record' : `${m} records, one per output`, raw, m);
   }
   const n = names.length;
   const jac = new Float64Array(m * n);
   rows.forEach((row, k) => {
     const path = scalar ? 'gradient' : `gradient[${k}]`;
-    const r = checkObject(path, row);
-    for (const key of Object.keys(r)) {
-      if (!names.includes(key)) {
-        throw new BridgeworkError(
-          'invalid-option',
-          `\`${path}.${key}\` must name an input (${names.join(', ')})`,
-          {
-            param: `${path}.${key}`,
-            value: r[key],
-            limit: names,
-          },
-        );
-      }
-    }
+    const r = checkOptions(path, row, { known: names, required: names });
     names.forEach((name, i) => {
-      const v = r[name];
-      if (v === undefined) {
-        throw new BridgeworkError(
-          'missing-option',
-          `\`${path}.${name}\` must be given (the gradient needs every input)`,
-          {
-            param: `${path}.${name}`,
-            value: v,
-          },
-        );
-      }
-      if (typeof v !== 'number' || !Number.isFinite(v)) {
-        throw new BridgeworkError(
-          'model-not-finite',
-          `\`${path}.${name}\` must be a finite number; got ${formatValue(v)}`,
-          {
-            param: `${path}.${name}`,
-            value: v,
-          },
-        );
-      }
-      jac[k * n + i] = v;
+      jac[k * n + i] = checkedEntry(`${path}.${name}`, r[name]);
     });
   });
   return jac;
 }
 
+/** The keys of {@link PropagateOptions} (a vector model's options are a subset). */
+const propagateOptionKeys = [
+  'model',
+  'inputs',
+  'correlations',
+  'gradient',
+  'secondOrder',
+  'coverage',
+  'degreesOfFreedom',
+] as const;
+
 function compute(options: unknown, vectorAllowed: boolean): Internals {
-  const o = checkObject('options', options);
-  const model = checkModel(o['model']);
+  const o = checkOptions('options', options, { known: propagateOptionKeys, required: ['model', 'inputs'] });
   const inputs = normalizeInputs(o['inputs']);
   const names = inputs.map((q) => q.name);
+  const model = resolveModel(o['model'], names);
   const { matrix: r, pairs } = normalizeCorrelations(names, o['correlations']);
   const coverage =
     o['coverage'] === undefined
@@ -256,6 +317,13 @@ function compute(options: unknown, vectorAllowed: boolean): Internals {
       value: gradient,
     });
   }
+  if (gradient !== undefined && model.kind === 'positional') {
+    throw new BridgeworkError(
+      'conflicting-options',
+      '`gradient` must not be given with a positional model: give it as `model.gradient`, by position',
+      { param: 'gradient', value: gradient },
+    );
+  }
   const x = Float64Array.from(inputs, (q) => q.value);
   const u = Float64Array.from(inputs, (q) => q.standardUncertainty);
 
@@ -263,7 +331,7 @@ function compute(options: unknown, vectorAllowed: boolean): Internals {
   try {
     return lawOfPropagation(
       model,
-      gradient,
+      gradient as ((x: Readonly<Record<string, number>>) => unknown) | undefined,
       view,
       inputs,
       x,
@@ -281,8 +349,8 @@ function compute(options: unknown, vectorAllowed: boolean): Internals {
 }
 
 function lawOfPropagation(
-  model: (x: Readonly<Record<string, number>>) => unknown,
-  gradient: unknown,
+  model: ResolvedModel,
+  gradient: ((x: Readonly<Record<string, number>>) => unknown) | undefined,
   view: TrialRecord,
   inputs: NormalizedInput[],
   x: Float64Array,
@@ -297,11 +365,20 @@ function lawOfPropagation(
   const names = inputs.map((q) => q.name);
   const n = names.length;
   // The estimate fixes the shape of the output.
-  view.cursor.index = 0;
-  view.columns.forEach((column, i) => {
-    column[0] = x[i] as number;
-  });
-  const raw = model(view.record);
+  let raw: unknown;
+  try {
+    if (model.kind === 'positional') {
+      const inOrder = new Float64Array(n);
+      model.positions.forEach((p, i) => (inOrder[i] = x[p] as number));
+      raw = model.evaluate(inOrder);
+    } else {
+      view.cursor.row = 0;
+      view.rows.set(x);
+      raw = model.evaluate(view.record);
+    }
+  } catch (error) {
+    throw locateModelError(error, `at the estimates (${describePoint(names, x)})`);
+  }
   const y = toOutputs(raw);
   if (y === undefined || y.length === 0) {
     throw new BridgeworkError(
@@ -346,46 +423,69 @@ function lawOfPropagation(
     );
   }
 
-  const evaluate = evaluatorFor(model, view, m);
+  const evaluate = evaluatorFor(model, view, names, m);
   const steps = baseSteps(x, u);
   let jac: Float64Array;
   try {
-    jac =
-      gradient === undefined
-        ? jacobian(evaluate, x, steps, m)
-        : gradientRows(gradient as (x: Readonly<Record<string, number>>) => unknown, names, x, m, scalar);
+    if (model.kind === 'positional' && model.gradient !== undefined)
+      jac = positionalGradientRows(model, model.gradient, x, m, scalar);
+    else if (gradient !== undefined) jac = gradientRows(gradient, names, x, m, scalar);
+    else jac = jacobian(evaluate, x, steps, m);
   } catch (e) {
     throw e instanceof NotFiniteAtPoint ? notFiniteError(names, e) : e;
   }
+  jac.forEach((c, index) => {
+    if (!Number.isFinite(c)) {
+      const name = names[index % n] as string;
+      throw new BridgeworkError(
+        'model-not-finite',
+        `\`model\` must have a finite sensitivity to '${name}' at the estimates; the difference quotients overflow (${formatValue(c)}): check the model near ${describePoint(names, x)}, or supply the gradient`,
+        { param: 'model', value: c },
+      );
+    }
+  });
 
-  // V(y) = J·V(x)·Jᵀ with V(x)ᵢⱼ = rᵢⱼ·uᵢ·uⱼ, written with the weighted sensitivities aₖᵢ = cₖᵢ·uᵢ.
+  // V(y) = J·V(x)·Jᵀ with V(x)ᵢⱼ = rᵢⱼ·uᵢ·uⱼ, written with the weighted sensitivities aₖᵢ = cₖᵢ·uᵢ,
+  // each divided by the largest |aₖᵢ| so that no product overflows or underflows (u(y) itself is
+  // representable whenever the inputs are; its square may not be).
   const weighted = jac.map((c, index) => c * (u[index % n] as number));
+  let scale = 0;
+  for (const a of weighted) scale = Math.max(scale, Math.abs(a));
+  if (!Number.isFinite(scale)) {
+    throw new BridgeworkError(
+      'out-of-range',
+      `an uncertainty contribution |cᵢ|·u(xᵢ) exceeds the range of binary64 (about 1.8e308) at ${describePoint(names, x)}: express the quantities in other units`,
+      { param: 'inputs', value: scale },
+    );
+  }
+  if (scale === 0) scale = 1;
+  const a = weighted.map((v) => v / scale);
   const covariance = new Float64Array(m * m);
   for (let k = 0; k < m; k++) {
     for (let l = k; l < m; l++) {
       let v = 0;
-      let scale = 0;
+      let size = 0;
       for (let i = 0; i < n; i++) {
-        const t = (weighted[k * n + i] as number) * (weighted[l * n + i] as number);
+        const t = (a[k * n + i] as number) * (a[l * n + i] as number);
         v += t;
-        scale += Math.abs(t);
+        size += Math.abs(t);
       }
       for (const { i, j } of pairs) {
         const t =
           (r[i * n + j] as number) *
-          ((weighted[k * n + i] as number) * (weighted[l * n + j] as number) +
-            (weighted[k * n + j] as number) * (weighted[l * n + i] as number));
+          ((a[k * n + i] as number) * (a[l * n + j] as number) +
+            (a[k * n + j] as number) * (a[l * n + i] as number));
         v += t;
-        scale += Math.abs(t);
+        size += Math.abs(t);
       }
       // A variance can come out a few ulps below zero when correlations cancel it exactly.
-      if (k === l && v < 0 && -v <= 1e-12 * scale) v = 0;
+      if (k === l && v < 0 && -v <= 1e-12 * size) v = 0;
       covariance[k * m + l] = v;
       covariance[l * m + k] = v;
     }
   }
 
-  let secondOrderVariance = 0;
+  let scaledSecondOrder = 0;
   if (secondOrder === true) {
     try {
       const { second, third } = higherDerivatives(
@@ -396,21 +496,31 @@ function lawOfPropagation(
       );
       for (let i = 0; i < n; i++) {
         for (let j = 0; j < n; j++) {
-          const ui2uj2 = (u[i] as number) ** 2 * (u[j] as number) ** 2;
-          if (ui2uj2 === 0) continue;
-          secondOrderVariance +=
-            (0.5 * (second[i * n + j] as number) ** 2 + (jac[i] as number) * (third[i * n + j] as number)) *
-            ui2uj2;
+          const ui = u[i] as number;
+          const uj = u[j] as number;
+          if (ui === 0 || uj === 0) continue;
+          // [½(fᵢⱼuᵢuⱼ)² + (fᵢuᵢ)(fᵢⱼⱼuᵢuⱼ²)]/scale².
+          const mixed = ((second[i * n + j] as number) * ui * uj) / scale;
+          const cross =
+            (((jac[i] as number) * ui) / scale) * (((third[i * n + j] as number) * ui * uj * uj) / scale);
+          scaledSecondOrder += 0.5 * mixed * mixed + cross;
         }
       }
     } catch (e) {
       throw e instanceof NotFiniteAtPoint ? notFiniteError(names, e) : e;
     }
-    if ((covariance[0] as number) + secondOrderVariance < 0) {
+    if (!Number.isFinite(scaledSecondOrder)) {
+      throw new BridgeworkError(
+        'model-not-finite',
+        '`secondOrder` terms must be finite; the second and third derivatives of the model overflow at the estimates (use monteCarlo)',
+        { param: 'secondOrder', value: scaledSecondOrder },
+      );
+    }
+    if ((covariance[0] as number) + scaledSecondOrder < 0) {
       throw new BridgeworkError(
         'out-of-range',
         '`secondOrder` terms must not make the variance negative; the Taylor expansion does not describe this model (use monteCarlo)',
-        { param: 'secondOrder', value: secondOrderVariance },
+        { param: 'secondOrder', value: scaledSecondOrder * scale * scale },
       );
     }
   }
@@ -421,22 +531,39 @@ function lawOfPropagation(
     y,
     weighted,
     jac,
-    covariance,
+    scaledCovariance: covariance,
+    scale,
     coverage,
-    secondOrderVariance,
+    scaledSecondOrder,
     statedDegreesOfFreedom,
   };
 }
 
+/** A figure of the result that must be finite; otherwise the inputs are past what binary64 holds. */
+function finiteFigure(name: string, value: number, why: string): number {
+  if (Number.isFinite(value)) return value;
+  throw new BridgeworkError(
+    'out-of-range',
+    `the ${name} is not representable (${formatValue(value)}): ${why}`,
+    { param: 'inputs', value },
+  );
+}
+
 function outputPropagation(s: Internals, k: number): Propagation {
   const n = s.inputs.length;
-  const variance = (s.covariance[k * s.m + k] as number) + (k === 0 ? s.secondOrderVariance : 0);
-  const standardUncertainty = Math.sqrt(variance);
-  const firstOrder = Math.sqrt(s.covariance[k * s.m + k] as number);
+  const scaledFirst = s.scaledCovariance[k * s.m + k] as number;
+  const scaledVariance = scaledFirst + (k === 0 ? s.scaledSecondOrder : 0);
+  const units = 'express the quantities in other units';
+  const standardUncertainty = finiteFigure(
+    'combined standard uncertainty',
+    s.scale * Math.sqrt(scaledVariance),
+    units,
+  );
+  const firstOrder = s.scale * Math.sqrt(scaledFirst);
   const sensitivities: Record<string, number> = {};
   const contributions: Record<string, number> = {};
   const budget: BudgetLine[] = [];
-  let denominator = 0;
+  const components: { contribution: number; degreesOfFreedom: number }[] = [];
   s.inputs.forEach((q, i) => {
     const c = s.jac[k * n + i] as number;
     const contribution = Math.abs(s.weighted[k * n + i] as number);
@@ -450,14 +577,23 @@ function outputPropagation(s: Internals, k: number): Propagation {
       sensitivity: c,
       contribution,
     });
-    if (q.degreesOfFreedom !== Infinity && contribution > 0)
-      denominator += (contribution * contribution * (contribution * contribution)) / q.degreesOfFreedom;
+    components.push({ contribution, degreesOfFreedom: q.degreesOfFreedom });
   });
   const effectiveDegreesOfFreedom =
-    s.statedDegreesOfFreedom ?? effectiveDegreesOfFreedomOf(firstOrder, denominator);
-  const k95 = coverageFactor(s.coverage, truncatedDegreesOfFreedom(effectiveDegreesOfFreedom));
+    s.statedDegreesOfFreedom ?? effectiveDegreesOfFreedomOf(firstOrder, components);
+  const k95 = finiteFigure(
+    'coverage factor',
+    coverageFactor(s.coverage, truncatedDegreesOfFreedom(effectiveDegreesOfFreedom)),
+    `the effective degrees of freedom ${formatValue(effectiveDegreesOfFreedom)} are too few for a coverage factor at p = ${s.coverage}; state \`degreesOfFreedom\``,
+  );
   const value = s.y[k] as number;
-  const expandedUncertainty = k95 * standardUncertainty;
+  const expandedUncertainty = finiteFigure('expanded uncertainty', k95 * standardUncertainty, units);
+  const interval = {
+    min: finiteFigure('coverage interval', value - expandedUncertainty, units),
+    max: finiteFigure('coverage interval', value + expandedUncertainty, units),
+  };
+  const secondOrderVariance =
+    k === 0 ? finiteFigure('second-order variance', s.scaledSecondOrder * s.scale * s.scale, units) : 0;
   return {
     value,
     standardUncertainty,
@@ -468,8 +604,8 @@ function outputPropagation(s: Internals, k: number): Propagation {
     coverage: s.coverage,
     coverageFactor: k95,
     expandedUncertainty,
-    interval: { min: value - expandedUncertainty, max: value + expandedUncertainty },
-    secondOrderVariance: k === 0 ? s.secondOrderVariance : 0,
+    interval,
+    secondOrderVariance,
   };
 }
 
@@ -500,18 +636,26 @@ function outputPropagation(s: Internals, k: number): Propagation {
  * and a polynomial model of degree ≤ 3, an approximation otherwise. A model that returns an array
  * is vector-valued: see the other signature.
  *
+ * The sums are formed with the weighted sensitivities cᵢ·u(xᵢ) divided by the largest of them,
+ * and Welch–Satterthwaite as 1/Σ(uᵢ/u_c)⁴/νᵢ, so uncertainties anywhere in the binary64 range
+ * give finite results; a figure that is itself past binary64 is refused (`out-of-range`).
+ *
  * Verified against JCGM 100 Annex H.2 (correlated V, I, φ) and H.3, and against analytic
  * derivatives and exact variances (docs/uncertainty.md).
  *
  * @param options - The model, inputs, correlations, optional gradient, second order, coverage.
  * @returns The estimate, combined and expanded uncertainty, sensitivities, contributions, budget,
  *   effective degrees of freedom and coverage interval, in the unit of the model's output.
- * @throws {@link @bridgework/core!BridgeworkError} `wrong-type` unless `model` is a function
- *   returning a number; `model-not-finite` when it (or `gradient`) is not finite near the
- *   estimates; the input codes of {@link standardUncertaintyOf}; `not-positive-semidefinite`,
- *   `invalid-option`, `out-of-range` for bad correlations; `out-of-range` for a coverage outside
- *   (0, 1); `conflicting-options` for `secondOrder` with correlations; `missing-option` or
- *   `invalid-option` for a gradient without an input or with an unknown name.
+ * @throws {@link @bridgework/core!BridgeworkError} `unknown-option`, `missing-option` for the
+ *   options' keys; `wrong-type` unless `model` is a function or a positional model returning a
+ *   number; `model-not-finite` when it (or `gradient`) is not finite near the estimates;
+ *   `model-failed` when it throws an error of its own; the input codes of
+ *   {@link standardUncertaintyOf}; `not-positive-semidefinite`, `invalid-option`, `out-of-range`
+ *   for bad correlations; `out-of-range` for a coverage outside (0, 1), or a result past
+ *   binary64 (U, a covariance); `conflicting-options` for `secondOrder` with correlations, or
+ *   `gradient` with a positional model; `missing-option` or `unknown-option` for a gradient
+ *   without an input or with an unknown name; `invalid-shape` for a positional gradient of the
+ *   wrong length.
  * @example
  * ```ts
  * const r = propagate({
@@ -555,15 +699,23 @@ export function propagate(
   if (s.scalar) return outputPropagation(s, 0);
   const outputs = Array.from({ length: s.m }, (_, k) => outputPropagation(s, k));
   const sd = outputs.map((p) => p.standardUncertainty);
+  const cov = (k: number, l: number): number => s.scaledCovariance[k * s.m + l] as number;
   const covariance = Array.from({ length: s.m }, (_, k) =>
-    Array.from({ length: s.m }, (_, l) => s.covariance[k * s.m + l] as number),
+    Array.from({ length: s.m }, (_, l) =>
+      finiteFigure(
+        'output covariance',
+        cov(k, l) * s.scale * s.scale,
+        'express the quantities in other units',
+      ),
+    ),
   );
+  // Correlations from the scaled covariance: no overflow where the covariance itself would.
   const correlation = covariance.map((row, k) =>
-    row.map((v, l) =>
+    row.map((_, l) =>
       k === l
         ? 1
         : (sd[k] as number) > 0 && (sd[l] as number) > 0
-          ? v / ((sd[k] as number) * (sd[l] as number))
+          ? cov(k, l) / (Math.sqrt(cov(k, k)) * Math.sqrt(cov(l, l)))
           : 0,
     ),
   );

@@ -4,6 +4,7 @@ import {
   checkNonNegative,
   checkObject,
   checkOneOf,
+  checkOptions,
   checkPositive,
 } from '@bridgework/core';
 import type { SamplerSpec } from './internal/samplers.js';
@@ -112,6 +113,9 @@ const keysOf: Record<string, readonly string[]> = {
   t: ['value', 'distribution', 'scale', 'degreesOfFreedom'],
 };
 
+const everyKey = [...new Set(Object.values(keysOf).flat())];
+
+/** Rejects keys of another kind of quantity (`conflicting-options`); unknown keys are refused before. */
 function rejectOtherKeys(
   path: string,
   q: Record<string, unknown>,
@@ -158,7 +162,7 @@ function normalSampler(value: number, u: number, nu: number): SamplerSpec {
  * sampler. `path` names it in errors (`inputs.V`).
  */
 export function normalizeQuantity(path: string, name: string, quantity: unknown): NormalizedInput {
-  const q = checkObject(path, quantity);
+  const q = checkOptions(path, quantity, { known: everyKey, required: ['value'] });
   const value = checkFinite(`${path}.value`, q['value']);
   const distribution =
     q['distribution'] === undefined
@@ -275,14 +279,18 @@ export function normalizeInputs(inputs: unknown): NormalizedInput[] {
  * (4.3.9) and a/√2 for an arcsine distribution of half-width a; for a Student-t quantity the scale
  * s itself, as the GUM treats a Type A evaluation (u = s/√n with ν = n − 1, 4.2). The Monte Carlo
  * method samples the t-distribution, whose standard deviation s·√(ν/(ν − 2)) is larger (JCGM 101
- * 6.4.9.4): that difference between the two methods is real and shows in their comparison.
+ * 6.4.9.4): that difference between the two methods is real and shows in their comparison. For
+ * ν ≤ 2 the t-distribution has no finite variance: the GUM's Type A u = s returned here still
+ * holds for the law of propagation, but `monteCarlo` refuses such an input (`out-of-range`).
  *
  * @param quantity - The input quantity.
  * @returns u(x), in the unit of its value.
  * @throws {@link @bridgework/core!BridgeworkError} `wrong-type` or `not-finite` for a bad number;
  *   `negative` for a negative uncertainty, half-width or scale; `not-positive` for a coverage
- *   factor or degrees of freedom ≤ 0; `invalid-option` for an unknown distribution; `missing-option` when a field
- *   the distribution needs is absent; `conflicting-options` for a field of another kind.
+ *   factor or degrees of freedom ≤ 0; `invalid-option` for an unknown distribution;
+ *   `missing-option` when `value` or a field the distribution needs is absent; `unknown-option`
+ *   for a field no quantity has (naming the closest); `conflicting-options` for a field of
+ *   another kind.
  * @example
  * ```ts
  * standardUncertaintyOf({ value: 2.1, distribution: 'rectangular', halfWidth: 0.021 }); // 0.012124… (a/√3)

@@ -1,4 +1,11 @@
-import { BridgeworkError, checkFinite, checkInteger, checkNonNegative, checkObject } from '@bridgework/core';
+import {
+  BridgeworkError,
+  checkFinite,
+  checkInteger,
+  checkNonNegative,
+  checkObject,
+  checkOptions,
+} from '@bridgework/core';
 import type { Interval } from '@bridgework/core';
 
 /**
@@ -8,7 +15,8 @@ import type { Interval } from '@bridgework/core';
  * @remarks
  * Write |value| = c × 10^l with c an integer of `significantDigits` digits (rounding to nearest);
  * then δ = ½ × 10^l. For example u(y) = 0.000 35 to two digits is 35 × 10⁻⁵, so δ = 5 × 10⁻⁶.
- * A zero value has tolerance 0. JCGM 101 uses δ to decide when an adaptive Monte Carlo run has
+ * A zero value has tolerance 0; below 1e-250, δ is found for v·10³⁰⁰ and divided back (within a
+ * few ulps, and subnormal below about 2e-308). JCGM 101 uses δ to decide when an adaptive Monte Carlo run has
  * stabilised (7.9.4) and whether the GUM result is validated (8.2).
  *
  * @param value - The value, usually a standard uncertainty u(y) (finite).
@@ -27,6 +35,13 @@ export function numericalTolerance(value: number, significantDigits: number = 2)
   const v = Math.abs(checkFinite('value', value));
   const digits = checkInteger('significantDigits', significantDigits, { min: 1, max: 15 });
   if (v === 0) return 0;
+  // Below 1e-250 the powers of ten used here would leave the normal range: work on v·10³⁰⁰.
+  if (v < 1e-250) return toleranceOf(v * 1e300, digits) / 1e300;
+  return toleranceOf(v, digits);
+}
+
+/** δ for v in [1e-250, MAX_VALUE] (the powers of ten 10^l used stay normal doubles). */
+function toleranceOf(v: number, digits: number): number {
   let l = Math.floor(Math.log10(v)) - digits + 1;
   const c = (exponent: number): number => Math.round(v / 10 ** exponent);
   // Repair log10 rounding at exact powers of ten, and values that round up to 10^digits.
@@ -89,7 +104,9 @@ export interface GumValidation {
  *
  * @param options - Both results and ndig.
  * @returns d_low, d_high, δ and the verdict.
- * @throws {@link @bridgework/core!BridgeworkError} `wrong-type`, `not-finite`, `negative` for bad fields.
+ * @throws {@link @bridgework/core!BridgeworkError} `wrong-type`, `not-finite`, `negative` for bad fields;
+ *   `out-of-range` for an interval whose `max` is below its `min` or a bad digit count;
+ *   `unknown-option`, `missing-option` for the options' keys.
  * @example
  * ```ts
  * validateGum({
@@ -99,7 +116,10 @@ export interface GumValidation {
  * ```
  */
 export function validateGum(options: ValidateGumOptions): GumValidation {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['gum', 'monteCarlo', 'significantDigits'],
+    required: ['gum', 'monteCarlo'],
+  });
   const gum = checkObject('gum', o['gum']);
   const mc = checkObject('monteCarlo', o['monteCarlo']);
   const y = checkFinite('gum.value', gum['value']);
@@ -115,7 +135,10 @@ export function validateGum(options: ValidateGumOptions): GumValidation {
       limit: low,
     });
   }
-  const significantDigits = o['significantDigits'] === undefined ? 2 : (o['significantDigits'] as number);
+  const significantDigits =
+    o['significantDigits'] === undefined
+      ? 2
+      : checkInteger('significantDigits', o['significantDigits'], { min: 1, max: 15 });
   const tolerance = numericalTolerance(u, significantDigits);
   const dLow = Math.abs(y - expanded - low);
   const dHigh = Math.abs(y + expanded - high);

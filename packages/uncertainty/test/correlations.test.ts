@@ -96,7 +96,7 @@ describe('correlation matrices', () => {
     expect(run([{ between: ['a', 'b'], coefficient: NaN }])).toThrowBridgeworkError('not-finite', {
       param: 'correlations[0].coefficient',
     });
-    expect(run([{ between: ['a', 'b'] }])).toThrowBridgeworkError('wrong-type', {
+    expect(run([{ between: ['a', 'b'] }])).toThrowBridgeworkError('missing-option', {
       param: 'correlations[0].coefficient',
     });
     expect(

@@ -68,7 +68,8 @@ describe('monteCarlo: bad input', () => {
 
   it('rejects bad options with specific errors', () => {
     const run = (extra: Record<string, unknown>) => () => monteCarlo({ model, inputs, ...extra } as never);
-    expect(run({ model: undefined })).toThrowBridgeworkError('wrong-type', { param: 'model' });
+    expect(run({ model: undefined })).toThrowBridgeworkError('missing-option', { param: 'options.model' });
+    expect(run({ model: 3 })).toThrowBridgeworkError('wrong-type', { param: 'model' });
     expect(
       run({ inputs: { a: { value: 1, distribution: 'lognormal', halfWidth: 1 } } }),
     ).toThrowBridgeworkError('invalid-option', {

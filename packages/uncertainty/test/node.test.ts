@@ -1,7 +1,15 @@
 import { describe, expect, it } from 'vitest';
-import { monteCarlo } from '@bridgework/uncertainty';
+import { isBridgeworkError, type BridgeworkError } from '@bridgework/core';
+import { monteCarlo, type MonteCarloProgress } from '@bridgework/uncertainty';
 import { createMonteCarloPool, monteCarloInWorkers } from '@bridgework/uncertainty/node';
-import { twelveInputModel, twelveInputs } from './support/benchModel.js';
+import {
+  rarelyFailingModel,
+  scaledTwelveInputModel,
+  throwingModel,
+  twelveInputModel,
+  twelveInputPositional,
+  twelveInputs,
+} from './support/benchModel.js';
 
 const module = new URL('./support/benchModel.ts', import.meta.url);
 
@@ -60,6 +68,127 @@ describe('@bridgework/uncertainty/node: worker threads', () => {
     await expect(createMonteCarloPool({ model: { module }, workers: 0 })).rejects.toMatchObject({
       code: 'out-of-range',
       param: 'workers',
+    });
+  }, 60_000);
+});
+
+describe('@bridgework/uncertainty/node: models, progress and failures', () => {
+  const one = { a: { value: 1, standardUncertainty: 0.1 } } as const;
+
+  it('runs positional models and models made by a factory from `argument`, bit-identical to one thread', async () => {
+    const options = { inputs: twelveInputs, trials: 60_000, seed: 8, returnValues: true } as const;
+    const reference = monteCarlo({ model: twelveInputPositional, ...options });
+    const positional = await monteCarloInWorkers({
+      model: { module, exportName: 'twelveInputPositional' },
+      workers: 2,
+      ...options,
+    });
+    expect(positional).toEqual(reference);
+    const scaled = await monteCarloInWorkers({
+      model: { module, exportName: 'scaledTwelveInputModel', argument: { factor: 3 } },
+      workers: 2,
+      ...options,
+    });
+    expect(scaled).toEqual(monteCarlo({ model: scaledTwelveInputModel({ factor: 3 }), ...options }));
+  }, 60_000);
+
+  it('reports progress from the workers up to the run’s trials; a throw abandons the run, the pool stays usable', async () => {
+    const pool = await createMonteCarloPool({
+      model: { module, exportName: 'twelveInputModel' },
+      workers: 2,
+    });
+    try {
+      const seen: MonteCarloProgress[] = [];
+      const trials = 3_000_000;
+      const r = await pool.run({ inputs: twelveInputs, trials, onProgress: (p) => seen.push(p) });
+      expect(r.trials).toBe(trials);
+      expect(seen.length).toBeGreaterThan(0);
+      expect(seen[seen.length - 1]).toEqual({ trials, plannedTrials: trials, maxTrials: trials });
+      for (let i = 1; i < seen.length; i++) expect(seen[i]!.trials).toBeGreaterThan(seen[i - 1]!.trials);
+      const stop = new Error('stopped by the caller');
+      await expect(
+        pool.run({
+          inputs: twelveInputs,
+          trials,
+          onProgress: () => {
+            throw stop;
+          },
+        }),
+      ).rejects.toBe(stop);
+      const again = await pool.run({ inputs: twelveInputs, trials: 40_000, seed: 2 });
+      expect(again).toEqual(
+        monteCarlo({ model: twelveInputModel, inputs: twelveInputs, trials: 40_000, seed: 2 }),
+      );
+    } finally {
+      await pool.close();
+    }
+  }, 60_000);
+
+  // Issue 15 item 14: the worker path reported another failing trial than one thread (16706 vs 779).
+  it('reports the same failing trial as one thread, for a model returning NaN and one that throws', async () => {
+    for (const [exportName, fn, code] of [
+      ['rarelyFailingModel', rarelyFailingModel, 'model-not-finite'],
+      ['throwingModel', throwingModel, 'model-failed'],
+    ] as const) {
+      let expected: BridgeworkError | undefined;
+      try {
+        monteCarlo({ model: fn, inputs: one, trials: 1_000_000, compareWithGum: false });
+      } catch (e) {
+        expected = e as BridgeworkError;
+      }
+      expect(expected?.code).toBe(code);
+      expect(expected?.message).toMatch(/at trial \d+ \(a = 1\.4/);
+      for (const workers of [1, 2, 3]) {
+        const failure = monteCarloInWorkers({
+          model: { module, exportName },
+          inputs: one,
+          trials: 1_000_000,
+          compareWithGum: false,
+          workers,
+        });
+        await expect(failure).rejects.toMatchObject({ code, param: 'model', message: expected!.message });
+        await failure.catch((e: unknown) => expect(isBridgeworkError(e)).toBe(true));
+      }
+    }
+  }, 120_000);
+
+  // Issue 15 item 11: untyped errors from the pool.
+  it('gives typed errors: a run after close, a module that cannot be found or fails to load, a throwing model', async () => {
+    const pool = await createMonteCarloPool({
+      model: { module, exportName: 'twelveInputModel' },
+      workers: 1,
+    });
+    await pool.close();
+    await expect(pool.run({ inputs: twelveInputs, trials: 1000 })).rejects.toMatchObject({ code: 'closed' });
+    await expect(
+      createMonteCarloPool({
+        model: { module: new URL('./support/noSuchModel.ts', import.meta.url) },
+        workers: 1,
+      }),
+    ).rejects.toMatchObject({ code: 'io-error', param: 'model.module' });
+    await expect(
+      createMonteCarloPool({
+        model: { module: new URL('./support/brokenModel.ts', import.meta.url) },
+        workers: 1,
+      }),
+    ).rejects.toMatchObject({ code: 'model-failed', param: 'model.module' });
+    const thrown = await monteCarloInWorkers({
+      model: { module, exportName: 'throwingModel' },
+      inputs: one,
+      trials: 200_000,
+      workers: 1,
+    }).catch((e: unknown) => e);
+    expect(isBridgeworkError(thrown, 'model-failed')).toBe(true);
+    expect((thrown as BridgeworkError).cause).toMatchObject({ name: 'RangeError' });
+    await expect(
+      createMonteCarloPool({ model: { module, exportName: 'twelveInputModel', argument: { f: () => 1 } } }),
+    ).rejects.toMatchObject({ code: 'wrong-type', param: 'model.argument' });
+    await expect(
+      createMonteCarloPool({ model: { module, exportNam: 'twelveInputModel' } as never }),
+    ).rejects.toMatchObject({ code: 'unknown-option', param: 'model.exportNam' });
+    await expect(createMonteCarloPool({ model: { module }, worker: 2 } as never)).rejects.toMatchObject({
+      code: 'unknown-option',
+      param: 'options.worker',
     });
   }, 60_000);
 });

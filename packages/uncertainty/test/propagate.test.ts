@@ -345,7 +345,7 @@ describe('propagate: bad models and options', () => {
     );
     expect(() =>
       propagate({ model: ({ a }) => a!, inputs, gradient: () => ({ a: 1, b: 2 }) }),
-    ).toThrowBridgeworkError('invalid-option', {
+    ).toThrowBridgeworkError('unknown-option', {
       param: 'gradient.b',
     });
     expect(() =>

@@ -39,7 +39,16 @@ describe('standardUncertaintyOf', () => {
     expect(bad({ value: '1', standardUncertainty: 1 })).toThrowBridgeworkError('wrong-type', {
       param: 'quantity.value',
     });
-    expect(bad({ standardUncertainty: 1 })).toThrowBridgeworkError('wrong-type', { param: 'quantity.value' });
+    expect(bad({ standardUncertainty: 1 })).toThrowBridgeworkError('missing-option', {
+      param: 'quantity.value',
+    });
+    // A misspelt field names the closest one (issue 15 item 5), instead of reading as absent.
+    expect(bad({ value: 1, standardUncertanty: 0.1 })).toThrowBridgeworkError('unknown-option', {
+      param: 'quantity.standardUncertanty',
+    });
+    expect(() => standardUncertaintyOf({ value: 1, standardUncertanty: 0.1 } as never)).toThrow(
+      /did you mean `standardUncertainty`/,
+    );
     expect(bad({ value: 1, standardUncertainty: -0.1 })).toThrowBridgeworkError('negative', {
       param: 'quantity.standardUncertainty',
     });
@@ -101,9 +110,9 @@ describe('standardUncertaintyOf', () => {
       'negative',
       { param: 'quantity.scale' },
     );
-    // A misspelt field is not silently ignored.
+    // A misspelt field is not silently ignored: unknown-option, naming the closest field.
     expect(bad({ value: 1, standardUncertainty: 1, degreesOfFreedon: 3 })).toThrowBridgeworkError(
-      'conflicting-options',
+      'unknown-option',
       {
         param: 'quantity.degreesOfFreedon',
       },

@@ -217,7 +217,7 @@ export interface AdcSpec {
 
 /** The zero reading: the code read at zero load, for the exact two-reading method. */
 export interface ZeroSpec {
-  /** The converter code at zero (integer inside the converter's range). */
+  /** The converter code at zero, inside the converter's range (a mean of codes need not be an integer). */
   readonly code: number;
 }
 

@@ -315,7 +315,11 @@ const schemaRoot = objectField<ChannelSpec>(
       { doc: 'Analog-to-digital converter' },
     ),
     zero: objectField(
-      { code: numberField({ doc: 'Converter code at zero load', integer: true }) },
+      {
+        code: numberField({
+          doc: 'Converter code at zero load (an average of codes need not be an integer)',
+        }),
+      },
       { doc: 'Zero reading for the two-reading method', optional: true },
     ),
     polarity: choiceField(['normal', 'inverted'] as const, { doc: 'Signal polarity', default: 'normal' }),

@@ -1,29 +1,5 @@
 import { BridgeworkError, checkInteger } from '@bridgework/core';
 
-/** What a block converter reports about one call. */
-export interface ConverterStatus {
-  /**
-   * Samples of this call that were flagged and written as NaN: codes at or beyond the converter
-   * rails, or codes whose value lies outside the map's domain. Never turned into plausible numbers.
-   */
-  readonly clipped: number;
-}
-
-/**
- * The contract of an interleaved block converter, which the channel package's converter meets.
- *
- * @remarks
- * `codes` holds `frames × channels` converter codes, frame-major (`codes[f * channels + c]`);
- * the converter writes the quantity of each code to `out` at the same index (`out.length ===
- * codes.length`), NaN for every flagged sample, and returns how many it flagged. It must not keep
- * references to either array: both are reused for the next block.
- */
-export type InterleavedConverter = (
-  codes: Int32Array,
-  channels: number,
-  out: Float64Array,
-) => ConverterStatus;
-
 /** Clipped samples of one channel. */
 export interface ChannelClipCount {
   /** Number of clipped samples. */
@@ -49,15 +25,22 @@ export interface ClipSummary {
 /** Accumulates a {@link ClipSummary} block by block (see {@link createClipCounter}). */
 export interface ClipCounter {
   /**
-   * Counts the NaN samples of one converted block per channel and checks them against the
-   * converter's own count.
+   * Counts the NaN samples of one converted block per channel and checks them against what the
+   * converter reported.
    *
-   * @param out - The converted block (`frames × channels` values).
+   * @param values - The converted block, one lane per channel (channel `j` at `j × laneStride`).
+   * @param laneStride - Distance between lanes.
    * @param frames - Frames in the block.
-   * @param firstFrame - Index of the block's first frame in the file.
-   * @param status - What the converter reported for this block.
+   * @param firstFrame - Index of the block's first frame in the recording.
+   * @param rejected - Samples of each channel that the converter reported as NaN.
    */
-  add(out: Float64Array, frames: number, firstFrame: number, status: ConverterStatus): void;
+  add(
+    values: Float64Array,
+    laneStride: number,
+    frames: number,
+    firstFrame: number,
+    rejected: readonly number[],
+  ): void;
   /** The summary so far. */
   summary(): ClipSummary;
 }
@@ -66,9 +49,9 @@ export interface ClipCounter {
  * A counter of clipped samples, the hook behind the conversion summary.
  *
  * @remarks
- * The counter does not trust the converter's figure alone: it scans each converted block, counts
- * NaN samples per channel (with the first and last frame of each), and throws if that count differs
- * from the converter's `status.clipped` or if a sample is ±Infinity — either would be a converter
+ * The counter does not trust the converter's figures alone: it scans each converted block, counts
+ * NaN samples per channel (with the first and last frame of each), and throws if a count differs
+ * from what the converter reported or if a sample is ±Infinity — either would be a converter
  * defect, which must stop the conversion rather than reach an output file.
  *
  * @param channels - Channels per frame (integer in [1, 4096]).
@@ -79,7 +62,7 @@ export interface ClipCounter {
  * @example
  * ```ts
  * const counter = createClipCounter(2);
- * counter.add(Float64Array.of(1, NaN, 3, 4), 2, 0, { clipped: 1 });
+ * counter.add(Float64Array.of(1, 3, NaN, 4), 2, 2, 0, [0, 1]); // lanes [1, 3] and [NaN, 4]
  * counter.summary(); // { frames: 2, channels: 2, clipped: 1, perChannel: [{ clipped: 0, ... }, { clipped: 1, firstFrame: 0, lastFrame: 0 }] }
  * ```
  */
@@ -91,38 +74,40 @@ export function createClipCounter(channels: number): ClipCounter {
   let frames = 0;
   let total = 0;
   return {
-    add(out, blockFrames, firstFrame, status) {
-      if (out.length < blockFrames * channels) {
+    add(values, laneStride, blockFrames, firstFrame, rejected) {
+      if (values.length < (channels - 1) * laneStride + blockFrames || laneStride < blockFrames) {
         throw new BridgeworkError(
           'invalid-shape',
-          `\`out\` must hold ${blockFrames * channels} values; got ${out.length}`,
-          { param: 'out', value: out.length, limit: blockFrames * channels },
+          `\`values\` must hold ${channels} lanes of ${blockFrames} values ${laneStride} apart; got ${values.length} values`,
+          { param: 'values', value: values.length, limit: (channels - 1) * laneStride + blockFrames },
         );
       }
       let found = 0;
-      for (let f = 0; f < blockFrames; f++) {
-        const base = f * channels;
-        for (let c = 0; c < channels; c++) {
-          const v = out[base + c] as number;
+      for (let c = 0; c < channels; c++) {
+        const base = c * laneStride;
+        let inLane = 0;
+        for (let f = 0; f < blockFrames; f++) {
+          const v = values[base + f] as number;
           if (v !== v) {
-            found++;
-            counts[c] = (counts[c] as number) + 1;
+            inLane++;
             if (first[c] === undefined) first[c] = firstFrame + f;
             last[c] = firstFrame + f;
           } else if (v === Infinity || v === -Infinity) {
             throw new BridgeworkError(
               'model-not-finite',
               `the converter returned ${v} for channel ${c + 1} at frame ${firstFrame + f}; flagged samples must be NaN`,
-              { param: 'out', value: v },
+              { param: 'values', value: v },
             );
           }
         }
-      }
-      if (found !== status.clipped) {
-        // A converter defect, not bad input: stop with a plain Error (reported as an internal error).
-        throw new Error(
-          `the converter reported ${status.clipped} clipped samples in frames ${firstFrame} to ${firstFrame + blockFrames - 1}, but ${found} are NaN`,
-        );
+        if (inLane !== rejected[c]) {
+          // A converter defect, not bad input: stop with a plain Error (reported as an internal error).
+          throw new Error(
+            `the converter reported ${rejected[c]} clipped samples of channel ${c + 1} in frames ${firstFrame} to ${firstFrame + blockFrames - 1}, but ${inLane} are NaN`,
+          );
+        }
+        counts[c] = (counts[c] as number) + inLane;
+        found += inLane;
       }
       frames += blockFrames;
       total += found;

@@ -1,85 +1,67 @@
-import { checkInteger, checkLength } from '@bridgework/core';
+import { checkInteger } from '@bridgework/core';
 import { quoteCsvField } from '../internal/csvText.js';
+import type { ConvertedBlock, RecordingWriter } from './convertRecording.js';
+import { writeDigits, writeShortest } from './numberText.js';
 import type { OutputSink } from './outputSink.js';
+import { timeHeading, type RecordingColumns } from './recordingColumns.js';
 
 /** Options of {@link createCsvWriter}. */
 export interface CsvWriterOptions {
-  /** Column names written as the first line (one per channel). Default: no header line. */
-  readonly header?: readonly string[];
+  /** Write the header line (column names with units). Default true. */
+  readonly header?: boolean;
   /**
    * Significant digits of each value (integer in [1, 17]). Default: the shortest text that reads
    * back as exactly the same double (JavaScript's `String(x)`), so nothing is lost.
    */
   readonly digits?: number;
-  /** Text written for a flagged sample (NaN). Default `'NaN'`. */
-  readonly nanText?: string;
-}
-
-/** Writes blocks of interleaved values as CSV rows. */
-export interface CsvWriter {
-  /** Number of data rows written so far. */
-  readonly rows: number;
-  /**
-   * Writes `frames` rows of `channels` values each from `values` (frame-major). The header, when
-   * there is one, goes out before the first row.
-   */
-  writeBlock(values: Float64Array, frames: number): Promise<void>;
-  /** Writes the header if no row was written (so an empty input still gives a header). */
-  finish(): Promise<void>;
 }
 
 /** Size of the reused output buffer: 1 MiB. */
 const BUFFER_BYTES = 1 << 20;
-/** Longest text of one value plus its separator (`-1.2345678901234567e-308,` is 25 bytes). */
+/** Longest text of one number plus its separator (`-1.2345678901234567e-308,` is 25 bytes). */
 const MAX_CELL_BYTES = 32;
 
 /**
- * A streamed CSV writer for converted values.
+ * A streamed CSV writer for converted recordings: one row per frame, columns time (when the
+ * recording has one), the passed-through columns, then one per channel.
  *
  * @remarks
- * Values are formatted one by one into a reused 1 MiB byte buffer, which is handed to the sink
- * (and awaited) whenever it fills and at the end of each block. Nothing grows with the block or
- * the file: no array of cell strings, no joined block text; the only allocations are the short
- * number strings, which die young. Lines end with `\n`; header names are UTF-8 and quoted per
- * RFC 4180 when they need it. NaN (a clipped or out-of-range sample) is written as `nanText`;
- * −0 is written as `0`.
+ * Values are formatted one by one straight into a reused 1 MiB byte buffer (see
+ * {@link writeShortest} and {@link writeDigits}), which is handed to the sink (and awaited)
+ * whenever it fills and at the end of each block: nothing grows with the block or the file. Lines
+ * end with `\n`; the header holds the time column, the passed-through names and `name (unit)` for
+ * each channel, quoted per RFC 4180 when needed, as are passed-through texts. NaN (a clipped or
+ * out-of-range sample) is written as `NaN`; −0 as `0`. Time stamps are written exactly (64-bit
+ * integers in full).
  *
  * @param sink - Where the bytes go.
- * @param channels - Values per row (integer in [1, 4096]).
- * @param options - Header, digits and NaN text.
+ * @param columns - The columns.
+ * @param options - Header and digits.
  * @returns The writer.
- * @throws {@link @bridgework/core!BridgeworkError} `not-integer` or `out-of-range` (channels, digits, frames),
- * `invalid-shape` (a header with the wrong number of names).
+ * @throws {@link @bridgework/core!BridgeworkError} `not-integer` or `out-of-range` for `digits`.
  * @example
  * ```ts
- * const writer = createCsvWriter(streamSink(process.stdout), 2, { header: ['hook (N)', 'trolley (N)'] });
- * await writer.writeBlock(Float64Array.of(1.5, 2, NaN, 4), 2); // hook (N),trolley (N)\n1.5,2\nNaN,4\n
+ * const writer = createCsvWriter(streamSink(process.stdout), columns);
+ * await writer.writeBlock(block); // hook (N),trolley (N)\n1.5,2\nNaN,4\n
  * ```
  */
 export function createCsvWriter(
   sink: OutputSink,
-  channels: number,
+  columns: RecordingColumns,
   options: CsvWriterOptions = {},
-): CsvWriter {
-  checkInteger('channels', channels, { min: 1, max: 4096 });
+): RecordingWriter {
   const digits =
     options.digits === undefined ? undefined : checkInteger('digits', options.digits, { min: 1, max: 17 });
-  const header =
-    options.header === undefined
-      ? undefined
-      : `${checkLength<string>('header', options.header, channels)
-          .map((h) => quoteCsvField(h))
-          .join(',')}\n`;
-  const nanText = options.nanText ?? 'NaN';
-  const nanAscii = /^[\x20-\x7e]*$/.test(nanText) && nanText.length < MAX_CELL_BYTES;
-  const format =
-    digits === undefined
-      ? (v: number): string => (v !== v ? nanText : String(v))
-      : (v: number): string => (v !== v ? nanText : String(Number(v.toPrecision(digits))));
+  const channels = columns.channels.length;
+  const names = [
+    ...(columns.time === undefined ? [] : [timeHeading(columns.time)]),
+    ...columns.passThrough,
+    ...columns.channels.map((c) => `${c.name} (${c.unit})`),
+  ];
+  const header = options.header === false ? undefined : `${names.map((h) => quoteCsvField(h)).join(',')}\n`;
   const buffer = Buffer.allocUnsafe(BUFFER_BYTES);
   const limit = BUFFER_BYTES - MAX_CELL_BYTES;
   let used = 0;
-  let rows = 0;
   let headerDone = header === undefined;
 
   const flush = async (): Promise<void> => {
@@ -88,33 +70,42 @@ export function createCsvWriter(
     used = 0;
     await sink.write(buffer.subarray(0, n));
   };
+  const writeText = async (text: string): Promise<void> => {
+    const bytes = Buffer.byteLength(text, 'utf8');
+    if (used + bytes > limit) await flush();
+    if (bytes > limit) await sink.write(text);
+    else used += buffer.write(text, used, 'utf8');
+  };
   const writeHeader = async (): Promise<void> => {
     headerDone = true;
     await sink.write(header as string);
   };
 
   return {
-    get rows() {
-      return rows;
-    },
-    async writeBlock(values, frames) {
-      checkInteger('frames', frames, { min: 0, max: Math.floor(values.length / channels) });
+    async writeBlock(block) {
       if (!headerDone) await writeHeader();
-      let i = 0;
+      const { values, laneStride, frames, timeStamps, passThrough } = block;
       for (let f = 0; f < frames; f++) {
+        if (used > limit) await flush();
+        if (timeStamps !== undefined) {
+          const t = timeStamps[f] as number | bigint;
+          if (typeof t === 'bigint') used += buffer.write(t.toString(), used, 'latin1');
+          else used = writeShortest(t, buffer, used);
+          buffer[used++] = 44;
+        }
+        if (passThrough !== undefined) {
+          for (const column of passThrough) {
+            await writeText(quoteCsvField(column[f] as string));
+            buffer[used++] = 44;
+          }
+        }
         for (let c = 0; c < channels; c++) {
           if (used > limit) await flush();
-          const v = values[i++] as number;
-          if (v !== v && !nanAscii) {
-            await flush();
-            await sink.write(nanText);
-          } else {
-            used += buffer.write(format(v), used, 'latin1');
-          }
+          const v = values[c * laneStride + f] as number;
+          used = digits === undefined ? writeShortest(v, buffer, used) : writeDigits(v, digits, buffer, used);
           buffer[used++] = c === channels - 1 ? 10 : 44; // '\n' or ','
         }
       }
-      rows += frames;
       await flush();
     },
     async finish() {

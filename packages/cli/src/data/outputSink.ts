@@ -15,9 +15,12 @@ const utf8 = new TextDecoder('utf-8');
 /**
  * An {@link OutputSink} over a stream such as `process.stdout`, honouring back-pressure: when the
  * stream's buffer is full (`write` returned `false`) the next chunk waits for `'drain'`. Bytes are
- * decoded as UTF-8 into a new string, so the caller's buffer is free as soon as `write` returns.
+ * decoded as UTF-8 into a new string (or, with `binary`, copied into a new buffer, for streams
+ * that take bytes such as `process.stdout`), so the caller's buffer is free as soon as `write`
+ * returns.
  *
  * @param stream - The stream.
+ * @param options - `binary`: pass bytes through unchanged (a binary format on a pipe).
  * @returns The sink.
  * @example
  * ```ts
@@ -25,10 +28,12 @@ const utf8 = new TextDecoder('utf-8');
  * await sink.write('strain\n');
  * ```
  */
-export function streamSink(stream: CliStream): OutputSink {
+export function streamSink(stream: CliStream, options: { readonly binary?: boolean } = {}): OutputSink {
+  const binary = options.binary === true;
   return {
     write(chunk) {
-      const ok = stream.write(typeof chunk === 'string' ? chunk : utf8.decode(chunk));
+      const data = typeof chunk === 'string' ? chunk : binary ? Buffer.from(chunk) : utf8.decode(chunk);
+      const ok = (stream.write as (data: string | Uint8Array) => unknown)(data);
       if (ok !== false || typeof stream.once !== 'function') return Promise.resolve();
       return new Promise((resolve) => {
         stream.once?.('drain', resolve);

@@ -3,6 +3,7 @@ import { constants as fsConstants } from 'node:fs';
 import { link, open, rename, stat, unlink, type FileHandle } from 'node:fs/promises';
 import { basename, dirname, join, resolve } from 'node:path';
 import { BridgeworkError } from '@bridgework/core';
+import { describeFsError, describeOutputError } from '../internal/fileErrors.js';
 import { addPendingTempFile, removePendingTempFile } from '../internal/pendingTempFiles.js';
 
 /** Options of {@link openAtomicFile} and {@link writeFileAtomic}. */
@@ -32,23 +33,6 @@ function ioError(message: string, path: string, cause: unknown): BridgeworkError
   return new BridgeworkError('io-error', message, { param: path, cause });
 }
 
-function reason(e: unknown): string {
-  const code = (e as NodeJS.ErrnoException).code;
-  switch (code) {
-    case 'ENOENT':
-      return 'the folder does not exist';
-    case 'EACCES':
-    case 'EPERM':
-      return 'permission denied';
-    case 'EISDIR':
-      return 'it is a folder';
-    case 'ENOSPC':
-      return 'the disk is full';
-    default:
-      return code ?? String(e);
-  }
-}
-
 /**
  * The `file-exists` error for an output path that exists already.
  *
@@ -67,7 +51,7 @@ async function exists(path: string): Promise<boolean> {
     return true;
   } catch (e) {
     if ((e as NodeJS.ErrnoException).code === 'ENOENT') return false;
-    throw ioError(`cannot check ${path}: ${reason(e)}`, path, e);
+    throw ioError(`cannot check ${path}: ${describeFsError(e)}`, path, e);
   }
 }
 
@@ -113,7 +97,7 @@ export async function openAtomicFile(path: string, options: AtomicFileOptions = 
   } catch (e) {
     if (e instanceof BridgeworkError) throw e;
     if ((e as NodeJS.ErrnoException).code !== 'ENOENT')
-      throw ioError(`cannot write ${path}: ${reason(e)}`, path, e);
+      throw ioError(`cannot write ${path}: ${describeFsError(e)}`, path, e);
   }
   const tempPath = join(
     dirname(target),
@@ -123,7 +107,7 @@ export async function openAtomicFile(path: string, options: AtomicFileOptions = 
   try {
     handle = await open(tempPath, fsConstants.O_WRONLY | fsConstants.O_CREAT | fsConstants.O_EXCL, 0o666);
   } catch (e) {
-    throw ioError(`cannot write ${path}: ${reason(e)}`, path, e);
+    throw ioError(`cannot write ${path}: ${await describeOutputError(e, target)}`, path, e);
   }
   addPendingTempFile(tempPath);
   let state: 'open' | 'committed' | 'aborted' = 'open';
@@ -147,7 +131,7 @@ export async function openAtomicFile(path: string, options: AtomicFileOptions = 
           offset += bytesWritten;
         }
       } catch (e) {
-        throw ioError(`cannot write ${path}: ${reason(e)}`, path, e);
+        throw ioError(`cannot write ${path}: ${describeFsError(e)}`, path, e);
       }
     },
     async commit() {
@@ -156,7 +140,7 @@ export async function openAtomicFile(path: string, options: AtomicFileOptions = 
         await handle.sync();
         await handle.close();
       } catch (e) {
-        throw ioError(`cannot write ${path}: ${reason(e)}`, path, e);
+        throw ioError(`cannot write ${path}: ${describeFsError(e)}`, path, e);
       }
       try {
         if (force) {
@@ -181,7 +165,7 @@ export async function openAtomicFile(path: string, options: AtomicFileOptions = 
         await unlink(tempPath).catch(() => undefined);
         removePendingTempFile(tempPath);
         if (e instanceof BridgeworkError) throw e;
-        throw ioError(`cannot write ${path}: ${reason(e)}`, path, e);
+        throw ioError(`cannot write ${path}: ${describeFsError(e)}`, path, e);
       }
     },
     async abort() {

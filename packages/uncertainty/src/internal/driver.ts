@@ -19,6 +19,8 @@ export interface BlockRequest {
   readonly blockCount: number;
   /** Trials in those blocks: blockCount·BLOCK_TRIALS, or fewer when the last block ends the run. */
   readonly trials: number;
+  /** Trials of the run evaluated before this request (for progress). */
+  readonly trialsBefore: number;
 }
 
 /** The reply to a {@link BlockRequest}. */
@@ -162,6 +164,7 @@ export function* runProcedure(
       firstBlock: 0,
       blockCount: Math.ceil(settings.trials / BLOCK_TRIALS),
       trials: settings.trials,
+      trialsBefore: 0,
     };
     const reply = (yield request) as BlockReply;
     mergeBlocks(all, reply, request);
@@ -171,10 +174,10 @@ export function* runProcedure(
   // JCGM 101 7.9.4: sequences of M = max(J, 10⁴) trials, J the smallest integer ≥ 100/(1 − p),
   // here rounded up to whole seeding blocks so that every trial is computed once.
   const { significantDigits, maxTrials, interval } = settings.adaptive;
-  const j = Math.ceil(100 / (1 - settings.coverage) - 1e-9);
-  const blocksPerSequence = Math.ceil(Math.max(j, 1e4) / BLOCK_TRIALS);
-  const perSequence = blocksPerSequence * BLOCK_TRIALS;
-  let buffer = new Float64Array(4 * perSequence);
+  const perSequence = adaptiveSequenceTrials(settings.coverage);
+  const blocksPerSequence = perSequence / BLOCK_TRIALS;
+  const most = Math.floor(maxTrials / perSequence) * perSequence; // the trials of the sequences allowed
+  let buffer = new Float64Array(Math.min(4 * perSequence, most));
   const scratch = new Float64Array(perSequence);
   const sequences: SequenceResult[] = [];
   for (let h = 0; ; h++) {
@@ -190,10 +193,12 @@ export function* runProcedure(
       firstBlock: h * blocksPerSequence,
       blockCount: blocksPerSequence,
       trials: perSequence,
+      trialsBefore: h * perSequence,
     };
     const reply = (yield request) as BlockReply;
     if (buffer.length < (h + 1) * perSequence) {
-      const grown = new Float64Array(2 * buffer.length);
+      // Doubling, but never past the sequences maxTrials allows: at most 8 bytes per allowed trial.
+      const grown = new Float64Array(Math.min(2 * buffer.length, most));
       grown.set(buffer.subarray(0, h * perSequence));
       buffer = grown;
     }
@@ -233,6 +238,15 @@ export function* runProcedure(
       return yield* finish(buffer.subarray(0, all.count), all, settings, report);
     }
   }
+}
+
+/**
+ * Trials per sequence of the adaptive procedure: M = max(J, 10⁴), J the smallest integer
+ * ≥ 100/(1 − p) (JCGM 101 7.9.4), rounded up to whole seeding blocks.
+ */
+export function adaptiveSequenceTrials(coverage: number): number {
+  const j = Math.ceil(100 / (1 - coverage) - 1e-9);
+  return Math.ceil(Math.max(j, 1e4) / BLOCK_TRIALS) * BLOCK_TRIALS;
 }
 
 /**

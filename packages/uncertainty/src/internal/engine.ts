@@ -10,11 +10,14 @@
  * longer run with the same seed). Block statistics are merged in block order, so every result is
  * bit-identical whatever the number of workers.
  *
- * Inside a block, trials are generated in chunks of {@link CHUNK_TRIALS} (struct of arrays: one
- * Float64Array per input). The model receives one reused record whose properties are getters
- * reading the current trial of each column: nothing is allocated or written per trial.
+ * Inside a block, trials are generated in chunks of {@link CHUNK_TRIALS} into rows of n input
+ * values (each sampler writes one input's place with stride n). A record model receives one
+ * reused record whose properties are getters reading the current row; a positional model
+ * receives a fixed view of the current row, its inputs in the declared order. Nothing is
+ * allocated or copied per trial. Either way the model values depend only on the seed, the block and the inputs.
  */
 import { BridgeworkError, formatValue } from '@bridgework/core';
+import { locateModelError, type ResolvedModel } from './model.js';
 import { fillFrom, fillNormal, type SamplerSpec } from './samplers.js';
 import { acquireRecord, CHUNK_TRIALS } from './trialRecord.js';
 import { jump64, jump96, stateFromSeed, type GeneratorState } from './xoshiro128.js';
@@ -43,15 +46,13 @@ export interface EnginePlan {
   readonly seed: number;
 }
 
-/** A scalar measurement model as the engine calls it. */
-export type EngineModel = (x: Readonly<Record<string, number>>) => number;
-
 /** Runs blocks of trials of one plan and one model. */
 export interface BlockRunner {
   /**
    * Runs the first `count` trials of seeding block `block`, writes the model values to
    * `out[offset…offset + count)`, and stores the block's mean and sum of squared deviations in
-   * `stats[2·slot]` and `stats[2·slot + 1]`.
+   * `stats[2·slot]` and `stats[2·slot + 1]`. When the model fails, `failedTrial` holds the
+   * number of the trial (counted from 0 over the whole run) before the error is thrown.
    */
   runBlock(
     block: number,
@@ -61,16 +62,31 @@ export interface BlockRunner {
     stats: Float64Array,
     slot: number,
   ): void;
+  /** The trial at which the model last failed, or −1. */
+  readonly failedTrial: number;
   /** Gives the trial record back for reuse; the runner must not be used afterwards. */
   release(): void;
 }
 
-function describeTrial(names: readonly string[], columns: readonly Float64Array[], t: number): string {
-  return names.map((n, j) => `${n} = ${String((columns[j] as Float64Array)[t])}`).join(', ');
+function describeTrial(
+  names: readonly string[],
+  slots: readonly Float64Array[],
+  stride: number,
+  t: number,
+): string {
+  return names.map((n, j) => `${n} = ${String((slots[j] as Float64Array)[t * stride])}`).join(', ');
+}
+
+function notFinite(y: unknown): BridgeworkError {
+  return new BridgeworkError(
+    typeof y === 'number' ? 'model-not-finite' : 'wrong-type',
+    `\`model\` must return a finite number; got ${formatValue(y)}`,
+    { param: 'model', value: y },
+  );
 }
 
 /** Creates a runner; its column buffers and generator states are reused from block to block. */
-export function createBlockRunner(plan: EnginePlan, model: EngineModel): BlockRunner {
+export function createBlockRunner(plan: EnginePlan, model: ResolvedModel): BlockRunner {
   const { names, samplers, group } = plan;
   const n = names.length;
   // Stream bases J96^j(s0), the states at the start of block `positionedAt`, and working states.
@@ -83,10 +99,24 @@ export function createBlockRunner(plan: EnginePlan, model: EngineModel): BlockRu
   const starts = bases.map((b) => b.slice());
   const states = bases.map((b) => b.slice());
   let positionedAt = 0;
+  let failedTrial = -1;
 
-  const view = acquireRecord(names);
-  const { record, cursor } = view;
-  const columns = view.columns;
+  // The draws go to rows of n values per trial (each sampler writes one input's place with
+  // stride n). A record model reads them through the cached record's getters (input j at place j);
+  // a positional model gets a fixed view of row t (input j at its place in `order`). Either way
+  // nothing is allocated or copied per trial, and the same draws land in the same trials.
+  const view = model.kind === 'record' ? acquireRecord(names) : undefined;
+  const record = view?.record;
+  const cursor = view?.cursor ?? { row: 0 };
+  const rows = view?.rows ?? new Float64Array(CHUNK_TRIALS * n);
+  const places = new Int32Array(n).map((_, j) => j);
+  if (model.kind === 'positional') model.positions.forEach((j, i) => (places[j] = i));
+  const slots = Array.from(places, (place) => rows.subarray(place));
+  const views =
+    model.kind === 'positional'
+      ? Array.from({ length: CHUNK_TRIALS }, (_, t) => rows.subarray(t * n, t * n + n))
+      : [];
+  let current = 0; // the trial of the chunk being evaluated
 
   const members = group?.members ?? [];
   const g = members.length;
@@ -109,25 +139,50 @@ export function createBlockRunner(plan: EnginePlan, model: EngineModel): BlockRu
   function fillChunk(length: number): void {
     for (let j = 0; j < n; j++) {
       const s = states[j] as GeneratorState;
-      const column = columns[j] as Float64Array;
-      if (inGroup.has(j)) fillNormal(s, column, 0, CHUNK_TRIALS, 0, 1);
-      else fillFrom(samplers[j] as SamplerSpec, s, column, 0, CHUNK_TRIALS);
+      const slot = slots[j] as Float64Array;
+      if (inGroup.has(j)) fillNormal(s, slot, 0, CHUNK_TRIALS, 0, 1, n);
+      else fillFrom(samplers[j] as SamplerSpec, s, slot, 0, CHUNK_TRIALS, n);
     }
     // x_r = mean_r + scale_r·Σ_{c ≤ r} L[r][c]·z_c, rows from the last so each z_c is still intact.
     for (let r = g - 1; r >= 0; r--) {
-      const target = columns[members[r] as number] as Float64Array;
+      const target = slots[members[r] as number] as Float64Array;
       const mean = groupMeans[r] as number;
       const scale = groupScales[r] as number;
       for (let t = 0; t < length; t++) {
         let acc = 0;
         for (let c = 0; c <= r; c++) {
           acc +=
-            (lower[r * g + c] as number) * ((columns[members[c] as number] as Float64Array)[t] as number);
+            (lower[r * g + c] as number) * ((slots[members[c] as number] as Float64Array)[t * n] as number);
         }
-        target[t] = mean + scale * acc;
+        target[t * n] = mean + scale * acc;
       }
     }
   }
+
+  /** Model values of trials [0, length) of the chunk into out[base…); `current` is the trial. */
+  function evaluateRecord(length: number, out: Float64Array, base: number): void {
+    const evaluate = (model as { evaluate: (x: Readonly<Record<string, number>>) => unknown }).evaluate;
+    const x = record as Readonly<Record<string, number>>;
+    for (let t = 0; t < length; t++) {
+      current = t;
+      cursor.row = t * n;
+      const y = evaluate(x);
+      if (typeof y !== 'number' || y - y !== 0) throw notFinite(y);
+      out[base + t] = y;
+    }
+  }
+
+  function evaluatePositional(length: number, out: Float64Array, base: number): void {
+    const evaluate = (model as { evaluate: (x: Float64Array) => unknown }).evaluate;
+    for (let t = 0; t < length; t++) {
+      current = t;
+      const y = evaluate(views[t] as Float64Array);
+      if (typeof y !== 'number' || y - y !== 0) throw notFinite(y);
+      out[base + t] = y;
+    }
+  }
+
+  const evaluateChunk = model.kind === 'record' ? evaluateRecord : evaluatePositional;
 
   return {
     runBlock(block, count, out, offset, stats, slot) {
@@ -135,19 +190,12 @@ export function createBlockRunner(plan: EnginePlan, model: EngineModel): BlockRu
       for (let done = 0; done < count;) {
         const length = Math.min(CHUNK_TRIALS, count - done);
         fillChunk(length);
-        const base = offset + done;
-        for (let t = 0; t < length; t++) {
-          cursor.index = t;
-          const y = model(record);
-          if (typeof y !== 'number' || y - y !== 0) {
-            const trial = block * BLOCK_TRIALS + done + t;
-            throw new BridgeworkError(
-              typeof y === 'number' ? 'model-not-finite' : 'wrong-type',
-              `\`model\` must return a finite number; got ${formatValue(y)} at trial ${trial} (${describeTrial(names, columns, t)})`,
-              { param: 'model', value: y },
-            );
-          }
-          out[base + t] = y;
+        try {
+          evaluateChunk(length, out, offset + done);
+        } catch (error) {
+          const t = current;
+          failedTrial = block * BLOCK_TRIALS + done + t;
+          throw locateModelError(error, `at trial ${failedTrial} (${describeTrial(names, slots, n, t)})`);
         }
         done += length;
       }
@@ -163,8 +211,11 @@ export function createBlockRunner(plan: EnginePlan, model: EngineModel): BlockRu
       stats[2 * slot] = mean;
       stats[2 * slot + 1] = m2;
     },
+    get failedTrial() {
+      return failedTrial;
+    },
     release() {
-      view.inUse = false;
+      if (view !== undefined) view.inUse = false;
     },
   };
 }

@@ -1,5 +1,6 @@
 /**
- * Random-variate kernels: each fills `out[from…to)` with draws from one distribution, advancing a
+ * Random-variate kernels: each fills `out[i·stride]` for i in [from, to) (stride 1: a column;
+ * stride n: one input's place in rows of n) with draws from one distribution, advancing a
  * xoshiro128** state (see xoshiro128.ts). The two hot kernels (normal and rectangular) inline the
  * generator step with the state in local variables; the others call `nextUint32`.
  *
@@ -111,6 +112,7 @@ export function fillNormal(
   to: number,
   mean: number,
   scale: number,
+  stride = 1,
 ): void {
   if (rejectedAt.length < to - from) {
     rejectedWord = new Int32Array(to - from);
@@ -138,7 +140,7 @@ export function fillNormal(
     const layer = r & 1023;
     const h = r >> 10; // the top 22 bits, signed: u = (h + ½)·2⁻²¹ is uniform on (−1, 1)
     if ((h ^ (h >> 31)) < (limit[layer] as number)) {
-      out[i] = mean + scale * ((h + 0.5) * (width[layer] as number));
+      out[i * stride] = mean + scale * ((h + 0.5) * (width[layer] as number));
     } else {
       words[rejected] = r;
       at[rejected++] = i;
@@ -152,7 +154,7 @@ export function fillNormal(
     const r = words[k] as number;
     let z = zigguratSlowPath(s, r & 1023, ((r >> 10) + 0.5) * TWO_POW_M21);
     if (z !== z) z = normalOne(s);
-    out[at[k] as number] = mean + scale * z;
+    out[(at[k] as number) * stride] = mean + scale * z;
   }
 }
 
@@ -164,6 +166,7 @@ export function fillRectangular(
   to: number,
   mean: number,
   halfWidth: number,
+  stride = 1,
 ): void {
   let a = s[0] as number;
   let b = s[1] as number;
@@ -179,7 +182,7 @@ export function fillRectangular(
     a ^= d;
     c ^= t;
     d = (d << 11) | (d >>> 21);
-    out[i] = mean + halfWidth * ((r + 0.5) * TWO_POW_M31);
+    out[i * stride] = mean + halfWidth * ((r + 0.5) * TWO_POW_M31);
   }
   s[0] = a;
   s[1] = b;
@@ -195,8 +198,9 @@ export function fillTriangular(
   to: number,
   mean: number,
   halfWidth: number,
+  stride = 1,
 ): void {
-  for (let i = from; i < to; i++) out[i] = mean + halfWidth * (uniformOpen(s) + uniformOpen(s) - 1);
+  for (let i = from; i < to; i++) out[i * stride] = mean + halfWidth * (uniformOpen(s) + uniformOpen(s) - 1);
 }
 
 /**
@@ -211,6 +215,7 @@ export function fillArcsine(
   to: number,
   mean: number,
   halfWidth: number,
+  stride = 1,
 ): void {
   for (let i = from; i < to;) {
     const p = uniformSymmetric(s);
@@ -218,7 +223,7 @@ export function fillArcsine(
     const p2 = p * p;
     const q2 = q * q;
     const w = p2 + q2;
-    if (w < 1) out[i++] = mean + halfWidth * ((p2 - q2) / w);
+    if (w < 1) out[stride * i++] = mean + halfWidth * ((p2 - q2) / w);
   }
 }
 
@@ -237,6 +242,7 @@ export function fillStudentT(
   mean: number,
   scale: number,
   degreesOfFreedom: number,
+  stride = 1,
 ): void {
   const nu = degreesOfFreedom;
   for (let i = from; i < to;) {
@@ -246,36 +252,38 @@ export function fillStudentT(
     if (!(w < 1)) continue;
     const lnw = portableLog(w);
     const radial = nu === Infinity ? -2 * lnw : nu * portableExpm1((-2 / nu) * lnw);
-    out[i++] = mean + scale * (p * Math.sqrt(radial / w));
+    out[stride * i++] = mean + scale * (p * Math.sqrt(radial / w));
   }
 }
 
-/** Fills out[from…to) from a sampler specification. */
+/** Fills out[i·stride] for i in [from, to) from a sampler specification. */
 export function fillFrom(
   spec: SamplerSpec,
   s: GeneratorState,
   out: Float64Array,
   from: number,
   to: number,
+  stride = 1,
 ): void {
   switch (spec.kind) {
     case 'constant':
-      out.fill(spec.mean, from, to);
+      if (stride === 1) out.fill(spec.mean, from, to);
+      else for (let i = from; i < to; i++) out[i * stride] = spec.mean;
       return;
     case 'normal':
-      fillNormal(s, out, from, to, spec.mean, spec.scale);
+      fillNormal(s, out, from, to, spec.mean, spec.scale, stride);
       return;
     case 'rectangular':
-      fillRectangular(s, out, from, to, spec.mean, spec.halfWidth);
+      fillRectangular(s, out, from, to, spec.mean, spec.halfWidth, stride);
       return;
     case 'triangular':
-      fillTriangular(s, out, from, to, spec.mean, spec.halfWidth);
+      fillTriangular(s, out, from, to, spec.mean, spec.halfWidth, stride);
       return;
     case 'arcsine':
-      fillArcsine(s, out, from, to, spec.mean, spec.halfWidth);
+      fillArcsine(s, out, from, to, spec.mean, spec.halfWidth, stride);
       return;
     case 't':
-      fillStudentT(s, out, from, to, spec.mean, spec.scale, spec.degreesOfFreedom);
+      fillStudentT(s, out, from, to, spec.mean, spec.scale, spec.degreesOfFreedom, stride);
       return;
   }
 }

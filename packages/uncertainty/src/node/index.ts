@@ -10,7 +10,7 @@ import { availableParallelism } from 'node:os';
 import { dirname, join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import { BridgeworkError, checkInteger, checkObject, formatValue } from '@bridgework/core';
+import { BridgeworkError, checkInteger, checkOptions, formatValue } from '@bridgework/core';
 import type { BlockReply, BlockRequest } from '../internal/driver.js';
 import { runProcedure } from '../internal/driver.js';
 import type { EnginePlan } from '../internal/engine.js';
@@ -23,17 +23,21 @@ import {
   type SampleIntervals,
 } from '../internal/select.js';
 import {
+  checkMonteCarloModel,
   gumFor,
+  monteCarloOptionKeys,
   monteCarloResult,
   prepareMonteCarlo,
   type MonteCarloOptions,
   type MonteCarloResult,
+  type ProgressReporter,
 } from '../monteCarlo.js';
 import type { Propagation } from '../propagate.js';
 import type { MeasurementModel } from '../types.js';
-import type { WorkerMessage, WorkerReply } from './protocol.js';
+import { loadModelExport } from './loadModel.js';
+import { CONTROL, type TransferredError, type WorkerMessage, type WorkerReply } from './protocol.js';
 
-/** Where the workers find the model: a module and the name of the function it exports. */
+/** Where the workers find the model: a module, the name of what it exports, and an optional argument. */
 export interface ModelReference {
   /**
    * The module's URL (a `file:` URL or anything `import()` accepts), e.g. `new URL('./model.js', import.meta.url)`.
@@ -45,8 +49,19 @@ export interface ModelReference {
         /** The URL as text, as a `URL` object has it. */
         readonly href: string;
       };
-  /** The exported function's name. Default `'model'`. */
+  /**
+   * The export's name. Default `'model'`. Without `argument` the export is the model: a function
+   * of the inputs by name, or a `PositionalModel` object (from `@bridgework/uncertainty`); with
+   * `argument`, a function that makes such a model from it.
+   */
   readonly exportName?: string;
+  /**
+   * When given, the export is a factory: each worker (and the main thread, for the GUM
+   * comparison) calls it once with a structured clone of `argument` and runs the model it
+   * returns — so a model built from data (a channel specification, calibration coefficients)
+   * runs on the workers without a module of its own.
+   */
+  readonly argument?: unknown;
 }
 
 /** Options of {@link createMonteCarloPool}. */
@@ -69,9 +84,11 @@ export interface MonteCarloPool {
    *
    * @param options - As `monteCarlo`, without `model`.
    * @returns The same result as `monteCarlo` in one thread, bit for bit.
+   * @throws {@link @bridgework/core!BridgeworkError} as `monteCarlo` (the same error, for the
+   *   same failing trial, as one thread); `closed` after {@link MonteCarloPool.close}.
    */
   run(options: PooledMonteCarloOptions): Promise<MonteCarloResult>;
-  /** Terminates the workers. */
+  /** Terminates the workers; later runs fail with `closed`. */
   close(): Promise<void>;
 }
 
@@ -85,6 +102,8 @@ export interface MonteCarloInWorkersOptions extends PooledMonteCarloOptions {
 
 const here = import.meta.url;
 const fromSource = here.endsWith('.ts');
+/** How often a pooled run reads the shared trial counter for `onProgress`, in ms. */
+const PROGRESS_MILLIS = 50;
 
 /**
  * Starts one worker. From the compiled package this is dist/node/worker.js. From the TypeScript
@@ -117,25 +136,58 @@ function moduleHref(reference: Record<string, unknown>): string {
   );
 }
 
-function toError(reply: Extract<WorkerReply, { type: 'error' }>): Error {
-  if (reply.code === undefined) return new Error(reply.message);
+/** The error a worker reported, as the main thread throws it (the same code, fields and message). */
+function toError(reply: TransferredError): Error {
+  const cause =
+    reply.cause === undefined
+      ? undefined
+      : Object.assign(new Error(reply.cause.message), { name: reply.cause.name });
+  if (reply.code === undefined) {
+    return new BridgeworkError('model-failed', `a worker thread failed: ${reply.message}`, {
+      param: 'model',
+      ...(cause === undefined ? {} : { cause }),
+    });
+  }
   return new BridgeworkError(reply.code, reply.message, {
     ...(reply.param === undefined ? {} : { param: reply.param }),
     ...(reply.value === undefined ? {} : { value: reply.value }),
+    ...(reply.limit === undefined ? {} : { limit: reply.limit }),
+    ...(cause === undefined ? {} : { cause }),
   });
+}
+
+/** The error to throw from several workers' replies: the earliest failing trial, as one thread meets it. */
+function firstFailure(replies: readonly WorkerReply[]): TransferredError | undefined {
+  let first: TransferredError | undefined;
+  for (const r of replies) {
+    if (r.type !== 'error') continue;
+    if (first === undefined) first = r;
+    else if (r.trial !== undefined && (first.trial === undefined || r.trial < first.trial)) first = r;
+  }
+  return first;
+}
+
+function workerStopped(detail: string): BridgeworkError {
+  return new BridgeworkError(
+    'model-failed',
+    `a Monte Carlo worker thread stopped (${detail}); the model may exhaust memory or end the thread`,
+    { param: 'model' },
+  );
 }
 
 /**
  * Starts worker threads that run Monte Carlo evaluations of one model.
  *
  * @remarks
- * Each worker imports the model module once. A run uses the procedure of `monteCarlo` unchanged:
- * the main thread checks the options and plans the seeding blocks; the workers claim blocks from
- * a shared counter and write model values and block statistics into shared memory; the main
- * thread merges the block statistics in block order and selects the coverage intervals. Every
- * block's values depend only on the seed and the block's index (see `monteCarlo`), so the result
- * is bit-identical to `monteCarlo` in one thread, whatever the number of workers. The GUM
- * comparison runs on the main thread, which imports the model too.
+ * Each worker imports the model module once (and, with `model.argument`, makes the model from
+ * it). A run uses the procedure of `monteCarlo` unchanged: the main thread checks the options and
+ * plans the seeding blocks; the workers claim blocks from a shared counter and write model
+ * values and block statistics into shared memory; the main thread merges the block statistics in
+ * block order and selects the coverage intervals. Every block's values depend only on the seed
+ * and the block's index (see `monteCarlo`), so the result is bit-identical to `monteCarlo` in one
+ * thread, whatever the number of workers. When the model fails, blocks after the failing one are
+ * no longer started and the error of the earliest failing trial is thrown — the one a single
+ * thread meets. The GUM comparison runs on the main thread, which imports the model too.
  *
  * When running from the TypeScript sources (the `@bridgework/source` condition), workers are
  * started with the tsx loader and that condition. Idle workers do not keep the process alive.
@@ -143,7 +195,9 @@ function toError(reply: Extract<WorkerReply, { type: 'error' }>): Error {
  * @param options - The model module and the number of workers.
  * @returns The pool; call `close()` when done.
  * @throws {@link @bridgework/core!BridgeworkError} `wrong-type` for a bad module reference or an
- *   export that is not a function; `not-integer`, `out-of-range` for a bad worker count.
+ *   export that is not a model (or not a factory, with `argument`); `io-error` when the module
+ *   cannot be found; `model-failed` when it fails to load or the factory throws; `not-integer`,
+ *   `out-of-range` for a bad worker count; `unknown-option`, `missing-option` for the options' keys.
  * @example
  * ```ts
  * // model.js: export const model = ({ a, b }) => a * b;
@@ -153,8 +207,11 @@ function toError(reply: Extract<WorkerReply, { type: 'error' }>): Error {
  * ```
  */
 export async function createMonteCarloPool(options: MonteCarloPoolOptions): Promise<MonteCarloPool> {
-  const o = checkObject('options', options);
-  const reference = checkObject('model', o['model']);
+  const o = checkOptions('options', options, { known: ['model', 'workers'], required: ['model'] });
+  const reference = checkOptions('model', o['model'], {
+    known: ['module', 'exportName', 'argument'],
+    required: ['module'],
+  });
   const href = moduleHref(reference);
   const exportName = reference['exportName'] === undefined ? 'model' : reference['exportName'];
   if (typeof exportName !== 'string') {
@@ -167,40 +224,61 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
       },
     );
   }
+  const hasArgument = 'argument' in reference && reference['argument'] !== undefined;
+  let argument: unknown;
+  if (hasArgument) {
+    try {
+      argument = structuredClone(reference['argument']);
+    } catch (error) {
+      throw new BridgeworkError(
+        'wrong-type',
+        `\`model.argument\` must be data that can be sent to a thread (structured-cloneable: no functions); got ${formatValue(reference['argument'])}`,
+        { param: 'model.argument', value: reference['argument'], cause: error },
+      );
+    }
+  }
   const count =
     o['workers'] === undefined
       ? availableParallelism()
       : checkInteger('workers', o['workers'], { min: 1, max: 256 });
-  const imported = (await import(href)) as Record<string, unknown>;
-  const mainModel = imported[exportName];
-  if (typeof mainModel !== 'function') {
-    throw new BridgeworkError(
-      'wrong-type',
-      `\`model.exportName\` must name a function exported by ${href}; '${exportName}' is ${typeof mainModel}`,
-      {
-        param: 'model.exportName',
-        value: exportName,
-      },
-    );
-  }
+  const mainModel = await loadModelExport(href, exportName, hasArgument, argument);
   const workers = Array.from({ length: count }, startWorker);
+  let broken: BridgeworkError | undefined;
   const call = (worker: Worker, message: WorkerMessage): Promise<WorkerReply> =>
     new Promise((resolve, reject) => {
-      const onMessage = (reply: WorkerReply): void => {
+      const settle = (): void => {
+        worker.off('message', onMessage);
         worker.off('error', onError);
+        worker.off('exit', onExit);
+      };
+      const onMessage = (reply: WorkerReply): void => {
+        settle();
         resolve(reply);
       };
       const onError = (error: Error): void => {
-        worker.off('message', onMessage);
-        reject(error);
+        settle();
+        broken = workerStopped(`${error.name}: ${error.message}`);
+        reject(broken);
       };
-      worker.once('message', onMessage);
-      worker.once('error', onError);
+      const onExit = (code: number): void => {
+        settle();
+        broken = workerStopped(`exit code ${code}`);
+        reject(broken);
+      };
+      if (broken !== undefined) {
+        reject(broken);
+        return;
+      }
+      worker.on('message', onMessage);
+      worker.on('error', onError);
+      worker.on('exit', onExit);
       worker.postMessage(message);
     });
   try {
-    const loaded = await Promise.all(workers.map((w) => call(w, { type: 'load', module: href, exportName })));
-    const bad = loaded.find((r): r is Extract<WorkerReply, { type: 'error' }> => r.type === 'error');
+    const loaded = await Promise.all(
+      workers.map((w) => call(w, { type: 'load', module: href, exportName, hasArgument, argument })),
+    );
+    const bad = firstFailure(loaded);
     if (bad !== undefined) throw toError(bad);
   } catch (error) {
     await Promise.all(workers.map((w) => w.terminate()));
@@ -208,19 +286,12 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
   }
   for (const w of workers) w.unref();
 
-  /** Sends one message to every worker and waits for all replies; the first error is thrown. */
-  async function broadcast(messages: readonly WorkerMessage[], onError?: () => void): Promise<WorkerReply[]> {
+  /** Sends one message to every worker and waits for all replies; the earliest failure is thrown. */
+  async function broadcast(messages: readonly WorkerMessage[]): Promise<WorkerReply[]> {
     for (const w of workers) w.ref();
     try {
-      const replies = await Promise.all(
-        workers.map((w, i) =>
-          call(w, messages[i] as WorkerMessage).then((reply) => {
-            if (reply.type === 'error') onError?.();
-            return reply;
-          }),
-        ),
-      );
-      const bad = replies.find((r): r is Extract<WorkerReply, { type: 'error' }> => r.type === 'error');
+      const replies = await Promise.all(workers.map((w, i) => call(w, messages[i] as WorkerMessage)));
+      const bad = firstFailure(replies);
       if (bad !== undefined) throw toError(bad);
       return replies;
     } finally {
@@ -228,18 +299,41 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
     }
   }
 
-  /** Starts the blocks of a request on every worker (they claim blocks from a shared counter). */
-  function startBlocks(plan: EnginePlan, request: BlockRequest): Promise<BlockReply> {
+  /** Runs the blocks of a request on every worker (they claim blocks from a shared counter). */
+  async function runBlocks(
+    plan: EnginePlan,
+    request: BlockRequest,
+    progress: ProgressReporter,
+  ): Promise<BlockReply> {
     const values = new SharedArrayBuffer(8 * request.trials);
     const stats = new SharedArrayBuffer(16 * request.blockCount);
-    const counter = new SharedArrayBuffer(4);
-    const message: WorkerMessage = { type: 'run', plan, ...request, values, stats, counter };
-    // A failed block stops the others from claiming more.
-    const stop = (): void => void Atomics.store(new Int32Array(counter), 0, request.blockCount);
-    return broadcast(
-      workers.map(() => message),
-      stop,
-    ).then(() => ({ values: new Float64Array(values), stats: new Float64Array(stats) }));
+    const control = new SharedArrayBuffer(4 * CONTROL.length);
+    const slots = new Int32Array(control);
+    slots[CONTROL.failed] = request.blockCount;
+    const message: WorkerMessage = { type: 'run', plan, ...request, values, stats, control };
+    let progressError: { error: unknown } | undefined;
+    let reported = -1;
+    const poll = (): void => {
+      const done = Atomics.load(slots, CONTROL.done);
+      if (done === reported || progressError !== undefined) return;
+      reported = done;
+      try {
+        progress.report(request.trialsBefore + done, request);
+      } catch (error) {
+        // A throw from onProgress abandons the run: no further block is started.
+        progressError = { error };
+        Atomics.store(slots, CONTROL.failed, -1);
+      }
+    };
+    const timer = progress.active ? setInterval(poll, PROGRESS_MILLIS) : undefined;
+    try {
+      await broadcast(workers.map(() => message));
+    } finally {
+      if (timer !== undefined) clearInterval(timer);
+    }
+    if (progress.active) poll();
+    if (progressError !== undefined) throw progressError.error;
+    return { values: new Float64Array(values), stats: new Float64Array(stats) };
   }
 
   /**
@@ -274,7 +368,6 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
       })),
     );
     const counts = replies.map((r) => (r.type === 'tails' ? r : { low: -1, high: -1 }));
-    const total = (side: 'low' | 'high'): number => counts.reduce((a, c) => a + c[side], 0);
     if (counts.every((c) => c.low >= 0)) {
       const side = (which: 'low' | 'high'): Float64Array[] =>
         parts.map(
@@ -288,15 +381,29 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
 
   let queue: Promise<unknown> = Promise.resolve();
   let closed = false;
+  const closedError = (): BridgeworkError =>
+    new BridgeworkError(
+      'closed',
+      'the Monte Carlo pool must not be used after `close()`; create a new pool',
+      {
+        param: 'pool',
+      },
+    );
   return {
     workers: count,
     run(runOptions) {
+      if (closed) return Promise.reject(closedError());
       const job = queue.then(async () => {
-        if (closed) throw new Error('the Monte Carlo pool is closed');
-        const ro = { ...checkObject('options', runOptions), model: mainModel };
+        if (closed) throw closedError();
+        const ro = checkOptions('options', runOptions, {
+          known: monteCarloOptionKeys.filter((k) => k !== 'model'),
+          required: ['inputs'],
+        });
         const setup = prepareMonteCarlo(ro);
+        checkMonteCarloModel(mainModel, setup.plan.names, ro);
         const procedure = runProcedure(setup.settings);
         let gum: Propagation | undefined;
+        let gumError: { error: unknown } | undefined;
         let gumDone = false;
         let step = procedure.next();
         while (!step.done) {
@@ -305,19 +412,20 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
             step = procedure.next(await intervals(request.values, request.coverage));
             continue;
           }
-          const pending = startBlocks(setup.plan, request);
+          const pending = runBlocks(setup.plan, request, setup.progress);
           if (!gumDone) {
-            // The law of propagation runs on this thread while the workers draw the trials.
+            // The law of propagation runs on this thread while the workers draw the trials. A
+            // failure of it is thrown only after the trials, as one thread meets them in that order.
             gumDone = true;
             try {
               gum = gumFor(setup, ro, mainModel as MeasurementModel);
             } catch (error) {
-              await pending.catch(() => undefined);
-              throw error;
+              gumError = { error };
             }
           }
           step = procedure.next(await pending);
         }
+        if (gumError !== undefined) throw gumError.error;
         return monteCarloResult(setup, step.value, gum);
       });
       queue = job.catch(() => undefined);
@@ -352,7 +460,10 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
  * ```
  */
 export async function monteCarloInWorkers(options: MonteCarloInWorkersOptions): Promise<MonteCarloResult> {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: [...monteCarloOptionKeys, 'workers'],
+    required: ['model', 'inputs'],
+  });
   const { model, workers, ...rest } = o;
   const pool = await createMonteCarloPool({
     model: model as ModelReference,

@@ -1,26 +1,46 @@
-/// <reference types="node" />
+/// <reference types="node" preserve="true" />
 /**
  * Worker-thread entry of the Monte Carlo pool: imports the model module named by the pool, then
  * runs blocks of trials into shared memory with the same kernel as the in-process runner.
  */
 import { parentPort } from 'node:worker_threads';
 import { isBridgeworkError } from '@bridgework/core';
-import { BLOCK_TRIALS, createBlockRunner, type EngineModel } from '../internal/engine.js';
+import { BLOCK_TRIALS, createBlockRunner } from '../internal/engine.js';
+import { resolveModel } from '../internal/model.js';
 import { extractTails, sortTailPart } from '../internal/select.js';
-import type { WorkerMessage, WorkerReply } from './protocol.js';
+import { loadModelExport } from './loadModel.js';
+import { CONTROL, type TransferredError, type WorkerMessage, type WorkerReply } from './protocol.js';
 
 if (parentPort === null) throw new Error('this module runs as a worker thread');
 const port = parentPort;
-let model: EngineModel | undefined;
+let model: unknown;
 
-function failure(error: unknown): WorkerReply {
+function cloneable(value: unknown): unknown {
+  try {
+    return structuredClone(value);
+  } catch {
+    return undefined;
+  }
+}
+
+function failure(error: unknown, trial: number | undefined): TransferredError {
+  const cause = isBridgeworkError(error) ? error.cause : error;
+  const causeOf =
+    cause instanceof Error
+      ? { name: cause.name, message: cause.message }
+      : cause === undefined
+        ? undefined
+        : { name: 'Error', message: String(cause) };
   if (isBridgeworkError(error)) {
     return {
       type: 'error',
       code: error.code,
       message: error.message,
       param: error.param,
-      value: typeof error.value === 'number' ? error.value : undefined,
+      value: cloneable(error.value),
+      limit: error.limit,
+      trial,
+      cause: causeOf,
     };
   }
   return {
@@ -29,26 +49,56 @@ function failure(error: unknown): WorkerReply {
     message: error instanceof Error ? error.message : String(error),
     param: undefined,
     value: undefined,
+    limit: undefined,
+    trial,
+    cause: causeOf,
   };
+}
+
+/** Lowers the shared "first failed block" to `block` unless a lower one is there already. */
+function recordFailure(control: Int32Array, block: number): void {
+  for (;;) {
+    const current = Atomics.load(control, CONTROL.failed);
+    if (current <= block) return;
+    if (Atomics.compareExchange(control, CONTROL.failed, current, block) === current) return;
+  }
+}
+
+function run(message: Extract<WorkerMessage, { type: 'run' }>): WorkerReply {
+  const runner = createBlockRunner(message.plan, resolveModel(model, message.plan.names));
+  const values = new Float64Array(message.values);
+  const stats = new Float64Array(message.stats);
+  const control = new Int32Array(message.control);
+  try {
+    for (;;) {
+      const b = Atomics.add(control, CONTROL.next, 1);
+      // Blocks are claimed in increasing order, so every block below a failed one is run.
+      if (b >= message.blockCount || b > Atomics.load(control, CONTROL.failed)) break;
+      const count = Math.min(BLOCK_TRIALS, message.trials - b * BLOCK_TRIALS);
+      try {
+        runner.runBlock(message.firstBlock + b, count, values, b * BLOCK_TRIALS, stats, b);
+      } catch (error) {
+        recordFailure(control, b);
+        return failure(error, runner.failedTrial >= 0 ? runner.failedTrial : undefined);
+      }
+      Atomics.add(control, CONTROL.done, count);
+    }
+  } finally {
+    runner.release();
+  }
+  return { type: 'done' };
 }
 
 port.on('message', (message: WorkerMessage) => {
   void (async () => {
     try {
       if (message.type === 'load') {
-        const module = (await import(message.module)) as Record<string, unknown>;
-        const candidate = module[message.exportName];
-        if (typeof candidate !== 'function') {
-          port.postMessage({
-            type: 'error',
-            code: 'wrong-type',
-            message: `\`model.exportName\` must name a function exported by ${message.module}; '${message.exportName}' is ${typeof candidate}`,
-            param: 'model.exportName',
-            value: undefined,
-          } satisfies WorkerReply);
-          return;
-        }
-        model = candidate as EngineModel;
+        model = await loadModelExport(
+          message.module,
+          message.exportName,
+          message.hasArgument,
+          message.argument,
+        );
         port.postMessage({ type: 'loaded' } satisfies WorkerReply);
         return;
       }
@@ -70,24 +120,9 @@ port.on('message', (message: WorkerMessage) => {
         port.postMessage({ type: 'tails', ...counts } satisfies WorkerReply);
         return;
       }
-      if (model === undefined) throw new Error('no model loaded');
-      const runner = createBlockRunner(message.plan, model);
-      const values = new Float64Array(message.values);
-      const stats = new Float64Array(message.stats);
-      const counter = new Int32Array(message.counter);
-      try {
-        for (;;) {
-          const b = Atomics.add(counter, 0, 1);
-          if (b >= message.blockCount) break;
-          const count = Math.min(BLOCK_TRIALS, message.trials - b * BLOCK_TRIALS);
-          runner.runBlock(message.firstBlock + b, count, values, b * BLOCK_TRIALS, stats, b);
-        }
-      } finally {
-        runner.release();
-      }
-      port.postMessage({ type: 'done' } satisfies WorkerReply);
+      port.postMessage(run(message));
     } catch (error) {
-      port.postMessage(failure(error));
+      port.postMessage(failure(error, undefined));
     }
   })();
 });

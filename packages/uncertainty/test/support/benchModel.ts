@@ -27,3 +27,40 @@ export const twelveInputs = Object.fromEntries(
       : { value: 2 + i, distribution: 'rectangular' as const, halfWidth: 0.2 },
   ]),
 );
+
+/** The twelve-input model in the positional form (the same operations in the same order). */
+export const twelveInputPositional = {
+  order: ['a', 'b', 'c', 'd', 'e', 'f', 'g', 'h', 'i', 'j', 'k', 'l'],
+  evaluate(x: Float64Array): number {
+    return (
+      ((x[0] as number) * (x[1] as number) + (x[2] as number)) / ((x[3] as number) + (x[4] as number)) -
+      (x[5] as number) * (x[6] as number) +
+      (x[7] as number) * (x[8] as number) -
+      (x[9] as number) +
+      (x[10] as number) * (x[11] as number)
+    );
+  },
+};
+
+/** A factory (for `model.argument`): the twelve-input model scaled by `factor`, positional. */
+export function scaledTwelveInputModel(argument: { factor: number }): typeof twelveInputPositional {
+  const { factor } = argument;
+  return {
+    order: twelveInputPositional.order,
+    evaluate: (x: Float64Array) => factor * twelveInputPositional.evaluate(x),
+  };
+}
+
+/**
+ * Fails (NaN) where a > 1.4, four standard deviations out: a few dozen trials of 10⁶, in
+ * several blocks, so that workers meet failures in different blocks.
+ */
+export function rarelyFailingModel(x: Readonly<Record<string, number>>): number {
+  return (x['a'] as number) > 1.4 ? NaN : (x['a'] as number);
+}
+
+/** Throws a RangeError (a model's own error, not a bridgework one) where a > 1.4. */
+export function throwingModel(x: Readonly<Record<string, number>>): number {
+  if ((x['a'] as number) > 1.4) throw new RangeError('a is past what this model takes');
+  return x['a'] as number;
+}

@@ -1,10 +1,24 @@
-import { createInterleavedConverter } from '@bridgework/channel';
-import { loadChannels } from '../../channels/loadChannels.js';
-import type { InterleavedConverter } from '../../data/clipCounter.js';
+import { createHash } from 'node:crypto';
+import { readFile } from 'node:fs/promises';
+import { basename } from 'node:path';
+import { createChannel, type Channel, type ChannelSpec } from '@bridgework/channel';
+import { BridgeworkError } from '@bridgework/core';
+import { SAFETY_CAUTION } from '../../caution.js';
+import { loadChannels, type LoadedChannel } from '../../channels/loadChannels.js';
+import { formatClipSummary } from '../../data/clipCounter.js';
+import { convertRecording, type BlockTemperature } from '../../data/convertRecording.js';
+import { openCodeSource } from '../../data/openCodeSource.js';
+import { writeRecording } from '../../data/openRecordingOutput.js';
+import { outputFormatFromPath } from '../../data/outputFormats.js';
+import type { ChannelColumn, RecordingColumns } from '../../data/recordingColumns.js';
+import { parseTimeWindow, windowMeans, type WindowMeans } from '../../data/timeWindow.js';
+import { exitCodes } from '../../exitCodes.js';
+import { refuseOutputOverInputs } from '../../internal/fileErrors.js';
+import { readVersion } from '../../internal/readVersion.js';
 import { splitOptionList } from '../../internal/splitOptionList.js';
+import { displayUnit } from '../../report/displayUnit.js';
 import type { CommandContext } from '../CommandContext.js';
 import type { ConvertArgs } from './convertCommand.js';
-import { runConversion } from './runConversion.js';
 
 /**
  * Splits `--channels`: channel names, comma-separated.
@@ -18,34 +32,305 @@ export function parseChannelList(list: string): string[] {
 }
 
 /**
- * The body of `bridgework convert`: loads the channel file, builds the interleaved converter of
- * the selected channels (`createInterleavedConverter` of the channel package: each lane with its
- * channel's exact map, rail and out-of-range codes as NaN) and hands the streaming to
- * {@link runConversion}.
+ * Splits a `--columns` or `--keep-columns` list: column numbers (from 1) and header names.
+ *
+ * @param list - The option's text, e.g. `'2,4'` or `'hook,trolley'`.
+ * @param option - The option, for messages.
+ * @returns Numbers for digit-only entries, names otherwise.
+ * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for an empty entry.
+ */
+export function parseColumnList(list: string, option = '--columns'): (string | number)[] {
+  return splitOptionList(list, option).map((t) => (/^\d+$/.test(t) ? Number(t) : t));
+}
+
+/** The positions (in the recording's channel order) of the channels a list names. */
+function positionsOf(
+  list: string,
+  option: string,
+  channels: readonly LoadedChannel[],
+  allowed: (c: LoadedChannel) => string | undefined,
+): number[] {
+  return splitOptionList(list, option).map((name) => {
+    const i = channels.findIndex((c) => c.name === name);
+    if (i < 0) {
+      throw new BridgeworkError(
+        'invalid-option',
+        `${option}: '${name}' is not one of the recording's channels (${channels.map((c) => c.name).join(', ')}); the recording's channels are those of --channels`,
+        { param: option, value: name },
+      );
+    }
+    const why = allowed(channels[i] as LoadedChannel);
+    if (why !== undefined) {
+      throw new BridgeworkError('invalid-option', `${option}: '${name}' ${why}`, {
+        param: option,
+        value: name,
+      });
+    }
+    return i;
+  });
+}
+
+const isTemperature = (c: LoadedChannel): boolean => c.channel.quantity === 'temperature';
+
+/**
+ * The body of `bridgework convert`: loads the channel file, opens the recording, applies the
+ * corrections taken from the data (zero readings from a window, the temperature channel's
+ * per-block temperature), and streams the conversion of every lane through its channel's exact
+ * map into the chosen output format, with a progress bar on a terminal and a summary of flagged
+ * samples on standard error.
  *
  * @remarks
- * Column headings are the channel names with the channel's unit, e.g. `hanger-h3 (N)`; values are
- * in that unit (the channel's own, not a report's display unit).
+ * Column headings (CSV) are `name (unit)`; columnar outputs name columns after the channels and
+ * keep the unit in the column metadata. Values are in the channel's unit, or with `--unit display`
+ * in the unit a report shows (one multiplication per value).
  *
  * @param args - The parsed command line.
  * @param context - The command context.
- * @returns The exit code of {@link runConversion}.
- * @throws {@link @bridgework/core!BridgeworkError} for a bad channel file or channel list, and
- * everything {@link runConversion} throws.
+ * @returns `exitCodes.ok`, or `exitCodes.failedCheck` when samples were flagged and
+ * `--fail-on-clip` is set.
+ * @throws {@link @bridgework/core!BridgeworkError} for a bad channel file, recording, option or
+ * output (see the readers and {@link writeRecording}).
  */
 export async function run(args: ConvertArgs, context: CommandContext): Promise<number> {
-  const names = args.options.channels === undefined ? undefined : parseChannelList(args.options.channels);
-  const loaded = await loadChannels(args.positionals.channelFile, names);
-  const interleaved = createInterleavedConverter(loaded.channels.map((c) => c.channel));
-  const converter: InterleavedConverter = (codes, _channels, out) => {
-    // Locations are not needed: the clip counter finds the frames from the NaN samples.
-    const { statuses } = interleaved.convert(codes, out, { maxLocations: 0 });
-    let clipped = 0;
-    for (const s of statuses) clipped += s.rejected;
-    return { clipped };
-  };
-  return runConversion(args, context, {
-    columns: loaded.channels.map((c) => `${c.name} (${c.channel.unit})`),
-    converter,
+  const { options } = args;
+  const input = args.positionals.codesFile;
+  const channelFile = args.positionals.channelFile;
+  const output = options.out === undefined || options.out === '-' ? undefined : options.out;
+  if (options.sampleRate !== undefined && !(options.sampleRate > 0)) {
+    throw new BridgeworkError(
+      'invalid-option',
+      `--sample-rate must be above 0 Hz; got ${options.sampleRate}`,
+      {
+        param: '--sample-rate',
+        value: options.sampleRate,
+      },
+    );
+  }
+  if (output !== undefined) await refuseOutputOverInputs(output, [input, channelFile]);
+  const names = options.channels === undefined ? undefined : parseChannelList(options.channels);
+  const loaded = await loadChannels(channelFile, names);
+  const all = loaded.channels;
+
+  const source = await openCodeSource(input, {
+    channels: all.length,
+    blockFrames: options.block,
+    ...(options.from === undefined ? {} : { format: options.from }),
+    fileHeaderBytes: options.fileHeader,
+    frameHeaderBytes: options.frameHeader,
+    frameTrailerBytes: options.frameTrailer,
+    ...(options.timeStamp === undefined
+      ? {}
+      : {
+          timeStamp: {
+            type: options.timeStamp,
+            offsetBytes: options.timeStampAt,
+            ...(options.tick === undefined ? {} : { secondsPerTick: options.tick }),
+          },
+        }),
+    ...(options.columns === undefined ? {} : { columns: parseColumnList(options.columns) }),
+    ...(options.timeColumn === undefined
+      ? {}
+      : { timeColumn: /^\d+$/.test(options.timeColumn) ? Number(options.timeColumn) : options.timeColumn }),
+    ...(options.keepColumns === undefined
+      ? {}
+      : {
+          keep:
+            options.keepColumns === 'none' ? 'none' : parseColumnList(options.keepColumns, '--keep-columns'),
+        }),
   });
+  if (source.channels !== all.length) {
+    throw new BridgeworkError(
+      'invalid-shape',
+      `${input} has ${source.channels} code column${source.channels === 1 ? '' : 's'}, but ${all.length} channel${all.length === 1 ? ' is' : 's are'} selected; choose them with --columns and --channels`,
+      { param: '<codes-file>', value: source.channels, limit: all.length },
+    );
+  }
+
+  // Per-block temperature correction.
+  let temperature: BlockTemperature | undefined;
+  if (options.temperatureFrom !== undefined) {
+    const [from] = positionsOf(options.temperatureFrom, '--temperature-from', all, (c) =>
+      isTemperature(c) ? undefined : `measures ${c.channel.quantity}, not temperature`,
+    ) as [number];
+    const corrects =
+      options.temperatureCorrects === undefined
+        ? all.flatMap((c, i) => (c.spec.sensor.kind === 'strain-gauge' ? [i] : []))
+        : positionsOf(options.temperatureCorrects, '--temperature-corrects', all, (c) =>
+            isTemperature(c)
+              ? 'is a temperature channel; its own reading needs no temperature correction'
+              : undefined,
+          );
+    if (corrects.length === 0) {
+      throw new BridgeworkError(
+        'invalid-option',
+        `--temperature-from: the recording has no strain-gauge channel to correct; name the channels with --temperature-corrects`,
+        { param: '--temperature-corrects' },
+      );
+    }
+    temperature = { from, corrects };
+  } else if (options.temperatureCorrects !== undefined) {
+    throw new BridgeworkError(
+      'missing-option',
+      '--temperature-corrects needs --temperature-from (the temperature channel)',
+      {
+        param: '--temperature-from',
+      },
+    );
+  }
+
+  // Zero readings from a window of the data.
+  let channels: Channel[] = all.map((c) => c.channel);
+  let zero:
+    | { window: string; means: WindowMeans; zeroed: number[]; temperatureCelsius: number | undefined }
+    | undefined;
+  if (options.zeroWindow !== undefined) {
+    const window = parseTimeWindow(options.zeroWindow, '--zero-window');
+    const zeroed =
+      options.zeroChannels === undefined
+        ? all.flatMap((c, i) => (isTemperature(c) ? [] : [i]))
+        : positionsOf(options.zeroChannels, '--zero-channels', all, (c) =>
+            isTemperature(c)
+              ? 'is a temperature channel: its reading is absolute and has no zero'
+              : undefined,
+          );
+    if (zeroed.length === 0) {
+      throw new BridgeworkError('invalid-option', '--zero-window: the recording has no channel to re-zero', {
+        param: '--zero-channels',
+      });
+    }
+    const means = await windowMeans(
+      source,
+      window,
+      options.sampleRate === undefined ? {} : { sampleRateHertz: options.sampleRate },
+      (j, code) =>
+        code > (channels[j] as Channel).validCodes.min && code < (channels[j] as Channel).validCodes.max,
+    );
+    for (const j of [...zeroed, ...(temperature === undefined ? [] : [temperature.from])]) {
+      if ((means.validCodes[j] as number) === 0) {
+        throw new BridgeworkError(
+          'out-of-range',
+          `--zero-window: channel '${(all[j] as LoadedChannel).name}' has no valid code in frames ${means.firstFrame} to ${means.lastFrame} (all at the rails or out of range); choose another window`,
+          { param: '--zero-window', value: options.zeroWindow },
+        );
+      }
+    }
+    const zeroTemperature =
+      temperature === undefined
+        ? undefined
+        : (channels[temperature.from] as Channel).quantityFromCode(
+            means.meanCodes[temperature.from] as number,
+          );
+    channels = channels.map((c, j) => {
+      if (!zeroed.includes(j)) return c;
+      const spec = (all[j] as LoadedChannel).spec;
+      const rezeroed: ChannelSpec = {
+        ...spec,
+        zero: { code: means.meanCodes[j] as number },
+        ...(zeroTemperature === undefined
+          ? {}
+          : { environment: { ...spec.environment, zeroTemperatureCelsius: zeroTemperature } }),
+      };
+      return createChannel(rezeroed);
+    });
+    zero = { window: options.zeroWindow, means, zeroed, temperatureCelsius: zeroTemperature };
+  }
+
+  // Columns and metadata.
+  const display = options.unit === 'display';
+  const units = channels.map((c) => (display ? displayUnit(c) : { unit: c.unit, factor: 1 }));
+  const channelColumns: ChannelColumn[] = all.map((c, j) => ({
+    name: c.name,
+    unit: (units[j] as { unit: string }).unit,
+    quantity: c.channel.quantity,
+  }));
+  const channelBytes = await readFile(channelFile);
+  const metadata: Record<string, string> = {
+    'bridgework.version': await readVersion(),
+    'bridgework.caution': SAFETY_CAUTION,
+    'bridgework.channel-file': basename(channelFile),
+    'bridgework.channel-file.sha256': createHash('sha256').update(channelBytes).digest('hex'),
+    'bridgework.recording': basename(input),
+    'bridgework.recording.format': source.format,
+    'bridgework.channels': JSON.stringify(channelColumns),
+    'bridgework.flagged':
+      'samples whose code is at or beyond the converter rails, or outside what the sensor can produce, are null (NaN in CSV and raw outputs)',
+    ...(options.sampleRate === undefined
+      ? {}
+      : { 'bridgework.sample-rate-hertz': String(options.sampleRate) }),
+    ...(zero === undefined
+      ? {}
+      : {
+          'bridgework.zero-window': zero.window,
+          'bridgework.zero-codes': JSON.stringify(
+            Object.fromEntries(
+              zero.zeroed.map((j) => [(all[j] as LoadedChannel).name, zero?.means.meanCodes[j]]),
+            ),
+          ),
+        }),
+    ...(temperature === undefined
+      ? {}
+      : {
+          'bridgework.temperature-from': (all[temperature.from] as LoadedChannel).name,
+          'bridgework.temperature-corrects': temperature.corrects
+            .map((j) => (all[j] as LoadedChannel).name)
+            .join(','),
+        }),
+  };
+  const columns: RecordingColumns = {
+    channels: channelColumns,
+    time: source.timeColumn,
+    passThrough: source.passThroughNames,
+    metadata,
+  };
+
+  const format = options.to ?? outputFormatFromPath(output);
+  const progress = context.progressBar({ label: 'converting', total: source.totalBytes, unit: 'bytes' });
+  let result;
+  try {
+    result = await writeRecording(
+      {
+        format,
+        output,
+        stdout: context.io.stdout,
+        force: options.force,
+        columns,
+        blockFrames: source.blockFrames,
+        ...(options.digits === undefined ? {} : { digits: options.digits }),
+        parquetCompression: options.parquetCompression,
+      },
+      (writer) =>
+        convertRecording({
+          source,
+          channels,
+          factors: units.map((u) => u.factor),
+          ...(temperature === undefined ? {} : { temperature }),
+          writer,
+          onBlock: (block) => progress.update(block.bytesRead),
+        }),
+    );
+  } finally {
+    progress.finish();
+  }
+
+  const headings = channelColumns.map((c) => `${c.name} (${c.unit})`);
+  let summary = formatClipSummary(result.clip, headings);
+  if (zero !== undefined) {
+    summary += `zero readings from frames ${zero.means.firstFrame} to ${zero.means.lastFrame}: ${zero.zeroed
+      .map((j) => `${(all[j] as LoadedChannel).name} ${formatCode(zero?.means.meanCodes[j] as number)}`)
+      .join(
+        ', ',
+      )}${zero.temperatureCelsius === undefined ? '' : ` at ${zero.temperatureCelsius.toFixed(2)} °C`}\n`;
+  }
+  if (temperature !== undefined && result.temperatureGaps.frames > 0) {
+    const g = result.temperatureGaps;
+    summary += `no valid temperature in ${g.frames} frames (frames ${g.firstFrame} to ${g.lastFrame}): the corrected channels are NaN there\n`;
+  }
+  const flagged = result.clip.clipped > 0 || result.temperatureGaps.frames > 0;
+  context.io.stderr.write(flagged ? context.stderrStyle.yellow(summary) : summary);
+  if (output !== undefined) context.io.stderr.write(`wrote ${result.frames} rows to ${output}\n`);
+  return flagged && options.failOnClip ? exitCodes.failedCheck : exitCodes.ok;
+}
+
+function formatCode(code: number): string {
+  return Number.isInteger(code) ? String(code) : code.toFixed(2);
 }

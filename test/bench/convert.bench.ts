@@ -1,0 +1,195 @@
+/**
+ * `bridgework convert` end to end, the built command under plain node, against copying the same
+ * bytes: a raw recording of 10⁸ int32 codes in 8 channels (400 MB; `--short`: 10⁶) converted to
+ * float32, float64, Arrow IPC and Parquet, timed against `cp` and a Node stream copy of the input
+ * in the same run (rounds in rotating order; the ratio of speeds is taken per round and its median
+ * reported). CSV is measured on a tenth of the codes, in values of output per second, with the
+ * shortest round-trip digits and with fewer digits. Peak memory (max RSS) of each conversion is
+ * printed. Targets (issue 17): raw → float32/float64/Arrow at ≥ 50 % of the copy's speed; CSV at
+ * ≥ 20 million values/s.
+ */
+import { spawnSync } from 'node:child_process';
+import { closeSync, mkdtempSync, openSync, rmSync, statSync, writeSync } from 'node:fs';
+import { loadavg, tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+const root = fileURLToPath(new URL('../../../', import.meta.url)); // .bench-build/test/bench → repo
+const bin = join(root, 'packages/cli/dist/bin.js');
+const short = process.argv.includes('--short');
+const channels = 8;
+const totalCodes = short ? 1_000_000 : 100_000_000;
+const csvCodes = totalCodes / 10;
+const rounds = short ? 1 : 3;
+
+const dir = mkdtempSync(join(tmpdir(), 'bridgework-convert-bench-'));
+process.on('exit', () => rmSync(dir, { recursive: true, force: true }));
+
+// Eight quarter-bridge strain channels on a 24-bit ratiometric converter (an invented rig).
+const spec = (gaugeFactor: number) => ({
+  sensor: { kind: 'strain-gauge', gaugeFactor, gaugeOhms: 350 },
+  bridge: { arrangement: 'quarter', wiring: 'three-wire', ohmsPerLead: 0.5 },
+  excitation: { volts: 5 },
+  amplifier: { gain: 128 },
+  adc: { bits: 24, referenceVolts: 5, ratiometric: true, dataRateHertz: 1000 },
+  output: { quantity: 'microstrain' },
+});
+const channelFile = join(dir, 'rig.json');
+writeFile(
+  channelFile,
+  JSON.stringify({
+    channels: Object.fromEntries(
+      Array.from({ length: channels }, (_, j) => [`sg${j + 1}`, spec(2 + j / 100)]),
+    ),
+  }),
+);
+
+function writeFile(path: string, text: string): void {
+  const fd = openSync(path, 'w');
+  writeSync(fd, text);
+  closeSync(fd);
+}
+
+/** A recording: each channel a slow sine of ±2 million codes with noise, int32 little-endian. */
+function makeRecording(path: string, codes: number): void {
+  const fd = openSync(path, 'w');
+  const chunk = new Int32Array(1 << 20);
+  let state = 12345;
+  for (let start = 0; start < codes; start += chunk.length) {
+    const n = Math.min(chunk.length, codes - start);
+    for (let k = 0; k < n; k++) {
+      const i = start + k;
+      const frame = Math.floor(i / channels);
+      state = (Math.imul(state, 1103515245) + 12345) | 0;
+      chunk[k] = Math.round(2e6 * Math.sin(frame / 5000 + (i % channels))) + (state >> 20);
+    }
+    writeSync(fd, new Uint8Array(chunk.buffer, 0, n * 4));
+  }
+  closeSync(fd);
+}
+
+const input = join(dir, 'rig.bin');
+const csvInput = join(dir, 'rig-small.bin');
+makeRecording(input, totalCodes);
+makeRecording(csvInput, csvCodes);
+const inputBytes = statSync(input).size;
+
+interface Case {
+  readonly name: string;
+  readonly values: number; // values of output per run
+  readonly bytes: number; // input bytes per run
+  readonly argv: readonly string[];
+  readonly program?: string;
+}
+const out = join(dir, 'out');
+const rss = join(dir, 'rss.txt');
+const convert = (from: string, to: string, extra: readonly string[] = []): readonly string[] => [
+  '--import',
+  `data:text/javascript,process.on('exit',()=>process.getBuiltinModule('node:fs').writeFileSync(${JSON.stringify(rss)},String(process.resourceUsage().maxRSS)))`,
+  bin,
+  'convert',
+  channelFile,
+  from,
+  '--to',
+  to,
+  '-o',
+  out,
+  '--force',
+  ...extra,
+];
+const cases: Case[] = [
+  { name: 'cp (baseline)', values: totalCodes, bytes: inputBytes, program: 'cp', argv: [input, out] },
+  {
+    name: 'node stream copy',
+    values: totalCodes,
+    bytes: inputBytes,
+    argv: [
+      '-e',
+      `require('node:stream').pipeline(require('node:fs').createReadStream(${JSON.stringify(input)}),require('node:fs').createWriteStream(${JSON.stringify(out)}),(e)=>{if(e)throw e})`,
+    ],
+  },
+  { name: 'convert → float32le', values: totalCodes, bytes: inputBytes, argv: convert(input, 'float32le') },
+  { name: 'convert → float64le', values: totalCodes, bytes: inputBytes, argv: convert(input, 'float64le') },
+  { name: 'convert → arrow', values: totalCodes, bytes: inputBytes, argv: convert(input, 'arrow') },
+  {
+    name: 'convert → parquet (none)',
+    values: totalCodes,
+    bytes: inputBytes,
+    argv: convert(input, 'parquet', ['--parquet-compression', 'none']),
+  },
+  {
+    name: 'convert → parquet (snappy)',
+    values: totalCodes,
+    bytes: inputBytes,
+    argv: convert(input, 'parquet'),
+  },
+  { name: 'convert → csv (shortest)', values: csvCodes, bytes: csvCodes * 4, argv: convert(csvInput, 'csv') },
+  {
+    name: 'convert → csv --digits 9',
+    values: csvCodes,
+    bytes: csvCodes * 4,
+    argv: convert(csvInput, 'csv', ['--digits', '9']),
+  },
+  {
+    name: 'convert → csv --digits 6',
+    values: csvCodes,
+    bytes: csvCodes * 4,
+    argv: convert(csvInput, 'csv', ['--digits', '6']),
+  },
+];
+
+function runOnce(c: Case): { seconds: number; rssKiB: number; outBytes: number } {
+  rmSync(out, { force: true });
+  rmSync(rss, { force: true });
+  const t0 = performance.now();
+  const r = spawnSync(c.program ?? process.execPath, c.argv, { encoding: 'utf8' });
+  const seconds = (performance.now() - t0) / 1000;
+  if (r.status !== 0) throw new Error(`${c.name} failed (${r.status}): ${r.stderr}`);
+  let rssKiB = 0;
+  try {
+    rssKiB = Number(spawnSync('cat', [rss], { encoding: 'utf8' }).stdout) || 0;
+  } catch {
+    rssKiB = 0;
+  }
+  const outBytes = statSync(out).size;
+  rmSync(out, { force: true });
+  return { seconds, rssKiB, outBytes };
+}
+
+const times = cases.map(() => [] as number[]);
+const peaks = cases.map(() => 0);
+const sizes = cases.map(() => 0);
+for (const c of cases.slice(0, 3)) runOnce(c); // warm the page cache and the file system
+for (let r = 0; r < rounds; r++) {
+  for (let k = 0; k < cases.length; k++) {
+    const i = (k + r) % cases.length;
+    const m = runOnce(cases[i] as Case);
+    (times[i] as number[]).push(m.seconds);
+    peaks[i] = Math.max(peaks[i] as number, m.rssKiB);
+    sizes[i] = m.outBytes;
+  }
+}
+
+const median = (xs: readonly number[]): number => {
+  const s = [...xs].sort((a, b) => a - b);
+  return s.length % 2 === 1
+    ? (s[(s.length - 1) / 2] as number)
+    : ((s[s.length / 2 - 1] as number) + (s[s.length / 2] as number)) / 2;
+};
+const cp = times[0] as number[];
+console.log(
+  `convert: ${totalCodes.toExponential(0)} codes in ${channels} channels (${(inputBytes / 1e6).toFixed(0)} MB int32le), CSV on ${csvCodes.toExponential(0)}; ${rounds} rounds; load ${loadavg()
+    .map((x) => x.toFixed(2))
+    .join(' ')}`,
+);
+console.log(
+  'case                          median s   input MB/s   M values/s   speed vs cp   out MB   max RSS MiB',
+);
+cases.forEach((c, i) => {
+  const t = times[i] as number[];
+  const s = median(t);
+  const ratio = c.bytes === inputBytes ? median(t.map((x, r) => (cp[r] as number) / x)) : Number.NaN;
+  console.log(
+    `${c.name.padEnd(30)}${s.toFixed(3).padStart(8)}${(c.bytes / s / 1e6).toFixed(0).padStart(13)}${(c.values / s / 1e6).toFixed(1).padStart(13)}${(Number.isNaN(ratio) ? '—' : ratio.toFixed(2)).padStart(14)}${((sizes[i] as number) / 1e6).toFixed(0).padStart(9)}${(peaks[i] ? ((peaks[i] as number) / 1024).toFixed(0) : '—').padStart(14)}`,
+  );
+});
