@@ -163,6 +163,15 @@ describe('channelConstants: options and refusals', () => {
         verification: 'sampled',
       }),
     ).toThrowBridgeworkError('out-of-range', { param: 'targetError' });
+    // The message names the channel's option, not the designer's.
+    expect(() =>
+      channelConstants(ch, {
+        targetError: 1e-4,
+        outputResolution: 1e-3,
+        types: ['fixed'],
+        verification: 'sampled',
+      }),
+    ).toThrow(/a finer `outputResolution`/);
     // Without a step given, the step follows the target: a power of ten not above it.
     const fine = channelConstants(ch, { targetError: 3e-4, types: ['fixed'], verification: 'sampled' });
     expect(fine.outputResolution).toBe(1e-4);

@@ -4,7 +4,14 @@
  * `validCodes`, `span`, `unit`, `name`, the spec's optional `output.firmwareResolution` and the
  * budget's combined standard uncertainty), so it does not depend on how the channel is built.
  */
-import { BridgeworkError, checkFinite, checkOptions, checkPositive, formatValue } from '@bridgework/core';
+import {
+  BridgeworkError,
+  checkFinite,
+  checkOptions,
+  checkPositive,
+  formatValue,
+  isBridgeworkError,
+} from '@bridgework/core';
 import {
   designFirmwareConstants,
   type EvaluatorType,
@@ -145,6 +152,23 @@ function spanCodes(channel: Channel): { codeMin: number; codeMax: number } {
   return { codeMin, codeMax };
 }
 
+/** Runs the designer and names the channel's option where its message names the designer's. */
+function inChannelTerms<T>(step: () => T): T {
+  try {
+    return step();
+  } catch (e) {
+    if (isBridgeworkError(e) && e.message.includes('`outputUnit`')) {
+      throw new BridgeworkError(e.code, e.message.split('`outputUnit`').join('`outputResolution`'), {
+        ...(e.param === undefined ? {} : { param: e.param === 'outputUnit' ? 'outputResolution' : e.param }),
+        ...(e.value === undefined ? {} : { value: e.value }),
+        ...(e.limit === undefined ? {} : { limit: e.limit }),
+        cause: e,
+      });
+    }
+    throw e;
+  }
+}
+
 /**
  * Designs and verifies the firmware constants of a channel: for each requested type the cheapest
  * function (affine, piecewise polynomial, or Möbius where the target divides in hardware) whose
@@ -212,24 +236,26 @@ export function channelConstants(channel: Channel, options: ConstantsOptions = {
     source: `the channel's stated accuracy of its binary64 map, ${CHANNEL_MAP_RELATIVE_ACCURACY} relative to 40-digit references (docs/channel.md, measured by its tests), times the largest quantity of the span`,
   };
   const pass = (key: string) => (o[key] === undefined ? {} : { [key]: o[key] });
-  const design = designFirmwareConstants({
-    name: channel.name,
-    exact: (code) => channel.quantityFromCode(code),
-    referenceError,
-    codeMin,
-    codeMax,
-    quantityUnit: channel.unit,
-    targetError,
-    outputUnit: String(resolution),
-    ...pass('types'),
-    ...pass('coefficientBits'),
-    ...pass('accumulatorBits'),
-    ...pass('rounding'),
-    ...pass('hardwareDivide'),
-    ...pass('maxTableBytes'),
-    ...pass('maxDegree'),
-    ...pass('verification'),
-  });
+  const design = inChannelTerms(() =>
+    designFirmwareConstants({
+      name: channel.name,
+      exact: (code) => channel.quantityFromCode(code),
+      referenceError,
+      codeMin,
+      codeMax,
+      quantityUnit: channel.unit,
+      targetError,
+      outputUnit: String(resolution),
+      ...pass('types'),
+      ...pass('coefficientBits'),
+      ...pass('accumulatorBits'),
+      ...pass('rounding'),
+      ...pass('hardwareDivide'),
+      ...pass('maxTableBytes'),
+      ...pass('maxDegree'),
+      ...pass('verification'),
+    }),
+  );
   return Object.freeze({
     codeMin,
     codeMax,

@@ -174,6 +174,7 @@ function asCommandLine(e: unknown): never {
     const renamed: Record<string, string> = {
       targetError: '--target-error',
       outputResolution: '--output-step',
+      outputUnit: '--output-step',
       coefficientBits: '--coefficient-bits',
       maxTableBytes: '--max-table-bytes',
     };
