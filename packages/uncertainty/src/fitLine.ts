@@ -224,10 +224,14 @@ export function fitLine(options: FitLineOptions): LineFit {
   const shift = x0Scaled - xMean;
   const slope = finite('slope', ldexp(slopeScaled, ey - ex));
   const intercept = finite('intercept', ldexp(yMean + slopeScaled * shift, ey));
-  const relativeIntercept = Math.sqrt(1 / total + (shift * shift) / sxx);
-  const interceptUncertainty = finite('intercept uncertainty', ldexp(sigma * relativeIntercept, sigmaExp));
+  // √(1/W + shift²/Sxx) by hypot, which neither overflows nor underflows in the squares.
+  const relativeIntercept = Math.hypot(Math.sqrt(1 / total), shift / Math.sqrt(sxx));
+  // An exact fit (σ = 0) has zero uncertainties wherever x₀ lies.
+  const interceptUncertainty =
+    sigma === 0 ? 0 : finite('intercept uncertainty', ldexp(sigma * relativeIntercept, sigmaExp));
   const slopeUncertainty = finite('slope uncertainty', ldexp(sigma / Math.sqrt(sxx), sigmaExp - ex));
-  const covariance = finite('covariance', ldexp(((sigma * shift) / sxx) * sigma, 2 * sigmaExp - ex));
+  const covariance =
+    sigma === 0 ? 0 : finite('covariance', ldexp(((sigma * shift) / sxx) * sigma, 2 * sigmaExp - ex));
   const correlation = sigma > 0 && relativeIntercept > 0 ? shift / Math.sqrt(sxx) / relativeIntercept : 0;
   const degreesOfFreedom = weighted ? Infinity : n - 2;
   const residuals = residualsScaled.map((r) => ldexp(r, ey));
@@ -256,7 +260,10 @@ export function fitLine(options: FitLineOptions): LineFit {
       const atScaled = ldexp(checkFinite('x', at), -ex);
       const fromMean = atScaled - xMean; // the same variance as from x₀, written without cancellation
       const value = ldexp(yMean + slopeScaled * fromMean, ey);
-      const standardUncertainty = ldexp(sigma * Math.sqrt(1 / total + (fromMean * fromMean) / sxx), sigmaExp);
+      const standardUncertainty =
+        sigma === 0
+          ? 0
+          : ldexp(sigma * Math.hypot(Math.sqrt(1 / total), fromMean / Math.sqrt(sxx)), sigmaExp);
       if (!Number.isFinite(value) || !Number.isFinite(standardUncertainty)) {
         throw new BridgeworkError(
           'out-of-range',

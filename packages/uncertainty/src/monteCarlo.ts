@@ -203,6 +203,16 @@ export function prepareMonteCarlo(o: Record<string, unknown>): MonteCarloSetup {
       );
     }
   }
+  for (const q of inputs) {
+    const spec = q.sampler;
+    if ('halfWidth' in spec && !(Math.abs(spec.mean) + spec.halfWidth <= Number.MAX_VALUE)) {
+      throw new BridgeworkError(
+        'out-of-range',
+        `\`inputs.${q.name}.halfWidth\` must keep value ± halfWidth within binary64 (±1.8e308); got ${formatValue(spec.halfWidth)} about ${formatValue(spec.mean)}`,
+        { param: `inputs.${q.name}.halfWidth`, value: spec.halfWidth },
+      );
+    }
+  }
   const { matrix, pairs } = normalizeCorrelations(names, o['correlations']);
   const coverage =
     o['coverage'] === undefined

@@ -6,6 +6,7 @@ import {
   checkOneOf,
   checkOptions,
   checkPositive,
+  formatValue,
 } from '@bridgework/core';
 import type { SamplerSpec } from './internal/samplers.js';
 
@@ -190,6 +191,13 @@ export function normalizeQuantity(path: string, name: string, quantity: unknown)
         required(path, q, 'coverageFactor', 'with expandedUncertainty'),
       );
       const u = expanded / k;
+      if (!Number.isFinite(u)) {
+        throw new BridgeworkError(
+          'out-of-range',
+          `\`${path}.coverageFactor\` must leave U/k within binary64; got U = ${formatValue(expanded)} and k = ${formatValue(k)}`,
+          { param: `${path}.coverageFactor`, value: k },
+        );
+      }
       return {
         name,
         value,

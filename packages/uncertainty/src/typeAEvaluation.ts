@@ -85,12 +85,21 @@ export function typeAEvaluation(observations: Readonly<Record<string, readonly n
       },
     );
   }
-  const means = series.map((s) => s.reduce((a, b) => a + b, 0) / n);
-  const deviations = series.map((s, i) => s.map((q) => q - (means[i] as number)));
+  // Each series scaled by a power of two about its largest magnitude (exact), so that neither the
+  // sums nor the squared deviations overflow or underflow; ordinary data give the same doubles.
+  const exponents = series.map((s) => {
+    const largest = s.reduce((m, v) => Math.max(m, Math.abs(v)), 0);
+    return largest === 0 ? 0 : Math.max(-1022, Math.min(1023, Math.ceil(Math.log2(largest))));
+  });
+  const scaled = series.map((s, i) => s.map((q) => q * 2 ** -(exponents[i] as number)));
+  const scaledMeans = scaled.map((s) => s.reduce((a, b) => a + b, 0) / n);
+  const deviations = scaled.map((s, i) => s.map((q) => q - (scaledMeans[i] as number)));
   const covarianceOfMeans = (i: number, j: number): number =>
     (deviations[i] as number[]).reduce((a, d, k) => a + d * ((deviations[j] as number[])[k] as number), 0) /
     (n * (n - 1));
-  const u = names.map((_, i) => Math.sqrt(covarianceOfMeans(i, i)));
+  const scaledU = names.map((_, i) => Math.sqrt(covarianceOfMeans(i, i)));
+  const means = scaledMeans.map((m, i) => m * 2 ** (exponents[i] as number));
+  const u = scaledU.map((v, i) => v * 2 ** (exponents[i] as number));
   const inputs: Record<string, NormalQuantity> = {};
   names.forEach((name, i) => {
     inputs[name] = {
@@ -102,8 +111,8 @@ export function typeAEvaluation(observations: Readonly<Record<string, readonly n
   const correlations: Correlation[] = [];
   for (let i = 0; i < names.length; i++) {
     for (let j = i + 1; j < names.length; j++) {
-      if (!((u[i] as number) > 0 && (u[j] as number) > 0)) continue;
-      const r = covarianceOfMeans(i, j) / ((u[i] as number) * (u[j] as number));
+      if (!((scaledU[i] as number) > 0 && (scaledU[j] as number) > 0)) continue;
+      const r = covarianceOfMeans(i, j) / ((scaledU[i] as number) * (scaledU[j] as number));
       // |r| ≤ 1 by Cauchy–Schwarz; the guard only removes a last-bit rounding excess.
       if (r !== 0)
         correlations.push({

@@ -5,6 +5,7 @@ import {
   checkNonNegative,
   checkObject,
   checkOptions,
+  formatValue,
 } from '@bridgework/core';
 import type { Interval } from '@bridgework/core';
 
@@ -140,7 +141,15 @@ export function validateGum(options: ValidateGumOptions): GumValidation {
       ? 2
       : checkInteger('significantDigits', o['significantDigits'], { min: 1, max: 15 });
   const tolerance = numericalTolerance(u, significantDigits);
-  const dLow = Math.abs(y - expanded - low);
-  const dHigh = Math.abs(y + expanded - high);
+  // Formed from halves (exact scalings, the same order of operations), so no intermediate sum overflows.
+  const dLow = 2 * Math.abs(y / 2 - expanded / 2 - low / 2);
+  const dHigh = 2 * Math.abs(y / 2 + expanded / 2 - high / 2);
+  if (!Number.isFinite(dLow) || !Number.isFinite(dHigh)) {
+    throw new BridgeworkError(
+      'out-of-range',
+      `the differences between the GUM and Monte Carlo interval ends are past binary64 (d_low ${formatValue(dLow)}, d_high ${formatValue(dHigh)}): express the quantities in other units`,
+      { param: 'gum', value: [dLow, dHigh].map(String) },
+    );
+  }
   return { dLow, dHigh, tolerance, significantDigits, validated: dLow <= tolerance && dHigh <= tolerance };
 }

@@ -2,7 +2,13 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { sampleCoverageIntervals } from '@bridgework/uncertainty';
 import { bucketSortInPlace } from '../src/internal/bucketSort.js';
-import { selectInPlace } from '../src/internal/select.js';
+import {
+  coveredCount,
+  intervalsFromSortedParts,
+  sampleIntervalsInPlace,
+  selectInPlace,
+  sortTailPart,
+} from '../src/internal/select.js';
 
 /**
  * JCGM 101 7.7 restated with a full sort (the straightforward reading of the standard), 1-based
@@ -182,5 +188,50 @@ describe('sampleCoverageIntervals (JCGM 101 7.7)', () => {
     expect(() => sampleCoverageIntervals([1, 2, 3], 0.95)).toThrowBridgeworkError('too-few-points', {
       param: 'values',
     });
+  });
+
+  it('gives the same intervals from tails split into any parts (how the workers collect them), ±0 ties included', () => {
+    // The worker pool sorts the tails of each worker's blocks (an arbitrary set of trials) and
+    // merges the parts by value. The intervals are order statistics, so any split must give the
+    // values of one pass over the whole sample, bit for bit: Object.is, so a zero end must be +0.
+    const value = fc.oneof(
+      fc.double({ min: -50, max: 50, noNaN: true }),
+      fc.constantFrom(0, -0, 0, -0, 1, -1),
+    );
+    fc.assert(
+      fc.property(
+        fc.array(value, { minLength: 60, maxLength: 3000 }),
+        fc.integer({ min: 1, max: 5 }),
+        fc.constantFrom(0.9, 0.95, 0.99),
+        fc.nat(),
+        (v, parts, p, salt) => {
+          const m = v.length;
+          if (coveredCount(p, m) >= m) return;
+          const whole = sampleIntervalsInPlace(Float64Array.from(v), p);
+          // Everything goes to some part's tails here (thresholds at ±Infinity): the merge alone is tested.
+          const lows: number[][] = Array.from({ length: parts }, () => []);
+          v.forEach((x, i) => lows[(i * 7919 + salt) % parts]!.push(x));
+          const sorted = lows.map((part) => {
+            const a = Float64Array.from(part);
+            sortTailPart(a);
+            return a;
+          });
+          const split = intervalsFromSortedParts(sorted, sorted, p, m);
+          for (const [a, b] of [
+            [split!.interval.min, whole.interval.min],
+            [split!.interval.max, whole.interval.max],
+            [split!.shortestInterval.min, whole.shortestInterval.min],
+            [split!.shortestInterval.max, whole.shortestInterval.max],
+          ] as const) {
+            expect(Object.is(a, b)).toBe(true);
+            expect(Object.is(a, -0)).toBe(false);
+          }
+          const ref = byFullSort(v, p);
+          expect(split!.interval.min).toBeNear(ref.interval.min, { abs: 0 });
+          expect(split!.shortestInterval.max).toBeNear(ref.shortestInterval.max, { abs: 0 });
+        },
+      ),
+      { numRuns: 300 },
+    );
   });
 });

@@ -186,6 +186,22 @@ describe('@bridgework/uncertainty/node: models, progress and failures', () => {
     await expect(
       createMonteCarloPool({ model: { module, exportNam: 'twelveInputModel' } as never }),
     ).rejects.toMatchObject({ code: 'unknown-option', param: 'model.exportNam' });
+    // An adaptive run that cannot stabilise stops at maxTrials in the pool as in one thread, though
+    // the pool computes sequences ahead.
+    const unstable = {
+      inputs: twelveInputs,
+      adaptive: { maxTrials: 5 * 16384 },
+      significantDigits: 6,
+    } as const;
+    expect(() => monteCarlo({ model: twelveInputModel, ...unstable })).toThrowBridgeworkError(
+      'not-converged',
+      {
+        param: 'adaptive.maxTrials',
+      },
+    );
+    await expect(
+      monteCarloInWorkers({ model: { module, exportName: 'twelveInputModel' }, workers: 2, ...unstable }),
+    ).rejects.toMatchObject({ code: 'not-converged', param: 'adaptive.maxTrials' });
     await expect(createMonteCarloPool({ model: { module }, worker: 2 } as never)).rejects.toMatchObject({
       code: 'unknown-option',
       param: 'options.worker',

@@ -11,6 +11,8 @@ import {
   monteCarlo,
   numericalTolerance,
   propagate,
+  standardUncertaintyOf,
+  typeAEvaluation,
   validateGum,
   welchSatterthwaite,
   type InputQuantities,
@@ -117,6 +119,65 @@ describe('issue 15 item 7: finite inputs never give non-finite outputs', () => {
     expect(() => fitLine({ x, y: y.map((v) => v * 2 ** 900) })).toThrowBridgeworkError('out-of-range', {
       param: 'y',
     });
+  });
+
+  it('typeAEvaluation of observations near 1e308 gives the finite mean and u (was Infinity)', () => {
+    // Mean of [1e308, 1.7e308, −1e308] = 1.7e308/3; u = s/√3 with s² = Σ(q − q̄)²/2, restated at 2⁻¹⁰²⁴ scale.
+    const q = [1e308, 1.7e308, -1e308];
+    const r = typeAEvaluation({ a: q }).inputs['a']!;
+    const scaled = q.map((v) => v / 2 ** 1000);
+    const mean = (scaled[0]! + scaled[1]! + scaled[2]!) / 3;
+    const s2 = scaled.reduce((acc, v) => acc + (v - mean) ** 2, 0) / 2;
+    expect(r.value).toBeNear(mean * 2 ** 1000, { rel: 1e-15 });
+    expect(r.standardUncertainty).toBeNear(Math.sqrt(s2 / 3) * 2 ** 1000, { rel: 1e-15 });
+  });
+
+  it('monteCarlo refuses model values beyond ±1e150 and inputs drawn past binary64, instead of NaN or Infinity', () => {
+    // u = 1e307: the variance of the values would overflow; before, u(y) came out NaN.
+    expect(() =>
+      monteCarlo({
+        model: ({ a }) => a!,
+        inputs: { a: { value: 0, standardUncertainty: 1e307 } },
+        trials: 1000,
+      }),
+    ).toThrowBridgeworkError('out-of-range', { param: 'model' });
+    // Within the limit u(y) is finite and right: N(0, (1e148)²), u within 4 sampling standard deviations.
+    const big = monteCarlo({
+      model: ({ a }) => a!,
+      inputs: { a: { value: 0, standardUncertainty: 1e148 } },
+      trials: 100_000,
+    });
+    expect(big.standardUncertainty).toBeNear(1e148, { rel: 4 / Math.sqrt(2 * 100_000) });
+    // value ± halfWidth past 1.8e308 is refused before drawing.
+    expect(() =>
+      monteCarlo({
+        model: ({ a }) => a! * 1e-200,
+        inputs: { a: { value: 1e308, distribution: 'rectangular', halfWidth: 1.7e308 } },
+        trials: 1000,
+      }),
+    ).toThrowBridgeworkError('out-of-range', { param: 'inputs.a.halfWidth' });
+    // A normal input whose draw overflows is named as the input, not blamed on the model.
+    expect(() =>
+      monteCarlo({
+        model: ({ a }) => (Number.isFinite(a!) ? 0 : a!),
+        inputs: { a: { value: 1.7e308, standardUncertainty: 1e307 } },
+        trials: 100_000,
+        compareWithGum: false,
+      }),
+    ).toThrowBridgeworkError('out-of-range', { param: 'inputs.a' });
+  });
+
+  it('standardUncertaintyOf and validateGum refuse figures past binary64 (were Infinity)', () => {
+    expect(() =>
+      standardUncertaintyOf({ value: 1, expandedUncertainty: 1e308, coverageFactor: 1e-308 }),
+    ).toThrowBridgeworkError('out-of-range', { param: 'quantity.coverageFactor' });
+    // d_high = |y + U − y_high| = |1e308 + 1e308 − 1.7e308| = 3e307: representable, though y + U is not.
+    const v = validateGum({
+      gum: { value: 1e308, expandedUncertainty: 1e308 },
+      monteCarlo: { standardUncertainty: 1e308, interval: { min: -1.7e308, max: 1.7e308 } },
+    });
+    expect(v.dHigh).toBeNear(3e307, { rel: 1e-15 });
+    expect(v.dLow).toBeNear(1.7e308, { rel: 1e-15 });
   });
 
   it('numericalTolerance of a u(y) below 1e-250 is ½·10ˡ, not 0', () => {

@@ -762,7 +762,16 @@ export function fitMultiComponent(options: MultiComponentFitOptions): MultiCompo
   function readingsAt(loads: readonly number[]): number[] {
     const f = checkBoundedArray('loads', loads, m);
     const g = termVector(f);
-    return coefficients.map((row) => row.reduce((s, b, t) => s + b * (g[t] as number), 0));
+    const r = coefficients.map((row) => row.reduce((s, b, t) => s + b * (g[t] as number), 0));
+    if (!r.every(Number.isFinite)) overflow(f);
+    return r;
+  }
+  function overflow(loads: readonly number[]): never {
+    throw new BridgeworkError(
+      'out-of-range',
+      `\`loads\` must stay where the model's terms are finite (far beyond full scale they overflow the double range); got [${loads.map((v) => formatValue(v)).join(', ')}]`,
+      { param: 'loads', value: loads },
+    );
   }
 
   function loadState(so: Record<string, unknown>): {
@@ -906,6 +915,7 @@ export function fitMultiComponent(options: MultiComponentFitOptions): MultiCompo
       const covariance = calibrationCovariance.map((row, a) =>
         row.map((v, b) => v + ((noiseCovariance[a] as number[])[b] as number)),
       );
+      if (![...covariance.flat(), ...loads].every(Number.isFinite)) overflow(loads);
       return {
         loads,
         standardUncertainties: covariance.map((row, j) => Math.sqrt(Math.max(row[j] as number, 0))),
@@ -932,6 +942,7 @@ export function fitMultiComponent(options: MultiComponentFitOptions): MultiCompo
         so['trials'] === undefined ? 1e5 : checkInteger('trials', so['trials'], { min: 1, max: 1e7 });
       const nominal = readingsAt(loads);
       const q = calibration ? leverage(loads) : 0;
+      if (!Number.isFinite(q)) overflow(loads);
       const inputs: Record<string, InputQuantities[string]> = {};
       const correlations: Correlation[] = [];
       for (let i = 0; i < nb; i++) {

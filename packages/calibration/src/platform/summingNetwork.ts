@@ -24,7 +24,7 @@ export interface SummingNetworkOptions {
   readonly trimPlacement?: TrimPlacement;
   /** The resistor from each cell's +S and from its −S to the common signal buses, Ω (≥ 0). Default 0 (signals paralleled directly). */
   readonly summingOhms?: number;
-  /** The meter's input resistance across the buses, Ω (> 0, or Infinity). Default Infinity. */
+  /** The meter's input resistance across the buses, Ω (≥ 1e-3, or Infinity). Default Infinity. */
   readonly meterOhms?: number;
 }
 
@@ -78,6 +78,11 @@ interface Network {
 
 const networkKeys = ['cellOhms', 'trimPlacement', 'summingOhms', 'meterOhms'] as const;
 
+/** An open meter (Infinity) or at least 1 mΩ. */
+function meterOhmsChecked(ohms: number): number {
+  return ohms === Infinity ? ohms : checkRange('meterOhms', ohms, { min: 1e-3 });
+}
+
 function readNetwork(o: Record<string, unknown>): Network {
   const cellOhms = checkBoundedArray('cellOhms', o['cellOhms']).map((r, i) =>
     checkRange(`cellOhms[${i}]`, checkPositive(`cellOhms[${i}]`, r), { max: 1e12 }),
@@ -104,7 +109,7 @@ function readNetwork(o: Record<string, unknown>): Network {
   const meterOhms =
     o['meterOhms'] === undefined
       ? Infinity
-      : checkPositive('meterOhms', o['meterOhms'], { allowInfinity: true });
+      : meterOhmsChecked(checkPositive('meterOhms', o['meterOhms'], { allowInfinity: true }));
   return { cells: cellOhms.length, cellOhms, both: placement === 'both-excitation', summingOhms, meterOhms };
 }
 
@@ -239,7 +244,15 @@ function solveNetwork(net: Network, trims: readonly number[], ratios: readonly n
     const root = find(node);
     return fixed(root) === undefined ? (change[index.get(root) as number] as number) : 0;
   };
-  return at(busP) - at(busM);
+  const output = at(busP) - at(busM);
+  if (!Number.isFinite(output)) {
+    throw new BridgeworkError(
+      'out-of-range',
+      '`cellOhms` and the trims, summing and meter resistances must form a junction whose node equations are solvable in doubles (resistances from 1 mΩ to 1 TΩ)',
+      { param: 'cellOhms' },
+    );
+  }
+  return output;
 }
 
 function checkCellRatios(param: string, value: unknown, cells: number): number[] {

@@ -59,6 +59,11 @@ export interface DriverSettings {
     | undefined;
   /** Keep a copy of the model values in trial order. */
   readonly returnValues: boolean;
+  /**
+   * Adaptive runs: sequences to request at once (default 1). A parallel runner asks for several;
+   * the ones after the sequence where the procedure stops are discarded.
+   */
+  readonly lookahead?: number;
 }
 
 /** The coverage interval whose ends the adaptive procedure must stabilise. */
@@ -180,62 +185,73 @@ export function* runProcedure(
   let buffer = new Float64Array(Math.min(4 * perSequence, most));
   const scratch = new Float64Array(perSequence);
   const sequences: SequenceResult[] = [];
-  for (let h = 0; ; h++) {
-    if ((h + 1) * perSequence > maxTrials) {
+  const allowed = Math.floor(maxTrials / perSequence); // sequences maxTrials allows
+  for (let h = 0; ;) {
+    if (h >= allowed) {
       throw new BridgeworkError(
         'not-converged',
         `the adaptive Monte Carlo procedure did not stabilise to ${significantDigits} significant digits within \`maxTrials\` = ${maxTrials} trials`,
         { param: 'adaptive.maxTrials', value: maxTrials, limit: maxTrials },
       );
     }
+    // Several sequences at once when the runner works in parallel; those after the one where the
+    // procedure stops are discarded, so the result is that of one sequence at a time.
+    const ahead = Math.min(settings.lookahead ?? 1, allowed - h);
     const request: BlockRequest = {
       kind: 'blocks',
       firstBlock: h * blocksPerSequence,
-      blockCount: blocksPerSequence,
-      trials: perSequence,
+      blockCount: ahead * blocksPerSequence,
+      trials: ahead * perSequence,
       trialsBefore: h * perSequence,
     };
     const reply = (yield request) as BlockReply;
-    if (buffer.length < (h + 1) * perSequence) {
-      // Doubling, but never past the sequences maxTrials allows: at most 8 bytes per allowed trial.
-      const grown = new Float64Array(Math.min(2 * buffer.length, most));
-      grown.set(buffer.subarray(0, h * perSequence));
-      buffer = grown;
-    }
-    buffer.set(reply.values, h * perSequence);
-    const own: MomentAccumulator = { count: 0, mean: 0, m2: 0 };
-    mergeBlocks(own, reply, request);
-    mergeBlocks(all, reply, request);
-    scratch.set(reply.values);
-    const intervals = sampleIntervalsInPlace(scratch, settings.coverage);
-    sequences.push({
-      value: own.mean,
-      standardUncertainty: Math.sqrt(own.m2 / (own.count - 1)),
-      ...intervals,
-    });
-    if (sequences.length < 2) continue;
-    const spread: AdaptiveSpread = {
-      value: spreadOfAverage(sequences.map((s) => s.value)),
-      standardUncertainty: spreadOfAverage(sequences.map((s) => s.standardUncertainty)),
-      min: spreadOfAverage(sequences.map((s) => s.interval.min)),
-      max: spreadOfAverage(sequences.map((s) => s.interval.max)),
-      shortestMin: spreadOfAverage(sequences.map((s) => s.shortestInterval.min)),
-      shortestMax: spreadOfAverage(sequences.map((s) => s.shortestInterval.max)),
-    };
-    const tolerance = numericalTolerance(Math.sqrt(all.m2 / (all.count - 1)), significantDigits);
-    const tested = [spread.value, spread.standardUncertainty];
-    if (interval !== 'shortest') tested.push(spread.min, spread.max);
-    if (interval !== 'symmetric') tested.push(spread.shortestMin, spread.shortestMax);
-    if (tested.every((s) => 2 * s <= tolerance)) {
-      const report: AdaptiveReport = {
-        sequences: sequences.length,
-        trialsPerSequence: perSequence,
-        significantDigits,
-        interval,
-        tolerance,
-        spread,
+    for (let k = 0; k < ahead; k++, h++) {
+      const sequence: BlockRequest = { ...request, blockCount: blocksPerSequence, trials: perSequence };
+      const part: BlockReply = {
+        values: reply.values.subarray(k * perSequence, (k + 1) * perSequence),
+        stats: reply.stats.subarray(2 * k * blocksPerSequence, 2 * (k + 1) * blocksPerSequence),
       };
-      return yield* finish(buffer.subarray(0, all.count), all, settings, report);
+      if (buffer.length < (h + 1) * perSequence) {
+        // Doubling, but never past the sequences maxTrials allows: at most 8 bytes per allowed trial.
+        const grown = new Float64Array(Math.min(2 * buffer.length, most));
+        grown.set(buffer.subarray(0, h * perSequence));
+        buffer = grown;
+      }
+      buffer.set(part.values, h * perSequence);
+      const own: MomentAccumulator = { count: 0, mean: 0, m2: 0 };
+      mergeBlocks(own, part, sequence);
+      mergeBlocks(all, part, sequence);
+      scratch.set(part.values);
+      const intervals = sampleIntervalsInPlace(scratch, settings.coverage);
+      sequences.push({
+        value: own.mean,
+        standardUncertainty: Math.sqrt(own.m2 / (own.count - 1)),
+        ...intervals,
+      });
+      if (sequences.length < 2) continue;
+      const spread: AdaptiveSpread = {
+        value: spreadOfAverage(sequences.map((q) => q.value)),
+        standardUncertainty: spreadOfAverage(sequences.map((q) => q.standardUncertainty)),
+        min: spreadOfAverage(sequences.map((q) => q.interval.min)),
+        max: spreadOfAverage(sequences.map((q) => q.interval.max)),
+        shortestMin: spreadOfAverage(sequences.map((q) => q.shortestInterval.min)),
+        shortestMax: spreadOfAverage(sequences.map((q) => q.shortestInterval.max)),
+      };
+      const tolerance = numericalTolerance(Math.sqrt(all.m2 / (all.count - 1)), significantDigits);
+      const tested = [spread.value, spread.standardUncertainty];
+      if (interval !== 'shortest') tested.push(spread.min, spread.max);
+      if (interval !== 'symmetric') tested.push(spread.shortestMin, spread.shortestMax);
+      if (tested.every((q) => 2 * q <= tolerance)) {
+        const report: AdaptiveReport = {
+          sequences: sequences.length,
+          trialsPerSequence: perSequence,
+          significantDigits,
+          interval,
+          tolerance,
+          spread,
+        };
+        return yield* finish(buffer.subarray(0, all.count), all, settings, report);
+      }
     }
   }
 }

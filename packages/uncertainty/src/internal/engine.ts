@@ -77,7 +77,20 @@ function describeTrial(
   return names.map((n, j) => `${n} = ${String((slots[j] as Float64Array)[t * stride])}`).join(', ');
 }
 
+/**
+ * The largest model value a run accepts, in magnitude: the sums of squared deviations of up to
+ * 5·10⁷ values within ±1e150 stay below 1e308, so u(y) never overflows.
+ */
+export const MODEL_VALUE_LIMIT = 1e150;
+
 function notFinite(y: unknown): BridgeworkError {
+  if (typeof y === 'number' && Number.isFinite(y)) {
+    return new BridgeworkError(
+      'out-of-range',
+      `\`model\` values must lie within ±${MODEL_VALUE_LIMIT} for Monte Carlo (their variance would overflow binary64 beyond); got ${formatValue(y)}: express the output in another unit`,
+      { param: 'model', value: y, limit: MODEL_VALUE_LIMIT },
+    );
+  }
   return new BridgeworkError(
     typeof y === 'number' ? 'model-not-finite' : 'wrong-type',
     `\`model\` must return a finite number; got ${formatValue(y)}`,
@@ -167,7 +180,7 @@ export function createBlockRunner(plan: EnginePlan, model: ResolvedModel): Block
       current = t;
       cursor.row = t * n;
       const y = evaluate(x);
-      if (typeof y !== 'number' || y - y !== 0) throw notFinite(y);
+      if (typeof y !== 'number' || !(Math.abs(y) <= MODEL_VALUE_LIMIT)) throw notFinite(y);
       out[base + t] = y;
     }
   }
@@ -177,7 +190,7 @@ export function createBlockRunner(plan: EnginePlan, model: ResolvedModel): Block
     for (let t = 0; t < length; t++) {
       current = t;
       const y = evaluate(views[t] as Float64Array);
-      if (typeof y !== 'number' || y - y !== 0) throw notFinite(y);
+      if (typeof y !== 'number' || !(Math.abs(y) <= MODEL_VALUE_LIMIT)) throw notFinite(y);
       out[base + t] = y;
     }
   }
@@ -195,6 +208,16 @@ export function createBlockRunner(plan: EnginePlan, model: ResolvedModel): Block
         } catch (error) {
           const t = current;
           failedTrial = block * BLOCK_TRIALS + done + t;
+          // A drawn input past binary64 (a distribution reaching beyond ±1.8e308) is not the model's fault.
+          const overflowed = names.findIndex((_, j) => !Number.isFinite((slots[j] as Float64Array)[t * n]));
+          if (overflowed >= 0) {
+            const name = names[overflowed] as string;
+            throw new BridgeworkError(
+              'out-of-range',
+              `\`inputs.${name}\` must be drawn within binary64; trial ${failedTrial} drew ${formatValue((slots[overflowed] as Float64Array)[t * n])}: its distribution reaches past ±1.8e308 (express it in other units)`,
+              { param: `inputs.${name}`, value: (slots[overflowed] as Float64Array)[t * n] },
+            );
+          }
           throw locateModelError(error, `at trial ${failedTrial} (${describeTrial(names, slots, n, t)})`);
         }
         done += length;

@@ -73,6 +73,11 @@ export function coveredCount(coverage: number, trials: number): number {
   return Math.floor(coverage * trials + 0.5);
 }
 
+/** An interval end as reported: a zero is +0, so the sign of a zero never depends on the order of ties. */
+function end(v: number): number {
+  return v === 0 ? 0 : v;
+}
+
 /** The two intervals from the sorted lowest and highest M − q values (1-based rules of JCGM 101 7.7). */
 function intervalsFromTails(
   low: Float64Array,
@@ -82,7 +87,7 @@ function intervalsFromTails(
 ): SampleIntervals {
   // low[i] = y₍ᵢ₊₁₎ for i < M − q; high[i] = y₍q+i+1₎ for i < M − q.
   const r = Math.ceil(candidates / 2); // (M − q)/2 if an integer, else (M − q + 1)/2
-  const interval = { min: low[r - 1] as number, max: high[r - 1] as number };
+  const interval = { min: end(low[r - 1] as number), max: end(high[r - 1] as number) };
   let best = 0;
   let bestWidth = Infinity;
   for (let i = 0; i < candidates; i++) {
@@ -92,7 +97,7 @@ function intervalsFromTails(
       best = i;
     }
   }
-  return { interval, shortestInterval: { min: low[best] as number, max: high[best] as number } };
+  return { interval, shortestInterval: { min: end(low[best] as number), max: end(high[best] as number) } };
 }
 
 /** Two values that enclose the central part of a sample, and room for what lies beyond them. */
@@ -106,10 +111,31 @@ export interface TailThresholds {
 }
 
 /**
+ * Thresholds for the lowest and highest `count` of `trials` values, from a sorted sample of n of
+ * them: each is set 1.2 % of the sample beyond the expected rank (five standard errors of the
+ * sample quantile for n = 8192, ten for 16 384), so a tail holds about 6.2 % of the values when
+ * count is 5 %. `undefined` when the sample cannot separate the tails.
+ */
+export function thresholdsFromSortedSample(
+  sorted: Float64Array,
+  trials: number,
+  count: number,
+): TailThresholds | undefined {
+  const n = sorted.length;
+  const margin = Math.ceil(0.012 * n);
+  const rank = Math.ceil((count / trials) * n);
+  if (rank + margin >= n - rank - margin) return undefined;
+  return {
+    below: sorted[rank + margin] as number,
+    above: sorted[n - 1 - rank - margin] as number,
+    capacity: Math.ceil(trials * ((rank + 2 * margin) / n)) + 1024,
+  };
+}
+
+/**
  * Thresholds for the lowest and highest `count` values of `a`, from a strided sample of 8192
- * values: each is set 1.2 % of M beyond the expected position (five standard errors of the sample
- * quantile), so a tail holds about 6.2 % of the sample when count = 5 %. `undefined` for samples
- * too small to be worth it. Deterministic: the same values give the same thresholds.
+ * values (see {@link thresholdsFromSortedSample}); `undefined` for samples too small to be worth
+ * it. Deterministic: the same values give the same thresholds.
  */
 export function tailThresholds(a: Float64Array, count: number): TailThresholds | undefined {
   const m = a.length;
@@ -119,19 +145,13 @@ export function tailThresholds(a: Float64Array, count: number): TailThresholds |
   const stride = Math.floor(m / n);
   for (let i = 0; i < n; i++) sample[i] = a[i * stride] as number;
   sample.sort();
-  const margin = Math.ceil(0.012 * n);
-  const rank = Math.ceil((count / m) * n);
-  if (rank + margin >= n - rank - margin) return undefined;
-  return {
-    below: sample[rank + margin] as number,
-    above: sample[n - 1 - rank - margin] as number,
-    capacity: Math.ceil(m * ((rank + 2 * margin) / n)) + 1024,
-  };
+  return thresholdsFromSortedSample(sample, m, count);
 }
 
 /**
- * Copies the values of a[from…to) below and above the thresholds, in index order, to
- * low[0…) and high[0…). Returns their numbers, or −1 for a side that exceeds `capacity`.
+ * Copies the values of a[from…to) below and above the thresholds to low[lowCount…) and
+ * high[highCount…), after what is there already. Returns the new counts, or −1 for both when a
+ * side would exceed `capacity`.
  */
 export function extractTails(
   a: Float64Array,
@@ -140,10 +160,12 @@ export function extractTails(
   t: TailThresholds,
   low: Float64Array,
   high: Float64Array,
+  lowCount = 0,
+  highCount = 0,
 ): { readonly low: number; readonly high: number } {
   const { below, above, capacity } = t;
-  let nl = 0;
-  let nh = 0;
+  let nl = lowCount;
+  let nh = highCount;
   for (let i = from; i < to; i++) {
     const v = a[i] as number;
     if (v < below) {
@@ -181,6 +203,8 @@ export function intervalsBySelection(a: Float64Array, coverage: number): SampleI
  * sorted (q = the covered count): every candidate end of the shortest interval lies there; with
  * p ≥ ½ that is 2(1 − p) of the sample, a tenth for p = 0.95. They are found by one pass against
  * sampled thresholds, or else (ties, small samples) by Floyd–Rivest selection, which permutes `a`.
+ * The intervals are order statistics, so every route — and any split of the values into parts —
+ * gives the same values (a zero end is reported as +0, whatever the order of ±0 ties).
  *
  * Requires q < M (at least one candidate interval) and no NaN in `a`.
  */
@@ -197,70 +221,104 @@ export function sampleIntervalsInPlace(a: Float64Array, coverage: number): Sampl
       const highs = high.subarray(0, n.high);
       sortTailPart(lows);
       sortTailPart(highs);
-      const r = intervalsFromSortedParts([lows], [highs], t.capacity, coverage, m);
+      const r = intervalsFromSortedParts([lows], [highs], coverage, m);
       if (r !== undefined) return r;
     }
   }
   return intervalsBySelection(a, coverage);
 }
 
-/** Sorts one part of an extracted tail in place (stable), as a worker does before the merge. */
+/** Sorts one part of an extracted tail in place, as a worker does before the merge. */
 export function sortTailPart(part: Float64Array): void {
   sortFinite(part);
 }
 
 /**
- * The intervals from tails extracted in parts (in index order) and each sorted stably, or
- * `undefined` when a side holds too few (or, overall, too many) values and selection must be used
- * instead. A stable merge taking equal values from the earlier part first gives exactly the stable sort of the
- * parts joined, whatever the number of parts (one, in a single thread; one per worker).
+ * The intervals from tails extracted in parts (any split of the values) and each sorted, or
+ * `undefined` when a side holds fewer than M − q values (then the thresholds did not enclose the
+ * tails and another route must be taken). The parts are merged by value; the order of equal
+ * values does not matter, as the intervals are values and a zero end is reported as +0.
  */
 export function intervalsFromSortedParts(
   lows: readonly Float64Array[],
   highs: readonly Float64Array[],
-  capacity: number,
   coverage: number,
   trials: number,
 ): SampleIntervals | undefined {
   const q = coveredCount(coverage, trials);
   const candidates = trials - q;
   const total = (parts: readonly Float64Array[]): number => parts.reduce((a, p) => a + p.length, 0);
-  const nl = total(lows);
-  const nh = total(highs);
-  if (nl < candidates || nh < candidates || nl > capacity || nh > capacity) return undefined;
-  // The smallest `candidates`, merged from the front (ties: earlier part first).
-  const low = new Float64Array(candidates);
-  const front = lows.map(() => 0);
-  for (let k = 0; k < candidates; k++) {
+  if (total(lows) < candidates || total(highs) < candidates) return undefined;
+  const low = mergeSmallest(lows, candidates);
+  const high = mergeLargest(highs, candidates);
+  return intervalsFromTails(low, high, q, candidates);
+}
+
+/** The `count` smallest values of sorted parts, ascending (a two-pointer merge for two parts). */
+function mergeSmallest(parts: readonly Float64Array[], count: number): Float64Array {
+  if (parts.length === 1) return (parts[0] as Float64Array).subarray(0, count);
+  const out = new Float64Array(count);
+  if (parts.length === 2) {
+    const a = parts[0] as Float64Array;
+    const b = parts[1] as Float64Array;
+    let i = 0;
+    let j = 0;
+    for (let k = 0; k < count; k++) {
+      if (j >= b.length || (i < a.length && (a[i] as number) <= (b[j] as number))) out[k] = a[i++] as number;
+      else out[k] = b[j++] as number;
+    }
+    return out;
+  }
+  const front = parts.map(() => 0);
+  for (let k = 0; k < count; k++) {
     let best = -1;
     let value = Infinity;
-    for (let p = 0; p < lows.length; p++) {
-      const part = lows[p] as Float64Array;
+    for (let p = 0; p < parts.length; p++) {
+      const part = parts[p] as Float64Array;
       const i = front[p] as number;
       if (i < part.length && (best < 0 || (part[i] as number) < value)) {
         best = p;
         value = part[i] as number;
       }
     }
-    low[k] = value;
+    out[k] = value;
     front[best] = (front[best] as number) + 1;
   }
-  // The largest `candidates`, merged from the back (ties: later part first, as in the joined order).
-  const high = new Float64Array(candidates);
-  const back = highs.map((part) => part.length - 1);
-  for (let k = candidates - 1; k >= 0; k--) {
+  return out;
+}
+
+/** The `count` largest values of sorted parts, ascending (merged from the back). */
+function mergeLargest(parts: readonly Float64Array[], count: number): Float64Array {
+  if (parts.length === 1) {
+    const only = parts[0] as Float64Array;
+    return only.subarray(only.length - count);
+  }
+  const out = new Float64Array(count);
+  if (parts.length === 2) {
+    const a = parts[0] as Float64Array;
+    const b = parts[1] as Float64Array;
+    let i = a.length - 1;
+    let j = b.length - 1;
+    for (let k = count - 1; k >= 0; k--) {
+      if (j < 0 || (i >= 0 && (a[i] as number) >= (b[j] as number))) out[k] = a[i--] as number;
+      else out[k] = b[j--] as number;
+    }
+    return out;
+  }
+  const back = parts.map((part) => part.length - 1);
+  for (let k = count - 1; k >= 0; k--) {
     let best = -1;
     let value = -Infinity;
-    for (let p = highs.length - 1; p >= 0; p--) {
-      const part = highs[p] as Float64Array;
+    for (let p = 0; p < parts.length; p++) {
+      const part = parts[p] as Float64Array;
       const i = back[p] as number;
       if (i >= 0 && (best < 0 || (part[i] as number) > value)) {
         best = p;
         value = part[i] as number;
       }
     }
-    high[k] = value;
+    out[k] = value;
     back[best] = (back[best] as number) - 1;
   }
-  return intervalsFromTails(low, high, q, candidates);
+  return out;
 }

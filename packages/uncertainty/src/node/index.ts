@@ -16,10 +16,8 @@ import { runProcedure } from '../internal/driver.js';
 import type { EnginePlan } from '../internal/engine.js';
 import {
   coveredCount,
-  intervalsBySelection,
   intervalsFromSortedParts,
   sampleIntervalsInPlace,
-  tailThresholds,
   type SampleIntervals,
 } from '../internal/select.js';
 import {
@@ -299,18 +297,44 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
     }
   }
 
-  /** Runs the blocks of a request on every worker (they claim blocks from a shared counter). */
+  /** The sorted tails the workers collected for the values of the last fixed run, if any. */
+  let collected: { values: Float64Array; lows: Float64Array[]; highs: Float64Array[] } | undefined;
+
+  /**
+   * Runs the blocks of a request on every worker (they claim blocks from a shared counter). For a
+   * fixed run the workers also collect the coverage-interval tails of their blocks, sorted, with
+   * thresholds from block 0, so the intervals need no second pass over the values.
+   */
   async function runBlocks(
     plan: EnginePlan,
     request: BlockRequest,
     progress: ProgressReporter,
+    coverage: number | undefined,
   ): Promise<BlockReply> {
     const values = new SharedArrayBuffer(8 * request.trials);
     const stats = new SharedArrayBuffer(16 * request.blockCount);
     const control = new SharedArrayBuffer(4 * CONTROL.length);
     const slots = new Int32Array(control);
     slots[CONTROL.failed] = request.blockCount;
-    const message: WorkerMessage = { type: 'run', plan, ...request, values, stats, control };
+    const m = request.trials;
+    const candidates = coverage === undefined ? 0 : m - coveredCount(coverage, m);
+    // Thresholds come from block 0's values (thresholdsFromSortedSample): a side holds at most
+    // M − q + 2.5 % of M + 1024 values overall; each worker gets room for its share, twice over.
+    const wantTails = coverage !== undefined && m >= 16 * 8192 && candidates < m / 2;
+    const room = Math.ceil((candidates + 0.025 * m + 1024) * Math.min(1, 2 / workers.length));
+    const thresholds = new SharedArrayBuffer(24);
+    const buffers = workers.map(() =>
+      wantTails ? { low: new SharedArrayBuffer(8 * room), high: new SharedArrayBuffer(8 * room) } : undefined,
+    );
+    const messages: WorkerMessage[] = buffers.map((b) => ({
+      type: 'run',
+      plan,
+      ...request,
+      values,
+      stats,
+      control,
+      tails: b === undefined ? undefined : { trials: m, candidates, thresholds, low: b.low, high: b.high },
+    }));
     let progressError: { error: unknown } | undefined;
     let reported = -1;
     const poll = (): void => {
@@ -326,57 +350,44 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
       }
     };
     const timer = progress.active ? setInterval(poll, PROGRESS_MILLIS) : undefined;
+    let replies: WorkerReply[];
     try {
-      await broadcast(workers.map(() => message));
+      replies = await broadcast(messages);
     } finally {
       if (timer !== undefined) clearInterval(timer);
     }
     if (progress.active) poll();
     if (progressError !== undefined) throw progressError.error;
-    return { values: new Float64Array(values), stats: new Float64Array(stats) };
+    const result = new Float64Array(values);
+    collected = undefined;
+    const counts = replies.map((r) => (r.type === 'done' ? r : { low: -1, high: -1 }));
+    if (wantTails && counts.every((c) => c.low >= 0)) {
+      collected = {
+        values: result,
+        lows: counts.map(
+          (c, w) => new Float64Array((buffers[w] as { low: SharedArrayBuffer }).low, 0, c.low),
+        ),
+        highs: counts.map(
+          (c, w) => new Float64Array((buffers[w] as { high: SharedArrayBuffer }).high, 0, c.high),
+        ),
+      };
+    }
+    return { values: result, stats: new Float64Array(stats) };
   }
 
   /**
-   * The coverage intervals with the tails extracted and sorted in parallel: each worker scans a
-   * contiguous range and sorts what it found (stably); the parts, merged stably in range order,
-   * are exactly what one scan in index order and one stable sort give, so the result equals
-   * `sampleIntervalsInPlace` bit for bit (including its fallback decisions).
+   * The coverage intervals: from the tails the workers collected when these are the values of
+   * the last fixed run (any split of the values gives the same order statistics), else — and
+   * whenever the collected tails fall short — by `sampleIntervalsInPlace` on this thread.
    */
-  async function intervals(values: Float64Array, coverage: number): Promise<SampleIntervals> {
-    const m = values.length;
-    const candidates = m - coveredCount(coverage, m);
-    const t =
-      values.buffer instanceof SharedArrayBuffer && candidates < m / 2
-        ? tailThresholds(values, candidates)
-        : undefined;
-    if (t === undefined) return sampleIntervalsInPlace(values, coverage);
-    const parts = workers.map((_, w) => ({
-      from: Math.floor((w * m) / workers.length),
-      to: Math.floor(((w + 1) * m) / workers.length),
-      low: new SharedArrayBuffer(8 * t.capacity),
-      high: new SharedArrayBuffer(8 * t.capacity),
-    }));
-    const replies = await broadcast(
-      parts.map((p) => ({
-        type: 'tails',
-        values: values.buffer as SharedArrayBuffer,
-        from: p.from,
-        to: p.to,
-        thresholds: t,
-        low: p.low,
-        high: p.high,
-      })),
-    );
-    const counts = replies.map((r) => (r.type === 'tails' ? r : { low: -1, high: -1 }));
-    if (counts.every((c) => c.low >= 0)) {
-      const side = (which: 'low' | 'high'): Float64Array[] =>
-        parts.map(
-          (p, w) => new Float64Array(p[which], 0, (counts[w] as { low: number; high: number })[which]),
-        );
-      const r = intervalsFromSortedParts(side('low'), side('high'), t.capacity, coverage, m);
+  function intervals(values: Float64Array, coverage: number): SampleIntervals {
+    const tails = collected;
+    collected = undefined;
+    if (tails !== undefined && tails.values === values) {
+      const r = intervalsFromSortedParts(tails.lows, tails.highs, coverage, values.length);
       if (r !== undefined) return r;
     }
-    return intervalsBySelection(values, coverage);
+    return sampleIntervalsInPlace(values, coverage);
   }
 
   let queue: Promise<unknown> = Promise.resolve();
@@ -401,7 +412,8 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
         });
         const setup = prepareMonteCarlo(ro);
         checkMonteCarloModel(mainModel, setup.plan.names, ro);
-        const procedure = runProcedure(setup.settings);
+        // Adaptive runs take two sequences per worker at a time (a sequence is a block or two).
+        const procedure = runProcedure({ ...setup.settings, lookahead: 2 * count });
         let gum: Propagation | undefined;
         let gumError: { error: unknown } | undefined;
         let gumDone = false;
@@ -409,10 +421,15 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
         while (!step.done) {
           const request = step.value;
           if (request.kind === 'intervals') {
-            step = procedure.next(await intervals(request.values, request.coverage));
+            step = procedure.next(intervals(request.values, request.coverage));
             continue;
           }
-          const pending = runBlocks(setup.plan, request, setup.progress);
+          const pending = runBlocks(
+            setup.plan,
+            request,
+            setup.progress,
+            setup.settings.adaptive === undefined ? setup.coverage : undefined,
+          );
           if (!gumDone) {
             // The law of propagation runs on this thread while the workers draw the trials. A
             // failure of it is thrown only after the trials, as one thread meets them in that order.

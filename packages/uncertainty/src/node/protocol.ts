@@ -1,7 +1,6 @@
 /** Messages between the Monte Carlo pool and its worker threads. */
 import type { ErrorCode } from '@bridgework/core';
 import type { EnginePlan } from '../internal/engine.js';
-import type { TailThresholds } from '../internal/select.js';
 
 /** Slots of the shared Int32 control array of a run. */
 export const CONTROL = {
@@ -11,9 +10,24 @@ export const CONTROL = {
   failed: 1,
   /** Trials done (for progress). */
   done: 2,
+  /** Tail thresholds: 0 while block 0 is not done, 1 when they are in place, 2 when there are none. */
+  ready: 3,
   /** Number of slots. */
-  length: 3,
+  length: 4,
 } as const;
+
+/** Where a worker collects the coverage-interval tails of the blocks it runs. */
+export interface TailBuffers {
+  /** Number of values the intervals span the tails of: the request's trials. */
+  readonly trials: number;
+  /** M − q: how many values each tail must hold at least. */
+  readonly candidates: number;
+  /** Shared Float64 [below, above, capacity], written by the worker that runs block 0. */
+  readonly thresholds: SharedArrayBuffer;
+  /** This worker's shared Float64 buffers for the two tails (room for every value of the request). */
+  readonly low: SharedArrayBuffer;
+  readonly high: SharedArrayBuffer;
+}
 
 /** Main thread → worker. */
 export type WorkerMessage =
@@ -37,18 +51,8 @@ export type WorkerMessage =
       readonly stats: SharedArrayBuffer;
       /** Shared Int32 control slots ({@link CONTROL}). */
       readonly control: SharedArrayBuffer;
-    }
-  | {
-      readonly type: 'tails';
-      /** Shared Float64 model values. */
-      readonly values: SharedArrayBuffer;
-      /** The range of trials this worker scans. */
-      readonly from: number;
-      readonly to: number;
-      readonly thresholds: TailThresholds;
-      /** Shared Float64 buffers of `thresholds.capacity` values for the two tails. */
-      readonly low: SharedArrayBuffer;
-      readonly high: SharedArrayBuffer;
+      /** Collect the tails of the blocks run, sorted, for the coverage intervals (fixed runs). */
+      readonly tails: TailBuffers | undefined;
     };
 
 /** A BridgeworkError (or a model's own error) as it crosses to the main thread. */
@@ -68,6 +72,10 @@ export interface TransferredError {
 /** Worker → main thread. */
 export type WorkerReply =
   | { readonly type: 'loaded' }
-  | { readonly type: 'done' }
-  | { readonly type: 'tails'; readonly low: number; readonly high: number }
+  | {
+      readonly type: 'done';
+      /** Values in this worker's sorted tails, or −1 when they could not be collected. */
+      readonly low: number;
+      readonly high: number;
+    }
   | TransferredError;

@@ -7,9 +7,15 @@ import { parentPort } from 'node:worker_threads';
 import { isBridgeworkError } from '@bridgework/core';
 import { BLOCK_TRIALS, createBlockRunner } from '../internal/engine.js';
 import { resolveModel } from '../internal/model.js';
-import { extractTails, sortTailPart } from '../internal/select.js';
+import { extractTails, sortTailPart, thresholdsFromSortedSample } from '../internal/select.js';
 import { loadModelExport } from './loadModel.js';
-import { CONTROL, type TransferredError, type WorkerMessage, type WorkerReply } from './protocol.js';
+import {
+  CONTROL,
+  type TailBuffers,
+  type TransferredError,
+  type WorkerMessage,
+  type WorkerReply,
+} from './protocol.js';
 
 if (parentPort === null) throw new Error('this module runs as a worker thread');
 const port = parentPort;
@@ -64,29 +70,121 @@ function recordFailure(control: Int32Array, block: number): void {
   }
 }
 
+/** The tails of this worker's blocks: extracted block by block once block 0 gave the thresholds. */
+class TailCollector {
+  private readonly thresholds: Float64Array;
+  private readonly low: Float64Array;
+  private readonly high: Float64Array;
+  private readonly pending: number[] = [];
+  private nl = 0;
+  private nh = 0;
+  private failed = false;
+
+  constructor(
+    private readonly buffers: TailBuffers,
+    private readonly control: Int32Array,
+    private readonly values: Float64Array,
+  ) {
+    this.thresholds = new Float64Array(buffers.thresholds);
+    this.low = new Float64Array(buffers.low);
+    this.high = new Float64Array(buffers.high);
+  }
+
+  /** Publishes the thresholds from block 0's values (the first 16 384 trials, or all of them). */
+  publish(count: number): void {
+    const sample = this.values.slice(0, count).sort();
+    const t =
+      count >= 8192
+        ? thresholdsFromSortedSample(sample, this.buffers.trials, this.buffers.candidates)
+        : undefined;
+    if (t !== undefined) {
+      this.thresholds[0] = t.below;
+      this.thresholds[1] = t.above;
+      this.thresholds[2] = t.capacity;
+    }
+    this.abandonOr(t === undefined ? 2 : 1);
+  }
+
+  /** Marks block 0 as done without thresholds (2), or with them (1), and wakes any waiting worker. */
+  abandonOr(state: 1 | 2): void {
+    Atomics.store(this.control, CONTROL.ready, state);
+    Atomics.notify(this.control, CONTROL.ready);
+  }
+
+  /** Takes the tails of a block now, or later if the thresholds are not known yet. */
+  add(from: number, to: number): void {
+    const ready = Atomics.load(this.control, CONTROL.ready);
+    if (ready === 0) this.pending.push(from, to);
+    else if (ready === 1) this.extract(from, to);
+  }
+
+  /** The sorted tails' lengths after the last block, or −1 when they could not be collected. */
+  finish(): { low: number; high: number } {
+    if (this.pending.length > 0) {
+      // Block 0 is being run by another worker: wait for it (a failure anywhere ends the wait).
+      while (
+        Atomics.load(this.control, CONTROL.ready) === 0 &&
+        Atomics.load(this.control, CONTROL.failed) >= 0
+      ) {
+        Atomics.wait(this.control, CONTROL.ready, 0, 20);
+      }
+      if (Atomics.load(this.control, CONTROL.ready) === 1) {
+        for (let k = 0; k < this.pending.length; k += 2) this.extract(this.pending[k]!, this.pending[k + 1]!);
+      } else this.failed = true;
+    }
+    if (this.failed || Atomics.load(this.control, CONTROL.ready) !== 1) return { low: -1, high: -1 };
+    sortTailPart(this.low.subarray(0, this.nl));
+    sortTailPart(this.high.subarray(0, this.nh));
+    return { low: this.nl, high: this.nh };
+  }
+
+  private extract(from: number, to: number): void {
+    if (this.failed) return;
+    const t = {
+      below: this.thresholds[0] as number,
+      above: this.thresholds[1] as number,
+      capacity: Math.min(this.thresholds[2] as number, this.low.length),
+    };
+    const n = extractTails(this.values, from, to, t, this.low, this.high, this.nl, this.nh);
+    if (n.low < 0) this.failed = true;
+    this.nl = n.low;
+    this.nh = n.high;
+  }
+}
+
 function run(message: Extract<WorkerMessage, { type: 'run' }>): WorkerReply {
   const runner = createBlockRunner(message.plan, resolveModel(model, message.plan.names));
   const values = new Float64Array(message.values);
   const stats = new Float64Array(message.stats);
   const control = new Int32Array(message.control);
+  const tails = message.tails === undefined ? undefined : new TailCollector(message.tails, control, values);
   try {
     for (;;) {
       const b = Atomics.add(control, CONTROL.next, 1);
       // Blocks are claimed in increasing order, so every block below a failed one is run.
-      if (b >= message.blockCount || b > Atomics.load(control, CONTROL.failed)) break;
+      if (b >= message.blockCount || b > Atomics.load(control, CONTROL.failed)) {
+        if (b === 0) tails?.abandonOr(2);
+        break;
+      }
       const count = Math.min(BLOCK_TRIALS, message.trials - b * BLOCK_TRIALS);
       try {
         runner.runBlock(message.firstBlock + b, count, values, b * BLOCK_TRIALS, stats, b);
       } catch (error) {
         recordFailure(control, b);
+        if (b === 0) tails?.abandonOr(2);
         return failure(error, runner.failedTrial >= 0 ? runner.failedTrial : undefined);
       }
       Atomics.add(control, CONTROL.done, count);
+      if (tails !== undefined) {
+        if (b === 0) tails.publish(count);
+        tails.add(b * BLOCK_TRIALS, b * BLOCK_TRIALS + count);
+      }
     }
   } finally {
     runner.release();
   }
-  return { type: 'done' };
+  const counts = tails?.finish() ?? { low: -1, high: -1 };
+  return { type: 'done', ...counts };
 }
 
 port.on('message', (message: WorkerMessage) => {
@@ -100,24 +198,6 @@ port.on('message', (message: WorkerMessage) => {
           message.argument,
         );
         port.postMessage({ type: 'loaded' } satisfies WorkerReply);
-        return;
-      }
-      if (message.type === 'tails') {
-        const low = new Float64Array(message.low);
-        const high = new Float64Array(message.high);
-        const counts = extractTails(
-          new Float64Array(message.values),
-          message.from,
-          message.to,
-          message.thresholds,
-          low,
-          high,
-        );
-        if (counts.low >= 0) {
-          sortTailPart(low.subarray(0, counts.low));
-          sortTailPart(high.subarray(0, counts.high));
-        }
-        port.postMessage({ type: 'tails', ...counts } satisfies WorkerReply);
         return;
       }
       port.postMessage(run(message));
