@@ -5,7 +5,7 @@
  * in the same run (rounds in rotating order; the ratio of speeds is taken per round and its median
  * reported). CSV is measured on a tenth of the codes, in values of output per second, with the
  * shortest round-trip digits and with fewer digits. Peak memory (max RSS) of each conversion is
- * printed. Targets (issue 17): raw → float32/float64/Arrow at ≥ 50 % of the copy's speed; CSV at
+ * printed. `--codes=N` and `--rounds=N` change the size and the rounds. Targets (issue 17): raw → float32/float64/Arrow at ≥ 50 % of the copy's speed; CSV at
  * ≥ 20 million values/s.
  */
 import { spawnSync } from 'node:child_process';
@@ -18,9 +18,13 @@ const root = fileURLToPath(new URL('../../../', import.meta.url)); // .bench-bui
 const bin = join(root, 'packages/cli/dist/bin.js');
 const short = process.argv.includes('--short');
 const channels = 8;
-const totalCodes = short ? 1_000_000 : 100_000_000;
+const flag = (name: string): number | undefined => {
+  const a = process.argv.find((x) => x.startsWith(`--${name}=`));
+  return a === undefined ? undefined : Number(a.slice(name.length + 3));
+};
+const totalCodes = flag('codes') ?? (short ? 1_000_000 : 100_000_000);
 const csvCodes = totalCodes / 10;
-const rounds = short ? 1 : 3;
+const rounds = flag('rounds') ?? (short ? 1 : 3);
 
 const dir = mkdtempSync(join(tmpdir(), 'bridgework-convert-bench-'));
 process.on('exit', () => rmSync(dir, { recursive: true, force: true }));
@@ -100,6 +104,15 @@ const convert = (from: string, to: string, extra: readonly string[] = []): reado
 const cases: Case[] = [
   { name: 'cp (baseline)', values: totalCodes, bytes: inputBytes, program: 'cp', argv: [input, out] },
   {
+    // The conversion's output is flushed to disk before it is renamed into place (fsync): this copy
+    // does the same, so the two compare the same durability.
+    name: 'cp + fsync of the copy',
+    values: totalCodes,
+    bytes: inputBytes,
+    program: 'sh',
+    argv: ['-c', `cp '${input}' '${out}' && sync '${out}'`],
+  },
+  {
     name: 'node stream copy',
     values: totalCodes,
     bytes: inputBytes,
@@ -177,6 +190,7 @@ const median = (xs: readonly number[]): number => {
     : ((s[s.length / 2 - 1] as number) + (s[s.length / 2] as number)) / 2;
 };
 const cp = times[0] as number[];
+const cpSync = times[1] as number[];
 console.log(
   `convert: ${totalCodes.toExponential(0)} codes in ${channels} channels (${(inputBytes / 1e6).toFixed(0)} MB int32le), CSV on ${csvCodes.toExponential(0)}; ${rounds} rounds; load ${loadavg()
     .map((x) => x.toFixed(2))
@@ -189,7 +203,8 @@ cases.forEach((c, i) => {
   const t = times[i] as number[];
   const s = median(t);
   const ratio = c.bytes === inputBytes ? median(t.map((x, r) => (cp[r] as number) / x)) : Number.NaN;
+  const synced = c.bytes === inputBytes ? median(t.map((x, r) => (cpSync[r] as number) / x)) : Number.NaN;
   console.log(
-    `${c.name.padEnd(30)}${s.toFixed(3).padStart(8)}${(c.bytes / s / 1e6).toFixed(0).padStart(13)}${(c.values / s / 1e6).toFixed(1).padStart(13)}${(Number.isNaN(ratio) ? '—' : ratio.toFixed(2)).padStart(14)}${((sizes[i] as number) / 1e6).toFixed(0).padStart(9)}${(peaks[i] ? ((peaks[i] as number) / 1024).toFixed(0) : '—').padStart(14)}`,
+    `${c.name.padEnd(30)}${s.toFixed(3).padStart(8)}${(c.bytes / s / 1e6).toFixed(0).padStart(13)}${(c.values / s / 1e6).toFixed(1).padStart(13)}${(Number.isNaN(ratio) ? '—' : ratio.toFixed(2)).padStart(14)}${(Number.isNaN(synced) ? '—' : synced.toFixed(2)).padStart(14)}${((sizes[i] as number) / 1e6).toFixed(0).padStart(9)}${(peaks[i] ? ((peaks[i] as number) / 1024).toFixed(0) : '—').padStart(14)}`,
   );
 });

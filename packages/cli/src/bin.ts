@@ -6,6 +6,10 @@
 import { nodeIo } from './cliIo.js';
 import { exitCodes } from './exitCodes.js';
 import { runCli } from './runCli.js';
+import { stopWithParent } from './internal/pendingTempFiles.js';
+
+// The repository's `pnpm bridgework` and `pnpm demo` set this: pnpm does not pass SIGTERM on.
+if (process.env['BRIDGEWORK_STOP_WITH_PARENT'] === '1') stopWithParent();
 
 // A reader that closes the pipe early (`bridgework convert … | head -2`) ends the command quietly,
 // with exit code 0, as Unix tools do; the exit handlers remove any temporary file.

@@ -207,4 +207,17 @@ describe('channel-file safety at parse', () => {
       expect(r.stderr).toMatch(new RegExp(`: channels\\.${key}: '${key}' cannot name a channel`));
     },
   );
+
+  it('docs/channel-file.md states the limits the parser keeps', () => {
+    const docs = readFileSync(new URL('../../../docs/channel-file.md', import.meta.url), 'utf8');
+    const table = docs.slice(docs.indexOf('### Limits of a file'));
+    const row = (what: string) => new RegExp(`\\| ${what}\\s*\\| ([^|]+?)\\s*\\|`).exec(table)?.[1];
+    expect(channelFileLimits.maxBytes).toBe(1024 * 1024);
+    expect(row('size of the file')).toBe('1 MiB');
+    expect(row('channels under `channels`')).toBe(String(channelFileLimits.maxChannels));
+    expect(row('nesting of mappings and lists')).toBe(`${channelFileLimits.maxDepth} levels`);
+    expect(row('nodes copied by aliases \\(`\\*a`\\)')).toBe(
+      `${channelFileLimits.maxAliasNodes.toLocaleString('en-US').replace(',', ' ')} in all`,
+    );
+  });
 });

@@ -37,7 +37,9 @@ describe('renderHtmlReport', () => {
     );
     expect(html.match(/<svg [^>]*class="bw-plot/g)?.length).toBe(4);
     expect(html).toContain('<th class="num">u (µε)</th>');
-    expect(html).toContain('<td>gaugeOhms</td><td class="num">350</td><td>Ω</td><td>from the file</td>');
+    expect(html).toContain(
+      '<td data-label="input">gaugeOhms</td><td class="num" data-label="value">350</td><td data-label="unit">Ω</td><td data-label="note">from the file</td>',
+    );
     expect(html).toMatch(/<figure id="output"><svg/);
   });
 

@@ -1,6 +1,7 @@
 import { streamSink } from '../data/outputSink.js';
 import { openAtomicFile, type AtomicFile } from '../files/atomicFile.js';
 import { plainTextStyle, type TextStyle } from '../terminal/textStyle.js';
+import { stopIfOrphaned } from '../internal/pendingTempFiles.js';
 import type { CommandContext } from './CommandContext.js';
 
 /** Where a command's result goes: standard output, or an output file written atomically. */
@@ -41,7 +42,10 @@ export async function openResultOutput(
     return {
       path: undefined,
       style: context.stdoutStyle,
-      write: (text) => sink.write(text),
+      write: (text) => {
+        stopIfOrphaned();
+        return sink.write(text);
+      },
       commit: () => Promise.resolve(),
       abort: () => Promise.resolve(),
     };

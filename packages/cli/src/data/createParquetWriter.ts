@@ -9,12 +9,16 @@ import type { RecordingColumns } from './recordingColumns.js';
 export interface ParquetWriterOptions {
   /** Column-chunk compression. Default `'snappy'`. */
   readonly compression?: ParquetCompression;
-  /** Largest row group in bytes of values (a bound on the writer's memory). Default 32 MiB. */
+  /** Largest row group in bytes of values (a bound on the writer's memory). Default 8 MiB. */
   readonly rowGroupBytes?: number;
 }
 
-/** Default bytes of values per row group: 32 MiB. */
-export const DEFAULT_ROW_GROUP_BYTES = 32 << 20;
+/**
+ * Default bytes of values per row group: 8 MiB (about 116 000 rows of 8 channels and the time, the
+ * order of DuckDB's own row groups). The writer's memory grows with it: measured peak resident size
+ * about 100 MB above Node's at 8 MiB, about 200 MB at 32 MiB.
+ */
+export const DEFAULT_ROW_GROUP_BYTES = 8 << 20;
 
 type ParquetWasm = typeof import('parquet-wasm/node');
 

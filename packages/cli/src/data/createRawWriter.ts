@@ -46,9 +46,9 @@ export function createRawWriter(
         await sink.write(new Uint8Array(values.buffer, values.byteOffset, frames * 8));
         return;
       }
-      for (let j = 0; j < channels; j++) {
-        const base = j * laneStride;
-        for (let f = 0, o = j; f < frames; f++, o += channels) out[o] = values[base + f] as number;
+      // Frame by frame: sequential writes, one read stream per lane.
+      for (let f = 0, o = 0; f < frames; f++) {
+        for (let j = 0, i = f; j < channels; j++, i += laneStride) out[o++] = values[i] as number;
       }
       const count = frames * channels;
       if (little !== littleEndianHost) {

@@ -4,7 +4,7 @@ import { link, open, rename, stat, unlink, type FileHandle } from 'node:fs/promi
 import { basename, dirname, join, resolve } from 'node:path';
 import { BridgeworkError } from '@bridgework/core';
 import { describeFsError, describeOutputError } from '../internal/fileErrors.js';
-import { addPendingTempFile, removePendingTempFile } from '../internal/pendingTempFiles.js';
+import { addPendingTempFile, removePendingTempFile, stopIfOrphaned } from '../internal/pendingTempFiles.js';
 
 /** Options of {@link openAtomicFile} and {@link writeFileAtomic}. */
 export interface AtomicFileOptions {
@@ -142,6 +142,8 @@ export async function openAtomicFile(path: string, options: AtomicFileOptions = 
       } catch (e) {
         throw ioError(`cannot write ${path}: ${describeFsError(e)}`, path, e);
       }
+      // A run whose parent has gone (see stopWithParent) ends here, before its output appears.
+      stopIfOrphaned();
       try {
         if (force) {
           await rename(tempPath, target);

@@ -1,10 +1,12 @@
-import { BridgeworkError, checkFinite, checkInteger } from '@bridgework/core';
+import { BridgeworkError, checkFinite, checkInteger, checkOptions } from '@bridgework/core';
+import { checkAxis, checkList, checkText, plotLimits } from '../internal/checkPlotOptions.js';
 import { escapeHtml } from '../internal/escapeHtml.js';
 import {
   axisAttributes,
   axisTicks,
   axisTitle,
   checkPlotId,
+  finiteRange,
   formatTick,
   legend,
   look,
@@ -86,35 +88,44 @@ function valueLabel(v: number): string {
  * ```
  */
 export function barChart(options: BarChartOptions): SvgPlot {
-  const id = checkPlotId(options.id);
+  const o = checkOptions('options', options, {
+    known: ['id', 'title', 'categories', 'value', 'series', 'emphasize', 'width'],
+    required: ['id', 'title', 'categories', 'value', 'series'],
+  });
+  const id = checkPlotId(o['id'] as string);
+  checkText('title', o['title']);
+  checkAxis('value', o['value']);
   const width = checkInteger('width', options.width ?? 560, { min: 320, max: 2000 });
+  const given = checkList<unknown>('categories', o['categories'], 1, plotLimits.maxCategories);
+  for (let j = 0; j < given.length; j++) checkText(`categories[${j}]`, given[j]);
   const { categories } = options;
-  if (categories.length === 0 || options.series.length === 0) {
-    throw new BridgeworkError(
-      'too-few-points',
-      '`categories` and `series` must each hold at least one entry',
-      {
-        param: categories.length === 0 ? 'categories' : 'series',
-      },
-    );
-  }
+  checkList('series', o['series'], 1, plotLimits.maxSeries);
   options.series.forEach((s, i) => {
-    if (s.values.length !== categories.length) {
+    const so = checkOptions(`series[${i}]`, s, {
+      known: ['name', 'values', 'color'],
+      required: ['name', 'values'],
+    });
+    checkText(`series[${i}].name`, so['name']);
+    if (so['color'] !== undefined) checkText(`series[${i}].color`, so['color']);
+    const values = checkList<unknown>(`series[${i}].values`, so['values'], 0, plotLimits.maxCategories);
+    if (values.length !== categories.length) {
       throw new BridgeworkError(
         'invalid-shape',
-        `\`series[${i}].values\` must hold one value per category (${categories.length}); got ${s.values.length}`,
-        { param: `series[${i}].values`, value: s.values.length, limit: categories.length },
+        `\`series[${i}].values\` must hold one value per category (${categories.length}); got ${values.length}`,
+        { param: `series[${i}].values`, value: values.length, limit: categories.length },
       );
     }
-    s.values.forEach((v, j) => checkFinite(`series[${i}].values[${j}]`, v));
+    for (let j = 0; j < values.length; j++) checkFinite(`series[${i}].values[${j}]`, values[j]);
   });
+  if (o['emphasize'] !== undefined) checkList('emphasize', o['emphasize'], 0, plotLimits.maxCategories);
   const emphasized = new Set(
     (options.emphasize ?? []).map((k, i) =>
       checkInteger(`emphasize[${i}]`, k, { min: 0, max: categories.length - 1 }),
     ),
   );
-  const all = options.series.flatMap((s) => s.values);
-  const ticks = axisTicks(options.value, Math.min(0, ...all), Math.max(0, ...all), 6);
+  const all = options.series.flatMap((s) => Array.from(s.values));
+  const [lo, hi] = finiteRange([all, [0]]);
+  const ticks = axisTicks(options.value, lo, hi, 6);
   const tickLabels = ticks.values.map((v) => formatTick(v, ticks));
 
   const nSeries = options.series.length;
@@ -125,14 +136,17 @@ export function barChart(options: BarChartOptions): SvgPlot {
   const maxLabel = Math.floor(width * 0.42);
   // Emphasised labels are bold, about a tenth wider than regular text.
   const labelWidth = (text: string, j: number): number => textWidth(text) * (emphasized.has(j) ? 1.1 : 1);
+  // Text widths are proportional to the number of characters, so the cut is computed, not searched.
   const labels = categories.map((c, j) => {
     if (labelWidth(c, j) <= maxLabel - 12) return c;
-    let short = c;
-    while (short.length > 1 && labelWidth(`${short}…`, j) > maxLabel - 12) short = short.slice(0, -1);
-    return `${short.trimEnd()}…`;
+    const chars = [...c];
+    const fit = Math.max(1, Math.floor(((maxLabel - 12) / labelWidth(c, j)) * chars.length) - 1);
+    return `${chars.slice(0, fit).join('').trimEnd()}…`;
   });
-  const left = Math.ceil(Math.min(maxLabel, Math.max(...labels.map((l, j) => labelWidth(l, j))) + 16));
-  const valueRoom = Math.max(...all.map((v) => textWidth(valueLabel(v)))) + 10;
+  const left = Math.ceil(
+    Math.min(maxLabel, labels.reduce((m, l, j) => Math.max(m, labelWidth(l, j)), 0) + 16),
+  );
+  const valueRoom = all.reduce((m, v) => Math.max(m, textWidth(valueLabel(v))), 0) + 10;
   const right = Math.ceil(Math.max(18, valueRoom));
   const w = width - left - right;
   const h = categories.length * rowHeight;
@@ -172,7 +186,7 @@ export function barChart(options: BarChartOptions): SvgPlot {
       const lx = v < 0 ? x - 4 : x + bw + 4;
       return (
         `<rect class="bw-bar" data-category="${escapeHtml(categories[j] as string)}" data-value="${v}" x="${px(x)}" y="${px(y)}" ` +
-        `width="${px(Math.max(bw, 0.5))}" height="${barHeight - 3}" rx="1.5" fill="${s.color}"/>` +
+        `width="${px(Math.max(bw, 0.5))}" height="${barHeight - 3}" rx="1.5" fill="${escapeHtml(s.color)}"/>` +
         `<text class="bw-value" x="${px(lx)}" y="${px(y + (barHeight - 3) / 2)}" dy="0.32em" text-anchor="${v < 0 ? 'end' : 'start'}" ` +
         `font-size="11" fill="${look.muted}">${escapeHtml(label)}</text>`
       );

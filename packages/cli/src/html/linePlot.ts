@@ -1,4 +1,5 @@
-import { BridgeworkError, checkInteger } from '@bridgework/core';
+import { BridgeworkError, checkFinite, checkInteger, checkOptions } from '@bridgework/core';
+import { checkAxis, checkList, checkText, plotLimits } from '../internal/checkPlotOptions.js';
 import { escapeHtml } from '../internal/escapeHtml.js';
 import {
   axisAttributes,
@@ -76,25 +77,51 @@ export interface LinePlotOptions {
  * ```
  */
 export function linePlot(options: LinePlotOptions): SvgPlot {
-  const id = checkPlotId(options.id);
+  const o = checkOptions('options', options, {
+    known: ['id', 'title', 'x', 'y', 'series', 'width', 'height'],
+    required: ['id', 'title', 'x', 'y', 'series'],
+  });
+  const id = checkPlotId(o['id'] as string);
+  checkText('title', o['title']);
+  checkAxis('x', o['x']);
+  checkAxis('y', o['y']);
   const width = checkInteger('width', options.width ?? 560, { min: 240, max: 2000 });
   const height = checkInteger('height', options.height ?? 340, { min: 160, max: 2000 });
-  if (options.series.length === 0) {
-    throw new BridgeworkError('too-few-points', '`series` must hold at least one series; got none', {
-      param: 'series',
-    });
-  }
+  checkList('series', o['series'], 1, plotLimits.maxSeries);
   options.series.forEach((s, i) => {
-    if (s.x.length !== s.y.length) {
+    const so = checkOptions(`series[${i}]`, s, {
+      known: ['name', 'x', 'y', 'dashed', 'color'],
+      required: ['name', 'x', 'y'],
+    });
+    checkText(`series[${i}].name`, so['name']);
+    if (so['color'] !== undefined) checkText(`series[${i}].color`, so['color']);
+    if (so['dashed'] !== undefined && typeof so['dashed'] !== 'boolean')
+      throw new BridgeworkError('wrong-type', `\`series[${i}].dashed\` must be true or false`, {
+        param: `series[${i}].dashed`,
+        value: so['dashed'],
+      });
+    const x = checkList<unknown>(`series[${i}].x`, so['x'], 0, plotLimits.maxPoints);
+    const y = checkList<unknown>(`series[${i}].y`, so['y'], 0, plotLimits.maxPoints);
+    if (y.length !== x.length) {
       throw new BridgeworkError(
         'invalid-shape',
-        `\`series[${i}].y\` must have the length of x (${s.x.length}); got ${s.y.length}`,
+        `\`series[${i}].y\` must have the length of x (${x.length}); got ${y.length}`,
         {
           param: `series[${i}].y`,
-          value: s.y.length,
-          limit: s.x.length,
+          value: y.length,
+          limit: x.length,
         },
       );
+    }
+    for (const [axis, list] of [
+      ['x', x],
+      ['y', y],
+    ] as const) {
+      for (let j = 0; j < list.length; j++) {
+        // A non-finite number breaks the line (a gap); anything but a number is an error.
+        const v = list[j];
+        if (typeof v !== 'number') checkFinite(`series[${i}].${axis}[${j}]`, v);
+      }
     }
   });
   const [x0, x1] = finiteRange(options.series.map((s) => s.x));
@@ -156,7 +183,7 @@ export function linePlot(options: LinePlotOptions): SvgPlot {
     }
     const dash = s.dashed === true ? ' stroke-dasharray="6 4"' : '';
     return (
-      `<g class="bw-series" data-series="${escapeHtml(s.name)}"><path d="${d}" fill="none" stroke="${s.color}" ` +
+      `<g class="bw-series" data-series="${escapeHtml(s.name)}"><path d="${d}" fill="none" stroke="${escapeHtml(s.color)}" ` +
       `stroke-width="2" stroke-linejoin="round" stroke-linecap="round"${dash}/></g>`
     );
   });

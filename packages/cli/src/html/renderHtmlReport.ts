@@ -118,11 +118,16 @@ function table(
 ): string {
   const cls = (c: TableColumn | undefined): string => (c?.align === 'right' ? ' class="num"' : '');
   const head = columns.map((c) => `<th${cls(c)}>${escapeHtml(c.header)}</th>`).join('');
+  // Each cell carries its column's heading, so a narrow screen can show a wide table row by row.
   const body = rows
-    .map((r) => `<tr>${columns.map((c, j) => `<td${cls(c)}>${escapeHtml(r[j] ?? '')}</td>`).join('')}</tr>`)
+    .map(
+      (r) =>
+        `<tr>${columns.map((c, j) => `<td${cls(c)} data-label="${escapeHtml(c.header)}">${escapeHtml(r[j] ?? '')}</td>`).join('')}</tr>`,
+    )
     .join('\n');
   const cap = caption === undefined ? '' : `<caption>${escapeHtml(caption)}</caption>`;
-  return `<table>${cap}<thead><tr>${head}</tr></thead>\n<tbody>\n${body}\n</tbody></table>`;
+  const stack = columns.length >= 4 ? ' class="stack"' : '';
+  return `<div class="table-wrap"><table${stack}>${cap}<thead><tr>${head}</tr></thead>\n<tbody>\n${body}\n</tbody></table></div>`;
 }
 
 function block(b: ReportBlock): string {
@@ -202,7 +207,11 @@ export function renderHtmlReport(options: HtmlReportOptions): string {
   const sections = options.sections
     .map(
       (s, i) =>
-        `<section id="${slug(s.title, i)}">\n<h2>${escapeHtml(s.title)}</h2>\n${s.blocks.map(block).join('\n')}\n</section>`,
+        // The heading and the first block stay together on a printed page.
+        `<section id="${slug(s.title, i)}">\n<div class="keep"><h2>${escapeHtml(s.title)}</h2>\n${s.blocks
+          .slice(0, 1)
+          .map(block)
+          .join('\n')}</div>\n${s.blocks.slice(1).map(block).join('\n')}\n</section>`,
     )
     .join('\n');
   const caution = escapeHtml(SAFETY_CAUTION);

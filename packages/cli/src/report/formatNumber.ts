@@ -1,3 +1,5 @@
+import { checkFinite, checkInteger } from '@bridgework/core';
+
 /**
  * A number for people to read: `digits` significant digits (default 3), never fewer integer
  * digits than the value has, an exponent only for very large or very small magnitudes, and a
@@ -12,6 +14,8 @@
  * @returns The text.
  */
 export function formatNumber(x: number, digits = 3): string {
+  if (typeof x !== 'number') checkFinite('value', x);
+  checkInteger('digits', digits, { min: 1, max: 15 });
   if (Number.isNaN(x)) return 'NaN';
   if (!Number.isFinite(x)) return x > 0 ? '∞' : '−∞';
   if (x === 0) return '0';
@@ -36,6 +40,7 @@ export function formatNumber(x: number, digits = 3): string {
  * @returns The text.
  */
 export function formatPercent(fraction: number): string {
+  if (typeof fraction !== 'number') checkFinite('fraction', fraction);
   const p = fraction * 100;
   if (p === 0) return '0 %';
   if (Math.abs(p) >= 10) return `${p.toFixed(1)} %`;
@@ -72,5 +77,8 @@ export function formatStated(x: number): string {
  * @returns The text.
  */
 export function formatCode(code: number): string {
-  return code.toFixed(1).replace('-', '−');
+  if (typeof code !== 'number') checkFinite('code', code);
+  if (!Number.isFinite(code)) return formatNumber(code);
+  // toFixed writes exponents from 1e21 on: such a code is shown as a number like any other.
+  return Math.abs(code) >= 1e21 ? formatNumber(code, 6) : code.toFixed(1).replace('-', '−');
 }

@@ -50,6 +50,7 @@ export interface BatchedMonteCarloResult {
  * @returns The sizes.
  */
 export function batchSizes(trials: number): number[] {
+  checkInteger('trials', trials, { min: 1, max: 10_000_000 });
   const k = Math.ceil(trials / BATCH_TRIALS);
   const base = Math.floor(trials / k);
   return Array.from({ length: k }, (_, i) => base + (i < trials - base * k ? 1 : 0));
