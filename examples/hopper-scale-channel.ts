@@ -9,15 +9,15 @@
  *
  * Run: pnpm exec tsx --conditions=@bridgework/source examples/hopper-scale-channel.ts
  */
-import { channelConstants, createChannel, type ChannelSpec } from '@bridgework/channel';
+import { channelBudget, channelConstants, createChannel, type ChannelSpec } from '@bridgework/channel';
 
 const spec: ChannelSpec = {
   name: 'hopper cell B',
   sensor: {
     kind: 'transducer',
-    capacity: 2000,
-    capacityUnit: 'kilogram',
-    ratedOutputVoltsPerVolt: 2.0013e-3,
+    capacity: '2000 kg', // the conventional mass of the certificate's reference weights
+    ratedOutputVoltsPerVolt: '2.0013 mV/V',
+    ratedOutputToleranceFraction: '0.05 %',
     zeroBalanceVoltsPerVolt: 0.021e-3,
     inputOhms: 385,
     outputOhms: 350,
@@ -25,8 +25,8 @@ const spec: ChannelSpec = {
   bridge: { wiring: 'six-wire', cable: { awg: 24, lengthMeters: 12 } },
   excitation: { volts: 5, remoteSense: true },
   amplifier: { gain: 128, inputVoltageNoiseVoltsPerRootHz: 6e-9 },
-  adc: { bits: 24, referenceVolts: 5, ratiometric: true, dataRateHertz: 20, filter: 'sinc4' },
-  tolerances: { ratedOutput: 0.0005, gain: 0.0002 },
+  adc: { bits: 24, referenceVolts: 5, ratiometric: true, filter: { order: 4, dataRateHertz: 20 } },
+  tolerances: { gainFraction: 0.0002 },
   output: { quantity: 'mass', range: [0, 2000], firmwareResolution: 0.01 },
 };
 const channel = createChannel(spec);
@@ -37,7 +37,7 @@ for (let i = 0; i < 600; i++) codes[i] = channel.codeFromQuantity((1650 * i) / 5
 codes.fill(2 ** 23 - 1, 600);
 const { values, status } = channel.convert(codes);
 
-const budget = channel.budget({ at: 1650 });
+const budget = channelBudget(channel, { at: 1650 });
 // 'sampled' keeps the example quick; the default verifies all 4.3 million codes of the span.
 const constants = channelConstants(channel, { verification: 'sampled' });
 const fixedTotal = constants.totals.fixed!;

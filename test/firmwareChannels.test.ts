@@ -31,9 +31,9 @@ const bathSpec: ChannelSpec = {
   bridge: { wiring: 'three-wire', ohmsPerLead: 0.5 },
   excitation: { volts: 0.5 },
   amplifier: { gain: 4, inputVoltageNoiseVoltsPerRootHz: 15e-9 },
-  adc: { bits: 24, referenceVolts: 0.5, ratiometric: true, dataRateHertz: 10 },
+  adc: { bits: 24, referenceVolts: 0.5, ratiometric: true, filter: { dataRateHertz: 10 } },
   environment: { temperatureCelsius: 25, rangeCelsius: [15, 35] },
-  tolerances: { completionOhms: 0.0001, ohmsPerLead: 0.05 },
+  tolerances: { completionOhmsFraction: 0.0001, ohmsPerLead: 0.05 },
   output: { quantity: 'temperature', range: [-50, 200] },
 };
 
@@ -227,14 +227,48 @@ describe('a 10 kΩ NTC thermometer at 0.01 °C (compensation’s Steinhart–Har
   });
 });
 
+describe('a 10 kΩ NTC channel (the channel’s thermistor kind) at 0.01 °C', () => {
+  // The same Steinhart–Hart part in a three-wire quarter bridge of 10 kΩ, read by the channel.
+  const ntcChannel = createChannel({
+    name: 'ntc-channel',
+    sensor: {
+      kind: 'thermistor',
+      referenceOhms: 10_000,
+      steinhartHart: { a: 1.129241e-3, b: 2.341077e-4, c: 8.775468e-8 },
+      rangeCelsius: [-40, 125],
+    },
+    bridge: { wiring: 'three-wire', ohmsPerLead: 0.2 },
+    excitation: { volts: 2.5 },
+    adc: { bits: 24, referenceVolts: 2.5, ratiometric: true },
+    output: { quantity: 'temperature', range: [-20, 80] },
+  });
+  const c = channelConstants(ntcChannel, { targetError: 0.01 });
+
+  it('meets 0.01 °C in every type, proved over every code of −20 … 80 °C', () => {
+    expect(c.codeMax - c.codeMin).toBeGreaterThan(5_000_000);
+    for (const t of TYPES) {
+      expect(c.totals[t]!.bound, t).toBeLessThanOrEqual(0.01);
+      expect(c.totals[t]!.proved, t).toBe(true);
+    }
+    expect(c.fixed!.kind).toBe('piecewise-polynomial');
+  });
+
+  it('compiled with gcc: bit for bit the library, within every stated bound', (ctx) => {
+    if (!needCompiler('gcc', () => ctx.skip())) return;
+    checkCompiled(c.firmwareChannel, (code) => ntcChannel.quantityFromCode(code), c.codeMin, c.codeMax);
+  });
+});
+
 describe('a Pt100 over −200 … 850 °C at 0.01 °C on a 32-bit integer core', () => {
   it('fits 2 KiB of fixed-point tables with 32-bit arithmetic only (no library call)', () => {
     // The bath channel with gain 2, so that 850 °C (390.48 Ω) stays inside the converter.
     const wide: Channel = createChannel({
       ...bathSpec,
       name: 'pt100-wide',
+      // IEC 60751 states class B only for −196 … 600 °C: the wide span has no class.
+      sensor: { kind: 'rtd', r0Ohms: 100 },
       amplifier: { gain: 2 },
-      output: { quantity: 'temperature', range: [-200, 850] },
+      output: { quantity: 'temperature', range: [-199.99, 849.99] }, // strictly inside the standard's −200 … 850 °C
     });
     const c = channelConstants(wide, {
       targetError: 0.01,
@@ -262,7 +296,7 @@ describe('every sensor kind: designed to a tight target, compiled, every code ag
         excitation: { volts: 5 },
         amplifier: { gain: 16 },
         adc: { bits: 18, referenceVolts: 5, ratiometric: true },
-        output: { quantity: 'microstrain', range: [-20000, 20000] },
+        output: { quantity: 'strain', unit: 'µε', range: [-20000, 20000] },
       },
       0.5,
     ],
@@ -275,7 +309,7 @@ describe('every sensor kind: designed to a tight target, compiled, every code ag
         excitation: { volts: 5 },
         amplifier: { gain: 32 },
         adc: { bits: 16, referenceVolts: 5, ratiometric: true },
-        output: { quantity: 'microstrain', range: [-5000, 5000] },
+        output: { quantity: 'strain', unit: 'µε', range: [-5000, 5000] },
       },
       0.05,
     ],

@@ -17,7 +17,6 @@ import { channelConstants, type Channel } from '@bridgework/channel';
 import { sqlExpression, type SqlDialect, type SqlMap } from '@bridgework/firmware';
 import { loadChannels } from '../packages/cli/src/channels/loadChannels.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { channelInternals } from '../packages/channel/src/createChannel.js';
 import { postgresUnavailable, startPostgres, type TestPostgres } from './support/postgres.js';
 
 const N = 1_000_000;
@@ -27,9 +26,9 @@ const hopperSpec = {
   name: 'hopper cell B',
   sensor: {
     kind: 'transducer',
-    capacity: 2000,
-    capacityUnit: 'kilogram',
+    capacity: '2000 kg',
     ratedOutputVoltsPerVolt: 2.0013e-3,
+    ratedOutputToleranceFraction: 0.0005,
     zeroBalanceVoltsPerVolt: 0.021e-3,
     inputOhms: 385,
     outputOhms: 350,
@@ -37,8 +36,8 @@ const hopperSpec = {
   bridge: { wiring: 'six-wire', cable: { awg: 24, lengthMeters: 12 } },
   excitation: { volts: 5, remoteSense: true },
   amplifier: { gain: 128, inputVoltageNoiseVoltsPerRootHz: 6e-9 },
-  adc: { bits: 24, referenceVolts: 5, ratiometric: true, dataRateHertz: 20, filter: 'sinc4' },
-  tolerances: { ratedOutput: 0.0005, gain: 0.0002 },
+  adc: { bits: 24, referenceVolts: 5, ratiometric: true, filter: { order: 4, dataRateHertz: 20 } },
+  tolerances: { gainFraction: 0.0002 },
   output: { quantity: 'mass', range: [0, 2000], firmwareResolution: 0.01 },
 } as const;
 
@@ -54,17 +53,13 @@ interface Case {
 
 /** The channel's map for SQL: its kernel when it converts by one, else its float64 polynomial. */
 function caseOf(channel: Channel): Case {
-  // The kernel's coefficients and range, exactly as `channel.convert` uses them.
-  const kernel = channelInternals(channel).mappingAt(undefined).kernel;
-  if (kernel !== undefined) {
+  // The kernel's coefficients and range, exactly as `channel.convert` uses them (`channel.map`).
+  const m = channel.map;
+  if (m.form === 'mobius') {
     return {
       name: channel.name,
       channel,
-      map: {
-        form: 'mobius',
-        coefficients: { a: kernel.a, b: kernel.b, c: kernel.c, d: kernel.d },
-        validCodes: { min: kernel.lo, max: kernel.hi },
-      },
+      map: { form: 'mobius', coefficients: m.coefficients, validCodes: m.validCodes },
       expected: (codes) => channel.convert(codes).values,
     };
   }

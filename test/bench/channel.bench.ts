@@ -7,7 +7,12 @@
  * ratio to the baseline is taken per round, and every output is folded into a printed sink.
  */
 import { compile } from 'mathjs';
-import { createChannel, createInterleavedConverter, type Channel } from '@bridgework/channel';
+import {
+  createChannel,
+  createInterleavedConverter,
+  type Channel,
+  type ChannelSpec,
+} from '@bridgework/channel';
 import { checkBaseline, compare, report, reportBaselineCheck, sinkValue } from './harness.js';
 
 /** `--short`: only the baseline self-check, on 10⁶ codes (the suite runs it; see test/bench.test.ts). */
@@ -27,8 +32,8 @@ const spec = {
   adc: { bits: 24, referenceVolts: 5, ratiometric: true },
   zero: { code: 1234 },
   environment: { temperatureCelsius: 12, zeroTemperatureCelsius: 18 },
-  output: { quantity: 'microstrain' },
-} as const;
+  output: { quantity: 'strain', unit: 'µε' },
+} as const satisfies ChannelSpec;
 const channel: Channel = createChannel(spec);
 
 function codes(seed: number, n: number): Int32Array {

@@ -36,7 +36,7 @@ const spec = (gaugeFactor: number) => ({
   excitation: { volts: 5 },
   amplifier: { gain: 128 },
   adc: { bits: 24, referenceVolts: 5, ratiometric: true, dataRateHertz: 1000 },
-  output: { quantity: 'microstrain' },
+  output: { quantity: 'strain', unit: 'µε' },
 });
 const channelFile = join(dir, 'rig.json');
 writeFile(

@@ -72,9 +72,9 @@ const bath: ChannelSpec = {
   bridge: { wiring: 'three-wire', ohmsPerLead: 0.5 },
   excitation: { volts: 0.5 },
   amplifier: { gain: 4, inputVoltageNoiseVoltsPerRootHz: 15e-9 },
-  adc: { bits: 24, referenceVolts: 0.5, ratiometric: true, dataRateHertz: 10 },
+  adc: { bits: 24, referenceVolts: 0.5, ratiometric: true, filter: { dataRateHertz: 10 } },
   environment: { temperatureCelsius: 25, rangeCelsius: [15, 35] },
-  tolerances: { completionOhms: 0.0001, ohmsPerLead: 0.05 },
+  tolerances: { completionOhmsFraction: 0.0001, ohmsPerLead: 0.05 },
   output: { quantity: 'temperature', range: [-50, 200] },
 };
 const deck = createChannel(footbridgeSpecs['deck-temp']);
@@ -82,12 +82,14 @@ const issue = [
   ['bath-pt100 (issue 14)', createChannel(bath), {}],
   ['deck-temp', deck, {}],
   [
-    'Pt100 −200 … 850 °C, gain 2',
+    'Pt100 −199.99 … 849.99 °C, gain 2',
     createChannel({
       ...bath,
       name: 'pt100-wide',
+      // IEC 60751 states class B only for −196 … 600 °C: the wide span has no class.
+      sensor: { kind: 'rtd', r0Ohms: 100 },
       amplifier: { gain: 2 },
-      output: { quantity: 'temperature', range: [-200, 850] },
+      output: { quantity: 'temperature', range: [-199.99, 849.99] }, // strictly inside the standard's −200 … 850 °C
     }),
     { accumulatorBits: 32 as const },
   ],

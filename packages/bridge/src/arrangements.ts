@@ -44,14 +44,26 @@ export const strainArrangements: readonly StrainArrangement[] = [
 ];
 
 /** A gauge's strain as `axial·ε + poisson·ν·ε`; `null` marks a completion resistor. */
-type GaugePattern = readonly [axial: number, poisson: number] | null;
+export type GaugePattern = readonly [axial: number, poisson: number] | null;
 
-interface ArrangementInfo {
+/** One row of {@link arrangementTable}: what each arm holds and the lead wirings the arrangement accepts. */
+export interface ArrangementInfo {
+  /** Arms R1…R4 (ring order): each gauge's strain pattern, or `null` for a completion resistor. */
   readonly arms: readonly [GaugePattern, GaugePattern, GaugePattern, GaugePattern];
+  /** The lead wirings this arrangement accepts (see {@link StrainBridgeOptions.leads}). */
   readonly wirings: readonly LeadWiring[];
 }
 
-/** @internal Arm patterns and the lead wirings each arrangement accepts. */
+/**
+ * Arm patterns and the lead wirings each arrangement accepts: the one table from which
+ * {@link createStrainBridge} and the channel package read every arrangement.
+ *
+ * @example
+ * ```ts
+ * arrangementTable['half-bending'].arms; // [[1, 0], [-1, 0], null, null]
+ * arrangementTable.quarter.wirings; // ['two-wire', 'three-wire']
+ * ```
+ */
 export const arrangementTable: Readonly<Record<StrainArrangement, ArrangementInfo>> = {
   quarter: { arms: [[1, 0], null, null, null], wirings: ['two-wire', 'three-wire'] },
   'half-bending': { arms: [[1, 0], [-1, 0], null, null], wirings: ['three-wire'] },

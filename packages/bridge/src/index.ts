@@ -1,4 +1,11 @@
-export { needsPoissonRatio, strainArrangements, type StrainArrangement } from './arrangements.js';
+export {
+  arrangementTable,
+  needsPoissonRatio,
+  strainArrangements,
+  type ArrangementInfo,
+  type GaugePattern,
+  type StrainArrangement,
+} from './arrangements.js';
 export {
   createStrainBridge,
   type StrainBridge,

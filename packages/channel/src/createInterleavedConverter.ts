@@ -1,10 +1,6 @@
 import { BridgeworkError } from '@bridgework/core';
-import { channelInternals, type Channel, type CodeBuffer } from './createChannel.js';
-import {
-  convertInterleavedLinearFractional,
-  convertLinearFractional,
-  convertScalar,
-} from './convert/kernel.js';
+import type { Channel, CodeBuffer, ConversionTransformer } from './Channel.js';
+import { convertInterleavedLinearFractional } from './convert/kernel.js';
 import {
   newTally,
   readConversionArguments,
@@ -13,17 +9,12 @@ import {
   type ConversionStatus,
   type ConvertOptions,
 } from './convert/ConversionStatus.js';
+import { checkConvertOptions } from './internal/convertOptions.js';
+import { channelInternals, convertLane } from './internal/makeChannel.js';
 
-// The WHATWG stream type named in this module's declarations. Browsers (lib "DOM") and Node
-// (@types/node) declare it in full; this empty declaration merges with theirs, and lets a project
-// with neither (lib ES2022 alone) type-check these declarations.
-declare global {
-  // eslint-disable-next-line @typescript-eslint/no-explicit-any, @typescript-eslint/no-empty-object-type, @typescript-eslint/no-unused-vars
-  interface TransformStream<I = any, O = any> {}
-}
 /** Options of an interleaved conversion: as for one channel, with one temperature per channel. */
 export interface InterleavedConvertOptions extends Omit<ConvertOptions, 'temperatureCelsius'> {
-  /** Gauge temperature of each channel for this block, °C (`undefined` entries keep the channel's). */
+  /** Sensor temperature of each channel for this block, °C (`undefined` entries keep the channel's). */
   readonly temperaturesCelsius?: readonly (number | undefined)[];
 }
 
@@ -54,13 +45,11 @@ export interface InterleavedConverter {
     options?: InterleavedConvertOptions,
   ): InterleavedConversionResult;
   /**
-   * A WHATWG `TransformStream` converting each chunk of whole frames.
+   * A transformer for `new TransformStream(...)` converting each chunk of whole frames.
    *
-   * @param options - As for `convert`, applied to every chunk.
+   * @param options - As for `convert`, applied to every chunk (checked now).
    */
-  transformStream(
-    options?: InterleavedConvertOptions,
-  ): TransformStream<CodeBuffer, InterleavedConversionResult>;
+  transformer(options?: InterleavedConvertOptions): ConversionTransformer<InterleavedConversionResult>;
 }
 
 /**
@@ -74,7 +63,7 @@ export interface InterleavedConverter {
  * @param channels - The channels in buffer order (at least one), each made by `createChannel`.
  * @returns The converter.
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-shape` for an empty list; `wrong-type` for a
- *   channel not made by `createChannel`.
+ *   channel not made by `createChannel` (naming it, `channels[2]`).
  * @example
  * ```ts
  * const converter = createInterleavedConverter([hangerA, hangerB]);
@@ -87,14 +76,30 @@ export function createInterleavedConverter(channels: readonly Channel[]): Interl
       param: 'channels',
     });
   }
-  const parts = channels.map((c) => channelInternals(c));
+  const parts = channels.map((c, j) => channelInternals(c, `channels[${j}]`));
   const n = channels.length;
+  const checkInterleavedOptions = (options: unknown) => {
+    const o = checkConvertOptions(options, true);
+    const ts = o['temperaturesCelsius'] as readonly unknown[] | undefined;
+    if (ts !== undefined && ts.length > n) {
+      throw new BridgeworkError(
+        'invalid-shape',
+        `\`options.temperaturesCelsius\` must hold at most one temperature per channel (${n}); got ${ts.length}`,
+        {
+          param: 'options.temperaturesCelsius',
+          limit: n,
+        },
+      );
+    }
+    return o;
+  };
 
   function convert(
     codes: CodeBuffer,
     out?: Float64Array,
-    opts: InterleavedConvertOptions = {},
+    options?: InterleavedConvertOptions,
   ): InterleavedConversionResult {
+    const opts = checkInterleavedOptions(options);
     const { values, maxLocations } = readConversionArguments(codes, out, opts);
     if (codes.length % n !== 0) {
       throw new BridgeworkError(
@@ -107,7 +112,8 @@ export function createInterleavedConverter(channels: readonly Channel[]): Interl
       );
     }
     const frames = codes.length / n;
-    const mappings = parts.map((part, j) => part.mappingAt(opts.temperaturesCelsius?.[j]));
+    const temperatures = opts['temperaturesCelsius'] as readonly (number | undefined)[] | undefined;
+    const mappings = parts.map((part, j) => part.mappingAt(temperatures?.[j]));
     const tallies = mappings.map((m) => newTally(maxLocations, m.model.adc.codeMin, m.model.adc.codeMax));
     if (mappings.every((m) => m.kernel !== undefined)) {
       // Every lane has a kernel: one pass over the buffer.
@@ -119,28 +125,25 @@ export function createInterleavedConverter(channels: readonly Channel[]): Interl
         frames,
       );
     } else {
-      mappings.forEach((m, j) => {
-        if (m.kernel !== undefined)
-          convertLinearFractional(codes, values, m.kernel, tallies[j]!, j, n, frames, j, n);
-        else convertScalar(codes, values, m.quantityOrNaN, m.lo, m.hi, tallies[j]!, j, n, frames, j, n);
-      });
+      mappings.forEach((m, j) => convertLane(m, codes, values, tallies[j]!, j, n, frames));
     }
     const statuses = mappings.map((m, j) =>
       statusOf(tallies[j]!, frames, m.kernel !== undefined ? 'kernel' : 'exact'),
     );
-    if (opts.onInvalid === 'throw') statuses.forEach((s, j) => throwIfRejected(s, channels[j]!.name));
+    if (opts['onInvalid'] === 'throw') statuses.forEach((s, j) => throwIfRejected(s, channels[j]!.name));
     return { values, statuses };
   }
 
   return {
     channels,
     convert,
-    transformStream(opts: InterleavedConvertOptions = {}) {
-      return new TransformStream<CodeBuffer, InterleavedConversionResult>({
+    transformer(options?: InterleavedConvertOptions) {
+      checkInterleavedOptions(options);
+      return {
         transform(chunk, controller) {
-          controller.enqueue(convert(chunk, undefined, opts));
+          controller.enqueue(convert(chunk, undefined, options));
         },
-      });
+      };
     },
   };
 }

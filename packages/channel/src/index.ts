@@ -1,54 +1,56 @@
+export type {
+  Channel,
+  ChannelCurve,
+  ChannelInput,
+  ChannelMap,
+  CodeBuffer,
+  ConversionTransformer,
+  MobiusCoefficients,
+} from './Channel.js';
+export { createChannel } from './createChannel.js';
+export { validateChannelSpec, type ChannelSpecValidation } from './validateChannelSpec.js';
+export { channelSpecFields, channelSpecJsonSchema } from './channelSpecReference.js';
+export type { SpecValidation, ValidateChannelSpecOptions } from './channelKit.js';
+export type { ChannelSpec, ValidChannelSpec } from './spec/ChannelSpec.js';
+export type { FieldRow, QuantityText } from './spec/schema.js';
+export type { SensorCurve } from './kinds/SensorKind.js';
+export {
+  defaultOutputUnit,
+  outputQuantities,
+  outputQuantityTable,
+  type DisplayUnit,
+  type OutputQuantity,
+  type OutputQuantityInfo,
+} from './outputQuantities.js';
 export {
   BUDGET_CAUTION,
-  type BudgetOptions,
+  MAX_BUDGET_TRIALS,
+  channelBudget,
   type ChannelBudget,
-  type ChannelBudgetLine,
+  type ChannelBudgetOptions,
   type ChannelNoiseTerm,
   type MonteCarloBudgetOptions,
-} from './budget/createChannelBudget.js';
+} from './budget/channelBudget.js';
+export type { ChannelBudgetLine } from './budget/ChannelBudgetLine.js';
+export type { ChannelDesignCheck, DesignLimits } from './budget/designChecks.js';
 export {
   CHANNEL_MAP_RELATIVE_ACCURACY,
   channelConstants,
   type ChannelConstants,
   type ConstantsOptions,
 } from './constants/channelConstants.js';
-export {
-  type ConversionResult,
-  type ConversionStatus,
-  type ConvertOptions,
-} from './convert/ConversionStatus.js';
-export { createChannel, type Channel, type CodeBuffer, type Interval } from './createChannel.js';
+export type { ConversionResult, ConversionStatus, ConvertOptions } from './convert/ConversionStatus.js';
 export {
   createInterleavedConverter,
   type InterleavedConversionResult,
   type InterleavedConverter,
   type InterleavedConvertOptions,
 } from './createInterleavedConverter.js';
-export type {
-  AdcSpec,
-  AmplifierLimitsSpec,
-  AmplifierSpec,
-  BridgeSpec,
-  CableSpec,
-  ChannelSpec,
-  EnvironmentSpec,
-  ExcitationSpec,
-  OutputSpec,
-  RtdSpec,
-  SensorSpec,
-  StrainGaugeSpec,
-  ThermalOutputSpec,
-  TolerancesSpec,
-  TransducerSpec,
-  ZeroSpec,
-} from './spec/ChannelSpec.js';
-export { type FieldRow, type UnitConverter } from './spec/schema.js';
+export { formatQuantity, parseQuantity } from './units/quantity.js';
 export {
-  channelSpecFields,
-  channelSpecJsonSchema,
-  validateChannelSpec,
-  type ChannelSpecValidation,
-  type InvalidSpec,
-  type ValidSpec,
-  type ValidateChannelSpecOptions,
-} from './validateChannelSpec.js';
+  dimensionTable,
+  dimensions,
+  type Dimension,
+  type DimensionDefinition,
+  type UnitDefinition,
+} from './units/unitTable.js';

@@ -1,21 +1,21 @@
 import { describe, expect, it } from 'vitest';
 import { createStrainBridge } from '@bridgework/bridge';
 import { johnsonNoiseDensity } from '@bridgework/chain';
-import { createChannel, type ChannelSpec } from '@bridgework/channel';
+import { channelBudget, createChannel, validateChannelSpec, type ChannelSpec } from '@bridgework/channel';
 
 const spec: ChannelSpec = {
   name: 'crane hook',
-  sensor: { kind: 'strain-gauge', gaugeFactor: 2.0, gaugeOhms: 350 },
+  sensor: { kind: 'strain-gauge', gaugeFactor: 2.0, gaugeOhms: 350, gaugeFactorToleranceFraction: 0.01 },
   bridge: { arrangement: 'quarter', wiring: 'three-wire', ohmsPerLead: 1.5 },
   excitation: { volts: 5 },
   amplifier: { gain: 128, inputVoltageNoiseVoltsPerRootHz: 10e-9 },
-  adc: { bits: 24, referenceVolts: 5, ratiometric: true, dataRateHertz: 10, filter: 'sinc3' },
-  tolerances: { gaugeFactor: 0.01, gain: 0.002, ohmsPerLead: 0.2 },
-  output: { quantity: 'microstrain', range: [-2000, 2000] },
+  adc: { bits: 24, referenceVolts: 5, ratiometric: true, filter: { order: 3, dataRateHertz: 10 } },
+  tolerances: { gainFraction: 0.002, ohmsPerLead: 0.2 },
+  output: { quantity: 'strain', unit: 'µε', range: [-2000, 2000] },
 };
 
 describe('budget: lines, models and the combined uncertainty', () => {
-  const budget = createChannel(spec).budget();
+  const budget = channelBudget(createChannel(spec));
 
   it('is evaluated at the end of the span by default and names every line with its model and inputs', () => {
     expect(budget.at).toBe(2000);
@@ -67,7 +67,7 @@ describe('budget: lines, models and the combined uncertainty', () => {
   });
 
   it('refers the noise to the output through the exact slope (checked against the bridge and Johnson noise)', () => {
-    const zero = createChannel(spec).budget({ at: 0 });
+    const zero = channelBudget(createChannel(spec), { at: 0 });
     const bridge = createStrainBridge({
       arrangement: 'quarter',
       gaugeFactor: 2,
@@ -92,11 +92,13 @@ describe('budget: lines, models and the combined uncertainty', () => {
   });
 
   it('states the nonlinearity of a linear map against the textbook quarter-bridge inverse', () => {
-    const noLeads = createChannel({
-      ...spec,
-      bridge: { arrangement: 'quarter', wiring: 'three-wire' },
-      tolerances: {},
-    }).budget();
+    const noLeads = channelBudget(
+      createChannel({
+        ...spec,
+        bridge: { arrangement: 'quarter', wiring: 'three-wire' },
+        tolerances: {},
+      }),
+    );
     const line = noLeads.lines.find((l) => l.name === 'nonlinearity of a linear map')!;
     // ε(r) = 4r/(GF(1 − 2r)) (textbook quarter-bridge inverse), chord through ±2000 µε, sampled densely.
     const eps = (r: number) => (4 * r) / (2 * (1 - 2 * r));
@@ -113,7 +115,7 @@ describe('budget: lines, models and the combined uncertainty', () => {
   });
 
   it('agrees with a Monte Carlo evaluation (JCGM 101) for this nearly linear model', () => {
-    const mc = createChannel(spec).budget({ monteCarlo: { trials: 100_000, seed: 7 } }).monteCarlo!;
+    const mc = channelBudget(createChannel(spec), { monteCarlo: { trials: 100_000, seed: 7 } }).monteCarlo!;
     expect(mc.trials).toBe(100_000);
     // Relative standard error of a standard deviation from M trials ≈ 1/√(2M) = 0.22 %; allow 2 %.
     expect(mc.standardUncertainty).toBeNear(budget.combined.standardUncertainty, { rel: 0.02 });
@@ -122,8 +124,10 @@ describe('budget: lines, models and the combined uncertainty', () => {
 
   it('returns the Monte Carlo model values on request, the same run as without them', () => {
     const channel = createChannel(spec);
-    const plain = channel.budget({ monteCarlo: { trials: 5000, seed: 3 } }).monteCarlo!;
-    const kept = channel.budget({ monteCarlo: { trials: 5000, seed: 3, returnValues: true } }).monteCarlo!;
+    const plain = channelBudget(channel, { monteCarlo: { trials: 5000, seed: 3 } }).monteCarlo!;
+    const kept = channelBudget(channel, {
+      monteCarlo: { trials: 5000, seed: 3, returnValues: true },
+    }).monteCarlo!;
     expect(plain.values).toBeUndefined();
     expect(kept.values).toHaveLength(5000);
     expect(kept.value).toBe(plain.value);
@@ -135,37 +139,49 @@ describe('budget: lines, models and the combined uncertainty', () => {
   });
 
   it('adds the IEC 60751 class tolerance of an RTD (class A at 100 °C: ±0.35 °C)', () => {
-    const rtd = createChannel({
-      sensor: { kind: 'rtd', toleranceClass: 'A' },
-      bridge: { wiring: 'three-wire' },
-      excitation: { volts: 1 },
-      amplifier: { gain: 8 },
-      adc: { bits: 24, referenceVolts: 1, ratiometric: true },
-      output: { quantity: 'temperature', range: [0, 100] },
-    }).budget({ at: 100 });
+    const rtd = channelBudget(
+      createChannel({
+        sensor: { kind: 'rtd', toleranceClass: 'A' },
+        bridge: { wiring: 'three-wire' },
+        excitation: { volts: 1 },
+        amplifier: { gain: 8 },
+        adc: { bits: 24, referenceVolts: 1, ratiometric: true },
+        output: { quantity: 'temperature', range: [0, 100] },
+      }),
+      { at: 100 },
+    );
     const line = rtd.lines.find((l) => l.name === 'RTD class tolerance')!;
     expect(line.value).toBeNear(0.35, { rel: 1e-12 });
     expect(rtd.combined.contributions['RTD class tolerance']).toBeNear(0.35 / Math.sqrt(3), { rel: 1e-9 });
   });
 
   it('flags headroom: an output swing too small for the span fails the check', () => {
-    const tight = createChannel({
-      ...spec,
-      amplifier: { gain: 128, limits: { outputVolts: [-0.1, 0.1] } },
-    }).budget();
+    const tight = channelBudget(
+      createChannel({
+        ...spec,
+        amplifier: { gain: 128, limits: { outputVolts: [-0.1, 0.1] } },
+      }),
+    );
     expect(tight.ok).toBe(false);
     expect(tight.frontEnd.issues.length).toBeGreaterThan(0);
+    expect(tight.checks.filter((c) => c.status === 'fail').map((c) => c.id)).toEqual(
+      expect.arrayContaining(['headroom-output-low', 'headroom-output-high']),
+    );
     expect(budget.ok).toBe(true);
   });
 
   it('rejects a budget point the channel cannot convert, and a lead tolerance beyond the leads', () => {
-    expect(() => createChannel(spec).budget({ at: 1e9 })).toThrowBridgeworkError('out-of-range', {
-      param: 'at',
+    expect(() => channelBudget(createChannel(spec), { at: 1e9 })).toThrowBridgeworkError('out-of-range', {
+      param: 'options.at',
     });
-    const noLeads = createChannel({ ...spec, bridge: { arrangement: 'quarter', wiring: 'three-wire' } });
-    expect(() => noLeads.budget()).toThrowBridgeworkError('out-of-range', {
-      param: 'tolerances.ohmsPerLead',
+    // Found once, when the spec is validated: the lead tolerance cannot exceed the lead resistance.
+    const noLeads = validateChannelSpec({
+      ...spec,
+      bridge: { arrangement: 'quarter', wiring: 'three-wire' },
     });
+    expect(noLeads.issues).toEqual([
+      expect.objectContaining({ code: 'out-of-range', path: 'tolerances.ohmsPerLead', limit: '0 Ω' }),
+    ]);
   });
 });
 
@@ -175,7 +191,7 @@ describe('budget: transducer temperature effects over the stated range', () => {
       sensor: {
         kind: 'transducer',
         capacity: 10_000,
-        ratedOutputVoltsPerVolt: 2e-3,
+        ratedOutputVoltsPerVolt: '2 mV/V',
         zeroTemperatureCoefficientPerKelvin: 2e-5,
         spanTemperatureCoefficientPerKelvin: 1e-5,
         certificateCelsius: 20,
@@ -186,7 +202,7 @@ describe('budget: transducer temperature effects over the stated range', () => {
       environment: { temperatureCelsius: 20, rangeCelsius: [0, 40] },
       output: { quantity: 'force', range: [0, 10_000] },
     };
-    const b = createChannel(cell).budget({ at: 8000 });
+    const b = channelBudget(createChannel(cell), { at: 8000 });
     const line = b.lines.find((l) => l.name === 'transducer temperature')!;
     // load = C·(r − TK0·RO·ΔT)/(RO(1 + TKC·ΔT)) ⇒ ∂load/∂T = −C·TK0 − load·TKC at ΔT = 0.
     const expected = -10_000 * 2e-5 - 8000 * 1e-5;

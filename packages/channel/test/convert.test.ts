@@ -1,5 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+import type { ErrorCode } from '@bridgework/core';
 import { createChannel, createInterleavedConverter, type ChannelSpec } from '@bridgework/channel';
 
 const quarter: ChannelSpec = {
@@ -9,7 +10,7 @@ const quarter: ChannelSpec = {
   excitation: { volts: 5 },
   amplifier: { gain: 128 },
   adc: { bits: 24, referenceVolts: 5, ratiometric: true },
-  output: { quantity: 'microstrain' },
+  output: { quantity: 'strain', unit: 'µε' },
 };
 const rtd: ChannelSpec = {
   name: 'deck temperature',
@@ -101,10 +102,29 @@ describe('convert: rails and impossible ratios become NaN, counted and located',
     });
     expect(() => ch.convert(new Int32Array(4), undefined, { maxLocations: -1 })).toThrowBridgeworkError(
       'out-of-range',
+      { param: 'options.maxLocations' },
     );
     expect(() =>
       ch.convert(new Int32Array(4), undefined, { temperatureCelsius: Number.NaN }),
-    ).toThrowBridgeworkError('not-finite');
+    ).toThrowBridgeworkError('not-finite', { param: 'options.temperatureCelsius' });
+    // Issue 15 item 6: options are checked, never read loosely.
+    const bad: [unknown, ErrorCode, string][] = [
+      [{ onInvalid: 'Throw' }, 'invalid-option', 'options.onInvalid'],
+      [{ onInvalid: true }, 'invalid-option', 'options.onInvalid'],
+      [{ maxLocations: 1e308 }, 'out-of-range', 'options.maxLocations'],
+      [{ maxLocations: 2 ** 31 - 1 }, 'out-of-range', 'options.maxLocations'],
+      [{ maxLocation: 3 }, 'unknown-option', 'options.maxLocation'],
+      [{ constructor: 3 }, 'unknown-option', 'options.constructor'],
+      [null, 'wrong-type', 'options'],
+      ['throw', 'wrong-type', 'options'],
+    ];
+    for (const [options, code, param] of bad) {
+      expect(
+        () => ch.convert(new Int32Array(4), undefined, options as never),
+        String(options),
+      ).toThrowBridgeworkError(code, { param });
+      expect(() => ch.transformer(options as never), String(options)).toThrowBridgeworkError(code, { param });
+    }
   });
 });
 
@@ -209,13 +229,29 @@ describe('interleaved buffers and streams equal the plain conversion', () => {
     });
     expect(() =>
       createInterleavedConverter(channels).convert(new Int32Array(3), undefined, { maxLocations: 1.5 }),
-    ).toThrowBridgeworkError('not-integer', { param: 'maxLocations' });
+    ).toThrowBridgeworkError('not-integer', { param: 'options.maxLocations' });
     expect(() => createInterleavedConverter([{} as never])).toThrowBridgeworkError('wrong-type', {
-      param: 'channel',
+      param: 'channels[0]',
+    });
+    const inter = createInterleavedConverter(channels);
+    expect(() =>
+      inter.convert(new Int32Array(3), undefined, { temperaturesCelsius: 20 as never }),
+    ).toThrowBridgeworkError('wrong-type', {
+      param: 'options.temperaturesCelsius',
+    });
+    expect(() =>
+      inter.convert(new Int32Array(3), undefined, { temperaturesCelsius: [20, 20, 20, 20] }),
+    ).toThrowBridgeworkError('invalid-shape', {
+      param: 'options.temperaturesCelsius',
+    });
+    expect(() =>
+      inter.convert(new Int32Array(3), undefined, { temperaturesCelsius: [Number.NaN] }),
+    ).toThrowBridgeworkError('not-finite', {
+      param: 'options.temperaturesCelsius[0]',
     });
   });
 
-  it('the TransformStream adapters convert chunk by chunk exactly like convert', async () => {
+  it('the transformers convert chunk by chunk exactly like convert, through a real TransformStream', async () => {
     const ch = channels[0]!;
     const chunks = [new Int32Array([1, 2, 3]), new Int32Array([RAIL_HIGH, 500_000]), new Int32Array(0)];
     const results = await collect(
@@ -224,7 +260,7 @@ describe('interleaved buffers and streams equal the plain conversion', () => {
           for (const c of chunks) controller.enqueue(c);
           controller.close();
         },
-      }).pipeThrough(ch.transformStream()),
+      }).pipeThrough(new TransformStream(ch.transformer())),
     );
     expect(results).toHaveLength(3);
     results.forEach((r, i) =>
@@ -240,7 +276,7 @@ describe('interleaved buffers and streams equal the plain conversion', () => {
           c.enqueue(frame);
           c.close();
         },
-      }).pipeThrough(inter.transformStream()),
+      }).pipeThrough(new TransformStream(inter.transformer())),
     );
     expect(Array.from(out[0]!.values)).toEqual(Array.from(inter.convert(frame).values));
   });

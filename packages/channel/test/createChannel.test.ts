@@ -38,7 +38,10 @@ describe('createChannel: the minimal spec', () => {
     expect(ch.method).toBe('kernel');
     expect(ch.adc.bits).toBe(24);
     expect(ch.spec.adc.bipolar).toBe(true);
-    expect(ch.spec.adc.filter).toBe('sinc3');
+    expect(ch.spec.adc.filter).toEqual({ kind: 'sinc', order: 3, dataRateHertz: 10 });
+    expect(ch.spec.bridge.completionOhms).toBe(350);
+    expect(ch.spec.excitation.remoteSense).toBe(false);
+    expect(ch.spec.environment.rangeCelsius).toEqual({ min: 20, max: 20 });
     expect(ch.spec.polarity).toBe('normal');
     expect(ch.validCodes).toEqual({ min: -(2 ** 23), max: 2 ** 23 - 1 });
   });
@@ -98,7 +101,7 @@ describe('createChannel: the minimal spec', () => {
 });
 
 describe('createChannel: exact maps for every sensor kind (40-digit references)', () => {
-  it('two-wire quarter bridge on a cable, absolute reference with source resistance, microstrain', () => {
+  it('two-wire quarter bridge on a cable, absolute reference with source resistance, in µε', () => {
     const spec: ChannelSpec = {
       sensor: { kind: 'strain-gauge', gaugeFactor: 2.05, gaugeOhms: 120 },
       bridge: { arrangement: 'quarter', wiring: 'two-wire', cable: { awg: 26, lengthMeters: 15 } },
@@ -106,7 +109,7 @@ describe('createChannel: exact maps for every sensor kind (40-digit references)'
       amplifier: { gain: 64 },
       adc: { bits: 24, referenceVolts: 2.5 },
       environment: { temperatureCelsius: 35 },
-      output: { quantity: 'microstrain' },
+      output: { quantity: 'strain', unit: 'µε' },
     };
     const ch = createChannel(spec);
     // Lead resistance from compensation (AWG 26 at 35 °C, checked there against IEC 60028).
@@ -261,7 +264,7 @@ describe('createChannel: round trips for every sensor kind and arrangement', () 
         amplifier: { gain: 64 },
         adc: { bits: 24, referenceVolts: 5, ratiometric: true },
         polarity: 'inverted',
-        output: { quantity: 'microstrain' },
+        output: { quantity: 'strain', unit: 'µε' },
       },
     ]),
     [
@@ -330,7 +333,7 @@ describe('createChannel: invalid specs list every problem by field path', () => 
         bridge: { arrangement: 'full-poisson', wiring: 'three-wire', ohmsPerLead: -1 },
         excitation: { volts: 0 },
         amplifier: { gain: Number.NaN },
-        adc: { bits: 24.5, referenceVolts: 5, filter: 'sinc9' },
+        adc: { bits: 24.5, referenceVolts: 5, filter: { order: 9 } },
         output: { quantity: 'temperature' },
       } as unknown as ChannelSpec),
     );
@@ -339,7 +342,7 @@ describe('createChannel: invalid specs list every problem by field path', () => 
     expect(paths).toEqual(
       [
         'adc.bits',
-        'adc.filter',
+        'adc.filter.order',
         'amplifier.gain',
         'bridge.ohmsPerLead',
         'excitation.volts',
@@ -347,8 +350,15 @@ describe('createChannel: invalid specs list every problem by field path', () => 
         'sensor.gaugeOhm',
       ].sort(),
     );
-    expect(e.issues.find((i) => i.path === 'excitation.volts')?.message).toBe(
-      '`excitation.volts` must be > 0; got 0',
+    expect(e.issues.find((i) => i.path === 'excitation.volts')).toEqual({
+      code: 'not-positive',
+      path: 'excitation.volts',
+      message: 'must be > 0; got 0 V',
+      expected: '> 0',
+      limit: '0',
+    });
+    expect(e.issues.find((i) => i.path === 'sensor.gaugeOhm')?.message).toBe(
+      "unknown field; did you mean 'gaugeOhms'?",
     );
     expect(e.message).toContain('7 problems');
   });
@@ -395,9 +405,10 @@ describe('createChannel: invalid specs list every problem by field path', () => 
     );
     const { adc: _adc, ...noAdc } = minimal;
     expect(caught(() => createChannel(noAdc as ChannelSpec)).issues[0]?.path).toBe('adc');
-    expect(caught(() => createChannel(null as unknown as ChannelSpec)).issues[0]?.message).toBe(
-      '`spec` must be an object; got null',
-    );
+    expect(caught(() => createChannel(null as unknown as ChannelSpec)).issues[0]).toMatchObject({
+      code: 'wrong-type',
+      path: '',
+    });
   });
 });
 

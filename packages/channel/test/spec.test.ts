@@ -6,7 +6,7 @@ import {
   validateChannelSpec,
   type ChannelSpec,
 } from '@bridgework/channel';
-import { fieldTable, normalizedRows } from './support/fieldTable.js';
+import { normalizedRows, unitTableMarkdown } from './support/unitTableDocs.js';
 
 const full: ChannelSpec = {
   name: 'every field',
@@ -17,6 +17,7 @@ const full: ChannelSpec = {
     transverseSensitivity: 0.01,
     gaugeFactorTemperatureCoefficientPerKelvin: 1e-4,
     gaugeFactorReferenceCelsius: 24,
+    gaugeFactorToleranceFraction: 0.005,
     thermalOutput: { coefficientsMicrostrain: [-20, 1.5, -0.02], gaugeFactor: 2, rangeCelsius: [-30, 100] },
   },
   bridge: {
@@ -48,8 +49,7 @@ const full: ChannelSpec = {
     referenceVolts: 5,
     bipolar: true,
     ratiometric: true,
-    dataRateHertz: 10,
-    filter: 'sinc3',
+    filter: { kind: 'sinc', order: 3, dataRateHertz: 10 },
     noiseRmsVolts: 2e-8,
   },
   zero: { code: 120 },
@@ -61,19 +61,18 @@ const full: ChannelSpec = {
     rangeCelsius: [10, 40],
   },
   tolerances: {
-    gaugeFactor: 0.005,
-    ratedOutput: 0,
-    completionOhms: 0.0001,
+    completionOhmsFraction: 0.0001,
     ohmsPerLead: 0.05,
-    excitationVolts: 0,
-    gain: 0.001,
-    referenceVolts: 0,
+    excitationVoltsFraction: 0,
+    gainFraction: 0.001,
+    referenceVoltsFraction: 0,
     offsetVolts: 1e-6,
-    temperatureCelsius: 1,
+    temperatureKelvin: 1,
     coverageProbability: 0.95,
   },
   output: {
     quantity: 'force',
+    unit: 'N',
     range: [-50e3, 50e3],
     modulusPascals: 205e9,
     areaSquareMeters: 1.2e-3,
@@ -82,29 +81,94 @@ const full: ChannelSpec = {
 };
 
 describe('the channel spec schema', () => {
-  it('accepts a spec with every field of the types, unchanged where given', () => {
+  it('accepts a spec with every field of the types, unchanged where given (ranges become { min, max })', () => {
     const r = validateChannelSpec(full);
     expect(r.issues).toEqual([]);
-    expect(r.value).toMatchObject(full as unknown as Record<string, unknown>);
+    const interval = (x: readonly [number, number]) => ({ min: x[0], max: x[1] });
+    expect(r.value).toMatchObject({
+      ...full,
+      sensor: {
+        ...full.sensor,
+        thermalOutput: {
+          coefficientsMicrostrain: [-20, 1.5, -0.02],
+          gaugeFactor: 2,
+          rangeCelsius: interval([-30, 100]),
+        },
+      },
+      amplifier: {
+        ...full.amplifier,
+        limits: {
+          inputCommonModeVolts: interval([0.1, 4.9]),
+          inputDifferentialVolts: 0.1,
+          firstStageVolts: interval([0.05, 4.95]),
+          outputVolts: interval([0.05, 4.95]),
+        },
+      },
+      environment: { ...full.environment, rangeCelsius: interval([10, 40]) },
+      output: { ...full.output, range: interval([-50e3, 50e3]) },
+    } as unknown as Record<string, unknown>);
   });
 
-  it('converts quantities written with units only through the converter it is given', () => {
-    const withUnits = { ...full, excitation: { volts: '5 V' } } as unknown as ChannelSpec;
-    expect(validateChannelSpec(withUnits).issues[0]?.message).toBe(
-      "`excitation.volts` must be a number in V; got '5 V'",
-    );
-    const converted = validateChannelSpec(withUnits, {
-      convertUnit: (text, unit) => (unit === 'V' && text === '5 V' ? 5 : Number.NaN),
-    });
-    expect(converted.ok).toBe(true);
-    const failing = validateChannelSpec(withUnits, {
-      convertUnit: () => {
-        throw new Error('`5 V` is not a resistance');
+  it("reads quantities written with units, exactly, and names a wrong unit in the user's terms", () => {
+    const withUnits = {
+      ...full,
+      sensor: { ...full.sensor, gaugeOhms: '0.35 kΩ', gaugeFactorToleranceFraction: '0.5 %' },
+      excitation: { volts: '5000 mV' },
+      output: {
+        ...full.output,
+        unit: 'kN',
+        range: ['-50 kN', '50000 N'],
+        modulusPascals: '205 GPa',
+        areaSquareMeters: '1200 mm²',
+        firmwareResolution: 0.001,
       },
-    });
-    expect(failing.issues[0]?.message).toBe(
-      '`excitation.volts` must be a quantity in V: `5 V` is not a resistance',
-    );
+    } as unknown as ChannelSpec;
+    const r = validateChannelSpec(withUnits);
+    expect(r.issues).toEqual([]);
+    expect(r.value?.sensor).toMatchObject({ gaugeOhms: 350, gaugeFactorToleranceFraction: 0.005 });
+    expect(r.value?.excitation.volts).toBe(5);
+    // The range is in the output unit, kN: '50000 N' is 50 kN.
+    expect(r.value?.output.range).toEqual({ min: -50, max: 50 });
+    expect(r.value?.output.modulusPascals).toBe(205e9);
+    expect(r.value?.output.areaSquareMeters).toBe(1.2e-3); // the double nearest 1200e-6 (exact decimal product)
+    const wrong = validateChannelSpec({ ...full, excitation: { volts: '5 m' } });
+    expect(wrong.issues).toEqual([
+      expect.objectContaining({
+        code: 'wrong-type',
+        path: 'excitation.volts',
+        message: "'5 m' is a length; expected a voltage, such as '5 V'",
+      }),
+    ]);
+  });
+
+  it('treats keys named like prototype members as unknown fields, and non-finite numbers as field errors', () => {
+    const renamed = JSON.parse(JSON.stringify(full).replace('"tolerances"', '"constructor"')) as unknown;
+    const r = validateChannelSpec(renamed);
+    expect(r.ok).toBe(false);
+    expect(r.issues.map((i) => [i.code, i.path])).toEqual([['unknown-option', 'constructor']]);
+    for (const key of ['__proto__', 'toString', 'hasOwnProperty', 'valueOf']) {
+      const spec = JSON.parse(`{"${key}": 1, ${JSON.stringify(full).slice(1)}`) as unknown;
+      expect(
+        validateChannelSpec(spec).issues.map((i) => i.path),
+        key,
+      ).toEqual([key]);
+    }
+    const nan = validateChannelSpec({ ...full, amplifier: { gain: Number.POSITIVE_INFINITY } });
+    expect(nan.issues).toEqual([expect.objectContaining({ code: 'not-finite', path: 'amplifier.gain' })]);
+    const overflow = validateChannelSpec({ ...full, excitation: { volts: '1e400 V' } });
+    expect(overflow.issues).toEqual([
+      expect.objectContaining({ code: 'not-finite', path: 'excitation.volts' }),
+    ]);
+  });
+
+  it('gives back a validated spec that validates again to itself (idempotent), and createChannel takes it as it is', () => {
+    const first = validateChannelSpec(full);
+    expect(first.ok).toBe(true);
+    const again = validateChannelSpec(JSON.parse(JSON.stringify(first.value)) as unknown);
+    expect(again.issues).toEqual([]);
+    expect(again.value).toEqual(first.value);
+    expect(Object.isFrozen(first.value)).toBe(true);
+    expect(Object.isFrozen(first.value?.sensor)).toBe(true);
   });
 
   it('prefixes field paths when asked (files with several channels)', () => {
@@ -127,13 +191,13 @@ describe('the channel spec schema', () => {
       unit: 'V',
       presence: 'required',
     });
-    expect(rows.find((r) => r.path === 'adc.filter')).toMatchObject({ presence: "'sinc3'" });
+    expect(rows.find((r) => r.path === 'adc.filter.order')).toMatchObject({ presence: '3' });
     expect(JSON.parse(JSON.stringify(schema))).toEqual(schema);
   });
 
-  it('docs/channel.md holds the field table exactly as the schema defines it', () => {
+  it('docs/channel.md holds the unit table exactly as the unit table defines it', () => {
     const doc = readFileSync(new URL('../../../docs/channel.md', import.meta.url), 'utf8');
-    expect(normalizedRows(doc), 'run pnpm run docs:channel').toEqual(normalizedRows(fieldTable()));
-    expect(normalizedRows(fieldTable()).length).toBeGreaterThan(60);
+    expect(normalizedRows(doc), 'run pnpm run docs:channel').toEqual(normalizedRows(unitTableMarkdown()));
+    expect(normalizedRows(unitTableMarkdown()).length).toBeGreaterThan(20);
   });
 });

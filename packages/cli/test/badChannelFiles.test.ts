@@ -58,8 +58,8 @@ describe('bad channel files', () => {
   it('a quantity in the wrong unit', async () => {
     const path = edited(
       'unit.yaml',
-      'gaugeOhms: 350 ohm\n    bridge:\n      arrangement: full-poisson',
-      'gaugeOhms: 350 m\n    bridge:\n      arrangement: full-poisson',
+      'gaugeOhms: 350 Ω\n      gaugeFactorToleranceFraction: 0.5 %',
+      'gaugeOhms: 350 m\n      gaugeFactorToleranceFraction: 0.5 %',
     );
     const r = await report(path);
     expect(r.code).toBe(exitCodes.badInput);
@@ -67,7 +67,7 @@ describe('bad channel files', () => {
       problemLine(
         '',
         'channels.hanger-h3.sensor.gaugeOhms',
-        "'350 m' is a length; expected a resistance, such as '350 ohm'",
+        "'350 m' is a length; expected a resistance, such as '350 Ω'",
       ),
     );
   });
@@ -117,9 +117,7 @@ describe('bad channel files', () => {
   it('a negative resistance, with or without a unit', async () => {
     const path = file(
       'negative.yaml',
-      example
-        .replace('r0Ohms: 1000 ohm', 'r0Ohms: -1000 ohm')
-        .replace('gaugeOhms: 350 ohm', 'gaugeOhms: -350'),
+      example.replace('r0Ohms: 1000 Ω', 'r0Ohms: -1000 ohm').replace('gaugeOhms: 350 Ω', 'gaugeOhms: -350'),
     );
     const r = await report(path);
     expect(r.code).toBe(exitCodes.badInput);

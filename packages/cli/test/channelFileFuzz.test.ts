@@ -57,7 +57,10 @@ function valueAt(value: unknown, path: string): unknown {
   let x = value;
   for (const m of path.matchAll(/([^.[\]]+)|\[(\d+)\]/g)) {
     if (typeof x !== 'object' || x === null) return undefined;
-    x = (x as Record<string, unknown>)[m[2] ?? (m[1] as string)];
+    // A range written [min, max] is { min, max } in the validated spec.
+    const isRange = !Array.isArray(x) && Object.keys(x).join(',') === 'min,max';
+    const key = m[2] !== undefined && isRange ? (m[2] === '0' ? 'min' : 'max') : (m[2] ?? (m[1] as string));
+    x = (x as Record<string, unknown>)[key];
   }
   return x;
 }

@@ -72,8 +72,8 @@ describe('the JSON Schema of a channel file', () => {
     spaced.channels['deck temp'] = spaced.channels['deck-temp']!;
     expect(schemaErrors(schema, spaced)).toEqual(['/channels/deck temp: propertyNames']);
     const choice = copy();
-    choice.channels['gusset-g2']!['adc']!['filter'] = 'sinc7';
-    expect(schemaErrors(schema, choice)).toEqual(['/channels/gusset-g2/adc/filter: enum']);
+    (choice.channels['gusset-g2'] as Record<string, unknown>)['polarity'] = 'reversed';
+    expect(schemaErrors(schema, choice)).toEqual(['/channels/gusset-g2/polarity: enum']);
   });
 
   it('flags a missing channels mapping, an empty one, and a negative resistance written as a number', () => {

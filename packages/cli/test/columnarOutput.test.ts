@@ -149,7 +149,7 @@ describe('Parquet output, read back with DuckDB', () => {
     expect(meta.get('bridgework.channel-file.sha256')).toBe(sha256);
     expect(JSON.parse(meta.get('bridgework.channels') as string)).toEqual([
       { name: 'hanger-h3', unit: 'N', quantity: 'force' },
-      { name: 'gusset-g2', unit: 'µε', quantity: 'microstrain' },
+      { name: 'gusset-g2', unit: 'µε', quantity: 'strain' },
       { name: 'deck-temp', unit: '°C', quantity: 'temperature' },
     ]);
     expect(meta.has('ARROW:schema')).toBe(true); // the Arrow schema, with each column's unit

@@ -5,7 +5,7 @@
  * (bit for bit) and with each channel's exact map (within the conversion kernel's bound).
  */
 import { readFileSync } from 'node:fs';
-import { createChannel, createInterleavedConverter, type Channel } from '@bridgework/channel';
+import { channelBudget, createChannel, createInterleavedConverter, type Channel } from '@bridgework/channel';
 import { describe, expect, it } from 'vitest';
 import { exitCodes } from '../src/exitCodes.js';
 import { runCli } from '../src/runCli.js';
@@ -86,8 +86,8 @@ describe('bridgework convert on the example file', () => {
       }
     });
     // The sweep's ends come back as the span's ends to within a code (the codes were rounded).
-    expect(rows[0]![1]!).toBeNear(-300, { abs: channels[1]!.budget().resolution.quantityPerCode });
-    expect(rows[299]![2]!).toBeNear(60, { abs: channels[2]!.budget().resolution.quantityPerCode });
+    expect(rows[0]![1]!).toBeNear(-300, { abs: channelBudget(channels[1]!).resolution.quantityPerCode });
+    expect(rows[299]![2]!).toBeNear(60, { abs: channelBudget(channels[2]!).resolution.quantityPerCode });
   });
 
   it('exits 2 with --fail-on-clip, and still writes the file', async () => {

@@ -131,7 +131,10 @@ describe('re-zero from a window and temperature from a channel of the recording'
     expect(stderr).toContain(`zero readings from frames 0 to 99: gusset-g2 ${zeroCode}`);
     for (let b = 0; b < FRAMES / BLOCK; b++) {
       const frames = Array.from({ length: BLOCK }, (_, k) => b * BLOCK + k);
-      const temps = frames.map((f) => deck.quantityFromCode(codes[2 * f + 1] as number));
+      // The block temperature is the mean of the temperature channel's converted values.
+      const temps = frames.map(
+        (f) => deck.convert(Int32Array.of(codes[2 * f + 1] as number)).values[0] as number,
+      );
       let sum = 0;
       for (const t of temps) sum += t;
       const blockTemperature = sum / BLOCK;
@@ -168,6 +171,6 @@ describe('re-zero from a window and temperature from a channel of the recording'
     expect(noRate.stderr.text()).toMatch(/a time window needs the frames' times: give the sample rate/);
     const notTemp = memoryIo();
     expect(await runCli([...base, '--temperature-from', 'gusset-g2'], notTemp)).toBe(exitCodes.badInput);
-    expect(notTemp.stderr.text()).toMatch(/'gusset-g2' measures microstrain, not temperature/);
+    expect(notTemp.stderr.text()).toMatch(/'gusset-g2' measures strain, not temperature/);
   });
 });

@@ -5,7 +5,7 @@
  * with the reports still written, and the output-file rules.
  */
 import { existsSync, readFileSync, writeFileSync } from 'node:fs';
-import { createChannel, type ChannelBudget } from '@bridgework/channel';
+import { channelBudget, createChannel, type ChannelBudget } from '@bridgework/channel';
 import { describe, expect, it } from 'vitest';
 import { SAFETY_CAUTION } from '../src/caution.js';
 import { exitCodes } from '../src/exitCodes.js';
@@ -29,7 +29,7 @@ async function run(...argv: string[]) {
 }
 
 const library: Record<string, ChannelBudget> = Object.fromEntries(
-  footbridgeNames.map((n) => [n, createChannel(footbridgeSpecs[n]).budget()]),
+  footbridgeNames.map((n) => [n, channelBudget(createChannel(footbridgeSpecs[n]))]),
 );
 
 describe('bridgework report on the example file', () => {
@@ -56,7 +56,7 @@ describe('bridgework report on the example file', () => {
     expect(uc('gusset-g2')).toBeNear(library['gusset-g2']!.combined.standardUncertainty, { rel: 5e-3 });
     expect(uc('deck-temp')).toBeNear(library['deck-temp']!.combined.standardUncertainty, { rel: 5e-3 });
     expect(section('hanger-h3')).toMatch(/^hanger-h3: force, shown in kN$/m);
-    expect(section('gusset-g2')).toMatch(/^gusset-g2: microstrain \(µε\)$/m);
+    expect(section('gusset-g2')).toMatch(/^gusset-g2: strain \(µε\)$/m);
     // The converter input at the budget point in mV/V: code × LSB / excitation.
     const h = library['hanger-h3']!;
     const mvv = (h.code * createChannel(footbridgeSpecs['hanger-h3']).adc.lsbVolts * 1e3) / 5;

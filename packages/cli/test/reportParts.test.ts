@@ -3,7 +3,7 @@
  * HTML plots (checked against the textbook quarter-bridge inverse), the headroom checks and the
  * inputs table.
  */
-import { createChannel } from '@bridgework/channel';
+import { channelBudget, createChannel } from '@bridgework/channel';
 import { describe, expect, it } from 'vitest';
 import { loadChannels } from '../src/channels/loadChannels.js';
 import { channelCurves } from '../src/report/channelCurves.js';
@@ -98,7 +98,7 @@ describe('channelCurves', () => {
       if (Math.abs(curves.nonlinearity[i]!) > Math.abs(worst)) worst = curves.nonlinearity[i]!;
     }
     expect(curves.nonlinearity[0]).toBeNear(0, { abs: 1e-18 });
-    const line = channel.budget().lines.find((l) => l.name === 'nonlinearity of a linear map')!;
+    const line = channelBudget(channel).lines.find((l) => l.name === 'nonlinearity of a linear map')!;
     // Both are sampled (201 and 257 points) near a smooth extreme: they agree to 1e-3.
     expect(worst).toBeNear(line.value, { rel: 1e-3 });
   });
@@ -112,10 +112,12 @@ describe('channelCurves', () => {
 describe('designChecks', () => {
   it('lists every headroom margin, and a failed one with the chain package’s message', () => {
     const spec = footbridgeSpecs['hanger-h3'];
-    const failing = createChannel({
-      ...spec,
-      amplifier: { ...spec.amplifier, limits: { ...spec.amplifier!.limits, outputVolts: [3.5, 4.9] } },
-    }).budget();
+    const failing = channelBudget(
+      createChannel({
+        ...spec,
+        amplifier: { ...spec.amplifier, limits: { ...spec.amplifier!.limits, outputVolts: [3.5, 4.9] } },
+      }),
+    );
     const rows = designChecks(failing);
     expect(rows.map((r) => r.limit)).toEqual(failing.frontEnd.value.headroom.margins.map((m) => m.limit));
     const low = rows.find((r) => r.limit === 'output-low')!;
@@ -137,7 +139,7 @@ describe('channelInputs', () => {
       name: 'gaugeOhms',
       value: '350',
       unit: 'Ω',
-      note: '"350 ohm" in the file',
+      note: '"350 Ω" in the file',
     });
     expect(row('sensor', 'gaugeFactor')).toEqual({
       name: 'gaugeFactor',
@@ -154,15 +156,22 @@ describe('channelInputs', () => {
     expect(row('environment', 'rangeCelsius')).toMatchObject({
       value: '[−5, 35]',
       unit: '°C',
-      note: '"[-5 degC, 35 degC]" in the file',
+      note: '"[-5 °C, 35 °C]" in the file',
     });
     expect(row('amplifier', 'inputVoltageNoiseVoltsPerRootHz')).toMatchObject({
       value: '8e−9',
       unit: 'V/√Hz',
     });
-    expect(row('output', 'range')).toMatchObject({ value: '[−10000, 120000]', unit: 'N' });
+    expect(row('output', 'range')).toMatchObject({
+      value: '[−10000, 120000]',
+      unit: 'N',
+      note: '"[-10 kN, 120 kN]" in the file',
+    });
     expect(row('output', 'areaSquareMeters')).toMatchObject({ value: '0.000561', unit: 'm²' });
-    expect(row('tolerances', 'gaugeFactor')).toMatchObject({ value: '0.005', note: '"0.5 %" in the file' });
+    expect(row('sensor', 'gaugeFactorToleranceFraction')).toMatchObject({
+      value: '0.005',
+      note: '"0.5 %" in the file',
+    });
     expect(groups.find((g) => g.title === 'other')!.rows).toEqual([
       { name: 'polarity', value: 'normal', unit: '', note: 'default' },
     ]);

@@ -5,7 +5,7 @@
  * no expanded uncertainty on a standard-uncertainty axis).
  */
 import { readFileSync } from 'node:fs';
-import { createChannel } from '@bridgework/channel';
+import { channelBudget, createChannel } from '@bridgework/channel';
 import { describe, expect, it } from 'vitest';
 import { exitCodes } from '../src/exitCodes.js';
 import { runCli } from '../src/runCli.js';
@@ -31,7 +31,7 @@ const section = (text: string, name: string): string => {
 describe('report wording', () => {
   it('names the two resolution figures by what they are, with their formulas and values (IEEE 1241)', async () => {
     const { stdout } = await run('report', exampleShown);
-    const budget = createChannel(footbridgeSpecs['gusset-g2']).budget();
+    const budget = channelBudget(createChannel(footbridgeSpecs['gusset-g2']));
     const text = section(stdout, 'gusset-g2').replace(/\s+/g, ' ');
     expect(text).not.toMatch(/\beffective bits\b/);
     expect(text).toContain(
@@ -53,7 +53,7 @@ describe('report wording', () => {
     const hanger = section(stdout, 'hanger-h3');
     // Six-wire sensing: the lead desensitization is exactly zero; the library's double arithmetic
     // leaves a residue far below 10⁻¹² of the 130 kN span.
-    const budget = createChannel(footbridgeSpecs['hanger-h3']).budget();
+    const budget = channelBudget(createChannel(footbridgeSpecs['hanger-h3']));
     const lead = budget.lines.find((l) => l.name === 'lead desensitization');
     expect(Math.abs(lead?.value ?? 1)).toBeLessThan(1e-12 * 130e3);
     expect(hanger).toMatch(/lead desensitization\s+< 1\.3e−10\s+—\s+informative/);

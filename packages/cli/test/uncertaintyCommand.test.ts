@@ -7,7 +7,7 @@
  * probability evenly over 2a).
  */
 import { readFileSync } from 'node:fs';
-import { createChannel } from '@bridgework/channel';
+import { channelBudget, createChannel } from '@bridgework/channel';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { exitCodes } from '../src/exitCodes.js';
@@ -60,7 +60,7 @@ describe('batchedMonteCarlo', () => {
   const channel = createChannel(footbridgeSpecs['deck-temp']);
 
   it('with one batch, is exactly the channel package’s own run with that seed', () => {
-    const own = channel.budget({ monteCarlo: { trials: 5000, seed: 9 } }).monteCarlo!;
+    const own = channelBudget(channel, { monteCarlo: { trials: 5000, seed: 9 } }).monteCarlo!;
     const ours = batchedMonteCarlo(channel, { trials: 5000, seed: 9 });
     expect(ours.batches).toEqual([5000]);
     expect(ours.seeds).toEqual([9]);
@@ -77,7 +77,8 @@ describe('batchedMonteCarlo', () => {
     expect(ours.seeds).toEqual([5, 5 + 2 ** 32]);
     const parts = ours.seeds.map(
       (seed) =>
-        channel.budget({ monteCarlo: { trials: 6000, seed, returnValues: true } }).monteCarlo!.values!,
+        channelBudget(channel, { monteCarlo: { trials: 6000, seed, returnValues: true } }).monteCarlo!
+          .values!,
     );
     const all = new Float64Array(12_000);
     all.set(parts[0]!, 0);

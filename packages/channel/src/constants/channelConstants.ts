@@ -23,7 +23,8 @@ import {
   type TotalErrors,
   type VerificationMode,
 } from '@bridgework/firmware';
-import type { Channel } from '../createChannel.js';
+import { channelBudget } from '../budget/channelBudget.js';
+import type { Channel } from '../Channel.js';
 
 /**
  * The relative accuracy the channel states for its binary64 map `quantityFromCode` against
@@ -183,6 +184,9 @@ function inChannelTerms<T>(step: () => T): T {
  * channel's budget at its default point (docs/firmware.md). A target no form meets is an
  * `out-of-range` error naming the best bound reached; no header is made.
  *
+ * A separate function, not a method of the channel, so an application that only converts does not
+ * carry the firmware package and decimal.js.
+ *
  * @param channel - A channel from `createChannel`.
  * @param options - Target, output step, types and the target's limits.
  * @returns The functions, their total errors and the firmware package's channel record.
@@ -216,7 +220,7 @@ export function channelConstants(channel: Channel, options: ConstantsOptions = {
   if (explicitTarget !== undefined) {
     targetError = explicitTarget;
   } else {
-    const uc = channel.budget().combined.standardUncertainty;
+    const uc = channelBudget(channel).combined.standardUncertainty;
     if (!(Number.isFinite(uc) && uc > 0)) {
       throw new BridgeworkError(
         'not-finite',

@@ -1,99 +1,46 @@
 /**
- * Resolves a validated spec into the values the model needs: defaults that depend on other
- * fields (wiring, completion, temperatures, capacity unit), and the lead resistance of a cable.
+ * From a validated spec (every default applied, derived ones too) to what the models need: the
+ * kind module, the kind's context, the nominal parameter vector, and the lead resistance of a
+ * cable (compensation `wireOhms`, IEC 60028 copper).
  */
-import type { LeadWiring } from '@bridgework/core';
-import type { StrainArrangement } from '@bridgework/bridge';
 import { wireOhms } from '@bridgework/compensation';
-import type { ChannelSpec, OutputSpec, TolerancesSpec } from '../spec/ChannelSpec.js';
-import type { ModelParameters } from './model.js';
+import type { KindContext, SensorKind } from '../kinds/SensorKind.js';
+import { KIND_PARAMETERS_START, Parameter } from '../kinds/SensorKind.js';
+import { outputQuantityTable } from '../outputQuantities.js';
+import type { ChannelRules } from '../spec/channelSchema.js';
+import type { CommonSpec } from '../spec/commonSpec.js';
+import type { Dimension } from '../units/unitTable.js';
 
-/** A strain-gauge sensor with every default applied. */
-export interface ResolvedStrainGauge {
-  readonly kind: 'strain-gauge';
-  readonly gaugeFactor: number;
-  readonly gaugeOhms: number;
-  readonly transverseSensitivity: number;
-  readonly gaugeFactorTemperatureCoefficientPerKelvin: number;
-  readonly gaugeFactorReferenceCelsius: number;
-  readonly thermalOutput:
-    | {
-        readonly coefficientsMicrostrain: readonly number[];
-        readonly gaugeFactor: number;
-        readonly rangeCelsius: readonly [number, number];
-      }
-    | undefined;
-}
+/** A validated spec, as the internals read it. */
+export type AnySpec = CommonSpec & {
+  readonly sensor: Readonly<Record<string, unknown>> & { readonly kind: string };
+};
 
-/** A transducer with every default applied. */
-export interface ResolvedTransducer {
-  readonly kind: 'transducer';
-  readonly capacity: number;
-  readonly capacityUnit: 'newton' | 'kilogram-force' | 'kilogram';
-  readonly ratedOutputVoltsPerVolt: number;
-  readonly zeroBalanceVoltsPerVolt: number;
-  readonly inputOhms: number;
-  readonly outputOhms: number;
-  readonly calibrationGravityMetersPerSecondSquared: number;
-  readonly localGravityMetersPerSecondSquared: number;
-  readonly zeroTemperatureCoefficientPerKelvin: number;
-  readonly spanTemperatureCoefficientPerKelvin: number;
-  readonly certificateCelsius: number;
-}
-
-/** An RTD with every default applied. */
-export interface ResolvedRtd {
-  readonly kind: 'rtd';
-  readonly r0Ohms: number;
-  readonly a: number;
-  readonly b: number;
-  readonly c: number;
-  readonly toleranceClass: 'AA' | 'A' | 'B' | 'C' | undefined;
-}
-
-/** Everything the model and the budget need, with defaults resolved. */
+/** Everything the models and the budget need, resolved once. */
 export interface ResolvedChannel {
+  /** The validated spec. */
+  readonly spec: AnySpec;
+  /** The channel's name. */
   readonly name: string;
-  readonly sensor: ResolvedStrainGauge | ResolvedTransducer | ResolvedRtd;
-  /** Arrangement of the bridge (RTD: quarter; transducer: its own full bridge, reported as 'full-bending'). */
-  readonly arrangement: StrainArrangement;
-  readonly poissonRatio: number | undefined;
-  /** Nominal gauge factor: the setting the bridge map uses (strain gauges; 1 otherwise). */
-  readonly nominalGaugeFactor: number;
-  /** Lead wiring, or undefined when no lead resistance is modelled. */
-  readonly wiring: LeadWiring | undefined;
-  /** How the lead resistance was obtained. */
+  /** The sensor kind's module. */
+  readonly kind: SensorKind;
+  /** The kind's context (nominal parameters included). */
+  readonly context: KindContext;
+  /** +1, or −1 for inverted polarity. */
+  readonly sign: 1 | -1;
+  /** The dimension of the output quantity. */
+  readonly dimension: Dimension;
+  /** The unit of the channel's values. */
+  readonly unit: string;
+  /** Where the lead resistance comes from. */
   readonly leadSource: 'none' | 'given' | 'cable';
-  readonly sourceOhms: number;
-  readonly remoteSense: boolean;
-  readonly adc: {
-    readonly bits: number;
-    readonly referenceVolts: number;
-    readonly bipolar: boolean;
-    readonly ratiometric: boolean;
-    readonly dataRateHertz: number;
-    readonly filterOrder: number;
-    readonly noiseRmsVolts: number | undefined;
-  };
-  readonly amplifier: Required<Omit<NonNullable<ChannelSpec['amplifier']>, 'limits'>> & {
-    readonly limits: NonNullable<NonNullable<ChannelSpec['amplifier']>['limits']>;
-  };
-  readonly zeroCode: number | undefined;
-  readonly polarity: 'normal' | 'inverted';
-  readonly zeroTemperatureCelsius: number;
-  readonly cableTemperatureCelsius: number;
-  readonly rangeCelsius: readonly [number, number];
-  readonly tolerances: Required<TolerancesSpec>;
-  readonly output: OutputSpec;
-  /** Conductors and length of the cable, when one was given (for the lead-temperature budget line). */
-  readonly cable: NonNullable<NonNullable<ChannelSpec['bridge']>['cable']> | undefined;
-  /** The nominal parameters of the model. */
-  readonly nominal: ModelParameters;
+  /** Names of the kind's own parameters, in vector order. */
+  readonly kindParameters: readonly string[];
 }
 
 /** Resistance of one lead of a cable at a temperature, Ω (compensation `wireOhms`, IEC 60028 copper). */
 export function cableOhmsPerLead(
-  cable: NonNullable<ResolvedChannel['cable']>,
+  cable: NonNullable<CommonSpec['bridge']['cable']>,
   temperatureCelsius: number,
 ): number {
   return wireOhms({
@@ -101,157 +48,67 @@ export function cableOhmsPerLead(
     ...(cable.diameterMeters === undefined ? {} : { diameterMeters: cable.diameterMeters }),
     lengthMeters: cable.lengthMeters,
     temperatureCelsius,
-    conductors: cable.conductorsPerLead ?? 1,
+    conductors: cable.conductorsPerLead,
   });
 }
 
-/** Default lead wiring for an arrangement (see `BridgeSpec.wiring`). */
-function defaultWiring(
-  kind: string,
-  arrangement: StrainArrangement,
-  remoteSense: boolean | undefined,
-): LeadWiring {
-  if (kind === 'transducer' || arrangement.startsWith('full'))
-    return remoteSense === true ? 'six-wire' : 'four-wire';
-  return arrangement === 'half-opposite' ? 'two-wire' : 'three-wire';
-}
-
-/** Resolves a validated spec (schema defaults already applied). */
-export function resolveChannel(spec: ChannelSpec): ResolvedChannel {
-  const sensorSpec = spec.sensor;
-  const bridge = spec.bridge ?? {};
-  const environment = spec.environment ?? {};
-  const temperatureCelsius = environment.temperatureCelsius ?? 20;
-  const cableTemperatureCelsius = environment.cableTemperatureCelsius ?? temperatureCelsius;
-  const kind = sensorSpec.kind;
-  const arrangement: StrainArrangement =
-    kind === 'strain-gauge' ? (bridge.arrangement ?? 'quarter') : kind === 'rtd' ? 'quarter' : 'full-bending';
-  const wiringGiven = bridge.wiring ?? defaultWiring(kind, arrangement, spec.excitation.remoteSense);
-  const remoteSense = spec.excitation.remoteSense ?? wiringGiven === 'six-wire';
-
-  let ohmsPerLead = bridge.ohmsPerLead ?? 0;
-  let leadSource: ResolvedChannel['leadSource'] = bridge.ohmsPerLead === undefined ? 'none' : 'given';
-  if (bridge.cable !== undefined) {
-    ohmsPerLead = cableOhmsPerLead(bridge.cable, cableTemperatureCelsius);
+/** Resolves a validated spec. */
+export function resolveChannel(spec: AnySpec, rules: ChannelRules): ResolvedChannel {
+  const kind = rules.kinds.get(spec.sensor.kind) as SensorKind;
+  const b = spec.bridge;
+  const env = spec.environment;
+  let ohmsPerLead = b.ohmsPerLead ?? 0;
+  let leadSource: ResolvedChannel['leadSource'] = b.ohmsPerLead === undefined ? 'none' : 'given';
+  if (b.cable !== undefined) {
+    ohmsPerLead = cableOhmsPerLead(b.cable, env.cableTemperatureCelsius);
     leadSource = 'cable';
   }
-
-  let sensor: ResolvedChannel['sensor'];
-  let nominalGaugeFactor = 1;
-  let nominalResistance: number;
-  let ratedOutput = 0;
-  if (sensorSpec.kind === 'strain-gauge') {
-    const t = sensorSpec.thermalOutput;
-    sensor = {
-      kind: 'strain-gauge',
-      gaugeFactor: sensorSpec.gaugeFactor,
-      gaugeOhms: sensorSpec.gaugeOhms ?? 350,
-      transverseSensitivity: sensorSpec.transverseSensitivity ?? 0,
-      gaugeFactorTemperatureCoefficientPerKelvin: sensorSpec.gaugeFactorTemperatureCoefficientPerKelvin ?? 0,
-      gaugeFactorReferenceCelsius: sensorSpec.gaugeFactorReferenceCelsius ?? 24,
-      thermalOutput:
-        t === undefined
-          ? undefined
-          : {
-              coefficientsMicrostrain: t.coefficientsMicrostrain,
-              gaugeFactor: t.gaugeFactor ?? 2,
-              rangeCelsius: t.rangeCelsius,
-            },
-    };
-    nominalGaugeFactor = sensor.gaugeFactor;
-    nominalResistance = sensor.gaugeOhms;
-  } else if (sensorSpec.kind === 'transducer') {
-    sensor = {
-      kind: 'transducer',
-      capacity: sensorSpec.capacity,
-      capacityUnit: sensorSpec.capacityUnit ?? (spec.output.quantity === 'mass' ? 'kilogram' : 'newton'),
-      ratedOutputVoltsPerVolt: sensorSpec.ratedOutputVoltsPerVolt,
-      zeroBalanceVoltsPerVolt: sensorSpec.zeroBalanceVoltsPerVolt ?? 0,
-      inputOhms: sensorSpec.inputOhms ?? 350,
-      outputOhms: sensorSpec.outputOhms ?? 350,
-      calibrationGravityMetersPerSecondSquared:
-        sensorSpec.calibrationGravityMetersPerSecondSquared ?? 9.80665,
-      localGravityMetersPerSecondSquared: sensorSpec.localGravityMetersPerSecondSquared ?? 9.80665,
-      zeroTemperatureCoefficientPerKelvin: sensorSpec.zeroTemperatureCoefficientPerKelvin ?? 0,
-      spanTemperatureCoefficientPerKelvin: sensorSpec.spanTemperatureCoefficientPerKelvin ?? 0,
-      certificateCelsius: sensorSpec.certificateCelsius ?? 23,
-    };
-    nominalResistance = sensor.outputOhms;
-    ratedOutput = sensor.ratedOutputVoltsPerVolt;
-  } else {
-    sensor = {
-      kind: 'rtd',
-      r0Ohms: sensorSpec.r0Ohms ?? 100,
-      a: sensorSpec.a ?? 3.9083e-3,
-      b: sensorSpec.b ?? -5.775e-7,
-      c: sensorSpec.c ?? -4.183e-12,
-      toleranceClass: sensorSpec.toleranceClass,
-    };
-    nominalResistance = sensor.r0Ohms;
-  }
-
-  const adc = spec.adc;
-  const amp = spec.amplifier ?? {};
-  const tol = spec.tolerances ?? {};
-  return {
-    name: spec.name ?? 'channel',
-    sensor,
+  const kindParameters = kind.parameters(spec.sensor as never);
+  const nominal = new Float64Array(KIND_PARAMETERS_START + kindParameters.length);
+  nominal[Parameter.excitationVolts] = spec.excitation.volts;
+  nominal[Parameter.gain] = spec.amplifier.gain;
+  nominal[Parameter.referenceVolts] = spec.adc.referenceVolts;
+  nominal[Parameter.offsetVolts] = 0;
+  nominal[Parameter.completionOhms] = b.completionOhms ?? 0;
+  nominal[Parameter.ohmsPerLead] = ohmsPerLead;
+  nominal[Parameter.temperatureCelsius] = env.temperatureCelsius;
+  kindParameters.forEach((x, i) => (nominal[KIND_PARAMETERS_START + i] = x.nominal));
+  const arrangement = kind.placement === 'own-bridge' ? undefined : (b.arrangement ?? 'quarter');
+  const context: KindContext = {
+    sensor: spec.sensor,
+    spec,
     arrangement,
-    poissonRatio: bridge.poissonRatio,
-    nominalGaugeFactor,
-    wiring: wiringGiven,
-    leadSource,
-    sourceOhms: spec.excitation.sourceOhms ?? 0,
-    remoteSense,
-    adc: {
-      bits: adc.bits,
-      referenceVolts: adc.referenceVolts,
-      bipolar: adc.bipolar ?? true,
-      ratiometric: adc.ratiometric ?? false,
-      dataRateHertz: adc.dataRateHertz ?? 10,
-      filterOrder: Number((adc.filter ?? 'sinc3').slice(4)),
-      noiseRmsVolts: adc.noiseRmsVolts,
-    },
-    amplifier: {
-      gain: amp.gain ?? 1,
-      inputVoltageNoiseVoltsPerRootHz: amp.inputVoltageNoiseVoltsPerRootHz ?? 0,
-      voltageCornerHertz: amp.voltageCornerHertz ?? 0,
-      currentNoiseAmpsPerRootHz: amp.currentNoiseAmpsPerRootHz ?? 0,
-      currentCornerHertz: amp.currentCornerHertz ?? 0,
-      secondStageGain: amp.secondStageGain ?? 1,
-      outputReferenceVolts: amp.outputReferenceVolts ?? 0,
-      excitationLowVolts: amp.excitationLowVolts ?? 0,
-      limits: amp.limits ?? {},
-    },
-    zeroCode: spec.zero?.code,
-    polarity: spec.polarity ?? 'normal',
-    zeroTemperatureCelsius: environment.zeroTemperatureCelsius ?? temperatureCelsius,
-    cableTemperatureCelsius,
-    rangeCelsius: environment.rangeCelsius ?? [temperatureCelsius, temperatureCelsius],
-    tolerances: {
-      gaugeFactor: tol.gaugeFactor ?? 0,
-      ratedOutput: tol.ratedOutput ?? 0,
-      completionOhms: tol.completionOhms ?? 0,
-      ohmsPerLead: tol.ohmsPerLead ?? 0,
-      excitationVolts: tol.excitationVolts ?? 0,
-      gain: tol.gain ?? 0,
-      referenceVolts: tol.referenceVolts ?? 0,
-      offsetVolts: tol.offsetVolts ?? 0,
-      temperatureCelsius: tol.temperatureCelsius ?? 0,
-      coverageProbability: tol.coverageProbability ?? 0.95,
-    },
-    output: spec.output,
-    cable: bridge.cable,
-    nominal: {
-      gaugeFactor: nominalGaugeFactor,
-      completionOhms: bridge.completionOhms ?? nominalResistance,
-      ohmsPerLead,
-      excitationVolts: spec.excitation.volts,
-      gain: amp.gain ?? 1,
-      referenceVolts: adc.referenceVolts,
-      offsetVolts: 0,
-      temperatureCelsius,
-      ratedOutputVoltsPerVolt: ratedOutput,
-    },
+    arms: arrangement === undefined ? [] : (rules.arrangements[arrangement]?.arms ?? []),
+    poissonRatio: b.poissonRatio,
+    wiring: b.wiring,
+    // With a ratiometric converter the reference is the excitation at the instrument terminals
+    // (or at the bridge with remote sense), so the source resistance drops out of the ratio.
+    sourceOhms: spec.adc.ratiometric ? 0 : spec.excitation.sourceOhms,
+    zeroTemperatureCelsius: env.zeroTemperatureCelsius,
+    quantity: spec.output.quantity,
+    nominal,
   };
+  return {
+    spec,
+    name: spec.name,
+    kind,
+    context,
+    sign: spec.polarity === 'inverted' ? -1 : 1,
+    dimension: outputQuantityTable[spec.output.quantity].dimension,
+    unit: spec.output.unit,
+    leadSource,
+    kindParameters: kindParameters.map((x) => x.key),
+  };
+}
+
+/** Copper drift of one lead over the cable's temperature range, Ω (0 without a cable). */
+export function leadDriftOhms(r: ResolvedChannel): number {
+  const cable = r.spec.bridge.cable;
+  if (cable === undefined) return 0;
+  const nominal = r.context.nominal[Parameter.ohmsPerLead] as number;
+  const range = r.spec.environment.rangeCelsius;
+  return Math.max(
+    Math.abs(cableOhmsPerLead(cable, range.min) - nominal),
+    Math.abs(cableOhmsPerLead(cable, range.max) - nominal),
+  );
 }

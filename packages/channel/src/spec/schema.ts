@@ -1,175 +1,341 @@
-import { formatValue, type SpecIssue } from '@bridgework/core';
+/**
+ * A small schema engine for specs written by people: each node validates a value (every problem
+ * as data, in the user's terms and unit), applies its default, describes itself as a JSON Schema
+ * and as rows of the field reference, and carries its TypeScript types, so that the spec's
+ * types are derived from the schema (`InputOf`, `OutputOf`) and cannot drift from it.
+ *
+ * Object nodes read only their own known keys: a key named like an object prototype member
+ * (`constructor`, `__proto__`, `toString`) is an unknown field like any other.
+ */
+import { closestName, formatValue, type ErrorCode, type SpecIssue } from '@bridgework/core';
+import { formatQuantity, readQuantity, unitSymbols } from '../units/quantity.js';
+import { dimensionTable, type Dimension } from '../units/unitTable.js';
+
+/** A quantity written with its unit, such as `'350 Ω'` or `'20 t'` (see docs/channel-file.md). */
+export type QuantityText = `${number}${string}`;
 
 /**
- * Converts a quantity written with a unit (`"350 ohm"`, `"5 V"`) to a number in the SI unit the
- * field expects. Supplied by the caller (the CLI passes a mathjs-based one); without it, strings
- * are rejected. It throws an `Error` whose message says what was wrong.
+ * How a field may be absent: never; freely (`undefined` in the result); with a default; or
+ * `'derived'`: a default that depends on other fields, filled in by the enclosing object's
+ * `finalize` (so the result always has it).
  */
-export type UnitConverter = (text: string, unit: string) => number;
+export type Presence = 'required' | 'optional' | 'default' | 'derived';
 
-/** State threaded through one validation run. */
-interface Context {
-  readonly issues: SpecIssue[];
-  readonly convertUnit: UnitConverter | undefined;
-}
-
-/** A row of the field reference table (docs/channel.md, `--help` of the CLI). */
+/** A row of the field reference (docs/channel-file.md and the CLI's help). */
 export interface FieldRow {
-  /** Dotted path, `[]` for array items, `<kind>` for union members. */
+  /** Dotted path; `[]` marks list items, `<kind>` the fields of one sensor kind. */
   readonly path: string;
-  /** Value type as text (`number`, `'quarter' | 'half-bending'`, ...). */
+  /** The value's type in words (`number (> 0)`, `'quarter' \| 'half-bending'`). */
   readonly type: string;
-  /** SI unit of a quantity, or '' for none. */
+  /** The unit of a plain number, or `''`; the units accepted are listed in docs/channel-file.md. */
   readonly unit: string;
-  /** 'required', the default written as text, or 'optional'. */
+  /** `required`, the default as text, or `optional`. */
   readonly presence: string;
   /** One-line meaning. */
   readonly doc: string;
 }
 
-/** Marker for a value that failed validation (its issue has been recorded). */
+/** Marks a value that failed (its issue is recorded). */
 export const INVALID: unique symbol = Symbol('invalid');
+/** The type of {@link INVALID}. */
+export type Invalid = typeof INVALID;
 
-/** A node of the spec schema: validates, applies defaults, and describes itself. */
-export interface SchemaNode<T> {
-  /** One-line meaning of the field. */
-  readonly doc: string;
-  /** Whether the field may be absent. */
-  readonly optional: boolean;
-  /** The default, when one exists (applied when the field is absent). */
-  readonly defaultText: string | undefined;
-  /** Validates `value` at `path`, recording issues; returns the value or INVALID. */
-  parse(value: unknown, path: string, ctx: Context): T | typeof INVALID;
-  /** Whether an absent value has a default, and which. */
-  fallback(): { readonly has: boolean; readonly value?: T };
-  /** JSON Schema (draft 2020-12) of this node. */
-  jsonSchema(): Record<string, unknown>;
-  /** Rows of the field reference table. */
-  rows(path: string): FieldRow[];
-  /** The value type as text. */
-  typeText(): string;
+/** State of one validation run. */
+export interface ParseContext {
+  /** Every problem found so far. */
+  readonly issues: SpecIssue[];
+  /** Prefix of every reported path (`channels.hanger`), or `''`. */
+  readonly prefix: string;
+  /** Values parsed so far, by path (without the prefix): later fields may depend on earlier ones. */
+  readonly parsed: Map<string, unknown>;
+  /** The units in which the user wrote each quantity, by path (without the prefix). */
+  readonly writtenUnits: Map<string, string>;
 }
 
-function issue(ctx: Context, path: string, message: string): typeof INVALID {
-  ctx.issues.push({ path, message: `\`${path === '' ? 'spec' : path}\` ${message}` });
+/** Records an issue at `path` (without the prefix) and returns {@link INVALID}. */
+export function report(
+  ctx: ParseContext,
+  path: string,
+  code: ErrorCode,
+  message: string,
+  extra: Pick<SpecIssue, 'limit' | 'expected' | 'suggestion'> = {},
+): Invalid {
+  ctx.issues.push({ code, path: joinPath(ctx.prefix, path), message, ...extra });
   return INVALID;
 }
 
-function row(path: string, node: SchemaNode<unknown>, unit = ''): FieldRow {
-  const presence =
-    node.defaultText !== undefined ? node.defaultText : node.optional ? 'optional' : 'required';
-  return { path, type: node.typeText(), unit, presence, doc: node.doc };
+/** `a.b` from `a` and `b` (either may be empty). */
+export function joinPath(a: string, b: string): string {
+  return a === '' ? b : b === '' ? a : `${a}.${b}`;
 }
 
-interface Common<T> {
+/** A node of a schema (see the module comment). `In` is what may be written, `Out` what validation returns. */
+export interface SchemaNode<In, Out, P extends Presence = Presence> {
+  /** Whether the field may be absent. */
+  readonly presence: P;
   /** One-line meaning. */
   readonly doc: string;
-  /** Default applied when absent (makes the field optional). */
+  /** The value of an absent field with a default. */
+  readonly fallback: Out | undefined;
+  /** The default as the field reference shows it (also for defaults that depend on other fields). */
+  readonly defaultText: string | undefined;
+  /** Validates `value` at `path`; returns the value or {@link INVALID} (its issues recorded). */
+  parse(value: unknown, path: string, ctx: ParseContext): Out | Invalid;
+  /** JSON Schema (draft 2020-12) of the field. */
+  jsonSchema(): Record<string, unknown>;
+  /** Rows of the field reference. */
+  rows(path: string): FieldRow[];
+  /** Phantom: the input type. */
+  readonly ['~in']?: In;
+}
+
+/** Any node. */
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+export type AnyNode = SchemaNode<any, any, Presence>;
+/** What may be written for a node. */
+export type InOf<N> = N extends SchemaNode<infer I, unknown, Presence> ? I : never;
+/** What validation returns for a node. */
+export type OutOf<N> = N extends SchemaNode<unknown, infer O, Presence> ? O : never;
+/** The fields of an object node. */
+export type Fields = Readonly<Record<string, AnyNode>>;
+
+type Expand<T> = T extends object ? { [K in keyof T]: T[K] } : T;
+type RequiredIn<F extends Fields> = {
+  [K in keyof F]: F[K]['presence'] extends 'required' ? K : never;
+}[keyof F];
+type OptionalOut<F extends Fields> = {
+  [K in keyof F]: F[K]['presence'] extends 'optional' ? K : never;
+}[keyof F];
+
+/** What may be written for an object with these fields. */
+export type ObjectIn<F extends Fields> = Expand<
+  { readonly [K in RequiredIn<F>]: InOf<F[K]> } & {
+    readonly [K in Exclude<keyof F, RequiredIn<F>>]?: InOf<F[K]>;
+  }
+>;
+/** What validation returns for an object with these fields (defaults applied, so only optional fields may be absent). */
+export type ObjectOut<F extends Fields> = Expand<
+  { readonly [K in Exclude<keyof F, OptionalOut<F>>]: OutOf<F[K]> } & {
+    readonly [K in OptionalOut<F>]?: OutOf<F[K]>;
+  }
+>;
+
+/** Options every field takes. */
+export interface FieldOptions<T> {
+  /** One-line meaning (docs, messages of required fields). */
+  readonly doc: string;
+  /** The default (makes the field optional on input, present on output). */
   readonly default?: T;
-  /** The field may be absent (without a default). */
+  /** The field may be absent without a default (`undefined` on output). */
   readonly optional?: boolean;
+  /** How the reference describes a default that depends on other fields (with `optional` or `derived`). */
+  readonly defaultText?: string;
+  /** The default depends on other fields; the enclosing object's `finalize` fills it in. */
+  readonly derived?: boolean;
 }
 
-function base<T>(
-  c: Common<T>,
-  defaultText: string | undefined,
-): Pick<SchemaNode<T>, 'doc' | 'optional' | 'defaultText' | 'fallback'> {
-  return {
-    doc: c.doc,
-    optional: c.optional === true || c.default !== undefined,
-    defaultText,
-    fallback: () => (c.default !== undefined ? { has: true, value: c.default } : { has: false }),
-  };
+/** The presence that field options declare. */
+export type PresenceOf<O> = O extends { readonly default: unknown }
+  ? 'default'
+  : O extends { readonly derived: true }
+    ? 'derived'
+    : O extends { readonly optional: true }
+      ? 'optional'
+      : 'required';
+
+function presenceOf<T>(o: FieldOptions<T>): Presence {
+  return o.default !== undefined
+    ? 'default'
+    : o.derived === true
+      ? 'derived'
+      : o.optional === true
+        ? 'optional'
+        : 'required';
 }
 
-/** Options of a numeric field. */
-export interface NumberOptions extends Common<number> {
-  /** SI unit ('ohm', 'V', 'm', ..., '1' for dimensionless); enables unit strings via the converter. */
-  readonly unit?: string;
-  /** Lower limit. */
+function presenceText(node: AnyNode): string {
+  return node.defaultText ?? (node.presence === 'required' ? 'required' : 'optional');
+}
+
+function row(path: string, node: AnyNode, type: string, unit = ''): FieldRow {
+  return { path, type, unit, presence: presenceText(node), doc: node.doc };
+}
+
+// ---------------------------------------------------------------------------------------------
+// Numbers and quantities
+
+/** How a number field reads units. */
+export type UnitRule =
+  | { readonly dimension: Dimension }
+  /** Decided while validating, from fields parsed before (the output unit of `output.range`). */
+  | {
+      readonly dynamic: (
+        ctx: ParseContext,
+      ) => { readonly dimension: Dimension; readonly unit: string } | undefined;
+      /** The unit column of the field reference. */
+      readonly describe: string;
+    };
+
+/** Options of a number field. */
+export interface NumberOptions extends FieldOptions<number> {
+  /** The dimension (units accepted as text; plain numbers are in its unit). Default: a plain number. */
+  readonly unit?: UnitRule;
+  /** Lower limit (in the field's unit). */
   readonly min?: number;
   /** Upper limit. */
   readonly max?: number;
-  /** Exclude `min` itself. */
+  /** Exclude `min`. */
   readonly minExclusive?: boolean;
-  /** Exclude `max` itself. */
+  /** Exclude `max`. */
   readonly maxExclusive?: boolean;
   /** Must be an integer. */
   readonly integer?: boolean;
+  /** Limit text when the limits are not constants (shown in the reference only). */
+  readonly limitText?: string;
 }
 
-function describeLimits(o: NumberOptions): string {
+type NumberIn<O> = O extends { readonly unit: UnitRule } ? number | QuantityText : number;
+
+function limitsText(o: NumberOptions, unit: string): string {
   const parts: string[] = [];
-  if (o.min !== undefined) parts.push(`${o.minExclusive === true ? '>' : '>='} ${o.min}`);
-  if (o.max !== undefined) parts.push(`${o.maxExclusive === true ? '<' : '<='} ${o.max}`);
+  const show = (x: number) => formatQuantity(x, x === 0 ? '' : unit, 6);
+  if (o.min !== undefined) parts.push(`${o.minExclusive === true ? '>' : '>='} ${show(o.min)}`);
+  if (o.max !== undefined) parts.push(`${o.maxExclusive === true ? '<' : '<='} ${show(o.max)}`);
   return parts.join(' and ');
 }
 
-/** A finite number, optionally with a unit, limits and integrality. */
-export function numberField(o: NumberOptions): SchemaNode<number> {
-  const node: SchemaNode<number> = {
-    ...base(o, o.default === undefined ? undefined : String(o.default)),
-    parse(value, path, ctx) {
-      let x = value;
-      if (typeof x === 'string' && o.unit !== undefined) {
-        if (ctx.convertUnit === undefined)
-          return issue(ctx, path, `must be a number in ${o.unit}; got ${formatValue(x)}`);
-        try {
-          x = ctx.convertUnit(x, o.unit);
-        } catch (e) {
-          return issue(ctx, path, `must be a quantity in ${o.unit}: ${(e as Error).message}`);
-        }
-      }
-      if (typeof x !== 'number') {
-        return issue(
-          ctx,
-          path,
-          `must be ${o.integer === true ? 'an integer' : 'a number'}${o.unit && o.unit !== '1' ? ` in ${o.unit}` : ''}; got ${formatValue(x)}`,
-        );
-      }
-      if (!Number.isFinite(x)) return issue(ctx, path, `must be a finite number; got ${formatValue(x)}`);
-      if (o.integer === true && !Number.isInteger(x))
-        return issue(ctx, path, `must be an integer; got ${formatValue(x)}`);
-      const low = o.min !== undefined && (o.minExclusive === true ? x <= o.min : x < o.min);
-      const high = o.max !== undefined && (o.maxExclusive === true ? x >= o.max : x > o.max);
-      if (low || high) return issue(ctx, path, `must be ${describeLimits(o)}; got ${formatValue(x)}`);
-      return x;
-    },
+function limitCode(o: NumberOptions, low: boolean): ErrorCode {
+  if (low && o.min === 0 && o.max === undefined) return o.minExclusive === true ? 'not-positive' : 'negative';
+  return 'out-of-range';
+}
+
+function unitOf(
+  rule: UnitRule | undefined,
+  ctx: ParseContext | undefined,
+): { dimension: Dimension; unit: string } | undefined {
+  if (rule === undefined) return { dimension: 'dimensionless', unit: '' };
+  if ('dimension' in rule) return { dimension: rule.dimension, unit: dimensionTable[rule.dimension].si };
+  return ctx === undefined ? undefined : rule.dynamic(ctx);
+}
+
+/** Reads a number (or a quantity with a unit) and checks its limits; shared by number fields and pairs. */
+export function parseNumber(
+  o: NumberOptions,
+  value: unknown,
+  path: string,
+  ctx: ParseContext,
+): number | Invalid {
+  const u = unitOf(o.unit, ctx);
+  if (u === undefined) return INVALID; // the field deciding the unit is invalid and reported
+  if (typeof value === 'string' && o.unit === undefined) {
+    return report(
+      ctx,
+      path,
+      'wrong-type',
+      `must be ${o.integer === true ? 'an integer' : 'a number'}; got ${formatValue(value)}`,
+    );
+  }
+  const r = readQuantity(value, u.dimension, { unit: u.unit, plainUnit: u.unit });
+  if (!r.ok) {
+    return report(ctx, path, r.problem.code, r.problem.message, { expected: r.problem.expected });
+  }
+  const x = r.value;
+  if (typeof value === 'string') ctx.writtenUnits.set(path, r.writtenUnit);
+  const shown = u.unit;
+  if (o.integer === true && !Number.isInteger(x)) {
+    return report(ctx, path, 'not-integer', `must be an integer; got ${formatValue(x)}`, {
+      expected: 'an integer',
+    });
+  }
+  const low = o.min !== undefined && (o.minExclusive === true ? !(x > o.min) : !(x >= o.min));
+  const high = o.max !== undefined && (o.maxExclusive === true ? !(x < o.max) : !(x <= o.max));
+  if (low || high) {
+    const expected = limitsText(o, shown);
+    const limit = low ? o.min! : o.max!;
+    return report(
+      ctx,
+      path,
+      limitCode(o, low),
+      `must be ${expected}; got ${shown === '' ? String(x) : `${String(x)} ${shown}`}`,
+      {
+        expected,
+        limit: formatQuantity(limit, limit === 0 ? '' : shown, 6),
+      },
+    );
+  }
+  return x;
+}
+
+/** A finite number, optionally a quantity with a unit, with limits. */
+export function numberField<const O extends NumberOptions>(
+  o: O,
+): SchemaNode<NumberIn<O>, number, PresenceOf<O>> {
+  const rule = o.unit;
+  const unitText =
+    rule === undefined ? '' : 'dimension' in rule ? dimensionTable[rule.dimension].si : rule.describe;
+  const type = `${o.integer === true ? 'integer' : 'number'}${o.limitText !== undefined ? ` (${o.limitText})` : limitsText(o, unitText) === '' ? '' : ` (${limitsText(o, unitText)})`}`;
+  const node: SchemaNode<NumberIn<O>, number, PresenceOf<O>> = {
+    presence: presenceOf(o) as PresenceOf<O>,
+    doc: o.doc,
+    fallback: o.default,
+    defaultText:
+      o.defaultText ??
+      (o.default === undefined ? undefined : formatQuantity(o.default, o.default === 0 ? '' : unitText, 17)),
+    parse: (value, path, ctx) => parseNumber(o, value, path, ctx),
     jsonSchema() {
-      const n: Record<string, unknown> = {
-        type: o.integer === true ? 'integer' : 'number',
-        description: o.doc,
-      };
+      const n: Record<string, unknown> = { type: o.integer === true ? 'integer' : 'number' };
       if (o.min !== undefined) n[o.minExclusive === true ? 'exclusiveMinimum' : 'minimum'] = o.min;
       if (o.max !== undefined) n[o.maxExclusive === true ? 'exclusiveMaximum' : 'maximum'] = o.max;
-      if (o.default !== undefined) n['default'] = o.default;
-      if (o.unit === undefined) return n;
+      const meta = { description: o.doc, ...(o.default === undefined ? {} : { default: o.default }) };
+      if (rule === undefined) return { ...n, ...meta };
+      const units = 'dimension' in rule ? unitSymbols(rule.dimension).filter((s) => s !== '') : [];
       return {
-        description: o.doc,
-        'x-unit': o.unit,
+        ...meta,
+        'x-unit': unitText,
         anyOf: [
           n,
-          { type: 'string', description: `a quantity with a unit convertible to ${o.unit}, e.g. "350 ohm"` },
+          {
+            type: 'string',
+            pattern: '^\\s*[+\\-−]?(\\d+(\\.\\d*)?|\\.\\d+)([eE][+\\-−]?\\d+)?\\s*\\S*',
+            description:
+              units.length > 0
+                ? `a number and a unit: ${units.join(', ')}`
+                : `a number and a unit (${unitText})`,
+          },
         ],
       };
     },
-    rows: (path) => [row(path, node, o.unit ?? '')],
-    typeText: () =>
-      (o.integer === true ? 'integer' : 'number') + (describeLimits(o) ? ` (${describeLimits(o)})` : ''),
+    rows: (path) => [row(path, node, type, unitText)],
   };
   return node;
 }
 
-/** One of a fixed list of strings. */
-export function choiceField<const T extends string>(values: readonly T[], o: Common<T>): SchemaNode<T> {
-  const node: SchemaNode<T> = {
-    ...base(o, o.default === undefined ? undefined : `'${o.default}'`),
+// ---------------------------------------------------------------------------------------------
+// Choices, booleans, texts
+
+/** One of a list of strings. */
+export function choiceField<const T extends string, const O extends FieldOptions<T>>(
+  values: readonly T[],
+  o: O,
+): SchemaNode<T, T, PresenceOf<O>> {
+  const list = () => values.map((v) => `'${v}'`).join(', ');
+  const node: SchemaNode<T, T, PresenceOf<O>> = {
+    presence: presenceOf(o) as PresenceOf<O>,
+    doc: o.doc,
+    fallback: o.default,
+    defaultText: o.defaultText ?? (o.default === undefined ? undefined : `'${o.default}'`),
     parse(value, path, ctx) {
       if (typeof value === 'string' && (values as readonly string[]).includes(value)) return value as T;
-      return issue(
+      const near = typeof value === 'string' && value.length >= 3 ? closestName(value, values) : undefined;
+      return report(
         ctx,
         path,
-        `must be one of ${values.map((v) => `'${v}'`).join(', ')}; got ${formatValue(value)}`,
+        'invalid-option',
+        `must be one of ${list()}; got ${formatValue(value)}${near === undefined ? '' : `; did you mean '${near}'?`}`,
+        {
+          expected: `one of ${list()}`,
+          ...(near === undefined ? {} : { suggestion: `write '${near}'` }),
+        },
       );
     },
     jsonSchema: () => ({
@@ -177,39 +343,67 @@ export function choiceField<const T extends string>(values: readonly T[], o: Com
       description: o.doc,
       ...(o.default === undefined ? {} : { default: o.default }),
     }),
-    rows: (path) => [row(path, node)],
-    typeText: () => values.map((v) => `'${v}'`).join(' \\| '),
+    rows: (path) => [row(path, node, values.map((v) => `'${v}'`).join(' \\| '))],
   };
   return node;
 }
 
-/** A boolean. */
-export function booleanField(o: Common<boolean>): SchemaNode<boolean> {
-  const node: SchemaNode<boolean> = {
-    ...base(o, o.default === undefined ? undefined : String(o.default)),
-    parse(value, path, ctx) {
-      if (typeof value === 'boolean') return value;
-      return issue(ctx, path, `must be true or false; got ${formatValue(value)}`);
-    },
+/** `true` or `false`. */
+export function booleanField<const O extends FieldOptions<boolean>>(
+  o: O,
+): SchemaNode<boolean, boolean, PresenceOf<O>> {
+  const node: SchemaNode<boolean, boolean, PresenceOf<O>> = {
+    presence: presenceOf(o) as PresenceOf<O>,
+    doc: o.doc,
+    fallback: o.default,
+    defaultText: o.defaultText ?? (o.default === undefined ? undefined : String(o.default)),
+    parse: (value, path, ctx) =>
+      typeof value === 'boolean'
+        ? value
+        : report(ctx, path, 'wrong-type', `must be true or false; got ${formatValue(value)}`, {
+            expected: 'true or false',
+          }),
     jsonSchema: () => ({
       type: 'boolean',
       description: o.doc,
       ...(o.default === undefined ? {} : { default: o.default }),
     }),
-    rows: (path) => [row(path, node)],
-    typeText: () => 'boolean',
+    rows: (path) => [row(path, node, 'boolean')],
   };
   return node;
 }
 
-/** A free text. */
-export function textField(o: Common<string> & { readonly pattern?: RegExp }): SchemaNode<string> {
-  const node: SchemaNode<string> = {
-    ...base(o, o.default === undefined ? undefined : `'${o.default}'`),
+/** A text, optionally matching a pattern. */
+export function textField<
+  const O extends FieldOptions<string> & { readonly pattern?: RegExp; readonly maxLength?: number },
+>(o: O): SchemaNode<string, string, PresenceOf<O>> {
+  const maxLength = o.maxLength ?? 200;
+  const node: SchemaNode<string, string, PresenceOf<O>> = {
+    presence: presenceOf(o) as PresenceOf<O>,
+    doc: o.doc,
+    fallback: o.default,
+    defaultText: o.defaultText ?? (o.default === undefined ? undefined : `'${o.default}'`),
     parse(value, path, ctx) {
-      if (typeof value !== 'string') return issue(ctx, path, `must be a text; got ${formatValue(value)}`);
+      if (typeof value !== 'string')
+        return report(ctx, path, 'wrong-type', `must be a text; got ${formatValue(value)}`, {
+          expected: 'a text',
+        });
+      if (value.length > maxLength) {
+        return report(
+          ctx,
+          path,
+          'out-of-range',
+          `must be at most ${maxLength} characters long; got ${value.length}`,
+          { limit: String(maxLength) },
+        );
+      }
       if (o.pattern !== undefined && !o.pattern.test(value)) {
-        return issue(ctx, path, `must match ${String(o.pattern)}; got ${formatValue(value)}`);
+        return report(
+          ctx,
+          path,
+          'invalid-option',
+          `must match ${String(o.pattern)}; got ${formatValue(value)}`,
+        );
       }
       return value;
     },
@@ -217,29 +411,138 @@ export function textField(o: Common<string> & { readonly pattern?: RegExp }): Sc
       type: 'string',
       description: o.doc,
       ...(o.pattern ? { pattern: o.pattern.source } : {}),
+      ...(o.default === undefined ? {} : { default: o.default }),
     }),
-    rows: (path) => [row(path, node)],
-    typeText: () => 'text',
+    rows: (path) => [row(path, node, 'text')],
   };
   return node;
 }
 
-/** A list of numbers with a unit and a length range (polynomial coefficients, a temperature range). */
-export function numberListField(
-  item: SchemaNode<number>,
-  o: Common<readonly number[]> & { readonly minLength: number; readonly maxLength: number },
-): SchemaNode<readonly number[]> {
-  const node: SchemaNode<readonly number[]> = {
-    ...base(o, o.default === undefined ? undefined : `[${o.default.join(', ')}]`),
+// ---------------------------------------------------------------------------------------------
+// Lists and intervals
+
+/** A closed interval `{ min, max }` (the spec's form of a range). */
+export interface SpecInterval {
+  /** Lower end. */
+  readonly min: number;
+  /** Upper end. */
+  readonly max: number;
+}
+
+/** What may be written for an interval: `[min, max]` or `{ min, max }`. */
+export type IntervalIn<T> = readonly [T, T] | { readonly min: T; readonly max: T };
+
+/** An interval written `[min, max]` or `{ min, max }`, each end a number of the given kind; min < max (or ≤ with `allowEqual`). */
+export function intervalField<
+  const O extends Omit<NumberOptions, 'default'> & { readonly allowEqual?: boolean },
+>(o: O): SchemaNode<IntervalIn<NumberIn<O>>, SpecInterval, PresenceOf<O>> {
+  const rule = o.unit;
+  const unitText =
+    rule === undefined ? '' : 'dimension' in rule ? dimensionTable[rule.dimension].si : rule.describe;
+  const node: SchemaNode<IntervalIn<NumberIn<O>>, SpecInterval, PresenceOf<O>> = {
+    presence: presenceOf(o) as PresenceOf<O>,
+    doc: o.doc,
+    fallback: undefined,
+    defaultText: o.defaultText,
+    parse(value, path, ctx) {
+      let ends: [unknown, unknown] | undefined;
+      let names: [string, string] = ['[0]', '[1]'];
+      if (Array.isArray(value)) {
+        if (value.length === 2) ends = [value[0], value[1]];
+      } else if (typeof value === 'object' && value !== null) {
+        const keys = Object.keys(value);
+        if (keys.length === 2 && keys.includes('min') && keys.includes('max')) {
+          ends = [(value as Record<string, unknown>)['min'], (value as Record<string, unknown>)['max']];
+          names = ['.min', '.max'];
+        }
+      }
+      if (ends === undefined) {
+        return report(
+          ctx,
+          path,
+          'invalid-shape',
+          `must be a range [min, max] (or { min, max }); got ${formatValue(value)}`,
+          {
+            expected: '[min, max]',
+          },
+        );
+      }
+      const a = parseNumber(o, ends[0], `${path}${names[0]}`, ctx);
+      const b = parseNumber(o, ends[1], `${path}${names[1]}`, ctx);
+      if (a === INVALID || b === INVALID) return INVALID;
+      const u = unitOf(rule, ctx)?.unit ?? '';
+      if (o.allowEqual === true ? !(a <= b) : !(a < b)) {
+        return report(
+          ctx,
+          path,
+          'out-of-range',
+          `must have min ${o.allowEqual === true ? '<=' : '<'} max; got [${String(a)}, ${String(b)}]${u === '' ? '' : ` ${u}`}`,
+          {
+            expected: `min ${o.allowEqual === true ? '<=' : '<'} max`,
+            suggestion: 'swap the two ends',
+          },
+        );
+      }
+      return { min: a, max: b };
+    },
+    jsonSchema() {
+      const item = numberField({ ...o, doc: 'an end' } as NumberOptions).jsonSchema();
+      return {
+        description: o.doc,
+        ...(rule === undefined ? {} : { 'x-unit': unitText }),
+        anyOf: [
+          { type: 'array', items: item, minItems: 2, maxItems: 2 },
+          {
+            type: 'object',
+            additionalProperties: false,
+            required: ['min', 'max'],
+            properties: { min: item, max: item },
+          },
+        ],
+      };
+    },
+    rows: (path) => [
+      row(
+        path,
+        node,
+        `[min, max]${limitsText(o, unitText) === '' ? '' : ` (each ${limitsText(o, unitText)})`}`,
+        unitText,
+      ),
+    ],
+  };
+  return node;
+}
+
+/** A list of numbers of bounded length (polynomial coefficients). */
+export function numberListField<
+  const O extends FieldOptions<readonly number[]> & {
+    readonly minLength: number;
+    readonly maxLength: number;
+    readonly item: NumberOptions;
+  },
+>(o: O): SchemaNode<readonly number[], readonly number[], PresenceOf<O>> {
+  const length = o.minLength === o.maxLength ? `${o.minLength}` : `${o.minLength} to ${o.maxLength}`;
+  const node: SchemaNode<readonly number[], readonly number[], PresenceOf<O>> = {
+    presence: presenceOf(o) as PresenceOf<O>,
+    doc: o.doc,
+    fallback: o.default,
+    defaultText: o.defaultText ?? (o.default === undefined ? undefined : `[${o.default.join(', ')}]`),
     parse(value, path, ctx) {
       if (!Array.isArray(value) || value.length < o.minLength || value.length > o.maxLength) {
-        const len = o.minLength === o.maxLength ? `${o.minLength}` : `${o.minLength} to ${o.maxLength}`;
-        return issue(ctx, path, `must be a list of ${len} numbers; got ${formatValue(value)}`);
+        return report(
+          ctx,
+          path,
+          'invalid-shape',
+          `must be a list of ${length} numbers; got ${formatValue(value)}`,
+          {
+            expected: `a list of ${length} numbers`,
+          },
+        );
       }
       const out: number[] = [];
       let ok = true;
       value.forEach((v: unknown, i) => {
-        const x = item.parse(v, `${path}[${i}]`, ctx);
+        const x = parseNumber(o.item, v, `${path}[${i}]`, ctx);
         if (x === INVALID) ok = false;
         else out.push(x);
       });
@@ -248,127 +551,212 @@ export function numberListField(
     jsonSchema: () => ({
       type: 'array',
       description: o.doc,
-      items: item.jsonSchema(),
+      items: numberField(o.item).jsonSchema(),
       minItems: o.minLength,
       maxItems: o.maxLength,
     }),
-    rows: (path) => [row(path, node, item.rows('x')[0]?.unit ?? '')],
-    typeText: () =>
-      `list of ${o.minLength === o.maxLength ? o.minLength : `${o.minLength}–${o.maxLength}`} numbers`,
+    rows: (path) => [row(path, node, `list of ${length} numbers`)],
   };
   return node;
 }
 
-/** Field map of an object node. */
-export type Fields = Readonly<Record<string, SchemaNode<unknown>>>;
+// ---------------------------------------------------------------------------------------------
+// Objects and tagged unions
 
-/** A record with known fields; unknown fields are problems (typo protection). */
-export function objectField<T>(
-  fields: Fields,
-  o: Common<T> & {
-    readonly check?: (value: T, path: string, report: (p: string, m: string) => void) => void;
-  },
-): SchemaNode<T> {
-  const node: SchemaNode<T> = {
-    ...base(o, undefined),
-    fallback: () => {
-      // An absent optional object takes the defaults of its fields when all of them have one.
-      if (o.optional !== true) return { has: false };
-      const value: Record<string, unknown> = {};
-      for (const [k, f] of Object.entries(fields)) {
-        const fb = f.fallback();
-        if (fb.has) value[k] = fb.value;
-        else if (!f.optional) return { has: false };
-      }
-      return { has: true, value: value as T };
-    },
+/** A rule that involves several fields; it reports against the field the user can change. */
+export type CrossCheck<T> = (value: T, path: string, ctx: ParseContext) => void;
+
+/** Options of an object field. */
+export interface ObjectOptions<T> {
+  /** One-line meaning. */
+  readonly doc: string;
+  /**
+   * `'required'`; `'optional'` (absent stays absent); or `'default'`: an absent object takes the
+   * defaults of its fields (each must have one or be optional).
+   */
+  readonly presence?: Presence;
+  /** Fills in the fields whose presence is `'derived'`, once every field is valid (before `check`). */
+  readonly finalize?: (value: T, path: string, ctx: ParseContext) => T;
+  /** Rules across the fields, run when every field is valid. */
+  readonly check?: CrossCheck<T>;
+}
+
+function isPlainRecord(value: unknown): value is Record<string, unknown> {
+  if (typeof value !== 'object' || value === null || Array.isArray(value)) return false;
+  const proto = Object.getPrototypeOf(value) as unknown;
+  return proto === Object.prototype || proto === null;
+}
+
+/** Reads an own field, never an inherited one. */
+export function ownField(record: Record<string, unknown>, key: string): unknown {
+  return Object.hasOwn(record, key) ? record[key] : undefined;
+}
+
+/** A record with known fields; any other key is a problem (typo protection). */
+export function objectField<F extends Fields, const P extends Presence = 'required'>(
+  fields: F,
+  o: ObjectOptions<ObjectOut<F>> & { readonly presence?: P },
+): SchemaNode<ObjectIn<F>, ObjectOut<F>, P> {
+  const known = Object.keys(fields);
+  const presence = (o.presence ?? 'required') as P;
+  let fallback: ObjectOut<F> | undefined;
+  if (presence === 'default') {
+    const value: Record<string, unknown> = {};
+    for (const [k, f] of Object.entries(fields)) {
+      if (f.presence === 'default') value[k] = f.fallback;
+      else if (f.presence === 'required')
+        throw new Error(`schema: field '${k}' of a defaulted object needs a default`);
+    }
+    fallback = value as ObjectOut<F>;
+  }
+  const node: SchemaNode<ObjectIn<F>, ObjectOut<F>, P> = {
+    presence,
+    doc: o.doc,
+    fallback,
+    defaultText: presence === 'default' ? 'defaults of its fields' : undefined,
     parse(value, path, ctx) {
-      if (typeof value !== 'object' || value === null || Array.isArray(value)) {
-        return issue(ctx, path, `must be an object; got ${formatValue(value)}`);
+      if (!isPlainRecord(value)) {
+        return report(
+          ctx,
+          path,
+          'wrong-type',
+          `must be a set of fields (${known.join(', ')}); got ${formatValue(value)}`,
+          {
+            expected: 'a set of fields',
+          },
+        );
       }
-      const input = value as Record<string, unknown>;
-      const out: Record<string, unknown> = {};
       let ok = true;
-      for (const key of Object.keys(input)) {
-        if (!(key in fields)) {
-          issue(ctx, join(path, key), `is not a known field (known: ${Object.keys(fields).join(', ')})`);
+      for (const key of Object.keys(value)) {
+        if (!Object.hasOwn(fields, key)) {
+          const near = closestName(key, known);
+          report(
+            ctx,
+            joinPath(path, key),
+            'unknown-option',
+            near === undefined
+              ? `unknown field; expected one of ${known.join(', ')}`
+              : `unknown field; did you mean '${near}'?`,
+            {
+              expected: `one of ${known.join(', ')}`,
+              ...(near === undefined ? {} : { suggestion: `write '${near}'` }),
+            },
+          );
           ok = false;
         }
       }
-      for (const [key, f] of Object.entries(fields)) {
-        const p = join(path, key);
-        if (input[key] === undefined) {
-          const fb = f.fallback();
-          if (fb.has) out[key] = fb.value;
-          else if (!f.optional) {
-            issue(ctx, p, `is required (${f.doc})`);
+      const out: Record<string, unknown> = {};
+      for (const key of known) {
+        const f = fields[key] as AnyNode;
+        const p = joinPath(path, key);
+        const given = ownField(value, key);
+        if (given === undefined || given === null) {
+          if (given === null && f.presence === 'required') {
+            report(ctx, p, 'missing-option', `is required (${f.doc}); got null`);
+            ok = false;
+          } else if (f.presence === 'default') out[key] = f.fallback;
+          else if (f.presence === 'required') {
+            report(ctx, p, 'missing-option', `is required (${f.doc})`, { expected: f.doc });
             ok = false;
           }
+          if (out[key] !== undefined) ctx.parsed.set(p, out[key]);
           continue;
         }
-        const x = f.parse(input[key], p, ctx);
+        const x = f.parse(given, p, ctx);
         if (x === INVALID) ok = false;
-        else out[key] = x;
+        else {
+          out[key] = x;
+          ctx.parsed.set(p, x);
+        }
       }
       if (!ok) return INVALID;
+      const before = ctx.issues.length;
+      const done =
+        o.finalize === undefined ? (out as ObjectOut<F>) : o.finalize(out as ObjectOut<F>, path, ctx);
+      if (ctx.issues.length > before) return INVALID;
       if (o.check !== undefined) {
-        const before = ctx.issues.length;
-        o.check(out as T, path, (p, m) => issue(ctx, p, m));
+        o.check(done, path, ctx);
         if (ctx.issues.length > before) return INVALID;
       }
-      return out as T;
+      return done;
     },
     jsonSchema() {
-      const required = Object.entries(fields)
-        .filter(([, f]) => !f.optional)
-        .map(([k]) => k);
+      const required = known.filter((k) => (fields[k] as AnyNode).presence === 'required');
       return {
         type: 'object',
         description: o.doc,
         additionalProperties: false,
-        properties: Object.fromEntries(Object.entries(fields).map(([k, f]) => [k, f.jsonSchema()])),
+        properties: Object.fromEntries(known.map((k) => [k, (fields[k] as AnyNode).jsonSchema()])),
         ...(required.length > 0 ? { required } : {}),
       };
     },
     rows: (path) => [
-      ...(path === '' ? [] : [row(path, node)]),
-      ...Object.entries(fields).flatMap(([k, f]) => f.rows(join(path, k))),
+      ...(path === '' ? [] : [row(path, node, 'object')]),
+      ...known.flatMap((k) => (fields[k] as AnyNode).rows(joinPath(path, k))),
     ],
-    typeText: () => 'object',
   };
   return node;
 }
 
-/** A union of object variants told apart by a tag field (`kind`). */
-export function taggedField<T>(
+/** A union of objects told apart by a tag field (`kind`). */
+export function taggedField<const V extends Readonly<Record<string, SchemaNode<object, object, Presence>>>>(
   tag: string,
-  variants: Readonly<Record<string, SchemaNode<unknown>>>,
-  o: Common<T>,
-): SchemaNode<T> {
+  variants: V,
+  o: { readonly doc: string },
+): SchemaNode<
+  { [K in keyof V]: Expand<{ readonly kind: K } & InOf<V[K]>> }[keyof V],
+  { [K in keyof V]: Expand<{ readonly kind: K } & OutOf<V[K]>> }[keyof V],
+  'required'
+> {
   const names = Object.keys(variants);
-  const node: SchemaNode<T> = {
-    ...base(o, undefined),
+  const list = names.map((n) => `'${n}'`).join(', ');
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any
+  const node: SchemaNode<any, any, 'required'> = {
+    presence: 'required',
+    doc: o.doc,
+    fallback: undefined,
+    defaultText: undefined,
     parse(value, path, ctx) {
-      if (typeof value !== 'object' || value === null || Array.isArray(value)) {
-        return issue(ctx, path, `must be an object; got ${formatValue(value)}`);
-      }
-      const kind = (value as Record<string, unknown>)[tag];
-      const variant = typeof kind === 'string' ? variants[kind] : undefined;
-      if (variant === undefined) {
-        return issue(
+      if (!isPlainRecord(value)) {
+        return report(
           ctx,
-          join(path, tag),
-          `must be one of ${names.map((n) => `'${n}'`).join(', ')}; got ${formatValue(kind)}`,
+          path,
+          'wrong-type',
+          `must be a set of fields with \`${tag}\` (one of ${list}); got ${formatValue(value)}`,
         );
       }
-      const { [tag]: _tag, ...rest } = value as Record<string, unknown>;
+      const kind = ownField(value, tag);
+      const variant = typeof kind === 'string' && Object.hasOwn(variants, kind) ? variants[kind] : undefined;
+      if (variant === undefined) {
+        if (kind === undefined)
+          return report(ctx, joinPath(path, tag), 'missing-option', `is required (one of ${list})`, {
+            expected: `one of ${list}`,
+          });
+        const near = typeof kind === 'string' ? closestName(kind, names) : undefined;
+        return report(
+          ctx,
+          joinPath(path, tag),
+          'invalid-option',
+          `must be one of ${list}; got ${formatValue(kind)}${near === undefined ? '' : `; did you mean '${near}'?`}`,
+          {
+            expected: `one of ${list}`,
+            ...(near === undefined ? {} : { suggestion: `write '${near}'` }),
+          },
+        );
+      }
+      ctx.parsed.set(joinPath(path, tag), kind);
+      const rest: Record<string, unknown> = {};
+      for (const key of Object.keys(value)) if (key !== tag) rest[key] = value[key];
       const parsed = variant.parse(rest, path, ctx);
-      return parsed === INVALID ? INVALID : ({ [tag]: kind, ...(parsed as object) } as T);
+      return parsed === INVALID ? INVALID : { [tag]: kind, ...parsed };
     },
     jsonSchema: () => ({
       description: o.doc,
       oneOf: names.map((n) => {
-        const s = variants[n]!.jsonSchema() as { properties?: Record<string, unknown>; required?: string[] };
+        const s = (variants[n] as AnyNode).jsonSchema() as {
+          properties?: Record<string, unknown>;
+          required?: string[];
+        };
         return {
           ...s,
           properties: { [tag]: { const: n }, ...(s.properties ?? {}) },
@@ -378,35 +766,25 @@ export function taggedField<T>(
     }),
     rows: (path) => [
       {
-        path: join(path, tag),
+        path: joinPath(path, tag),
         type: names.map((n) => `'${n}'`).join(' \\| '),
         unit: '',
         presence: 'required',
         doc: o.doc,
       },
-      ...names.flatMap((n) =>
-        variants[n]!.rows(path).map((r) => ({ ...r, path: r.path.replace(path, `${path}<${n}>`) })),
-      ),
+      ...names.flatMap((n) => (variants[n] as AnyNode).rows(`${path}<${n}>`).map((r) => ({ ...r }))),
     ],
-    typeText: () => 'object',
   };
   return node;
 }
 
-function join(path: string, key: string): string {
-  return path === '' ? key : `${path}.${key}`;
-}
-
-/** Validates `value` against `schema`: the value with defaults applied, or every problem found. */
-export function validate<T>(
-  schema: SchemaNode<T>,
+/** Validates a value against a schema: the value with defaults applied, or every problem found. */
+export function runSchema<N extends AnyNode>(
+  schema: N,
   value: unknown,
-  options: { readonly convertUnit?: UnitConverter; readonly path?: string } = {},
-):
-  | { readonly ok: true; readonly value: T; readonly issues: readonly SpecIssue[] }
-  | { readonly ok: false; readonly value: undefined; readonly issues: readonly SpecIssue[] } {
-  const ctx: Context = { issues: [], convertUnit: options.convertUnit };
-  const parsed = schema.parse(value, options.path ?? '', ctx);
-  if (parsed === INVALID || ctx.issues.length > 0) return { ok: false, value: undefined, issues: ctx.issues };
-  return { ok: true, value: parsed, issues: [] };
+  prefix = '',
+): { readonly value: OutOf<N> | undefined; readonly ctx: ParseContext } {
+  const ctx: ParseContext = { issues: [], prefix, parsed: new Map(), writtenUnits: new Map() };
+  const out = schema.parse(value, '', ctx);
+  return { value: out === INVALID || ctx.issues.length > 0 ? undefined : (out as OutOf<N>), ctx };
 }

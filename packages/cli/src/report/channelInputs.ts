@@ -39,6 +39,11 @@ function at(raw: unknown, path: readonly string[]): unknown {
   return x;
 }
 
+/** A range `{ min, max }` of the validated spec, shown as `[min, max]` like the file writes it. */
+function isInterval(v: unknown): boolean {
+  return typeof v === 'object' && v !== null && !Array.isArray(v) && Object.keys(v).join(',') === 'min,max';
+}
+
 function valueText(v: unknown): string {
   // The exact value (shortest round-trip text), with a true minus sign.
   if (typeof v === 'number') return String(v).replace(/-/g, '−');
@@ -60,14 +65,18 @@ function rows(
   sensorKind: string,
   quantityUnit: string,
 ): InputRow[] {
-  if (typeof value === 'object' && value !== null && !Array.isArray(value)) {
+  const interval = isInterval(value);
+  if (typeof value === 'object' && value !== null && !Array.isArray(value) && !interval) {
     return Object.entries(value).flatMap(([k, v]) => rows(v, raw, [...path, k], sensorKind, quantityUnit));
   }
   const dotted = path.join('.');
   const rawValue = at(raw, path);
-  const unit = schemaUnit(dotted, sensorKind);
+  // Fields in the channel's own unit (output.range) have no fixed unit in the schema.
+  const unit = schemaUnit(dotted, sensorKind) === 'output unit' ? '' : schemaUnit(dotted, sensorKind);
   const shown = unitSymbols[unit] ?? unit;
-  const text = valueText(value);
+  const text = interval
+    ? valueText([(value as { min: number }).min, (value as { max: number }).max])
+    : valueText(value);
   const w = written(rawValue, text);
   return [
     {

@@ -1,4 +1,4 @@
-import type { ChannelBudget, ChannelSpec } from '@bridgework/channel';
+import type { Channel, ChannelBudget } from '@bridgework/channel';
 import { formatNumber } from './formatNumber.js';
 
 const sig = (x: number): string =>
@@ -6,23 +6,11 @@ const sig = (x: number): string =>
     .replace(/(\.\d*?)0+$/, '$1')
     .replace(/\.$/, '');
 
-function sensorText(spec: ChannelSpec): string {
-  const s = spec.sensor;
-  const arrangement = spec.bridge?.arrangement ?? 'quarter';
-  switch (s.kind) {
-    case 'strain-gauge':
-      return `${arrangement} bridge of ${sig(s.gaugeOhms ?? 350)} Ω strain gauges, gauge factor ${sig(s.gaugeFactor)}`;
-    case 'transducer':
-      return `bridge transducer, capacity ${sig(s.capacity)} ${s.capacityUnit ?? (spec.output.quantity === 'mass' ? 'kilogram' : 'newton')}, rated output ${sig(s.ratedOutputVoltsPerVolt * 1e3)} mV/V`;
-    case 'rtd':
-      return `platinum RTD, R0 ${sig(s.r0Ohms ?? 100)} Ω${s.toleranceClass === undefined ? '' : ` (IEC 60751 class ${s.toleranceClass})`}, in a quarter bridge`;
-  }
-}
-
-function wiringText(spec: ChannelSpec, budget: ChannelBudget): string {
+function wiringText(spec: Channel['spec'], budget: ChannelBudget): string {
   const leads = budget.lines.find((l) => l.kind === 'leads' && l.inputs['wiring'] !== undefined);
-  const wiring = spec.bridge?.wiring ?? (leads?.inputs['wiring'] as string | undefined);
-  const cable = spec.bridge?.cable;
+  const wiring = spec.bridge.wiring;
+  const cable = spec.bridge.cable;
+  void leads;
   const parts: string[] = [];
   if (wiring !== undefined) parts.push(wiring);
   if (cable !== undefined) {
@@ -38,18 +26,19 @@ function wiringText(spec: ChannelSpec, budget: ChannelBudget): string {
  * A channel's hardware in two short lines of words: sensor and bridge, wiring and cable; then
  * excitation, amplifier and converter (and the zero reading, when there is one).
  *
- * @param spec - The validated spec.
+ * @param channel - The channel (its sensor's description comes from its kind).
  * @param budget - Its budget (for the lead resistance computed from a cable).
  * @returns The two lines, without line ends.
  */
-export function describeChannel(spec: ChannelSpec, budget: ChannelBudget): readonly [string, string] {
+export function describeChannel(channel: Channel, budget: ChannelBudget): readonly [string, string] {
+  const spec = channel.spec;
   const wiring = wiringText(spec, budget);
   const adc = spec.adc;
   const front = [
     `${sig(spec.excitation.volts)} V excitation${spec.excitation.remoteSense === true ? ' with remote sense' : ''}`,
-    `gain ${sig(spec.amplifier?.gain ?? 1)}`,
-    `${adc.bits}-bit ${adc.ratiometric === true ? 'ratiometric ' : ''}converter at ${sig(adc.dataRateHertz ?? 10)} Hz (${adc.filter ?? 'sinc3'})`,
+    `gain ${sig(spec.amplifier.gain)}`,
+    `${adc.bits}-bit ${adc.ratiometric ? 'ratiometric ' : ''}converter at ${sig(adc.filter.dataRateHertz)} Hz (sinc${adc.filter.order})`,
   ];
   if (spec.zero !== undefined) front.push(`zero reading at code ${String(spec.zero.code).replace('-', '−')}`);
-  return [`${sensorText(spec)}${wiring === '' ? '' : `; ${wiring}`}`, front.join(', ')];
+  return [`${channel.description}${wiring === '' ? '' : `; ${wiring}`}`, front.join(', ')];
 }

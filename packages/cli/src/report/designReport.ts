@@ -1,4 +1,4 @@
-import type { ChannelBudget } from '@bridgework/channel';
+import { channelBudget, type ChannelBudget } from '@bridgework/channel';
 import { inChannel, type LoadedChannel, type LoadedChannels } from '../channels/loadChannels.js';
 import type { ProjectInfo } from '../channelFile/loadChannelFile.js';
 import { designChecks, type DesignCheckRow } from './designChecks.js';
@@ -43,14 +43,14 @@ export interface DesignReport {
  */
 export function designReport(loaded: LoadedChannels): DesignReport {
   const channels = loaded.channels.map((c): ChannelDesign => {
-    const budget = inChannel(loaded, c, () => c.channel.budget());
+    const budget = inChannel(loaded, c, () => channelBudget(c.channel));
     return {
       loaded: c,
       budget,
       display: displayUnit(c.channel),
-      description: describeChannel(c.spec, budget),
+      description: describeChannel(c.channel, budget),
       checks: designChecks(budget),
-      inputRatioAtPoint: (budget.code * c.channel.adc.lsbVolts) / c.spec.excitation.volts,
+      inputRatioAtPoint: c.channel.inputAt(budget.at).inputRatio,
     };
   });
   return {

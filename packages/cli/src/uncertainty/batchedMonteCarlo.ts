@@ -1,4 +1,4 @@
-import type { Channel, ChannelBudget } from '@bridgework/channel';
+import { channelBudget, type Channel, type ChannelBudget } from '@bridgework/channel';
 import { BridgeworkError, checkInteger, type Interval } from '@bridgework/core';
 import { sampleCoverageIntervals, validateGum, type GumValidation } from '@bridgework/uncertainty';
 
@@ -62,7 +62,7 @@ export function batchSizes(trials: number): number[] {
  *
  * @remarks
  * Batch i is the channel package's own Monte Carlo run of the budget model
- * (`channel.budget({ monteCarlo: { trials, seed: seed + i·2³², returnValues: true } })`: the
+ * (`channelBudget(channel, { monteCarlo: { trials, seed: seed + i·2³², returnValues: true } })`: the
  * exact channel map rebuilt with every uncertain input drawn from its distribution). The values
  * of all batches are pooled: the estimate is their mean and u(y) their standard deviation with
  * M − 1 degrees of freedom (JCGM 101 7.6; two passes, the first about the first value); both coverage intervals come from the uncertainty package's
@@ -89,7 +89,9 @@ export function batchedMonteCarlo(
   let done = 0;
   let budget: ChannelBudget | undefined;
   batches.forEach((n, i) => {
-    const b = channel.budget({ monteCarlo: { trials: n, seed: seeds[i] as number, returnValues: true } });
+    const b = channelBudget(channel, {
+      monteCarlo: { trials: n, seed: seeds[i] as number, returnValues: true },
+    });
     const v = b.monteCarlo?.values;
     if (v === undefined || v.length !== n) {
       throw new Error(`the channel's Monte Carlo returned ${v?.length ?? 'no'} values for ${n} trials`);

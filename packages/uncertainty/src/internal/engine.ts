@@ -129,7 +129,6 @@ export function createBlockRunner(plan: EnginePlan, model: ResolvedModel): Block
     model.kind === 'positional'
       ? Array.from({ length: CHUNK_TRIALS }, (_, t) => rows.subarray(t * n, t * n + n))
       : [];
-  let current = 0; // the trial of the chunk being evaluated
 
   const members = group?.members ?? [];
   const g = members.length;
@@ -172,12 +171,14 @@ export function createBlockRunner(plan: EnginePlan, model: ResolvedModel): Block
     }
   }
 
-  /** Model values of trials [0, length) of the chunk into out[base…); `current` is the trial. */
+  // Both loops keep the trial in `cursor.row` (= t·n), an object property: a closure variable
+  // written per trial stops V8 from inlining the model and its getters (measured: 1.5× slower).
+
+  /** Model values of trials [0, length) of the chunk into out[base…); `cursor.row` is t·n. */
   function evaluateRecord(length: number, out: Float64Array, base: number): void {
     const evaluate = (model as { evaluate: (x: Readonly<Record<string, number>>) => unknown }).evaluate;
     const x = record as Readonly<Record<string, number>>;
     for (let t = 0; t < length; t++) {
-      current = t;
       cursor.row = t * n;
       const y = evaluate(x);
       if (typeof y !== 'number' || !(Math.abs(y) <= MODEL_VALUE_LIMIT)) throw notFinite(y);
@@ -188,7 +189,7 @@ export function createBlockRunner(plan: EnginePlan, model: ResolvedModel): Block
   function evaluatePositional(length: number, out: Float64Array, base: number): void {
     const evaluate = (model as { evaluate: (x: Float64Array) => unknown }).evaluate;
     for (let t = 0; t < length; t++) {
-      current = t;
+      cursor.row = t * n;
       const y = evaluate(views[t] as Float64Array);
       if (typeof y !== 'number' || !(Math.abs(y) <= MODEL_VALUE_LIMIT)) throw notFinite(y);
       out[base + t] = y;
@@ -206,7 +207,7 @@ export function createBlockRunner(plan: EnginePlan, model: ResolvedModel): Block
         try {
           evaluateChunk(length, out, offset + done);
         } catch (error) {
-          const t = current;
+          const t = cursor.row / n;
           failedTrial = block * BLOCK_TRIALS + done + t;
           // A drawn input past binary64 (a distribution reaching beyond ±1.8e308) is not the model's fault.
           const overflowed = names.findIndex((_, j) => !Number.isFinite((slots[j] as Float64Array)[t * n]));

@@ -1,0 +1,174 @@
+/**
+ * A platinum RTD (IEC 60751 Callendar–Van Dusen, compensation `createRtd`) in arm 1 of a quarter
+ * bridge. The element's relative change (R − R0)/R0 enters arm 1 exactly as a gauge's GF·ε does,
+ * so the bridge package's quarter bridge with gauge factor 1 and "gauge" resistance R0 solves it.
+ */
+import { createStrainBridge } from '@bridgework/bridge';
+import {
+  IEC_60751_COEFFICIENTS,
+  createRtd,
+  rtdToleranceCelsius,
+  RTD_TOLERANCE_CLASSES,
+} from '@bridgework/compensation';
+import { armLayout, strainFromRatioArms } from '../internal/bridgeArms.js';
+import { choiceField, numberField, type ObjectOut } from '../spec/schema.js';
+import { formatSignificant } from '../units/quantity.js';
+import { KIND_PARAMETERS_START, Parameter, type KindContext, type SensorKind } from './SensorKind.js';
+
+const fields = {
+  r0Ohms: numberField({
+    doc: 'Resistance at 0 °C',
+    unit: { dimension: 'resistance' },
+    min: 0,
+    minExclusive: true,
+    default: 100,
+  }),
+  a: numberField({ doc: 'Callendar–Van Dusen A, 1/°C', default: IEC_60751_COEFFICIENTS.a }),
+  b: numberField({ doc: 'Callendar–Van Dusen B, 1/°C²', default: IEC_60751_COEFFICIENTS.b }),
+  c: numberField({ doc: 'Callendar–Van Dusen C (below 0 °C), 1/°C⁴', default: IEC_60751_COEFFICIENTS.c }),
+  toleranceClass: choiceField(['AA', 'A', 'B', 'C'] as const, {
+    doc: 'IEC 60751 tolerance class, for the budget',
+    optional: true,
+  }),
+  element: choiceField(['wire-wound', 'film'] as const, {
+    doc: 'Element construction (sets the class’s validity range)',
+    default: 'wire-wound',
+  }),
+};
+
+type RtdSpec = ObjectOut<typeof fields>;
+const CLASS_DEVIATION = KIND_PARAMETERS_START;
+
+function curve(s: RtdSpec) {
+  return createRtd({ r0Ohms: s.r0Ohms, a: s.a, b: s.b, c: s.c });
+}
+
+/** The RTD kind. */
+export const rtdKind: SensorKind<typeof fields, 'rtd'> = {
+  name: 'rtd',
+  doc: 'A platinum RTD (IEC 60751) in arm 1 of a quarter bridge',
+  fields,
+  quantities: ['temperature'],
+  placement: 'arm-1',
+  temperatureLine: undefined,
+  // The class tolerance: the element's deviation from the standard curve, added to the temperature (nominal 0).
+  parameters: () => [{ key: 'classDeviationCelsius', nominal: 0 }],
+  nominalOhms: (s) => s.r0Ohms,
+  check(s, spec, report) {
+    if (spec.zero !== undefined)
+      report('zero', 'must be absent for an RTD (its temperature is absolute; there is no zero reading)');
+    if (
+      s.toleranceClass !== undefined &&
+      spec.output.range !== undefined &&
+      spec.output.quantity === 'temperature' &&
+      spec.output.unit === '°C'
+    ) {
+      const c = RTD_TOLERANCE_CLASSES[s.toleranceClass];
+      const [lo, hi] = s.element === 'film' ? c.filmRangeCelsius : c.wireWoundRangeCelsius;
+      const r = spec.output.range;
+      if (r.min < lo || r.max > hi) {
+        report(
+          'output.range',
+          `must lie inside [${lo}, ${hi}] °C, where IEC 60751 class ${s.toleranceClass} (${s.element}) holds; got [${r.min}, ${r.max}] °C`,
+          {
+            suggestion:
+              'narrow output.range, or remove sensor.toleranceClass and state the sensor’s tolerance otherwise',
+          },
+        );
+      }
+    }
+  },
+  describe: (s) =>
+    `platinum RTD, R0 ${formatSignificant(s.r0Ohms)} Ω${s.toleranceClass === undefined ? '' : ` (IEC 60751 class ${s.toleranceClass})`}, in a quarter bridge`,
+  defaultSpan(ctx) {
+    const s = ctx.sensor;
+    if (s.toleranceClass !== undefined) {
+      const c = RTD_TOLERANCE_CLASSES[s.toleranceClass];
+      const [min, max] = s.element === 'film' ? c.filmRangeCelsius : c.wireWoundRangeCelsius;
+      return { min, max };
+    }
+    const [min, max] = curve(s).rangeCelsius;
+    return { min, max };
+  },
+  exactMap(ctx, p) {
+    const s = ctx.sensor;
+    const rtd = curve(s);
+    const bridge = createStrainBridge({
+      arrangement: 'quarter',
+      gaugeFactor: 1,
+      gaugeOhms: s.r0Ohms,
+      completionOhms: p[Parameter.completionOhms] as number,
+      sourceOhms: ctx.sourceOhms,
+      leads: { ohmsPerLead: p[Parameter.ohmsPerLead] as number, wiring: ctx.wiring },
+    });
+    const deviation = p[CLASS_DEVIATION] as number;
+    const ohmsFromRatio = (ratio: number) => s.r0Ohms * (1 + bridge.strainFromRatio(ratio));
+    return {
+      quantityFromRatio: (ratio) => rtd.temperatureAt(ohmsFromRatio(ratio)) + deviation,
+      ratioFromQuantity: (t) => bridge.ratioFromStrain(rtd.ohmsAt(t - deviation) / s.r0Ohms - 1),
+      // The sensor's range is the curve's (−200…850 °C for IEC 60751), inside the bridge's.
+      ratioRange: {
+        min: bridge.ratioFromStrain(rtd.rangeOhms[0] / s.r0Ohms - 1),
+        max: bridge.ratioFromStrain(rtd.rangeOhms[1] / s.r0Ohms - 1),
+      },
+      linearFractional: false,
+      frontEndSpan(ratioMin, ratioMax) {
+        const ends = [bridge.strainFromRatio(ratioMin), bridge.strainFromRatio(ratioMax)].sort(
+          (a, b) => a - b,
+        ) as [number, number];
+        return { bridge, strainRange: { min: ends[0], max: ends[1] } };
+      },
+      ...(deviation === 0
+        ? {
+            resistance: {
+              fromRatio: ohmsFromRatio,
+              curve: { model: 'callendar-van-dusen' as const, r0Ohms: s.r0Ohms, a: s.a, b: s.b, c: s.c },
+            },
+          }
+        : {}),
+    };
+  },
+  fastMap(ctx: KindContext<RtdSpec>) {
+    const s = ctx.sensor;
+    const rtd = curve(s);
+    const layout = armLayout([[1, 0], null, null, null], undefined, ctx.wiring);
+    const rs = ctx.sourceOhms;
+    return {
+      quantity(ratio, _zero, p) {
+        const e = strainFromRatioArms(
+          layout,
+          s.r0Ohms,
+          1,
+          p[Parameter.completionOhms] as number,
+          p[Parameter.ohmsPerLead] as number,
+          rs,
+          ratio,
+        );
+        return rtd.temperatureAt(s.r0Ohms * (1 + e)) + (p[CLASS_DEVIATION] as number);
+      },
+    };
+  },
+  budgetInputs(ctx, at) {
+    const s = ctx.sensor;
+    if (s.toleranceClass === undefined || ctx.quantity !== 'temperature') return [];
+    const halfWidth = rtdToleranceCelsius({
+      toleranceClass: s.toleranceClass,
+      temperatureCelsius: at,
+      element: s.element,
+    });
+    return [
+      {
+        name: 'RTD class tolerance',
+        index: CLASS_DEVIATION,
+        halfWidth,
+        kind: 'tolerance',
+        model: `IEC 60751 class ${s.toleranceClass} (${s.element}) limits ±(${RTD_TOLERANCE_CLASSES[s.toleranceClass].fixedCelsius} + ${RTD_TOLERANCE_CLASSES[s.toleranceClass].proportional}·|t|) °C at ${formatSignificant(at)} °C, rectangular`,
+      },
+    ];
+  },
+  plausibleRanges: (s) => [
+    { path: 'sensor.r0Ohms', value: s.r0Ohms, range: { min: 10, max: 10_000 }, unit: 'Ω' },
+  ],
+};
+
+export type { RtdSpec };

@@ -1,0 +1,331 @@
+/**
+ * An NTC thermistor (compensation `createBetaThermistor` or `createSteinhartHartThermistor`) in
+ * arm 1 of a quarter bridge, solved like an RTD (a quarter bridge with gauge factor 1 and "gauge"
+ * resistance R0). With a dissipation constant the map corrects the element's self-heating: the
+ * element sits at T = T_ambient + P/δ, P the power in it (bridge package `solveBridge`), and the
+ * channel reads the ambient temperature.
+ */
+import { ZERO_CELSIUS_KELVIN } from '@bridgework/core';
+import { createStrainBridge, solveBridge } from '@bridgework/bridge';
+import {
+  createBetaThermistor,
+  createSteinhartHartThermistor,
+  type Thermistor,
+} from '@bridgework/compensation';
+import { arm1Watts, armLayout, strainFromRatioArms } from '../internal/bridgeArms.js';
+import { intervalField, numberField, objectField, type ObjectOut } from '../spec/schema.js';
+import { formatSignificant } from '../units/quantity.js';
+import { KIND_PARAMETERS_START, Parameter, type KindContext, type SensorKind } from './SensorKind.js';
+
+const fraction = { dimension: 'fraction' } as const;
+const relative = (doc: string) =>
+  numberField({ doc, unit: fraction, min: 0, max: 1, maxExclusive: true, default: 0 });
+
+const fields = {
+  referenceOhms: numberField({
+    doc: 'Resistance R0 at the reference temperature (a data sheet’s R25)',
+    unit: { dimension: 'resistance' },
+    min: 0,
+    minExclusive: true,
+  }),
+  referenceCelsius: numberField({
+    doc: 'Reference temperature t0',
+    unit: { dimension: 'temperature' },
+    default: 25,
+  }),
+  betaKelvin: numberField({
+    doc: 'Beta constant B (e.g. B25/85): R = R0·exp(B·(1/T − 1/T0)); give this or steinhartHart',
+    unit: { dimension: 'temperature-difference' },
+    min: 0,
+    minExclusive: true,
+    optional: true,
+  }),
+  steinhartHart: objectField(
+    {
+      a: numberField({ doc: 'a, 1/K' }),
+      b: numberField({ doc: 'b, 1/K (> 0 for an NTC)', min: 0, minExclusive: true }),
+      c: numberField({ doc: 'c, 1/K' }),
+    },
+    {
+      doc: 'Steinhart–Hart coefficients: 1/T = a + b·ln R + c·(ln R)³; give this or betaKelvin',
+      presence: 'optional',
+    },
+  ),
+  rangeCelsius: intervalField({
+    doc: 'Temperatures over which the model holds and the channel converts',
+    unit: { dimension: 'temperature' },
+    derived: true,
+    defaultText: '[-55, 150] (a common NTC rating)',
+  }),
+  referenceOhmsToleranceFraction: relative(
+    'Resistance tolerance at t0, relative (the element reads as R·(1 + δ)), for the budget',
+  ),
+  betaToleranceFraction: relative('Beta tolerance, relative, for the budget (beta model)'),
+  dissipationConstantWattsPerKelvin: numberField({
+    doc: 'Dissipation constant δ (power per kelvin of self-heating, in the medium); the map corrects self-heating when given',
+    unit: { dimension: 'thermal-conductance' },
+    min: 0,
+    minExclusive: true,
+    optional: true,
+  }),
+  dissipationToleranceFraction: relative('Dissipation constant tolerance, relative, for the budget'),
+};
+
+type ThermistorSpec = ObjectOut<typeof fields>;
+
+const RESISTANCE_DEVIATION = KIND_PARAMETERS_START;
+const BETA = KIND_PARAMETERS_START + 1;
+const DISSIPATION = KIND_PARAMETERS_START + 2;
+
+/** The default temperature range of the model (a common NTC rating; common practice). */
+const DEFAULT_RANGE = { min: -55, max: 150 } as const;
+
+function model(s: ThermistorSpec, beta: number): Thermistor {
+  const rangeCelsius: [number, number] = [s.rangeCelsius.min, s.rangeCelsius.max];
+  return s.steinhartHart !== undefined
+    ? createSteinhartHartThermistor({ ...s.steinhartHart, rangeCelsius })
+    : createBetaThermistor({
+        referenceOhms: s.referenceOhms,
+        referenceCelsius: s.referenceCelsius,
+        betaKelvin: beta,
+        rangeCelsius,
+      });
+}
+
+/** The thermistor kind. */
+export const thermistorKind: SensorKind<typeof fields, 'thermistor'> = {
+  name: 'thermistor',
+  doc: 'An NTC thermistor (beta or Steinhart–Hart) in arm 1 of a quarter bridge',
+  fields,
+  quantities: ['temperature'],
+  placement: 'arm-1',
+  temperatureLine: undefined,
+  parameters: (s) => [
+    { key: 'resistanceDeviationFraction', nominal: 0 },
+    { key: 'betaKelvin', nominal: s.betaKelvin ?? 0 },
+    { key: 'dissipationConstantWattsPerKelvin', nominal: s.dissipationConstantWattsPerKelvin ?? 0 },
+  ],
+  nominalOhms: (s) => s.referenceOhms,
+  finalize: (s) => (s.rangeCelsius === undefined ? { ...s, rangeCelsius: DEFAULT_RANGE } : s),
+  check(s, spec, report) {
+    if ((s.betaKelvin === undefined) === (s.steinhartHart === undefined)) {
+      report(
+        'sensor.betaKelvin',
+        'give exactly one of sensor.betaKelvin and sensor.steinhartHart (the thermistor’s model)',
+      );
+    }
+    if (s.betaToleranceFraction > 0 && s.betaKelvin === undefined) {
+      report('sensor.betaToleranceFraction', 'applies to the beta model only (sensor.betaKelvin)');
+    }
+    if (s.dissipationToleranceFraction > 0 && s.dissipationConstantWattsPerKelvin === undefined) {
+      report('sensor.dissipationToleranceFraction', 'needs sensor.dissipationConstantWattsPerKelvin');
+    }
+    if (!(s.rangeCelsius.min > -ZERO_CELSIUS_KELVIN))
+      report('sensor.rangeCelsius', 'must lie above absolute zero');
+    if (spec.zero !== undefined)
+      report(
+        'zero',
+        'must be absent for a thermistor (its temperature is absolute; there is no zero reading)',
+      );
+  },
+  describe: (s) =>
+    `NTC thermistor, R0 ${formatSignificant(s.referenceOhms)} Ω at ${formatSignificant(s.referenceCelsius)} °C, ${s.betaKelvin === undefined ? 'Steinhart–Hart' : `B ${formatSignificant(s.betaKelvin)} K`}, in a quarter bridge`,
+  defaultSpan: (ctx) => ({ min: ctx.sensor.rangeCelsius.min, max: ctx.sensor.rangeCelsius.max }),
+  exactMap(ctx, p) {
+    const s = ctx.sensor;
+    const ntc = model(s, p[BETA] as number);
+    const bridge = createStrainBridge({
+      arrangement: 'quarter',
+      gaugeFactor: 1,
+      gaugeOhms: s.referenceOhms,
+      completionOhms: p[Parameter.completionOhms] as number,
+      sourceOhms: ctx.sourceOhms,
+      leads: { ohmsPerLead: p[Parameter.ohmsPerLead] as number, wiring: ctx.wiring },
+    });
+    const deviation = 1 + (p[RESISTANCE_DEVIATION] as number);
+    const dissipation = p[DISSIPATION] as number;
+    const excitationVolts = p[Parameter.excitationVolts] as number;
+    // Power in the element (not its leads): solveBridge with the arms at this strain, the whole source resistance in series.
+    const watts = (strain: number): number => {
+      const arms = bridge.armsOhms(strain);
+      const sol = solveBridge({
+        armsOhms: arms,
+        excitationVolts,
+        sourceOhms: ctx.spec.excitation.sourceOhms,
+      });
+      const element = s.referenceOhms * (1 + strain);
+      return (sol.armAmps[0] as number) ** 2 * element;
+    };
+    const selfHeating = (strain: number) => (dissipation > 0 ? watts(strain) / dissipation : 0);
+    const ohmsFromRatio = (ratio: number) => s.referenceOhms * (1 + bridge.strainFromRatio(ratio));
+    const [rLow, rHigh] = [
+      ntc.ohmsAt(s.rangeCelsius.max) * deviation,
+      ntc.ohmsAt(s.rangeCelsius.min) * deviation,
+    ];
+    const ends = [
+      bridge.ratioFromStrain(rLow / s.referenceOhms - 1),
+      bridge.ratioFromStrain(rHigh / s.referenceOhms - 1),
+    ];
+    return {
+      quantityFromRatio(ratio) {
+        const strain = bridge.strainFromRatio(ratio);
+        return ntc.temperatureAt((s.referenceOhms * (1 + strain)) / deviation) - selfHeating(strain);
+      },
+      ratioFromQuantity(ambient) {
+        // The element's temperature T solves T = ambient + P(T)/δ: a contraction (P/δ changes by
+        // far less than a kelvin per kelvin), iterated to a fixed point.
+        let t = ambient;
+        for (let i = 0; i < 100; i++) {
+          const strain = (ntc.ohmsAt(t) * deviation) / s.referenceOhms - 1;
+          const next = ambient + selfHeating(strain);
+          if (Math.abs(next - t) <= 1e-13 * Math.max(1, Math.abs(t))) {
+            t = next;
+            break;
+          }
+          t = next;
+        }
+        return bridge.ratioFromStrain((ntc.ohmsAt(t) * deviation) / s.referenceOhms - 1);
+      },
+      ratioRange: { min: Math.min(...ends), max: Math.max(...ends) },
+      linearFractional: false,
+      frontEndSpan(ratioMin, ratioMax) {
+        const e = [bridge.strainFromRatio(ratioMin), bridge.strainFromRatio(ratioMax)].sort(
+          (a, b) => a - b,
+        ) as [number, number];
+        return { bridge, strainRange: { min: e[0], max: e[1] } };
+      },
+      ...(dissipation === 0 && deviation === 1
+        ? {
+            resistance: {
+              fromRatio: ohmsFromRatio,
+              curve:
+                s.steinhartHart !== undefined
+                  ? { model: 'steinhart-hart' as const, ...s.steinhartHart }
+                  : {
+                      model: 'beta' as const,
+                      referenceOhms: s.referenceOhms,
+                      referenceCelsius: s.referenceCelsius,
+                      betaKelvin: p[BETA] as number,
+                    },
+            },
+          }
+        : {}),
+    };
+  },
+  fastMap(ctx: KindContext<ThermistorSpec>) {
+    const s = ctx.sensor;
+    const layout = armLayout([[1, 0], null, null, null], undefined, ctx.wiring);
+    const powerLayout = { ...layout, sourceCounts: true };
+    const rs = ctx.sourceOhms;
+    const rsPower = ctx.spec.excitation.sourceOhms;
+    const r0 = s.referenceOhms;
+    const sh = s.steinhartHart === undefined ? undefined : model(s, 0);
+    const t0 = s.referenceCelsius;
+    const k0 = t0 + ZERO_CELSIUS_KELVIN;
+    const lo = s.rangeCelsius.min;
+    const hi = s.rangeCelsius.max;
+    return {
+      quantity(ratio, _zero, p) {
+        const completion = p[Parameter.completionOhms] as number;
+        const lead = p[Parameter.ohmsPerLead] as number;
+        const e = strainFromRatioArms(layout, r0, 1, completion, lead, rs, ratio);
+        const ohms = (r0 * (1 + e)) / (1 + (p[RESISTANCE_DEVIATION] as number));
+        let t: number;
+        if (sh !== undefined) t = sh.temperatureAt(ohms);
+        else {
+          // The beta model's inverse (compensation createBetaThermistor): t = t0 − T0²·L/(B + T0·L), L = ln(R/R0).
+          const l = Math.log(ohms / r0);
+          t = t0 - (k0 * k0 * l) / ((p[BETA] as number) + k0 * l);
+          if (!(t >= lo && t <= hi)) return Number.NaN;
+        }
+        const d = p[DISSIPATION] as number;
+        return d > 0
+          ? t -
+              arm1Watts(
+                powerLayout,
+                r0,
+                1,
+                completion,
+                lead,
+                rsPower,
+                p[Parameter.excitationVolts] as number,
+                e,
+              ) /
+                d
+          : t;
+      },
+    };
+  },
+  budgetInputs(ctx) {
+    const s = ctx.sensor;
+    const inputs = [];
+    if (s.referenceOhmsToleranceFraction > 0) {
+      inputs.push({
+        name: 'thermistor resistance',
+        index: RESISTANCE_DEVIATION,
+        halfWidth: s.referenceOhmsToleranceFraction,
+        kind: 'tolerance' as const,
+        model: `the element reads as R·(1 + δ) with δ within ±${formatSignificant(s.referenceOhmsToleranceFraction * 100)} % (rectangular)`,
+      });
+    }
+    if (s.betaToleranceFraction > 0 && s.betaKelvin !== undefined) {
+      inputs.push({
+        name: 'thermistor beta',
+        index: BETA,
+        halfWidth: s.betaToleranceFraction * s.betaKelvin,
+        kind: 'tolerance' as const,
+        model: `the beta model with B varied over ±${formatSignificant(s.betaToleranceFraction * 100)} % (rectangular)`,
+      });
+    }
+    if (s.dissipationToleranceFraction > 0 && s.dissipationConstantWattsPerKelvin !== undefined) {
+      inputs.push({
+        name: 'dissipation constant',
+        index: DISSIPATION,
+        halfWidth: s.dissipationToleranceFraction * s.dissipationConstantWattsPerKelvin,
+        kind: 'self-heating' as const,
+        model: `the self-heating correction P/δ with δ varied over ±${formatSignificant(s.dissipationToleranceFraction * 100)} % (rectangular)`,
+      });
+    }
+    return inputs;
+  },
+  budgetLines(ctx, map, at) {
+    const s = ctx.sensor;
+    const d = s.dissipationConstantWattsPerKelvin;
+    if (d === undefined || ctx.quantity !== 'temperature') return [];
+    // The element's power at the budget point: the correction a map ignoring self-heating would miss.
+    const bridge = createStrainBridge({
+      arrangement: 'quarter',
+      gaugeFactor: 1,
+      gaugeOhms: s.referenceOhms,
+      completionOhms: ctx.nominal[Parameter.completionOhms] as number,
+      sourceOhms: ctx.sourceOhms,
+      leads: { ohmsPerLead: ctx.nominal[Parameter.ohmsPerLead] as number, wiring: ctx.wiring },
+    });
+    const strain = bridge.strainFromRatio(map.ratioFromQuantity(at));
+    const sol = solveBridge({
+      armsOhms: bridge.armsOhms(strain),
+      excitationVolts: ctx.nominal[Parameter.excitationVolts] as number,
+      sourceOhms: ctx.spec.excitation.sourceOhms,
+    });
+    const watts = (sol.armAmps[0] as number) ** 2 * s.referenceOhms * (1 + strain);
+    return [
+      {
+        name: 'self-heating',
+        kind: 'self-heating',
+        model:
+          'the element sits above the ambient by P/δ (P the power in it, from the bridge network); the map subtracts it, so this is the error of a map that ignores it',
+        inputs: { powerWatts: watts, dissipationConstantWattsPerKelvin: d },
+        value: watts / d,
+        standardUncertainty: undefined,
+      },
+    ];
+  },
+  plausibleRanges: (s) => [
+    { path: 'sensor.referenceOhms', value: s.referenceOhms, range: { min: 100, max: 1e6 }, unit: 'Ω' },
+    ...(s.betaKelvin === undefined
+      ? []
+      : [{ path: 'sensor.betaKelvin', value: s.betaKelvin, range: { min: 2000, max: 6000 }, unit: 'K' }]),
+  ],
+};
+
+export type { ThermistorSpec };

@@ -1,0 +1,176 @@
+/**
+ * The touch points of the redesign: a sensor kind is its module plus one registry line (a fake
+ * kind is added here through a kit, never in src/), and an arrangement is one row of the bridge
+ * package's table (a fake row is added here, and removed again, in one test).
+ */
+import { describe, expect, it } from 'vitest';
+import { arrangementTable, createStrainBridge, strainArrangements } from '@bridgework/bridge';
+import { channelBudget, createChannel } from '@bridgework/channel';
+import { createChannelKit } from '../src/channelKit.js';
+import { builtInSensorKinds } from '../src/kinds/registry.js';
+import { KIND_PARAMETERS_START, Parameter, type SensorKind } from '../src/kinds/SensorKind.js';
+import { numberField } from '../src/spec/schema.js';
+import { D, X, arm1Ref, ratioFromCodeRef } from './support/reference.js';
+
+/**
+ * An invented resistive sensor: an element whose relative resistance change is k times the
+ * strain, R = R0·(1 + k·ε), in arm 1 of a quarter bridge. Its module is written against the
+ * public contract only, like a new kind would be.
+ */
+const fields = {
+  r0Ohms: numberField({
+    doc: 'Element resistance at zero',
+    unit: { dimension: 'resistance' },
+    min: 0,
+    minExclusive: true,
+    default: 1000,
+  }),
+  sensitivity: numberField({ doc: 'Relative resistance change per unit strain', min: 0, minExclusive: true }),
+};
+const fakeKind: SensorKind<typeof fields, 'resistive-film'> = {
+  name: 'resistive-film',
+  doc: 'An invented resistive film: R = R0·(1 + k·ε), in arm 1',
+  fields,
+  quantities: ['strain'],
+  placement: 'arm-1',
+  temperatureLine: undefined,
+  parameters: (s) => [{ key: 'sensitivity', nominal: s.sensitivity }],
+  nominalOhms: (s) => s.r0Ohms,
+  describe: (s) => `resistive film, R0 ${s.r0Ohms} Ω, k ${s.sensitivity}`,
+  defaultSpan: () => ({ min: -1e-3, max: 1e-3 }),
+  exactMap(ctx, p) {
+    // The bridge package's quarter bridge with "gauge factor" k solves it exactly.
+    const bridge = createStrainBridge({
+      arrangement: 'quarter',
+      gaugeFactor: p[KIND_PARAMETERS_START] as number,
+      gaugeOhms: ctx.sensor.r0Ohms,
+      completionOhms: p[Parameter.completionOhms] as number,
+      sourceOhms: ctx.sourceOhms,
+      leads: { ohmsPerLead: p[Parameter.ohmsPerLead] as number, wiring: ctx.wiring },
+    });
+    return {
+      quantityFromRatio: (r) => bridge.strainFromRatio(r),
+      ratioFromQuantity: (q) => bridge.ratioFromStrain(q),
+      ratioRange: bridge.ratioRange,
+      linearFractional: true,
+      frontEndSpan: (a, b) => ({
+        bridge,
+        strainRange: { min: bridge.strainFromRatio(a), max: bridge.strainFromRatio(b) },
+      }),
+    };
+  },
+  budgetInputs: () => [],
+};
+
+describe('a sensor kind is its module and one registry line', () => {
+  const kit = createChannelKit({ sensorKinds: [...builtInSensorKinds, fakeKind] });
+  const spec = {
+    sensor: { kind: 'resistive-film', sensitivity: 4, r0Ohms: '1 kΩ' },
+    bridge: { ohmsPerLead: 0.4 },
+    excitation: { volts: 2.5 },
+    amplifier: { gain: 32 },
+    adc: { bits: 24, referenceVolts: 2.5, ratiometric: true },
+    output: { quantity: 'strain', unit: 'µε' },
+  };
+
+  it('validates with the kind’s own fields and defaults, and documents them', () => {
+    const v = kit.validateChannelSpec(spec);
+    expect(v.issues).toEqual([]);
+    expect((v.value as { bridge: { wiring: string; completionOhms: number } }).bridge).toMatchObject({
+      wiring: 'three-wire', // the quarter arrangement's default, from the bridge table
+      completionOhms: 1000, // the kind's nominal resistance
+    });
+    expect(
+      kit.channelSpecFields().find((r) => r.path === 'sensor<resistive-film>.sensitivity'),
+    ).toMatchObject({ presence: 'required' });
+    expect(JSON.stringify(kit.channelSpecJsonSchema())).toContain('"const":"resistive-film"');
+    const typo = kit.validateChannelSpec({ ...spec, sensor: { kind: 'resistive-flim', sensitivity: 4 } });
+    expect(typo.issues).toEqual([
+      expect.objectContaining({
+        code: 'invalid-option',
+        path: 'sensor.kind',
+        suggestion: "write 'resistive-film'",
+      }),
+    ]);
+    // The built-in kit does not know it: the kind is added in one place.
+    expect(createChannel.length).toBe(1);
+  });
+
+  it('converts exactly (a 40-digit solve of arm 1) and budgets through the composed map', () => {
+    const channel = kit.createChannel(spec);
+    expect(channel.description).toBe('resistive film, R0 1000 Ω, k 4');
+    expect(channel.span).toEqual({ min: -1000, max: 1000 });
+    for (const code of [-3_000_000, -12_345, 0, 777_777, 3_500_000]) {
+      // Three-wire: R1 = R + RL, R2 = Rc + RL, R3 = R4 = Rc; R = R0(1 + kε).
+      const r = ratioFromCodeRef(code, 32, 24);
+      const rl = X(0.4);
+      const arm = arm1Ref(r, X(1000).plus(rl), X(1000), X(1000), new D(0));
+      const strain = arm.minus(rl).div(1000).minus(1).div(4).times(1e6).toNumber();
+      expect(channel.quantityFromCode(code)).toBeNear(strain, { rel: 1e-12, abs: 1e-9 });
+    }
+    const budget = channelBudget(channel, { at: 500 });
+    expect(budget.model).toBe('composed'); // no closed form given: the exact map per evaluation
+    expect(budget.ok).toBe(true);
+  });
+});
+
+describe('an arrangement is one row of the bridge package’s table', () => {
+  it('a fake row measures strain through the channel, checked by a 40-digit network solve', () => {
+    // Three active gauges (arms 1, 2, 3 at ε, −ε, ε) and one completion resistor: invented.
+    const name = 'three-active';
+    const table = arrangementTable as unknown as Record<string, unknown>;
+    const list = strainArrangements as unknown as string[];
+    table[name] = { arms: [[1, 0], [-1, 0], [1, 0], null], wirings: ['three-wire'] };
+    list.push(name);
+    try {
+      const kit = createChannelKit({ sensorKinds: builtInSensorKinds });
+      const spec = {
+        sensor: { kind: 'strain-gauge', gaugeFactor: 2, gaugeFactorToleranceFraction: 0.01 },
+        bridge: { arrangement: name, ohmsPerLead: 0.5 },
+        excitation: { volts: 5 },
+        amplifier: { gain: 64 },
+        adc: { bits: 24, referenceVolts: 5, ratiometric: true },
+        output: { quantity: 'strain', unit: 'µε', range: [-1500, 1500] },
+      };
+      const v = kit.validateChannelSpec(spec);
+      expect(v.issues).toEqual([]);
+      expect((v.value as { bridge: { wiring: string } }).bridge.wiring).toBe('three-wire');
+      const channel = kit.createChannel(spec);
+      // Reference: R1 = Rg(1 + GFε) + RL, R2 = Rg(1 − GFε) + RL, R3 = Rg(1 + GFε), R4 = Rc; ratio
+      // (R1R3 − R2R4)/((R1 + R2)(R3 + R4)) solved for ε by bisection at 40 digits.
+      const ratioOf = (e: InstanceType<typeof D>) => {
+        const g = new D(350);
+        const rl = X(0.5);
+        const r1 = g.times(e.times(2).plus(1)).plus(rl);
+        const r2 = g.times(new D(1).minus(e.times(2))).plus(rl);
+        const r3 = g.times(e.times(2).plus(1));
+        const r4 = g;
+        return r1
+          .times(r3)
+          .minus(r2.times(r4))
+          .div(r1.plus(r2).times(r3.plus(r4)));
+      };
+      for (const code of [-2_000_000, -5, 0, 1_234_567, 2_500_000]) {
+        const r = ratioFromCodeRef(code, 64, 24);
+        let lo = new D(-0.1);
+        let hi = new D(0.1);
+        for (let i = 0; i < 140; i++) {
+          const mid = lo.plus(hi).div(2);
+          if (ratioOf(mid).lessThan(r)) lo = mid;
+          else hi = mid;
+        }
+        expect(channel.quantityFromCode(code)).toBeNear(lo.times(1e6).toNumber(), { rel: 1e-12, abs: 1e-9 });
+      }
+      // The closed-form Monte Carlo model reads the same row and agrees with the composed map.
+      const budget = channelBudget(channel);
+      expect(budget.model).toBe('closed-form');
+      expect(budget.combined.contributions['gauge factor']).toBeNear((1500 * 0.01) / Math.sqrt(3), {
+        rel: 1e-6,
+      });
+    } finally {
+      delete table[name];
+      list.splice(list.indexOf(name), 1);
+    }
+    expect(strainArrangements).not.toContain(name);
+  });
+});
