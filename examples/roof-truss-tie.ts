@@ -15,6 +15,7 @@ import {
   mainsRejection,
   noiseBandwidth,
   selectGain,
+  type AmplifierNoiseOptions,
   type BudgetAmplifierOptions,
   type SincFilter,
 } from '@bridgework/chain';
@@ -34,10 +35,13 @@ const strainRange = { min: strainFromMicrostrain(-300), max: strainFromMicrostra
 const excitationVolts = 5;
 
 // --- The logger front end (a PGA with RFI filter resistors, from its data sheet) ---------------
-const amplifier: BudgetAmplifierOptions = {
+const amplifierNoise: AmplifierNoiseOptions = {
   inputVoltageNoiseVoltsPerRootHz: 15e-9,
   voltageCornerHertz: 10,
   currentNoiseAmpsPerRootHz: 0.2e-12,
+};
+const amplifier: BudgetAmplifierOptions = {
+  ...amplifierNoise,
   inputSeriesOhms: [499, 499],
   limits: {
     inputCommonModeVolts: { min: 0.1, max: 3.9 },
@@ -61,7 +65,7 @@ const density = inputNoiseDensity({
   armsOhms: bridge.armsOhms(0),
   sourceOhms: bridge.seriesOhms,
   inputSeriesOhms: [499, 499],
-  amplifier,
+  amplifier: amplifierNoise,
 });
 lines.push(`Input noise density ${fmt(density.totalVoltsPerRootHz * 1e9, 3)} nV/√Hz (white floors):`);
 for (const t of density.terms) {

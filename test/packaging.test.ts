@@ -9,6 +9,10 @@ import { existsSync, readFileSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
+import {
+  CONVERSION_PATH_BUDGET_GZIP_BYTES,
+  CONVERSION_PATH_TARGET_GZIP_BYTES,
+} from './consumer/support/bundle.js';
 import { readmeExample } from './consumer/support/readmeExamples.js';
 
 const root = fileURLToPath(new URL('..', import.meta.url));
@@ -95,6 +99,12 @@ describe('the repository', () => {
         expect(names, `.changeset/${file}`).toContain(m![1]);
       }
     }
+  });
+
+  it('states the browser budget of the conversion path in docs/performance.md as the consumer test checks it', () => {
+    const performance = read('docs/performance.md');
+    expect(performance).toContain(`**${CONVERSION_PATH_BUDGET_GZIP_BYTES / 1000} kB gzipped**`);
+    expect(performance).toContain(`**${CONVERSION_PATH_TARGET_GZIP_BYTES / 1000} kB gzipped**`);
   });
 
   it('pins development tools exactly, and gives runtime dependencies caret ranges from the tested version', () => {

@@ -158,7 +158,7 @@ function runOnce(c: Case): { seconds: number; rssKiB: number; outBytes: number }
   const r = spawnSync(c.program ?? process.execPath, c.argv, { encoding: 'utf8' });
   const seconds = (performance.now() - t0) / 1000;
   if (r.status !== 0) throw new Error(`${c.name} failed (${r.status}): ${r.stderr}`);
-  let rssKiB = 0;
+  let rssKiB: number;
   try {
     rssKiB = Number(spawnSync('cat', [rss], { encoding: 'utf8' }).stdout) || 0;
   } catch {

@@ -196,6 +196,17 @@ const sameValues = check.values!.every((v, i) => Object.is(v, reference.values![
 const identical =
   sameValues && JSON.stringify({ ...check, values: 0 }) === JSON.stringify({ ...reference, values: 0 });
 for (let i = 0; i < 3; i++) await pool.run({ inputs, trials, seed: i }); // warm-up
+// The main thread's own work in a pooled run (planning, merges, intervals, the GUM comparison):
+// the time its event loop is busy, against the time it waits for the workers.
+const mainBusy: number[] = [];
+const mainBusyNoGum: number[] = [];
+for (let r = 0; r < 7; r++) {
+  for (const compareWithGum of [true, false]) {
+    const before = performance.eventLoopUtilization();
+    await pool.run({ inputs, trials, seed: 100 + r, compareWithGum });
+    (compareWithGum ? mainBusy : mainBusyNoGum).push(performance.eventLoopUtilization(before).active);
+  }
+}
 const rounds = 11;
 const single2: number[] = [];
 const workers2: number[] = [];
@@ -262,7 +273,10 @@ console.log(
   `  serial part (Amdahl, 2·T₂ − T₁, median): ${median(serial).toFixed(1)} ms of ${median(workers2).toFixed(1)} ms`,
 );
 console.log(
-  `  what two threads get on this machine (a fixed loop, two at once against twice in one): ${median(capacity).toFixed(2)}×`,
+  `  main thread busy during a pooled run (median): ${median(mainBusy).toFixed(1)} ms with the GUM comparison, ${median(mainBusyNoGum).toFixed(1)} ms without`,
+);
+console.log(
+  `  what two threads get on this machine (a fixed loop, two at once against twice in one): ${median(capacity).toFixed(2)}×; Monte Carlo's share of it: ${(median(speedups) / median(capacity)).toFixed(2)}`,
 );
 console.log(
   `machine after: load average ${loadavg()

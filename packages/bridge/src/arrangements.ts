@@ -1,4 +1,4 @@
-import type { LeadWiring } from '@bridgework/core';
+import { checkOneOf, type LeadWiring } from '@bridgework/core';
 
 /**
  * A strain-gauge bridge arrangement, named by its physics.
@@ -112,6 +112,8 @@ export const arrangementTable: Readonly<Record<StrainArrangement, ArrangementInf
  *
  * @param arrangement - A strain arrangement.
  * @returns Whether `poissonRatio` is required.
+ * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for a name that is not an
+ *   arrangement (names are case-sensitive: `'quarter'`, not `'Quarter'`).
  * @example
  * ```ts
  * needsPoissonRatio('half-poisson'); // true
@@ -119,5 +121,7 @@ export const arrangementTable: Readonly<Record<StrainArrangement, ArrangementInf
  * ```
  */
 export function needsPoissonRatio(arrangement: StrainArrangement): boolean {
-  return arrangementTable[arrangement].arms.some((g) => g !== null && g[1] !== 0);
+  return arrangementTable[checkOneOf('arrangement', arrangement, strainArrangements)].arms.some(
+    (g) => g !== null && g[1] !== 0,
+  );
 }

@@ -1,14 +1,14 @@
 import {
   BridgeworkError,
   checkFinite,
-  checkNonNegative,
-  checkObject,
+  checkFiniteResult,
+  checkOhms,
   checkOneOf,
-  checkPositive,
+  checkGaugeFactor,
+  checkOptions,
   checkRange,
   differenceOfProducts,
   formatValue,
-  requireOption,
   type Interval,
   type LeadsOptions,
 } from '@bridgework/core';
@@ -23,15 +23,15 @@ import {
 export interface StrainBridgeOptions {
   /** The arrangement of gauges in the bridge (see {@link StrainArrangement}). */
   readonly arrangement: StrainArrangement;
-  /** Gauge factor of every active gauge (> 0), as stated on the gauge package. */
+  /** Gauge factor of every active gauge, in [0.01, 1000], as stated on the gauge package. */
   readonly gaugeFactor: number;
-  /** Unstrained resistance of each gauge in Ω (> 0). Default 350. */
+  /** Unstrained resistance of each gauge in Ω, in [1e-9, 1e15]. Default 350. */
   readonly gaugeOhms?: number;
-  /** Resistance of each completion resistor in Ω (> 0). Default `gaugeOhms`. */
+  /** Resistance of each completion resistor in Ω, in [1e-9, 1e15]. Default `gaugeOhms`. */
   readonly completionOhms?: number;
   /**
    * Poisson ratio of the specimen, in (−1, 0.5]. Required by `'half-poisson'`, `'full-poisson'`
-   * and `'full-bending-poisson'`; ignored by the others.
+   * and `'full-bending-poisson'`; checked but not used by the others.
    */
   readonly poissonRatio?: number;
   /**
@@ -42,8 +42,8 @@ export interface StrainBridgeOptions {
    */
   readonly leads?: LeadsOptions;
   /**
-   * Series resistance of the excitation source in Ω (≥ 0). Default 0. With `'six-wire'` leads the
-   * excitation is sensed at the bridge, so it has no effect.
+   * Series resistance of the excitation source in Ω (0 or in [1e-9, 1e15]). Default 0. With
+   * `'six-wire'` leads the excitation is sensed at the bridge, so it has no effect.
    */
   readonly sourceOhms?: number;
 }
@@ -154,9 +154,27 @@ function evaluate(c: Quad, x: number): number {
   return c[0] + x * (c[1] + x * c[2]);
 }
 
+/** Beyond this strain the quotient is formed from powers of 1/ε, so nothing overflows on the way. */
+const HUGE_STRAIN = 1e100;
+
+/** n(x)/d(x) for quadratics n and d, without intermediate overflow at any finite x. */
+function quotient(n: Quad, d: Quad, x: number): number {
+  if (Math.abs(x) <= HUGE_STRAIN) return evaluate(n, x) / evaluate(d, x);
+  if (n[2] === 0 && d[2] === 0) return (n[0] / x + n[1]) / (d[0] / x + d[1]);
+  return ((n[0] / x + n[1]) / x + n[2]) / ((d[0] / x + d[1]) / x + d[2]);
+}
+
 /** Limit of n(x)/d(x) as x → ±∞ (sign = ±1), or the value at a finite x. */
+const POISSON_LIMITS = { min: -1, max: 0.5, minExclusive: true } as const;
+const ZERO_OK = { allowZero: true } as const;
+
+function readZeroRatio(options: unknown): unknown {
+  if (options === undefined) return undefined;
+  return checkOptions('options', options, { known: ['zeroRatio'] })['zeroRatio'];
+}
+
 function ratioAt(n: Quad, d: Quad, x: number): number {
-  if (Number.isFinite(x)) return evaluate(n, x) / evaluate(d, x);
+  if (Number.isFinite(x)) return quotient(n, d, x);
   if (d[2] !== 0) return n[2] / d[2];
   if (d[1] !== 0 && n[2] === 0) return n[1] / d[1];
   return Math.sign(x) * Infinity;
@@ -190,12 +208,18 @@ function ratioAt(n: Quad, d: Quad, x: number): number {
  * offset comes from the gauge itself; for the other arrangements the zero offset is attributed to
  * the same strain pattern.
  *
+ * Resistances lie in `OHMS_LIMITS` of the core package (1 nΩ … 1 PΩ) and the gauge factor in
+ * [0.01, 1000], so every coefficient is finite; the maps are evaluated in powers of 1/ε beyond
+ * |ε| = 1e100, so every strain inside `strainRange` gives a finite ratio.
+ *
  * @param options - Arrangement, gauge factor, resistances, Poisson ratio, leads, source resistance.
  * @returns An evaluator: exact forward and inverse maps, sensitivity, ranges and nonlinearity.
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for an unknown arrangement or a wiring
- *   the arrangement cannot take; `missing-option` when a Poisson arrangement has no `poissonRatio`;
- *   `out-of-range` for a Poisson ratio outside (−1, 0.5]; `not-positive`, `not-finite`, `negative`,
- *   `wrong-type` for bad numbers.
+ *   the arrangement cannot take; `missing-option` when a Poisson arrangement has no `poissonRatio`
+ *   (or without `arrangement`, `gaugeFactor`, `leads.ohmsPerLead` or `leads.wiring`);
+ *   `out-of-range` for a Poisson ratio outside (−1, 0.5], a gauge factor outside [0.01, 1000] or a
+ *   resistance outside [1e-9, 1e15] Ω; `not-positive`, `not-finite`, `negative`, `wrong-type` for
+ *   bad numbers; `unknown-option` for a key it does not know (naming the closest).
  * @example
  * ```ts
  * const bridge = createStrainBridge({ arrangement: 'quarter', gaugeFactor: 2 });
@@ -204,30 +228,47 @@ function ratioAt(n: Quad, d: Quad, x: number): number {
  * ```
  */
 export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: [
+      'arrangement',
+      'gaugeFactor',
+      'gaugeOhms',
+      'completionOhms',
+      'poissonRatio',
+      'leads',
+      'sourceOhms',
+    ],
+    required: ['arrangement', 'gaugeFactor'],
+  });
   const arrangement = checkOneOf('arrangement', o['arrangement'], strainArrangements);
-  const gaugeFactor = checkPositive('gaugeFactor', o['gaugeFactor']);
-  const gaugeOhms = o['gaugeOhms'] === undefined ? 350 : checkPositive('gaugeOhms', o['gaugeOhms']);
+  const gaugeFactor = checkGaugeFactor('gaugeFactor', o['gaugeFactor']);
+  const gaugeOhms = o['gaugeOhms'] === undefined ? 350 : checkOhms('gaugeOhms', o['gaugeOhms']);
   const completionOhms =
-    o['completionOhms'] === undefined ? gaugeOhms : checkPositive('completionOhms', o['completionOhms']);
-  const poissonRatio = needsPoissonRatio(arrangement)
-    ? checkRange('poissonRatio', requireOption('poissonRatio', o['poissonRatio'], `for '${arrangement}'`), {
-        min: -1,
-        max: 0.5,
-        minExclusive: true,
-      })
-    : undefined;
-  const sourceOhms = o['sourceOhms'] === undefined ? 0 : checkNonNegative('sourceOhms', o['sourceOhms']);
+    o['completionOhms'] === undefined ? gaugeOhms : checkOhms('completionOhms', o['completionOhms']);
+  if (o['poissonRatio'] === undefined && needsPoissonRatio(arrangement)) {
+    throw new BridgeworkError(
+      'missing-option',
+      `\`poissonRatio\` must be given for '${arrangement}'; got undefined`,
+      { param: 'poissonRatio', value: undefined },
+    );
+  }
+  const checkedPoisson =
+    o['poissonRatio'] === undefined
+      ? undefined
+      : checkRange('poissonRatio', o['poissonRatio'], POISSON_LIMITS);
+  const poissonRatio = needsPoissonRatio(arrangement) ? checkedPoisson : undefined;
+  const sourceOhms = o['sourceOhms'] === undefined ? 0 : checkOhms('sourceOhms', o['sourceOhms'], ZERO_OK);
   const info = arrangementTable[arrangement];
 
   let leadsInArms: [number, number, number, number] = [0, 0, 0, 0];
   let seriesOhms = sourceOhms;
-  let leads: LeadsOptions | undefined;
   if (o['leads'] !== undefined) {
-    const l = checkObject('leads', o['leads']);
-    const ohmsPerLead = checkNonNegative('leads.ohmsPerLead', l['ohmsPerLead']);
+    const l = checkOptions('leads', o['leads'], {
+      known: ['ohmsPerLead', 'wiring'],
+      required: ['ohmsPerLead', 'wiring'],
+    });
+    const ohmsPerLead = checkOhms('leads.ohmsPerLead', l['ohmsPerLead'], ZERO_OK);
     const wiring = checkOneOf('leads.wiring', l['wiring'], info.wirings);
-    leads = { ohmsPerLead, wiring };
     if (wiring === 'two-wire') {
       leadsInArms =
         arrangement === 'quarter' ? [2 * ohmsPerLead, 0, 0, 0] : [2 * ohmsPerLead, 0, 2 * ohmsPerLead, 0];
@@ -291,6 +332,9 @@ export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
   const b = n2 * d0 - n0 * d2;
   const sensitivity = a / (d0 * d0);
   const offsetRatio = n0 / d0;
+  // 1 − (r(ε) − r(0))/(sensitivity·ε) = ε·(a·(d1 + ε·d2) − d0·b)/(a·d(ε)), a ratio of quadratics.
+  const nonlinearityNumerator: Quad = [0, a * d1 - d0 * b, a * d2];
+  const nonlinearityDenominator: Quad = [a * d0, a * d1, a * d2];
 
   function checkStrain(param: string, value: unknown): number {
     const strain = checkFinite(param, value);
@@ -357,32 +401,50 @@ export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
     ratioRange,
     rational: { numerator, denominator },
     linearFractional,
-    ratioFromStrain(strain: number, opts: StrainFromRatioOptions = {}): number {
+    ratioFromStrain(strain: number, opts?: StrainFromRatioOptions): number {
+      const zeroRatio = readZeroRatio(opts);
       let e = checkFinite('strain', strain);
-      if (opts.zeroRatio !== undefined) {
+      if (zeroRatio !== undefined) {
         // Invert ε = (ε1 − ε0)/(1 + GF·ε0): the gauge's strain at load is ε1 = ε0 + ε·(1 + GF·ε0).
-        const zero = solve('zeroRatio', opts.zeroRatio);
+        const zero = solve('zeroRatio', zeroRatio);
         e = zero + e * (1 + gaugeFactor * zero);
+        if (!Number.isFinite(e)) e = e > 0 ? strainMax : strainMin; // beyond the range: refused below
       }
       e = checkStrain('strain', e);
-      return evaluate(numerator, e) / evaluate(denominator, e);
+      return quotient(numerator, denominator, e);
     },
-    strainFromRatio(ratio: number, opts: StrainFromRatioOptions = {}): number {
+    strainFromRatio(ratio: number, opts?: StrainFromRatioOptions): number {
+      const zeroRatio = readZeroRatio(opts);
       const strain = solve('ratio', ratio);
-      if (opts.zeroRatio === undefined) return strain;
-      const zero = solve('zeroRatio', opts.zeroRatio);
-      return (strain - zero) / (1 + gaugeFactor * zero);
+      if (zeroRatio === undefined) return strain;
+      const zero = solve('zeroRatio', zeroRatio);
+      return checkFiniteResult((strain - zero) / (1 + gaugeFactor * zero), {
+        what: 'the strain from zero',
+        param: 'ratio',
+        value: ratio,
+      });
     },
     nonlinearity(strain: number): number {
       const e = checkStrain('strain', strain);
-      return (e * (a * (d1 + e * d2) - d0 * b)) / (evaluate(denominator, e) * a);
+      return checkFiniteResult(quotient(nonlinearityNumerator, nonlinearityDenominator, e), {
+        what: 'the nonlinearity',
+        param: 'strain',
+        value: strain,
+      });
     },
     linearRatioFromStrain(strain: number): number {
-      return offsetRatio + sensitivity * checkFinite('strain', strain);
+      return checkFiniteResult(offsetRatio + sensitivity * checkFinite('strain', strain), {
+        what: 'the linear ratio',
+        param: 'strain',
+        value: strain,
+      });
     },
     armsOhms(strain: number): [number, number, number, number] {
       const e = checkStrain('strain', strain);
-      return [p1 + g1 * e, p2 + g2 * e, p3 + g3 * e, p4 + g4 * e];
+      const arms: [number, number, number, number] = [p1 + g1 * e, p2 + g2 * e, p3 + g3 * e, p4 + g4 * e];
+      for (const r of arms)
+        checkFiniteResult(r, { what: 'every arm resistance', param: 'strain', value: strain });
+      return arms;
     },
   };
 }

@@ -1,25 +1,17 @@
-import { BridgeworkError, checkFinite, formatValue } from '@bridgework/core';
-import {
-  ACROSS,
-  OPPOSITE,
-  PARTNER,
-  SIGN,
-  checkArms,
-  checkCircuit,
-  checkOptions,
-} from './internal/network.js';
+import { BridgeworkError, checkFinite, checkOptions, formatValue } from '@bridgework/core';
+import { ACROSS, OPPOSITE, PARTNER, SIGN, checkArms, checkCircuit } from './internal/network.js';
 
 /** Options of {@link solveArm}. */
 export interface SolveArmOptions {
-  /** The four arms `[R1, R2, R3, R4]` in Ω with exactly one entry `null`: the arm to solve for. */
+  /** The four arms `[R1, R2, R3, R4]` in Ω (each in [1e-9, 1e15]) with exactly one entry `null`: the arm to solve for. */
   readonly armsOhms: readonly [number | null, number | null, number | null, number | null];
-  /** Source EMF of the excitation in V (> 0). */
+  /** Source EMF of the excitation in V, in [1e-9, 1e6]. */
   readonly excitationVolts: number;
   /** The meter reading V(S+) − V(S−) in V (finite, either sign). */
   readonly outputVolts: number;
-  /** Source resistance in Ω (≥ 0). Default 0. */
+  /** Source resistance in Ω (0 or in [1e-9, 1e15]). Default 0. */
   readonly sourceOhms?: number;
-  /** Meter input resistance in Ω (> 0, may be `Infinity`). Default `Infinity`. */
+  /** Meter input resistance in Ω (in [1e-9, 1e15], or `Infinity`). Default `Infinity`. */
   readonly meterOhms?: number;
 }
 
@@ -39,7 +31,9 @@ export interface SolveArmOptions {
  * @returns The unknown arm resistance in Ω.
  * @throws {@link @bridgework/core!BridgeworkError} `unknown-count` unless exactly one arm is `null`;
  *   `no-solution` when no finite positive resistance gives the reading (with `limit` = the reachable
- *   interval of readings in V); `not-finite`, `not-positive`, `negative`, `invalid-shape` for bad inputs.
+ *   interval of readings in V); `not-finite`, `not-positive`, `negative`, `invalid-shape`,
+ *   `out-of-range` for bad inputs (resistances and excitation as in {@link solveBridge});
+ *   `unknown-option`, `missing-option`.
  * @example
  * ```ts
  * solveArm({ armsOhms: [null, 350, 350, 350], excitationVolts: 10, outputVolts: 0.004223022653, sourceOhms: 50, meterOhms: 10_000 });
@@ -47,7 +41,10 @@ export interface SolveArmOptions {
  * ```
  */
 export function solveArm(options: SolveArmOptions): number {
-  const o = checkOptions(options);
+  const o = checkOptions('options', options, {
+    known: ['armsOhms', 'excitationVolts', 'outputVolts', 'sourceOhms', 'meterOhms'],
+    required: ['armsOhms', 'excitationVolts', 'outputVolts'],
+  });
   const arms = checkArms(o['armsOhms'], true);
   const unknowns = arms.flatMap((arm, i) => (arm === null ? [i] : []));
   if (unknowns.length !== 1) {

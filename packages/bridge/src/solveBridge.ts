@@ -1,14 +1,15 @@
-import { checkArms, checkCircuit, checkOptions, networkTerms, type Arms } from './internal/network.js';
+import { checkOptions } from '@bridgework/core';
+import { checkArms, checkCircuit, networkTerms, type Arms } from './internal/network.js';
 
 /** Options of {@link solveBridge}. */
 export interface SolveBridgeOptions {
-  /** The four arm resistances `[R1, R2, R3, R4]` in Ω, each finite and > 0 (ring order, see docs/conventions.md). */
+  /** The four arm resistances `[R1, R2, R3, R4]` in Ω, each in [1e-9, 1e15] (ring order, see docs/conventions.md). */
   readonly armsOhms: readonly [number, number, number, number];
-  /** Source EMF of the excitation in V (> 0), before its internal resistance. */
+  /** Source EMF of the excitation in V, in [1e-9, 1e6], before its internal resistance. */
   readonly excitationVolts: number;
-  /** Internal resistance of the excitation source plus any series resistance in Ω (≥ 0). Default 0. */
+  /** Internal resistance of the excitation source plus any series resistance in Ω (0 or in [1e-9, 1e15]). Default 0. */
   readonly sourceOhms?: number;
-  /** Input resistance of the meter across S+ and S− in Ω (> 0, may be `Infinity`). Default `Infinity`. */
+  /** Input resistance of the meter across S+ and S− in Ω (in [1e-9, 1e15], or `Infinity`). Default `Infinity`. */
   readonly meterOhms?: number;
 }
 
@@ -58,11 +59,17 @@ export interface BridgeSolution {
  * a balanced one gives exactly 0. The test suite checks every field against a 40-digit nodal solve
  * of the full network (mathjs `lusolve`).
  *
+ * Resistances are bounded to `OHMS_LIMITS` of the core package (1 nΩ … 1 PΩ) and the excitation
+ * to [1 nV, 1 MV] (`VOLTS_LIMITS`), which keeps every product of the closed forms, every current and every power finite:
+ * no accepted input gives a non-finite field.
+ *
  * @param options - Arms, excitation EMF, source and meter resistance.
  * @returns Output, Thevenin equivalent, bridge voltage, currents and arm powers (SI units).
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-shape` when `armsOhms` is not four entries;
  *   `not-positive`, `not-finite` or `wrong-type` for a bad arm, excitation or meter resistance;
- *   `negative` for a negative source resistance.
+ *   `negative` for a negative source resistance; `out-of-range` for a resistance outside
+ *   [1e-9, 1e15] Ω or an excitation outside [1e-9, 1e6] V; `unknown-option` for a key it does not know
+ *   (naming the closest); `missing-option` without `armsOhms` or `excitationVolts`.
  * @example
  * ```ts
  * const s = solveBridge({ armsOhms: [350.7, 350, 350, 350], excitationVolts: 10, sourceOhms: 50, meterOhms: 10_000 });
@@ -70,7 +77,10 @@ export interface BridgeSolution {
  * ```
  */
 export function solveBridge(options: SolveBridgeOptions): BridgeSolution {
-  const o = checkOptions(options);
+  const o = checkOptions('options', options, {
+    known: ['armsOhms', 'excitationVolts', 'sourceOhms', 'meterOhms'],
+    required: ['armsOhms', 'excitationVolts'],
+  });
   const arms = checkArms(o['armsOhms'], false) as unknown as Arms;
   const { excitationVolts: e, sourceOhms: rs, meterOhms: rm } = checkCircuit(o);
   const [r1, r2, r3, r4] = arms;

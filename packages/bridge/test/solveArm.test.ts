@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { solveArm, solveBridge } from '@bridgework/bridge';
-import { nodalSolve } from './support/nodal.js';
+import { solveBridgeNetwork } from '../../../test/support/nodal.js';
 
 const ohms = fc.double({ min: 0, max: 6, noNaN: true }).map((d) => 10 ** d);
 const network = fc.record({
@@ -63,7 +63,7 @@ describe('solveArm', () => {
     fc.assert(
       fc.property(fc.tuple(near, near, near, near), fc.integer({ min: 0, max: 3 }), (arms, j) => {
         const n = { armsOhms: arms, excitationVolts: 5, sourceOhms: 20, meterOhms: 1e6 };
-        const ref = nodalSolve(n);
+        const ref = solveBridgeNetwork(n);
         const r = solveArm({ ...n, armsOhms: withUnknown(arms, j), outputVolts: ref.outputVolts });
         expect(r).toBeNear(arms[j]!, { rel: 1e-13 });
       }),

@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { solveBridge } from '@bridgework/bridge';
-import { nodalShortCircuitAmps, nodalSolve } from './support/nodal.js';
+import { bridgeShortCircuitAmps, solveBridgeNetwork } from '../../../test/support/nodal.js';
 
 /** Log-uniform resistance between 1 Ω and 1 MΩ. */
 const ohms = fc.double({ min: 0, max: 6, noNaN: true }).map((d) => 10 ** d);
@@ -22,7 +22,7 @@ describe('solveBridge: check values', () => {
       meterOhms: 10_000,
     });
     expect(s.outputVolts).toBeNear(4.223022653e-3, { rel: 1e-9 });
-    const ref = nodalSolve({
+    const ref = solveBridgeNetwork({
       armsOhms: [350.7, 350, 350, 350],
       excitationVolts: 10,
       sourceOhms: 50,
@@ -98,7 +98,7 @@ describe('solveBridge against a 40-digit nodal solve (mathjs lusolve, BigNumber)
     fc.assert(
       fc.property(network, (n) => {
         const s = solveBridge(n);
-        const ref = nodalSolve(n);
+        const ref = solveBridgeNetwork(n);
         // Absolute floor: 1e-15 of the excitation, far below any measurable signal.
         const floor = 1e-15 * n.excitationVolts;
         expect(s.outputVolts).toBeNear(ref.outputVolts, { rel: 1e-12, abs: floor });
@@ -115,8 +115,8 @@ describe('solveBridge against a 40-digit nodal solve (mathjs lusolve, BigNumber)
     fc.assert(
       fc.property(network, (n) => {
         const s = solveBridge(n);
-        const open = nodalSolve({ ...n, meterOhms: Infinity });
-        const isc = nodalShortCircuitAmps(n);
+        const open = solveBridgeNetwork({ ...n, meterOhms: Infinity });
+        const isc = bridgeShortCircuitAmps(n);
         const floor = 1e-15 * n.excitationVolts;
         expect(s.theveninVolts).toBeNear(open.outputVolts, { rel: 1e-12, abs: floor });
         // Voc/Isc is 0/0 for a balanced bridge; skip the (measure-zero) exact-balance case.
@@ -133,7 +133,7 @@ describe('solveBridge against a 40-digit nodal solve (mathjs lusolve, BigNumber)
       fc.property(network, (n) => {
         const m = { ...n, sourceOhms: 0 };
         const s = solveBridge(m);
-        const ref = nodalSolve(m);
+        const ref = solveBridgeNetwork(m);
         expect(s.outputVolts).toBeNear(ref.outputVolts, { rel: 1e-12, abs: 1e-15 * n.excitationVolts });
         expect(s.bridgeVolts).toBe(n.excitationVolts);
       }),

@@ -1,6 +1,5 @@
 import {
   BridgeworkError,
-  checkFinite,
   checkInteger,
   checkOptions,
   checkOneOf,

@@ -281,7 +281,7 @@ describe('no accepted input yields a non-finite figure (issue 15)', () => {
       [0, 1e-300, 2e-300, 3e-300, 4e-300],
       [1e-320, 2e-320, 3e-320, 4e-320, 5e-320],
     ]) {
-      let ok = false;
+      let ok: boolean;
       try {
         const f = fitPolynomial({ loads, readings: [1, 2, 3, 4.5, 5], degree: 3 });
         ok = [...f.coefficients, ...f.covariance.flat(), ...f.correlation.flat()].every(Number.isFinite);

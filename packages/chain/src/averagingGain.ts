@@ -1,4 +1,4 @@
-import { BridgeworkError, checkInteger, checkObject } from '@bridgework/core';
+import { BridgeworkError, checkInteger, checkOptions } from '@bridgework/core';
 import { checkFilter, type SincFilter } from './filters.js';
 import { sincBandwidthFactor } from './internal/sinc.js';
 
@@ -46,7 +46,8 @@ export interface AveragingGain {
  * @returns Noise factor, bits gained, rate factor and the averaged ENBW.
  * @throws {@link @bridgework/core!BridgeworkError} `not-integer` or `out-of-range` for `samples`;
  *   `invalid-option` for a filter that is not a sinc filter; filter errors as
- *   {@link noiseBandwidth}.
+ *   {@link noiseBandwidth}; `unknown-option` for a key it does not know (naming the closest),
+ *   `missing-option` without `samples`.
  * @example
  * ```ts
  * averagingGain({ samples: 16 }).bitsGained; // 2
@@ -54,7 +55,7 @@ export interface AveragingGain {
  * ```
  */
 export function averagingGain(options: AveragingOptions): AveragingGain {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, { known: ['samples', 'filter'], required: ['samples'] });
   const samples = checkInteger('samples', o['samples'], { min: 1, max: 2 ** 30 });
   if (o['filter'] === undefined) {
     return {

@@ -1,17 +1,18 @@
-import { checkFinite, checkNonNegative, checkObject, checkPositive, requireOption } from '@bridgework/core';
+import { checkOptions, checkPositive, requireOption } from '@bridgework/core';
 import { bandwidthOf, checkFilter, flickerFactorOf, type NoiseFilter } from './filters.js';
+import { checkCornerHertz, checkDensity, checkHertz } from './internal/domain.js';
 
 /** A noise spectrum with a white floor and an optional 1/f (flicker) corner. */
 export interface NoiseSpectrum {
-  /** White (high-frequency) density S₀ per √Hz, in the unit of the source (V/√Hz or A/√Hz), ≥ 0. */
+  /** White (high-frequency) density S₀ per √Hz, in the unit of the source (V/√Hz or A/√Hz), in [0, 1]. */
   readonly whiteDensity: number;
-  /** The 1/f corner frequency fc in Hz (≥ 0), where the 1/f part equals the white part. Default 0 (white). */
+  /** The 1/f corner frequency fc in Hz, in [0, 1e12], where the 1/f part equals the white part. Default 0 (white). */
   readonly cornerHertz?: number;
 }
 
 /** Options of {@link noiseDensityAt}. */
 export interface NoiseDensityAtOptions extends NoiseSpectrum {
-  /** The frequency in Hz (> 0). */
+  /** The frequency in Hz, in [1e-9, 1e12]. */
   readonly frequencyHertz: number;
 }
 
@@ -20,8 +21,8 @@ export interface BandNoiseOptions extends NoiseSpectrum {
   /** The filter that limits the band (see {@link NoiseFilter}). */
   readonly filter: NoiseFilter;
   /**
-   * The lowest frequency of interest fL in Hz (> 0), for the 1/f part: about 1/(the time between
-   * zero readings). Required when `cornerHertz` > 0; ignored otherwise.
+   * The lowest frequency of interest fL in Hz, in [1e-9, 1e12], for the 1/f part: about 1/(the time between
+   * zero readings). Required when `cornerHertz` > 0; otherwise checked but without effect.
    */
   readonly lowHertz?: number;
 }
@@ -29,8 +30,8 @@ export interface BandNoiseOptions extends NoiseSpectrum {
 /** @internal Validates a spectrum's white density and corner (param prefix for nested options). */
 export function checkSpectrum(prefix: string, o: Record<string, unknown>, density: string, corner: string) {
   return {
-    white: o[density] === undefined ? 0 : checkNonNegative(`${prefix}${density}`, o[density]),
-    corner: o[corner] === undefined ? 0 : checkNonNegative(`${prefix}${corner}`, o[corner]),
+    white: o[density] === undefined ? 0 : checkDensity(`${prefix}${density}`, o[density]),
+    corner: o[corner] === undefined ? 0 : checkCornerHertz(`${prefix}${corner}`, o[corner]),
   };
 }
 
@@ -48,7 +49,7 @@ export function integrateSpectrum(
 ): number {
   if (white === 0) return 0;
   if (corner === 0) return white * Math.sqrt(bandwidth);
-  const fl = checkPositive(lowParam, requireOption(lowParam, lowHertz, 'when a 1/f corner is given'));
+  const fl = checkHertz(lowParam, requireOption(lowParam, lowHertz, 'when a 1/f corner is given'));
   return white * Math.sqrt(bandwidth + corner * flickerFactorOf(filter, fl));
 }
 
@@ -63,16 +64,22 @@ export function integrateSpectrum(
  * @param options - White density, corner and frequency.
  * @returns Density at `frequencyHertz`, in the unit of `whiteDensity`.
  * @throws {@link @bridgework/core!BridgeworkError} `negative` for a density or corner below 0;
- *   `not-positive` for the frequency; `not-finite`, `wrong-type`.
+ *   `not-positive` for the frequency; `out-of-range` for a density above 1 per √Hz or a frequency
+ *   outside [1e-9, 1e12] Hz (a corner up to 1e12 Hz); `not-finite`, `wrong-type`;
+ *   `unknown-option` for a key it does not know (naming the closest: `whiteDensty` is refused,
+ *   never read as a zero density), `missing-option` without `whiteDensity` or `frequencyHertz`.
  * @example
  * ```ts
  * noiseDensityAt({ whiteDensity: 10e-9, cornerHertz: 100, frequencyHertz: 1 }); // 1.00498…e-7
  * ```
  */
 export function noiseDensityAt(options: NoiseDensityAtOptions): number {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['whiteDensity', 'cornerHertz', 'frequencyHertz'],
+    required: ['whiteDensity', 'frequencyHertz'],
+  });
   const { white, corner } = checkSpectrum('', o, 'whiteDensity', 'cornerHertz');
-  const f = checkPositive('frequencyHertz', o['frequencyHertz']);
+  const f = checkHertz('frequencyHertz', o['frequencyHertz']);
   return white * Math.sqrt(1 + corner / f);
 }
 
@@ -95,17 +102,21 @@ export function noiseDensityAt(options: NoiseDensityAtOptions): number {
  * @param options - Spectrum, filter and lowest frequency.
  * @returns The rms value, in the unit of `whiteDensity` times √Hz (V or A).
  * @throws {@link @bridgework/core!BridgeworkError} as {@link noiseDensityAt} and
- *   {@link noiseBandwidth}; `missing-option` (`lowHertz`) when a corner is given without it.
+ *   {@link noiseBandwidth}; `missing-option` (`lowHertz`) when a corner is given without it, or
+ *   without `whiteDensity` or `filter`; `unknown-option` for a key it does not know.
  * @example
  * ```ts
  * bandNoiseRms({ whiteDensity: 10e-9, filter: { kind: 'brick-wall', cutoffHertz: 100 } }); // 1e-7
  * ```
  */
 export function bandNoiseRms(options: BandNoiseOptions): number {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['whiteDensity', 'cornerHertz', 'filter', 'lowHertz'],
+    required: ['whiteDensity', 'filter'],
+  });
   const { white, corner } = checkSpectrum('', o, 'whiteDensity', 'cornerHertz');
   const filter = checkFilter('filter', o['filter']);
-  const low = o['lowHertz'] === undefined ? undefined : checkFinite('lowHertz', o['lowHertz']);
+  const low = o['lowHertz'] === undefined ? undefined : checkHertz('lowHertz', o['lowHertz']);
   return integrateSpectrum(white, corner, filter, bandwidthOf(filter), low, 'lowHertz');
 }
 

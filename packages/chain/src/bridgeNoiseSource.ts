@@ -1,6 +1,11 @@
 import { solveBridge } from '@bridgework/bridge';
-import { checkLength, checkNonNegative, checkObject } from '@bridgework/core';
+import { checkLength, checkOhms, checkOptions } from '@bridgework/core';
 import { checkTemperature, johnsonNoiseDensity } from './johnsonNoiseDensity.js';
+
+const ZERO_OK = { allowZero: true } as const;
+
+/** @internal The keys of {@link BridgeNoiseOptions}. */
+export const bridgeNoiseKeys = ['armsOhms', 'sourceOhms', 'inputSeriesOhms', 'temperatureCelsius'];
 
 /** Options of {@link bridgeNoiseSource}. */
 export interface BridgeNoiseOptions {
@@ -68,7 +73,9 @@ export interface BridgeNoiseSource {
  * @returns Output resistance, thermal noise density and current-noise transimpedances.
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-shape`, `not-positive`, `not-finite`,
  *   `wrong-type` for bad arms (from `solveBridge`); `negative` for a negative source or series
- *   resistance; `out-of-range` for a temperature at or below absolute zero.
+ *   resistance; `out-of-range` for a temperature at or below absolute zero or a resistance
+ *   outside `OHMS_LIMITS` of the core package; `unknown-option` for a key it does not know
+ *   (naming the closest), `missing-option` without `armsOhms`.
  * @example
  * ```ts
  * const n = bridgeNoiseSource({ armsOhms: [350, 350, 350, 350] });
@@ -78,15 +85,15 @@ export interface BridgeNoiseSource {
  * ```
  */
 export function bridgeNoiseSource(options: BridgeNoiseOptions): BridgeNoiseSource {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, { known: bridgeNoiseKeys, required: ['armsOhms'] });
   const temperatureCelsius = checkTemperature('temperatureCelsius', o['temperatureCelsius']);
-  const sourceOhms = o['sourceOhms'] === undefined ? 0 : checkNonNegative('sourceOhms', o['sourceOhms']);
+  const sourceOhms = o['sourceOhms'] === undefined ? 0 : checkOhms('sourceOhms', o['sourceOhms'], ZERO_OK);
   const series =
     o['inputSeriesOhms'] === undefined
       ? [0, 0]
       : checkLength<unknown>('inputSeriesOhms', o['inputSeriesOhms'], 2);
-  const seriesPositive = checkNonNegative('inputSeriesOhms[0]', series[0]);
-  const seriesNegative = checkNonNegative('inputSeriesOhms[1]', series[1]);
+  const seriesPositive = checkOhms('inputSeriesOhms[0]', series[0], ZERO_OK);
+  const seriesNegative = checkOhms('inputSeriesOhms[1]', series[1], ZERO_OK);
   // solveBridge validates the arms; the excitation does not enter the output resistance.
   const arms = o['armsOhms'] as readonly [number, number, number, number];
   const bridgeOhms = solveBridge({ armsOhms: arms, excitationVolts: 1, sourceOhms }).theveninOhms;

@@ -1,10 +1,12 @@
 import { solveBridge, type StrainBridge } from '@bridgework/bridge';
 import {
   BridgeworkError,
-  checkFinite,
+  blameOption,
+  checkInterval,
   checkLength,
   checkObject,
-  checkPositive,
+  checkOptions,
+  checkVolts,
   formatValue,
 } from '@bridgework/core';
 import type { OperatingPoint } from './checkHeadroom.js';
@@ -33,7 +35,7 @@ export interface StrainSpan {
 export interface RatioSpan {
   /** The four arms at zero `[R1, R2, R3, R4]` in Ω (each > 0), all of them gauges. */
   readonly armsOhms: readonly [number, number, number, number];
-  /** The output ratios Vout/Vexc at the ends of the span in V/V (e.g. ±rated output). */
+  /** The output ratios Vout/Vexc at the ends of the span in V/V, inside (−1, 1) (e.g. ±rated output). */
   readonly ratioRange: MeasurandRange;
 }
 
@@ -85,34 +87,20 @@ type Arms = [number, number, number, number];
 function checkMeasurandRange(
   param: string,
   value: unknown,
-  limits?: { min: number; max: number },
+  limits: { min: number; max: number },
+  what: string,
 ): MeasurandRange {
-  const o = checkObject(param, value);
-  const min = checkFinite(`${param}.min`, o['min']);
-  const max = checkFinite(`${param}.max`, o['max']);
-  if (!(max > min)) {
-    throw new BridgeworkError(
-      'out-of-range',
-      `\`${param}.max\` must be > \`${param}.min\` (${min}); got ${formatValue(max)}`,
-      {
-        param: `${param}.max`,
-        value: max,
-        limit: min,
-      },
-    );
-  }
-  if (limits !== undefined) {
-    for (const [end, v] of [
-      ['min', min],
-      ['max', max],
-    ] as const) {
-      if (!(v > limits.min && v < limits.max)) {
-        throw new BridgeworkError(
-          'out-of-range',
-          `\`${param}.${end}\` must be in (${limits.min}, ${limits.max}), the bridge's strain range; got ${formatValue(v)}`,
-          { param: `${param}.${end}`, value: v, limit: [limits.min, limits.max] },
-        );
-      }
+  const { min, max } = checkInterval(param, value, { strict: true });
+  for (const [end, v] of [
+    ['min', min],
+    ['max', max],
+  ] as const) {
+    if (!(v > limits.min && v < limits.max)) {
+      throw new BridgeworkError(
+        'out-of-range',
+        `\`${param}.${end}\` must be in (${limits.min}, ${limits.max}), ${what}; got ${formatValue(v)}`,
+        { param: `${param}.${end}`, value: v, limit: [limits.min, limits.max] },
+      );
     }
   }
   return { min, max };
@@ -143,9 +131,12 @@ function isStrainSpan(span: Record<string, unknown>): boolean {
  *
  * @param options - Span, excitation and the potential of E−.
  * @returns The points, the arms at zero, the sensitivity and which arms are gauges.
- * @throws {@link @bridgework/core!BridgeworkError} `out-of-range` for a span with max ≤ min or
- *   outside the bridge's strain range; `wrong-type` when `span.bridge` is not a strain bridge;
- *   errors of `solveBridge` for bad arms or excitation.
+ * @throws {@link @bridgework/core!BridgeworkError} `out-of-range` for a span with max ≤ min,
+ *   outside the bridge's strain range (or whose arms leave `OHMS_LIMITS`), a ratio span outside
+ *   (−1, 1), an excitation outside [1e-9, 1e6] V or an E− potential beyond ±1e6 V; `wrong-type`
+ *   when `span.bridge` is not a strain bridge; errors of `solveBridge` for bad arms;
+ *   `unknown-option` for a key it does not know, also inside `span` and its ranges (naming the
+ *   closest), `missing-option` for a required one.
  * @example
  * ```ts
  * const bridge = createStrainBridge({ arrangement: 'quarter', gaugeFactor: 2 });
@@ -157,13 +148,19 @@ function isStrainSpan(span: Record<string, unknown>): boolean {
  * ```
  */
 export function bridgeOperatingPoints(options: OperatingPointsOptions): BridgeOperatingPoints {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['span', 'excitationVolts', 'excitationLowVolts'],
+    required: ['span', 'excitationVolts'],
+  });
   const span = checkObject('span', o['span']);
-  const e = checkPositive('excitationVolts', o['excitationVolts']);
+  const e = checkVolts('excitationVolts', o['excitationVolts']);
   const low =
-    o['excitationLowVolts'] === undefined ? 0 : checkFinite('excitationLowVolts', o['excitationLowVolts']);
+    o['excitationLowVolts'] === undefined
+      ? 0
+      : checkVolts('excitationLowVolts', o['excitationLowVolts'], { signed: true });
 
   if (isStrainSpan(span)) {
+    checkOptions('span', span, { known: ['bridge', 'strainRange'], required: ['bridge', 'strainRange'] });
     const bridge = span['bridge'] as StrainBridge;
     if (typeof bridge !== 'object' || bridge === null || typeof bridge.armsOhms !== 'function') {
       throw new BridgeworkError(
@@ -172,13 +169,32 @@ export function bridgeOperatingPoints(options: OperatingPointsOptions): BridgeOp
         { param: 'span.bridge', value: bridge },
       );
     }
-    const range = checkMeasurandRange('span.strainRange', span['strainRange'], bridge.strainRange);
+    const range = checkMeasurandRange(
+      'span.strainRange',
+      span['strainRange'],
+      bridge.strainRange,
+      "the bridge's strain range",
+    );
     const strains = range.min < 0 && range.max > 0 ? [range.min, 0, range.max] : [range.min, range.max];
-    const points = strains.map((strain): BridgeOperatingPoint => {
+    const points = strains.map((strain, i): BridgeOperatingPoint => {
       // The output from the bridge's exact map (the arms as doubles would lose the small imbalance's
       // low digits); the network state (bridge voltage, arm powers) from solveBridge.
-      const armsOhms = bridge.armsOhms(strain);
-      const s = solveBridge({ armsOhms, excitationVolts: e, sourceOhms: bridge.seriesOhms });
+      const end = i === 0 ? 'min' : i === strains.length - 1 ? 'max' : undefined;
+      const network = () => {
+        const armsOhms = bridge.armsOhms(strain);
+        return { armsOhms, s: solveBridge({ armsOhms, excitationVolts: e, sourceOhms: bridge.seriesOhms }) };
+      };
+      const { armsOhms, s } =
+        end === undefined
+          ? network()
+          : blameOption(
+              {
+                param: `span.strainRange.${end}`,
+                value: strain,
+                requirement: 'must keep every arm a resistance the network accepts',
+              },
+              network,
+            );
       const ratio = bridge.ratioFromStrain(strain);
       return {
         measurand: strain,
@@ -202,8 +218,14 @@ export function bridgeOperatingPoints(options: OperatingPointsOptions): BridgeOp
     };
   }
 
+  checkOptions('span', span, { known: ['armsOhms', 'ratioRange'], required: ['armsOhms', 'ratioRange'] });
   const arms = checkLength<number>('span.armsOhms', span['armsOhms'], 4) as unknown as Arms;
-  const range = checkMeasurandRange('span.ratioRange', span['ratioRange']);
+  const range = checkMeasurandRange(
+    'span.ratioRange',
+    span['ratioRange'],
+    { min: -1, max: 1 },
+    'the ratios a bridge of positive arms can give',
+  );
   const zero = solveBridge({ armsOhms: arms, excitationVolts: e });
   const vcm = commonMode(arms, zero.bridgeVolts, low);
   const ratios = range.min < 0 && range.max > 0 ? [range.min, 0, range.max] : [range.min, range.max];

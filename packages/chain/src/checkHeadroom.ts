@@ -1,7 +1,64 @@
-import { BridgeworkError, checkFinite, checkObject, checkPositive, formatValue } from '@bridgework/core';
+import {
+  BridgeworkError,
+  checkInterval,
+  checkObject,
+  checkOptions,
+  checkVolts,
+  formatValue,
+  type Interval,
+} from '@bridgework/core';
 import type { Adc } from './createAdc.js';
 import type { DesignCheck } from './DesignCheck.js';
-import { checkInterval, type Interval } from '@bridgework/core';
+import { checkGain } from './internal/domain.js';
+import { finiteFigures } from './internal/finiteFigures.js';
+
+const SIGNED = { signed: true } as const;
+const pointKeys = [
+  'differentialVolts',
+  'commonModeVolts',
+  'measurand',
+  'ratio',
+  'armsOhms',
+  'armWatts',
+  'adcCode',
+];
+
+/** An interval of voltages, each end within ±1e6 V. */
+function checkVoltInterval(param: string, value: unknown): Interval {
+  const r = checkInterval(param, value);
+  checkVolts(`${param}.min`, r.min, SIGNED);
+  checkVolts(`${param}.max`, r.max, SIGNED);
+  return r;
+}
+
+/** Validated {@link AmplifierLimits}. */
+interface CheckedLimits {
+  readonly commonMode: Interval | undefined;
+  readonly differential: number | undefined;
+  readonly firstStage: Interval | undefined;
+  readonly output: Interval | undefined;
+}
+
+/** @internal Validates {@link AmplifierLimits} (param: `limits`, or `amplifier.limits` in a budget). */
+export function checkAmplifierLimits(param: string, value: unknown): CheckedLimits {
+  const l =
+    value === undefined
+      ? {}
+      : checkOptions(param, value, {
+          known: ['inputCommonModeVolts', 'inputDifferentialVolts', 'firstStageVolts', 'outputVolts'],
+        });
+  const interval = (key: string) =>
+    l[key] === undefined ? undefined : checkVoltInterval(`${param}.${key}`, l[key]);
+  return {
+    commonMode: interval('inputCommonModeVolts'),
+    differential:
+      l['inputDifferentialVolts'] === undefined
+        ? undefined
+        : checkVolts(`${param}.inputDifferentialVolts`, l['inputDifferentialVolts']),
+    firstStage: interval('firstStageVolts'),
+    output: interval('outputVolts'),
+  };
+}
 
 /** One state of the amplifier input: the bridge output and its common-mode voltage. */
 export interface OperatingPoint {
@@ -144,7 +201,10 @@ const nodeNames: Record<HeadroomLimit, string> = {
  * @returns `{ ok, value, issues }`: every margin and node, and the violated limits.
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-shape` for an empty or non-array
  *   `points`; `not-finite`, `wrong-type` for a bad voltage; `not-positive` for a gain or the
- *   differential limit; `out-of-range` for a range with max < min.
+ *   differential limit; `out-of-range` for a range with max < min, a voltage beyond ±1e6 V or a
+ *   gain outside [1e-9, 1e9]; `unknown-option` for a key it does not know, also inside `limits`
+ *   (naming the closest), `missing-option` without `points` or `gain`. `ok` is false whenever a
+ *   figure is not finite (which the limits above rule out).
  * @example
  * ```ts
  * const r = checkHeadroom({
@@ -158,7 +218,10 @@ const nodeNames: Record<HeadroomLimit, string> = {
  * ```
  */
 export function checkHeadroom(options: HeadroomOptions): DesignCheck<HeadroomValue, HeadroomIssue> {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['points', 'gain', 'secondStageGain', 'outputReferenceVolts', 'limits', 'adc'],
+    required: ['points', 'gain'],
+  });
   const rawPoints = o['points'];
   if (!Array.isArray(rawPoints) || rawPoints.length === 0) {
     throw new BridgeworkError(
@@ -168,34 +231,25 @@ export function checkHeadroom(options: HeadroomOptions): DesignCheck<HeadroomVal
     );
   }
   const points = rawPoints.map((p: unknown, i) => {
-    const r = checkObject(`points[${i}]`, p);
+    // The operating points of bridgeOperatingPoints (and a budget's) carry more fields: they may be
+    // passed as they are; only the two voltages are read.
+    const r = checkOptions(`points[${i}]`, p, {
+      known: pointKeys,
+      required: ['differentialVolts', 'commonModeVolts'],
+    });
     return {
-      differentialVolts: checkFinite(`points[${i}].differentialVolts`, r['differentialVolts']),
-      commonModeVolts: checkFinite(`points[${i}].commonModeVolts`, r['commonModeVolts']),
+      differentialVolts: checkVolts(`points[${i}].differentialVolts`, r['differentialVolts'], SIGNED),
+      commonModeVolts: checkVolts(`points[${i}].commonModeVolts`, r['commonModeVolts'], SIGNED),
     };
   });
-  const gain = checkPositive('gain', o['gain']);
+  const gain = checkGain('gain', o['gain']);
   const secondStageGain =
-    o['secondStageGain'] === undefined ? 1 : checkPositive('secondStageGain', o['secondStageGain']);
+    o['secondStageGain'] === undefined ? 1 : checkGain('secondStageGain', o['secondStageGain']);
   const reference =
     o['outputReferenceVolts'] === undefined
       ? 0
-      : checkFinite('outputReferenceVolts', o['outputReferenceVolts']);
-  const l = o['limits'] === undefined ? {} : checkObject('limits', o['limits']);
-  const commonMode =
-    l['inputCommonModeVolts'] === undefined
-      ? undefined
-      : checkInterval('limits.inputCommonModeVolts', l['inputCommonModeVolts']);
-  const differential =
-    l['inputDifferentialVolts'] === undefined
-      ? undefined
-      : checkPositive('limits.inputDifferentialVolts', l['inputDifferentialVolts']);
-  const firstStage =
-    l['firstStageVolts'] === undefined
-      ? undefined
-      : checkInterval('limits.firstStageVolts', l['firstStageVolts']);
-  const output =
-    l['outputVolts'] === undefined ? undefined : checkInterval('limits.outputVolts', l['outputVolts']);
+      : checkVolts('outputReferenceVolts', o['outputReferenceVolts'], SIGNED);
+  const { commonMode, differential, firstStage, output } = checkAmplifierLimits('limits', o['limits']);
   const adc = o['adc'] === undefined ? undefined : checkAdc(o['adc']);
   const quantizerGain = adc === undefined ? gain : adc.gain;
   const firstStageGain = gain / secondStageGain;
@@ -291,7 +345,8 @@ export function checkHeadroom(options: HeadroomOptions): DesignCheck<HeadroomVal
       ...m,
       message: `${nodeNames[m.limit]}: ${formatVolts(m.nodeVolts)} against ${formatVolts(m.limitVolts)} at point ${m.pointIndex} (margin ${formatVolts(m.marginVolts)})`,
     }));
-  return { ok: issues.length === 0, value: { margins, nodes, firstStageGain }, issues };
+  const value = { margins, nodes, firstStageGain };
+  return { ok: issues.length === 0 && finiteFigures(value), value, issues };
 }
 
 function checkAdc(value: unknown): Adc {

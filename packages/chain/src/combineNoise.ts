@@ -1,4 +1,11 @@
-import { BridgeworkError, checkFinite, checkNonNegative, formatValue } from '@bridgework/core';
+import {
+  BridgeworkError,
+  checkFinite,
+  checkFiniteResult,
+  checkNonNegative,
+  checkOptions,
+  formatValue,
+} from '@bridgework/core';
 
 /** One uncorrelated noise contribution, in any unit shared by all the terms (V rms, V/√Hz, …). */
 export interface NoiseTerm {
@@ -36,8 +43,10 @@ export interface NoiseCombination {
  * @param terms - The contributions; an empty list gives a total of 0.
  * @returns The total and each term's fraction of the total power.
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-shape` when `terms` is not an array;
- *   `wrong-type` for a name that is not a string; `negative`, `not-finite` or `wrong-type` for a
- *   value.
+ *   `wrong-type` for a name that is not a string or a term that is not an object; `negative`,
+ *   `not-finite` or `wrong-type` for a value; `out-of-range` when the root-sum-square exceeds
+ *   binary64; `unknown-option` for a key other than `name` and `value` (naming the closest),
+ *   `missing-option` for a term without one.
  * @example
  * ```ts
  * combineNoise([
@@ -54,13 +63,7 @@ export function combineNoise(terms: readonly NoiseTerm[]): NoiseCombination {
     });
   }
   const checked = terms.map((t: unknown, i) => {
-    if (typeof t !== 'object' || t === null) {
-      throw new BridgeworkError('wrong-type', `\`terms[${i}]\` must be an object; got ${formatValue(t)}`, {
-        param: `terms[${i}]`,
-        value: t,
-      });
-    }
-    const r = t as Record<string, unknown>;
+    const r = checkOptions(`terms[${i}]`, t, { known: ['name', 'value'], required: ['name', 'value'] });
     if (typeof r['name'] !== 'string') {
       throw new BridgeworkError(
         'wrong-type',
@@ -77,7 +80,11 @@ export function combineNoise(terms: readonly NoiseTerm[]): NoiseCombination {
   }
   const sumOfSquares = checked.reduce((s, t) => s + (t.value / scale) ** 2, 0);
   return {
-    total: scale * Math.sqrt(sumOfSquares),
+    total: checkFiniteResult(scale * Math.sqrt(sumOfSquares), {
+      what: 'the root-sum-square',
+      param: 'terms',
+      value: terms,
+    }),
     terms: checked.map((t) => ({ ...t, fractionOfPower: (t.value / scale) ** 2 / sumOfSquares })),
   };
 }

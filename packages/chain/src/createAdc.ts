@@ -1,4 +1,5 @@
-import { checkFinite, checkInteger, checkObject, checkPositive } from '@bridgework/core';
+import { checkFinite, checkInteger, checkOptions, checkVolts } from '@bridgework/core';
+import { checkGain } from './internal/domain.js';
 import { checkBoolean } from './internal/checkBoolean.js';
 import { signOfProductDifference } from './internal/exact.js';
 import { roundHalfEven } from './internal/rounding.js';
@@ -9,12 +10,12 @@ import type { Interval } from '@bridgework/core';
 export interface AdcOptions {
   /** Resolution N in bits, an integer in [1, 32]. */
   readonly bits: number;
-  /** Reference voltage in V (> 0). In ratiometric use, the nominal value of the excitation used as reference. */
+  /** Reference voltage in V, in [1e-9, 1e6]. In ratiometric use, the nominal value of the excitation used as reference. */
   readonly referenceVolts: number;
   /** Bipolar (two's complement, ±full scale) or unipolar (straight binary, 0 to full scale). Default true. */
   readonly bipolar?: boolean;
   /**
-   * The analog gain in front of the quantizer (> 0): a programmable-gain amplifier inside the
+   * The analog gain in front of the quantizer, in [1e-9, 1e9]: a programmable-gain amplifier inside the
    * converter, or the whole front-end gain. Every input-referred figure divides by it. Default 1.
    */
   readonly gain?: number;
@@ -190,8 +191,10 @@ function nearestInteger(a: number, b: number, den: number): number {
  * @param options - Bits, reference, polarity, gain, ratiometric.
  * @returns The converter; a {@link RatiometricAdc} when `ratiometric` is true.
  * @throws {@link @bridgework/core!BridgeworkError} `not-integer` or `out-of-range` for bits outside
- *   [1, 32]; `not-positive`, `not-finite`, `wrong-type` for the reference or gain; `wrong-type` for
- *   non-boolean flags.
+ *   [1, 32]; `not-positive`, `not-finite`, `wrong-type` for the reference or gain, `out-of-range`
+ *   for a reference outside [1e-9, 1e6] V or a gain outside [1e-9, 1e9]; `wrong-type` for
+ *   non-boolean flags; `unknown-option` for a key it does not know (naming the closest),
+ *   `missing-option` without `bits` or `referenceVolts`.
  * @example
  * ```ts
  * const adc = createAdc({ bits: 24, referenceVolts: 2.5, gain: 128, ratiometric: true });
@@ -217,11 +220,14 @@ export function createAdc(options: AdcOptions & { readonly ratiometric: true }):
  */
 export function createAdc(options: AdcOptions): Adc | RatiometricAdc;
 export function createAdc(options: AdcOptions): Adc | RatiometricAdc {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['bits', 'referenceVolts', 'bipolar', 'gain', 'ratiometric'],
+    required: ['bits', 'referenceVolts'],
+  });
   const bits = checkInteger('bits', o['bits'], { min: 1, max: 32 });
-  const referenceVolts = checkPositive('referenceVolts', o['referenceVolts']);
+  const referenceVolts = checkVolts('referenceVolts', o['referenceVolts']);
   const bipolar = checkBoolean('bipolar', o['bipolar'], true);
-  const gain = o['gain'] === undefined ? 1 : checkPositive('gain', o['gain']);
+  const gain = o['gain'] === undefined ? 1 : checkGain('gain', o['gain']);
   const ratiometric = checkBoolean('ratiometric', o['ratiometric'], false);
 
   const codeScale = bipolar ? 2 ** (bits - 1) : 2 ** bits;

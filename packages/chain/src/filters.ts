@@ -1,14 +1,15 @@
 import {
   BridgeworkError,
-  checkFinite,
   checkInteger,
   checkLength,
   checkNonNegative,
   checkObject,
   checkOneOf,
-  checkPositive,
+  checkOptions,
+  checkRange,
   formatValue,
 } from '@bridgework/core';
+import { FREQUENCY_LIMITS_HERTZ, checkHertz } from './internal/domain.js';
 import { gaussLegendre } from './internal/quadrature.js';
 import { sincBandwidthFactor, sincGain, sinPi } from './internal/sinc.js';
 
@@ -16,7 +17,7 @@ import { sincBandwidthFactor, sincGain, sinPi } from './internal/sinc.js';
 export interface SinglePoleFilter {
   /** Discriminant. */
   readonly kind: 'single-pole';
-  /** The −3 dB (pole) frequency fc in Hz (> 0). */
+  /** The −3 dB (pole) frequency fc in Hz, in [1e-9, 1e12]. */
   readonly cutoffHertz: number;
 }
 
@@ -24,7 +25,7 @@ export interface SinglePoleFilter {
 export interface ButterworthFilter {
   /** Discriminant. */
   readonly kind: 'butterworth';
-  /** The −3 dB frequency fc in Hz (> 0). */
+  /** The −3 dB frequency fc in Hz, in [1e-9, 1e12]. */
   readonly cutoffHertz: number;
   /** The order n, an integer in [1, 10]. Default 2. */
   readonly order?: number;
@@ -34,7 +35,7 @@ export interface ButterworthFilter {
 export interface TwoRealPolesFilter {
   /** Discriminant. */
   readonly kind: 'two-real-poles';
-  /** The two pole frequencies [f1, f2] in Hz (each > 0; equal poles allowed). */
+  /** The two pole frequencies [f1, f2] in Hz (each in [1e-9, 1e12]; equal poles allowed). */
   readonly poleHertz: readonly [number, number];
 }
 
@@ -42,7 +43,7 @@ export interface TwoRealPolesFilter {
 export interface BrickWallFilter {
   /** Discriminant. */
   readonly kind: 'brick-wall';
-  /** The cut-off frequency fc in Hz (> 0). */
+  /** The cut-off frequency fc in Hz, in [1e-9, 1e12]. */
   readonly cutoffHertz: number;
 }
 
@@ -55,7 +56,7 @@ export interface SincFilter {
   readonly kind: 'sinc';
   /** The order k, an integer in [1, 5]. */
   readonly order: number;
-  /** The output data rate f_ODR in Hz (> 0); the first null of the response lies at f_ODR. */
+  /** The output data rate f_ODR in Hz, in [1e-9, 1e12]; the first null of the response lies at f_ODR. */
   readonly dataRateHertz: number;
   /**
    * The decimation ratio N (an integer in [1, 2^24]; modulator rate = N·f_ODR). Default: the continuous limit
@@ -91,35 +92,43 @@ export type CheckedFilter =
     };
 
 /** @internal Validates a filter description; a single pole is a first-order Butterworth. */
+const filterKeys: Readonly<Record<NoiseFilter['kind'], { known: string[]; required: string[] }>> = {
+  'single-pole': { known: ['kind', 'cutoffHertz'], required: ['cutoffHertz'] },
+  butterworth: { known: ['kind', 'cutoffHertz', 'order'], required: ['cutoffHertz'] },
+  'two-real-poles': { known: ['kind', 'poleHertz'], required: ['poleHertz'] },
+  'brick-wall': { known: ['kind', 'cutoffHertz'], required: ['cutoffHertz'] },
+  sinc: { known: ['kind', 'order', 'dataRateHertz', 'decimation'], required: ['order', 'dataRateHertz'] },
+};
+
 export function checkFilter(param: string, value: unknown): CheckedFilter {
-  const o = checkObject(param, value);
-  const kind = checkOneOf(`${param}.kind`, o['kind'], noiseFilterKinds);
+  const kind = checkOneOf(`${param}.kind`, checkObject(param, value)['kind'], noiseFilterKinds);
+  const o = checkOptions(param, value, filterKeys[kind]);
   switch (kind) {
     case 'single-pole':
       return {
         kind: 'butterworth',
-        cutoffHertz: checkPositive(`${param}.cutoffHertz`, o['cutoffHertz']),
+        cutoffHertz: checkHertz(`${param}.cutoffHertz`, o['cutoffHertz']),
         order: 1,
       };
     case 'butterworth':
       return {
         kind,
-        cutoffHertz: checkPositive(`${param}.cutoffHertz`, o['cutoffHertz']),
+        cutoffHertz: checkHertz(`${param}.cutoffHertz`, o['cutoffHertz']),
         order: o['order'] === undefined ? 2 : checkInteger(`${param}.order`, o['order'], { min: 1, max: 10 }),
       };
     case 'two-real-poles': {
       const poles = checkLength<unknown>(`${param}.poleHertz`, o['poleHertz'], 2);
-      const f1 = checkPositive(`${param}.poleHertz[0]`, poles[0]);
-      const f2 = checkPositive(`${param}.poleHertz[1]`, poles[1]);
+      const f1 = checkHertz(`${param}.poleHertz[0]`, poles[0]);
+      const f2 = checkHertz(`${param}.poleHertz[1]`, poles[1]);
       return { kind, low: Math.min(f1, f2), high: Math.max(f1, f2) };
     }
     case 'brick-wall':
-      return { kind, cutoffHertz: checkPositive(`${param}.cutoffHertz`, o['cutoffHertz']) };
+      return { kind, cutoffHertz: checkHertz(`${param}.cutoffHertz`, o['cutoffHertz']) };
     case 'sinc':
       return {
         kind,
         order: checkInteger(`${param}.order`, o['order'], { min: 1, max: 5 }),
-        dataRateHertz: checkPositive(`${param}.dataRateHertz`, o['dataRateHertz']),
+        dataRateHertz: checkHertz(`${param}.dataRateHertz`, o['dataRateHertz']),
         decimation:
           o['decimation'] === undefined
             ? undefined
@@ -258,8 +267,10 @@ export function flickerFactorOf(f: CheckedFilter, lowHertz: number): number {
  * @param filter - The filter (see {@link NoiseFilter}).
  * @returns ENBW in Hz.
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for an unknown kind;
- *   `not-positive`, `not-finite`, `wrong-type` for a bad frequency; `not-integer` or
- *   `out-of-range` for a bad order or decimation; `invalid-shape` for `poleHertz` not of length 2.
+ *   `not-positive`, `not-finite`, `wrong-type` for a bad frequency, `out-of-range` for one
+ *   outside [1e-9, 1e12] Hz; `not-integer` or `out-of-range` for a bad order or decimation;
+ *   `invalid-shape` for `poleHertz` not of length 2; `unknown-option` for a key the filter's kind
+ *   does not have (naming the closest), `missing-option` for one it needs.
  * @example
  * ```ts
  * noiseBandwidth({ kind: 'single-pole', cutoffHertz: 10 }); // 15.707963267948966
@@ -281,10 +292,10 @@ export function noiseBandwidth(filter: NoiseFilter): number {
  * exactly 0. Negative frequencies give the same value as positive ones.
  *
  * @param filter - The filter.
- * @param frequencyHertz - Frequency in Hz (finite).
+ * @param frequencyHertz - Frequency in Hz, within ±1e12.
  * @returns |H(f)|, dimensionless in [0, 1].
  * @throws {@link @bridgework/core!BridgeworkError} as {@link noiseBandwidth}; `not-finite` or
- *   `wrong-type` for a bad frequency.
+ *   `wrong-type` for a bad frequency, `out-of-range` for one beyond ±1e12 Hz.
  * @example
  * ```ts
  * filterGain({ kind: 'single-pole', cutoffHertz: 10 }, 10); // 0.7071067811865475
@@ -293,7 +304,8 @@ export function noiseBandwidth(filter: NoiseFilter): number {
  */
 export function filterGain(filter: NoiseFilter, frequencyHertz: number): number {
   const f = checkFilter('filter', filter);
-  return gainOf(f, checkFinite('frequencyHertz', frequencyHertz));
+  const limit = FREQUENCY_LIMITS_HERTZ.max;
+  return gainOf(f, checkRange('frequencyHertz', frequencyHertz, { min: -limit, max: limit }));
 }
 
 /**
@@ -305,7 +317,7 @@ export function filterGain(filter: NoiseFilter, frequencyHertz: number): number 
  * mains hum; see {@link mainsRejection} for the worst case over a band around it.
  *
  * @param filter - The filter.
- * @param frequencyHertz - Frequency in Hz (finite).
+ * @param frequencyHertz - Frequency in Hz, within ±1e12.
  * @returns Attenuation in dB (≥ 0; `Infinity` at a null).
  * @throws {@link @bridgework/core!BridgeworkError} as {@link filterGain}.
  * @example
@@ -331,13 +343,19 @@ export interface MainsRejectionOptions {
 export interface MainsRejection {
   /** Attenuation at the nominal frequency in dB (`Infinity` at an exact null). */
   readonly nominalDecibels: number;
-  /** The smallest attenuation anywhere in [f − δ, f + δ], in dB: the guaranteed rejection. */
+  /**
+   * The smallest attenuation anywhere in [f − δ, f + δ], in dB: the guaranteed rejection
+   * (`Infinity` only when δ is 0, or below the spacing of doubles at f, and f is an exact null).
+   */
   readonly worstDecibels: number;
   /** Where in the band the smallest attenuation occurs, in Hz. */
   readonly worstFrequencyHertz: number;
 }
 
 const GOLDEN = (Math.sqrt(5) - 1) / 2;
+
+/** The most pieces (spans between the nulls of a sinc filter) {@link mainsRejection} searches. */
+const MAX_BAND_PIECES = 100_000;
 
 /** Maximum of a unimodal g on [a, b] by golden-section search (to 1e-12 relative in f), endpoints included. */
 function maxOnPiece(g: (f: number) => number, a: number, b: number): [number, number] {
@@ -390,7 +408,9 @@ function maxOnPiece(g: (f: number) => number, a: number, b: number): [number, nu
  * @param options - Filter, nominal mains frequency and band half-width.
  * @returns Nominal and worst-case attenuation in dB and where the worst case lies.
  * @throws {@link @bridgework/core!BridgeworkError} as {@link noiseBandwidth}; `not-positive` for
- *   the mains frequency; `negative` for δ; `out-of-range` when δ ≥ the mains frequency.
+ *   the mains frequency; `negative` for δ; `out-of-range` when δ ≥ the mains frequency, for a
+ *   mains frequency outside [1e-9, 1e12] Hz, or when the band spans more than 100 000 nulls of a
+ *   sinc filter (the search is bounded); `unknown-option`, `missing-option`.
  * @example
  * ```ts
  * mainsRejection({ filter: { kind: 'sinc', order: 3, dataRateHertz: 10 }, mainsHertz: 50 });
@@ -398,9 +418,12 @@ function maxOnPiece(g: (f: number) => number, a: number, b: number): [number, nu
  * ```
  */
 export function mainsRejection(options: MainsRejectionOptions): MainsRejection {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['filter', 'mainsHertz', 'deviationHertz'],
+    required: ['filter', 'mainsHertz'],
+  });
   const filter = checkFilter('filter', o['filter']);
-  const mains = checkPositive('mainsHertz', o['mainsHertz']);
+  const mains = checkHertz('mainsHertz', o['mainsHertz']);
   const delta =
     o['deviationHertz'] === undefined ? 1 : checkNonNegative('deviationHertz', o['deviationHertz']);
   if (!(delta < mains)) {
@@ -416,6 +439,14 @@ export function mainsRejection(options: MainsRejectionOptions): MainsRejection {
   let worst: [number, number] = [lo, g(lo)];
   if (filter.kind === 'sinc') {
     const step = filter.dataRateHertz;
+    const pieces = Math.floor(hi / step) - Math.floor(lo / step) + 1;
+    if (pieces > MAX_BAND_PIECES) {
+      throw new BridgeworkError(
+        'out-of-range',
+        `\`deviationHertz\` must span at most ${MAX_BAND_PIECES} nulls of the filter (one every ${formatValue(step)} Hz); got ${formatValue(delta)} (${pieces} pieces): narrow the band or raise filter.dataRateHertz`,
+        { param: 'deviationHertz', value: delta, limit: MAX_BAND_PIECES * step },
+      );
+    }
     const cuts = [lo];
     for (let n = Math.floor(lo / step) + 1; n * step < hi; n++) cuts.push(n * step);
     cuts.push(hi);

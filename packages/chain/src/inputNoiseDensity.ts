@@ -1,19 +1,25 @@
-import { checkNonNegative, checkObject, checkPositive } from '@bridgework/core';
+import { checkOptions } from '@bridgework/core';
 import { checkSpectrum } from './bandNoise.js';
-import { bridgeNoiseSource, type BridgeNoiseOptions, type BridgeNoiseSource } from './bridgeNoiseSource.js';
+import { checkDensity, checkGain, checkHertz } from './internal/domain.js';
+import {
+  bridgeNoiseKeys,
+  bridgeNoiseSource,
+  type BridgeNoiseOptions,
+  type BridgeNoiseSource,
+} from './bridgeNoiseSource.js';
 import { combineNoise, type NoiseShare } from './combineNoise.js';
 
 /** Noise of a differential amplifier (in-amp or PGA), as its data sheet specifies it. */
 export interface AmplifierNoiseOptions {
-  /** Input voltage noise density (white floor) in V/√Hz (≥ 0). Default 0. */
+  /** Input voltage noise density (white floor) in V/√Hz, in [0, 1]. Default 0. */
   readonly inputVoltageNoiseVoltsPerRootHz?: number;
-  /** 1/f corner of the input voltage noise in Hz (≥ 0; 0 for a chopper-stabilised amplifier). Default 0. */
+  /** 1/f corner of the input voltage noise in Hz, in [0, 1e12] (0 for a chopper-stabilised amplifier). Default 0. */
   readonly voltageCornerHertz?: number;
-  /** Input current noise density of each input (white floor) in A/√Hz (≥ 0). Default 0. */
+  /** Input current noise density of each input (white floor) in A/√Hz, in [0, 1]. Default 0. */
   readonly currentNoiseAmpsPerRootHz?: number;
-  /** 1/f corner of the current noise in Hz (≥ 0). Default 0. */
+  /** 1/f corner of the current noise in Hz, in [0, 1e12]. Default 0. */
   readonly currentCornerHertz?: number;
-  /** Output voltage noise density in V/√Hz (≥ 0), white; referred to the input by dividing by the gain. Default 0. */
+  /** Output voltage noise density in V/√Hz, in [0, 1], white; referred to the input by dividing by the gain. Default 0. */
   readonly outputVoltageNoiseVoltsPerRootHz?: number;
 }
 
@@ -21,9 +27,9 @@ export interface AmplifierNoiseOptions {
 export interface InputNoiseOptions extends BridgeNoiseOptions {
   /** The amplifier's noise. Default: a noiseless amplifier (bridge thermal noise only). */
   readonly amplifier?: AmplifierNoiseOptions;
-  /** Amplifier gain (> 0), to refer its output noise to the input. Default 1. */
+  /** Amplifier gain, in [1e-9, 1e9], to refer its output noise to the input. Default 1. */
   readonly gain?: number;
-  /** Frequency in Hz (> 0) at which 1/f terms are evaluated. Default: the white floors (f → ∞). */
+  /** Frequency in Hz, in [1e-9, 1e12], at which 1/f terms are evaluated. Default: the white floors (f → ∞). */
   readonly frequencyHertz?: number;
 }
 
@@ -62,19 +68,35 @@ export interface CheckedAmplifierNoise {
   readonly output: number;
 }
 
-/** @internal Validates amplifier noise options (param prefix e.g. `amplifier.`). */
-export function checkAmplifierNoise(prefix: string, value: unknown): CheckedAmplifierNoise {
-  const o = value === undefined ? {} : checkObject(prefix.replace(/\.$/, ''), value);
+/** The keys of {@link AmplifierNoiseOptions}. */
+export const amplifierNoiseKeys = [
+  'inputVoltageNoiseVoltsPerRootHz',
+  'voltageCornerHertz',
+  'currentNoiseAmpsPerRootHz',
+  'currentCornerHertz',
+  'outputVoltageNoiseVoltsPerRootHz',
+];
+
+/**
+ * @internal Validates amplifier noise options (param prefix e.g. `amplifier.`); `extraKeys` are the
+ * other keys the caller's amplifier object may hold (a budget's topology and limits).
+ */
+export function checkAmplifierNoise(
+  prefix: string,
+  value: unknown,
+  extraKeys: readonly string[] = [],
+): CheckedAmplifierNoise {
+  const o =
+    value === undefined
+      ? {}
+      : checkOptions(prefix.replace(/\.$/, ''), value, { known: [...amplifierNoiseKeys, ...extraKeys] });
   return {
     voltage: checkSpectrum(prefix, o, 'inputVoltageNoiseVoltsPerRootHz', 'voltageCornerHertz'),
     current: checkSpectrum(prefix, o, 'currentNoiseAmpsPerRootHz', 'currentCornerHertz'),
     output:
       o['outputVoltageNoiseVoltsPerRootHz'] === undefined
         ? 0
-        : checkNonNegative(
-            `${prefix}outputVoltageNoiseVoltsPerRootHz`,
-            o['outputVoltageNoiseVoltsPerRootHz'],
-          ),
+        : checkDensity(`${prefix}outputVoltageNoiseVoltsPerRootHz`, o['outputVoltageNoiseVoltsPerRootHz']),
   };
 }
 
@@ -115,7 +137,11 @@ export function frontEndSpectra(
  * @param options - Bridge, amplifier noise, gain and frequency.
  * @returns The total density and each term.
  * @throws {@link @bridgework/core!BridgeworkError} as {@link bridgeNoiseSource}; `negative`,
- *   `not-finite`, `wrong-type` for a noise figure; `not-positive` for the gain or frequency.
+ *   `not-finite`, `wrong-type` for a noise figure; `not-positive` for the gain or frequency;
+ *   `out-of-range` for a density above 1 per √Hz, a corner above 1e12 Hz, a gain outside
+ *   [1e-9, 1e9] or a frequency outside [1e-9, 1e12] Hz; `unknown-option` for a key it does not
+ *   know, also inside `amplifier` (naming the closest: a misspelt amplifier field is refused, never
+ *   dropped), `missing-option` without `armsOhms`.
  * @example
  * ```ts
  * inputNoiseDensity({
@@ -125,12 +151,15 @@ export function frontEndSpectra(
  * ```
  */
 export function inputNoiseDensity(options: InputNoiseOptions): InputNoiseDensity {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: [...bridgeNoiseKeys, 'amplifier', 'gain', 'frequencyHertz'],
+    required: ['armsOhms'],
+  });
   const amp = checkAmplifierNoise('amplifier.', o['amplifier']);
-  const gain = o['gain'] === undefined ? 1 : checkPositive('gain', o['gain']);
-  const f =
-    o['frequencyHertz'] === undefined ? Infinity : checkPositive('frequencyHertz', o['frequencyHertz']);
-  const bridge = bridgeNoiseSource(options);
+  const gain = o['gain'] === undefined ? 1 : checkGain('gain', o['gain']);
+  const f = o['frequencyHertz'] === undefined ? Infinity : checkHertz('frequencyHertz', o['frequencyHertz']);
+  const { amplifier: _amplifier, gain: _gain, frequencyHertz: _frequency, ...bridgeOptions } = o;
+  const bridge = bridgeNoiseSource(bridgeOptions as unknown as BridgeNoiseOptions);
   const spectra = frontEndSpectra(bridge, amp, gain);
   const combined = combineNoise(
     spectra.map((s) => ({

@@ -1,14 +1,14 @@
 import {
   BOLTZMANN_JOULES_PER_KELVIN,
-  checkNonNegative,
-  checkObject,
+  checkOhms,
+  checkOptions,
   checkRange,
   kelvinFromCelsius,
 } from '@bridgework/core';
 
 /** Options of {@link johnsonNoiseDensity}. */
 export interface JohnsonNoiseOptions {
-  /** Resistance in Ω (≥ 0; 0 gives 0). */
+  /** Resistance in Ω, in [0, 1e15] (0 gives 0). */
   readonly ohms: number;
   /** Temperature of the resistor in °C (> −273.15). Default 25. */
   readonly temperatureCelsius?: number;
@@ -34,7 +34,9 @@ export function checkTemperature(param: string, value: unknown): number {
  * @param options - Resistance and temperature.
  * @returns Noise density in V/√Hz.
  * @throws {@link @bridgework/core!BridgeworkError} `negative`, `not-finite` or `wrong-type` for
- *   the resistance; `out-of-range` for a temperature at or below −273.15 °C.
+ *   the resistance, `out-of-range` for one above 1e15 Ω; `out-of-range` for a temperature at or
+ *   below −273.15 °C; `unknown-option` for a key it does not know (naming the closest),
+ *   `missing-option` without `ohms`.
  * @example
  * ```ts
  * johnsonNoiseDensity({ ohms: 350 }); // 2.40062…e-9 (2.40062 nV/√Hz at 25 °C)
@@ -42,8 +44,8 @@ export function checkTemperature(param: string, value: unknown): number {
  * ```
  */
 export function johnsonNoiseDensity(options: JohnsonNoiseOptions): number {
-  const o = checkObject('options', options);
-  const ohms = checkNonNegative('ohms', o['ohms']);
+  const o = checkOptions('options', options, { known: ['ohms', 'temperatureCelsius'], required: ['ohms'] });
+  const ohms = checkOhms('ohms', o['ohms'], { allowZero: true });
   const kelvin = kelvinFromCelsius(checkTemperature('temperatureCelsius', o['temperatureCelsius']));
   return Math.sqrt(4 * BOLTZMANN_JOULES_PER_KELVIN * kelvin * ohms);
 }

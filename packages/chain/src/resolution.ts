@@ -1,4 +1,4 @@
-import { checkFinite, checkInteger, checkObject, checkPositive } from '@bridgework/core';
+import { checkFinite, checkInteger, checkOptions, checkPositive } from '@bridgework/core';
 
 /**
  * Peak-to-peak noise per rms noise, 6.6: the common-practice factor for "noise-free" resolution.
@@ -72,16 +72,26 @@ export interface NoiseResolutionOptions {
   readonly peakToPeakFactor?: number;
 }
 
-function ratioOf(options: NoiseResolutionOptions): {
-  range: number;
-  noise: number;
-  o: Record<string, unknown>;
-} {
-  const o = checkObject('options', options);
+/** log2(range/(noise·factor)) for positive finite values, without overflow or underflow on the way. */
+function log2Ratio(range: number, noise: number, factor: number): number {
+  const ratio = range / (noise * factor);
+  if (Number.isFinite(ratio) && ratio >= Number.MIN_VALUE * 2 ** 52) return Math.log2(ratio);
+  return Math.log2(range) - Math.log2(noise) - Math.log2(factor);
+}
+
+function read(
+  options: NoiseResolutionOptions,
+  withFactor: boolean,
+): { range: number; noise: number; factor: number } {
+  const known = ['noiseRmsVolts', 'fullScaleRangeVolts', ...(withFactor ? ['peakToPeakFactor'] : [])];
+  const o = checkOptions('options', options, { known, required: ['noiseRmsVolts', 'fullScaleRangeVolts'] });
   return {
     range: checkPositive('fullScaleRangeVolts', o['fullScaleRangeVolts']),
     noise: checkPositive('noiseRmsVolts', o['noiseRmsVolts']),
-    o,
+    factor:
+      o['peakToPeakFactor'] === undefined
+        ? PEAK_TO_PEAK_PER_RMS
+        : checkPositive('peakToPeakFactor', o['peakToPeakFactor']),
   };
 }
 
@@ -95,15 +105,16 @@ function ratioOf(options: NoiseResolutionOptions): {
  *
  * @param options - rms noise and full-scale range.
  * @returns ENOB in bits (may exceed the converter's bits when σ < q/√12, or be negative).
- * @throws {@link @bridgework/core!BridgeworkError} `not-positive`, `not-finite`, `wrong-type`.
+ * @throws {@link @bridgework/core!BridgeworkError} `not-positive`, `not-finite`, `wrong-type`;
+ *   `unknown-option` for a key it does not know (naming the closest), `missing-option`.
  * @example
  * ```ts
  * effectiveBits({ noiseRmsVolts: 1e-6, fullScaleRangeVolts: 5 }); // 20.4…
  * ```
  */
 export function effectiveBits(options: NoiseResolutionOptions): number {
-  const { range, noise } = ratioOf(options);
-  return Math.log2(range / (noise * Math.sqrt(12)));
+  const { range, noise } = read(options, false);
+  return log2Ratio(range, noise, Math.sqrt(12));
 }
 
 /**
@@ -112,15 +123,16 @@ export function effectiveBits(options: NoiseResolutionOptions): number {
  *
  * @param options - rms noise and full-scale range.
  * @returns Effective resolution in bits.
- * @throws {@link @bridgework/core!BridgeworkError} `not-positive`, `not-finite`, `wrong-type`.
+ * @throws {@link @bridgework/core!BridgeworkError} `not-positive`, `not-finite`, `wrong-type`;
+ *   `unknown-option` for a key it does not know (naming the closest), `missing-option`.
  * @example
  * ```ts
  * effectiveResolutionBits({ noiseRmsVolts: 1e-6, fullScaleRangeVolts: 5 }); // 22.25…
  * ```
  */
 export function effectiveResolutionBits(options: NoiseResolutionOptions): number {
-  const { range, noise } = ratioOf(options);
-  return Math.log2(range / noise);
+  const { range, noise } = read(options, false);
+  return log2Ratio(range, noise, 1);
 }
 
 /**
@@ -129,17 +141,14 @@ export function effectiveResolutionBits(options: NoiseResolutionOptions): number
  *
  * @param options - rms noise, full-scale range and optionally the peak-to-peak factor.
  * @returns Noise-free bits.
- * @throws {@link @bridgework/core!BridgeworkError} `not-positive`, `not-finite`, `wrong-type`.
+ * @throws {@link @bridgework/core!BridgeworkError} `not-positive`, `not-finite`, `wrong-type`;
+ *   `unknown-option` for a key it does not know (naming the closest), `missing-option`.
  * @example
  * ```ts
  * noiseFreeBits({ noiseRmsVolts: 1e-6, fullScaleRangeVolts: 5 }); // 19.53…
  * ```
  */
 export function noiseFreeBits(options: NoiseResolutionOptions): number {
-  const { range, noise, o } = ratioOf(options);
-  const factor =
-    o['peakToPeakFactor'] === undefined
-      ? PEAK_TO_PEAK_PER_RMS
-      : checkPositive('peakToPeakFactor', o['peakToPeakFactor']);
-  return Math.log2(range / (factor * noise));
+  const { range, noise, factor } = read(options, true);
+  return log2Ratio(range, noise, factor);
 }

@@ -1,9 +1,11 @@
 import {
   BridgeworkError,
-  checkFinite,
   checkInteger,
-  checkObject,
-  checkPositive,
+  checkLength,
+  checkOhms,
+  checkOptions,
+  checkRange,
+  checkVolts,
   formatValue,
   microstrainFromStrain,
 } from '@bridgework/core';
@@ -15,6 +17,7 @@ import {
   type BridgeSpan,
 } from './bridgeOperatingPoints.js';
 import {
+  checkAmplifierLimits,
   checkHeadroom,
   type AmplifierLimits,
   type HeadroomIssue,
@@ -26,6 +29,11 @@ import type { DesignCheck } from './DesignCheck.js';
 import type { Interval } from '@bridgework/core';
 import { bandwidthOf, checkFilter, type NoiseFilter } from './filters.js';
 import { checkAmplifierNoise, frontEndSpectra, type AmplifierNoiseOptions } from './inputNoiseDensity.js';
+import { checkGain, checkHertz, checkNoiseRmsVolts } from './internal/domain.js';
+import { finiteFigures } from './internal/finiteFigures.js';
+
+/** The keys a budget's `amplifier` holds besides its noise. */
+const amplifierTopologyKeys = ['secondStageGain', 'outputReferenceVolts', 'inputSeriesOhms', 'limits'];
 import { checkBoolean } from './internal/checkBoolean.js';
 import { checkTemperature } from './johnsonNoiseDensity.js';
 import { PEAK_TO_PEAK_PER_RMS } from './resolution.js';
@@ -186,7 +194,11 @@ export type BudgetIssue = HeadroomIssue | SelfHeatingIssue;
 export interface BudgetContext {
   readonly operating: ReturnType<typeof bridgeOperatingPoints>;
   readonly excitationVolts: number;
-  readonly amplifier: Record<string, unknown>;
+  readonly topology: {
+    readonly secondStageGain: number;
+    readonly outputReferenceVolts: number;
+    readonly limits: ReturnType<typeof checkAmplifierLimits>;
+  };
   readonly adc: { bits: number; referenceVolts: number; bipolar: boolean | undefined; ratiometric: boolean };
   readonly adcNoise: number | ((gain: number) => number) | undefined;
   readonly bridgeNoise: ReturnType<typeof bridgeNoiseSource>;
@@ -197,9 +209,33 @@ export interface BudgetContext {
 }
 
 /** @internal Validates everything but the gain, and integrates the gain-independent noise once. */
-export function budgetContext(options: Omit<ResolutionBudgetOptions, 'gain'>): BudgetContext {
-  const o = checkObject('options', options);
-  const excitationVolts = checkPositive('excitationVolts', o['excitationVolts']);
+/** The keys of a budget's options, without the gain (`gain` or `gains`). */
+const budgetKeys = [
+  'span',
+  'excitationVolts',
+  'excitationLowVolts',
+  'temperatureCelsius',
+  'amplifier',
+  'adc',
+  'filter',
+  'lowHertz',
+  'peakToPeakFactor',
+  'selfHeating',
+];
+
+/** Peak-to-peak per rms factors accepted (common practice uses 6 to 8). */
+const PEAK_TO_PEAK_LIMITS = { min: 1, max: 100 } as const;
+
+/** @internal Validates everything but the gain (`gainKey`), and integrates the gain-independent noise once. */
+export function budgetContext(
+  options: Omit<ResolutionBudgetOptions, 'gain'>,
+  gainKey: string,
+): BudgetContext {
+  const o = checkOptions('options', options, {
+    known: [...budgetKeys, gainKey],
+    required: ['span', 'excitationVolts', 'adc', 'filter', gainKey],
+  });
+  const excitationVolts = checkVolts('excitationVolts', o['excitationVolts']);
   const operating = bridgeOperatingPoints({
     span: o['span'] as BridgeSpan,
     excitationVolts,
@@ -208,10 +244,30 @@ export function budgetContext(options: Omit<ResolutionBudgetOptions, 'gain'>): B
       : { excitationLowVolts: o['excitationLowVolts'] as number }),
   });
   const temperatureCelsius = checkTemperature('temperatureCelsius', o['temperatureCelsius']);
-  const amplifier = o['amplifier'] === undefined ? {} : checkObject('amplifier', o['amplifier']);
-  const ampNoise = checkAmplifierNoise('amplifier.', amplifier);
+  const amplifier = o['amplifier'] === undefined ? {} : (o['amplifier'] as Record<string, unknown>);
+  const ampNoise = checkAmplifierNoise('amplifier.', o['amplifier'], amplifierTopologyKeys);
+  const topology = {
+    secondStageGain:
+      amplifier['secondStageGain'] === undefined
+        ? 1
+        : checkGain('amplifier.secondStageGain', amplifier['secondStageGain']),
+    outputReferenceVolts:
+      amplifier['outputReferenceVolts'] === undefined
+        ? 0
+        : checkVolts('amplifier.outputReferenceVolts', amplifier['outputReferenceVolts'], { signed: true }),
+    limits: checkAmplifierLimits('amplifier.limits', amplifier['limits']),
+  };
+  const series =
+    amplifier['inputSeriesOhms'] === undefined
+      ? undefined
+      : checkLength<unknown>('amplifier.inputSeriesOhms', amplifier['inputSeriesOhms'], 2).map((r, i) =>
+          checkOhms(`amplifier.inputSeriesOhms[${i}]`, r, { allowZero: true }),
+        );
 
-  const a = checkObject('adc', o['adc']);
+  const a = checkOptions('adc', o['adc'], {
+    known: ['bits', 'referenceVolts', 'bipolar', 'ratiometric', 'noiseRmsVolts'],
+    required: ['bits'],
+  });
   const bits = checkInteger('adc.bits', a['bits'], { min: 1, max: 32 });
   const ratiometric = checkBoolean('adc.ratiometric', a['ratiometric'], false);
   let referenceVolts: number;
@@ -219,7 +275,7 @@ export function budgetContext(options: Omit<ResolutionBudgetOptions, 'gain'>): B
     referenceVolts =
       a['referenceVolts'] === undefined
         ? excitationVolts
-        : checkPositive('adc.referenceVolts', a['referenceVolts']);
+        : checkVolts('adc.referenceVolts', a['referenceVolts']);
     if (referenceVolts !== excitationVolts) {
       throw new BridgeworkError(
         'conflicting-options',
@@ -237,29 +293,27 @@ export function budgetContext(options: Omit<ResolutionBudgetOptions, 'gain'>): B
         },
       );
     }
-    referenceVolts = checkPositive('adc.referenceVolts', a['referenceVolts']);
+    referenceVolts = checkVolts('adc.referenceVolts', a['referenceVolts']);
   }
   const adcNoiseRaw = a['noiseRmsVolts'];
   const adcNoise =
     adcNoiseRaw === undefined || typeof adcNoiseRaw === 'function'
       ? (adcNoiseRaw as ((gain: number) => number) | undefined)
-      : checkPositive('adc.noiseRmsVolts', adcNoiseRaw);
+      : checkNoiseRmsVolts('adc.noiseRmsVolts', adcNoiseRaw);
 
   const filter = checkFilter('filter', o['filter']);
   const noiseBandwidthHertz = bandwidthOf(filter);
-  const lowHertz = o['lowHertz'] === undefined ? undefined : checkFinite('lowHertz', o['lowHertz']);
+  const lowHertz = o['lowHertz'] === undefined ? undefined : checkHertz('lowHertz', o['lowHertz']);
   const peakToPeakFactor =
     o['peakToPeakFactor'] === undefined
       ? PEAK_TO_PEAK_PER_RMS
-      : checkPositive('peakToPeakFactor', o['peakToPeakFactor']);
+      : checkRange('peakToPeakFactor', o['peakToPeakFactor'], PEAK_TO_PEAK_LIMITS);
 
   const bridgeNoise = bridgeNoiseSource({
     armsOhms: operating.zeroArmsOhms,
     sourceOhms: operating.seriesOhms,
     temperatureCelsius,
-    ...(amplifier['inputSeriesOhms'] === undefined
-      ? {}
-      : { inputSeriesOhms: amplifier['inputSeriesOhms'] as readonly [number, number] }),
+    ...(series === undefined ? {} : { inputSeriesOhms: series as [number, number] }),
   });
   // Integrate each spectrum at unit gain; only the output-noise term scales (as 1/gain).
   const spectra = frontEndSpectra(bridgeNoise, ampNoise, 1);
@@ -270,7 +324,7 @@ export function budgetContext(options: Omit<ResolutionBudgetOptions, 'gain'>): B
   return {
     operating,
     excitationVolts,
-    amplifier,
+    topology,
     adc: { bits, referenceVolts, bipolar: checkBoolean('adc.bipolar', a['bipolar'], true), ratiometric },
     adcNoise,
     bridgeNoise,
@@ -284,16 +338,22 @@ export function budgetContext(options: Omit<ResolutionBudgetOptions, 'gain'>): B
 
 /** @internal The headroom check of a context at one gain. */
 export function headroomAt(ctx: BudgetContext, gain: number, adc: Adc) {
-  const amp = ctx.amplifier;
+  const { secondStageGain, outputReferenceVolts, limits } = ctx.topology;
   return checkHeadroom({
-    points: ctx.operating.points,
+    points: ctx.operating.points.map((p) => ({
+      differentialVolts: p.differentialVolts,
+      commonModeVolts: p.commonModeVolts,
+    })),
     gain,
     adc,
-    ...(amp['secondStageGain'] === undefined ? {} : { secondStageGain: amp['secondStageGain'] as number }),
-    ...(amp['outputReferenceVolts'] === undefined
-      ? {}
-      : { outputReferenceVolts: amp['outputReferenceVolts'] as number }),
-    ...(amp['limits'] === undefined ? {} : { limits: amp['limits'] as AmplifierLimits }),
+    secondStageGain,
+    outputReferenceVolts,
+    limits: {
+      ...(limits.commonMode === undefined ? {} : { inputCommonModeVolts: limits.commonMode }),
+      ...(limits.differential === undefined ? {} : { inputDifferentialVolts: limits.differential }),
+      ...(limits.firstStage === undefined ? {} : { firstStageVolts: limits.firstStage }),
+      ...(limits.output === undefined ? {} : { outputVolts: limits.output }),
+    },
   });
 }
 
@@ -309,8 +369,12 @@ export function adcAt(ctx: BudgetContext, gain: number): Adc {
 }
 
 /** @internal The budget of a validated context at one gain. */
-export function budgetAt(ctx: BudgetContext, gainValue: unknown): DesignCheck<ResolutionBudget, BudgetIssue> {
-  const gain = checkPositive('gain', gainValue);
+export function budgetAt(
+  ctx: BudgetContext,
+  gainValue: unknown,
+  gainParam = 'gain',
+): DesignCheck<ResolutionBudget, BudgetIssue> {
+  const gain = checkGain(gainParam, gainValue);
   const adc = adcAt(ctx, gain);
   const headroom = headroomAt(ctx, gain, adc);
   const op = ctx.operating;
@@ -321,7 +385,7 @@ export function budgetAt(ctx: BudgetContext, gainValue: unknown): DesignCheck<Re
     converterTerm = { name: 'quantization', rms: adc.quantizationNoiseRmsVolts };
   } else {
     const rms = typeof ctx.adcNoise === 'number' ? ctx.adcNoise : ctx.adcNoise(gain);
-    converterTerm = { name: 'adc', rms: checkPositive('adc.noiseRmsVolts', rms) };
+    converterTerm = { name: 'adc', rms: checkNoiseRmsVolts('adc.noiseRmsVolts', rms) };
   }
   const lines = ctx.rmsBeforeGain.map((t) =>
     t.name === 'amplifier-output' ? { ...t, rms: t.rms / gain } : t,
@@ -386,7 +450,7 @@ export function budgetAt(ctx: BudgetContext, gainValue: unknown): DesignCheck<Re
     selfHeating: heating?.value,
   };
   const issues: BudgetIssue[] = [...headroom.issues, ...(heating?.issues ?? [])];
-  return { ok: issues.length === 0, value: budget, issues };
+  return { ok: issues.length === 0 && finiteFigures(budget), value: budget, issues };
 }
 
 /**
@@ -416,9 +480,17 @@ export function budgetAt(ctx: BudgetContext, gainValue: unknown): DesignCheck<Re
  *
  * @param options - Span, excitation, gain, amplifier, converter, filter and limits.
  * @returns `{ ok, value, issues }`: the budget, and every violated headroom or self-heating limit.
+ * Domains: resistances and voltages as in the core package (`OHMS_LIMITS`, `VOLTS_LIMITS`),
+ * frequencies in [1e-9, 1e12] Hz, noise densities up to 1 per √Hz, gains in [1e-9, 1e9], the
+ * converter's own noise in [1e-15, 1e6] V rms, the peak-to-peak factor in [1, 100]: within them
+ * every figure of the budget is finite, and `ok` is false whenever one is not.
+ *
  * @throws {@link @bridgework/core!BridgeworkError} for invalid inputs, each with its own code and
- *   param (`missing-option` for `adc.referenceVolts` of a non-ratiometric converter, or `lowHertz`
- *   with a 1/f corner; `conflicting-options` for a ratiometric reference other than the excitation).
+ *   the caller's param (`missing-option` for `adc.referenceVolts` of a non-ratiometric converter,
+ *   or `lowHertz` with a 1/f corner, or a required option; `conflicting-options` for a ratiometric
+ *   reference other than the excitation; `out-of-range` outside the domains above;
+ *   `unknown-option` for a key it does not know, at any level: `amplifier`, `adc`, `filter`,
+ *   `span`, `selfHeating`, naming the closest).
  * @example
  * ```ts
  * const bridge = createStrainBridge({ arrangement: 'quarter', gaugeFactor: 2 });
@@ -435,6 +507,6 @@ export function budgetAt(ctx: BudgetContext, gainValue: unknown): DesignCheck<Re
 export function resolutionBudget(
   options: ResolutionBudgetOptions,
 ): DesignCheck<ResolutionBudget, BudgetIssue> {
-  const ctx = budgetContext(options);
+  const ctx = budgetContext(options, 'gain');
   return budgetAt(ctx, (options as unknown as Record<string, unknown>)['gain']);
 }

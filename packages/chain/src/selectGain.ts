@@ -1,7 +1,11 @@
-import { BridgeworkError, checkObject, checkPositive, formatValue } from '@bridgework/core';
+import { BridgeworkError, checkOptions, formatValue } from '@bridgework/core';
 import type { HeadroomIssue } from './checkHeadroom.js';
 import type { DesignCheck } from './DesignCheck.js';
+import { GAIN_LIMITS, checkGain } from './internal/domain.js';
 import { nextDown } from './internal/rounding.js';
+
+/** The most gains a list may hold (the budget is computed at every one). */
+const MAX_GAIN_CANDIDATES = 4096;
 import {
   adcAt,
   budgetAt,
@@ -15,15 +19,15 @@ import {
 
 /** A continuous range of gains `[min, max]` (an amplifier set by a resistor, or a DAC-trimmed PGA). */
 export interface GainRange {
-  /** Smallest gain (> 0). */
+  /** Smallest gain, in [1e-9, 1e9]. */
   readonly min: number;
-  /** Largest gain (≥ min). */
+  /** Largest gain (≥ min), in [1e-9, 1e9]. */
   readonly max: number;
 }
 
 /** Options of {@link selectGain}: those of {@link resolutionBudget} with the gains to choose from. */
 export interface GainSelectionOptions extends Omit<ResolutionBudgetOptions, 'gain'> {
-  /** The available gains: a list (a PGA's settings) or a continuous range. */
+  /** The available gains: a list of 1 to 4096 (a PGA's settings) or a continuous range. */
   readonly gains: readonly number[] | GainRange;
 }
 
@@ -69,7 +73,8 @@ function feasibleInterval(ctx: BudgetContext, range: GainRange): GainRange | und
   let lo = range.min;
   let hi = range.max;
   const g1 = range.min;
-  const g2 = range.max > range.min ? range.max : 2 * range.min;
+  // A second gain inside the accepted gains (a point range's double, or its half at the top).
+  const g2 = range.max > range.min ? range.max : range.min * (2 * range.min <= GAIN_LIMITS.max ? 2 : 0.5);
   for (let i = 0; i < ctx.operating.points.length; i++) {
     const one = { ...ctx, operating: { ...ctx.operating, points: [ctx.operating.points[i]!] } };
     const m1 = headroomAt(one, g1, adcAt(one, g1)).value.margins;
@@ -111,9 +116,13 @@ function feasibleInterval(ctx: BudgetContext, range: GainRange): GainRange | und
  *
  * @param options - As {@link resolutionBudget}, with `gains` instead of `gain`.
  * @returns `{ ok, value: { gain, budget, candidates, feasibleGains }, issues }`.
+ * The work grows with the list: at most 4096 gains (a PGA has a handful) are accepted.
+ *
  * @throws {@link @bridgework/core!BridgeworkError} as {@link resolutionBudget}; `invalid-shape`
- *   for an empty gain list; `not-positive`, `not-finite`, `wrong-type` for a bad gain;
- *   `out-of-range` for a range with max < min.
+ *   for an empty gain list, `out-of-range` for one of more than 4096 gains; `not-positive`,
+ *   `not-finite`, `wrong-type` for a bad gain, `out-of-range` for one outside [1e-9, 1e9];
+ *   `out-of-range` for a range with max < min; `unknown-option` for a range key other than `min`
+ *   and `max`, `missing-option`.
  * @example
  * ```ts
  * const bridge = createStrainBridge({ arrangement: 'quarter', gaugeFactor: 2 });
@@ -128,23 +137,19 @@ function feasibleInterval(ctx: BudgetContext, range: GainRange): GainRange | und
  * ```
  */
 export function selectGain(options: GainSelectionOptions): DesignCheck<GainSelection, BudgetIssue> {
-  const o = checkObject('options', options);
-  const ctx = budgetContext(options);
-  const gains = o['gains'];
+  const ctx = budgetContext(options, 'gains');
+  const gains = (options as unknown as Record<string, unknown>)['gains'];
 
   if (Array.isArray(gains)) {
-    if (gains.length === 0) {
+    if (gains.length === 0 || gains.length > MAX_GAIN_CANDIDATES) {
       throw new BridgeworkError(
-        'invalid-shape',
-        '`gains` must be a non-empty array or a { min, max } range; got an array of length 0',
-        {
-          param: 'gains',
-          value: gains,
-        },
+        gains.length === 0 ? 'invalid-shape' : 'out-of-range',
+        `\`gains\` must be a list of 1 to ${MAX_GAIN_CANDIDATES} gains or a { min, max } range; got an array of length ${gains.length}`,
+        { param: 'gains', value: gains.length, limit: [1, MAX_GAIN_CANDIDATES] },
       );
     }
-    const list = gains.map((g: unknown, i) => checkPositive(`gains[${i}]`, g));
-    const budgets = list.map((g) => budgetAt(ctx, g));
+    const list = gains.map((g: unknown, i) => checkGain(`gains[${i}]`, g));
+    const budgets = list.map((g, i) => budgetAt(ctx, g, `gains[${i}]`));
     const candidates = budgets.map(candidate);
     let chosen: number | undefined;
     candidates.forEach((c, i) => {
@@ -165,9 +170,9 @@ export function selectGain(options: GainSelectionOptions): DesignCheck<GainSelec
     };
   }
 
-  const r = checkObject('gains', gains);
-  const min = checkPositive('gains.min', r['min']);
-  const max = checkPositive('gains.max', r['max']);
+  const r = checkOptions('gains', gains, { known: ['min', 'max'], required: ['min', 'max'] });
+  const min = checkGain('gains.min', r['min']);
+  const max = checkGain('gains.max', r['max']);
   if (!(max >= min)) {
     throw new BridgeworkError(
       'out-of-range',

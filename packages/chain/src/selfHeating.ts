@@ -2,13 +2,19 @@ import { solveBridge } from '@bridgework/bridge';
 import {
   BridgeworkError,
   checkLength,
-  checkNonNegative,
-  checkObject,
   checkOneOf,
+  checkOptions,
   checkPositive,
+  checkRange,
 } from '@bridgework/core';
 import type { DesignCheck } from './DesignCheck.js';
 import { checkBoolean } from './internal/checkBoolean.js';
+import { finiteFigures } from './internal/finiteFigures.js';
+
+/** Upper limits of the self-heating options (far beyond any gauge), which keep every figure finite. */
+const MAX_WATTS_PER_GAUGE = 1e6;
+const MAX_GRID_AREA_SQUARE_METERS = 1;
+const MAX_POWER_DENSITY_WATTS_PER_SQUARE_METER = 1e9;
 
 /** How well the specimen under a gauge conducts heat away, in the classes of common practice. */
 export type HeatSink = 'excellent' | 'good' | 'fair' | 'poor' | 'very-poor';
@@ -96,7 +102,9 @@ export interface SelfHeatingLimit {
  * @throws {@link @bridgework/core!BridgeworkError} `missing-option` when no limit can be formed
  *   (`gridAreaSquareMeters` with a density or heat sink, or `maxWattsPerGauge`);
  *   `conflicting-options` for both a density and a heat sink; `invalid-option` for an unknown heat
- *   sink; `not-positive`, `not-finite`, `wrong-type` for bad numbers.
+ *   sink; `not-positive`, `not-finite`, `wrong-type` for bad numbers; `out-of-range` for a power
+ *   above 1e6 W, a grid area above 1 m² or a density above 1e9 W/m²; `unknown-option` for a key
+ *   it does not know (naming the closest).
  * @example
  * ```ts
  * // A 3.2 mm × 3.2 mm grid on thick steel:
@@ -109,12 +117,14 @@ export function selfHeatingLimit(options: SelfHeatingOptions): SelfHeatingLimit 
 
 /** @internal {@link selfHeatingLimit} with option names prefixed (`limit.`, `selfHeating.`) in errors. */
 export function checkSelfHeatingLimit(prefix: string, options: unknown): SelfHeatingLimit {
-  const o = checkObject(prefix === '' ? 'options' : prefix.slice(0, -1), options);
+  const o = checkOptions(prefix === '' ? 'options' : prefix.slice(0, -1), options, {
+    known: ['maxWattsPerGauge', 'gridAreaSquareMeters', 'powerDensityWattsPerSquareMeter', 'heatSink'],
+  });
   const name = (key: string): string => `${prefix}${key}`;
+  const bounded = (key: string, max: number): number =>
+    checkRange(name(key), checkPositive(name(key), o[key]), { max });
   const direct =
-    o['maxWattsPerGauge'] === undefined
-      ? undefined
-      : checkPositive(name('maxWattsPerGauge'), o['maxWattsPerGauge']);
+    o['maxWattsPerGauge'] === undefined ? undefined : bounded('maxWattsPerGauge', MAX_WATTS_PER_GAUGE);
   if (o['powerDensityWattsPerSquareMeter'] !== undefined && o['heatSink'] !== undefined) {
     throw new BridgeworkError(
       'conflicting-options',
@@ -124,7 +134,7 @@ export function checkSelfHeatingLimit(prefix: string, options: unknown): SelfHea
   }
   let density: number | undefined;
   if (o['powerDensityWattsPerSquareMeter'] !== undefined) {
-    density = checkPositive(name('powerDensityWattsPerSquareMeter'), o['powerDensityWattsPerSquareMeter']);
+    density = bounded('powerDensityWattsPerSquareMeter', MAX_POWER_DENSITY_WATTS_PER_SQUARE_METER);
   } else if (o['heatSink'] !== undefined) {
     density =
       heatSinkPowerDensity[checkOneOf(name('heatSink'), o['heatSink'], heatSinks)].minWattsPerSquareMeter;
@@ -138,7 +148,7 @@ export function checkSelfHeatingLimit(prefix: string, options: unknown): SelfHea
         { param: name('gridAreaSquareMeters') },
       );
     }
-    const area = checkPositive(name('gridAreaSquareMeters'), o['gridAreaSquareMeters']);
+    const area = bounded('gridAreaSquareMeters', MAX_GRID_AREA_SQUARE_METERS);
     if (density === undefined) {
       throw new BridgeworkError(
         'missing-option',
@@ -224,18 +234,16 @@ export function selfHeatingVerdict(
           },
         ]
       : [];
-  return {
-    ok: issues.length === 0,
-    value: {
-      armWatts,
-      gaugeWatts,
-      limitWatts: limit.maxWattsPerGauge,
-      marginWatts,
-      maxExcitationVolts,
-      limit,
-    },
-    issues,
+  const value = {
+    armWatts,
+    gaugeWatts,
+    limitWatts: limit.maxWattsPerGauge,
+    marginWatts,
+    maxExcitationVolts,
+    limit,
   };
+  // A check whose figure is not finite is never ok (NaN compares false, so test finiteness too).
+  return { ok: issues.length === 0 && finiteFigures(value), value, issues };
 }
 
 /**
@@ -253,7 +261,9 @@ export function selfHeatingVerdict(
  * @returns `{ ok, value, issues }` with every arm power, the margin and the maximum excitation.
  * @throws {@link @bridgework/core!BridgeworkError} as `solveBridge` and {@link selfHeatingLimit};
  *   `invalid-shape` for `gaugeArms` not of length 4 or without any gauge; `wrong-type` for a
- *   non-boolean entry.
+ *   non-boolean entry; `unknown-option` for a key it does not know (naming the closest),
+ *   `missing-option` without `armsOhms`, `excitationVolts` or `limit`. A check whose figure is not
+ *   finite is never `ok` (the arm and excitation limits of `solveBridge` keep them finite).
  * @example
  * ```ts
  * const r = checkSelfHeating({
@@ -269,13 +279,17 @@ export function selfHeatingVerdict(
 export function checkSelfHeating(
   options: SelfHeatingCheckOptions,
 ): DesignCheck<SelfHeatingValue, SelfHeatingIssue> {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['armsOhms', 'excitationVolts', 'sourceOhms', 'gaugeArms', 'limit'],
+    required: ['armsOhms', 'excitationVolts', 'limit'],
+  });
   const limit = checkSelfHeatingLimit('limit.', o['limit']);
   const gauges = checkGaugeArms(o['gaugeArms']);
+  // solveBridge checks the arms, excitation and source resistance under the same names.
   const solution = solveBridge({
     armsOhms: o['armsOhms'] as readonly [number, number, number, number],
     excitationVolts: o['excitationVolts'] as number,
-    sourceOhms: o['sourceOhms'] === undefined ? 0 : checkNonNegative('sourceOhms', o['sourceOhms']),
+    ...(o['sourceOhms'] === undefined ? {} : { sourceOhms: o['sourceOhms'] as number }),
   });
   const gaugeWatts = Math.max(...solution.armWatts.filter((_, i) => gauges[i]));
   return selfHeatingVerdict(solution.armWatts, gaugeWatts, o['excitationVolts'] as number, limit);

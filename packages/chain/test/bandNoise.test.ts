@@ -72,9 +72,14 @@ describe('bandNoiseRms', () => {
     expect(() =>
       bandNoiseRms({ whiteDensity: 1e-9, cornerHertz: 1, filter, lowHertz: 0 }),
     ).toThrowBridgeworkError('not-positive', { param: 'lowHertz' });
-    expect(bandNoiseRms({ whiteDensity: 1e-9, filter, lowHertz: 0 })).toBeNear(
+    // Without a corner a (valid) lowHertz has no effect; an invalid one is refused all the same.
+    expect(bandNoiseRms({ whiteDensity: 1e-9, filter, lowHertz: 1e-3 })).toBeNear(
       1e-9 * Math.sqrt(Math.PI / 2),
       { ulps: 2 },
+    );
+    expect(() => bandNoiseRms({ whiteDensity: 1e-9, filter, lowHertz: 0 })).toThrowBridgeworkError(
+      'not-positive',
+      { param: 'lowHertz' },
     );
     expect(bandNoiseRms({ whiteDensity: 0, cornerHertz: 5, filter })).toBe(0);
   });
@@ -82,7 +87,7 @@ describe('bandNoiseRms', () => {
   it.each([
     ['negative density', { whiteDensity: -1 }, 'negative', 'whiteDensity'],
     ['NaN corner', { whiteDensity: 1, cornerHertz: Number.NaN }, 'not-finite', 'cornerHertz'],
-    ['no filter', { whiteDensity: 1, filter: undefined }, 'wrong-type', 'filter'],
+    ['no filter', { whiteDensity: 1, filter: undefined }, 'missing-option', 'options.filter'],
     ['string low', { whiteDensity: 1, cornerHertz: 1, lowHertz: '1' }, 'wrong-type', 'lowHertz'],
   ] as const)('%s → %s', (_name, options, code, param) => {
     expect(() =>

@@ -2,7 +2,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { solveBridge } from '@bridgework/bridge';
 import { bridgeNoiseSource, johnsonNoiseDensity } from '@bridgework/chain';
-import { negativeTransimpedance, positiveTransimpedance } from './support/nodal.js';
+import { bridgeTransimpedance } from '../../../test/support/nodal.js';
 
 const ohms = fc.double({ min: 0, max: 5, noNaN: true }).map((d) => 10 ** d); // 1 Ω … 100 kΩ
 const network = fc.record({
@@ -53,8 +53,8 @@ describe('bridgeNoiseSource against 40-digit nodal analysis (mathjs lusolve, Big
     fc.assert(
       fc.property(network, (n) => {
         const s = bridgeNoiseSource(n);
-        expect(s.positiveInputOhms).toBeNear(positiveTransimpedance(n), { rel: 1e-13 });
-        expect(s.negativeInputOhms).toBeNear(negativeTransimpedance(n), { rel: 1e-13 });
+        expect(s.positiveInputOhms).toBeNear(bridgeTransimpedance(n, 'S+', 1), { rel: 1e-13 });
+        expect(s.negativeInputOhms).toBeNear(bridgeTransimpedance(n, 'S-', -1), { rel: 1e-13 });
         // Superposition: a current into S+ and out of S− is the output port's test current.
         expect(s.positiveInputOhms + s.negativeInputOhms).toBeNear(s.bridgeOhms, { rel: 1e-13 });
       }),

@@ -2,7 +2,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { createStrainBridge, type StrainBridgeOptions } from '@bridgework/bridge';
 import { bridgeOperatingPoints } from '@bridgework/chain';
-import { outputAndCommonMode } from './support/nodal.js';
+import { solveBridgeNetwork } from '../../../test/support/nodal.js';
 
 describe('bridgeOperatingPoints: strain spans', () => {
   it('a quarter bridge: output from the bridge’s exact map, common mode from the two dividers', () => {
@@ -69,10 +69,12 @@ describe('bridgeOperatingPoints: strain spans', () => {
             excitationVolts: e,
           });
           const p = r.points[r.points.length - 1]!;
-          const [vd, vcm] = outputAndCommonMode(
-            { armsOhms: bridge.armsOhms(strain), sourceOhms: bridge.seriesOhms },
-            e,
-          );
+          const { outputVolts: vd, commonModeVolts: vcm } = solveBridgeNetwork({
+            armsOhms: bridge.armsOhms(strain),
+            sourceOhms: bridge.seriesOhms,
+            excitationVolts: e,
+            meterOhms: Infinity,
+          });
           // The nodal solve takes the arms as doubles: their rounding (~1e-16·R) against the
           // imbalance (~GF·ε·R) limits it to ~1e-12 relative near zero strain; the floor covers ε → 0.
           expect(p.differentialVolts).toBeNear(vd, { rel: 1e-11, abs: 1e-15 * e });

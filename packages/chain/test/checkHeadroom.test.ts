@@ -135,7 +135,7 @@ describe('checkHeadroom: bad inputs', () => {
     [
       'a point without common mode',
       { points: [{ differentialVolts: 0 }], gain: 1 },
-      'wrong-type',
+      'missing-option',
       'points[0].commonModeVolts',
     ],
     [
@@ -172,7 +172,7 @@ describe('checkHeadroom: bad inputs', () => {
     [
       'range without max',
       { points: [point], gain: 1, limits: { outputVolts: { min: 0 } } },
-      'wrong-type',
+      'missing-option',
       'limits.outputVolts.max',
     ],
   ] as const)('%s → %s', (_name, options, code, param) => {

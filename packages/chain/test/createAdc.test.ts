@@ -274,7 +274,7 @@ describe('createAdc: bad inputs', () => {
     ['33 bits', { ...good, bits: 33 }, 'out-of-range', 'bits'],
     ['fractional bits', { ...good, bits: 12.5 }, 'not-integer', 'bits'],
     ['NaN bits', { ...good, bits: Number.NaN }, 'not-finite', 'bits'],
-    ['missing bits', { referenceVolts: 2.5 }, 'wrong-type', 'bits'],
+    ['missing bits', { referenceVolts: 2.5 }, 'missing-option', 'options.bits'],
     ['negative reference', { ...good, referenceVolts: -2.5 }, 'not-positive', 'referenceVolts'],
     ['zero reference', { ...good, referenceVolts: 0 }, 'not-positive', 'referenceVolts'],
     ['infinite reference', { ...good, referenceVolts: Infinity }, 'not-finite', 'referenceVolts'],

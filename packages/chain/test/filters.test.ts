@@ -354,7 +354,7 @@ describe('1/f noise through each filter: closed forms against direct integration
 describe('filters: bad inputs', () => {
   it.each([
     ['unknown kind', { kind: 'bessel', cutoffHertz: 1 }, 'invalid-option', 'filter.kind'],
-    ['missing cutoff', { kind: 'single-pole' }, 'wrong-type', 'filter.cutoffHertz'],
+    ['missing cutoff', { kind: 'single-pole' }, 'missing-option', 'filter.cutoffHertz'],
     ['negative cutoff', { kind: 'brick-wall', cutoffHertz: -1 }, 'not-positive', 'filter.cutoffHertz'],
     ['infinite cutoff', { kind: 'butterworth', cutoffHertz: Infinity }, 'not-finite', 'filter.cutoffHertz'],
     ['order 0', { kind: 'butterworth', cutoffHertz: 1, order: 0 }, 'out-of-range', 'filter.order'],
@@ -362,7 +362,7 @@ describe('filters: bad inputs', () => {
     ['one pole', { kind: 'two-real-poles', poleHertz: [1] }, 'invalid-shape', 'filter.poleHertz'],
     ['zero pole', { kind: 'two-real-poles', poleHertz: [1, 0] }, 'not-positive', 'filter.poleHertz[1]'],
     ['sinc6', { kind: 'sinc', order: 6, dataRateHertz: 10 }, 'out-of-range', 'filter.order'],
-    ['sinc without rate', { kind: 'sinc', order: 3 }, 'wrong-type', 'filter.dataRateHertz'],
+    ['sinc without rate', { kind: 'sinc', order: 3 }, 'missing-option', 'filter.dataRateHertz'],
     [
       'decimation 0',
       { kind: 'sinc', order: 3, dataRateHertz: 10, decimation: 0 },

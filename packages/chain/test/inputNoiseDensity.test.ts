@@ -134,7 +134,7 @@ describe('combineNoise', () => {
   it.each([
     ['not an array', 5, 'invalid-shape', 'terms'],
     ['a null term', [null], 'wrong-type', 'terms[0]'],
-    ['a nameless term', [{ value: 1 }], 'wrong-type', 'terms[0].name'],
+    ['a nameless term', [{ value: 1 }], 'missing-option', 'terms[0].name'],
     ['a negative value', [{ name: 'a', value: -1 }], 'negative', 'terms[0].value'],
     [
       'a NaN value',

@@ -68,7 +68,7 @@ describe('johnsonNoiseDensity: bad inputs', () => {
     ['infinite ohms', { ohms: Infinity }, 'not-finite', 'ohms'],
     ['negative ohms', { ohms: -1 }, 'negative', 'ohms'],
     ['string ohms', { ohms: '350' }, 'wrong-type', 'ohms'],
-    ['missing ohms', {}, 'wrong-type', 'ohms'],
+    ['missing ohms', {}, 'missing-option', 'options.ohms'],
     ['absolute zero', { ohms: 350, temperatureCelsius: -273.15 }, 'out-of-range', 'temperatureCelsius'],
     ['below absolute zero', { ohms: 350, temperatureCelsius: -300 }, 'out-of-range', 'temperatureCelsius'],
     ['NaN temperature', { ohms: 350, temperatureCelsius: Number.NaN }, 'not-finite', 'temperatureCelsius'],

@@ -212,8 +212,8 @@ describe('resolutionBudget: bad inputs', () => {
     ],
     ['zero gain', { gain: 0 }, 'not-positive', 'gain'],
     ['negative excitation', { excitationVolts: -5 }, 'not-positive', 'excitationVolts'],
-    ['no filter', { filter: undefined }, 'wrong-type', 'filter'],
-    ['a bad peak-to-peak factor', { peakToPeakFactor: 0 }, 'not-positive', 'peakToPeakFactor'],
+    ['no filter', { filter: undefined }, 'missing-option', 'options.filter'],
+    ['a bad peak-to-peak factor', { peakToPeakFactor: 0 }, 'out-of-range', 'peakToPeakFactor'],
     [
       'a bad self-heating limit',
       { selfHeating: { maxWattsPerGauge: -1 } },
@@ -230,7 +230,7 @@ describe('resolutionBudget: bad inputs', () => {
       'bad input series resistors',
       { amplifier: { inputSeriesOhms: [1] } },
       'invalid-shape',
-      'inputSeriesOhms',
+      'amplifier.inputSeriesOhms',
     ],
     ['a cold bridge', { temperatureCelsius: -300 }, 'out-of-range', 'temperatureCelsius'],
   ] as const)('%s → %s', (_name, extra, code, param) => {

@@ -132,8 +132,8 @@ describe('selectGain: bad inputs', () => {
     ['a zero gain', [1, 0], 'not-positive', 'gains[1]'],
     ['a NaN gain', [Number.NaN], 'not-finite', 'gains[0]'],
     ['an inverted range', { min: 10, max: 1 }, 'out-of-range', 'gains.max'],
-    ['a range without min', { max: 10 }, 'wrong-type', 'gains.min'],
-    ['no gains', undefined, 'wrong-type', 'gains'],
+    ['a range without min', { max: 10 }, 'missing-option', 'gains.min'],
+    ['no gains', undefined, 'missing-option', 'options.gains'],
   ] as const)('%s → %s', (_name, gains, code, param) => {
     expect(() => selectGain({ ...base, span: span(1000), gains } as never)).toThrowBridgeworkError(code, {
       param,

@@ -139,7 +139,7 @@ describe('checkSelfHeating', () => {
     ['negative source', { sourceOhms: -2 }, 'negative', 'sourceOhms'],
     ['zero excitation', { excitationVolts: 0 }, 'not-positive', 'excitationVolts'],
     ['bad arm', { armsOhms: [350, 350, 350, -1] }, 'not-positive', 'armsOhms[3]'],
-    ['no limit', { limit: undefined }, 'wrong-type', 'limit'],
+    ['no limit', { limit: undefined }, 'missing-option', 'options.limit'],
     ['a bad limit', { limit: { maxWattsPerGauge: 0 } }, 'not-positive', 'limit.maxWattsPerGauge'],
   ] as const)('%s → %s', (_name, extra, code, param) => {
     const good = { armsOhms: [350, 350, 350, 350], excitationVolts: 5, limit: { maxWattsPerGauge: 0.05 } };

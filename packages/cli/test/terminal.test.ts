@@ -6,7 +6,6 @@ import { memoryStream } from './support/memoryIo.js';
 
 const tty = memoryStream({ isTTY: true });
 const pipe = memoryStream({ isTTY: false });
-const ansi = /\u001b\[/;
 
 describe('colours', () => {
   it('only on a terminal', () => {

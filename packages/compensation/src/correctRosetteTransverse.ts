@@ -1,8 +1,9 @@
 import {
   BridgeworkError,
-  checkFinite,
+  checkFiniteResult,
   checkLength,
-  checkObject,
+  checkOptions,
+  checkFinite,
   rosetteLegAngles,
   type RosetteLayout,
 } from '@bridgework/core';
@@ -52,7 +53,11 @@ const MIN_GEOMETRY_DETERMINANT = 1e-6;
  * @returns The corrected leg strains `[εa, εb, εc]`, m/m.
  * @throws {@link @bridgework/core!BridgeworkError} `singular` when legs are (nearly) parallel;
  *   `invalid-option`, `invalid-shape` for a bad layout, `strains` or Kt array; `out-of-range` for
- *   Kt outside (−1, 1) or ν0 outside (−1, 0.5]; `not-finite`, `wrong-type` for bad numbers.
+ *   Kt outside (−1, 1) or ν0 outside (−1, 0.5], and (against `strains`) when a corrected strain
+ *   would exceed binary64 (strains near 1e308, or Kt within rounding of 1); `not-finite`,
+ *   `wrong-type` for bad numbers;
+ *   `unknown-option` for a key it does not know (naming the closest), `missing-option` for a
+ *   required one.
  * @example
  * ```ts
  * correctRosetteTransverse({
@@ -63,7 +68,10 @@ const MIN_GEOMETRY_DETERMINANT = 1e-6;
  * ```
  */
 export function correctRosetteTransverse(options: CorrectRosetteTransverseOptions): [number, number, number] {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['layout', 'strains', 'transverseSensitivity', 'poissonRatio0'],
+    required: ['layout', 'strains', 'transverseSensitivity'],
+  });
   const angles = rosetteLegAngles(o['layout'] as RosetteLayout);
   const raw = checkLength<unknown>('strains', o['strains'], 3);
   const strains = raw.map((e, i) => checkFinite(`strains[${i}]`, e));
@@ -86,7 +94,20 @@ export function correctRosetteTransverse(options: CorrectRosetteTransverseOption
     const ki = k[i]!;
     return [c * c + ki * s * s, s * s + ki * c * c, (1 - ki) * s * c] as [number, number, number];
   });
-  const [ex, ey] = solve3(rows, scaled);
+  // The solve is linear: do it on legs scaled to at most 1, so no product overflows on the way.
+  const scale = Math.max(1, ...scaled.map(Math.abs));
+  const [ex0, ey0] = solve3(rows, scaled.map((e) => e / scale) as [number, number, number]);
+  const ex = ex0 * scale;
+  const ey = ey0 * scale;
   const sum = ex + ey;
-  return scaled.map((e, i) => (e - k[i]! * sum) / (1 - k[i]!)) as [number, number, number];
+  const blame = {
+    what: 'the corrected strains',
+    param: 'strains',
+    value: o['strains'],
+  };
+  return scaled.map((e, i) => checkFiniteResult((e - k[i]! * sum) / (1 - k[i]!), blame)) as [
+    number,
+    number,
+    number,
+  ];
 }

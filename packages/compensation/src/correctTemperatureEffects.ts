@@ -1,13 +1,27 @@
 import {
   BridgeworkError,
+  checkCelsius,
   checkFinite,
-  checkObject,
-  checkPositive,
+  checkGaugeFactor,
+  checkOptions,
+  checkFiniteResult,
   formatValue,
   requireOption,
+  blameOption,
 } from '@bridgework/core';
 import type { ThermalOutput } from './createThermalOutput.js';
 import { gaugeFactorAt } from './gaugeFactorAt.js';
+
+const gaugeTemperatureKeys = [
+  'gaugeFactorSetting',
+  'zeroCelsius',
+  'temperatureCelsius',
+  'thermalOutput',
+  'gaugeFactor',
+  'gaugeFactorTemperatureCoefficientPerKelvin',
+  'gaugeFactorReferenceCelsius',
+];
+const gaugeTemperatureRequired = ['gaugeFactorSetting', 'zeroCelsius', 'temperatureCelsius', 'gaugeFactor'];
 
 /** The gauge and temperatures shared by {@link correctTemperatureEffects} and its forward model. */
 export interface GaugeTemperatureOptions {
@@ -51,10 +65,10 @@ interface Checked {
 }
 
 function check(o: Record<string, unknown>): Checked {
-  const gaugeFactorSetting = checkPositive('gaugeFactorSetting', o['gaugeFactorSetting']);
-  const zeroCelsius = checkFinite('zeroCelsius', o['zeroCelsius']);
-  const temperatureCelsius = checkFinite('temperatureCelsius', o['temperatureCelsius']);
-  const gaugeFactor = checkPositive('gaugeFactor', o['gaugeFactor']);
+  const gaugeFactorSetting = checkGaugeFactor('gaugeFactorSetting', o['gaugeFactorSetting']);
+  const zeroCelsius = checkCelsius('zeroCelsius', o['zeroCelsius']);
+  const temperatureCelsius = checkCelsius('temperatureCelsius', o['temperatureCelsius']);
+  const gaugeFactor = checkGaugeFactor('gaugeFactor', o['gaugeFactor']);
   const beta = o['gaugeFactorTemperatureCoefficientPerKelvin'];
   const gaugeFactorNow =
     beta === undefined
@@ -62,7 +76,7 @@ function check(o: Record<string, unknown>): Checked {
       : gaugeFactorAt({
           gaugeFactor,
           temperatureCoefficientPerKelvin: checkFinite('gaugeFactorTemperatureCoefficientPerKelvin', beta),
-          referenceCelsius: checkFinite(
+          referenceCelsius: checkCelsius(
             'gaugeFactorReferenceCelsius',
             requireOption(
               'gaugeFactorReferenceCelsius',
@@ -85,7 +99,10 @@ function check(o: Record<string, unknown>): Checked {
     const to = thermal as ThermalOutput;
     thermalStrain =
       to.apparentStrainAt(temperatureCelsius, gaugeFactorSetting) -
-      to.apparentStrainAt(zeroCelsius, gaugeFactorSetting);
+      blameOption(
+        { param: 'zeroCelsius', value: zeroCelsius, requirement: "must lie in the thermal output's range" },
+        () => to.apparentStrainAt(zeroCelsius, gaugeFactorSetting),
+      );
   }
   return { gaugeFactorSetting, gaugeFactorNow, thermalStrain };
 }
@@ -118,8 +135,10 @@ function check(o: Record<string, unknown>): Checked {
  * @returns The corrected mechanical strain since zeroing, m/m.
  * @throws {@link @bridgework/core!BridgeworkError} `missing-option` when β is given without its
  *   reference temperature; `out-of-range` for a temperature outside the thermal output's range or
- *   one that makes GF(T) ≤ 0; `wrong-type` for a `thermalOutput` that is not an evaluator;
- *   `not-positive`, `not-finite` for bad numbers.
+ *   one that makes GF(T) leave [0.01, 1000], a temperature at or below −273.15 °C, a gauge factor
+ *   outside [0.01, 1000], or a strain whose result would exceed binary64; `wrong-type` for a `thermalOutput` that is
+ *   not an evaluator; `not-positive`, `not-finite` for bad numbers; `unknown-option` for a key it
+ *   does not know (naming the closest), `missing-option` for a required one.
  * @example
  * ```ts
  * const lot = createThermalOutput({
@@ -135,10 +154,17 @@ function check(o: Record<string, unknown>): Checked {
  * ```
  */
 export function correctTemperatureEffects(options: CorrectTemperatureEffectsOptions): number {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: [...gaugeTemperatureKeys, 'indicatedStrain'],
+    required: [...gaugeTemperatureRequired, 'indicatedStrain'],
+  });
   const indicatedStrain = checkFinite('indicatedStrain', o['indicatedStrain']);
   const c = check(o);
-  return ((indicatedStrain - c.thermalStrain) * c.gaugeFactorSetting) / c.gaugeFactorNow;
+  return checkFiniteResult(((indicatedStrain - c.thermalStrain) * c.gaugeFactorSetting) / c.gaugeFactorNow, {
+    what: 'the corrected strain',
+    param: 'indicatedStrain',
+    value: indicatedStrain,
+  });
 }
 
 /**
@@ -162,8 +188,15 @@ export function correctTemperatureEffects(options: CorrectTemperatureEffectsOpti
 export function indicatedStrainWithTemperatureEffects(
   options: IndicatedStrainWithTemperatureEffectsOptions,
 ): number {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: [...gaugeTemperatureKeys, 'strain'],
+    required: [...gaugeTemperatureRequired, 'strain'],
+  });
   const strain = checkFinite('strain', o['strain']);
   const c = check(o);
-  return (strain * c.gaugeFactorNow) / c.gaugeFactorSetting + c.thermalStrain;
+  return checkFiniteResult((strain * c.gaugeFactorNow) / c.gaugeFactorSetting + c.thermalStrain, {
+    what: 'the indicated strain',
+    param: 'strain',
+    value: strain,
+  });
 }

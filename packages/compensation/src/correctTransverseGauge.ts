@@ -1,4 +1,4 @@
-import { checkFinite, checkObject } from '@bridgework/core';
+import { checkFinite, checkFiniteResult, checkOptions } from '@bridgework/core';
 import type { TransverseSensitivityOptions } from './calibrationPoissonRatio.js';
 import { checkPoissonRatio0, checkTransverseSensitivity } from './internal/transverse.js';
 
@@ -26,7 +26,10 @@ export interface CorrectTransverseGaugeOptions extends TransverseSensitivityOpti
  * @param options - Indicated strain, true transverse strain, Kt, ν0.
  * @returns The true axial strain, m/m.
  * @throws {@link @bridgework/core!BridgeworkError} `out-of-range` for Kt outside (−1, 1) or ν0
- *   outside (−1, 0.5]; `not-finite`, `wrong-type` for bad numbers.
+ *   outside (−1, 0.5], or (against the first strain) a result beyond binary64; `not-finite`,
+ *   `wrong-type` for bad numbers;
+ *   `unknown-option` for a key it does not know (naming the closest), `missing-option` for a
+ *   required one.
  * @example
  * ```ts
  * correctTransverseGauge({ strain: 9.996982801971236e-4, transverseStrain: -3e-4, transverseSensitivity: 0.02 });
@@ -34,10 +37,17 @@ export interface CorrectTransverseGaugeOptions extends TransverseSensitivityOpti
  * ```
  */
 export function correctTransverseGauge(options: CorrectTransverseGaugeOptions): number {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['strain', 'transverseStrain', 'transverseSensitivity', 'poissonRatio0'],
+    required: ['strain', 'transverseStrain', 'transverseSensitivity'],
+  });
   const strain = checkFinite('strain', o['strain']);
   const transverseStrain = checkFinite('transverseStrain', o['transverseStrain']);
   const k = checkTransverseSensitivity('transverseSensitivity', o['transverseSensitivity']);
   const nu0 = checkPoissonRatio0(o['poissonRatio0']);
-  return strain * (1 - nu0 * k) - k * transverseStrain;
+  return checkFiniteResult(strain * (1 - nu0 * k) - k * transverseStrain, {
+    what: 'the corrected strain',
+    param: 'strain',
+    value: strain,
+  });
 }

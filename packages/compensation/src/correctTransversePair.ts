@@ -1,4 +1,4 @@
-import { checkFinite, checkLength, checkObject } from '@bridgework/core';
+import { checkFinite, checkFiniteResult, checkLength, checkOptions } from '@bridgework/core';
 import { checkPoissonRatio0, checkTransverseSensitivities } from './internal/transverse.js';
 
 /** Options of {@link correctTransversePair}. */
@@ -31,7 +31,10 @@ export interface CorrectTransversePairOptions {
  * @returns The true strains `[εx, εy]`, m/m.
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-shape` unless `strains` has two
  *   entries (and a Kt array two); `out-of-range` for Kt outside (−1, 1) or ν0 outside (−1, 0.5];
- *   `not-finite`, `wrong-type` for bad numbers.
+ *   `out-of-range` (against `strains`) when a corrected strain would exceed binary64; `not-finite`,
+ *   `wrong-type` for bad numbers;
+ *   `unknown-option` for a key it does not know (naming the closest), `missing-option` for a
+ *   required one.
  * @example
  * ```ts
  * correctTransversePair({ strains: [9.996982801971236e-4, -2.8160514935130243e-4], transverseSensitivity: 0.02 });
@@ -39,7 +42,10 @@ export interface CorrectTransversePairOptions {
  * ```
  */
 export function correctTransversePair(options: CorrectTransversePairOptions): [number, number] {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['strains', 'transverseSensitivity', 'poissonRatio0'],
+    required: ['strains', 'transverseSensitivity'],
+  });
   const strains = checkLength<unknown>('strains', o['strains'], 2);
   const ex = checkFinite('strains[0]', strains[0]);
   const ey = checkFinite('strains[1]', strains[1]);
@@ -49,5 +55,10 @@ export function correctTransversePair(options: CorrectTransversePairOptions): [n
   const sx = ex * (1 - nu0 * kx);
   const sy = ey * (1 - nu0 * ky);
   const det = 1 - kx * ky;
-  return [(sx - kx * sy) / det, (sy - ky * sx) / det];
+  const blame = {
+    what: 'the corrected strains',
+    param: 'strains',
+    value: o['strains'],
+  };
+  return [checkFiniteResult((sx - kx * sy) / det, blame), checkFiniteResult((sy - ky * sx) / det, blame)];
 }

@@ -1,7 +1,9 @@
 import {
   BridgeworkError,
+  OHMS_LIMITS,
   checkFinite,
-  checkObject,
+  checkOhms,
+  checkOptions,
   checkPositive,
   checkRange,
   formatValue,
@@ -120,8 +122,10 @@ const MAX_ITERATIONS = 100;
  * @param options - R0 and the Callendar–Van Dusen coefficients (IEC 60751 by default).
  * @returns The evaluator: `ohmsAt`, `temperatureAt`, `slopeAt`, `toleranceAt` and the ranges.
  * @throws {@link @bridgework/core!BridgeworkError} `out-of-range` when the coefficients do not give
- *   a positive, strictly increasing R(t) over the range (param `b` or `c`); `not-positive`,
- *   `not-finite`, `wrong-type` for bad numbers. The evaluator throws `out-of-range` for a
+ *   a positive, strictly increasing R(t) over the range (param `b` or `c`), or an R(850 °C) above
+ *   1e15 Ω (`r0Ohms` or `a`); `not-positive`, `not-finite`, `wrong-type` for bad numbers;
+ *   `out-of-range` for an `r0Ohms` outside `OHMS_LIMITS` of the core package; `unknown-option`
+ *   for a key it does not know (naming the closest). The evaluator throws `out-of-range` for a
  *   temperature or resistance outside the range.
  * @example
  * ```ts
@@ -132,8 +136,8 @@ const MAX_ITERATIONS = 100;
  * ```
  */
 export function createRtd(options: RtdOptions = {}): Rtd {
-  const o = checkObject('options', options);
-  const r0Ohms = o['r0Ohms'] === undefined ? 100 : checkPositive('r0Ohms', o['r0Ohms']);
+  const o = checkOptions('options', options, { known: ['r0Ohms', 'a', 'b', 'c'] });
+  const r0Ohms = o['r0Ohms'] === undefined ? 100 : checkOhms('r0Ohms', o['r0Ohms']);
   const a = o['a'] === undefined ? IEC_60751_COEFFICIENTS.a : checkPositive('a', o['a']);
   const b = o['b'] === undefined ? IEC_60751_COEFFICIENTS.b : checkFinite('b', o['b']);
   const c = o['c'] === undefined ? IEC_60751_COEFFICIENTS.c : checkFinite('c', o['c']);
@@ -148,6 +152,16 @@ export function createRtd(options: RtdOptions = {}): Rtd {
   }
 
   const limits = { min: T_MIN, max: T_MAX };
+  // x(850 °C) is the largest value of x (x is increasing): it bounds every resistance.
+  const top = r0Ohms * (1 + x(T_MAX));
+  if (!(top <= OHMS_LIMITS.max)) {
+    const param = Number.isFinite(x(T_MAX)) ? 'r0Ohms' : Math.abs(a) >= Math.abs(b * T_MAX) ? 'a' : 'b';
+    throw new BridgeworkError(
+      'out-of-range',
+      `\`${param}\` must keep R(850 °C) within ${OHMS_LIMITS.max} Ω; got ${formatValue(o[param])} (R(850 °C) = ${formatValue(top)} Ω)`,
+      { param, value: o[param], limit: OHMS_LIMITS.max },
+    );
+  }
   const rangeOhms = Object.freeze([r0Ohms * (1 + x(T_MIN)), r0Ohms * (1 + x(T_MAX))] as [number, number]);
 
   function temperatureAt(ohms: number): number {

@@ -1,18 +1,25 @@
 import {
   BridgeworkError,
+  OHMS_LIMITS,
   ZERO_CELSIUS_KELVIN,
   checkFinite,
-  checkObject,
+  checkFiniteResult,
+  checkOhms,
+  checkOptions,
   checkPositive,
   formatValue,
 } from '@bridgework/core';
 import type { Thermistor } from './thermistor.js';
 import {
+  beyondOhms,
   checkComputedTemperature,
   checkOptionalRange,
   checkTemperature,
   unreachableOhms,
 } from './internal/thermistor.js';
+
+const LN_MIN_OHMS = Math.log(OHMS_LIMITS.min);
+const LN_MAX_OHMS = Math.log(OHMS_LIMITS.max);
 
 /** The three Steinhart–Hart coefficients: 1/T = a + b·ln R + c·(ln R)³, T in K, R in Ω. */
 export interface SteinhartHartCoefficients {
@@ -51,8 +58,13 @@ const POLISH_STEPS = 3;
  *
  * @param options - a, b, c and the optional range.
  * @returns The thermistor evaluator.
+ * Domain: the evaluator accepts the temperatures (inside `rangeCelsius`, when given) at which
+ * R lies within `OHMS_LIMITS` of the core package (1 nΩ … 1 PΩ), and resistances within those
+ * limits, so every result is finite.
+ *
  * @throws {@link @bridgework/core!BridgeworkError} `not-positive` for b ≤ 0; `not-finite`,
- *   `wrong-type`, `out-of-range`, `invalid-shape` for bad numbers or range.
+ *   `wrong-type`, `out-of-range`, `invalid-shape` for bad numbers or range; `unknown-option` for
+ *   a key it does not know (naming the closest), `missing-option` without `a`, `b` or `c`.
  * @example
  * ```ts
  * const ntc = createSteinhartHartThermistor({ a: 1.129241e-3, b: 2.341077e-4, c: 8.775468e-8 });
@@ -61,7 +73,10 @@ const POLISH_STEPS = 3;
  * ```
  */
 export function createSteinhartHartThermistor(options: SteinhartHartOptions): Thermistor {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['a', 'b', 'c', 'rangeCelsius'],
+    required: ['a', 'b', 'c'],
+  });
   const a = checkFinite('a', o['a']);
   const b = checkPositive('b', o['b']);
   const c = checkFinite('c', o['c']);
@@ -96,6 +111,7 @@ export function createSteinhartHartThermistor(options: SteinhartHartOptions): Th
       if (Math.abs(step) <= 1e-16 * Math.abs(u)) break;
     }
     if (!(Math.abs(u) < uMax) || !Number.isFinite(u)) throw noTemperature(temperatureCelsius);
+    if (!(u >= LN_MIN_OHMS && u <= LN_MAX_OHMS)) throw beyondOhms(t, Math.exp(u), '');
     return u;
   }
 
@@ -105,7 +121,7 @@ export function createSteinhartHartThermistor(options: SteinhartHartOptions): Th
       return Math.exp(lnOhmsAt(temperatureCelsius));
     },
     temperatureAt(ohms: number): number {
-      const r = checkPositive('ohms', ohms);
+      const r = checkOhms('ohms', ohms);
       const u = Math.log(r);
       if (!(Math.abs(u) < uMax)) throw unreachableOhms(r, 'outside the band where the model is monotone');
       const y = a + u * (b + c * u * u);
@@ -115,7 +131,11 @@ export function createSteinhartHartThermistor(options: SteinhartHartOptions): Th
     slopeAt(temperatureCelsius: number): number {
       const u = lnOhmsAt(temperatureCelsius);
       const kelvin = temperatureCelsius + ZERO_CELSIUS_KELVIN;
-      return -Math.exp(u) / (kelvin * kelvin * (b + 3 * c * u * u));
+      return checkFiniteResult(-Math.exp(u) / kelvin / (kelvin * (b + 3 * c * u * u)), {
+        what: 'the slope',
+        param: 'temperatureCelsius',
+        value: temperatureCelsius,
+      });
     },
   };
 }

@@ -1,14 +1,13 @@
 import {
   BridgeworkError,
   checkFinite,
-  checkObject,
-  checkPositive,
+  checkFiniteResult,
+  checkGaugeFactor,
+  checkOptions,
   checkRange,
   formatValue,
-  strainFromMicrostrain,
 } from '@bridgework/core';
-import { checkInterval } from './internal/interval.js';
-import { rescaleGaugeFactor } from './rescaleGaugeFactor.js';
+import { checkOptionalRange } from './internal/thermistor.js';
 
 /** Options of {@link createThermalOutput}: a gauge lot's thermal-output polynomial. */
 export interface ThermalOutputOptions {
@@ -37,7 +36,9 @@ export interface ThermalOutput {
    *
    * @param temperatureCelsius - Gauge temperature in °C, inside `rangeCelsius`.
    * @param gaugeFactorSetting - The instrument's gauge-factor setting (> 0).
-   * @throws {@link @bridgework/core!BridgeworkError} `out-of-range`, `not-positive`, `not-finite`, `wrong-type`.
+   * @throws {@link @bridgework/core!BridgeworkError} `out-of-range` (a temperature outside
+   *   `rangeCelsius`, a thermal output beyond ±1e6 µε there, a setting outside [0.01, 1000]),
+   *   `not-positive`, `not-finite`, `wrong-type`.
    */
   apparentStrainAt(temperatureCelsius: number, gaugeFactorSetting?: number): number;
   /**
@@ -67,8 +68,10 @@ export interface ThermalOutput {
  * @param options - Coefficients in µε/°Cⁱ, the reference gauge factor, the fitted range.
  * @returns An evaluator of the apparent strain and its slope.
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-shape` unless there are one to five
- *   coefficients or `rangeCelsius` holds two numbers; `out-of-range` when min ≥ max;
- *   `not-positive`, `not-finite`, `wrong-type` for bad numbers.
+ *   coefficients or `rangeCelsius` holds two numbers; `out-of-range` when min ≥ max, for a range
+ *   reaching −273.15 °C, or a gauge factor outside [0.01, 1000]; `not-positive`, `not-finite`,
+ *   `wrong-type` for bad numbers; `unknown-option` for a key it does not know (naming the
+ *   closest), `missing-option` for a required one.
  * @example
  * ```ts
  * const to = createThermalOutput({
@@ -81,7 +84,10 @@ export interface ThermalOutput {
  * ```
  */
 export function createThermalOutput(options: ThermalOutputOptions): ThermalOutput {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['coefficientsMicrostrain', 'gaugeFactor', 'rangeCelsius'],
+    required: ['coefficientsMicrostrain', 'gaugeFactor', 'rangeCelsius'],
+  });
   const raw = o['coefficientsMicrostrain'];
   if (!Array.isArray(raw) || raw.length < 1 || raw.length > 5) {
     throw new BridgeworkError(
@@ -93,14 +99,16 @@ export function createThermalOutput(options: ThermalOutputOptions): ThermalOutpu
   const coefficients = Object.freeze(
     raw.map((a: unknown, i) => checkFinite(`coefficientsMicrostrain[${i}]`, a)),
   ) as readonly number[];
-  const gaugeFactor = checkPositive('gaugeFactor', o['gaugeFactor']);
-  const rangeCelsius = checkInterval('rangeCelsius', o['rangeCelsius']);
+  const gaugeFactor = checkGaugeFactor('gaugeFactor', o['gaugeFactor']);
+  // Required above, so never undefined here.
+  const rangeCelsius = checkOptionalRange(o['rangeCelsius']) as readonly [number, number];
   const limits = { min: rangeCelsius[0], max: rangeCelsius[1] };
 
-  function rescale(microstrain: number, gaugeFactorSetting: number | undefined): number {
-    const strain = strainFromMicrostrain(microstrain);
+  /** Strain in m/m (divided by the exact 10⁶), at the lot's gauge factor or rescaled to a setting. */
+  function rescale(microstrain: number, gaugeFactorSetting: unknown): number {
+    const strain = microstrain / 1e6;
     if (gaugeFactorSetting === undefined) return strain;
-    return rescaleGaugeFactor({ strain, fromGaugeFactor: gaugeFactor, toGaugeFactor: gaugeFactorSetting });
+    return (strain * gaugeFactor) / checkGaugeFactor('gaugeFactorSetting', gaugeFactorSetting);
   }
 
   return {
@@ -111,13 +119,24 @@ export function createThermalOutput(options: ThermalOutputOptions): ThermalOutpu
       const t = checkRange('temperatureCelsius', temperatureCelsius, limits);
       let sum = 0;
       for (let i = coefficients.length - 1; i >= 0; i--) sum = sum * t + (coefficients[i] as number);
+      if (!(Math.abs(sum) < 1e6)) {
+        throw new BridgeworkError(
+          'out-of-range',
+          `\`temperatureCelsius\` must be a temperature at which the lot's thermal output lies within ±1e6 µε (1 m/m); got ${formatValue(t)} (${formatValue(sum)} µε)`,
+          { param: 'temperatureCelsius', value: t },
+        );
+      }
       return rescale(sum, gaugeFactorSetting);
     },
     slopeAt(temperatureCelsius: number, gaugeFactorSetting?: number): number {
       const t = checkRange('temperatureCelsius', temperatureCelsius, limits);
       let sum = 0;
       for (let i = coefficients.length - 1; i >= 1; i--) sum = sum * t + i * (coefficients[i] as number);
-      return rescale(sum, gaugeFactorSetting);
+      return checkFiniteResult(rescale(sum, gaugeFactorSetting), {
+        what: "the thermal output's slope",
+        param: 'temperatureCelsius',
+        value: t,
+      });
     },
   };
 }

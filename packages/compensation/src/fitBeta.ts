@@ -1,4 +1,4 @@
-import { BridgeworkError, ZERO_CELSIUS_KELVIN, checkObject } from '@bridgework/core';
+import { BridgeworkError, ZERO_CELSIUS_KELVIN, checkOptions, formatValue } from '@bridgework/core';
 import type { BetaThermistorOptions } from './createBetaThermistor.js';
 import type { ThermistorPoint } from './fitSteinhartHart.js';
 import { checkPoints } from './internal/thermistor.js';
@@ -21,8 +21,11 @@ export interface FitBetaOptions {
  * @param options - `points`: two calibration points at different temperatures.
  * @returns `{ referenceOhms, referenceCelsius, betaKelvin }` with the first point as reference.
  * @throws {@link @bridgework/core!BridgeworkError} `too-few-points`, `invalid-shape`; `singular` for
- *   equal temperatures; `no-solution` when B ≤ 0 (not an NTC); `not-positive`, `out-of-range`,
- *   `not-finite`, `wrong-type` for bad numbers.
+ *   equal temperatures; `no-solution` when B ≤ 0 (not an NTC); `out-of-range` when B exceeds
+ *   1e6 K or the first point lies above 1000 °C (what {@link createBetaThermistor} accepts);
+ *   `not-positive`, `out-of-range`, `not-finite`, `wrong-type` for bad numbers (resistances within
+ *   `OHMS_LIMITS` of the core package); `unknown-option` for a key it does not know (naming the
+ *   closest), `missing-option`.
  * @example
  * ```ts
  * fitBeta({ points: [{ ohms: 10000, temperatureCelsius: 25 }, { ohms: 1070.3, temperatureCelsius: 85 }] });
@@ -30,7 +33,7 @@ export interface FitBetaOptions {
  * ```
  */
 export function fitBeta(options: FitBetaOptions): Required<Omit<BetaThermistorOptions, 'rangeCelsius'>> {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, { known: ['points'], required: ['points'] });
   checkPoints(o['points'], 2);
   const points = o['points'] as readonly ThermistorPoint[];
   const t1 = points[0]!.temperatureCelsius;
@@ -43,7 +46,14 @@ export function fitBeta(options: FitBetaOptions): Required<Omit<BetaThermistorOp
   }
   const k1 = t1 + ZERO_CELSIUS_KELVIN;
   const k2 = t2 + ZERO_CELSIUS_KELVIN;
-  const betaKelvin = (Math.log(points[0]!.ohms / points[1]!.ohms) * k1 * k2) / (t2 - t1);
+  const betaKelvin = Math.log(points[0]!.ohms / points[1]!.ohms) * k1 * (k2 / (t2 - t1));
+  if (betaKelvin > 1e6 || t1 > 1000) {
+    throw new BridgeworkError(
+      'out-of-range',
+      `\`points\` must give a beta model createBetaThermistor accepts (B ≤ 1e6 K, a reference at most 1000 °C); got B = ${formatValue(betaKelvin)} K at ${formatValue(t1)} °C`,
+      { param: 'points', value: points, limit: 1e6 },
+    );
+  }
   if (!(betaKelvin > 0)) {
     throw new BridgeworkError(
       'no-solution',

@@ -1,4 +1,4 @@
-import { BridgeworkError, checkObject } from '@bridgework/core';
+import { BridgeworkError, checkFiniteResult, checkOptions } from '@bridgework/core';
 import { checkPoints } from './internal/thermistor.js';
 import type { SteinhartHartCoefficients } from './createSteinhartHartThermistor.js';
 
@@ -38,7 +38,9 @@ export interface FitSteinhartHartOptions {
  * @throws {@link @bridgework/core!BridgeworkError} `too-few-points` for fewer than three points,
  *   `invalid-shape` for more; `singular` for two equal resistances (or u1 + u2 + u3 = 0);
  *   `no-solution` when the points give b ≤ 0 (not an NTC curve); `not-positive`, `out-of-range`,
- *   `not-finite`, `wrong-type` for bad numbers.
+ *   `not-finite`, `wrong-type` for bad numbers (resistances within `OHMS_LIMITS` of the core
+ *   package; `out-of-range` too for points so close that a coefficient overflows);
+ *   `unknown-option` for a key it does not know (naming the closest), `missing-option`.
  * @example
  * ```ts
  * fitSteinhartHart({ points: [
@@ -49,7 +51,7 @@ export interface FitSteinhartHartOptions {
  * ```
  */
 export function fitSteinhartHart(options: FitSteinhartHartOptions): SteinhartHartCoefficients {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, { known: ['points'], required: ['points'] });
   const { u, y } = checkPoints(o['points'], 3);
   const order = [0, 1, 2].sort((i, j) => u[i]! - u[j]!);
   const [u1, u2, u3] = order.map((i) => u[i]!) as [number, number, number];
@@ -80,5 +82,6 @@ export function fitSteinhartHart(options: FitSteinhartHartOptions): SteinhartHar
       },
     );
   }
-  return { a, b, c };
+  const blame = { what: 'the coefficients', param: 'points', value: o['points'] };
+  return { a: checkFiniteResult(a, blame), b: checkFiniteResult(b, blame), c: checkFiniteResult(c, blame) };
 }

@@ -1,4 +1,12 @@
-import { BridgeworkError, checkFinite, checkObject, checkPositive } from '@bridgework/core';
+import {
+  BridgeworkError,
+  GAUGE_FACTOR_LIMITS,
+  checkCelsius,
+  checkFinite,
+  checkGaugeFactor,
+  checkOptions,
+  formatValue,
+} from '@bridgework/core';
 
 /** Options of {@link gaugeFactorAt}. */
 export interface GaugeFactorAtOptions {
@@ -25,8 +33,12 @@ export interface GaugeFactorAtOptions {
  *
  * @param options - GF0, β, T0 and T.
  * @returns The gauge factor at T (dimensionless, > 0).
- * @throws {@link @bridgework/core!BridgeworkError} `out-of-range` when the model gives GF(T) ≤ 0;
- *   `not-positive`, `not-finite`, `wrong-type` for bad numbers.
+ * @throws {@link @bridgework/core!BridgeworkError} `out-of-range` when the model gives a gauge
+ *   factor outside [0.01, 1000] (`GAUGE_FACTOR_LIMITS`, GF(T) ≤ 0 included), a gauge factor outside
+ *   them, or a temperature at or below −273.15 °C; `not-positive`, `not-finite`, `wrong-type` for
+ *   bad numbers;
+ *   `unknown-option` for a key it does not know (naming the closest), `missing-option` for a
+ *   required one.
  * @example
  * ```ts
  * gaugeFactorAt({ gaugeFactor: 2.05, temperatureCoefficientPerKelvin: 1.1e-4, referenceCelsius: 24, temperatureCelsius: 124 });
@@ -34,18 +46,25 @@ export interface GaugeFactorAtOptions {
  * ```
  */
 export function gaugeFactorAt(options: GaugeFactorAtOptions): number {
-  const o = checkObject('options', options);
-  const gaugeFactor = checkPositive('gaugeFactor', o['gaugeFactor']);
+  const o = checkOptions('options', options, {
+    known: ['gaugeFactor', 'temperatureCoefficientPerKelvin', 'referenceCelsius', 'temperatureCelsius'],
+    required: ['gaugeFactor', 'temperatureCoefficientPerKelvin', 'referenceCelsius', 'temperatureCelsius'],
+  });
+  const gaugeFactor = checkGaugeFactor('gaugeFactor', o['gaugeFactor']);
   const beta = checkFinite('temperatureCoefficientPerKelvin', o['temperatureCoefficientPerKelvin']);
-  const referenceCelsius = checkFinite('referenceCelsius', o['referenceCelsius']);
-  const temperatureCelsius = checkFinite('temperatureCelsius', o['temperatureCelsius']);
-  const factor = 1 + beta * (temperatureCelsius - referenceCelsius);
-  if (!(factor > 0)) {
+  const referenceCelsius = checkCelsius('referenceCelsius', o['referenceCelsius']);
+  const temperatureCelsius = checkCelsius('temperatureCelsius', o['temperatureCelsius']);
+  const result = gaugeFactor * (1 + beta * (temperatureCelsius - referenceCelsius));
+  if (!(result >= GAUGE_FACTOR_LIMITS.min && result <= GAUGE_FACTOR_LIMITS.max)) {
     throw new BridgeworkError(
       'out-of-range',
-      `\`temperatureCelsius\` must keep 1 + β·(T − T0) > 0 so that the gauge factor stays positive; got ${temperatureCelsius}`,
-      { param: 'temperatureCelsius', value: temperatureCelsius },
+      `\`temperatureCelsius\` must keep the gauge factor GF·(1 + β·(T − T0)) in [${GAUGE_FACTOR_LIMITS.min}, ${GAUGE_FACTOR_LIMITS.max}]; got ${formatValue(temperatureCelsius)} (GF would be ${formatValue(result)})`,
+      {
+        param: 'temperatureCelsius',
+        value: temperatureCelsius,
+        limit: [GAUGE_FACTOR_LIMITS.min, GAUGE_FACTOR_LIMITS.max],
+      },
     );
   }
-  return gaugeFactor * factor;
+  return result;
 }

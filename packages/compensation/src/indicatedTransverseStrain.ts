@@ -1,4 +1,4 @@
-import { checkFinite, checkObject } from '@bridgework/core';
+import { checkFinite, checkFiniteResult, checkOptions } from '@bridgework/core';
 import type { TransverseSensitivityOptions } from './calibrationPoissonRatio.js';
 import { checkPoissonRatio0, checkTransverseSensitivity } from './internal/transverse.js';
 
@@ -29,7 +29,10 @@ export interface IndicatedTransverseStrainOptions extends TransverseSensitivityO
  * @param options - True axial and transverse strain, Kt, ν0.
  * @returns The indicated strain, m/m.
  * @throws {@link @bridgework/core!BridgeworkError} `out-of-range` for Kt outside (−1, 1) or ν0
- *   outside (−1, 0.5]; `not-finite`, `wrong-type` for bad numbers.
+ *   outside (−1, 0.5], or (against the first strain) a result beyond binary64; `not-finite`,
+ *   `wrong-type` for bad numbers;
+ *   `unknown-option` for a key it does not know (naming the closest), `missing-option` for a
+ *   required one.
  * @example
  * ```ts
  * indicatedTransverseStrain({ axialStrain: 1e-3, transverseStrain: -3e-4, transverseSensitivity: 0.02 });
@@ -37,10 +40,17 @@ export interface IndicatedTransverseStrainOptions extends TransverseSensitivityO
  * ```
  */
 export function indicatedTransverseStrain(options: IndicatedTransverseStrainOptions): number {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['axialStrain', 'transverseStrain', 'transverseSensitivity', 'poissonRatio0'],
+    required: ['axialStrain', 'transverseStrain', 'transverseSensitivity'],
+  });
   const axialStrain = checkFinite('axialStrain', o['axialStrain']);
   const transverseStrain = checkFinite('transverseStrain', o['transverseStrain']);
   const k = checkTransverseSensitivity('transverseSensitivity', o['transverseSensitivity']);
   const nu0 = checkPoissonRatio0(o['poissonRatio0']);
-  return (axialStrain + k * transverseStrain) / (1 - nu0 * k);
+  return checkFiniteResult((axialStrain + k * transverseStrain) / (1 - nu0 * k), {
+    what: 'the indicated strain',
+    param: 'axialStrain',
+    value: axialStrain,
+  });
 }

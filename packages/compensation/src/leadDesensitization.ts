@@ -1,9 +1,11 @@
 import { createStrainBridge } from '@bridgework/bridge';
-import { checkNonNegative, checkObject, checkOneOf, checkPositive, leadWirings } from '@bridgework/core';
-import { UNIT_SLOPE_GAUGE_FACTOR } from './internal/leads.js';
+import { checkOhms, checkOneOf, checkOptions, leadWirings } from '@bridgework/core';
+import { UNIT_SLOPE_GAUGE_FACTOR, type QuarterBridgeWiring } from './internal/leads.js';
 
-/** Lead wirings of a quarter-bridge gauge (see `LeadWiring` in the core package). */
-export type QuarterBridgeWiring = 'two-wire' | 'three-wire';
+export type { QuarterBridgeWiring } from './internal/leads.js';
+
+const ZERO_OK = { allowZero: true } as const;
+const allKeys = ['wiring', 'inputOhms', 'gaugeOhms', 'ohmsPerLead', 'completionOhms'];
 
 /** Lead wirings of a full-bridge transducer (see `LeadWiring` in the core package). */
 export type FullBridgeWiring = 'four-wire' | 'six-wire';
@@ -77,8 +79,13 @@ export type LeadDesensitizationOptions = QuarterBridgeLeadOptions | FullBridgeLe
  *
  * @param options - Wiring, gauge (or input) resistance, lead resistance, optional completion.
  * @returns The desensitization factor, in (0, 1] for the standard conditions.
+ * Every resistance lies in `OHMS_LIMITS` of the core package (1 nΩ … 1 PΩ; leads may be 0), so
+ * the factor is always finite, in (0, 1] for the standard conditions.
+ *
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for an unknown wiring;
- *   `not-positive`, `negative`, `not-finite`, `wrong-type` for bad numbers.
+ *   `not-positive`, `negative`, `not-finite`, `wrong-type` for bad numbers; `out-of-range` for a
+ *   resistance outside those limits; `unknown-option` (naming the closest key),
+ *   `missing-option`.
  * @example
  * ```ts
  * leadDesensitization({ wiring: 'two-wire', gaugeOhms: 350, ohmsPerLead: 1.339 }); // 0.99240...
@@ -87,19 +94,30 @@ export type LeadDesensitizationOptions = QuarterBridgeLeadOptions | FullBridgeLe
  * ```
  */
 export function leadDesensitization(options: LeadDesensitizationOptions): number {
-  const o = checkObject('options', options);
-  const wiring = checkOneOf('wiring', o['wiring'], leadWirings);
+  const wiring = checkOneOf(
+    'wiring',
+    checkOptions('options', options, { known: allKeys, required: ['wiring'] })['wiring'],
+    leadWirings,
+  );
   if (wiring === 'four-wire' || wiring === 'six-wire') {
-    const inputOhms = checkPositive('inputOhms', o['inputOhms']);
-    const ohmsPerLead = checkNonNegative('ohmsPerLead', o['ohmsPerLead']);
+    const o = checkOptions('options', options, {
+      known: ['wiring', 'inputOhms', 'ohmsPerLead'],
+      required: ['inputOhms', 'ohmsPerLead'],
+    });
+    const inputOhms = checkOhms('inputOhms', o['inputOhms']);
+    const ohmsPerLead = checkOhms('ohmsPerLead', o['ohmsPerLead'], ZERO_OK);
     return wiring === 'six-wire' ? 1 : inputOhms / (inputOhms + 2 * ohmsPerLead);
   }
-  const gaugeOhms = checkPositive('gaugeOhms', o['gaugeOhms']);
-  const ohmsPerLead = checkNonNegative('ohmsPerLead', o['ohmsPerLead']);
+  const o = checkOptions('options', options, {
+    known: ['wiring', 'gaugeOhms', 'ohmsPerLead', 'completionOhms'],
+    required: ['gaugeOhms', 'ohmsPerLead'],
+  });
+  const gaugeOhms = checkOhms('gaugeOhms', o['gaugeOhms']);
+  const ohmsPerLead = checkOhms('ohmsPerLead', o['ohmsPerLead'], ZERO_OK);
   if (o['completionOhms'] === undefined) {
     return gaugeOhms / (gaugeOhms + (wiring === 'two-wire' ? 2 * ohmsPerLead : ohmsPerLead));
   }
-  const completionOhms = checkPositive('completionOhms', o['completionOhms']);
+  const completionOhms = checkOhms('completionOhms', o['completionOhms']);
   // With GF = 4 the nominal quarter-bridge slope GF/4 is exactly 1, so the slope is the factor.
   return createStrainBridge({
     arrangement: 'quarter',

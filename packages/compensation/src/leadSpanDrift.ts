@@ -1,4 +1,4 @@
-import { checkNonNegative, checkObject, checkOneOf, checkPositive } from '@bridgework/core';
+import { checkOhms, checkOneOf, checkOptions } from '@bridgework/core';
 import type { FullBridgeWiring } from './leadDesensitization.js';
 
 /** Options of {@link leadSpanDrift}. */
@@ -31,7 +31,10 @@ export interface LeadSpanDriftOptions {
  * @param options - Wiring, input resistance, reference and present lead resistance.
  * @returns Span change as a fraction (negative when the leads warm).
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for a wiring other than
- *   four- or six-wire; `not-positive`, `negative`, `not-finite`, `wrong-type` for bad numbers.
+ *   four- or six-wire; `not-positive`, `negative`, `not-finite`, `wrong-type` for bad numbers;
+ *   `out-of-range` for a resistance outside `OHMS_LIMITS` of the core package (leads may be 0);
+ *   `unknown-option` for a key it does not know (naming the closest), `missing-option` for a
+ *   required one.
  * @example
  * ```ts
  * leadSpanDrift({ wiring: 'four-wire', inputOhms: 350, referenceOhmsPerLead: 2, ohmsPerLead: 2.2 });
@@ -39,11 +42,16 @@ export interface LeadSpanDriftOptions {
  * ```
  */
 export function leadSpanDrift(options: LeadSpanDriftOptions): number {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['wiring', 'inputOhms', 'referenceOhmsPerLead', 'ohmsPerLead'],
+    required: ['wiring', 'inputOhms', 'referenceOhmsPerLead', 'ohmsPerLead'],
+  });
   const wiring = checkOneOf('wiring', o['wiring'], ['four-wire', 'six-wire']);
-  const inputOhms = checkPositive('inputOhms', o['inputOhms']);
-  const referenceOhmsPerLead = checkNonNegative('referenceOhmsPerLead', o['referenceOhmsPerLead']);
-  const ohmsPerLead = checkNonNegative('ohmsPerLead', o['ohmsPerLead']);
+  const inputOhms = checkOhms('inputOhms', o['inputOhms']);
+  const referenceOhmsPerLead = checkOhms('referenceOhmsPerLead', o['referenceOhmsPerLead'], {
+    allowZero: true,
+  });
+  const ohmsPerLead = checkOhms('ohmsPerLead', o['ohmsPerLead'], { allowZero: true });
   if (wiring === 'six-wire') return 0;
   return (-2 * (ohmsPerLead - referenceOhmsPerLead)) / (inputOhms + 2 * ohmsPerLead);
 }

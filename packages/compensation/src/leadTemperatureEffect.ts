@@ -1,6 +1,6 @@
-import { checkFinite, checkNonNegative, checkObject } from '@bridgework/core';
+import { blameOption, checkFinite, checkOhms, checkOptions } from '@bridgework/core';
 import type { QuarterBridgeGaugeOptions } from './leadDesensitization.js';
-import { checkQuarterSetup, quarterBridge } from './internal/leads.js';
+import { checkQuarterSetup, quarterBridge, quarterGaugeKeys } from './internal/leads.js';
 
 /** Options of {@link leadTemperatureEffect}. */
 export interface LeadTemperatureEffectOptions extends QuarterBridgeGaugeOptions {
@@ -24,6 +24,8 @@ export interface LeadTemperatureEffect {
   readonly spanChange: number;
 }
 
+const ZERO_OK = { allowZero: true } as const;
+
 /**
  * The zero shift, apparent strain and span change of a two- or three-wire quarter bridge whose
  * leads changed resistance (usually with temperature) after the channel was set up.
@@ -44,8 +46,12 @@ export interface LeadTemperatureEffect {
  * @param options - Bridge, wiring, reference and present lead resistance, true strain.
  * @returns Zero shift (V/V), indicated and apparent strain (m/m), span change (fraction).
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for a wiring other than
- *   two- or three-wire; `out-of-range` for a strain outside the bridge's strain range;
- *   `not-positive`, `negative`, `not-finite`, `wrong-type` for bad numbers.
+ *   two- or three-wire; `out-of-range` for a strain outside the bridge's strain
+ *   range (also when the reading at the new lead resistance is beyond what the reference bridge
+ *   reads), a gauge factor outside [0.01, 1000] or a resistance outside `OHMS_LIMITS`;
+ *   `not-positive`, `negative`, `not-finite`, `wrong-type` for bad numbers;
+ *   `unknown-option` for a key it does not know (naming the closest), `missing-option` for a
+ *   required one.
  * @example
  * ```ts
  * // 350 Ω gauge, GF 2, two-wire, leads 1.339 Ω at zeroing, 1.418 Ω after a 15 K rise:
@@ -55,14 +61,24 @@ export interface LeadTemperatureEffect {
  * ```
  */
 export function leadTemperatureEffect(options: LeadTemperatureEffectOptions): LeadTemperatureEffect {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: [...quarterGaugeKeys, 'referenceOhmsPerLead', 'ohmsPerLead', 'strain'],
+    required: ['gaugeFactor', 'wiring', 'referenceOhmsPerLead', 'ohmsPerLead'],
+  });
   const setup = checkQuarterSetup(o);
-  const referenceOhmsPerLead = checkNonNegative('referenceOhmsPerLead', o['referenceOhmsPerLead']);
-  const ohmsPerLead = checkNonNegative('ohmsPerLead', o['ohmsPerLead']);
+  const referenceOhmsPerLead = checkOhms('referenceOhmsPerLead', o['referenceOhmsPerLead'], ZERO_OK);
+  const ohmsPerLead = checkOhms('ohmsPerLead', o['ohmsPerLead'], ZERO_OK);
   const strain = o['strain'] === undefined ? 0 : checkFinite('strain', o['strain']);
   const reference = quarterBridge(setup, referenceOhmsPerLead);
   const now = quarterBridge(setup, ohmsPerLead);
-  const indicatedStrain = reference.strainFromRatio(now.ratioFromStrain(strain));
+  const indicatedStrain = blameOption(
+    {
+      param: 'strain',
+      value: strain,
+      requirement: 'must give a reading the bridge can take at both lead resistances',
+    },
+    () => reference.strainFromRatio(now.ratioFromStrain(strain)),
+  );
   return {
     zeroShiftRatio: now.offsetRatio - reference.offsetRatio,
     indicatedStrain,

@@ -1,6 +1,6 @@
-import { checkNonNegative, checkObject } from '@bridgework/core';
+import { checkOhms, checkOptions, blameOption } from '@bridgework/core';
 import type { QuarterBridgeGaugeOptions } from './leadDesensitization.js';
-import { checkQuarterSetup, quarterBridge } from './internal/leads.js';
+import { checkQuarterSetup, quarterBridge, quarterGaugeKeys } from './internal/leads.js';
 
 /** Options of {@link leadZeroOffset}. */
 export interface LeadZeroOffsetOptions extends QuarterBridgeGaugeOptions {
@@ -35,7 +35,10 @@ export interface LeadZeroOffset {
  * @returns The offset ratio and its apparent strain.
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for a wiring other than
  *   two- or three-wire; `not-positive`, `negative`, `not-finite`, `wrong-type` for bad numbers;
- *   `ratio-out-of-range` when the offset is beyond what the lead-free bridge can read.
+ *   `out-of-range` (against `ohmsPerLead`) when the offset is beyond what the lead-free bridge can
+ *   read, or for a gauge factor or resistance outside its limits;
+ *   `unknown-option` for a key it does not know (naming the closest), `missing-option` for a
+ *   required one.
  * @example
  * ```ts
  * const z = leadZeroOffset({ gaugeFactor: 2, gaugeOhms: 350, ohmsPerLead: 1, wiring: 'two-wire' });
@@ -44,9 +47,20 @@ export interface LeadZeroOffset {
  * ```
  */
 export function leadZeroOffset(options: LeadZeroOffsetOptions): LeadZeroOffset {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: [...quarterGaugeKeys, 'ohmsPerLead'],
+    required: ['gaugeFactor', 'wiring', 'ohmsPerLead'],
+  });
   const setup = checkQuarterSetup(o);
-  const ohmsPerLead = checkNonNegative('ohmsPerLead', o['ohmsPerLead']);
+  const ohmsPerLead = checkOhms('ohmsPerLead', o['ohmsPerLead'], { allowZero: true });
   const offsetRatio = quarterBridge(setup, ohmsPerLead).offsetRatio;
-  return { offsetRatio, apparentStrain: quarterBridge(setup, undefined).strainFromRatio(offsetRatio) };
+  const apparentStrain = blameOption(
+    {
+      param: 'ohmsPerLead',
+      value: ohmsPerLead,
+      requirement: 'must leave a zero offset the bridge without leads can read',
+    },
+    () => quarterBridge(setup, undefined).strainFromRatio(offsetRatio),
+  );
+  return { offsetRatio, apparentStrain };
 }

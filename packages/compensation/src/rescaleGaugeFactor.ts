@@ -1,4 +1,4 @@
-import { checkFinite, checkObject, checkPositive } from '@bridgework/core';
+import { checkFinite, checkFiniteResult, checkGaugeFactor, checkOptions } from '@bridgework/core';
 
 /** Options of {@link rescaleGaugeFactor}. */
 export interface RescaleGaugeFactorOptions {
@@ -23,7 +23,11 @@ export interface RescaleGaugeFactorOptions {
  *
  * @param options - The indicated strain and the two gauge factors.
  * @returns The strain referred to `toGaugeFactor`, m/m.
- * @throws {@link @bridgework/core!BridgeworkError} `not-positive`, `not-finite`, `wrong-type`.
+ * @throws {@link @bridgework/core!BridgeworkError} `not-positive`, `not-finite`, `wrong-type`;
+ *   `out-of-range` for a gauge factor outside [0.01, 1000], or a strain whose rescaled value would
+ *   exceed binary64;
+ *   `unknown-option` for a key it does not know (naming the closest), `missing-option` for a
+ *   required one.
  * @example
  * ```ts
  * // Logged with the instrument at GF 2.00; the gauges' lot factor is 2.11:
@@ -31,9 +35,16 @@ export interface RescaleGaugeFactorOptions {
  * ```
  */
 export function rescaleGaugeFactor(options: RescaleGaugeFactorOptions): number {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['strain', 'fromGaugeFactor', 'toGaugeFactor'],
+    required: ['strain', 'fromGaugeFactor', 'toGaugeFactor'],
+  });
   const strain = checkFinite('strain', o['strain']);
-  const from = checkPositive('fromGaugeFactor', o['fromGaugeFactor']);
-  const to = checkPositive('toGaugeFactor', o['toGaugeFactor']);
-  return (strain * from) / to;
+  const from = checkGaugeFactor('fromGaugeFactor', o['fromGaugeFactor']);
+  const to = checkGaugeFactor('toGaugeFactor', o['toGaugeFactor']);
+  return checkFiniteResult((strain * from) / to, {
+    what: 'the rescaled strain',
+    param: 'strain',
+    value: strain,
+  });
 }

@@ -1,12 +1,13 @@
 import { solveArm, solveBridge } from '@bridgework/bridge';
 import {
   BridgeworkError,
+  OHMS_LIMITS,
   checkFinite,
-  checkNonNegative,
-  checkObject,
+  checkOhms,
   checkOneOf,
-  checkPositive,
+  checkOptions,
   formatValue,
+  blameOption,
 } from '@bridgework/core';
 import type { Rtd } from './createRtd.js';
 
@@ -72,9 +73,12 @@ export interface RtdLeadError {
  * @returns Measured resistance (Ω), indicated temperature (°C) and its error (K).
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for an unknown wiring or
  *   readout, or four-wire with the quarter-bridge readout; `out-of-range` for a temperature
- *   outside [−200, 850] °C or a measured resistance outside the RTD's range (param `ohms`);
- *   `negative` when RL + ΔRL < 0; `wrong-type` for an `rtd` that is not an evaluator;
- *   `not-positive`, `not-finite` for bad numbers.
+ *   outside [−200, 850] °C, a resistance outside `OHMS_LIMITS` of the core package, a lead
+ *   mismatch beyond ±1e15 Ω, or a measured resistance outside the RTD's range (reported against
+ *   `ohmsPerLead`, the option that moved it there); `negative` when RL + ΔRL < 0; `wrong-type` for
+ *   an `rtd` that is not an evaluator; `not-positive`, `not-finite` for bad numbers;
+ *   `unknown-option` for a key it does not know (naming the closest), `missing-option` for a
+ *   required one.
  * @example
  * ```ts
  * // Pt100 at 60 °C on 25 m of AWG 24 copper (2.105 Ω per lead), two-wire:
@@ -83,7 +87,18 @@ export interface RtdLeadError {
  * ```
  */
 export function rtdLeadError(options: RtdLeadErrorOptions): RtdLeadError {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: [
+      'rtd',
+      'temperatureCelsius',
+      'ohmsPerLead',
+      'wiring',
+      'leadMismatchOhms',
+      'readout',
+      'completionOhms',
+    ],
+    required: ['rtd', 'temperatureCelsius', 'ohmsPerLead', 'wiring'],
+  });
   const rtd = o['rtd'] as Rtd;
   if (typeof (rtd as Partial<Rtd> | null)?.temperatureAt !== 'function' || typeof rtd.ohmsAt !== 'function') {
     throw new BridgeworkError(
@@ -96,10 +111,17 @@ export function rtdLeadError(options: RtdLeadErrorOptions): RtdLeadError {
     );
   }
   const temperatureCelsius = checkFinite('temperatureCelsius', o['temperatureCelsius']);
-  const ohmsPerLead = checkNonNegative('ohmsPerLead', o['ohmsPerLead']);
+  const ohmsPerLead = checkOhms('ohmsPerLead', o['ohmsPerLead'], { allowZero: true });
   const wiring = checkOneOf('wiring', o['wiring'], ['two-wire', 'three-wire', 'four-wire']);
   const mismatch =
     o['leadMismatchOhms'] === undefined ? 0 : checkFinite('leadMismatchOhms', o['leadMismatchOhms']);
+  if (!(Math.abs(mismatch) <= OHMS_LIMITS.max)) {
+    throw new BridgeworkError(
+      'out-of-range',
+      `\`leadMismatchOhms\` must be within ±${OHMS_LIMITS.max} Ω; got ${formatValue(mismatch)}`,
+      { param: 'leadMismatchOhms', value: mismatch, limit: [-OHMS_LIMITS.max, OHMS_LIMITS.max] },
+    );
+  }
   const readout =
     o['readout'] === undefined
       ? 'resistance'
@@ -118,6 +140,7 @@ export function rtdLeadError(options: RtdLeadErrorOptions): RtdLeadError {
   }
   const lead2 = ohmsPerLead;
   const rt = rtd.ohmsAt(temperatureCelsius);
+  const leads = { param: 'ohmsPerLead', value: ohmsPerLead };
 
   let measuredOhms: number;
   if (readout === 'resistance') {
@@ -136,16 +159,22 @@ export function rtdLeadError(options: RtdLeadErrorOptions): RtdLeadError {
       );
     }
     const rc =
-      o['completionOhms'] === undefined ? rtd.r0Ohms : checkPositive('completionOhms', o['completionOhms']);
+      o['completionOhms'] === undefined ? rtd.r0Ohms : checkOhms('completionOhms', o['completionOhms']);
     const armsOhms: [number, number, number, number] =
       wiring === 'two-wire' ? [rt + lead1 + lead2, rc, rc, rc] : [rt + lead1, rc + lead2, rc, rc];
-    const reading = solveBridge({ armsOhms, excitationVolts: 1 });
-    measuredOhms = solveArm({
-      armsOhms: [null, rc, rc, rc],
-      excitationVolts: 1,
-      outputVolts: reading.outputVolts,
-    });
+    measuredOhms = blameOption(
+      { ...leads, requirement: 'must leave a bridge the instrument can solve' },
+      () =>
+        solveArm({
+          armsOhms: [null, rc, rc, rc],
+          excitationVolts: 1,
+          outputVolts: solveBridge({ armsOhms, excitationVolts: 1 }).outputVolts,
+        }),
+    );
   }
-  const indicatedCelsius = rtd.temperatureAt(measuredOhms);
+  const indicatedCelsius = blameOption(
+    { ...leads, requirement: "must leave the measured resistance inside the sensor's range" },
+    () => rtd.temperatureAt(measuredOhms),
+  );
   return { measuredOhms, indicatedCelsius, errorCelsius: indicatedCelsius - temperatureCelsius };
 }

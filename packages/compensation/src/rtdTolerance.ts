@@ -1,4 +1,4 @@
-import { BridgeworkError, checkFinite, checkObject, checkOneOf } from '@bridgework/core';
+import { BridgeworkError, checkFinite, checkOneOf, checkOptions } from '@bridgework/core';
 
 /** An IEC 60751 tolerance class of an industrial platinum resistance thermometer. */
 export type RtdToleranceClass = 'AA' | 'A' | 'B' | 'C';
@@ -85,14 +85,19 @@ export interface RtdToleranceOptions {
  * @param options - Class, temperature and element construction.
  * @returns The tolerance half-width in °C (> 0).
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for an unknown class or
- *   element; `out-of-range` outside the validity range; `not-finite`, `wrong-type`.
+ *   element; `out-of-range` outside the validity range; `not-finite`, `wrong-type`;
+ *   `unknown-option` for a key it does not know (naming the closest), `missing-option` for a
+ *   required one.
  * @example
  * ```ts
  * rtdToleranceCelsius({ toleranceClass: 'A', temperatureCelsius: 100 }); // 0.35
  * ```
  */
 export function rtdToleranceCelsius(options: RtdToleranceOptions): number {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['toleranceClass', 'temperatureCelsius', 'element'],
+    required: ['toleranceClass', 'temperatureCelsius'],
+  });
   const toleranceClass = checkOneOf('toleranceClass', o['toleranceClass'], ['AA', 'A', 'B', 'C']);
   const element =
     o['element'] === undefined ? 'wire-wound' : checkOneOf('element', o['element'], ['wire-wound', 'film']);

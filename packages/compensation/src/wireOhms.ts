@@ -2,9 +2,10 @@ import {
   BridgeworkError,
   checkFinite,
   checkInteger,
+  checkFiniteResult,
   checkNonNegative,
-  checkObject,
   checkOneOf,
+  checkOptions,
   checkPositive,
   checkRange,
   requireOption,
@@ -46,7 +47,7 @@ const TEMPERATURE_MAX_CELSIUS = 300;
 export interface WireOhmsOptions {
   /** AWG size, an integer in [−3, 56] (−3 = 0000); the diameter follows {@link awgDiameterMeters}. */
   readonly awg?: number;
-  /** Bare conductor diameter in m (> 0), instead of `awg`. */
+  /** Bare conductor diameter in m, in [1e-6, 1] (1 µm … 1 m), instead of `awg`. */
   readonly diameterMeters?: number;
   /** Length of each conductor in m (≥ 0). */
   readonly lengthMeters: number;
@@ -83,7 +84,10 @@ export interface WireOhmsOptions {
  *   `conflicting-options` when both sizes, or a material and a custom resistivity, are given;
  *   `invalid-option` for an unknown material; `out-of-range` for a temperature outside
  *   [−100, 300] °C or one at which the custom material's resistance would not be positive;
- *   `not-integer`, `not-positive`, `negative`, `not-finite`, `wrong-type` for bad numbers.
+ *   `not-integer`, `not-positive`, `negative`, `not-finite`, `wrong-type` for bad numbers;
+ *   `out-of-range` for a diameter outside [1e-6, 1] m, or when the resistance would exceed
+ *   binary64 (an extreme length with a custom resistivity); `unknown-option` for a key it does not
+ *   know (naming the closest), `missing-option` without `lengthMeters`.
  * @example
  * ```ts
  * wireOhms({ awg: 26, lengthMeters: 10 }); // 1.3390722264134383 Ω at 20 °C
@@ -92,7 +96,19 @@ export interface WireOhmsOptions {
  * ```
  */
 export function wireOhms(options: WireOhmsOptions): number {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: [
+      'awg',
+      'diameterMeters',
+      'lengthMeters',
+      'temperatureCelsius',
+      'material',
+      'resistivityOhmMeters',
+      'temperatureCoefficientPerKelvin',
+      'conductors',
+    ],
+    required: ['lengthMeters'],
+  });
   if (o['awg'] !== undefined && o['diameterMeters'] !== undefined) {
     throw new BridgeworkError(
       'conflicting-options',
@@ -105,7 +121,10 @@ export function wireOhms(options: WireOhmsOptions): number {
   }
   const diameterMeters =
     o['diameterMeters'] !== undefined
-      ? checkPositive('diameterMeters', o['diameterMeters'])
+      ? checkRange('diameterMeters', checkPositive('diameterMeters', o['diameterMeters']), {
+          min: 1e-6,
+          max: 1,
+        })
       : awgDiameterMeters(requireOption('awg', o['awg'] as number | undefined, 'or `diameterMeters`'));
   const lengthMeters = checkNonNegative('lengthMeters', o['lengthMeters']);
   const temperatureCelsius =
@@ -127,7 +146,10 @@ export function wireOhms(options: WireOhmsOptions): number {
     );
   }
   const areaSquareMeters = (Math.PI * diameterMeters * diameterMeters) / 4;
-  return (material.resistivityOhmMeters * lengthMeters * factor) / (areaSquareMeters * conductors);
+  return checkFiniteResult(
+    (material.resistivityOhmMeters * ((lengthMeters * factor) / areaSquareMeters)) / conductors,
+    { what: 'the wire resistance', param: 'lengthMeters', value: lengthMeters },
+  );
 }
 
 function resolveMaterial(o: Record<string, unknown>): ConductorMaterial {

@@ -173,7 +173,7 @@ describe('correctRosetteTransverse', () => {
       'not-finite',
       'poissonRatio0',
     ],
-    ['no layout', { strains: [0, 0, 0], transverseSensitivity: 0 }, 'wrong-type', 'layout'],
+    ['no layout', { strains: [0, 0, 0], transverseSensitivity: 0 }, 'missing-option', 'options.layout'],
   ] as const)('rejects %s', (_name, options, code, param) => {
     expect(() => correctRosetteTransverse(options as never)).toThrowBridgeworkError(code, { param });
   });

@@ -170,8 +170,8 @@ describe('correctTemperatureEffects', () => {
     [
       'missing zero temperature',
       { indicatedStrain: 0, gaugeFactorSetting: 2, temperatureCelsius: 30, gaugeFactor: 2 },
-      'wrong-type',
-      'zeroCelsius',
+      'missing-option',
+      'options.zeroCelsius',
     ],
     [
       'infinite temperature',
@@ -188,8 +188,8 @@ describe('correctTemperatureEffects', () => {
     [
       'missing gauge factor',
       { indicatedStrain: 0, gaugeFactorSetting: 2, zeroCelsius: 20, temperatureCelsius: 30 },
-      'wrong-type',
-      'gaugeFactor',
+      'missing-option',
+      'options.gaugeFactor',
     ],
     [
       'a plain object as thermal output',
@@ -243,6 +243,6 @@ describe('correctTemperatureEffects', () => {
         temperatureCelsius: 30,
         gaugeFactor: 2,
       } as never),
-    ).toThrowBridgeworkError('wrong-type', { param: 'strain' });
+    ).toThrowBridgeworkError('missing-option', { param: 'options.strain' });
   });
 });

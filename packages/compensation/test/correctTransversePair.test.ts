@@ -100,7 +100,7 @@ describe('correctTransversePair', () => {
       'out-of-range',
       'transverseSensitivity[1]',
     ],
-    ['missing Kt', { strains: [1e-3, 0] }, 'wrong-type', 'transverseSensitivity'],
+    ['missing Kt', { strains: [1e-3, 0] }, 'missing-option', 'options.transverseSensitivity'],
     [
       'ν0 0.51',
       { strains: [1e-3, 0], transverseSensitivity: 0.02, poissonRatio0: 0.51 },

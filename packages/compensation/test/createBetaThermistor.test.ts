@@ -91,12 +91,12 @@ describe('createBetaThermistor', () => {
   it.each([
     ['zero R0', { referenceOhms: 0, betaKelvin: 3977 }, 'not-positive', 'referenceOhms'],
     ['negative B', { referenceOhms: 1e4, betaKelvin: -3977 }, 'not-positive', 'betaKelvin'],
-    ['missing B', { referenceOhms: 1e4 }, 'wrong-type', 'betaKelvin'],
+    ['missing B', { referenceOhms: 1e4 }, 'missing-option', 'options.betaKelvin'],
     [
       't0 below absolute zero',
       { referenceOhms: 1e4, betaKelvin: 3977, referenceCelsius: -300 },
       'out-of-range',
-      'temperatureCelsius',
+      'referenceCelsius',
     ],
     [
       'a reversed range',

@@ -119,7 +119,9 @@ describe('createSteinhartHartThermistor', () => {
   });
 
   it('rejects resistances that would need T ≤ 0 K, and respects its range', () => {
-    expect(() => ntc.temperatureAt(1e-300)).toThrowBridgeworkError('no-solution', { param: 'ohms' });
+    // 1 mΩ: y = a + b·ln R + c·ln³R < 0, so 1/T would be negative.
+    expect(() => ntc.temperatureAt(1e-3)).toThrowBridgeworkError('no-solution', { param: 'ohms' });
+    expect(() => ntc.temperatureAt(1e-300)).toThrowBridgeworkError('out-of-range', { param: 'ohms' });
     const ranged = createSteinhartHartThermistor({ ...classic, rangeCelsius: [0, 70] });
     expect(() => ranged.ohmsAt(71)).toThrowBridgeworkError('out-of-range', { param: 'temperatureCelsius' });
     expect(() => ranged.temperatureAt(1e6)).toThrowBridgeworkError('out-of-range', { param: 'ohms' });
@@ -130,7 +132,7 @@ describe('createSteinhartHartThermistor', () => {
     ['b = 0', { a: 1e-3, b: 0, c: 1e-7 }, 'not-positive', 'b'],
     ['negative b', { a: 1e-3, b: -2e-4, c: 1e-7 }, 'not-positive', 'b'],
     ['NaN a', { a: Number.NaN, b: 2e-4, c: 1e-7 }, 'not-finite', 'a'],
-    ['missing c', { a: 1e-3, b: 2e-4 }, 'wrong-type', 'c'],
+    ['missing c', { a: 1e-3, b: 2e-4 }, 'missing-option', 'options.c'],
     ['a bad range', { a: 1e-3, b: 2e-4, c: 1e-7, rangeCelsius: [10, 10] }, 'out-of-range', 'rangeCelsius'],
   ] as const)('rejects %s', (_name, options, code, param) => {
     expect(() => createSteinhartHartThermistor(options as never)).toThrowBridgeworkError(code, { param });

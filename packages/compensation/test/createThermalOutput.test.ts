@@ -89,7 +89,7 @@ describe('createThermalOutput', () => {
       param: 'temperatureCelsius',
     });
     expect(() => lot.apparentStrainAt(20, 0)).toThrowBridgeworkError('not-positive', {
-      param: 'toGaugeFactor',
+      param: 'gaugeFactorSetting',
     });
   });
 
@@ -124,7 +124,7 @@ describe('createThermalOutput', () => {
       'not-positive',
       'gaugeFactor',
     ],
-    ['no range', { coefficientsMicrostrain: [1], gaugeFactor: 2 }, 'invalid-shape', 'rangeCelsius'],
+    ['no range', { coefficientsMicrostrain: [1], gaugeFactor: 2 }, 'missing-option', 'options.rangeCelsius'],
     [
       'reversed range',
       { coefficientsMicrostrain: [1], gaugeFactor: 2, rangeCelsius: [50, 0] },

@@ -135,7 +135,7 @@ describe('fitSteinhartHart', () => {
       'points[1].temperatureCelsius',
     ],
     ['not an array', { points: 'three' }, 'wrong-type', 'points'],
-    ['no points', {}, 'wrong-type', 'points'],
+    ['no points', {}, 'missing-option', 'options.points'],
   ] as const)('rejects %s', (_name, options, code, param) => {
     expect(() => fitSteinhartHart(options as never)).toThrowBridgeworkError(code, { param });
   });

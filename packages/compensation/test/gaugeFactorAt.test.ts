@@ -71,8 +71,8 @@ describe('gaugeFactorAt', () => {
     [
       'missing reference',
       { gaugeFactor: 2, temperatureCoefficientPerKelvin: 1e-4, temperatureCelsius: 20 },
-      'wrong-type',
-      'referenceCelsius',
+      'missing-option',
+      'options.referenceCelsius',
     ],
     [
       'infinite temperature',

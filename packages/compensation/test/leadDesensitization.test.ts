@@ -164,14 +164,14 @@ describe('leadDesensitization agrees with createStrainBridge under its stated co
 describe('leadDesensitization: bad inputs', () => {
   it.each([
     ['unknown wiring', { wiring: 'five-wire', gaugeOhms: 350, ohmsPerLead: 1 }, 'invalid-option', 'wiring'],
-    ['missing wiring', { gaugeOhms: 350, ohmsPerLead: 1 }, 'invalid-option', 'wiring'],
+    ['missing wiring', { gaugeOhms: 350, ohmsPerLead: 1 }, 'missing-option', 'options.wiring'],
     ['zero gauge', { wiring: 'two-wire', gaugeOhms: 0, ohmsPerLead: 1 }, 'not-positive', 'gaugeOhms'],
     ['NaN gauge', { wiring: 'two-wire', gaugeOhms: Number.NaN, ohmsPerLead: 1 }, 'not-finite', 'gaugeOhms'],
     [
       'four-wire with gaugeOhms only',
       { wiring: 'four-wire', gaugeOhms: 350, ohmsPerLead: 1 },
-      'wrong-type',
-      'inputOhms',
+      'unknown-option',
+      'options.gaugeOhms',
     ],
     ['negative lead', { wiring: 'three-wire', gaugeOhms: 350, ohmsPerLead: -0.1 }, 'negative', 'ohmsPerLead'],
     [

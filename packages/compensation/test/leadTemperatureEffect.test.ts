@@ -99,14 +99,10 @@ describe('leadTemperatureEffect: closed forms', () => {
   });
 
   it('agrees with reading createStrainBridge by hand: forward with the new leads, inverse with the old', () => {
-    const options = {
-      arrangement: 'quarter',
-      gaugeFactor: 2.08,
-      gaugeOhms: 120,
-      completionOhms: 120,
-    } as const;
-    const before = createStrainBridge({ ...options, leads: { ohmsPerLead: 0.9, wiring: 'two-wire' } });
-    const after = createStrainBridge({ ...options, leads: { ohmsPerLead: 0.95, wiring: 'two-wire' } });
+    const options = { gaugeFactor: 2.08, gaugeOhms: 120, completionOhms: 120 } as const;
+    const quarter = { ...options, arrangement: 'quarter' } as const;
+    const before = createStrainBridge({ ...quarter, leads: { ohmsPerLead: 0.9, wiring: 'two-wire' } });
+    const after = createStrainBridge({ ...quarter, leads: { ohmsPerLead: 0.95, wiring: 'two-wire' } });
     const r = leadTemperatureEffect({
       ...options,
       wiring: 'two-wire',
@@ -134,8 +130,8 @@ describe('leadTemperatureEffect: closed forms', () => {
     [
       'no gauge factor',
       { wiring: 'two-wire', referenceOhmsPerLead: 1, ohmsPerLead: 1 },
-      'wrong-type',
-      'gaugeFactor',
+      'missing-option',
+      'options.gaugeFactor',
     ],
     [
       'four-wire',
@@ -146,8 +142,8 @@ describe('leadTemperatureEffect: closed forms', () => {
     [
       'no reference lead',
       { gaugeFactor: 2, wiring: 'two-wire', ohmsPerLead: 1 },
-      'wrong-type',
-      'referenceOhmsPerLead',
+      'missing-option',
+      'options.referenceOhmsPerLead',
     ],
     [
       'negative reference lead',

@@ -91,7 +91,7 @@ describe('leadZeroOffset', () => {
   });
 
   it.each([
-    ['no gauge factor', { ohmsPerLead: 1, wiring: 'two-wire' }, 'wrong-type', 'gaugeFactor'],
+    ['no gauge factor', { ohmsPerLead: 1, wiring: 'two-wire' }, 'missing-option', 'options.gaugeFactor'],
     [
       'zero gauge factor',
       { gaugeFactor: 0, ohmsPerLead: 1, wiring: 'two-wire' },

@@ -79,7 +79,12 @@ describe('rtdLeadError', () => {
   });
 
   it.each([
-    ['no rtd', { temperatureCelsius: 0, ohmsPerLead: 1, wiring: 'two-wire' }, 'wrong-type', 'rtd'],
+    [
+      'no rtd',
+      { temperatureCelsius: 0, ohmsPerLead: 1, wiring: 'two-wire' },
+      'missing-option',
+      'options.rtd',
+    ],
     [
       'an object as rtd',
       { rtd: { r0Ohms: 100 }, temperatureCelsius: 0, ohmsPerLead: 1, wiring: 'two-wire' },
@@ -138,7 +143,7 @@ describe('rtdLeadError', () => {
       'a two-wire reading above 850 °C',
       { rtd: pt100, temperatureCelsius: 849, ohmsPerLead: 1, wiring: 'two-wire' },
       'out-of-range',
-      'ohms',
+      'ohmsPerLead',
     ],
     [
       'zero completion',

@@ -80,7 +80,7 @@ describe('rtdToleranceCelsius', () => {
       'not-finite',
       'temperatureCelsius',
     ],
-    ['missing temperature', { toleranceClass: 'A' }, 'wrong-type', 'temperatureCelsius'],
+    ['missing temperature', { toleranceClass: 'A' }, 'missing-option', 'options.temperatureCelsius'],
   ] as const)('rejects %s', (_name, options, code, param) => {
     expect(() => rtdToleranceCelsius(options as never)).toThrowBridgeworkError(code, { param });
   });

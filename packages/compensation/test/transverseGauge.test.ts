@@ -106,12 +106,17 @@ describe('indicatedTransverseStrain and correctTransverseGauge', () => {
   });
 
   it.each([
-    ['missing strain', { transverseStrain: 0, transverseSensitivity: 0.02 }, 'wrong-type', 'strain'],
+    [
+      'missing strain',
+      { transverseStrain: 0, transverseSensitivity: 0.02 },
+      'missing-option',
+      'options.strain',
+    ],
     [
       'missing transverse strain',
       { strain: 1e-3, transverseSensitivity: 0.02 },
-      'wrong-type',
-      'transverseStrain',
+      'missing-option',
+      'options.transverseStrain',
     ],
     [
       'Kt 1.5',

@@ -130,7 +130,7 @@ describe('wireOhms', () => {
     ['zero diameter', { diameterMeters: 0, lengthMeters: 1 }, 'not-positive', 'diameterMeters'],
     ['NaN diameter', { diameterMeters: Number.NaN, lengthMeters: 1 }, 'not-finite', 'diameterMeters'],
     ['negative length', { awg: 26, lengthMeters: -1 }, 'negative', 'lengthMeters'],
-    ['missing length', { awg: 26 }, 'wrong-type', 'lengthMeters'],
+    ['missing length', { awg: 26 }, 'missing-option', 'options.lengthMeters'],
     ['infinite length', { awg: 26, lengthMeters: Infinity }, 'not-finite', 'lengthMeters'],
     [
       'temperature 301 °C',

@@ -1,5 +1,5 @@
 import { BridgeworkError } from './BridgeworkError.js';
-import { checkFinite, checkObject, formatValue } from './checks.js';
+import { checkFinite, checkOptions, formatValue } from './checks.js';
 
 /**
  * An interval of numbers `{ min, max }`, the one interval type of every bridgework package.
@@ -24,8 +24,9 @@ export interface Interval {
  * @param value - The value to check.
  * @param options - `strict`: require `min < max`.
  * @returns `{ min, max }`.
- * @throws {@link BridgeworkError} `wrong-type`, `not-finite`, `unknown-option`, or
- *   `out-of-range` (max below min).
+ * @throws {@link BridgeworkError} `wrong-type`, `not-finite`, `unknown-option` (a key other than
+ *   `min` and `max`, naming the closest), `missing-option` (an end absent), or `out-of-range`
+ *   (max below min).
  * @example
  * ```ts
  * checkInterval('span', { min: -1e-3, max: 1e-3 }); // { min: -0.001, max: 0.001 }
@@ -36,25 +37,33 @@ export function checkInterval(
   value: unknown,
   options: { readonly strict?: boolean } = {},
 ): Interval {
-  const o = checkObject(param, value);
-  for (const key of Object.keys(o)) {
-    if (key !== 'min' && key !== 'max') {
-      throw new BridgeworkError(
-        'unknown-option',
-        `\`${param}.${key}\` is not a field of an interval (it has \`min\` and \`max\`)`,
-        { param: `${param}.${key}`, value: o[key], limit: ['min', 'max'] },
-      );
-    }
-  }
+  const strict = checkStrict(options);
+  const o = checkOptions(param, value, { known: ['min', 'max'], required: ['min', 'max'] });
   const min = checkFinite(`${param}.min`, o['min']);
   const max = checkFinite(`${param}.max`, o['max']);
-  const bad = options.strict === true ? !(min < max) : !(min <= max);
+  const bad = strict ? !(min < max) : !(min <= max);
   if (bad) {
     throw new BridgeworkError(
       'out-of-range',
-      `\`${param}.max\` must be ${options.strict === true ? '>' : '>='} \`${param}.min\` (${min}); got ${formatValue(max)}`,
+      `\`${param}.max\` must be ${strict ? '>' : '>='} \`${param}.min\` (${min}); got ${formatValue(max)}`,
       { param: `${param}.max`, value: max, limit: min },
     );
   }
   return { min, max };
+}
+
+function checkStrict(options: unknown): boolean {
+  const o = checkOptions('options', options, { known: ['strict'] });
+  const strict = o['strict'];
+  if (strict !== undefined && typeof strict !== 'boolean') {
+    throw new BridgeworkError(
+      'wrong-type',
+      `\`options.strict\` must be a boolean; got ${formatValue(strict)}`,
+      {
+        param: 'options.strict',
+        value: strict,
+      },
+    );
+  }
+  return strict === true;
 }

@@ -76,13 +76,22 @@ export interface CheckPositiveOptions {
  * checkPositive('meterOhms', Infinity, { allowInfinity: true }); // Infinity
  * ```
  */
-export function checkPositive(param: string, value: unknown, options: CheckPositiveOptions = {}): number {
+export function checkPositive(param: string, value: unknown, options?: CheckPositiveOptions): number {
+  const allowInfinity = allowsInfinity(options);
   if (typeof value !== 'number') fail('wrong-type', param, 'a number', value);
   if (Number.isNaN(value) || value === -Infinity) fail('not-finite', param, 'a finite number', value);
-  if (value === Infinity && options.allowInfinity !== true)
-    fail('not-finite', param, 'a finite number', value);
+  if (value === Infinity && !allowInfinity) fail('not-finite', param, 'a finite number', value);
   if (!(value > 0)) fail('not-positive', param, '> 0', value, 0);
   return value;
+}
+
+function allowsInfinity(options: CheckPositiveOptions | undefined): boolean {
+  if (options === undefined) return false;
+  const o = checkOptions('options', options, { known: ['allowInfinity'] });
+  const allow = o['allowInfinity'];
+  if (allow === undefined) return false;
+  if (typeof allow !== 'boolean') fail('wrong-type', 'options.allowInfinity', 'a boolean', allow);
+  return allow;
 }
 
 /**
@@ -115,6 +124,29 @@ export interface RangeLimits {
   readonly maxExclusive?: boolean;
 }
 
+const limitKeys = ['min', 'max', 'minExclusive', 'maxExclusive'];
+
+/** Checks a {@link RangeLimits} object (a developer's argument, so a slip is caught at once). */
+function checkLimits(limits: unknown): RangeLimits {
+  const o = checkOptions('limits', limits, { known: limitKeys });
+  for (const end of ['min', 'max']) {
+    const v = o[end];
+    if (v !== undefined && (typeof v !== 'number' || Number.isNaN(v))) {
+      fail(
+        typeof v === 'number' ? 'not-finite' : 'wrong-type',
+        `limits.${end}`,
+        'a number (±Infinity allowed)',
+        v,
+      );
+    }
+  }
+  for (const flag of ['minExclusive', 'maxExclusive']) {
+    const v = o[flag];
+    if (v !== undefined && typeof v !== 'boolean') fail('wrong-type', `limits.${flag}`, 'a boolean', v);
+  }
+  return o as RangeLimits;
+}
+
 /**
  * Describes an interval in the message grammar, e.g. `in [-200, 850]` or `in (-1, 0.5]`.
  *
@@ -122,6 +154,7 @@ export interface RangeLimits {
  * @returns The requirement text.
  */
 export function describeRange(limits: RangeLimits): string {
+  checkLimits(limits);
   const lo = limits.min ?? -Infinity;
   const hi = limits.max ?? Infinity;
   const open = limits.minExclusive === true || lo === -Infinity ? '(' : '[';
@@ -136,13 +169,15 @@ export function describeRange(limits: RangeLimits): string {
  * @param value - The value to check.
  * @param limits - The interval; ends are closed unless marked exclusive.
  * @returns `value`, typed as a number.
- * @throws {@link BridgeworkError} `wrong-type`, `not-finite`, or `out-of-range` (with `limit` = [min, max]).
+ * @throws {@link BridgeworkError} `wrong-type`, `not-finite`, or `out-of-range` (with `limit` = [min, max]);
+ *   `unknown-option`, `wrong-type` or `not-finite` for malformed `limits`.
  * @example
  * ```ts
  * checkRange('poissonRatio', 0.3, { min: -1, max: 0.5, minExclusive: true }); // 0.3
  * ```
  */
 export function checkRange(param: string, value: unknown, limits: RangeLimits): number {
+  checkLimits(limits);
   const x = checkFinite(param, value);
   const lo = limits.min ?? -Infinity;
   const hi = limits.max ?? Infinity;
@@ -185,8 +220,18 @@ export function checkInteger(param: string, value: unknown, limits: RangeLimits 
  * ```
  */
 export function checkOneOf<const T extends string>(param: string, value: unknown, choices: readonly T[]): T {
+  if (!Array.isArray(choices)) fail('wrong-type', 'choices', 'an array of strings', choices);
   if (typeof value === 'string' && (choices as readonly string[]).includes(value)) return value as T;
-  fail('invalid-option', param, `one of ${choices.map((c) => `'${c}'`).join(', ')}`, value, choices);
+  // A slip of letter case (`'Quarter'`) is named; other near misses are left to the list.
+  const lower = typeof value === 'string' ? value.toLowerCase() : undefined;
+  const near = choices.find((c) => typeof c === 'string' && c.toLowerCase() === lower);
+  const requirement = `one of ${choices.map((c) => `'${c}'`).join(', ')}`;
+  if (near === undefined) fail('invalid-option', param, requirement, value, choices);
+  throw new BridgeworkError(
+    'invalid-option',
+    `\`${param}\` must be ${requirement}; got ${formatValue(value)} (did you mean '${near}'?)`,
+    { param, value, limit: choices },
+  );
 }
 
 /**
@@ -203,6 +248,7 @@ export function checkOneOf<const T extends string>(param: string, value: unknown
  * ```
  */
 export function requireOption<T>(param: string, value: T | undefined | null, why?: string): T {
+  if (why !== undefined && typeof why !== 'string') fail('wrong-type', 'why', 'a string', why);
   if (value === undefined || value === null) {
     throw new BridgeworkError(
       'missing-option',
@@ -227,6 +273,9 @@ export function requireOption<T>(param: string, value: T | undefined | null, why
  * ```
  */
 export function checkLength<T>(param: string, value: readonly T[] | unknown, length: number): readonly T[] {
+  if (typeof length !== 'number' || !Number.isInteger(length) || length < 0) {
+    fail(typeof length === 'number' ? 'out-of-range' : 'wrong-type', 'length', 'an integer >= 0', length);
+  }
   if (!Array.isArray(value) || value.length !== length) {
     fail('invalid-shape', param, `an array of length ${length}`, value, length);
   }
@@ -256,6 +305,30 @@ export interface OptionKeys {
   readonly required?: readonly string[];
 }
 
+function checkNames(param: string, value: unknown): readonly string[] {
+  if (!Array.isArray(value) || !value.every((k) => typeof k === 'string')) {
+    fail('wrong-type', param, 'an array of strings', value);
+  }
+  return value as readonly string[];
+}
+
+/** Checks the `keys` argument of {@link checkOptions} by the rule it enforces. */
+function checkOptionKeys(keys: unknown): void {
+  const o = checkObject('keys', keys);
+  for (const key of Object.keys(o)) {
+    if (key !== 'known' && key !== 'required') {
+      const near = closestName(key, ['known', 'required']);
+      throw new BridgeworkError(
+        'unknown-option',
+        `\`keys.${key}\` is not a known option${near === undefined ? ' (known: known, required)' : `; did you mean \`${near}\`?`}`,
+        { param: `keys.${key}`, value: o[key], limit: ['known', 'required'] },
+      );
+    }
+  }
+  checkNames('keys.known', o['known']);
+  if (o['required'] !== undefined) checkNames('keys.required', o['required']);
+}
+
 /**
  * Checks an options object against the keys a function reads: the one rule of every public
  * options object in bridgework.
@@ -272,7 +345,8 @@ export interface OptionKeys {
  * @param keys - The known and required keys.
  * @returns `value`, typed as a record.
  * @throws {@link BridgeworkError} `wrong-type` (not a plain object), `unknown-option` (with
- *   `limit` = the known keys), `missing-option`.
+ *   `limit` = the known keys), `missing-option`; `wrong-type` or `unknown-option` for malformed
+ *   `keys`.
  * @example
  * ```ts
  * checkOptions('options', { whiteDensity: 1e-8 }, { known: ['whiteDensity', 'cornerHertz'], required: ['whiteDensity'] });
@@ -281,6 +355,7 @@ export interface OptionKeys {
  * ```
  */
 export function checkOptions(param: string, value: unknown, keys: OptionKeys): Record<string, unknown> {
+  checkOptionKeys(keys);
   const o = checkObject(param, value);
   for (const key of Object.keys(o)) {
     if (!keys.known.includes(key)) {
@@ -303,4 +378,98 @@ export function checkOptions(param: string, value: unknown, keys: OptionKeys): R
     }
   }
   return o;
+}
+
+/** What a result is and which input the caller can change, for {@link checkFiniteResult}. */
+export interface FiniteResultBlame {
+  /** What was computed, in words (`the wire resistance`). */
+  readonly what: string;
+  /** The caller's option that drives the result out of range, as a dotted path. */
+  readonly param: string;
+  /** The value the caller gave for it. */
+  readonly value: unknown;
+}
+
+/**
+ * Returns a computed number when it is finite; otherwise throws `out-of-range` naming the input
+ * the caller gave (never an internal quantity).
+ *
+ * @remarks
+ * The last guard of a function whose documented domain is "where the result is finite": an
+ * accepted input never yields NaN or ±Infinity. Use it after computing in a form that does not
+ * overflow on the way, so that only a result that truly lies beyond binary64 (|x| > 1.8e308) or
+ * is undefined is refused.
+ *
+ * @param result - The computed value.
+ * @param blame - What it is, and the option (with its value) that the caller can change.
+ * @returns `result`.
+ * @throws {@link BridgeworkError} `out-of-range` with `param` = `blame.param`; `wrong-type`,
+ *   `unknown-option` or `missing-option` for a malformed `blame` or a `result` that is not a number.
+ * @example
+ * ```ts
+ * checkFiniteResult(1.2, { what: 'the wire resistance', param: 'lengthMeters', value: 10 }); // 1.2
+ * ```
+ */
+export function checkFiniteResult(result: number, blame: FiniteResultBlame): number {
+  const b = checkOptions('blame', blame, { known: ['what', 'param', 'value'], required: ['what', 'param'] });
+  if (typeof b['what'] !== 'string') fail('wrong-type', 'blame.what', 'a string', b['what']);
+  if (typeof b['param'] !== 'string') fail('wrong-type', 'blame.param', 'a string', b['param']);
+  if (typeof result !== 'number') fail('wrong-type', 'result', 'a number', result);
+  if (Number.isFinite(result)) return result;
+  throw new BridgeworkError(
+    'out-of-range',
+    `\`${blame.param}\` must keep ${blame.what} finite (within ±1.8e308); got ${formatValue(blame.value)}`,
+    { param: blame.param, value: blame.value },
+  );
+}
+
+/** The caller's option an inner failure is reported against (see {@link blameOption}). */
+export interface OptionBlame {
+  /** The caller's option, as a dotted path. */
+  readonly param: string;
+  /** The value the caller gave for it. */
+  readonly value: unknown;
+  /** What the option must do, in the message grammar (`must leave a reading the bridge can take`). */
+  readonly requirement: string;
+}
+
+/**
+ * Runs a computation on values derived from the caller's options; a {@link BridgeworkError} from
+ * inside it (which names an internal quantity such as `ratio` or `armsOhms[0]`) is re-raised as
+ * `out-of-range` against the option the caller gave, with the inner message as the reason and
+ * the inner error as `cause`.
+ *
+ * @param blame - The option, its value and what it must do.
+ * @param compute - The computation.
+ * @returns What `compute` returns.
+ * @throws {@link BridgeworkError} `out-of-range` with `param` = `blame.param`, for any
+ *   `BridgeworkError` from `compute`; other errors pass through unchanged; `wrong-type`,
+ *   `unknown-option` or `missing-option` for a malformed `blame` or a `compute` that is not a
+ *   function.
+ * @example
+ * ```ts
+ * blameOption({ param: 'ohmsPerLead', value: 1e9, requirement: 'must leave a reading the bridge can take' }, () =>
+ *   bridge.strainFromRatio(ratio),
+ * );
+ * ```
+ */
+export function blameOption<T>(blame: OptionBlame, compute: () => T): T {
+  const b = checkOptions('blame', blame, {
+    known: ['param', 'value', 'requirement'],
+    required: ['param', 'requirement'],
+  });
+  if (typeof b['param'] !== 'string') fail('wrong-type', 'blame.param', 'a string', b['param']);
+  if (typeof b['requirement'] !== 'string')
+    fail('wrong-type', 'blame.requirement', 'a string', b['requirement']);
+  if (typeof compute !== 'function') fail('wrong-type', 'compute', 'a function', compute);
+  try {
+    return compute();
+  } catch (e) {
+    if (!(e instanceof BridgeworkError)) throw e;
+    throw new BridgeworkError(
+      'out-of-range',
+      `\`${blame.param}\` ${blame.requirement}; got ${formatValue(blame.value)} (${e.message})`,
+      { param: blame.param, value: blame.value, cause: e },
+    );
+  }
 }

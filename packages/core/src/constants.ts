@@ -1,3 +1,5 @@
+import { checkNonNegative, checkRange } from './checks.js';
+
 /**
  * Boltzmann constant k in J/K, exact by the 2019 definition of the SI (CODATA 2018).
  *
@@ -31,27 +33,31 @@ export const ZERO_CELSIUS_KELVIN = 273.15;
 /**
  * Converts a Celsius temperature to kelvin (T = t + 273.15).
  *
- * @param temperatureCelsius - Temperature in °C; any finite value (no check: a plain conversion).
- * @returns Temperature in K.
+ * @param temperatureCelsius - Temperature in °C: finite and at least −273.15 (absolute zero).
+ * @returns Temperature in K (≥ 0).
+ * @throws {@link BridgeworkError} `wrong-type`, `not-finite`; `out-of-range` below absolute zero.
  * @example
  * ```ts
  * kelvinFromCelsius(25); // 298.15
  * ```
  */
 export function kelvinFromCelsius(temperatureCelsius: number): number {
-  return temperatureCelsius + ZERO_CELSIUS_KELVIN;
+  return (
+    checkRange('temperatureCelsius', temperatureCelsius, { min: -ZERO_CELSIUS_KELVIN }) + ZERO_CELSIUS_KELVIN
+  );
 }
 
 /**
  * Converts a kelvin temperature to Celsius (t = T − 273.15).
  *
- * @param temperatureKelvin - Temperature in K.
- * @returns Temperature in °C.
+ * @param temperatureKelvin - Temperature in K: finite and ≥ 0.
+ * @returns Temperature in °C (≥ −273.15).
+ * @throws {@link BridgeworkError} `wrong-type`, `not-finite`; `negative` below absolute zero.
  * @example
  * ```ts
  * celsiusFromKelvin(373.15); // 100
  * ```
  */
 export function celsiusFromKelvin(temperatureKelvin: number): number {
-  return temperatureKelvin - ZERO_CELSIUS_KELVIN;
+  return checkNonNegative('temperatureKelvin', temperatureKelvin) - ZERO_CELSIUS_KELVIN;
 }

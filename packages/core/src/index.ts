@@ -9,6 +9,7 @@ export {
   type SpecIssue,
 } from './BridgeworkError.js';
 export {
+  blameOption,
   checkFinite,
   checkInteger,
   checkLength,
@@ -16,16 +17,31 @@ export {
   checkObject,
   checkOneOf,
   checkOptions,
+  checkFiniteResult,
   checkPositive,
   checkRange,
   describeRange,
   formatValue,
   requireOption,
   type CheckPositiveOptions,
+  type FiniteResultBlame,
+  type OptionBlame,
   type OptionKeys,
   type RangeLimits,
 } from './checks.js';
 export { closestName, editDistance } from './closestName.js';
+export {
+  GAUGE_FACTOR_LIMITS,
+  OHMS_LIMITS,
+  VOLTS_LIMITS,
+  checkCelsius,
+  checkGaugeFactor,
+  checkOhms,
+  checkStrain,
+  checkVolts,
+  type CheckOhmsOptions,
+  type CheckVoltsOptions,
+} from './limits.js';
 export { checkInterval, type Interval } from './Interval.js';
 export {
   BOLTZMANN_JOULES_PER_KELVIN,

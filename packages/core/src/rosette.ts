@@ -1,5 +1,5 @@
 import { BridgeworkError } from './BridgeworkError.js';
-import { checkFinite, checkObject, formatValue } from './checks.js';
+import { checkFinite, checkOptions, formatValue } from './checks.js';
 
 /**
  * The layout of a three-gauge strain rosette.
@@ -27,7 +27,8 @@ export interface RosetteAngles {
  * @param layout - `'rectangular'`, `'delta'` or `{ anglesRadians }`.
  * @returns `[θa, θb, θc]` in radians.
  * @throws {@link BridgeworkError} `invalid-option` for an unknown layout name; `invalid-shape`
- *   unless `anglesRadians` holds three numbers; `not-finite` for a non-finite angle.
+ *   unless `anglesRadians` holds three numbers; `not-finite` for a non-finite angle; `unknown-option`
+ *   for a key other than `anglesRadians`, `missing-option` without it.
  * @example
  * ```ts
  * rosetteLegAngles('rectangular'); // [0, 0.7853981633974483, 1.5707963267948966]
@@ -43,7 +44,9 @@ export function rosetteLegAngles(layout: RosetteLayout): [number, number, number
       { param: 'layout', value: layout, limit: ['rectangular', 'delta'] },
     );
   }
-  const angles = checkObject('layout', layout)['anglesRadians'];
+  const angles = checkOptions('layout', layout, { known: ['anglesRadians'], required: ['anglesRadians'] })[
+    'anglesRadians'
+  ];
   if (!Array.isArray(angles) || angles.length !== 3) {
     throw new BridgeworkError(
       'invalid-shape',

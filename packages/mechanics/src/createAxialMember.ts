@@ -1,5 +1,4 @@
-import { checkFinite, checkObject } from '@bridgework/core';
-import { checkStrain } from './internal/inputs.js';
+import { checkFinite, checkFiniteResult, checkOptions, checkStrain } from '@bridgework/core';
 import { readModulus, sectionOrDirect } from './internal/members.js';
 import type { Section } from './sectionProperties.js';
 
@@ -58,15 +57,23 @@ export interface AxialMember {
  * ```
  */
 export function createAxialMember(options: AxialMemberOptions): AxialMember {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['modulusPascals', 'areaSquareMeters', 'section'],
+    required: ['modulusPascals'],
+  });
   const modulusPascals = readModulus(o);
-  const areaSquareMeters = sectionOrDirect(o, 'areaSquareMeters', (p) => p.areaSquareMeters);
+  const areaSquareMeters = sectionOrDirect(o, 'areaSquareMeters', (p) => p.areaSquareMeters, 2, 'm²');
   const axialRigidityNewtons = modulusPascals * areaSquareMeters;
   return {
     modulusPascals,
     areaSquareMeters,
     axialRigidityNewtons,
     forceFromStrain: (strain) => axialRigidityNewtons * checkStrain('strain', strain),
-    strainFromForce: (forceNewtons) => checkFinite('forceNewtons', forceNewtons) / axialRigidityNewtons,
+    strainFromForce: (forceNewtons) =>
+      checkFiniteResult(checkFinite('forceNewtons', forceNewtons) / axialRigidityNewtons, {
+        what: 'the strain',
+        param: 'forceNewtons',
+        value: forceNewtons,
+      }),
   };
 }

@@ -1,5 +1,5 @@
-import { BridgeworkError, checkFinite, checkObject, checkPositive } from '@bridgework/core';
-import { checkStrain } from './internal/inputs.js';
+import { BridgeworkError, checkFinite, checkFiniteResult, checkOptions, checkStrain } from '@bridgework/core';
+import { checkGeometry } from './internal/inputs.js';
 import { readModulus, sectionOrDirect } from './internal/members.js';
 import type { Section } from './sectionProperties.js';
 
@@ -91,15 +91,22 @@ export interface BendingMember {
  * ```
  */
 export function createBendingMember(options: BendingMemberOptions): BendingMember {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['modulusPascals', 'section', 'sectionModulusCubicMeters', 'leverArmMeters'],
+    required: ['modulusPascals'],
+  });
   const modulusPascals = readModulus(o);
   const sectionModulusCubicMeters = sectionOrDirect(
     o,
     'sectionModulusCubicMeters',
     (p) => p.sectionModulusCubicMeters,
+    3,
+    'm³',
   );
   const leverArmMeters =
-    o['leverArmMeters'] === undefined ? undefined : checkPositive('leverArmMeters', o['leverArmMeters']);
+    o['leverArmMeters'] === undefined
+      ? undefined
+      : checkGeometry('leverArmMeters', o['leverArmMeters'], 1, 'm');
   const rigidity = modulusPascals * sectionModulusCubicMeters; // N·m per unit strain
 
   function leverArm(): number {
@@ -119,14 +126,22 @@ export function createBendingMember(options: BendingMemberOptions): BendingMembe
     leverArmMeters,
     momentFromStrain: (strain) => rigidity * checkStrain('strain', strain),
     strainFromMoment: (momentNewtonMeters) =>
-      checkFinite('momentNewtonMeters', momentNewtonMeters) / rigidity,
+      checkFiniteResult(checkFinite('momentNewtonMeters', momentNewtonMeters) / rigidity, {
+        what: 'the strain',
+        param: 'momentNewtonMeters',
+        value: momentNewtonMeters,
+      }),
     forceFromStrain: (strain) => {
       const arm = leverArm();
       return (rigidity * checkStrain('strain', strain)) / arm;
     },
     strainFromForce: (forceNewtons) => {
       const arm = leverArm();
-      return (checkFinite('forceNewtons', forceNewtons) * arm) / rigidity;
+      return checkFiniteResult((checkFinite('forceNewtons', forceNewtons) * arm) / rigidity, {
+        what: 'the strain',
+        param: 'forceNewtons',
+        value: forceNewtons,
+      });
     },
   };
 }

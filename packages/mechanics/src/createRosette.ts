@@ -1,14 +1,16 @@
 import {
   BridgeworkError,
   checkLength,
-  checkObject,
+  checkOptions,
+  checkStrain,
+  formatValue,
   requireOption,
   rosetteLegAngles,
   type RosetteLayout,
 } from '@bridgework/core';
-import { checkStrain } from './internal/inputs.js';
 import { mohrStrain, wrapAxis } from './internal/mohr.js';
-import { readStrainState, strainAlong, type PrincipalStrains, type StrainState } from './strainState.js';
+import type { PrincipalStrains } from './PrincipalStrains.js';
+import { readStrainState, strainAlong, type StrainState } from './strainState.js';
 
 /** The strains of gauges a, b and c of a rosette, in m/m, in the order of the layout's angles. */
 export type RosetteLegStrains = readonly [number, number, number];
@@ -42,7 +44,7 @@ export interface RosetteOptions {
 export interface RosetteReduction extends StrainState, PrincipalStrains {
   /**
    * Direction of `maxStrain` measured from gauge a, counterclockwise positive, in radians in
-   * (−π/2, π/2]; `NaN` when `equalPrincipalStrains` is true. For the named layouts and any layout
+   * (−π/2, π/2]; 0 when `equalPrincipalStrains` is true. For the named layouts and any layout
    * with θa = 0 it equals `angleFromXRadians`.
    */
   readonly angleRadians: number;
@@ -156,7 +158,7 @@ const EPSILON_HALF = 2 ** -53; // unit roundoff of binary64
  * formulas: Dally & Riley, _Experimental Stress Analysis_, strain-analysis chapter (from memory);
  * they follow in three lines from the transformation equation.
  *
- * Equal principal strains: the principal direction is undefined. It is reported as `NaN` with
+ * Equal principal strains: every direction is principal. The angles are reported as 0 with
  * `equalPrincipalStrains: true` when R = (ε1 − ε2)/2 is within the rounding error of the
  * reduction, R ≤ 64·u·κF·max|εi| (u = 2⁻⁵³; about 2e-14·max|εi| for a delta rosette): for example
  * three equal legs, whatever the layout (the largest R seen for three equal legs over a million
@@ -183,8 +185,8 @@ const EPSILON_HALF = 2 ** -53; // unit roundoff of binary64
  * ```
  */
 export function createRosette(options: RosetteOptions): Rosette {
-  const o = checkObject('options', options);
-  const layout = requireOption('layout', o['layout']) as RosetteLayout;
+  const o = checkOptions('options', options, { known: ['layout'], required: ['layout'] });
+  const layout = o['layout'] as RosetteLayout;
   const anglesRadians = rosetteLegAngles(layout);
   const weights =
     layout === 'rectangular' || layout === 'delta' ? namedWeights[layout] : generalWeights(anglesRadians);
@@ -193,7 +195,8 @@ export function createRosette(options: RosetteOptions): Rosette {
     throw new BridgeworkError(
       'singular',
       `\`layout.anglesRadians\` must be three well-separated gauge directions (condition number <= ${maxRosetteConditionNumber}); ` +
-        `got condition number ${String(conditionNumber)}: the closest two legs are ${closestPairDegrees(anglesRadians).toPrecision(3)}° apart (modulo 180°)`,
+        `got ${Number.isFinite(conditionNumber) ? `condition number ${conditionNumber.toPrecision(4)}` : 'parallel legs (the reduction does not exist)'}: ` +
+        `the closest two legs are ${closestPairDegrees(anglesRadians).toPrecision(3)}° apart (modulo 180°)`,
       { param: 'layout.anglesRadians', value: anglesRadians, limit: maxRosetteConditionNumber },
     );
   }
@@ -215,7 +218,15 @@ export function createRosette(options: RosetteOptions): Rosette {
       const strainY = ya * ea + yb * eb + yc * ec;
       const shearStrainXY = sa * ea + sb * eb + sc * ec;
       const tolerance = roundingScale * Math.max(Math.abs(ea), Math.abs(eb), Math.abs(ec));
+      // An ill-conditioned layout amplifies the legs by up to κF: legs that no strain state can
+      // produce (inconsistent readings) may reduce to a "state" no gauge could survive. Refuse it
+      // here, rather than hand on figures that every later step rejects.
+      checkReducedStrain('strainX', strainX, legs, conditionNumber);
+      checkReducedStrain('strainY', strainY, legs, conditionNumber);
+      checkReducedStrain('shearStrainXY', shearStrainXY, legs, conditionNumber);
       const p = mohrStrain(strainX, strainY, shearStrainXY, tolerance);
+      checkReducedStrain('maxStrain', p.maxStrain, legs, conditionNumber);
+      checkReducedStrain('minStrain', p.minStrain, legs, conditionNumber);
       return {
         strainX,
         strainY,
@@ -223,7 +234,7 @@ export function createRosette(options: RosetteOptions): Rosette {
         maxStrain: p.maxStrain,
         minStrain: p.minStrain,
         maxShearStrain: p.maxShearStrain,
-        angleRadians: p.equalPrincipalStrains ? Number.NaN : wrapAxis(p.angleFromXRadians - thetaA),
+        angleRadians: p.equalPrincipalStrains ? 0 : wrapAxis(p.angleFromXRadians - thetaA),
         angleFromXRadians: p.angleFromXRadians,
         equalPrincipalStrains: p.equalPrincipalStrains,
       };
@@ -237,4 +248,21 @@ export function createRosette(options: RosetteOptions): Rosette {
       ];
     },
   };
+}
+
+/** Refuses a reduced strain outside (−1, 1): the legs are inconsistent for this layout. */
+function checkReducedStrain(
+  name: string,
+  value: number,
+  legs: readonly unknown[],
+  conditionNumber: number,
+): void {
+  if (Math.abs(value) < 1) return;
+  throw new BridgeworkError(
+    'out-of-range',
+    `\`strains\` must reduce to a strain state inside (-1, 1) m/m; got ${name} = ${formatValue(value)} from legs ` +
+      `[${legs.map((l) => formatValue(l)).join(', ')}]: this layout amplifies leg errors up to ${conditionNumber.toPrecision(3)} times ` +
+      '(condition number), so the readings are inconsistent with any strain state (check them, or use a better separated layout)',
+    { param: 'strains', value: legs, limit: [-1, 1] },
+  );
 }

@@ -1,5 +1,5 @@
-import { checkFinite, checkObject, checkPositive, requireOption } from '@bridgework/core';
-import { checkExclusive, checkPoissonRatio, checkStrain, shearModulusOf } from './internal/inputs.js';
+import { checkFinite, checkFiniteResult, checkOptions, checkStrain, requireOption } from '@bridgework/core';
+import { checkExclusive, checkModulus, checkPoissonRatio, shearModulusOf } from './internal/inputs.js';
 import { checkDiameters, circularSectionProperties } from './sectionProperties.js';
 
 /** Options of {@link createShaft}: the shaft's diameters and its material. */
@@ -81,20 +81,19 @@ export interface Shaft {
  * ```
  */
 export function createShaft(options: ShaftOptions): Shaft {
-  const o = checkObject('options', options);
-  const [outer, inner] = checkDiameters(
-    '',
-    requireOption('diameterMeters', o['diameterMeters']),
-    o['innerDiameterMeters'],
-  );
+  const o = checkOptions('options', options, {
+    known: ['diameterMeters', 'innerDiameterMeters', 'modulusPascals', 'poissonRatio', 'shearModulusPascals'],
+    required: ['diameterMeters'],
+  });
+  const [outer, inner] = checkDiameters('', o['diameterMeters'], o['innerDiameterMeters']);
   const section = circularSectionProperties(outer, inner);
   let shearModulusPascals: number;
   if (o['shearModulusPascals'] !== undefined) {
     checkExclusive(o, ['shearModulusPascals', 'modulusPascals']);
     checkExclusive(o, ['shearModulusPascals', 'poissonRatio']);
-    shearModulusPascals = checkPositive('shearModulusPascals', o['shearModulusPascals']);
+    shearModulusPascals = checkModulus('shearModulusPascals', o['shearModulusPascals']);
   } else {
-    const e = checkPositive(
+    const e = checkModulus(
       'modulusPascals',
       requireOption('modulusPascals', o['modulusPascals'], 'or `shearModulusPascals`'),
     );
@@ -116,6 +115,10 @@ export function createShaft(options: ShaftOptions): Shaft {
       torquePerShearStrain *
       (checkStrain('strainPlus45', strainPlus45) - checkStrain('strainMinus45', strainMinus45)),
     strainFromTorque: (torqueNewtonMeters) =>
-      checkFinite('torqueNewtonMeters', torqueNewtonMeters) / (2 * torquePerShearStrain),
+      checkFiniteResult(checkFinite('torqueNewtonMeters', torqueNewtonMeters) / (2 * torquePerShearStrain), {
+        what: 'the strain',
+        param: 'torqueNewtonMeters',
+        value: torqueNewtonMeters,
+      }),
   };
 }

@@ -25,9 +25,5 @@ export {
   type Section,
   type SectionProperties,
 } from './sectionProperties.js';
-export {
-  normalStrainAtAngle,
-  principalStrainsFromState,
-  type PrincipalStrains,
-  type StrainState,
-} from './strainState.js';
+export type { PrincipalStrains } from './PrincipalStrains.js';
+export { normalStrainAtAngle, principalStrainsFromState, type StrainState } from './strainState.js';

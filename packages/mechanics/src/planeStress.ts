@@ -1,5 +1,5 @@
-import { checkLength, checkObject, checkPositive, requireOption } from '@bridgework/core';
-import { checkExclusive, checkPoissonRatio, checkStrain, shearModulusOf } from './internal/inputs.js';
+import { checkLength, checkOptions, checkStrain, requireOption } from '@bridgework/core';
+import { checkExclusive, checkModulus, checkPoissonRatio, shearModulusOf } from './internal/inputs.js';
 import { mohrStrain } from './internal/mohr.js';
 import { readStrainState, type StrainState } from './strainState.js';
 
@@ -103,13 +103,13 @@ export function planeStress(options: PlaneStressFromPrincipalOptions): PlaneStre
 export function planeStress(
   options: PlaneStressFromStateOptions | PlaneStressFromPrincipalOptions,
 ): PlaneStress | PlaneStressWithComponents {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['modulusPascals', 'poissonRatio', 'principalStrains', 'strainState'],
+    required: ['modulusPascals', 'poissonRatio'],
+  });
   checkExclusive(o, ['principalStrains', 'strainState']);
-  const modulusPascals = checkPositive(
-    'modulusPascals',
-    requireOption('modulusPascals', o['modulusPascals']),
-  );
-  const nu = checkPoissonRatio('poissonRatio', requireOption('poissonRatio', o['poissonRatio']));
+  const modulusPascals = checkModulus('modulusPascals', o['modulusPascals']);
+  const nu = checkPoissonRatio('poissonRatio', o['poissonRatio']);
   const k = modulusPascals / ((1 - nu) * (1 + nu));
   const shearModulus = shearModulusOf(modulusPascals, nu);
 

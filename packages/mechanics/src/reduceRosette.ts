@@ -1,5 +1,5 @@
 import type { RosetteLayout } from '@bridgework/core';
-import { checkObject } from '@bridgework/core';
+import { checkOptions } from '@bridgework/core';
 import { createRosette, type RosetteLegStrains, type RosetteReduction } from './createRosette.js';
 
 /** Options of {@link reduceRosette}. */
@@ -37,6 +37,9 @@ export interface ReduceRosetteOptions {
  * ```
  */
 export function reduceRosette(options: ReduceRosetteOptions): RosetteReduction {
-  const o = checkObject('options', options);
+  const o = checkOptions('options', options, {
+    known: ['layout', 'strains'],
+    required: ['layout', 'strains'],
+  });
   return createRosette({ layout: o['layout'] as RosetteLayout }).reduce(o['strains'] as RosetteLegStrains);
 }

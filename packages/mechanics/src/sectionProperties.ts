@@ -3,9 +3,10 @@ import {
   checkNonNegative,
   checkObject,
   checkOneOf,
-  checkPositive,
+  checkOptions,
   formatValue,
 } from '@bridgework/core';
+import { checkGeometry } from './internal/inputs.js';
 
 /** A solid rectangular section, bent about the axis parallel to its width. */
 export interface RectangularSection {
@@ -71,11 +72,17 @@ export interface SectionProperties {
  * ```
  */
 export function sectionProperties(section: Section): SectionProperties {
-  const s = checkObject('section', section);
-  const shape = checkOneOf('section.shape', s['shape'], ['rectangular', 'circular'] as const);
+  const shape = checkOneOf('section.shape', checkObject('section', section)['shape'], [
+    'rectangular',
+    'circular',
+  ] as const);
   if (shape === 'rectangular') {
-    const b = checkPositive('section.widthMeters', s['widthMeters']);
-    const h = checkPositive('section.depthMeters', s['depthMeters']);
+    const s = checkOptions('section', section, {
+      known: ['shape', 'widthMeters', 'depthMeters'],
+      required: ['widthMeters', 'depthMeters'],
+    });
+    const b = checkGeometry('section.widthMeters', s['widthMeters'], 1, 'm');
+    const h = checkGeometry('section.depthMeters', s['depthMeters'], 1, 'm');
     return {
       areaSquareMeters: b * h,
       secondMomentOfAreaMeters4: (b * h * h * h) / 12,
@@ -83,13 +90,17 @@ export function sectionProperties(section: Section): SectionProperties {
       sectionModulusCubicMeters: (b * h * h) / 6,
     };
   }
+  const s = checkOptions('section', section, {
+    known: ['shape', 'diameterMeters', 'innerDiameterMeters'],
+    required: ['diameterMeters'],
+  });
   const [outer, inner] = checkDiameters('section.', s['diameterMeters'], s['innerDiameterMeters']);
   return circularSectionProperties(outer, inner);
 }
 
 /** @internal Checks an outside diameter (> 0) and an optional bore (0 ≤ d < D, default 0). */
 export function checkDiameters(prefix: string, diameter: unknown, bore: unknown): [number, number] {
-  const outer = checkPositive(`${prefix}diameterMeters`, diameter);
+  const outer = checkGeometry(`${prefix}diameterMeters`, diameter, 1, 'm');
   const param = `${prefix}innerDiameterMeters`;
   const inner = bore === undefined ? 0 : checkNonNegative(param, bore);
   if (!(inner < outer)) {

@@ -1,6 +1,6 @@
-import { checkFinite, checkObject } from '@bridgework/core';
-import { checkStrain } from './internal/inputs.js';
+import { checkFinite, checkOptions, checkStrain } from '@bridgework/core';
 import { mohrStrain } from './internal/mohr.js';
+import type { PrincipalStrains } from './PrincipalStrains.js';
 
 /**
  * A plane strain state on a surface, in the x–y frame of the rosette drawing.
@@ -20,29 +20,21 @@ export interface StrainState {
   readonly shearStrainXY: number;
 }
 
-/** The principal strains of a plane strain state and the direction of the larger one. */
-export interface PrincipalStrains {
-  /** Larger (algebraically) in-plane principal strain ε1, m/m. */
-  readonly maxStrain: number;
-  /** Smaller (algebraically) in-plane principal strain ε2, m/m. */
-  readonly minStrain: number;
-  /** Maximum in-plane engineering shear strain γmax = ε1 − ε2 (≥ 0), m/m. */
-  readonly maxShearStrain: number;
-  /**
-   * Direction of `maxStrain`, counterclockwise from +x, in radians in (−π/2, π/2]; `NaN` when
-   * `equalPrincipalStrains` is true (every direction is principal).
-   */
-  readonly angleFromXRadians: number;
-  /**
-   * True when ε1 = ε2 (Mohr's circle is a point): the principal direction is undefined and
-   * the angles are `NaN`, never a silent 0.
-   */
-  readonly equalPrincipalStrains: boolean;
-}
+const strainStateFields = ['strainX', 'strainY', 'shearStrainXY'];
+// A rosette reduction is a strain state with its principal strains: it may be passed as one.
+const strainStateKeys = [
+  ...strainStateFields,
+  'maxStrain',
+  'minStrain',
+  'maxShearStrain',
+  'angleFromXRadians',
+  'equalPrincipalStrains',
+  'angleRadians',
+];
 
-/** @internal Reads and checks a {@link StrainState} option. */
+/** @internal Reads and checks a {@link StrainState} option (a `RosetteReduction` will do). */
 export function readStrainState(param: string, value: unknown): StrainState {
-  const s = checkObject(param, value);
+  const s = checkOptions(param, value, { known: strainStateKeys, required: strainStateFields });
   return {
     strainX: checkStrain(`${param}.strainX`, s['strainX']),
     strainY: checkStrain(`${param}.strainY`, s['strainY']),
@@ -100,7 +92,7 @@ export function strainAlong(strainX: number, strainY: number, shearStrainXY: num
  * eigenvalues of `[[εx, γxy/2], [γxy/2, εy]]`.
  *
  * Equal principal strains (εx = εy and γxy = 0 exactly; the given state is taken as exact):
- * `equalPrincipalStrains` is true and `angleFromXRadians` is `NaN`.
+ * `equalPrincipalStrains` is true and `angleFromXRadians` is 0 (every direction is principal).
  *
  * @param state - εx, εy and the engineering shear γxy, each in (−1, 1) m/m.
  * @returns ε1, ε2 (m/m), γmax (m/m), the direction of ε1 (rad) and the equal-strains flag.

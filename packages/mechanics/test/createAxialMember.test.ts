@@ -56,7 +56,7 @@ describe('createAxialMember', () => {
     expect(() => createAxialMember({ areaSquareMeters: 1e-4 } as never)).toThrowBridgeworkError(
       'missing-option',
       {
-        param: 'modulusPascals',
+        param: 'options.modulusPascals',
       },
     );
     expect(() => createAxialMember({ modulusPascals: 200e9 })).toThrowBridgeworkError('missing-option', {

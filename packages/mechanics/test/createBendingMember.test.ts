@@ -91,7 +91,7 @@ describe('createBendingMember', () => {
       createBendingMember({ modulusPascals: 200e9, section, leverArmMeters: Number.NaN }),
     ).toThrowBridgeworkError('not-finite', { param: 'leverArmMeters' });
     expect(() => createBendingMember({ section } as never)).toThrowBridgeworkError('missing-option', {
-      param: 'modulusPascals',
+      param: 'options.modulusPascals',
     });
     expect(() =>
       createBendingMember({ modulusPascals: 200e9, sectionModulusCubicMeters: -1 }),

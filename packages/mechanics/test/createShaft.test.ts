@@ -78,7 +78,7 @@ describe('createShaft: check values', () => {
 describe('createShaft: bad input', () => {
   it('rejects bad geometry', () => {
     expect(() => createShaft({ ...steel } as never)).toThrowBridgeworkError('missing-option', {
-      param: 'diameterMeters',
+      param: 'options.diameterMeters',
     });
     expect(() => createShaft({ diameterMeters: 0, ...steel })).toThrowBridgeworkError('not-positive', {
       param: 'diameterMeters',

@@ -185,11 +185,11 @@ describe('planeStress: bad input', () => {
   it('rejects bad material constants', () => {
     expect(() => planeStress({ strainState: s, poissonRatio: 0.3 } as never)).toThrowBridgeworkError(
       'missing-option',
-      { param: 'modulusPascals' },
+      { param: 'options.modulusPascals' },
     );
     expect(() => planeStress({ strainState: s, modulusPascals: 200e9 } as never)).toThrowBridgeworkError(
       'missing-option',
-      { param: 'poissonRatio' },
+      { param: 'options.poissonRatio' },
     );
     expect(() =>
       planeStress({ strainState: s, modulusPascals: 0, poissonRatio: 0.3 }),

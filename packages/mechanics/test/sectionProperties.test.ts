@@ -117,7 +117,7 @@ describe('sectionProperties: bad input', () => {
     ).toThrowBridgeworkError('not-finite', { param: 'section.depthMeters' });
     expect(() =>
       sectionProperties({ shape: 'rectangular', widthMeters: 0.01 } as never),
-    ).toThrowBridgeworkError('wrong-type', { param: 'section.depthMeters' });
+    ).toThrowBridgeworkError('missing-option', { param: 'section.depthMeters' });
     expect(() => sectionProperties({ shape: 'circular', diameterMeters: -0.01 })).toThrowBridgeworkError(
       'not-positive',
       { param: 'section.diameterMeters' },

@@ -114,10 +114,10 @@ describe('principalStrainsFromState', () => {
     expect(p.angleFromXRadians).toBeNear(-45 * deg, { ulps: 1 });
   });
 
-  it('flags equal principal strains with NaN direction (εx = εy, γxy = 0), and nothing else', () => {
+  it('flags equal principal strains (εx = εy, γxy = 0), with direction 0 (every one is principal), and nothing else', () => {
     const p = principalStrainsFromState({ strainX: 300e-6, strainY: 300e-6, shearStrainXY: 0 });
     expect(p.equalPrincipalStrains).toBe(true);
-    expect(p.angleFromXRadians).toBeNaN();
+    expect(p.angleFromXRadians).toBe(0);
     expect(p.maxStrain).toBe(300e-6);
     expect(p.minStrain).toBe(300e-6);
     expect(p.maxShearStrain).toBe(0);
@@ -132,7 +132,7 @@ describe('principalStrainsFromState', () => {
 
   it('rejects bad input', () => {
     expect(() => principalStrainsFromState({ strainX: 0, strainY: 0 } as never)).toThrowBridgeworkError(
-      'wrong-type',
+      'missing-option',
       { param: 'state.shearStrainXY' },
     );
     expect(() =>

@@ -1,11 +1,4 @@
-import {
-  BridgeworkError,
-  checkObject,
-  checkOptions,
-  checkPositive,
-  checkRange,
-  formatValue,
-} from '@bridgework/core';
+import { BridgeworkError, checkOptions, checkPositive, checkRange, formatValue } from '@bridgework/core';
 import { normalizeCorrelations, type Correlation, type CorrelationMatrix } from './correlations.js';
 import { coverageFactor, effectiveDegreesOfFreedomOf, truncatedDegreesOfFreedom } from './coverageFactor.js';
 import {

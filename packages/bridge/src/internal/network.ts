@@ -1,10 +1,4 @@
-import {
-  checkLength,
-  checkNonNegative,
-  checkObject,
-  checkPositive,
-  differenceOfProducts,
-} from '@bridgework/core';
+import { checkLength, checkOhms, checkVolts, differenceOfProducts } from '@bridgework/core';
 
 /** The four arms as a tuple, R1…R4 in ring order. */
 export type Arms = readonly [number, number, number, number];
@@ -53,26 +47,28 @@ export interface Circuit {
   readonly meterOhms: number;
 }
 
+/** Checks an excitation EMF: in `VOLTS_LIMITS` of the core package, [1e-9, 1e6] V. */
+export function checkExcitation(param: string, value: unknown): number {
+  return checkVolts(param, value);
+}
+
 export function checkCircuit(options: Record<string, unknown>): Circuit {
   return {
-    excitationVolts: checkPositive('excitationVolts', options['excitationVolts']),
+    excitationVolts: checkExcitation('excitationVolts', options['excitationVolts']),
     sourceOhms:
-      options['sourceOhms'] === undefined ? 0 : checkNonNegative('sourceOhms', options['sourceOhms']),
+      options['sourceOhms'] === undefined ? 0 : checkOhms('sourceOhms', options['sourceOhms'], ZERO),
     meterOhms:
-      options['meterOhms'] === undefined
-        ? Infinity
-        : checkPositive('meterOhms', options['meterOhms'], { allowInfinity: true }),
+      options['meterOhms'] === undefined ? Infinity : checkOhms('meterOhms', options['meterOhms'], OPEN),
   };
 }
+
+const ZERO = { allowZero: true } as const;
+const OPEN = { allowInfinity: true } as const;
 
 export function checkArms(value: unknown, allowNull: boolean): (number | null)[] {
   const arms = checkLength<unknown>('armsOhms', value, 4);
   return arms.map((arm, i) => {
     if (allowNull && arm === null) return null;
-    return checkPositive(`armsOhms[${i}]`, arm);
+    return checkOhms(`armsOhms[${i}]`, arm);
   });
-}
-
-export function checkOptions(options: unknown): Record<string, unknown> {
-  return checkObject('options', options);
 }

@@ -1,6 +1,6 @@
 /**
  * The physical circuit of a bridge on its cable, wire by wire, with an optional shunt, for the
- * 40-digit reference in ./circuit.ts. Written from the wiring descriptions in docs/conventions.md,
+ * 40-digit reference of test/support/nodal.ts. Written from the wiring descriptions in docs/conventions.md,
  * not from src/: the gauges sit at the specimen, completion resistors and the meter in the
  * instrument, and a shunt "at the instrument" connects to the instrument's terminals.
  *
@@ -9,7 +9,7 @@
  */
 import type { StrainArrangement } from '@bridgework/bridge';
 import type { LeadWiring } from '@bridgework/core';
-import { ratioOf, solveCircuit, type Resistor } from './circuit.js';
+import { ratioOf, solveCircuit, type Resistor } from '../../../../test/support/nodal.js';
 
 export interface PhysicalBridge {
   readonly arrangement: StrainArrangement;

@@ -20,13 +20,7 @@ import { type OutputQuantity } from '../outputQuantities.js';
 import { intervalField, numberField, numberListField, objectField, type ObjectOut } from '../spec/schema.js';
 import type { CommonSpec } from '../spec/commonSpec.js';
 import { formatSignificant } from '../units/quantity.js';
-import {
-  KIND_PARAMETERS_START,
-  Parameter,
-  type KindContext,
-  type SensorKind,
-  type SpecReporter,
-} from './SensorKind.js';
+import { KIND_PARAMETERS_START, Parameter, type SensorKind, type SpecReporter } from './SensorKind.js';
 
 const fields = {
   gaugeFactor: numberField({

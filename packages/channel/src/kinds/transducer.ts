@@ -11,14 +11,12 @@ import { leadDesensitization } from '@bridgework/compensation';
 import { displayUnitFor, type OutputQuantity } from '../outputQuantities.js';
 import {
   choiceField,
-  INVALID,
   numberField,
   report,
   type ObjectOut,
   type ParseContext,
   type SchemaNode,
 } from '../spec/schema.js';
-import type { CommonSpec } from '../spec/commonSpec.js';
 import { findUnit, formatQuantity, formatSignificant, readQuantity } from '../units/quantity.js';
 import { dimensionTable, type Dimension } from '../units/unitTable.js';
 import { KIND_PARAMETERS_START, Parameter, type KindContext, type SensorKind } from './SensorKind.js';

@@ -1,6 +1,6 @@
 import { checkInteger } from '@bridgework/core';
 import { quoteCsvField } from '../internal/csvText.js';
-import type { ConvertedBlock, RecordingWriter } from './convertRecording.js';
+import type { RecordingWriter } from './convertRecording.js';
 import { writeDigits, writeShortest } from './numberText.js';
 import type { OutputSink } from './outputSink.js';
 import { timeHeading, type RecordingColumns } from './recordingColumns.js';

@@ -10,6 +10,17 @@ import { addPendingTempFile, removePendingTempFile, stopIfOrphaned } from '../in
 export interface AtomicFileOptions {
   /** Replace the file if it exists already. Default false: an existing file is an error. */
   readonly force?: boolean;
+  /**
+   * Permission bits of the new file (before the process's umask), e.g. those of a file being
+   * replaced. Default 0o666.
+   */
+  readonly mode?: number;
+  /**
+   * Called by {@link AtomicFile.commit} after the data is flushed to disk and just before the file
+   * is moved into place; an error it throws aborts the commit (the temporary file is removed and
+   * the target is left as it was). Used to refuse replacing a file that changed meanwhile.
+   */
+  readonly beforeReplace?: () => void | Promise<void>;
 }
 
 /**
@@ -105,7 +116,11 @@ export async function openAtomicFile(path: string, options: AtomicFileOptions = 
   );
   let handle: FileHandle;
   try {
-    handle = await open(tempPath, fsConstants.O_WRONLY | fsConstants.O_CREAT | fsConstants.O_EXCL, 0o666);
+    handle = await open(
+      tempPath,
+      fsConstants.O_WRONLY | fsConstants.O_CREAT | fsConstants.O_EXCL,
+      options.mode ?? 0o666,
+    );
   } catch (e) {
     throw ioError(`cannot write ${path}: ${await describeOutputError(e, target)}`, path, e);
   }
@@ -145,6 +160,7 @@ export async function openAtomicFile(path: string, options: AtomicFileOptions = 
       // A run whose parent has gone (see stopWithParent) ends here, before its output appears.
       stopIfOrphaned();
       try {
+        await options.beforeReplace?.();
         if (force) {
           await rename(tempPath, target);
         } else {

@@ -142,7 +142,7 @@ export function mutate(text: string, random: () => number): string {
     switch (Math.floor(random() * 9)) {
       case 0: {
         // Replace a value: after `key:` or inside a flow mapping.
-        const m = /^(.*?:\s*)([^{}\[\],#]+?)(\s*(?:[,}\]].*)?)$/.exec(line);
+        const m = /^(.*?:\s*)([^{}[\],#]+?)(\s*(?:[,}\]].*)?)$/.exec(line);
         if (m !== null) lines[i] = `${m[1]}${pick(values)}${m[3]}`;
         else lines[i] = `${line} ${pick(values)}`;
         break;

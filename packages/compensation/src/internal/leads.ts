@@ -1,6 +1,10 @@
 import { createStrainBridge, type StrainBridge } from '@bridgework/bridge';
-import { checkOneOf, checkPositive } from '@bridgework/core';
-import type { QuarterBridgeWiring } from '../leadDesensitization.js';
+import { checkGaugeFactor, checkOhms, checkOneOf } from '@bridgework/core';
+/** Lead wirings of a quarter-bridge gauge (see `LeadWiring` in the core package). */
+export type QuarterBridgeWiring = 'two-wire' | 'three-wire';
+
+/** The option keys of a quarter-bridge gauge (`QuarterBridgeGaugeOptions`). */
+export const quarterGaugeKeys = ['gaugeFactor', 'gaugeOhms', 'completionOhms', 'wiring'] as const;
 
 /** The quarter-bridge lead wirings, for option checks. */
 export const quarterBridgeWirings: readonly QuarterBridgeWiring[] = ['two-wire', 'three-wire'];
@@ -27,10 +31,10 @@ export interface QuarterBridgeSetup {
 
 /** Checks gaugeFactor, gaugeOhms (default 350), completionOhms (default gaugeOhms) and wiring. */
 export function checkQuarterSetup(o: Record<string, unknown>): QuarterBridgeSetup {
-  const gaugeFactor = checkPositive('gaugeFactor', o['gaugeFactor']);
-  const gaugeOhms = o['gaugeOhms'] === undefined ? 350 : checkPositive('gaugeOhms', o['gaugeOhms']);
+  const gaugeFactor = checkGaugeFactor('gaugeFactor', o['gaugeFactor']);
+  const gaugeOhms = o['gaugeOhms'] === undefined ? 350 : checkOhms('gaugeOhms', o['gaugeOhms']);
   const completionOhms =
-    o['completionOhms'] === undefined ? gaugeOhms : checkPositive('completionOhms', o['completionOhms']);
+    o['completionOhms'] === undefined ? gaugeOhms : checkOhms('completionOhms', o['completionOhms']);
   return { gaugeFactor, gaugeOhms, completionOhms, wiring: checkQuarterWiring('wiring', o['wiring']) };
 }
 

@@ -1,9 +1,10 @@
 import {
   BridgeworkError,
+  OHMS_LIMITS,
   ZERO_CELSIUS_KELVIN,
-  checkFinite,
-  checkObject,
-  checkPositive,
+  checkFiniteResult,
+  checkOhms,
+  checkOptions,
   checkRange,
   formatValue,
 } from '@bridgework/core';
@@ -27,9 +28,22 @@ export function checkOptionalRange(value: unknown): readonly [number, number] | 
 }
 
 /** Checks a temperature: above absolute zero and inside the range when one is set. */
-export function checkTemperature(value: unknown, range: readonly [number, number] | undefined): number {
-  if (range !== undefined) return checkRange('temperatureCelsius', value, { min: range[0], max: range[1] });
-  return checkRange('temperatureCelsius', value, { min: -ZERO_CELSIUS_KELVIN, minExclusive: true });
+export function checkTemperature(
+  value: unknown,
+  range: readonly [number, number] | undefined,
+  param = 'temperatureCelsius',
+): number {
+  if (range !== undefined) return checkRange(param, value, { min: range[0], max: range[1] });
+  return checkRange(param, value, { min: -ZERO_CELSIUS_KELVIN, minExclusive: true });
+}
+
+/** The `out-of-range` error of a temperature at which the model's resistance leaves `OHMS_LIMITS`. */
+export function beyondOhms(temperatureCelsius: number, ohms: number, domain: string): BridgeworkError {
+  return new BridgeworkError(
+    'out-of-range',
+    `\`temperatureCelsius\` must be one at which the model's resistance lies within [${OHMS_LIMITS.min}, ${OHMS_LIMITS.max}] Ω${domain}; got ${formatValue(temperatureCelsius)} (${formatValue(ohms)} Ω)`,
+    { param: 'temperatureCelsius', value: temperatureCelsius, limit: [OHMS_LIMITS.min, OHMS_LIMITS.max] },
+  );
 }
 
 /** Checks that a computed temperature lies inside the range (when one is set); returns it. */
@@ -45,7 +59,7 @@ export function checkComputedTemperature(
       { param: 'ohms', value: ohms, limit: [range[0], range[1]] },
     );
   }
-  return checkFinite('temperatureCelsius', temperatureCelsius);
+  return checkFiniteResult(temperatureCelsius, { what: 'the temperature', param: 'ohms', value: ohms });
 }
 
 /** The `no-solution` error of a resistance the model cannot reach at any positive temperature. */
@@ -93,8 +107,11 @@ export function checkPoints(value: unknown, count: number): { u: number[]; y: nu
   const u: number[] = [];
   const y: number[] = [];
   value.forEach((point: unknown, i) => {
-    const p = checkObject(`points[${i}]`, point);
-    u.push(Math.log(checkPositive(`points[${i}].ohms`, p['ohms'])));
+    const p = checkOptions(`points[${i}]`, point, {
+      known: ['ohms', 'temperatureCelsius'],
+      required: ['ohms', 'temperatureCelsius'],
+    });
+    u.push(Math.log(checkOhms(`points[${i}].ohms`, p['ohms'])));
     const t = checkRange(`points[${i}].temperatureCelsius`, p['temperatureCelsius'], {
       min: -ZERO_CELSIUS_KELVIN,
       minExclusive: true,

@@ -3,7 +3,7 @@
  * double rounding can occur (a rational rounded to binary64 and then to binary32 can differ from
  * the rational rounded to binary32 directly).
  */
-import { floorLog2, mulPow2, rat, floor as ratFloor, sign, type Rational } from './rational.js';
+import { floorLog2, mulPow2, floor as ratFloor, sign, type Rational } from './rational.js';
 
 /** An IEEE 754 binary interchange format. */
 export interface BinaryFormat {

@@ -1,26 +1,37 @@
-import { BridgeworkError, checkFinite, checkRange, formatValue } from '@bridgework/core';
-
-/**
- * Checks a strain (m/m) for the small-strain relations of this package: finite and |ε| < 1.
- *
- * A strain of magnitude 1 or more lies far outside linear elasticity, and is almost always a
- * value in µε passed where m/m is expected, so it is rejected rather than used.
- */
-export function checkStrain(param: string, value: unknown): number {
-  const strain = checkFinite(param, value);
-  if (!(Math.abs(strain) < 1)) {
-    throw new BridgeworkError(
-      'out-of-range',
-      `\`${param}\` must be a strain in m/m in (-1, 1) (use strainFromMicrostrain for µε); got ${formatValue(strain)}`,
-      { param, value: strain, limit: [-1, 1] },
-    );
-  }
-  return strain;
-}
+import { BridgeworkError, checkPositive, checkRange, formatValue } from '@bridgework/core';
 
 /** Poisson ratio of an isotropic solid, in (−1, 0.5] (the thermodynamic bounds, as in bridge). */
 export function checkPoissonRatio(param: string, value: unknown): number {
   return checkRange(param, value, { min: -1, max: 0.5, minExclusive: true });
+}
+
+/** The largest elastic modulus accepted, in Pa (diamond's Young's modulus is about 1.2e12 Pa). */
+export const MAX_MODULUS_PASCALS = 1e13;
+
+/** Checks an elastic modulus: (0, 1e13] Pa. */
+export function checkModulus(param: string, value: unknown): number {
+  return checkRange(param, checkPositive(param, value), { max: MAX_MODULUS_PASCALS });
+}
+
+/** The lengths of a member accepted, in m: 1 µm to 1 km (a gauge needs a surface of some size). */
+export const METERS_LIMITS = { min: 1e-6, max: 1e3 } as const;
+
+/**
+ * Checks a length (power 1), an area (2) or a section modulus (3) against the length limits raised
+ * to that power, so that every section property formed from them is finite and non-zero.
+ */
+export function checkGeometry(param: string, value: unknown, power: 1 | 2 | 3, unit: string): number {
+  const x = checkPositive(param, value);
+  const min = METERS_LIMITS.min ** power;
+  const max = METERS_LIMITS.max ** power;
+  if (!(x >= min && x <= max)) {
+    throw new BridgeworkError(
+      'out-of-range',
+      `\`${param}\` must be in [${min}, ${max}] ${unit}; got ${formatValue(x)}`,
+      { param, value: x, limit: [min, max] },
+    );
+  }
+  return x;
 }
 
 /** Shear modulus of an isotropic solid from E and ν: G = E/(2(1 + ν)). */

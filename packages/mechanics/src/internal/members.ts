@@ -1,6 +1,6 @@
-import { BridgeworkError, checkPositive, requireOption } from '@bridgework/core';
+import { BridgeworkError } from '@bridgework/core';
 import { sectionProperties, type SectionProperties } from '../sectionProperties.js';
-import { checkExclusive } from './inputs.js';
+import { checkExclusive, checkGeometry, checkModulus } from './inputs.js';
 
 /**
  * Reads a section property given either directly (`direct` option) or through `section`: exactly
@@ -10,6 +10,8 @@ export function sectionOrDirect(
   o: Record<string, unknown>,
   direct: string,
   pick: (p: SectionProperties) => number,
+  power: 2 | 3,
+  unit: string,
 ): number {
   checkExclusive(o, ['section', direct]);
   if (o['section'] !== undefined) return pick(sectionProperties(o['section'] as never));
@@ -19,10 +21,10 @@ export function sectionOrDirect(
       value: undefined,
     });
   }
-  return checkPositive(direct, o[direct]);
+  return checkGeometry(direct, o[direct], power, unit);
 }
 
 /** Young's modulus option, required. */
 export function readModulus(o: Record<string, unknown>): number {
-  return checkPositive('modulusPascals', requireOption('modulusPascals', o['modulusPascals']));
+  return checkModulus('modulusPascals', o['modulusPascals']);
 }

@@ -1,5 +1,5 @@
 import { differenceOfProducts } from '@bridgework/core';
-import type { PrincipalStrains } from '../strainState.js';
+import type { PrincipalStrains } from '../PrincipalStrains.js';
 
 /**
  * Principal direction of a symmetric 2×2 tensor from its deviatoric parts, in (−π/2, π/2].
@@ -67,7 +67,7 @@ export function mohrStrain(
     maxStrain,
     minStrain,
     maxShearStrain: 2 * r,
-    angleFromXRadians: equalPrincipalStrains ? Number.NaN : principalAngle(d, g),
+    angleFromXRadians: equalPrincipalStrains ? 0 : principalAngle(d, g),
     equalPrincipalStrains,
   };
 }

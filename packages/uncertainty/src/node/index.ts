@@ -100,6 +100,8 @@ export interface MonteCarloInWorkersOptions extends PooledMonteCarloOptions {
 
 const here = import.meta.url;
 const fromSource = here.endsWith('.ts');
+/** Shared buffers up to this size are kept by a pool between runs, in bytes. */
+const KEEP_BYTES = 64 * 2 ** 20;
 /** How often a pooled run reads the shared trial counter for `onProgress`, in ms. */
 const PROGRESS_MILLIS = 50;
 
@@ -180,8 +182,10 @@ function workerStopped(detail: string): BridgeworkError {
  * Each worker imports the model module once (and, with `model.argument`, makes the model from
  * it). A run uses the procedure of `monteCarlo` unchanged: the main thread checks the options and
  * plans the seeding blocks; the workers claim blocks from a shared counter and write model
- * values and block statistics into shared memory; the main thread merges the block statistics in
- * block order and selects the coverage intervals. Every block's values depend only on the seed
+ * values and block statistics into shared memory, and in a fixed run collect and sort the
+ * coverage-interval tails of their blocks (thresholds from block 0); the main thread merges the
+ * block statistics in block order and the sorted tails by value. The shared buffers are kept
+ * between runs while each is at most 64 MB, until `close()`. Every block's values depend only on the seed
  * and the block's index (see `monteCarlo`), so the result is bit-identical to `monteCarlo` in one
  * thread, whatever the number of workers. When the model fails, blocks after the failing one are
  * no longer started and the error of the earliest failing trial is thrown — the one a single
@@ -297,6 +301,22 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
     }
   }
 
+  /**
+   * Shared buffers kept between runs (up to 64 MB each): fresh memory costs a page fault per 4 KB
+   * page when first written, which under load was measured at 80 ms for 8 MB here. A run never
+   * hands them out: the driver copies what it keeps (the values of `returnValues`, of adaptive
+   * sequences) before the next run.
+   */
+  const kept = new Map<string, SharedArrayBuffer>();
+  function shared(key: string, bytes: number): SharedArrayBuffer {
+    const have = kept.get(key);
+    if (have !== undefined && have.byteLength >= bytes) return have;
+    const fresh = new SharedArrayBuffer(Math.max(bytes, 8));
+    if (bytes <= KEEP_BYTES) kept.set(key, fresh);
+    else kept.delete(key);
+    return fresh;
+  }
+
   /** The sorted tails the workers collected for the values of the last fixed run, if any. */
   let collected: { values: Float64Array; lows: Float64Array[]; highs: Float64Array[] } | undefined;
 
@@ -311,20 +331,21 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
     progress: ProgressReporter,
     coverage: number | undefined,
   ): Promise<BlockReply> {
-    const values = new SharedArrayBuffer(8 * request.trials);
-    const stats = new SharedArrayBuffer(16 * request.blockCount);
-    const control = new SharedArrayBuffer(4 * CONTROL.length);
-    const slots = new Int32Array(control);
+    const values = shared('values', 8 * request.trials);
+    const stats = shared('stats', 16 * request.blockCount);
+    const control = shared('control', 4 * CONTROL.length);
+    const slots = new Int32Array(control, 0, CONTROL.length);
+    slots.fill(0);
     slots[CONTROL.failed] = request.blockCount;
     const m = request.trials;
     const candidates = coverage === undefined ? 0 : m - coveredCount(coverage, m);
-    // Thresholds come from block 0's values (thresholdsFromSortedSample): a side holds at most
+    // Thresholds come from block 0's values (thresholdsFromSample): a side holds at most
     // M − q + 2.5 % of M + 1024 values overall; each worker gets room for its share, twice over.
     const wantTails = coverage !== undefined && m >= 16 * 8192 && candidates < m / 2;
     const room = Math.ceil((candidates + 0.025 * m + 1024) * Math.min(1, 2 / workers.length));
-    const thresholds = new SharedArrayBuffer(24);
-    const buffers = workers.map(() =>
-      wantTails ? { low: new SharedArrayBuffer(8 * room), high: new SharedArrayBuffer(8 * room) } : undefined,
+    const thresholds = shared('thresholds', 24);
+    const buffers = workers.map((_, w) =>
+      wantTails ? { low: shared(`low${w}`, 8 * room), high: shared(`high${w}`, 8 * room) } : undefined,
     );
     const messages: WorkerMessage[] = buffers.map((b) => ({
       type: 'run',
@@ -358,7 +379,7 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
     }
     if (progress.active) poll();
     if (progressError !== undefined) throw progressError.error;
-    const result = new Float64Array(values);
+    const result = new Float64Array(values, 0, m);
     collected = undefined;
     const counts = replies.map((r) => (r.type === 'done' ? r : { low: -1, high: -1 }));
     if (wantTails && counts.every((c) => c.low >= 0)) {
@@ -372,7 +393,7 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
         ),
       };
     }
-    return { values: result, stats: new Float64Array(stats) };
+    return { values: result, stats: new Float64Array(stats, 0, 2 * request.blockCount) };
   }
 
   /**
@@ -450,6 +471,7 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
     },
     async close() {
       closed = true;
+      kept.clear();
       await Promise.all(workers.map((w) => w.terminate()));
     },
   };

@@ -7,7 +7,7 @@ import { parentPort } from 'node:worker_threads';
 import { isBridgeworkError } from '@bridgework/core';
 import { BLOCK_TRIALS, createBlockRunner } from '../internal/engine.js';
 import { resolveModel } from '../internal/model.js';
-import { extractTails, sortTailPart, thresholdsFromSortedSample } from '../internal/select.js';
+import { extractTails, sortTailPart, thresholdsFromSample } from '../internal/select.js';
 import { loadModelExport } from './loadModel.js';
 import {
   CONTROL,
@@ -92,11 +92,9 @@ class TailCollector {
 
   /** Publishes the thresholds from block 0's values (the first 16 384 trials, or all of them). */
   publish(count: number): void {
-    const sample = this.values.slice(0, count).sort();
+    const sample = this.values.slice(0, count);
     const t =
-      count >= 8192
-        ? thresholdsFromSortedSample(sample, this.buffers.trials, this.buffers.candidates)
-        : undefined;
+      count >= 8192 ? thresholdsFromSample(sample, this.buffers.trials, this.buffers.candidates) : undefined;
     if (t !== undefined) {
       this.thresholds[0] = t.below;
       this.thresholds[1] = t.above;
