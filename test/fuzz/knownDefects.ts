@@ -49,8 +49,6 @@ export const knownDefects: readonly KnownDefect[] = [
     note: 'uncertainty: a bigint among the values is a TypeError',
     random: true,
   },
-  // firmware (owner: the firmware helper)
-  { cases: 'emitSql: 1.keepColumns = ', note: 'firmware: a non-array keepColumns is a TypeError (keep.map)' },
 ];
 
 /** Option objects that still accept a misspelt key, with their owner (same rule as above). */
@@ -61,10 +59,4 @@ export const knownOptionDefects: readonly KnownDefect[] = [
   },
   { cases: 'validateGum: 0.monteCarlo ', note: 'uncertainty: as above' },
   { cases: 'validateGum: 0.monteCarlo.interval ', note: 'uncertainty: use checkInterval' },
-  { cases: 'fixedPointMap: 0 ', note: 'firmware: options checked as an object, not against its keys' },
-  { cases: 'floatMap: 0 ', note: 'firmware: as above' },
-  { cases: 'emitCHeader: 0 ', note: 'firmware: as above' },
-  { cases: 'emitCHeader: 0.channels.0 ', note: 'firmware: a channel entry is not checked against its keys' },
-  { cases: 'emitJson: 0 ', note: 'firmware: as above' },
-  { cases: 'emitJson: 0.channels.0 ', note: 'firmware: as above' },
 ];

@@ -7,7 +7,6 @@ import {
   checkOptions,
   checkPositive,
   formatValue,
-  requireOption,
 } from '@bridgework/core';
 import { evaluatorTypes, type EvaluatorType, type FirmwareChannel } from './emitOptions.js';
 import type { ExactValue } from './exactValue.js';
@@ -40,7 +39,7 @@ import { checkQuantityUnit } from './internal/text.js';
 import {
   fitUnchecked,
   MAX_PIECEWISE_DEGREE,
-  segmentCodes,
+  segmentCodesUnchecked,
   segmentation,
   type PiecewisePolynomial,
 } from './piecewisePolynomial.js';
@@ -687,7 +686,7 @@ function piecewiseDesign(p: PiecewisePolynomial): (code: number) => number {
 function piecewiseEstimate(f: (code: number) => number, p: PiecewisePolynomial): number {
   let worst = 0;
   for (let i = 0; i < p.segmentCount; i++) {
-    const s = segmentCodes(p, i);
+    const s = segmentCodesUnchecked(p, i);
     const a = p.coefficients[i] as readonly number[];
     for (const code of probeCodes(s.first, s.last, p.degree)) {
       const e = Math.abs(horner(a, code - s.centre) - f(code));
@@ -840,7 +839,7 @@ function edgeCodes(map: FirmwareMap, most = Infinity): number[] {
   const step = Math.max(1, Math.ceil(map.segmentCount / most));
   const out: number[] = [];
   for (let i = 0; i < map.segmentCount; i += step) {
-    const s = segmentCodes(map, i);
+    const s = segmentCodesUnchecked(map, i);
     out.push(s.first, s.last);
   }
   return out;

@@ -11,7 +11,7 @@ import { emitModel, type EmittedChannel } from './internal/channels.js';
 import { doubleLiteral, floatLiteral, intLiteral } from './internal/cLiterals.js';
 import { block, costText, INDENT, ownErrorText, totalText, unitText } from './internal/cText.js';
 import { commentText } from './internal/text.js';
-import { segmentCodes } from './piecewisePolynomial.js';
+import { segmentCodesUnchecked } from './piecewisePolynomial.js';
 import type { FixedPointRounding } from './roundShift.js';
 import type { TotalErrorBound } from './totalError.js';
 import { FIRMWARE_GENERATOR_VERSION } from './version.js';
@@ -214,7 +214,7 @@ function fixedPiecewiseSection(prefix: string, ch: EmittedChannel, map: FixedPie
     costText(map),
   ]);
   const rows = map.segments.map((s, i) => {
-    const codes = segmentCodes(map, i);
+    const codes = segmentCodesUnchecked(map, i);
     return tableRow(
       s.coefficients.map((c) => String(c)),
       `${i}: codes ${codes.first}..${codes.last}, f = ${s.fractionBits.join(', ')}`,
@@ -318,7 +318,7 @@ function floatPiecewiseSection(prefix: string, ch: EmittedChannel, map: FloatPie
     costText(map),
   ]);
   const rows = map.coefficients.map((row, i) => {
-    const codes = segmentCodes(map, i);
+    const codes = segmentCodesUnchecked(map, i);
     return tableRow(row.map(lit), `${i}: codes ${codes.first}..${codes.last}`);
   });
   const body = [`${INDENT}const ${T} x = (${T})t;`, `${INDENT}${T} y = C[i][${n}];`];

@@ -1,9 +1,10 @@
-import { BridgeworkError, formatValue } from '@bridgework/core';
+import { BridgeworkError, checkInteger, checkObject, checkOneOf, formatValue } from '@bridgework/core';
 import type { FixedPiecewiseMap } from './fixedPiecewiseMap.js';
 import type { FixedPointMap } from './fixedPointMap.js';
 import type { FloatMap } from './floatMap.js';
 import type { FloatMobiusMap } from './floatMobiusMap.js';
 import type { FloatPiecewiseMap } from './floatPiecewiseMap.js';
+import { fixedPointRoundings } from './roundShift.js';
 
 /** A fixed-point map of any form. */
 export type FirmwareFixedMap = FixedPointMap | FixedPiecewiseMap;
@@ -83,10 +84,21 @@ export function coefficientWordBytes(coefficientBits: number): 1 | 2 | 4 {
  * ```
  */
 export function firmwareCost(map: FirmwareMap): FirmwareCost {
+  const o = checkObject('map', map);
+  // The figures the counts are made of: each checked, so an edited map cannot give NaN.
+  const int = (key: string, min: number, max: number) => checkInteger(`map.${key}`, o[key], { min, max });
   const m = map as FirmwareMap & { precision?: string };
+  if (m.precision !== undefined) checkOneOf('map.precision', m.precision, ['float32', 'float64'] as const);
+  if (m.kind === 'piecewise-polynomial') {
+    int('degree', 0, 5);
+    int('segmentCount', 1, 2 ** 32);
+  }
   if (m.precision === undefined) {
     const fixed = map as FirmwareFixedMap;
     if (fixed.kind === 'affine') {
+      int('accumulatorBits', 8, 64);
+      int('shift', 0, 63);
+      checkOneOf('map.rounding', fixed.rounding, fixedPointRoundings);
       const wide = fixed.accumulatorBits > 32;
       const rounding = fixed.shift === 0 ? 0 : 1;
       const extraAdds =
@@ -107,6 +119,7 @@ export function firmwareCost(map: FirmwareMap): FirmwareCost {
       });
     }
     if (fixed.kind === 'piecewise-polynomial') {
+      int('coefficientBits', 2, 32);
       const n = fixed.degree;
       const words = coefficientWordBytes(fixed.coefficientBits);
       return make({
@@ -143,6 +156,11 @@ export function firmwareCost(map: FirmwareMap): FirmwareCost {
       });
     }
     if (float.kind === 'polynomial') {
+      if (!Array.isArray(float.coefficients) || float.coefficients.length === 0) {
+        throw new BridgeworkError('invalid-option', '`map.coefficients` must be a non-empty list', {
+          param: 'map.coefficients',
+        });
+      }
       const n = float.coefficients.length - 1;
       return make({
         tableBytes: (n + 2) * bytes,

@@ -21,7 +21,7 @@ import {
   type Rational,
 } from './internal/rational.js';
 import { checkQuantityUnit } from './internal/text.js';
-import { segmentCodes, type PiecewisePolynomial } from './piecewisePolynomial.js';
+import { segmentCodesUnchecked, type PiecewisePolynomial } from './piecewisePolynomial.js';
 
 /** Options of {@link fixedPiecewiseMap}. */
 export interface FixedPiecewiseMapOptions {
@@ -313,7 +313,7 @@ export function buildFixedPiecewise(
   let lowest = Infinity;
   let highest = -Infinity;
   for (let i = 0; i < segmentCount; i++) {
-    const s = segmentCodes(polynomial, i);
+    const s = segmentCodesUnchecked(polynomial, i);
     const a = (polynomial.coefficients[i] as readonly number[]).map((c) =>
       div(rationalFromNumber(c), outputUnit),
     );

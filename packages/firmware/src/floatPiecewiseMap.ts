@@ -7,7 +7,7 @@ import type { FloatPrecision } from './internal/floatEval.js';
 import { checkPiecewisePolynomial } from './internal/piecewiseChecks.js';
 import { ZERO } from './internal/rational.js';
 import { checkQuantityUnit } from './internal/text.js';
-import { segmentCodes, type PiecewisePolynomial } from './piecewisePolynomial.js';
+import { segmentCodesUnchecked, type PiecewisePolynomial } from './piecewisePolynomial.js';
 import { readOptions } from './internal/codes.js';
 
 /** Options of {@link floatPiecewiseMap}. */
@@ -124,7 +124,7 @@ export function buildFloatPiecewise(
       return r;
     });
     coefficients.push(Object.freeze(rounded));
-    const s = segmentCodes(polynomial, i);
+    const s = segmentCodesUnchecked(polynomial, i);
     const segmentBound = evaluationBound({
       kind: 'polynomial',
       format,

@@ -1,4 +1,4 @@
-import { BridgeworkError, checkInteger, formatValue, requireOption } from '@bridgework/core';
+import { BridgeworkError, checkInteger, checkOptions, formatValue, requireOption } from '@bridgework/core';
 import { checkCodeRange, checkReference, readOptions } from './internal/codes.js';
 import { chebyshevInterpolant } from './internal/fit.js';
 
@@ -53,13 +53,48 @@ export interface SegmentCodes {
 }
 
 /**
- * The codes of segment `index` of a segmentation.
+ * The codes of segment `index` of a piecewise polynomial.
  *
- * @param p - The segmentation: `codeMin`, `codeMax`, `segmentBase`, `segmentBits`.
- * @param index - The segment index, 0 … segmentCount − 1.
- * @returns First and last code inside the range, and the centre.
+ * @param p - The piecewise polynomial (its `codeMin`, `codeMax`, `segmentBase` and `segmentBits`
+ *   are read; of a piecewise map, pass its `polynomial`).
+ * @param index - The segment index, an integer in 0 … segmentCount − 1.
+ * @returns First and last code inside the range, and the centre (a code, or a half code for
+ *   one-code segments).
+ * @throws {@link @bridgework/core!BridgeworkError} `unknown-option` for a key a piecewise polynomial
+ *   does not have, `missing-option`, `not-integer` or `out-of-range` for a layout that is not one
+ *   (codes outside [−2^31, 2^31 − 1], a base above codeMin or a whole segment below it,
+ *   segmentBits outside 0 … 31) or an index past the last segment.
+ * @example
+ * ```ts
+ * segmentCodes({ codeMin: 0, codeMax: 999, segmentBase: -12, segmentBits: 8 }, 1);
+ * // { first: 244, last: 499, centre: 372 }
+ * ```
  */
 export function segmentCodes(
+  p: Pick<PiecewisePolynomial, 'codeMin' | 'codeMax' | 'segmentBase' | 'segmentBits'>,
+  index: number,
+): SegmentCodes {
+  const o = checkOptions('p', p, {
+    known: ['codeMin', 'codeMax', 'segmentBase', 'segmentBits', 'segmentCount', 'degree', 'coefficients'],
+  });
+  for (const key of ['codeMin', 'codeMax', 'segmentBase', 'segmentBits']) requireOption(key, o[key]);
+  const { codeMin, codeMax } = checkCodeRange(o, 'p.');
+  const segmentBits = checkInteger('p.segmentBits', o['segmentBits'], { min: 0, max: 31 });
+  const segmentBase = checkInteger('p.segmentBase', o['segmentBase'], {
+    min: Math.max(-(2 ** 31), codeMin - 2 ** segmentBits + 1),
+    max: codeMin,
+  });
+  const count = Math.floor((codeMax - segmentBase) / 2 ** segmentBits) + 1;
+  checkInteger('index', index, { min: 0, max: count - 1 });
+  return segmentCodesUnchecked({ codeMin, codeMax, segmentBase, segmentBits }, index);
+}
+
+/**
+ * {@link segmentCodes} without checks, for layouts this package made.
+ *
+ * @internal
+ */
+export function segmentCodesUnchecked(
   p: Pick<PiecewisePolynomial, 'codeMin' | 'codeMax' | 'segmentBase' | 'segmentBits'>,
   index: number,
 ): SegmentCodes {
@@ -155,7 +190,7 @@ export function fitUnchecked(
   const { segmentBase, segmentCount } = segmentation(codeMin, codeMax, segmentBits);
   const layout = { codeMin, codeMax, segmentBase, segmentBits };
   const coefficients = Array.from({ length: segmentCount }, (_, i) => {
-    const s = segmentCodes(layout, i);
+    const s = segmentCodesUnchecked(layout, i);
     if (s.last < s.first) {
       throw new BridgeworkError('out-of-range', `segment ${i} holds no code; got ${formatValue(layout)}`, {
         param: 'segmentBits',

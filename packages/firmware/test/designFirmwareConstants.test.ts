@@ -204,6 +204,12 @@ describe('designFirmwareConstants: the cheapest form meeting the target, total e
     expect(firmwareCost(d.fixed!).tableBytes).toBeLessThanOrEqual(256);
     expect(firmwareCost(d.float32!).tableBytes).toBeLessThanOrEqual(256);
     expect(firmwareCost(d.fixed!).libraryCalls).toBe('none');
+    // Not a map, or an edited one: a typed error, never a NaN count (issue 15 fuzz).
+    expect(() => firmwareCost(null as never)).toThrowBridgeworkError('wrong-type', { param: 'map' });
+    expect(() => firmwareCost({ ...d.fixed!, degree: Number.NaN } as never)).toThrowBridgeworkError(
+      'not-finite',
+      { param: 'map.degree' },
+    );
   });
 
   it.each([

@@ -73,6 +73,30 @@ describe('segmentation', () => {
     expect(p.segmentBase).toBe(-(2 ** 31));
     expect(p.segmentCount).toBe(1);
   });
+
+  it('segmentCodes refuses what is not a layout, and an index past the last segment (issue 15 fuzz: NaN codes)', () => {
+    const layout = { codeMin: 0, codeMax: 999, segmentBase: -12, segmentBits: 8 };
+    expect(segmentCodes(layout, 3)).toEqual({ first: 756, last: 999, centre: 884 });
+    expect(() => segmentCodes(layout, 4)).toThrowBridgeworkError('out-of-range', { param: 'index' });
+    expect(() => segmentCodes(layout, 0.5)).toThrowBridgeworkError('not-integer', { param: 'index' });
+    expect(() => segmentCodes(null as never, 0)).toThrowBridgeworkError('wrong-type', { param: 'p' });
+    expect(() => segmentCodes({ ...layout, codeMni: 0 } as never, 0)).toThrowBridgeworkError(
+      'unknown-option',
+      {
+        param: 'p.codeMni',
+      },
+    );
+    expect(() => segmentCodes({ ...layout, segmentBase: 1 }, 0)).toThrowBridgeworkError('out-of-range', {
+      param: 'p.segmentBase',
+    });
+    expect(() => segmentCodes({ ...layout, segmentBits: 1e308 }, 0)).toThrowBridgeworkError('out-of-range', {
+      param: 'p.segmentBits',
+    });
+    const { codeMax: _, ...noMax } = layout;
+    expect(() => segmentCodes(noMax as never, 0)).toThrowBridgeworkError('missing-option', {
+      param: 'codeMax',
+    });
+  });
 });
 
 describe('fitPiecewisePolynomial: Chebyshev interpolation', () => {
