@@ -44,16 +44,8 @@ import {
   type PiecewisePolynomial,
 } from './piecewisePolynomial.js';
 import { fixedPointRoundings, type FixedPointRounding } from './roundShift.js';
-import type { TestVector, TotalErrorBound } from './totalError.js';
+import type { ReferenceError, TestVector, TotalErrorBound } from './totalError.js';
 import type { VerificationMode } from './verification.js';
-
-/** The reference's own error, as the caller states it. */
-export interface ReferenceError {
-  /** Bound of |reference(code) − the mathematical map| over the range, quantity unit (≥ 0). */
-  readonly bound: number;
-  /** Where the bound comes from, in words, for the header (e.g. "the channel's stated accuracy"). */
-  readonly source: string;
-}
 
 /** Options of {@link designFirmwareConstants}. */
 export interface DesignFirmwareConstantsOptions {
@@ -250,7 +242,7 @@ export function designFirmwareConstants(options: DesignFirmwareConstantsOptions)
 
   // Candidates per type, cheapest first; verify the cheapest of every type in one pass.
   const queues = new Map<EvaluatorType, Candidate[]>();
-  const best = new Map<EvaluatorType, { bound: number; description: string }>();
+  const best = new Map<EvaluatorType, BestBound>();
   for (const type of types) {
     const { candidates, bestEstimate } = designer.candidates(type);
     queues.set(type, candidates);
@@ -264,7 +256,8 @@ export function designFirmwareConstants(options: DesignFirmwareConstantsOptions)
     const trial = pending.map((t) => {
       const queue = queues.get(t) as Candidate[];
       const next = queue[0];
-      if (next === undefined) throw targetNotMet(t, target, quantityUnit, best.get(t));
+      if (next === undefined)
+        throw targetNotMet(t, target, quantityUnit, best.get(t), { coefficientBits, outputUnit });
       return { type: t, candidate: next };
     });
     // A sampled check also covers every segment edge (where interpolation errors peak) and the
@@ -309,6 +302,7 @@ export function designFirmwareConstants(options: DesignFirmwareConstantsOptions)
         target,
         quantityUnit,
         best.get(pending[0] as EvaluatorType),
+        { coefficientBits, outputUnit },
       );
   }
   const get = (t: EvaluatorType) => chosen.get(t);
@@ -410,21 +404,41 @@ function checkOutputUnit(unit: Rational, o: Record<string, unknown>): Rational {
   return unit;
 }
 
+/** The best total bound a type reached (or, with `floor`, a bound no function of the type can beat). */
+interface BestBound {
+  readonly bound: number;
+  readonly description: string;
+  readonly floor?: boolean;
+}
+
 function targetNotMet(
   type: EvaluatorType,
   target: number,
   unit: string,
-  best: { bound: number; description: string } | undefined,
+  best: BestBound | undefined,
+  limits: { readonly coefficientBits: number; readonly outputUnit: Rational | undefined },
 ): BridgeworkError {
   const u = unit === '' ? '' : ` ${unit}`;
-  const reached =
-    best === undefined || !Number.isFinite(best.bound)
-      ? 'no candidate form can represent the map with these limits'
+  const step =
+    limits.outputUnit === undefined
+      ? ''
+      : ` at an output step of ${formatValue(roundToBinary(limits.outputUnit, BINARY64))}${u}`;
+  const none = best === undefined || !Number.isFinite(best.bound);
+  const reached = none
+    ? type === 'fixed'
+      ? `no candidate form fits ${limits.coefficientBits}-bit coefficients and int32 outputs${step}, so no bound was reached`
+      : 'no candidate form can represent the map, so no bound was reached'
+    : best.floor === true
+      ? `no ${type} function can do better than ${boundString(rationalFromNumber(best.bound), 4)}${u} (${best.description})`
       : `the best bound reached is ${boundString(rationalFromNumber(best.bound), 4)}${u} (${best.description})`;
   const hint =
-    type === 'fixed'
-      ? 'relax `targetError`, allow a larger table (`maxTableBytes`), wider coefficients (`coefficientBits`) or a finer `outputUnit`'
-      : 'relax `targetError`, allow a larger table (`maxTableBytes`) or use float64';
+    type !== 'fixed'
+      ? 'relax `targetError`, allow a larger table (`maxTableBytes`) or use float64'
+      : best?.floor === true
+        ? 'relax `targetError` or give a finer `outputUnit`'
+        : none
+          ? 'give a coarser `outputUnit` or wider coefficients (`coefficientBits`)'
+          : 'relax `targetError`, allow a larger table (`maxTableBytes`), wider coefficients (`coefficientBits`) or a finer `outputUnit`';
   return new BridgeworkError(
     'out-of-range',
     `\`targetError\` ${target}${u} cannot be met by a ${type} function: ${reached}; ${hint}`,
@@ -617,10 +631,10 @@ function createDesigner(input: DesignerInput) {
   return {
     candidates(type: EvaluatorType): {
       candidates: Candidate[];
-      bestEstimate: { bound: number; description: string } | undefined;
+      bestEstimate: BestBound | undefined;
     } {
       const found: Candidate[] = [];
-      let bestEstimate: { bound: number; description: string } | undefined;
+      let bestEstimate: BestBound | undefined;
       const consider = (c: Candidate | undefined) => {
         if (c === undefined) return false;
         const bound = c.estimate + c.arithmetic + reference.bound;
@@ -640,7 +654,11 @@ function createDesigner(input: DesignerInput) {
       if (type === 'fixed' && lsb / 2 > budget) {
         return {
           candidates: [],
-          bestEstimate: { bound: lsb / 2 + reference.bound, description: 'the output rounding alone' },
+          bestEstimate: {
+            bound: lsb / 2 + reference.bound,
+            description: `half the output step of ${formatValue(lsb)}${input.quantityUnit === '' ? '' : ` ${input.quantityUnit}`}`,
+            floor: true,
+          },
         };
       }
       consider(affineCandidate(type));

@@ -1,12 +1,11 @@
 import type { cIdentifierFromName } from './cIdentifierFromName.js';
-import type { designFirmwareConstants, ReferenceError } from './designFirmwareConstants.js';
 import type { FirmwareFixedMap, FirmwareFloatMap } from './firmwareCost.js';
 import type { fixedPiecewiseMap } from './fixedPiecewiseMap.js';
 import type { fixedPointMap } from './fixedPointMap.js';
 import type { floatMap } from './floatMap.js';
 import type { floatMobiusMap } from './floatMobiusMap.js';
 import type { floatPiecewiseMap } from './floatPiecewiseMap.js';
-import type { TestVector, TotalErrors } from './totalError.js';
+import type { ReferenceError, TestVector, TotalErrors } from './totalError.js';
 
 /** Which evaluator of a channel an emitter writes: fixed-point, float32 or float64. */
 export type EvaluatorType = 'fixed' | 'float32' | 'float64';

@@ -1,9 +1,5 @@
 export { cIdentifierFromName, C_NAME_MAX_LENGTH } from './cIdentifierFromName.js';
-export {
-  designFirmwareConstants,
-  type DesignFirmwareConstantsOptions,
-  type ReferenceError,
-} from './designFirmwareConstants.js';
+export { designFirmwareConstants, type DesignFirmwareConstantsOptions } from './designFirmwareConstants.js';
 export { emitCHeader, FIRMWARE_CAUTION } from './emitCHeader.js';
 export { emitJson } from './emitJson.js';
 export { evaluatorTypes, type EmitOptions, type EvaluatorType, type FirmwareChannel } from './emitOptions.js';
@@ -57,7 +53,7 @@ export {
   type SegmentCodes,
 } from './piecewisePolynomial.js';
 export { fixedPointRoundings, roundShift, type FixedPointRounding } from './roundShift.js';
-export type { TestVector, TotalErrorBound, TotalErrors } from './totalError.js';
+export type { ReferenceError, TestVector, TotalErrorBound, TotalErrors } from './totalError.js';
 export {
   EXHAUSTIVE_CODE_LIMIT,
   verificationModes,

@@ -73,3 +73,11 @@ export interface TotalErrors {
   /** The float64 function's total error, when there is one. */
   readonly float64?: TotalErrorBound;
 }
+
+/** The reference's own error, as the caller states it. */
+export interface ReferenceError {
+  /** Bound of |reference(code) − the mathematical map| over the range, quantity unit (≥ 0). */
+  readonly bound: number;
+  /** Where the bound comes from, in words, for the header (e.g. "the channel's stated accuracy"). */
+  readonly source: string;
+}

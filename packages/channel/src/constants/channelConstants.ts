@@ -44,7 +44,8 @@ export interface ConstantsOptions {
   /**
    * The fixed-point output step, in the output unit (> 0). Default: `output.firmwareResolution`;
    * else with `targetError` given, the largest power of ten not above it and not above 1e-4 of the
-   * span's largest magnitude; else that power of ten from the span alone.
+   * span's largest magnitude, but no finer than keeps the outputs within ±2^30 steps; else that
+   * power of ten from the span alone.
    */
   readonly outputResolution?: number;
   /** The functions to design: `'fixed'`, `'float32'`, `'float64'`. Default all three. */
@@ -107,6 +108,14 @@ const KNOWN = [
 ];
 
 /** The largest power of ten not above x (x > 0). */
+/** The smallest power of ten not below x (x > 0), as the double nearest it. */
+function powerOfTenAtLeast(x: number): number {
+  let e = Math.ceil(Math.log10(x));
+  if (Number(`1e${e - 1}`) >= x) e -= 1;
+  if (Number(`1e${e}`) < x) e += 1;
+  return Number(`1e${e}`);
+}
+
 function powerOfTenBelow(x: number): number {
   // The double nearest 10^e, read from its decimal text (10 ** e can be an ulp off).
   let e = Math.floor(Math.log10(x));
@@ -206,6 +215,12 @@ export function channelConstants(channel: Channel, options: ConstantsOptions = {
   const spanStep = powerOfTenBelow(spanMagnitude > 0 ? spanMagnitude * 1e-4 : 1e-4);
   const explicitTarget =
     o['targetError'] === undefined ? undefined : checkPositive('targetError', o['targetError']);
+  const largest = Math.max(
+    Math.abs(checkFinite('quantityFromCode', channel.quantityFromCode(codeMin))),
+    Math.abs(checkFinite('quantityFromCode', channel.quantityFromCode(codeMax))),
+  );
+  // The finest default step whose outputs over the span stay within ±2^30 (an int32 with room).
+  const finestStep = powerOfTenAtLeast(Math.max(largest / 2 ** 30, 1e-300));
   const specResolution = channel.spec.output.firmwareResolution;
   const resolution =
     o['outputResolution'] !== undefined
@@ -213,7 +228,7 @@ export function channelConstants(channel: Channel, options: ConstantsOptions = {
       : specResolution !== undefined
         ? specResolution
         : explicitTarget !== undefined
-          ? Math.min(spanStep, powerOfTenBelow(explicitTarget))
+          ? Math.max(finestStep, Math.min(spanStep, powerOfTenBelow(explicitTarget)))
           : spanStep;
   let targetError: number;
   let standardUncertainty: number | undefined;
@@ -231,10 +246,6 @@ export function channelConstants(channel: Channel, options: ConstantsOptions = {
     standardUncertainty = uc;
     targetError = Math.max(uc / 10, resolution);
   }
-  const largest = Math.max(
-    Math.abs(checkFinite('quantityFromCode', channel.quantityFromCode(codeMin))),
-    Math.abs(checkFinite('quantityFromCode', channel.quantityFromCode(codeMax))),
-  );
   const referenceError: ReferenceError = {
     bound: CHANNEL_MAP_RELATIVE_ACCURACY * largest,
     source: `the channel's stated accuracy of its binary64 map, ${CHANNEL_MAP_RELATIVE_ACCURACY} relative to 40-digit references (docs/channel.md, measured by its tests), times the largest quantity of the span`,

@@ -178,15 +178,16 @@ function asCommandLine(e: unknown): never {
       coefficientBits: '--coefficient-bits',
       maxTableBytes: '--max-table-bytes',
     };
-    for (const [from, to] of Object.entries(renamed)) {
-      if (e.message.includes(`\`${from}\``)) {
-        throw new BridgeworkError(e.code, e.message.split(`\`${from}\``).join(`\`${to}\``), {
-          ...(e.param === undefined ? {} : { param: e.param }),
-          ...(e.value === undefined ? {} : { value: e.value }),
-          ...(e.limit === undefined ? {} : { limit: e.limit }),
-          cause: e,
-        });
-      }
+    let message = e.message;
+    for (const [from, to] of Object.entries(renamed))
+      message = message.split(`\`${from}\``).join(`\`${to}\``);
+    if (message !== e.message) {
+      throw new BridgeworkError(e.code, message, {
+        ...(e.param === undefined ? {} : { param: e.param }),
+        ...(e.value === undefined ? {} : { value: e.value }),
+        ...(e.limit === undefined ? {} : { limit: e.limit }),
+        cause: e,
+      });
     }
   }
   throw e;

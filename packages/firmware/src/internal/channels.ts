@@ -11,7 +11,6 @@ import {
   formatValue,
 } from '@bridgework/core';
 import { cIdentifierFromName } from '../cIdentifierFromName.js';
-import type { ReferenceError } from '../designFirmwareConstants.js';
 import { evaluatorTypes, type EmitOptions, type EvaluatorType } from '../emitOptions.js';
 import type { FirmwareFixedMap, FirmwareFloatMap } from '../firmwareCost.js';
 import { proveSegment, type FixedPiecewiseMap } from '../fixedPiecewiseMap.js';
@@ -21,7 +20,7 @@ import type { FloatMobiusMap } from '../floatMobiusMap.js';
 import type { FloatPiecewiseMap } from '../floatPiecewiseMap.js';
 import { segmentCodesUnchecked } from '../piecewisePolynomial.js';
 import { fixedPointRoundings, roundShiftUnchecked } from '../roundShift.js';
-import type { TestVector, TotalErrorBound, TotalErrors } from '../totalError.js';
+import type { ReferenceError, TestVector, TotalErrorBound, TotalErrors } from '../totalError.js';
 import { CODE_LIMITS, readOptions } from './codes.js';
 import { checkQuantityUnit } from './text.js';
 
