@@ -43,20 +43,7 @@ export const knownDefects: readonly KnownDefect[] = [
     note: 'calibration: rows[0].fractionOfMpe = Infinity',
   },
   { cases: 'fitTwoPoint().loadAt: 0 = 1e308', note: 'calibration: result Infinity' },
-  // uncertainty (owner: the uncertainty helper)
-  {
-    cases: /^sampleCoverageIntervals: 0\.\d+ = 10n \(a bigint\)/,
-    note: 'uncertainty: a bigint among the values is a TypeError',
-    random: true,
-  },
 ];
 
 /** Option objects that still accept a misspelt key, with their owner (same rule as above). */
-export const knownOptionDefects: readonly KnownDefect[] = [
-  {
-    cases: 'validateGum: 0.gum ',
-    note: 'uncertainty: gum and monteCarlo are checked as objects, not against their known keys',
-  },
-  { cases: 'validateGum: 0.monteCarlo ', note: 'uncertainty: as above' },
-  { cases: 'validateGum: 0.monteCarlo.interval ', note: 'uncertainty: use checkInterval' },
-];
+export const knownOptionDefects: readonly KnownDefect[] = [];

@@ -212,6 +212,19 @@ describe('mainsRejection', () => {
     return worst;
   }
 
+  /**
+   * The largest gain at 2001 points of [mains − δ, mains + δ], clamped to the band's ends as
+   * doubles: (mains − δ) + 2δ may round past mains + δ, and next to a null that one ulp matters.
+   */
+  function denseScan(filter: NoiseFilter, mains: number, delta: number): number {
+    const lo = mains - delta;
+    const hi = mains + delta;
+    let scan = 0;
+    for (let i = 0; i <= 2000; i++)
+      scan = Math.max(scan, filterGain(filter, Math.min(hi, Math.max(lo, lo + (2 * delta * i) / 2000))));
+    return scan;
+  }
+
   it('a 10 Hz sinc3 nulls 50 and 60 Hz and rejects ±1 Hz around both by more than 100 dB (data sheets: ≥ 100 dB, common practice)', () => {
     for (const mains of [50, 60]) {
       const r = mainsRejection({ filter: sinc3, mainsHertz: mains });
@@ -260,14 +273,31 @@ describe('mainsRejection', () => {
         (k, odr, mains, delta) => {
           const filter = { kind: 'sinc', order: k, dataRateHertz: odr } as const;
           const r = mainsRejection({ filter, mainsHertz: mains, deviationHertz: delta });
-          let scan = 0;
-          for (let i = 0; i <= 2000; i++)
-            scan = Math.max(scan, filterGain(filter, mains - delta + (2 * delta * i) / 2000));
-          expect(10 ** (-r.worstDecibels / 20)).toBeGreaterThanOrEqual(scan * (1 - 1e-12));
+          expect(10 ** (-r.worstDecibels / 20)).toBeGreaterThanOrEqual(
+            denseScan(filter, mains, delta) * (1 - 1e-12),
+          );
         },
       ),
       { numRuns: 60 },
     );
+  });
+
+  it('property counterexample [1, 1, 50, 1.72e-9]: the scan stays inside the band (it once stepped one ulp past it)', () => {
+    // The band is [mains − δ, mains + δ] as doubles. The scan's last point (mains − δ) + 2δ rounds
+    // to one ulp of 50 (7.1e-15 Hz) above mains + δ; next to the null at 50 Hz the gain grows as
+    // |f − 50|, so that ulp is 4e-6 of the gain there: the scan saw a frequency outside the band,
+    // not a worse one inside it. The scan now clamps to the band's ends.
+    const filter = { kind: 'sinc', order: 1, dataRateHertz: 1 } as const;
+    const delta = 1.7228547477543545e-9;
+    expect(50 - delta + 2 * delta).toBeGreaterThan(50 + delta); // the rounding that misled the scan
+    const r = mainsRejection({ filter, mainsHertz: 50, deviationHertz: delta });
+    // |sinc(f)| next to its null at 50 Hz is |sin(π(f − 50))|/(πf) = (|f − 50|/f)·(1 − O(1e-17)),
+    // worst at the band end farther from 50 as doubles (f − 50 is exact there: Sterbenz).
+    const lo = 50 - delta;
+    const hi = 50 + delta;
+    const worst = Math.max((50 - lo) / lo, (hi - 50) / hi);
+    expect(10 ** (-r.worstDecibels / 20)).toBeNear(worst, { rel: 1e-12 });
+    expect(10 ** (-r.worstDecibels / 20)).toBeGreaterThanOrEqual(denseScan(filter, 50, delta) * (1 - 1e-12));
   });
 
   it('a single pole is worst at the low band edge', () => {

@@ -78,6 +78,31 @@ const full: ChannelSpec = {
     areaSquareMeters: 1.2e-3,
     firmwareResolution: 1,
   },
+  spanCorrection: {
+    factor: 1.002,
+    factorStandardUncertainty: 1e-4,
+    shuntOhms: 59_000,
+    arm: 1,
+    placement: 'gauge',
+    expectedStepCodes: -1000,
+    measuredStepCodes: -998,
+    readings: 10,
+    date: '2026-12-05',
+    note: 'shunt box 3',
+  },
+  calibration: {
+    unit: 'N',
+    coefficients: [1e-6, 4e-8],
+    covariance: [1e-18, 0, 0, 1e-24],
+    range: [-50e3, 50e3],
+    extrapolationFraction: 0.05,
+    residualStandardDeviation: 1e-7,
+    points: 11,
+    pointsFile: 'points.csv',
+    pointsSha256: '0123456789abcdef0123456789abcdef0123456789abcdef0123456789abcdef',
+    date: '2026-12-05',
+    note: 'reference machine 2',
+  },
 };
 
 describe('the channel spec schema', () => {
@@ -106,6 +131,7 @@ describe('the channel spec schema', () => {
       },
       environment: { ...full.environment, rangeCelsius: interval([10, 40]) },
       output: { ...full.output, range: interval([-50e3, 50e3]) },
+      calibration: { ...full.calibration, range: interval([-50e3, 50e3]) },
     } as unknown as Record<string, unknown>);
   });
 
@@ -122,6 +148,13 @@ describe('the channel spec schema', () => {
         areaSquareMeters: '1200 mm²',
         firmwareResolution: 0.001,
       },
+      // The calibration's span reads units in the output unit; its coefficients are per kN.
+      calibration: {
+        ...full.calibration,
+        unit: 'kN',
+        coefficients: [1e-6, 4e-5],
+        range: ['-50 kN', '50000 N'],
+      },
     } as unknown as ChannelSpec;
     const r = validateChannelSpec(withUnits);
     expect(r.issues).toEqual([]);
@@ -129,6 +162,7 @@ describe('the channel spec schema', () => {
     expect(r.value?.excitation.volts).toBe(5);
     // The range is in the output unit, kN: '50000 N' is 50 kN.
     expect(r.value?.output.range).toEqual({ min: -50, max: 50 });
+    expect(r.value?.calibration?.range).toEqual({ min: -50, max: 50 });
     expect(r.value?.output.modulusPascals).toBe(205e9);
     expect(r.value?.output.areaSquareMeters).toBe(1.2e-3); // the double nearest 1200e-6 (exact decimal product)
     const wrong = validateChannelSpec({ ...full, excitation: { volts: '5 m' } });

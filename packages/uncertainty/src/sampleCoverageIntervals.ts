@@ -44,10 +44,11 @@ export function sampleCoverageIntervals(
       { param: 'values', value: values },
     );
   }
-  const a = Float64Array.from(values as ArrayLike<number>);
-  for (let i = 0; i < a.length; i++) {
-    if (!Number.isFinite(a[i]) || typeof (values as ArrayLike<unknown>)[i] !== 'number') {
-      const v = (values as ArrayLike<unknown>)[i];
+  // Checked before copying: a copy would convert strings and throw on a bigint (TypeError).
+  const n = values.length;
+  for (let i = 0; i < n; i++) {
+    const v = (values as ArrayLike<unknown>)[i];
+    if (typeof v !== 'number' || !Number.isFinite(v)) {
       throw new BridgeworkError(
         typeof v === 'number' ? 'not-finite' : 'wrong-type',
         `\`values[${i}]\` must be a finite number; got ${formatValue(v)}`,
@@ -58,6 +59,7 @@ export function sampleCoverageIntervals(
       );
     }
   }
+  const a = Float64Array.from(values);
   if (coveredCount(p, a.length) >= a.length) {
     throw new BridgeworkError(
       'too-few-points',

@@ -3,7 +3,7 @@ import {
   checkFinite,
   checkInteger,
   checkNonNegative,
-  checkObject,
+  checkInterval,
   checkOptions,
   formatValue,
 } from '@bridgework/core';
@@ -78,6 +78,36 @@ export interface ValidateGumOptions {
   readonly significantDigits?: number;
 }
 
+/** The keys `gum` may carry: those of {@link GumInterval} and of a whole `Propagation`. */
+const gumKeys: readonly string[] = [
+  'value',
+  'expandedUncertainty',
+  'standardUncertainty',
+  'sensitivities',
+  'contributions',
+  'budget',
+  'effectiveDegreesOfFreedom',
+  'coverage',
+  'coverageFactor',
+  'interval',
+  'secondOrderVariance',
+];
+
+/** The keys `monteCarlo` may carry: those of {@link MonteCarloInterval} and of a whole `MonteCarloResult`. */
+const monteCarloKeys: readonly string[] = [
+  'standardUncertainty',
+  'interval',
+  'value',
+  'shortestInterval',
+  'trials',
+  'coverage',
+  'seed',
+  'gum',
+  'gumValidation',
+  'adaptive',
+  'values',
+];
+
 /** The outcome of the JCGM 101 clause 8 comparison (see {@link validateGum}). */
 export interface GumValidation {
   /** d_low = |y − U_p − y_low|. */
@@ -107,7 +137,9 @@ export interface GumValidation {
  * @returns d_low, d_high, δ and the verdict.
  * @throws {@link @bridgework/core!BridgeworkError} `wrong-type`, `not-finite`, `negative` for bad fields;
  *   `out-of-range` for an interval whose `max` is below its `min` or a bad digit count;
- *   `unknown-option`, `missing-option` for the options' keys.
+ *   `unknown-option` (naming the closest key), `missing-option` for the keys of the options, of
+ *   `gum`, `monteCarlo` and its `interval` (the other keys of a whole `Propagation` or
+ *   `MonteCarloResult` are known, so either result may be passed as it is).
  * @example
  * ```ts
  * validateGum({
@@ -121,21 +153,17 @@ export function validateGum(options: ValidateGumOptions): GumValidation {
     known: ['gum', 'monteCarlo', 'significantDigits'],
     required: ['gum', 'monteCarlo'],
   });
-  const gum = checkObject('gum', o['gum']);
-  const mc = checkObject('monteCarlo', o['monteCarlo']);
+  // Either side may be a whole result (a Propagation, a MonteCarloResult): their other keys are
+  // known, so only a misspelt or foreign key is refused.
+  const gum = checkOptions('gum', o['gum'], { known: gumKeys, required: ['value', 'expandedUncertainty'] });
+  const mc = checkOptions('monteCarlo', o['monteCarlo'], {
+    known: monteCarloKeys,
+    required: ['standardUncertainty', 'interval'],
+  });
   const y = checkFinite('gum.value', gum['value']);
   const expanded = checkNonNegative('gum.expandedUncertainty', gum['expandedUncertainty']);
   const u = checkNonNegative('monteCarlo.standardUncertainty', mc['standardUncertainty']);
-  const interval = checkObject('monteCarlo.interval', mc['interval']);
-  const low = checkFinite('monteCarlo.interval.min', interval['min']);
-  const high = checkFinite('monteCarlo.interval.max', interval['max']);
-  if (high < low) {
-    throw new BridgeworkError('out-of-range', '`monteCarlo.interval.max` must be >= `min`', {
-      param: 'monteCarlo.interval.max',
-      value: high,
-      limit: low,
-    });
-  }
+  const { min: low, max: high } = checkInterval('monteCarlo.interval', mc['interval']);
   const significantDigits =
     o['significantDigits'] === undefined
       ? 2

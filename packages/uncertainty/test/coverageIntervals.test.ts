@@ -181,6 +181,14 @@ describe('sampleCoverageIntervals (JCGM 101 7.7)', () => {
       'wrong-type',
       { param: 'values[30]' },
     );
+    // A bigint among the values is named, not a TypeError from the copy (issue 15 fuzz).
+    expect(() => sampleCoverageIntervals([...y, 10n as unknown as number], 0.9)).toThrowBridgeworkError(
+      'wrong-type',
+      { param: 'values[30]' },
+    );
+    expect(() => sampleCoverageIntervals([...y, , 1] as number[], 0.9)).toThrowBridgeworkError('wrong-type', {
+      param: 'values[30]',
+    });
     expect(() => sampleCoverageIntervals('abc' as unknown as number[], 0.9)).toThrowBridgeworkError(
       'wrong-type',
       { param: 'values' },

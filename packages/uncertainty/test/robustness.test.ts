@@ -332,4 +332,38 @@ describe('issue 15 item 5: every public options object follows checkOptions', ()
       }),
     ).toThrowBridgeworkError('unknown-option', { param: 'correlations[0].coeficient' });
   });
+
+  it('validateGum checks the keys of gum, monteCarlo and its interval, yet takes whole results', () => {
+    const gum = { value: 0, expandedUncertainty: 1 };
+    const mc = { standardUncertainty: 0.5, interval: { min: -1, max: 1 } };
+    // A misspelt expanded uncertainty used to be read as missing only when required; now it is named.
+    expect(() =>
+      validateGum({ gum: { value: 0, expandedUncertainity: 1 } as never, monteCarlo: mc }),
+    ).toThrowBridgeworkError('unknown-option', { param: 'gum.expandedUncertainity' });
+    expect(() =>
+      validateGum({ gum: { value: 0, expandedUncertainity: 1 } as never, monteCarlo: mc }),
+    ).toThrow('did you mean `expandedUncertainty`?');
+    expect(() => validateGum({ gum: { value: 0 } as never, monteCarlo: mc })).toThrowBridgeworkError(
+      'missing-option',
+      { param: 'gum.expandedUncertainty' },
+    );
+    expect(() =>
+      validateGum({ gum, monteCarlo: { standardUncertainty: 0.5, intervall: mc.interval } as never }),
+    ).toThrowBridgeworkError('unknown-option', { param: 'monteCarlo.intervall' });
+    expect(() =>
+      validateGum({ gum, monteCarlo: { standardUncertainty: 0.5, interval: { min: -1, maxx: 1 } } as never }),
+    ).toThrowBridgeworkError('unknown-option', { param: 'monteCarlo.interval.maxx' });
+    // Whole results are accepted as they are (their other keys are known).
+    const inputs: InputQuantities = {
+      V: { value: 5, standardUncertainty: 0.1 },
+      I: { value: 2, standardUncertainty: 0.1 },
+    };
+    const r = monteCarlo({ model: sum, inputs, trials: 200_000, compareWithGum: false, returnValues: true });
+    const p = propagate({ model: sum, inputs });
+    const v = validateGum({ gum: p, monteCarlo: r });
+    // A linear model of normals: the GUM is exact, so clause 8 validates it (JCGM 101 9.2.2 is
+    // the same case with four inputs); u(y) ≈ 0.1414 to two digits is 14 × 10⁻², so δ = 5 × 10⁻³.
+    expect(v.tolerance).toBeNear(0.005, { rel: 1e-15 });
+    expect(v.validated).toBe(true);
+  });
 });

@@ -4,7 +4,14 @@ export interface ChannelBudgetLine {
   readonly name: string;
   /** What kind of effect it is. */
   readonly kind:
-    'noise' | 'resolution' | 'nonlinearity' | 'leads' | 'temperature' | 'tolerance' | 'self-heating';
+    | 'noise'
+    | 'resolution'
+    | 'nonlinearity'
+    | 'leads'
+    | 'temperature'
+    | 'tolerance'
+    | 'self-heating'
+    | 'calibration';
   /** The model behind the line, in words and equations. */
   readonly model: string;
   /** The inputs of that model, with their units in the names. */

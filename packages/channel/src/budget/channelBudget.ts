@@ -165,6 +165,8 @@ interface UncertainInput {
   readonly halfWidth: number;
   readonly kind: ChannelBudgetLine['kind'];
   readonly model: string;
+  /** A normal input of this standard uncertainty instead of rectangular limits (`halfWidth` is then the same number). */
+  readonly standardUncertainty?: number;
 }
 
 function readMonteCarlo(value: unknown): MonteCarloBudgetOptions | undefined {
@@ -409,6 +411,29 @@ export function channelBudget(channel: Channel, options: ChannelBudgetOptions = 
 
   for (const input of kindInputs)
     if (input.first !== true) add(input.name, input.index, input.halfWidth, input.kind, input.model);
+  // A calibration against reference loads: the fitted curve's standard uncertainty at the budget
+  // point, √(gᵀ·V·g) with g = (1, q, …, q^d) (JCGM 100 H.3, generalised), as a normal offset of
+  // the curve in bridge ratio.
+  const calibration = spec.calibration;
+  if (r.calibrationSlot !== undefined && calibration?.covariance !== undefined) {
+    const n = calibration.coefficients.length;
+    const g = Array.from({ length: n }, (_, k) => at ** k);
+    let variance = 0;
+    for (let i = 0; i < n; i++)
+      for (let j = 0; j < n; j++)
+        variance += (g[i] as number) * (calibration.covariance[i * n + j] as number) * (g[j] as number);
+    const u = Math.sqrt(Math.max(0, variance));
+    if (u > 0 && Number.isFinite(u)) {
+      uncertain.push({
+        name: 'calibration fit',
+        index: r.calibrationSlot,
+        halfWidth: u,
+        standardUncertainty: u,
+        kind: 'calibration',
+        model: `the calibration's fitted curve offset by its standard uncertainty at the budget point, ${formatSignificant(u * 1e3)} mV/V (from the coefficients' covariance)`,
+      });
+    }
+  }
 
   // The parametric model: closed form when it agrees with the exact composed map at every input's limits.
   const spanScale = Math.max(Math.abs(span.min), Math.abs(span.max), Math.abs(span.max - span.min));
@@ -430,7 +455,10 @@ export function channelBudget(channel: Channel, options: ChannelBudgetOptions = 
     reading: { value: code, standardUncertainty: noiseRmsCodes },
   };
   for (const u of uncertain)
-    inputs[u.name] = { value: p0[u.index] as number, distribution: 'rectangular', halfWidth: u.halfWidth };
+    inputs[u.name] =
+      u.standardUncertainty === undefined
+        ? { value: p0[u.index] as number, distribution: 'rectangular', halfWidth: u.halfWidth }
+        : { value: p0[u.index] as number, standardUncertainty: u.standardUncertainty };
   const names = uncertain.map((u) => u.name);
   const indices = uncertain.map((u) => u.index);
   // The positional form: the engine hands the inputs over in one array, in `order`; nothing is
@@ -489,8 +517,14 @@ export function channelBudget(channel: Channel, options: ChannelBudgetOptions = 
     lines.push({
       name: u.name,
       kind: u.kind,
-      model: `${u.model}; rectangular limits (u = a/√3, JCGM 100 4.3.7)`,
-      inputs: { estimate: p0[u.index] as number, halfWidth: u.halfWidth, sensitivity },
+      model:
+        u.standardUncertainty === undefined
+          ? `${u.model}; rectangular limits (u = a/√3, JCGM 100 4.3.7)`
+          : `${u.model}; normal`,
+      inputs:
+        u.standardUncertainty === undefined
+          ? { estimate: p0[u.index] as number, halfWidth: u.halfWidth, sensitivity }
+          : { estimate: p0[u.index] as number, standardUncertainty: u.standardUncertainty, sensitivity },
       value: sensitivity * u.halfWidth,
       standardUncertainty: combined.contributions[u.name],
     });

@@ -1,5 +1,5 @@
 import { BridgeworkError, checkInteger, checkObject } from '@bridgework/core';
-import { RejectTally } from './kernel.js';
+import { buffersOverlap, RejectTally } from './kernel.js';
 
 /** What a conversion did: how many samples converted, and which did not and why. */
 export interface ConversionStatus {
@@ -72,7 +72,8 @@ export function throwIfRejected(status: ConversionStatus, channel: string): void
 
 /**
  * Checks the arguments every conversion takes: the codes (Int32Array or Float64Array), the output
- * buffer (a Float64Array at least as long, or a new one) and `maxLocations` (integer ≥ 0).
+ * buffer (a Float64Array at least as long, or a new one; the codes' own Float64Array for a
+ * conversion in place, but no other memory the codes occupy) and `maxLocations` (integer ≥ 0).
  */
 export function readConversionArguments(
   codes: unknown,
@@ -98,6 +99,20 @@ export function readConversionArguments(
         param: 'out',
         limit: codes.length,
       },
+    );
+  }
+  // In place is supported (each block is range-tested before it is written); any other overlap
+  // would read codes that earlier samples have already overwritten.
+  if (
+    buffersOverlap(codes, values) &&
+    !(codes instanceof Float64Array && codes.byteOffset === values.byteOffset)
+  ) {
+    throw new BridgeworkError(
+      'invalid-shape',
+      codes instanceof Float64Array
+        ? '`out` overlaps `codes` but starts at a different element: convert in place (`out` = `codes`) or into a separate buffer'
+        : '`out` shares memory with the Int32Array `codes`: convert into a separate Float64Array',
+      { param: 'out' },
     );
   }
   const maxLocations =

@@ -18,6 +18,8 @@ export const FAST_MODEL_TOLERANCE = 1e-10;
 
 /** The closed-form model of a channel, or undefined when its kind has none. */
 export function createFastModel(r: ResolvedChannel): ParametricModel | undefined {
+  // A calibrated channel's map is the calibration's inverse: the exact model serves it.
+  if (r.spec.calibration !== undefined) return undefined;
   const fast = r.kind.fastMap?.(r.context as never);
   if (fast === undefined && r.spec.output.quantity !== 'ratio') return undefined;
   const spec = r.spec;

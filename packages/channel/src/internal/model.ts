@@ -8,6 +8,7 @@ import type { Interval } from '@bridgework/core';
 import { createAdc, type Adc, type RatiometricAdc } from '@bridgework/chain';
 import { Parameter, type KindMap } from '../kinds/SensorKind.js';
 import { fromBaseUnit, toBaseUnit } from '../units/quantity.js';
+import { calibratedKindMap } from './calibrationMap.js';
 import type { ResolvedChannel } from './resolve.js';
 
 /** The exact maps code ↔ bridge ratio ↔ value at one parameter vector. */
@@ -69,7 +70,13 @@ export function createChannelModel(r: ResolvedChannel, p: Float64Array): Channel
   const exactCodeFromRatio = (ratio: number) => (ratio - ratioAtZeroCode) / ratioPerCode;
   const zeroCode = spec.zero?.code;
   const zeroRatio = zeroCode === undefined ? undefined : ratioFromCode(zeroCode);
-  const kindMap = r.kind.exactMap(r.context as never, p, zeroRatio);
+  const sensorMap = r.kind.exactMap(r.context as never, p, zeroRatio);
+  // A calibration against reference loads replaces the sensor's ratio ↔ quantity map.
+  const calibration = spec.calibration;
+  const kindMap =
+    calibration === undefined || r.calibrationSlot === undefined
+      ? sensorMap
+      : calibratedKindMap(sensorMap, calibration, r.dimension, zeroRatio, p[r.calibrationSlot] as number);
   const asRatio = spec.output.quantity === 'ratio';
   const unit = r.unit;
   const dimension = r.dimension;

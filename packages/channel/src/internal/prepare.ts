@@ -35,6 +35,7 @@ const fieldOfParam: Readonly<Record<string, string>> = {
   sourceOhms: 'excitation.sourceOhms',
   temperatureCelsius: 'environment.temperatureCelsius',
   excitationVolts: 'excitation.volts',
+  calibration: 'calibration.coefficients',
 };
 
 /** The issue for a component package's error while building the model. */

@@ -36,6 +36,12 @@ export interface ResolvedChannel {
   readonly leadSource: 'none' | 'given' | 'cable';
   /** Names of the kind's own parameters, in vector order. */
   readonly kindParameters: readonly string[];
+  /**
+   * With a calibration against reference loads: the slot of the parameter vector that holds an
+   * offset of the calibration's curve in bridge ratio (nominal 0; the budget varies it by the
+   * fit's standard uncertainty at the budget point).
+   */
+  readonly calibrationSlot: number | undefined;
 }
 
 /** Resistance of one lead of a cable at a temperature, Ω (compensation `wireOhms`, IEC 60028 copper). */
@@ -64,9 +70,13 @@ export function resolveChannel(spec: AnySpec, rules: ChannelRules): ResolvedChan
     leadSource = 'cable';
   }
   const kindParameters = kind.parameters(spec.sensor as never);
-  const nominal = new Float64Array(KIND_PARAMETERS_START + kindParameters.length);
+  const calibrated = spec.calibration !== undefined && spec.output.quantity !== 'ratio';
+  const calibrationSlot = calibrated ? KIND_PARAMETERS_START + kindParameters.length : undefined;
+  const nominal = new Float64Array(KIND_PARAMETERS_START + kindParameters.length + (calibrated ? 1 : 0));
   nominal[Parameter.excitationVolts] = spec.excitation.volts;
-  nominal[Parameter.gain] = spec.amplifier.gain;
+  // A shunt calibration's span factor k: the channel reads k·(code − zero-input code), the same as
+  // converting with the gain the shunt measured, amplifier.gain / k.
+  nominal[Parameter.gain] = spec.amplifier.gain / (spec.spanCorrection?.factor ?? 1);
   nominal[Parameter.referenceVolts] = spec.adc.referenceVolts;
   nominal[Parameter.offsetVolts] = 0;
   nominal[Parameter.completionOhms] = b.completionOhms ?? 0;
@@ -98,6 +108,7 @@ export function resolveChannel(spec: AnySpec, rules: ChannelRules): ResolvedChan
     unit: spec.output.unit,
     leadSource,
     kindParameters: kindParameters.map((x) => x.key),
+    calibrationSlot,
   };
 }
 

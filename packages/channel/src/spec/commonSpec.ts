@@ -26,6 +26,7 @@ import {
   type ParseContext,
   type UnitRule,
 } from './schema.js';
+import { testDayFields } from './testDaySpec.js';
 
 const ohms = { dimension: 'resistance' } as const;
 const volts = { dimension: 'voltage' } as const;
@@ -441,6 +442,7 @@ export function commonFields<const A extends string>(arrangements: readonly A[])
       },
       { doc: 'Measured quantity, its unit and span' },
     ),
+    ...testDayFields(outputUnitRule),
   };
 }
 

@@ -2,8 +2,10 @@ import type { CommandSpec } from '../args/optionTable.js';
 import { constantsCommand } from './constants/constantsCommand.js';
 import { convertCommand } from './convert/convertCommand.js';
 import { demoCommand } from './demo/demoCommand.js';
+import { fitCalibrationCommand } from './fit/fitCommand.js';
 import { helpCommand } from './help/helpCommand.js';
 import { reportCommand } from './report/reportCommand.js';
+import { shuntApplyCommand, shuntPlanCommand } from './shunt/shuntCommands.js';
 import { uncertaintyCommand } from './uncertainty/uncertaintyCommand.js';
 
 /**
@@ -15,6 +17,9 @@ export const commands: readonly CommandSpec[] = Object.freeze([
   constantsCommand,
   convertCommand,
   uncertaintyCommand,
+  shuntPlanCommand,
+  shuntApplyCommand,
+  fitCalibrationCommand,
   demoCommand,
   helpCommand,
 ] as unknown as CommandSpec[]);

@@ -1,0 +1,183 @@
+/**
+ * The sections a test day writes into a channel file: the span correction from a shunt
+ * calibration, and a calibration fitted against reference loads. Both change the channel's map
+ * (see internal/resolve.ts and internal/calibrationMap.ts); the rest of each section is
+ * provenance (when, with what, from which readings).
+ */
+import { defaultOutputUnit, outputQuantities, type OutputQuantity } from '../outputQuantities.js';
+import { calibrationProblem } from '../internal/calibrationPolynomial.js';
+import {
+  choiceField,
+  intervalField,
+  numberField,
+  numberListField,
+  objectField,
+  report,
+  textField,
+  type ParseContext,
+  type UnitRule,
+} from './schema.js';
+
+const provenance = {
+  date: textField({
+    doc: 'When it was measured (ISO 8601 date or date and time)',
+    optional: true,
+    maxLength: 40,
+  }),
+  note: textField({ doc: 'Who, with what, why (free text)', optional: true, maxLength: 500 }),
+};
+
+/** The output quantity parsed so far, if valid. */
+function quantityOf(ctx: ParseContext): OutputQuantity | undefined {
+  const q = ctx.parsed.get('output.quantity');
+  return typeof q === 'string' && (outputQuantities as readonly string[]).includes(q)
+    ? (q as OutputQuantity)
+    : undefined;
+}
+
+/**
+ * `spanCorrection` and `calibration`, the sections of a channel that a test day writes.
+ *
+ * @param outputUnitRule - The unit rule of the channel's output unit (for `calibration.range`).
+ */
+export function testDayFields(outputUnitRule: UnitRule) {
+  return {
+    spanCorrection: objectField(
+      {
+        factor: numberField({
+          doc: 'Span factor k = expected shunt step / measured shunt step; every change of the code from the zero-input code is multiplied by k (the channel converts as if its gain were amplifier.gain / k)',
+          min: 0.5,
+          max: 2,
+        }),
+        factorStandardUncertainty: numberField({
+          doc: 'Standard uncertainty of the factor (provenance; from the readings’ scatter and the shunt’s tolerance)',
+          min: 0,
+          optional: true,
+        }),
+        shuntOhms: numberField({
+          doc: 'The shunt resistor used',
+          unit: { dimension: 'resistance' },
+          min: 0,
+          minExclusive: true,
+          optional: true,
+        }),
+        arm: numberField({
+          doc: 'The bridge arm it was across (1–4)',
+          integer: true,
+          min: 1,
+          max: 4,
+          optional: true,
+        }),
+        placement: choiceField(['gauge', 'instrument'] as const, {
+          doc: 'Where it was connected: across the gauge, or at the instrument end of the cable',
+          optional: true,
+        }),
+        expectedStepCodes: numberField({
+          doc: 'The step the exact network predicts, in converter codes',
+          optional: true,
+        }),
+        measuredStepCodes: numberField({
+          doc: 'The step measured (with shunt minus without), in converter codes',
+          optional: true,
+        }),
+        readings: numberField({
+          doc: 'Readings averaged in each state (without and with the shunt)',
+          integer: true,
+          min: 1,
+          optional: true,
+        }),
+        ...provenance,
+      },
+      {
+        doc: 'Span correction from a shunt calibration (written by `bridgework shunt-apply`)',
+        presence: 'optional',
+      },
+    ),
+    calibration: objectField(
+      {
+        unit: textField({
+          doc: 'The unit of the quantity in the coefficients; must equal output.unit',
+          maxLength: 20,
+        }),
+        coefficients: numberListField({
+          doc: 'Bridge ratio (V/V) as a polynomial of the quantity q: c0 + c1·q + c2·q² + c3·q³ (degree 1 to 3)',
+          minLength: 2,
+          maxLength: 4,
+          item: { doc: 'coefficient' },
+        }),
+        covariance: numberListField({
+          doc: 'Covariance of the coefficients, row by row ((degree + 1)² numbers)',
+          minLength: 4,
+          maxLength: 16,
+          item: { doc: 'covariance entry' },
+          optional: true,
+        }),
+        range: intervalField({ doc: 'The reference loads’ span', unit: outputUnitRule }),
+        extrapolationFraction: numberField({
+          doc: 'How far past the reference loads the channel converts, as a fraction of their span on each side',
+          min: 0,
+          max: 1,
+          default: 0.05,
+        }),
+        residualStandardDeviation: numberField({
+          doc: 'Residual standard deviation of the fit, V/V',
+          min: 0,
+          optional: true,
+        }),
+        points: numberField({ doc: 'Number of calibration points', integer: true, min: 2, optional: true }),
+        pointsFile: textField({
+          doc: 'The points file (as given to the command)',
+          optional: true,
+          maxLength: 500,
+        }),
+        pointsSha256: textField({
+          doc: 'SHA-256 of the points file’s bytes',
+          pattern: /^[0-9a-f]{64}$/,
+          optional: true,
+        }),
+        ...provenance,
+      },
+      {
+        doc: 'Calibration against reference loads (written by `bridgework fit-calibration`): the channel converts through it',
+        presence: 'optional',
+        check(value, path, ctx) {
+          const q = quantityOf(ctx);
+          if (q === undefined) return;
+          if (q === 'ratio') {
+            report(
+              ctx,
+              path,
+              'invalid-option',
+              "does not apply to output 'ratio' (the calibration maps the ratio to a quantity)",
+            );
+            return;
+          }
+          const given = ctx.parsed.get('output.unit');
+          const unit = typeof given === 'string' ? given : defaultOutputUnit(q);
+          if (value.unit !== unit) {
+            report(
+              ctx,
+              `${path}.unit`,
+              'conflicting-options',
+              `must equal output.unit ('${unit}'), the unit the coefficients were fitted in; got '${value.unit}'`,
+              { suggestion: `set output.unit back to '${value.unit}', or fit the calibration again` },
+            );
+            return;
+          }
+          const n = value.coefficients.length;
+          if (value.covariance !== undefined && value.covariance.length !== n * n) {
+            report(
+              ctx,
+              `${path}.covariance`,
+              'invalid-shape',
+              `must hold ${n * n} numbers (${n}×${n}, row by row) for ${n} coefficients; got ${value.covariance.length}`,
+            );
+            return;
+          }
+          const problem = calibrationProblem(value);
+          if (problem !== undefined) report(ctx, `${path}.${problem.field}`, problem.code, problem.message);
+        },
+      },
+    ),
+  };
+}
