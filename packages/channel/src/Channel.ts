@@ -134,7 +134,12 @@ export interface Channel {
   readonly span: Interval;
   /** The exact (fractional) codes of the span's ends, lower code first. */
   readonly spanCodes: Interval;
-  /** How `convert` works: `'kernel'` (one Möbius division per sample) or `'exact'` (the sensor's curve or the exact map per sample). */
+  /**
+   * How `convert` works: `'kernel'` (a closed form checked against the exact map within 1e-12 of
+   * its largest value: one Möbius division per sample, or for a full-bending-poisson bridge the
+   * root of a quadratic; for a map with a pole just beyond the valid codes, the codes nearest the
+   * pole take the exact map) or `'exact'` (the sensor's curve or the exact map per sample).
+   */
   readonly method: 'kernel' | 'exact';
   /** The map's structure and coefficients (see {@link ChannelMap}). */
   readonly map: ChannelMap;

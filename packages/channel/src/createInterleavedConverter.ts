@@ -115,21 +115,16 @@ export function createInterleavedConverter(channels: readonly Channel[]): Interl
     const temperatures = opts['temperaturesCelsius'] as readonly (number | undefined)[] | undefined;
     const mappings = parts.map((part, j) => part.mappingAt(temperatures?.[j]));
     const tallies = mappings.map((m) => newTally(maxLocations, m.model.adc.codeMin, m.model.adc.codeMax));
-    if (mappings.every((m) => m.kernel !== undefined)) {
-      // Every lane has a kernel: one pass over the buffer.
-      convertInterleavedLinearFractional(
-        codes,
-        values,
-        mappings.map((m) => m.kernel!),
-        tallies,
-        frames,
-      );
+    const kernels = mappings.map((m) => m.kernel ?? m.partialKernel);
+    let methods: ('kernel' | 'exact')[];
+    if (kernels.every((k) => k !== undefined)) {
+      // Every lane has a Möbius kernel (a partial one takes its edge codes per sample): one pass.
+      convertInterleavedLinearFractional(codes, values, kernels, tallies, frames);
+      methods = kernels.map(() => 'kernel');
     } else {
-      mappings.forEach((m, j) => convertLane(m, codes, values, tallies[j]!, j, n, frames));
+      methods = mappings.map((m, j) => convertLane(m, codes, values, tallies[j]!, j, n, frames));
     }
-    const statuses = mappings.map((m, j) =>
-      statusOf(tallies[j]!, frames, m.kernel !== undefined ? 'kernel' : 'exact'),
-    );
+    const statuses = mappings.map((_, j) => statusOf(tallies[j]!, frames, methods[j]!));
     if (opts['onInvalid'] === 'throw') statuses.forEach((s, j) => throwIfRejected(s, channels[j]!.name));
     return { values, statuses };
   }

@@ -186,6 +186,7 @@ describe('sampleCoverageIntervals (JCGM 101 7.7)', () => {
       'wrong-type',
       { param: 'values[30]' },
     );
+    // eslint-disable-next-line no-sparse-arrays -- the hole is the case under test
     expect(() => sampleCoverageIntervals([...y, , 1] as number[], 0.9)).toThrowBridgeworkError('wrong-type', {
       param: 'values[30]',
     });

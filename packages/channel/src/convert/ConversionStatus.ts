@@ -17,7 +17,7 @@ export interface ConversionStatus {
   readonly outOfRange: number;
   /** Output indices of the first rejected samples (at most `maxLocations` of them), ascending. */
   readonly locations: Int32Array;
-  /** `'kernel'` (one division per sample) or `'exact'` (the exact scalar map per sample). */
+  /** `'kernel'` (a checked closed form per sample, see `Channel.method`) or `'exact'` (the sensor's curve or the exact scalar map per sample). */
   readonly method: 'kernel' | 'exact';
 }
 

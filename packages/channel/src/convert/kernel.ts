@@ -6,8 +6,10 @@
  * strictly inside the converter's rails whose reading the sensor can produce. The loops here
  * evaluate exactly that expression, in that order of operations (multiply, add, multiply, add,
  * divide), for every sample; emitters (SQL, firmware) that use the same coefficients and the same
- * order reproduce them bit for bit. Other maps go through the kernels of ./curves.ts or the exact
- * scalar map per sample.
+ * order reproduce them bit for bit. A map with a pole just beyond the valid codes takes a partial
+ * kernel (the Möbius function on the codes where it holds, the exact map per sample at the end near
+ * the pole); RTD channels take the loop of ./curveKernels.ts; other maps, the exact scalar map per
+ * sample.
  *
  * Range test. Codes are tested in blocks: the hot loop computes every sample and folds the range
  * test of the block into one flag; a block with a rejected code is revisited, and its rejected
@@ -39,6 +41,17 @@ export interface LinearFractionalKernel {
   readonly lo: number;
   /** Open upper end of the valid codes. */
   readonly hi: number;
+}
+
+/**
+ * A Möbius kernel valid on part of a channel's valid codes (the map has a pole just beyond one end,
+ * where no rounded Möbius function stays within the kernel tolerance): codes outside (lo, hi) are
+ * handed to `scalar`, the channel's exact map per sample, which returns NaN for a code that cannot
+ * be converted.
+ */
+export interface PartialLinearFractionalKernel extends LinearFractionalKernel {
+  /** The exact scalar path for one code: its value, or NaN when it cannot be converted. */
+  readonly scalar: (code: number) => number;
 }
 
 /** Counters filled by the kernels; `locations` keeps the first `maxLocations` rejected indices. */
@@ -309,6 +322,7 @@ function mobiusInPlace(
   count: number,
 ): void {
   const { a, b, c, d, lo, hi } = k;
+  const scalar = (k as Partial<PartialLinearFractionalKernel>).scalar;
   for (let s = 0; s < count; s += BLOCK) {
     const n = count - s > BLOCK ? BLOCK : count - s;
     const blockI = start + s * stride;
@@ -321,14 +335,19 @@ function mobiusInPlace(
       const x = codes[i] as number;
       if (inside || (x > lo && x < hi)) codes[i] = (a * x + b) / (c * x + d);
       else {
-        codes[i] = Number.NaN;
-        tally.reject(x, i);
+        const q = scalar === undefined ? Number.NaN : scalar(x);
+        codes[i] = q;
+        if (q !== q) tally.reject(x, i);
       }
     }
   }
 }
 
-/** Marks the rejected samples of one block as NaN and records them. */
+/**
+ * Revisits one block with a code outside the kernel's interval: such a sample goes to the
+ * kernel's scalar path when it has one (a partial kernel), else it is rejected: written as NaN
+ * and recorded.
+ */
 function revisit(
   codes: Codes,
   out: Float64Array,
@@ -340,11 +359,13 @@ function revisit(
   outStride: number,
   n: number,
 ): void {
+  const scalar = (k as Partial<PartialLinearFractionalKernel>).scalar;
   for (let m = 0; m < n; m++, i += stride, o += outStride) {
     const x = codes[i] as number;
     if (!(x > k.lo && x < k.hi)) {
-      out[o] = Number.NaN;
-      tally.reject(x, o);
+      const q = scalar === undefined ? Number.NaN : scalar(x);
+      out[o] = q;
+      if (q !== q) tally.reject(x, o);
     }
   }
 }

@@ -10,6 +10,7 @@ import {
   type Interval,
 } from '@bridgework/core';
 import type { Channel, ChannelCurve, ChannelInput, ChannelMap, CodeBuffer } from '../Channel.js';
+import { convertCallendarVanDusen, convertQuadratic } from '../convert/curveKernels.js';
 import { convertLinearFractional, convertScalar } from '../convert/kernel.js';
 import {
   newTally,
@@ -61,7 +62,19 @@ function convertWith(
     convertLinearFractional(codes, values, m.kernel, tally, start, stride, count, start, stride);
     return 'kernel';
   }
+  if (m.partialKernel !== undefined) {
+    convertLinearFractional(codes, values, m.partialKernel, tally, start, stride, count, start, stride);
+    return 'kernel';
+  }
+  if (m.quadraticKernel !== undefined) {
+    convertQuadratic(codes, values, m.quadraticKernel, tally, start, stride, count, start, stride);
+    return 'kernel';
+  }
   const rc = m.resistanceCurve;
+  if (rc?.kernel !== undefined) {
+    convertCallendarVanDusen(codes, values, rc.kernel, tally, start, stride, count, start, stride);
+    return 'exact';
+  }
   const map =
     rc === undefined
       ? m.valueOrNaN
@@ -220,7 +233,12 @@ export function makeChannel(prepared: PreparedChannel): Channel {
     validCodes,
     span,
     spanCodes,
-    method: nominal.kernel !== undefined ? 'kernel' : 'exact',
+    method:
+      nominal.kernel !== undefined ||
+      nominal.partialKernel !== undefined ||
+      nominal.quadraticKernel !== undefined
+        ? 'kernel'
+        : 'exact',
     map,
     quantityFromCode: (code) => nominal.valueFromCode(checkFinite('code', code)),
     codeFromQuantity: (quantity) => model.codeFromRatio(model.ratioFromValue(checkQuantity(quantity))).code,

@@ -6,9 +6,15 @@
 import { BridgeworkError, formatValue, isBridgeworkError } from '@bridgework/core';
 import type { Thermistor } from '@bridgework/compensation';
 import { createBetaThermistor, createRtd, createSteinhartHartThermistor } from '@bridgework/compensation';
-import type { LinearFractionalKernel } from '../convert/kernel.js';
+import {
+  createCallendarVanDusenKernel,
+  type CallendarVanDusenKernel,
+  type QuadraticKernel,
+  type TemperatureUnit,
+} from '../convert/curveKernels.js';
+import type { LinearFractionalKernel, PartialLinearFractionalKernel } from '../convert/kernel.js';
 import type { SensorCurve } from '../kinds/SensorKind.js';
-import { fromBaseUnit } from '../units/quantity.js';
+import { findUnit, fromBaseUnit } from '../units/quantity.js';
 import { createChannelModel, type ChannelModel } from './model.js';
 import type { ResolvedChannel } from './resolve.js';
 
@@ -34,12 +40,24 @@ export interface Mapping {
   readonly hi: number;
   /** The Möbius kernel of the value, or undefined. */
   readonly kernel: LinearFractionalKernel | undefined;
+  /**
+   * Without a kernel over every valid code (a linear-fractional map with a pole just beyond one
+   * end): the Möbius kernel on the codes where it holds, the exact map at the end near the pole.
+   */
+  readonly partialKernel: PartialLinearFractionalKernel | undefined;
+  /**
+   * For a map that is not linear-fractional and has no sensor curve: the root of a quadratic with
+   * coefficients affine in the code, when one follows the exact map (full-bending-poisson bridges).
+   */
+  readonly quadraticKernel: QuadraticKernel | undefined;
   /** A Möbius map to the sensor's resistance and the curve after it, when the map factors so. */
   readonly resistanceCurve:
     | {
         readonly resistance: Mobius;
         readonly curve: SensorCurve;
         readonly evaluate: (code: number) => number;
+        /** The conversion loop of the curve, when it has one (IEC 60751 platinum RTDs). */
+        readonly kernel: CallendarVanDusenKernel | undefined;
       }
     | undefined;
   /** The value for a valid code; NaN for an invalid one (no throw: for kernels). */
@@ -119,6 +137,8 @@ export function createMapping(r: ResolvedChannel, p: Float64Array): Mapping {
     return exact(code);
   };
   const kernel = model.linearFractional ? fitMobius(valueFromCode, lo, hi) : undefined;
+  const partialKernel =
+    model.linearFractional && kernel === undefined ? partialMobius(valueOrNaN, lo, hi) : undefined;
   let resistanceCurve: Mapping['resistanceCurve'];
   const rc = model.kindMap.resistance;
   if (kernel === undefined && rc !== undefined && r.spec.output.quantity === 'temperature') {
@@ -135,11 +155,55 @@ export function createMapping(r: ResolvedChannel, p: Float64Array): Mapping {
       const evaluate = (code: number) =>
         fromBaseUnit(temperatureAt((a * code + b) / (c * code + d)), 'temperature', unit);
       // Accepted only when the composition agrees with the exact map (KERNEL_TOLERANCE of the largest value).
-      if (agrees(evaluate, valueOrNaN, lo, hi))
-        resistanceCurve = { resistance: { a, b, c, d }, curve: rc.curve, evaluate };
+      if (agrees(evaluate, valueOrNaN, lo, hi)) {
+        const scalar = (code: number): number => {
+          if (!(code > lo && code < hi)) return Number.NaN;
+          try {
+            return evaluate(code);
+          } catch (e) {
+            if (isBridgeworkError(e)) return Number.NaN;
+            throw e;
+          }
+        };
+        const symbol = temperatureUnitOf(findUnit('temperature', unit)?.unit.symbol);
+        const curve = rc.curve;
+        resistanceCurve = {
+          resistance: { a, b, c, d },
+          curve,
+          evaluate,
+          kernel:
+            curve.model === 'callendar-van-dusen' && symbol !== undefined
+              ? createCallendarVanDusenKernel({
+                  resistance: { a, b, c, d },
+                  curve,
+                  lo,
+                  hi,
+                  unit: symbol,
+                  scalar,
+                })
+              : undefined,
+        };
+      }
     }
   }
-  return { model, lo, hi, kernel, resistanceCurve, valueOrNaN, valueFromCode };
+  const quadraticKernel =
+    !model.linearFractional && resistanceCurve === undefined ? fitQuadratic(valueOrNaN, lo, hi) : undefined;
+  return {
+    model,
+    lo,
+    hi,
+    kernel,
+    partialKernel,
+    quadraticKernel,
+    resistanceCurve,
+    valueOrNaN,
+    valueFromCode,
+  };
+}
+
+/** The temperature kernels' name of a unit symbol (as fromBaseUnit reads it), or undefined. */
+function temperatureUnitOf(symbol: string | undefined): TemperatureUnit | undefined {
+  return symbol === '°C' ? 'celsius' : symbol === 'K' ? 'kelvin' : symbol === '°F' ? 'fahrenheit' : undefined;
 }
 
 /** Whether `f` agrees with the exact map at 65 codes across (lo, hi), within KERNEL_TOLERANCE of the largest value. */
@@ -175,6 +239,26 @@ function fitMobius(
   lo: number,
   hi: number,
 ): LinearFractionalKernel | undefined {
+  const kernel = mobiusThroughThree(exact, lo, hi);
+  if (kernel === undefined) return undefined;
+  const f = (x: number) => (kernel.a * x + kernel.b) / (kernel.c * x + kernel.d);
+  const safe = (x: number) => {
+    try {
+      return exact(x);
+    } catch (e) {
+      if (isBridgeworkError(e)) return Number.NaN;
+      throw e;
+    }
+  };
+  return agrees(f, safe, lo, hi) ? kernel : undefined;
+}
+
+/** The Möbius function through three exact values of the map (see {@link fitMobius}), unchecked. */
+function mobiusThroughThree(
+  exact: (code: number) => number,
+  lo: number,
+  hi: number,
+): LinearFractionalKernel | undefined {
   const first = Math.floor(lo) + 1;
   const last = Math.ceil(hi) - 1;
   if (!(last - first >= 4)) return undefined;
@@ -204,22 +288,161 @@ function fitMobius(
   const alpha = (rm * -tp * qp - -tm * qm * rp) / det;
   const gamma = (tm * rp - tp * rm) / det;
   // Back to code coordinates: q = (α(x − x0) + βh)/(γ(x − x0) + h).
-  const kernel: LinearFractionalKernel = {
-    a: alpha,
-    b: q0 * h - alpha * x0,
-    c: gamma,
-    d: h - gamma * x0,
+  return { a: alpha, b: q0 * h - alpha * x0, c: gamma, d: h - gamma * x0, lo, hi };
+}
+
+/**
+ * A partial kernel for a linear-fractional map that no Möbius kernel follows over every valid
+ * code: its pole x = −d/c lies just beyond (or at) one end, where the value grows without bound and
+ * both roundings (kernel and exact map) lose digits. The kernel keeps the codes at least δ from the
+ * pole, δ = 1, 4, 16… codes, the first that agrees with the exact map at every checked code within
+ * KERNEL_TOLERANCE of the larger of that code's value and the values at the fit points; the codes
+ * nearer the pole take the exact map per sample. Undefined when no such interval keeps 99 % of the
+ * codes.
+ */
+function partialMobius(
+  exact: (code: number) => number,
+  lo: number,
+  hi: number,
+): PartialLinearFractionalKernel | undefined {
+  let fit: LinearFractionalKernel | undefined;
+  try {
+    fit = mobiusThroughThree(exact, lo, hi);
+  } catch (e) {
+    if (isBridgeworkError(e)) return undefined;
+    throw e;
+  }
+  if (fit === undefined || fit.c === 0) return undefined;
+  const { a, b, c, d } = fit;
+  const pole = -d / c;
+  if (!Number.isFinite(pole)) return undefined;
+  const f = (x: number) => (a * x + b) / (c * x + d);
+  const floor = Math.max(
+    ...[lo + 0.05 * (hi - lo), (lo + hi) / 2, hi - 0.05 * (hi - lo)].map((x) =>
+      Math.abs(exact(Math.round(x))),
+    ),
+  );
+  if (!(floor > 0)) return undefined;
+  const upper = pole > (lo + hi) / 2;
+  for (let delta = 1; delta <= 0.01 * (hi - lo); delta *= 4) {
+    const l = upper ? lo : Math.max(lo, pole + delta);
+    const h = upper ? Math.min(hi, pole - delta) : hi;
+    if (agreesPointwise(f, exact, l, h, floor, upper)) return { a, b, c, d, lo: l, hi: h, scalar: exact };
+  }
+  return undefined;
+}
+
+/**
+ * Whether `f` agrees with the exact map at 65 codes across (lo, hi) and at the 64 codes next to
+ * the end near the pole, each within KERNEL_TOLERANCE of max(|value|, floor).
+ */
+function agreesPointwise(
+  f: (x: number) => number,
+  exact: (x: number) => number,
+  lo: number,
+  hi: number,
+  floor: number,
+  upper: boolean,
+): boolean {
+  const first = Math.floor(lo) + 1;
+  const last = Math.ceil(hi) - 1;
+  if (!(last - first >= 128)) return false;
+  const codes: number[] = [];
+  for (let i = 0; i <= 64; i++) codes.push(Math.round(first + ((last - first) * i) / 64));
+  for (let i = 0; i < 64; i++) codes.push(upper ? last - i : first + i);
+  for (const x of codes) {
+    const q = exact(x);
+    if (Number.isNaN(q)) return false;
+    if (!(Math.abs(f(x) - q) <= KERNEL_TOLERANCE * Math.max(Math.abs(q), floor))) return false;
+  }
+  return true;
+}
+
+/**
+ * The quadratic kernel through five exact values of the map: with t = (x − x0)/h at
+ * t = −0.95, −0.5, 0, 0.5, 0.95 and u = q/s (s the largest |q| there), the coefficients of
+ * (α0 + α1·t)·u² + (1 + β1·t)·u + (γ0 + γ1·t) = 0 solve a 5×5 linear system (Gaussian elimination
+ * with partial pivoting); then back to code coordinates and q. Kept only when B(x) keeps one sign
+ * over the codes and the kernel agrees with the exact map at 1025 codes across them within
+ * KERNEL_TOLERANCE of the largest value (a map that is no such root fails this and keeps the
+ * exact path).
+ */
+function fitQuadratic(exact: (code: number) => number, lo: number, hi: number): QuadraticKernel | undefined {
+  const first = Math.floor(lo) + 1;
+  const last = Math.ceil(hi) - 1;
+  if (!(last - first >= 8)) return undefined;
+  const x0 = Math.round((first + last) / 2);
+  const h = Math.min(x0 - first, last - x0);
+  const xs = [-0.95, -0.5, 0, 0.5, 0.95].map((tau) => x0 + Math.round(tau * h));
+  const ts = xs.map((x) => (x - x0) / h);
+  const qs = xs.map(exact);
+  const s = Math.max(...qs.map(Math.abs));
+  if (!(s > 0 && Number.isFinite(s))) return undefined;
+  // Rows: [u², t·u², t·u, 1, t | −u] for the unknowns α0, α1, β1, γ0, γ1.
+  const rows = ts.map((t, i) => {
+    const u = (qs[i] as number) / s;
+    return [u * u, t * u * u, t * u, 1, t, -u];
+  });
+  const solution = solveLinear(rows);
+  if (solution === undefined) return undefined;
+  const [alpha0, alpha1, beta1, gamma0, gamma1] = solution as [number, number, number, number, number];
+  // In q and x: A = (α0 + α1·t)/s, B = 1 + β1·t, C = (γ0 + γ1·t)·s, t = (x − x0)/h.
+  const kernel: QuadraticKernel = {
+    a0: (alpha0 - (alpha1 * x0) / h) / s,
+    a1: alpha1 / h / s,
+    b0: 1 - (beta1 * x0) / h,
+    b1: beta1 / h,
+    c0: (gamma0 - (gamma1 * x0) / h) * s,
+    c1: (gamma1 / h) * s,
     lo,
     hi,
+    scalar: exact,
   };
-  const f = (x: number) => (kernel.a * x + kernel.b) / (kernel.c * x + kernel.d);
-  const safe = (x: number) => {
-    try {
-      return exact(x);
-    } catch (e) {
-      if (isBridgeworkError(e)) return Number.NaN;
-      throw e;
+  const bLo = kernel.b0 + kernel.b1 * first;
+  const bHi = kernel.b0 + kernel.b1 * last;
+  if (!(bLo > 0 === bHi > 0) || bLo === 0 || bHi === 0) return undefined;
+  const sg = kernel.b0 + kernel.b1 * ((lo + hi) / 2) < 0 ? 1 : -1;
+  // The kernel's expression (convert/curveKernels.ts), operation for operation.
+  const f = (x: number) => {
+    const qb = kernel.b0 + kernel.b1 * x;
+    const qc = kernel.c0 + kernel.c1 * x;
+    return (2 * qc) / (sg * Math.sqrt(qb * qb - 4 * (kernel.a0 + kernel.a1 * x) * qc) - qb);
+  };
+  let scale = 0;
+  let worst = 0;
+  for (let i = 0; i <= 1024; i++) {
+    const x = Math.round(first + ((last - first) * i) / 1024);
+    const q = exact(x);
+    if (Number.isNaN(q)) continue;
+    scale = Math.max(scale, Math.abs(q));
+    const d = Math.abs(f(x) - q);
+    if (!(d <= worst)) worst = d; // NaN from the kernel fails below
+  }
+  return scale > 0 && worst <= KERNEL_TOLERANCE * scale ? kernel : undefined;
+}
+
+/** Solves the square system given as augmented rows [A | b] (partial pivoting); undefined if singular. */
+function solveLinear(rows: number[][]): number[] | undefined {
+  const n = rows.length;
+  const m = rows.map((r) => r.slice());
+  for (let col = 0; col < n; col++) {
+    let pivot = col;
+    for (let r = col + 1; r < n; r++) if (Math.abs(m[r]![col]!) > Math.abs(m[pivot]![col]!)) pivot = r;
+    if (!(Math.abs(m[pivot]![col]!) > 0)) return undefined;
+    [m[col], m[pivot]] = [m[pivot]!, m[col]!];
+    const p = m[col]!;
+    for (let r = col + 1; r < n; r++) {
+      const row = m[r]!;
+      const factor = row[col]! / p[col]!;
+      for (let c = col; c <= n; c++) row[c] = row[c]! - factor * p[c]!;
     }
-  };
-  return agrees(f, safe, lo, hi) ? kernel : undefined;
+  }
+  const x = new Array<number>(n).fill(0);
+  for (let r = n - 1; r >= 0; r--) {
+    const row = m[r]!;
+    let sum = row[n]!;
+    for (let c = r + 1; c < n; c++) sum -= row[c]! * x[c]!;
+    x[r] = sum / row[r]!;
+  }
+  return x.every(Number.isFinite) ? x : undefined;
 }
