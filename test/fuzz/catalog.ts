@@ -88,6 +88,7 @@ export const constants: Partial<Record<LibraryPackage, readonly string[]>> = {
     'FIRMWARE_CAUTION',
     'FIRMWARE_GENERATOR_VERSION',
     'MAX_PIECEWISE_DEGREE',
+    'MAX_MATRIX_SIZE',
     'MAX_POLYNOMIAL_COEFFICIENTS',
     'evaluatorTypes',
     'fixedPointRoundings',

@@ -66,7 +66,8 @@ export const errorCodeDescriptions: Readonly<Record<ErrorCode, string>> = {
   'model-not-finite': 'A user-supplied model returned NaN or ±Infinity.',
   'model-failed':
     'A user-supplied model threw an error that is not a bridgework error; the message shows where (the trial and its inputs), `cause` holds the original.',
-  closed: 'An object was used after it was closed (for example a Monte Carlo worker pool after `close()`).',
+  closed:
+    'An object was used after it was closed (for example a Monte Carlo worker pool after `close()`), or a run was stopped by its abort signal.',
   overflow: 'An integer pipeline would overflow its word or accumulator.',
   clipped: 'A converter code at or beyond the rails, when the policy is to throw rather than flag.',
   'invalid-spec': 'A specification or file holds one or more problems; each is listed with its field path.',

@@ -52,6 +52,7 @@ export {
   type PiecewisePolynomial,
   type SegmentCodes,
 } from './piecewisePolynomial.js';
+export { matrixMap, MAX_MATRIX_SIZE, type MatrixMap, type MatrixMapOptions } from './matrixMap.js';
 export { fixedPointRoundings, roundShift, type FixedPointRounding } from './roundShift.js';
 export type { ReferenceError, TestVector, TotalErrorBound, TotalErrors } from './totalError.js';
 export {

@@ -19,6 +19,7 @@ export {
   MONTE_CARLO_BYTES_PER_TRIAL,
   MONTE_CARLO_MAX_TRIALS,
   monteCarlo,
+  type AbortSignalLike,
   type AdaptiveInterval,
   type AdaptiveOptions,
   type AdaptiveReport,

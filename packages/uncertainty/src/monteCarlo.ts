@@ -71,6 +71,17 @@ export interface MonteCarloProgress {
   readonly maxTrials: number;
 }
 
+/**
+ * What a run reads of an `AbortSignal` (typed by the two properties read, so the declarations need
+ * no DOM or Node globals): an `AbortController`'s `signal` will do.
+ */
+export interface AbortSignalLike {
+  /** True once the run should stop. */
+  readonly aborted: boolean;
+  /** What the run rejects (or throws) with once stopped; an `AbortSignal` sets it on `abort()`. */
+  readonly reason?: unknown;
+}
+
 /** Options of {@link monteCarlo}. */
 export interface MonteCarloOptions {
   /**
@@ -112,6 +123,14 @@ export interface MonteCarloOptions {
    * it abandons the run: the error is what the run throws.
    */
   readonly onProgress?: (progress: MonteCarloProgress) => void;
+  /**
+   * Stops the run once `signal.aborted` is true: it throws (a pooled run rejects with)
+   * `signal.reason`, or a `closed` error when the signal has no reason. One thread reads it before
+   * the run and after every seeding block of 16 384 trials (so only `onProgress` or the model can
+   * abort a run there: the thread is busy); the worker pool also every 10 ms while its workers
+   * draw, and no block is started after that. An `AbortController`'s `signal` will do.
+   */
+  readonly signal?: AbortSignalLike;
 }
 
 /** The result of {@link monteCarlo}. */
@@ -154,6 +173,7 @@ export const monteCarloOptionKeys: readonly string[] = [
   'gradient',
   'returnValues',
   'onProgress',
+  'signal',
 ];
 
 /** A checked Monte Carlo set-up, shared by the in-process runner and the worker pool. */
@@ -166,6 +186,17 @@ export interface MonteCarloSetup {
   readonly compareWithGum: boolean;
   /** Reports progress (a no-op without `onProgress`). */
   readonly progress: ProgressReporter;
+  /** The run's `signal`, if any. */
+  readonly signal: AbortSignalLike | undefined;
+}
+
+/** Throws what an aborted run throws: the signal's reason, or a `closed` error when it has none. */
+export function throwIfAborted(signal: AbortSignalLike | undefined): void {
+  if (signal === undefined || signal.aborted !== true) return;
+  if (signal.reason !== undefined) throw signal.reason;
+  throw new BridgeworkError('closed', 'the Monte Carlo run was stopped by its `signal` (aborted)', {
+    param: 'signal',
+  });
 }
 
 /** Turns trials done into `onProgress` calls. */
@@ -242,6 +273,19 @@ export function prepareMonteCarlo(o: Record<string, unknown>): MonteCarloSetup {
         param: 'onProgress',
         value: onProgress,
       },
+    );
+  }
+  const signal = o['signal'];
+  if (
+    signal !== undefined &&
+    (typeof signal !== 'object' ||
+      signal === null ||
+      typeof (signal as { aborted?: unknown }).aborted !== 'boolean')
+  ) {
+    throw new BridgeworkError(
+      'wrong-type',
+      `\`signal\` must be an AbortSignal (an object with a boolean \`aborted\`); got ${formatValue(signal)}`,
+      { param: 'signal', value: signal },
     );
   }
   const adaptiveOption = o['adaptive'];
@@ -356,6 +400,7 @@ export function prepareMonteCarlo(o: Record<string, unknown>): MonteCarloSetup {
         callback?.({ trials: done, plannedTrials: request.trialsBefore + request.trials, maxTrials });
       },
     },
+    signal: signal as AbortSignalLike | undefined,
   };
 }
 
@@ -476,7 +521,7 @@ export function checkMonteCarloModel(
  * `degreesOfFreedom`) need ν > 2: below, the distribution has no variance and u(y) does not exist.
  *
  * @param options - Model, inputs, correlations, trials or adaptive, seed, coverage, comparison,
- *   progress hook.
+ *   progress hook, abort signal.
  * @returns Estimate, standard uncertainty, both coverage intervals, trials, and the GUM comparison.
  * @throws {@link @bridgework/core!BridgeworkError} `unknown-option` (naming the closest key),
  *   `missing-option` for the options' keys; `wrong-type` unless `model` is a function or a
@@ -487,7 +532,8 @@ export function checkMonteCarloModel(
  *   or `gradient` with a positional model; `not-integer`, `out-of-range` for bad trials (more
  *   than {@link MONTE_CARLO_MAX_TRIALS}), seed or digits, and for a t-distributed input with
  *   ν ≤ 2; `not-converged` when the adaptive procedure exceeds `maxTrials`; whatever
- *   `onProgress` throws.
+ *   `onProgress` throws; `signal.reason` once `signal` is aborted (`closed` without a reason);
+ *   `wrong-type` for a `signal` without a boolean `aborted`.
  * @example
  * ```ts
  * const r = monteCarlo({
@@ -507,6 +553,7 @@ export function monteCarlo(options: MonteCarloOptions): MonteCarloResult {
   const o = checkOptions('options', options, { known: monteCarloOptionKeys, required: ['model', 'inputs'] });
   const setup = prepareMonteCarlo(o);
   const model = checkMonteCarloModel(o['model'], setup.plan.names, o);
+  throwIfAborted(setup.signal);
   const runner = createBlockRunner(setup.plan, model);
   let run: DriverResult;
   try {
@@ -516,7 +563,7 @@ export function monteCarlo(options: MonteCarloOptions): MonteCarloResult {
       const request = step.value;
       step = procedure.next(
         request.kind === 'blocks'
-          ? runLocally(runner, request, setup.progress)
+          ? runLocally(runner, request, setup.progress, setup.signal)
           : sampleIntervalsInPlace(request.values, request.coverage),
       );
     }
@@ -531,6 +578,7 @@ function runLocally(
   runner: ReturnType<typeof createBlockRunner>,
   request: BlockRequest,
   progress: ProgressReporter,
+  signal: AbortSignalLike | undefined,
 ): BlockReply {
   const values = new Float64Array(request.trials);
   const stats = new Float64Array(2 * request.blockCount);
@@ -538,6 +586,7 @@ function runLocally(
     const count = Math.min(BLOCK_TRIALS, request.trials - b * BLOCK_TRIALS);
     runner.runBlock(request.firstBlock + b, count, values, b * BLOCK_TRIALS, stats, b);
     if (progress.active) progress.report(request.trialsBefore + b * BLOCK_TRIALS + count, request);
+    throwIfAborted(signal);
   }
   return { values, stats };
 }

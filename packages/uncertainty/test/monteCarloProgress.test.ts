@@ -68,3 +68,61 @@ describe('monteCarlo: onProgress (issue 13 item 5: progress in the uncertainty p
     );
   });
 });
+
+describe('monteCarlo: signal (cancellation)', () => {
+  it('stops after the block during which the signal was aborted, throwing its reason', () => {
+    const controller = new AbortController();
+    const reason = new Error('stopped by the operator');
+    const seen: number[] = [];
+    let calls = 0;
+    const counting = (x: Readonly<Record<string, number>>): number => {
+      calls++;
+      return model(x);
+    };
+    expect(() =>
+      monteCarlo({
+        model: counting,
+        inputs,
+        trials: 1_000_000,
+        compareWithGum: false,
+        signal: controller.signal,
+        onProgress: (p) => {
+          seen.push(p.trials);
+          if (p.trials >= 3 * 16384) controller.abort(reason);
+        },
+      }),
+    ).toThrow(reason);
+    // Three blocks of 16 384 trials were drawn; no fourth was started.
+    expect(seen).toEqual([16384, 32768, 49152]);
+    expect(calls).toBe(3 * 16384);
+  });
+
+  it('does not start when the signal is already aborted, and a reasonless signal gives `closed`', () => {
+    let calls = 0;
+    const counting = (x: Readonly<Record<string, number>>): number => {
+      calls++;
+      return model(x);
+    };
+    const controller = new AbortController();
+    controller.abort();
+    expect(() => monteCarlo({ model: counting, inputs, trials: 1000, signal: controller.signal })).toThrow(
+      expect.objectContaining({ name: 'AbortError' }),
+    );
+    expect(() =>
+      monteCarlo({ model: counting, inputs, trials: 1000, signal: { aborted: true } }),
+    ).toThrowBridgeworkError('closed', { param: 'signal' });
+    expect(calls).toBe(0);
+    // A signal that is never aborted changes nothing.
+    const options = { model, inputs, trials: 50_000, seed: 3 } as const;
+    expect(monteCarlo({ ...options, signal: new AbortController().signal })).toEqual(monteCarlo(options));
+  });
+
+  it('must be an object with a boolean `aborted`', () => {
+    for (const bad of [true, 'abort', {}, { aborted: 1 }, null]) {
+      expect(() => monteCarlo({ model, inputs, trials: 1000, signal: bad as never })).toThrowBridgeworkError(
+        'wrong-type',
+        { param: 'signal' },
+      );
+    }
+  });
+});

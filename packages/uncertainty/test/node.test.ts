@@ -124,6 +124,62 @@ describe('@bridgework/uncertainty/node: models, progress and failures', () => {
     }
   }, 60_000);
 
+  it('stops a run when its signal is aborted (no further block started), and a run in progress on close()', async () => {
+    const pool = await createMonteCarloPool({
+      model: { module, exportName: 'twelveInputModel' },
+      workers: 2,
+    });
+    const trials = 20_000_000; // seconds of work: the stop must come long before the end
+    try {
+      const controller = new AbortController();
+      const reason = new Error('stopped by the operator');
+      let last = 0;
+      const started = performance.now();
+      const run = pool.run({
+        inputs: twelveInputs,
+        trials,
+        compareWithGum: false,
+        signal: controller.signal,
+        onProgress: (p) => {
+          last = p.trials;
+          if (p.trials > 0) controller.abort(reason);
+        },
+      });
+      await expect(run).rejects.toBe(reason);
+      expect(last).toBeGreaterThan(0);
+      expect(last).toBeLessThan(trials);
+      // The workers stop within a block each: the pool is free at once for the next run.
+      const next = await pool.run({ inputs: twelveInputs, trials: 40_000, seed: 5 });
+      expect(performance.now() - started).toBeLessThan(30_000); // far below the 20 M trials' run
+      expect(next).toEqual(
+        monteCarlo({ model: twelveInputModel, inputs: twelveInputs, trials: 40_000, seed: 5 }),
+      );
+      // An aborted signal stops a run before it starts; a reasonless one gives `closed`.
+      const aborted = new AbortController();
+      aborted.abort();
+      await expect(
+        pool.run({ inputs: twelveInputs, trials: 40_000, signal: aborted.signal }),
+      ).rejects.toMatchObject({ name: 'AbortError' });
+      await expect(
+        pool.run({ inputs: twelveInputs, trials: 40_000, signal: { aborted: true } }),
+      ).rejects.toMatchObject({ code: 'closed', param: 'signal' });
+      // A signal aborted by a timer while the workers draw (the main thread is free: it is read every 10 ms).
+      const timed = new AbortController();
+      const timer = setTimeout(() => timed.abort(new Error('time is up')), 50);
+      await expect(
+        pool.run({ inputs: twelveInputs, trials, compareWithGum: false, signal: timed.signal }),
+      ).rejects.toThrow('time is up');
+      clearTimeout(timer);
+      // close() during a run ends it with `closed`, not a worker failure.
+      const inFlight = pool.run({ inputs: twelveInputs, trials, compareWithGum: false });
+      await new Promise((resolve) => setTimeout(resolve, 50));
+      await pool.close();
+      await expect(inFlight).rejects.toMatchObject({ code: 'closed' });
+    } finally {
+      await pool.close();
+    }
+  }, 120_000);
+
   // Issue 15 item 14: the worker path reported another failing trial than one thread (16706 vs 779).
   it('reports the same failing trial as one thread, for a model returning NaN and one that throws', async () => {
     for (const [exportName, fn, code] of [

@@ -40,6 +40,19 @@ const polynomialOptions = () => ({
   codeMax: 1000,
 });
 const fixed = () => firmware.fixedPointMap(fixedOptions() as never);
+const matrix = () =>
+  firmware.matrixMap({
+    matrix: [
+      [2000, -30],
+      [5, 1980],
+    ],
+    offsets: [-0.05, 0.03],
+    inputRanges: [
+      { min: -1.5, max: 1.5 },
+      { min: -1.5, max: 1.5 },
+    ],
+    precision: 'float32',
+  });
 const affine = () => firmware.floatMap(affineOptions() as never);
 // A gently curved map over 4096 codes: every designed function is verified over all its codes.
 const curve = (code: number) => 20 + code / 100 + (code * code) / 4e6;
@@ -80,6 +93,22 @@ export const firmwareCalls: readonly BaseCall[] = [
   f('roundShift', () => [7n, 1, 'half-even']),
   f('fixedPointMap', () => [fixedOptions()]),
   f('floatMap', () => [affineOptions()]),
+  m('matrixMap', matrix, 'evaluate', () => [[0.1, -0.2]]),
+  m('matrixMap', matrix, 'cSource', () => ['rig', 'coupling']),
+  f('matrixMap', () => [
+    {
+      matrix: [
+        [2000, -30],
+        [5, 1980],
+      ],
+      offsets: [-0.05, 0.03],
+      inputRanges: [
+        { min: -1.5, max: 1.5 },
+        { min: -1.5, max: 1.5 },
+      ],
+      precision: 'float32',
+    },
+  ]),
   f('floatMap', () => [polynomialOptions()], { variant: 'polynomial' }),
   f('emitCHeader', () => [
     {

@@ -57,7 +57,7 @@ export interface LoadChannelFileOptions<T> {
   readonly validateChannel: ChannelValidator<T>;
 }
 
-const topLevelKeys = ['$schema', 'project', 'channels'] as const;
+const topLevelKeys = ['$schema', 'project', 'channels', 'groups'] as const;
 const projectKeys = ['title', 'description', 'reference'] as const;
 /** What a channel name (a key under `channels`) must match: a letter, then letters, digits, `_` and `-`, at most 63 in all. */
 export const channelNamePattern = /^[A-Za-z][A-Za-z0-9_-]{0,62}$/;
@@ -90,7 +90,8 @@ function unknownKeys(record: Record<string, unknown>, known: readonly string[], 
  * @remarks
  * Layout: the top level is a mapping with `channels` (required: a non-empty mapping from channel
  * name to channel spec), `project` (optional: `title`, `description`, `reference`, each a
- * string) and `$schema` (optional: a text naming the JSON Schema for editors, otherwise ignored). Names start with a letter and hold letters, digits, `_` and `-` (at most 63), so they
+ * string), `$schema` (optional: a text naming the JSON Schema for editors, otherwise ignored) and
+ * `groups` (optional: multi-bridge groups, validated by the CLI's `validateGroups` once the channels are). Names start with a letter and hold letters, digits, `_` and `-` (at most 63), so they
  * can become C identifiers and CSV headings; names that every JavaScript object carries
  * (`constructor`, `toString`, `__proto__`...) are refused. Unknown fields are errors (typo
  * protection), with the closest known name suggested. A file with more than

@@ -1,9 +1,10 @@
 import { channelSpecJsonSchema } from '@bridgework/channel';
 import { channelNamePattern } from '../channelFile/loadChannelFile.js';
+import { groupsJsonSchema } from '../groups/groupsJsonSchema.js';
 
 /**
- * The JSON Schema (draft 2020-12) of a channel file, for editors: `project` metadata and a
- * `channels` mapping from channel name to channel spec.
+ * The JSON Schema (draft 2020-12) of a channel file, for editors: `project` metadata, a
+ * `channels` mapping from channel name to channel spec, and the multi-bridge `groups`.
  *
  * @remarks
  * The channel part is the channel package's `channelSpecJsonSchema()` (generated from the schema
@@ -50,6 +51,7 @@ export function channelFileJsonSchema(): Record<string, unknown> {
         propertyNames: { pattern: channelNamePattern.source },
         additionalProperties: { $ref: '#/$defs/channel' },
       },
+      groups: groupsJsonSchema(),
     },
     $defs: { channel: { ...channel, properties } },
   };

@@ -30,6 +30,8 @@ export interface DesignReportHtmlOptions {
   readonly generator: string;
   /** The date of the run as text (`'2026-03-14'`); omitted when undefined. */
   readonly date?: string;
+  /** Sections placed after the channels' (the file's multi-bridge groups). */
+  readonly extraSections?: readonly ReportSection[];
 }
 
 const quantityLabels: Readonly<Record<string, string>> = {
@@ -294,6 +296,10 @@ export function designReportHtml(report: DesignReport, options: DesignReportHtml
     ...(report.project.description === undefined ? {} : { subtitle: report.project.description }),
     meta,
     generator: options.generator,
-    sections: [summarySection(report), ...report.channels.map((c) => channelSection(c, options.points))],
+    sections: [
+      summarySection(report),
+      ...report.channels.map((c) => channelSection(c, options.points)),
+      ...(options.extraSections ?? []),
+    ],
   });
 }

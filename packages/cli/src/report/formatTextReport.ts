@@ -144,18 +144,24 @@ function channelText(c: ChannelDesign, style: TextStyle): string {
  *
  * @param report - The design report.
  * @param style - Colours (plain when writing to a file or pipe).
+ * @param groups - The file's multi-bridge groups as text sections (placed after the channels), and
+ *   whether their checks passed.
  * @returns The report, ending with the caution and a newline.
  */
-export function formatTextReport(report: DesignReport, style: TextStyle): string {
+export function formatTextReport(
+  report: DesignReport,
+  style: TextStyle,
+  groups: { readonly sections: readonly string[]; readonly ok: boolean } = { sections: [], ok: true },
+): string {
   const title = report.project.title ?? report.file;
   const head = [style.bold(`Design report: ${title}`), `  channel file: ${report.file}`];
   if (report.project.reference !== undefined) head.push(`  reference: ${report.project.reference}`);
   if (report.project.description !== undefined)
     head.push(...wrapText(report.project.description, WIDTH, '  '));
-  const parts = [head.join('\n'), ...report.channels.map((c) => channelText(c, style))];
+  const parts = [head.join('\n'), ...report.channels.map((c) => channelText(c, style)), ...groups.sections];
   parts.push(`${style.bold('Summary')}\n${indent(formatTable(summaryColumns, summaryRows(report, style)))}`);
   parts.push(
-    report.ok
+    report.ok && groups.ok
       ? 'Every check passed.'
       : style.red('A design check failed: see the FAIL lines above (exit code 2).'),
   );

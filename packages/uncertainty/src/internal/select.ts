@@ -241,8 +241,11 @@ export function sortTailPart(part: Float64Array): void {
 /**
  * The intervals from tails extracted in parts (any split of the values) and each sorted, or
  * `undefined` when a side holds fewer than M − q values (then the thresholds did not enclose the
- * tails and another route must be taken). The parts are merged by value; the order of equal
- * values does not matter, as the intervals are values and a zero end is reported as +0.
+ * tails and another route must be taken). The order statistics are read by walking both unions
+ * of parts from the top at once — the highest M − q values of the upper tails and, after skipping
+ * what lies above the M − q lowest, the lower tails — so nothing is merged into a new array, and
+ * candidate i pairs y₍ᵢ₊₁₎ with y₍q+i+1₎ as JCGM 101 7.7 prescribes. The order of equal values
+ * does not matter, as the intervals are values and a zero end is reported as +0.
  */
 export function intervalsFromSortedParts(
   lows: readonly Float64Array[],
@@ -253,77 +256,96 @@ export function intervalsFromSortedParts(
   const q = coveredCount(coverage, trials);
   const candidates = trials - q;
   const total = (parts: readonly Float64Array[]): number => parts.reduce((a, p) => a + p.length, 0);
-  if (total(lows) < candidates || total(highs) < candidates) return undefined;
-  const low = mergeSmallest(lows, candidates);
-  const high = mergeLargest(highs, candidates);
-  return intervalsFromTails(low, high, q, candidates);
+  const totalLow = total(lows);
+  const totalHigh = total(highs);
+  if (totalLow < candidates || totalHigh < candidates) return undefined;
+  if (lows.length === 1 && highs.length === 1) {
+    const high = highs[0] as Float64Array;
+    return intervalsFromTails(
+      lows[0] as Float64Array,
+      high.subarray(high.length - candidates),
+      q,
+      candidates,
+    );
+  }
+  const low = new TopCursor(lows);
+  low.skip(totalLow - candidates);
+  const high = new TopCursor(highs);
+  // Candidates i = M − q − 1 … 0 (1-based r = i + 1): the shortest is the first on ties, so a
+  // width equal to the best so far replaces it (a lower i).
+  const r = Math.ceil(candidates / 2);
+  let min = 0;
+  let max = 0;
+  let bestWidth = Infinity;
+  let bestLow = 0;
+  let bestHigh = 0;
+  for (let i = candidates - 1; i >= 0; i--) {
+    const l = low.next();
+    const h = high.next();
+    if (i === r - 1) {
+      min = l;
+      max = h;
+    }
+    const width = h - l;
+    if (width <= bestWidth) {
+      bestWidth = width;
+      bestLow = l;
+      bestHigh = h;
+    }
+  }
+  return {
+    interval: { min: end(min), max: end(max) },
+    shortestInterval: { min: end(bestLow), max: end(bestHigh) },
+  };
 }
 
-/** The `count` smallest values of sorted parts, ascending (a two-pointer merge for two parts). */
-function mergeSmallest(parts: readonly Float64Array[], count: number): Float64Array {
-  if (parts.length === 1) return (parts[0] as Float64Array).subarray(0, count);
-  const out = new Float64Array(count);
-  if (parts.length === 2) {
-    const a = parts[0] as Float64Array;
-    const b = parts[1] as Float64Array;
-    let i = 0;
-    let j = 0;
-    for (let k = 0; k < count; k++) {
-      if (j >= b.length || (i < a.length && (a[i] as number) <= (b[j] as number))) out[k] = a[i++] as number;
-      else out[k] = b[j++] as number;
-    }
-    return out;
-  }
-  const front = parts.map(() => 0);
-  for (let k = 0; k < count; k++) {
-    let best = -1;
-    let value = Infinity;
-    for (let p = 0; p < parts.length; p++) {
-      const part = parts[p] as Float64Array;
-      const i = front[p] as number;
-      if (i < part.length && (best < 0 || (part[i] as number) < value)) {
-        best = p;
-        value = part[i] as number;
-      }
-    }
-    out[k] = value;
-    front[best] = (front[best] as number) + 1;
-  }
-  return out;
-}
+/** Yields the values of ascending sorted parts from the largest down, as one merged sequence would. */
+class TopCursor {
+  private readonly parts: readonly Float64Array[];
+  private readonly back: Int32Array;
+  private readonly a: Float64Array;
+  private readonly b: Float64Array;
+  private i: number;
+  private j: number;
 
-/** The `count` largest values of sorted parts, ascending (merged from the back). */
-function mergeLargest(parts: readonly Float64Array[], count: number): Float64Array {
-  if (parts.length === 1) {
-    const only = parts[0] as Float64Array;
-    return only.subarray(only.length - count);
+  constructor(parts: readonly Float64Array[]) {
+    this.parts = parts;
+    this.back = Int32Array.from(parts, (p) => p.length - 1);
+    const empty = new Float64Array(0);
+    this.a = parts[0] ?? empty;
+    this.b = parts[1] ?? empty;
+    this.i = this.a.length - 1;
+    this.j = this.b.length - 1;
   }
-  const out = new Float64Array(count);
-  if (parts.length === 2) {
-    const a = parts[0] as Float64Array;
-    const b = parts[1] as Float64Array;
-    let i = a.length - 1;
-    let j = b.length - 1;
-    for (let k = count - 1; k >= 0; k--) {
-      if (j < 0 || (i >= 0 && (a[i] as number) >= (b[j] as number))) out[k] = a[i--] as number;
-      else out[k] = b[j--] as number;
+
+  /** Drops the `count` largest values. */
+  skip(count: number): void {
+    for (let k = 0; k < count; k++) this.next();
+  }
+
+  /** The largest value not yet taken (there must be one). */
+  next(): number {
+    if (this.parts.length <= 2) {
+      const a = this.a;
+      const b = this.b;
+      if (this.j < 0 || (this.i >= 0 && (a[this.i] as number) >= (b[this.j] as number)))
+        return a[this.i--] as number;
+      return b[this.j--] as number;
     }
-    return out;
-  }
-  const back = parts.map((part) => part.length - 1);
-  for (let k = count - 1; k >= 0; k--) {
+    const back = this.back;
     let best = -1;
     let value = -Infinity;
-    for (let p = 0; p < parts.length; p++) {
-      const part = parts[p] as Float64Array;
-      const i = back[p] as number;
-      if (i >= 0 && (best < 0 || (part[i] as number) > value)) {
-        best = p;
-        value = part[i] as number;
+    for (let p = 0; p < this.parts.length; p++) {
+      const k = back[p] as number;
+      if (k >= 0) {
+        const v = (this.parts[p] as Float64Array)[k] as number;
+        if (best < 0 || v > value) {
+          best = p;
+          value = v;
+        }
       }
     }
-    out[k] = value;
     back[best] = (back[best] as number) - 1;
+    return value;
   }
-  return out;
 }

@@ -26,6 +26,8 @@ import {
   monteCarloOptionKeys,
   monteCarloResult,
   prepareMonteCarlo,
+  throwIfAborted,
+  type AbortSignalLike,
   type MonteCarloOptions,
   type MonteCarloResult,
   type ProgressReporter,
@@ -83,10 +85,12 @@ export interface MonteCarloPool {
    * @param options - As `monteCarlo`, without `model`.
    * @returns The same result as `monteCarlo` in one thread, bit for bit.
    * @throws {@link @bridgework/core!BridgeworkError} as `monteCarlo` (the same error, for the
-   *   same failing trial, as one thread); `closed` after {@link MonteCarloPool.close}.
+   *   same failing trial, as one thread); `closed` after {@link MonteCarloPool.close}; and, once
+   *   `signal` is aborted, its reason (the signal is read every 10 ms while the workers draw, and
+   *   when a queued run's turn comes).
    */
   run(options: PooledMonteCarloOptions): Promise<MonteCarloResult>;
-  /** Terminates the workers; later runs fail with `closed`. */
+  /** Terminates the workers; a run in progress and later runs fail with `closed`. */
   close(): Promise<void>;
 }
 
@@ -104,6 +108,8 @@ const fromSource = here.endsWith('.ts');
 const KEEP_BYTES = 64 * 2 ** 20;
 /** How often a pooled run reads the shared trial counter for `onProgress`, in ms. */
 const PROGRESS_MILLIS = 50;
+/** How often a pooled run reads its `signal` while the workers draw, in ms. */
+const SIGNAL_MILLIS = 10;
 
 /**
  * Starts one worker. From the compiled package this is dist/node/worker.js. From the TypeScript
@@ -245,6 +251,15 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
       : checkInteger('workers', o['workers'], { min: 1, max: 256 });
   const mainModel = await loadModelExport(href, exportName, hasArgument, argument);
   const workers = Array.from({ length: count }, startWorker);
+  let closed = false;
+  const closedError = (): BridgeworkError =>
+    new BridgeworkError(
+      'closed',
+      'the Monte Carlo pool is closed (`close()` was called; a run in progress is stopped): create a new pool',
+      {
+        param: 'pool',
+      },
+    );
   let broken: BridgeworkError | undefined;
   const call = (worker: Worker, message: WorkerMessage): Promise<WorkerReply> =>
     new Promise((resolve, reject) => {
@@ -264,7 +279,8 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
       };
       const onExit = (code: number): void => {
         settle();
-        broken = workerStopped(`exit code ${code}`);
+        // Terminated by close() during a run: the run ends as any use after close().
+        broken = closed ? closedError() : workerStopped(`exit code ${code}`);
         reject(broken);
       };
       if (broken !== undefined) {
@@ -330,6 +346,7 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
     request: BlockRequest,
     progress: ProgressReporter,
     coverage: number | undefined,
+    signal: AbortSignalLike | undefined,
   ): Promise<BlockReply> {
     const values = shared('values', 8 * request.trials);
     const stats = shared('stats', 16 * request.blockCount);
@@ -356,29 +373,42 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
       control,
       tails: b === undefined ? undefined : { trials: m, candidates, thresholds, low: b.low, high: b.high },
     }));
-    let progressError: { error: unknown } | undefined;
+    // A throw from onProgress or an aborted signal abandons the run: no further block is started.
+    let stopError: { error: unknown } | undefined;
+    const stop = (error: unknown): void => {
+      stopError = { error };
+      Atomics.store(slots, CONTROL.failed, -1);
+    };
     let reported = -1;
     const poll = (): void => {
       const done = Atomics.load(slots, CONTROL.done);
-      if (done === reported || progressError !== undefined) return;
+      if (done === reported || stopError !== undefined) return;
       reported = done;
       try {
         progress.report(request.trialsBefore + done, request);
       } catch (error) {
-        // A throw from onProgress abandons the run: no further block is started.
-        progressError = { error };
-        Atomics.store(slots, CONTROL.failed, -1);
+        stop(error);
+      }
+    };
+    const watch = (): void => {
+      if (stopError !== undefined) return;
+      try {
+        throwIfAborted(signal);
+      } catch (error) {
+        stop(error);
       }
     };
     const timer = progress.active ? setInterval(poll, PROGRESS_MILLIS) : undefined;
+    const watcher = signal === undefined ? undefined : setInterval(watch, SIGNAL_MILLIS);
     let replies: WorkerReply[];
     try {
       replies = await broadcast(messages);
     } finally {
       if (timer !== undefined) clearInterval(timer);
+      if (watcher !== undefined) clearInterval(watcher);
     }
     if (progress.active) poll();
-    if (progressError !== undefined) throw progressError.error;
+    if (stopError !== undefined) throw stopError.error;
     const result = new Float64Array(values, 0, m);
     collected = undefined;
     const counts = replies.map((r) => (r.type === 'done' ? r : { low: -1, high: -1 }));
@@ -412,15 +442,6 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
   }
 
   let queue: Promise<unknown> = Promise.resolve();
-  let closed = false;
-  const closedError = (): BridgeworkError =>
-    new BridgeworkError(
-      'closed',
-      'the Monte Carlo pool must not be used after `close()`; create a new pool',
-      {
-        param: 'pool',
-      },
-    );
   return {
     workers: count,
     run(runOptions) {
@@ -433,6 +454,7 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
         });
         const setup = prepareMonteCarlo(ro);
         checkMonteCarloModel(mainModel, setup.plan.names, ro);
+        throwIfAborted(setup.signal);
         // Adaptive runs take two sequences per worker at a time (a sequence is a block or two).
         const procedure = runProcedure({ ...setup.settings, lookahead: 2 * count });
         let gum: Propagation | undefined;
@@ -450,6 +472,7 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
             request,
             setup.progress,
             setup.settings.adaptive === undefined ? setup.coverage : undefined,
+            setup.signal,
           );
           if (!gumDone) {
             // The law of propagation runs on this thread while the workers draw the trials. A
@@ -461,7 +484,9 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
               gumError = { error };
             }
           }
-          step = procedure.next(await pending);
+          const reply = await pending;
+          throwIfAborted(setup.signal); // an adaptive run stops between its requests too
+          step = procedure.next(reply);
         }
         if (gumError !== undefined) throw gumError.error;
         return monteCarloResult(setup, step.value, gum);

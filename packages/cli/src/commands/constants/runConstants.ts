@@ -1,6 +1,8 @@
 import { basename } from 'node:path';
 import { BridgeworkError } from '@bridgework/core';
 import { loadChannels } from '../../channels/loadChannels.js';
+import { withGroups } from '../../groups/groupConstants.js';
+import { loadGroups } from '../../groups/loadGroups.js';
 import { exitCodes } from '../../exitCodes.js';
 import { openAtomicFile } from '../../files/atomicFile.js';
 import { readVersion } from '../../internal/readVersion.js';
@@ -56,11 +58,12 @@ export async function run(args: ConstantsArgs, context: CommandContext): Promise
       ? undefined
       : await openAtomicFile(options.testProgram, { force: options.force });
   try {
+    const generator = `bridgework ${await readVersion()}`;
     const files = constantsFiles(loaded, {
       format: options.format,
       prefix: options.prefix,
       verification: options.verification,
-      generator: `bridgework ${await readVersion()}`,
+      generator,
       ...(types === undefined ? {} : { types }),
       ...(targetErrors === undefined ? {} : { targetErrors }),
       ...(outputSteps === undefined ? {} : { outputSteps }),
@@ -73,7 +76,18 @@ export async function run(args: ConstantsArgs, context: CommandContext): Promise
       ...(program === undefined ? {} : { testProgramHeader: headerName }),
     });
     for (const line of files.summary) context.io.stderr.write(`${line}\n`);
-    await output.write(files.text);
+    // The file's multi-bridge groups follow when every channel is written.
+    const groups = options.channel === undefined ? await loadGroups(loaded) : [];
+    await output.write(
+      groups.length === 0
+        ? files.text
+        : withGroups(files.text, groups, {
+            format: options.format,
+            prefix: options.prefix,
+            types,
+            source: `${loaded.file.file} by ${generator}`,
+          }),
+    );
     if (program !== undefined) await program.write(files.testProgram as string);
     const n = loaded.channels.length;
     await output.commit(`the constants of ${n} channel${n === 1 ? '' : 's'}`);

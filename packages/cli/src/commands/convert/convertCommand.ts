@@ -209,6 +209,18 @@ export const convertOptions = [
     description: 'CSV: digits written per value (fewer digits write faster).',
   },
   {
+    name: 'groups',
+    type: 'string',
+    placeholder: 'list',
+    description:
+      "Also write the components of these groups of the channel file (comma-separated group names, or 'all'): a multi-component group's loads through its calibration's inverse, a platform's summed indication; columns named group.component.",
+  },
+  {
+    name: 'drop-bridges',
+    type: 'boolean',
+    description: "With --groups, write the groups' components instead of their bridges' quantities.",
+  },
+  {
     name: 'fail-on-clip',
     type: 'boolean',
     description: 'Exit with code 2 when any sample is written as NaN; the output is still written.',
@@ -242,6 +254,10 @@ export const convertCommand = defineCommand({
     {
       command: 'bridgework convert hook.yaml log.csv --columns hook_code --channels hook -o hook.csv',
       description: 'Convert one column of a logger CSV, passing the other columns through.',
+    },
+    {
+      command: 'bridgework convert rig.yaml coupling.csv --groups coupling --drop-bridges -o loads.csv',
+      description: "Write a six-component coupling's forces and moments instead of its six bridge readings.",
     },
     {
       command:

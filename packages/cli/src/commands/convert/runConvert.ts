@@ -16,6 +16,8 @@ import { exitCodes } from '../../exitCodes.js';
 import { refuseOutputOverInputs } from '../../internal/fileErrors.js';
 import { readVersion } from '../../internal/readVersion.js';
 import { splitOptionList } from '../../internal/splitOptionList.js';
+import { planGroupOutput, type GroupOutputPlan } from '../../groups/groupWriter.js';
+import { loadGroups } from '../../groups/loadGroups.js';
 import { displayUnit } from '../../report/displayUnit.js';
 import type { CommandContext } from '../CommandContext.js';
 import type { ConvertArgs } from './convertCommand.js';
@@ -276,8 +278,30 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
             .join(','),
         }),
   };
+  // Multi-bridge groups (--groups): their components beside or instead of their bridges.
+  if (options.dropBridges && options.groups === undefined) {
+    throw new BridgeworkError(
+      'missing-option',
+      '--drop-bridges needs --groups (the groups whose bridges it drops)',
+      {
+        param: '--groups',
+      },
+    );
+  }
+  const groupPlan =
+    options.groups === undefined
+      ? undefined
+      : planGroupOutput({
+          groups: await loadGroups(loaded),
+          names: splitOptionList(options.groups, '--groups'),
+          dropBridges: options.dropBridges,
+          channels: channelColumns,
+          factors: units.map((u) => u.factor),
+          blockFrames: source.blockFrames,
+        });
+  if (groupPlan !== undefined) metadata['bridgework.groups'] = groupPlan.metadata;
   const columns: RecordingColumns = {
-    channels: channelColumns,
+    channels: groupPlan?.columns ?? channelColumns,
     time: source.timeColumn,
     passThrough: source.passThroughNames,
     metadata,
@@ -286,6 +310,7 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
   const format = options.to ?? outputFormatFromPath(output);
   const progress = context.progressBar({ label: 'converting', total: source.totalBytes, unit: 'bytes' });
   let result;
+  let groupWriter: ReturnType<GroupOutputPlan['wrap']> | undefined;
   try {
     result = await writeRecording(
       {
@@ -302,9 +327,10 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
         convertRecording({
           source,
           channels,
-          factors: units.map((u) => u.factor),
+          // With groups, the writer applies the display factors after the groups read the channels' own units.
+          ...(groupPlan === undefined ? { factors: units.map((u) => u.factor) } : {}),
           ...(temperature === undefined ? {} : { temperature }),
-          writer,
+          writer: groupPlan === undefined ? writer : (groupWriter = groupPlan.wrap(writer)),
           onBlock: (block) => progress.update(block.bytesRead),
         }),
     );
@@ -321,11 +347,19 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
         ', ',
       )}${zero.temperatureCelsius === undefined ? '' : ` at ${zero.temperatureCelsius.toFixed(2)} °C`}\n`;
   }
+  const groupFlagged = [...(groupWriter?.flagged ?? new Map<string, number>())].filter(
+    ([, count]) => count > 0,
+  );
+  if (groupFlagged.length > 0) {
+    summary += `group components written as NaN (a bridge reading flagged, or readings the calibration cannot explain): ${groupFlagged
+      .map(([name, count]) => `${name} ${count}`)
+      .join(', ')}\n`;
+  }
   if (temperature !== undefined && result.temperatureGaps.frames > 0) {
     const g = result.temperatureGaps;
     summary += `no valid temperature in ${g.frames} frames (frames ${g.firstFrame} to ${g.lastFrame}): the corrected channels are NaN there\n`;
   }
-  const flagged = result.clip.clipped > 0 || result.temperatureGaps.frames > 0;
+  const flagged = result.clip.clipped > 0 || result.temperatureGaps.frames > 0 || groupFlagged.length > 0;
   context.io.stderr.write(flagged ? context.stderrStyle.yellow(summary) : summary);
   if (output !== undefined) context.io.stderr.write(`wrote ${result.frames} rows to ${output}\n`);
   return flagged && options.failOnClip ? exitCodes.failedCheck : exitCodes.ok;

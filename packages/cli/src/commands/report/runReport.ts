@@ -1,6 +1,9 @@
 import { resolve } from 'node:path';
 import { BridgeworkError } from '@bridgework/core';
 import { loadChannels } from '../../channels/loadChannels.js';
+import { formatGroupText, groupHtmlSection } from '../../groups/formatGroups.js';
+import { groupReport } from '../../groups/groupReport.js';
+import { loadGroups } from '../../groups/loadGroups.js';
 import { exitCodes } from '../../exitCodes.js';
 import { openAtomicFile } from '../../files/atomicFile.js';
 import { readVersion } from '../../internal/readVersion.js';
@@ -52,23 +55,41 @@ export async function run(args: ReportArgs, context: CommandContext): Promise<nu
     const output = await openResultOutput(context, out, options.force);
     files.push(output);
     const report = designReport(loaded);
+    const groups = (await loadGroups(loaded)).map(groupReport);
+    const groupsOk = groups.every((g) => g.ok);
     const generator = `bridgework ${await readVersion()}`;
     if (html !== undefined) {
       await html.write(
-        designReportHtml(report, { points: options.points, generator, date: runDate(context.io.env) }),
+        designReportHtml(report, {
+          points: options.points,
+          generator,
+          date: runDate(context.io.env),
+          extraSections: groups.map(groupHtmlSection),
+        }),
       );
     }
     await output.write(
       options.json
-        ? reportJson(designReportPayload(report), { generator })
-        : formatTextReport(report, output.style),
+        ? reportJson(
+            {
+              ...designReportPayload(report),
+              ...(groups.length === 0
+                ? {}
+                : { groups: Object.fromEntries(groups.map((g) => [g.name, g.payload])) }),
+            },
+            { generator },
+          )
+        : formatTextReport(report, output.style, {
+            sections: groups.map((g) => formatGroupText(g, output.style)),
+            ok: groupsOk,
+          }),
     );
     if (html !== undefined) {
       await html.commit();
       context.io.stderr.write(`wrote the HTML report to ${options.html}\n`);
     }
     await output.commit(`the ${options.json ? 'JSON' : 'text'} report`);
-    return report.ok ? exitCodes.ok : exitCodes.failedCheck;
+    return report.ok && groupsOk ? exitCodes.ok : exitCodes.failedCheck;
   } finally {
     for (const f of files) await f.abort();
   }

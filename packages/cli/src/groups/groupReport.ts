@@ -1,0 +1,299 @@
+import { channelBudget } from '@bridgework/channel';
+import { formatNumber, formatPercent } from '../report/formatNumber.js';
+import type { TableColumn } from '../terminal/formatTable.js';
+import type { LoadedGroup, MultiComponentGroup, PlatformGroup } from './loadGroups.js';
+
+/** A table of a group's report, as text cells (shared by the text and HTML reports). */
+export interface GroupTable {
+  /** What the table shows. */
+  readonly caption: string;
+  /** The columns. */
+  readonly columns: readonly TableColumn[];
+  /** The cells. */
+  readonly rows: readonly (readonly string[])[];
+}
+
+/** One pass/fail finding of a group. */
+export interface GroupCheck {
+  /** What was checked. */
+  readonly name: string;
+  /** Whether it passed. */
+  readonly ok: boolean;
+  /** The figures behind the verdict. */
+  readonly detail: string;
+}
+
+/** Residuals per component against the point of the schedule, for the HTML plot. */
+export interface GroupResiduals {
+  /** One series per component: its load residuals as a fraction of its full scale. */
+  readonly series: readonly { readonly name: string; readonly fractions: readonly number[] }[];
+}
+
+/** What a report shows of one group. */
+export interface GroupReport {
+  /** The group's name. */
+  readonly name: string;
+  /** The section's title. */
+  readonly title: string;
+  /** Paragraphs: the group in words, the figures that are not tables. */
+  readonly paragraphs: readonly string[];
+  /** The tables. */
+  readonly tables: readonly GroupTable[];
+  /** The checks (the R 76 eccentricity test of a platform). */
+  readonly checks: readonly GroupCheck[];
+  /** The residuals per component (multi-component groups). */
+  readonly residuals?: GroupResiduals;
+  /** False when a check failed. */
+  readonly ok: boolean;
+  /** The same figures for `--json`, in the components' and bridges' own units. */
+  readonly payload: Readonly<Record<string, unknown>>;
+}
+
+const right = (header: string): TableColumn => ({ header, align: 'right' });
+const n4 = (x: number): string => formatNumber(x, 4);
+
+/** The standard uncertainty of each bridge's reading in use: its channel's total noise (rms), in the channel's unit. */
+export function readingNoise(group: LoadedGroup): number[] {
+  return group.bridges.map((b) => channelBudget(b.channel).noise.totalRms);
+}
+
+function multiComponentReport(g: MultiComponentGroup): GroupReport {
+  const c = g.calibration;
+  const comps = g.spec.components;
+  const units = comps.map((x) => x.unit);
+  const bridgeUnits = g.bridges.map((b) => b.unit);
+  const sameBridgeUnit = bridgeUnits.every((u) => u === bridgeUnits[0]);
+  const bu = sameBridgeUnit ? (bridgeUnits[0] as string) : 'bridge unit';
+  const noise = readingNoise(g);
+  const second = c.terms.filter((t) => t.kind === 'square' || t.kind === 'product');
+  const inverse = c.createInverse();
+  const zero = comps.map(() => 0);
+  const atZero = c.uncertaintyAt({ loads: zero, readingStandardUncertainties: noise });
+  const atFull = comps.map((_, j) =>
+    c.uncertaintyAt({
+      loads: comps.map((__, k) => (k === j ? (c.fullScale[j] as number) : 0)),
+      readingStandardUncertainties: noise,
+    }),
+  );
+  const paragraphs = [
+    `${g.bridges.length} bridges (${g.spec.bridges.join(', ')}) → ${comps.length} components (${comps.map((x) => `${x.name} in ${x.unit}`).join(', ')}); readings are each bridge's converted value (${sameBridgeUnit ? bu : bridgeUnits.join(', ')}).`,
+    `Model r = a + S·F${second.length > 0 ? ` + ${second.length} second-order terms (${g.spec.calibration.interactions}; AIAA R-091)` : ' (linear)'}, fitted by least squares (Householder QR) to ${g.points.length} points of ${g.spec.calibration.schedule}; ${c.degreesOfFreedom} degrees of freedom; uncertainties of the coefficients from the residuals.`,
+    `Condition of the schedule (design matrix, unit-norm columns): ${formatNumber(c.condition, 3)}; of the full-scale-weighted sensitivity matrix (what the inverse amplifies): ${formatNumber(c.sensitivityCondition, 3)}.`,
+    c.rejectedTerms.length === 0
+      ? 'Every candidate term is determined by the schedule.'
+      : `Terms the schedule cannot determine (left out): ${c.rejectedTerms.map((r) => `${r.term.name} (${r.reason})`).join('; ')}.`,
+    `Inverse per sample: ${inverse.method === 'direct' ? 'direct, F = C·(r − a)' : `${inverse.method}, until every step is within ${formatNumber(inverse.tolerance, 2)} of full scale, at most ${inverse.maxIterations} steps`}. The reverse fit (loads regressed on readings) differs from C by at most ${formatPercent(c.reverseFit.largestDifferenceFraction)} of a row's largest entry.`,
+    `Reading noise in use, per bridge (its channel's total rms noise): ${g.bridges.map((b, i) => `${b.name} ${formatNumber(noise[i] as number, 3)} ${b.unit}`).join(', ')}.`,
+  ];
+  const sensitivity: GroupTable = {
+    caption: `sensitivity S (${bu} per component unit): reading_i = a_i + Σ S_ij·F_j + …`,
+    columns: [
+      { header: 'bridge' },
+      right(`offset a (${bu})`),
+      ...comps.map((x) => right(`${x.name} (/${x.unit})`)),
+    ],
+    rows: c.sensitivity.map((row, i) => [
+      g.spec.bridges[i] as string,
+      n4(c.offsets[i] as number),
+      ...row.map(n4),
+    ]),
+  };
+  const crossTalk: GroupTable = {
+    caption: "cross-talk: each bridge's output at a component's full scale, % of its full-scale output",
+    columns: [{ header: 'bridge' }, { header: 'measures' }, ...comps.map((x) => right(x.name))],
+    rows: c.crossTalk.map((row, i) => [
+      g.spec.bridges[i] as string,
+      comps[c.primaryComponents[i] as number]?.name as string,
+      ...row.map((v) => formatPercent(v)),
+    ]),
+  };
+  const loadMatrix: GroupTable = {
+    caption: `load matrix C (component unit per ${bu}): F = C·(r − a)${second.length > 0 ? ', the start of the iteration' : ''}`,
+    columns: [{ header: 'component' }, ...g.spec.bridges.map((b) => right(b))],
+    rows: c.loadMatrix.map((row, j) => [`${comps[j]?.name} (${units[j]})`, ...row.map(n4)]),
+  };
+  const tables: GroupTable[] = [sensitivity, crossTalk, loadMatrix];
+  if (second.length > 0) {
+    tables.push({
+      caption: "second-order terms: each term's output at full scale, % of each bridge's full-scale output",
+      columns: [{ header: 'term' }, ...g.spec.bridges.map((b) => right(b))],
+      rows: c.terms.flatMap((t, k) =>
+        t.kind === 'square' || t.kind === 'product'
+          ? [[t.name, ...c.termFractions.map((row) => formatPercent(row[k] as number))]]
+          : [],
+      ),
+    });
+  }
+  tables.push({
+    caption:
+      'per component: standard uncertainty u (k = 1, JCGM 100: calibration and reading noise), residuals',
+    columns: [
+      { header: 'component' },
+      right('full scale'),
+      right('u at zero'),
+      right('u at full scale'),
+      right('std error of fit'),
+      right('largest residual'),
+      right('hysteresis'),
+    ],
+    rows: comps.map((x, j) => [
+      `${x.name} (${x.unit})`,
+      n4(c.fullScale[j] as number),
+      formatNumber(atZero.standardUncertainties[j] as number, 3),
+      formatNumber(atFull[j]?.standardUncertainties[j] as number, 3),
+      c.loadStandardErrors[j] === undefined ? '—' : formatNumber(c.loadStandardErrors[j] as number, 3),
+      `${formatPercent(c.largestLoadResidualFractions[j] as number)} FS`,
+      c.hysteresisFractions[j] === undefined
+        ? '—'
+        : `${formatPercent(c.hysteresisFractions[j] as number)} FS`,
+    ]),
+  });
+  return {
+    name: g.spec.name,
+    title: `${g.spec.name}: ${comps.length}-component group`,
+    paragraphs,
+    tables,
+    checks: [],
+    residuals: {
+      series: comps.map((x, j) => ({
+        name: x.name,
+        fractions: c.loadResiduals.map((r) => (r[j] as number) / (c.fullScale[j] as number)),
+      })),
+    },
+    ok: true,
+    payload: {
+      kind: 'multi-component',
+      bridges: g.spec.bridges,
+      bridgeUnits,
+      components: comps.map((x) => ({
+        name: x.name,
+        unit: x.unit,
+        fullScale: c.fullScale[comps.indexOf(x)],
+      })),
+      schedule: g.spec.calibration.schedule,
+      points: g.points.length,
+      terms: c.terms.map((t) => t.name),
+      rejectedTerms: c.rejectedTerms.map((r) => ({ term: r.term.name, reason: r.reason })),
+      coefficients: c.coefficients,
+      coefficientStandardUncertainties: c.coefficientStandardUncertainties,
+      offsets: c.offsets,
+      sensitivity: c.sensitivity,
+      loadMatrix: c.loadMatrix,
+      crossTalk: c.crossTalk,
+      termFractions: c.termFractions,
+      condition: c.condition,
+      sensitivityCondition: c.sensitivityCondition,
+      degreesOfFreedom: c.degreesOfFreedom,
+      readingStandardUncertainties: noise,
+      standardUncertaintyAtZero: atZero.standardUncertainties,
+      standardUncertaintyAtFullScale: atFull.map((u, j) => u.standardUncertainties[j]),
+      loadStandardErrors: c.loadStandardErrors.map((v) => v ?? null),
+      largestLoadResidualFractions: c.largestLoadResidualFractions,
+      hysteresisFractions: c.hysteresisFractions.map((v) => v ?? null),
+      loadResiduals: c.loadResiduals,
+      inverse: { method: inverse.method, tolerance: inverse.tolerance, maxIterations: inverse.maxIterations },
+    },
+  };
+}
+
+function platformReport(g: PlatformGroup): GroupReport {
+  const e = g.spec.eccentricity;
+  const unit = g.spec.indication.unit;
+  const check = g.eccentricity.value;
+  const cellUnits = g.bridges.map((b) => b.unit);
+  // Errors below 1e-12 of the test load are rounding of the fit (numerical dust), shown as a bound.
+  const dust = 1e-12 * e.testLoad;
+  const paragraphs = [
+    `${g.bridges.length} load cells (${g.spec.bridges.join(', ')}) summed digitally: ${g.spec.indication.name} = Σ k_i·r_i in ${unit}, r_i each cell's converted value (${[...new Set(cellUnits)].join(', ')}).`,
+    `Factors k_i from the eccentricity test ${e.test} (${g.fitted.filter((f) => f).length} positions of ${formatNumber(e.testLoad, 4)} ${unit}, least squares; condition ${formatNumber(g.factors.condition, 3)})${e.checkPositions.length > 0 ? `; ${e.checkPositions.join(', ')} only checks them` : ''}.`,
+    `OIML R 76 eccentricity test, class ${e.accuracyClass}, Max ${formatNumber(e.maxCapacity, 4)} ${unit}, e = ${formatNumber(e.verificationInterval, 4)} ${unit}: mpe at the test load ${formatNumber(check.mpe, 3)} ${unit} (${formatNumber(check.mpeInIntervals, 2)} e); the test load R 76 asks for with ${e.supportPoints} supports is ${formatNumber(check.recommendedTestLoad, 4)} ${unit}; spread of the indications ${formatNumber(check.spread, 3)} ${unit}.`,
+  ];
+  const tables: GroupTable[] = [
+    {
+      caption: `cell factors k (${unit} per reading unit)`,
+      columns: [{ header: 'cell' }, right('factor k'), { header: 'per' }],
+      rows: g.factors.factors.map((k, i) => [
+        g.spec.bridges[i] as string,
+        formatNumber(k, 7),
+        cellUnits[i] as string,
+      ]),
+    },
+    {
+      caption: `indication at each position with the factors (${unit})`,
+      columns: [
+        { header: 'position' },
+        { header: 'role' },
+        right('indication'),
+        right('error'),
+        right('mpe'),
+        right('of mpe'),
+        { header: 'R 76' },
+      ],
+      rows: check.rows.map((r, p) => [
+        g.positions[p] as string,
+        g.fitted[p] === true ? 'fits' : 'checks',
+        formatNumber(r.indication, 7),
+        Math.abs(r.error) < dust ? `< ${formatNumber(dust, 1)}` : formatNumber(r.error, 3),
+        formatNumber(r.mpe, 3),
+        Math.abs(r.error) < dust ? `< ${formatPercent(dust / r.mpe)}` : formatPercent(r.fractionOfMpe),
+        r.ok ? 'pass' : 'FAIL',
+      ]),
+    },
+  ];
+  const checks: GroupCheck[] = [
+    {
+      name: 'eccentricity (OIML R 76)',
+      ok: g.eccentricity.ok,
+      detail: g.eccentricity.ok
+        ? `largest error ${formatPercent(check.largestFractionOfMpe)} of the mpe (${formatNumber(check.mpe, 3)} ${unit})`
+        : g.eccentricity.issues.join(' '),
+    },
+  ];
+  return {
+    name: g.spec.name,
+    title: `${g.spec.name}: ${g.bridges.length}-cell platform`,
+    paragraphs,
+    tables,
+    checks,
+    ok: g.eccentricity.ok,
+    payload: {
+      kind: 'platform',
+      bridges: g.spec.bridges,
+      bridgeUnits: cellUnits,
+      indication: { name: g.spec.indication.name, unit },
+      factors: g.factors.factors,
+      condition: g.factors.condition,
+      positions: g.positions.map((name, p) => ({
+        name,
+        role: g.fitted[p] === true ? 'fits' : 'checks',
+        indication: check.rows[p]?.indication,
+        error: check.rows[p]?.error,
+        mpe: check.rows[p]?.mpe,
+        ok: check.rows[p]?.ok,
+      })),
+      eccentricity: {
+        ok: g.eccentricity.ok,
+        issues: g.eccentricity.issues,
+        accuracyClass: e.accuracyClass,
+        mpe: check.mpe,
+        recommendedTestLoad: check.recommendedTestLoad,
+        largestFractionOfMpe: check.largestFractionOfMpe,
+      },
+    },
+  };
+}
+
+/**
+ * What the report shows of a group: for a multi-component group its sensitivity and load
+ * matrices, cross-talk, second-order shares, conditions, and per component the standard
+ * uncertainty at zero and at full scale (the fit's covariance and each bridge's reading noise
+ * from its channel's budget, JCGM 100) with the fit's residuals; for a platform its cell factors,
+ * each position's indication and the OIML R 76 eccentricity check. Every figure is the
+ * calibration package's; this module only lays them out.
+ *
+ * @param group - The loaded group.
+ * @returns The report's content.
+ */
+export function groupReport(group: LoadedGroup): GroupReport {
+  return group.kind === 'platform' ? platformReport(group) : multiComponentReport(group);
+}
