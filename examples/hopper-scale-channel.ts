@@ -38,7 +38,10 @@ codes.fill(2 ** 23 - 1, 600);
 const { values, status } = channel.convert(codes);
 
 const budget = channelBudget(channel, { at: 1650 });
+// 'sampled' keeps the example quick; the default verifies all 4.3 million codes of the span.
 const constants = channelConstants(channel, { verification: 'sampled' });
+const fixedTotal = constants.totals.fixed!;
+const f32Total = constants.totals.float32!;
 const kg = (x: number, d = 3) => `${x.toFixed(d)} kg`;
 
 const lines = [
@@ -57,9 +60,9 @@ const lines = [
   `  combined u = ${kg(budget.combined.standardUncertainty, 4)}, U = ${kg(budget.combined.expandedUncertainty, 4)} (k = ${budget.combined.coverageFactor.toFixed(2)}, p = 95 %)`,
   `  front end ${budget.ok ? 'within all limits' : 'VIOLATES a limit'}`,
   '',
-  `firmware: codes ${constants.codeMin}…${constants.codeMax}, multiplier in ${constants.fixed.qFormat.text}`,
-  `  fixed-point multiplier ${String(constants.fixed.multiplier)}, shift ${constants.fixed.shift}, proved error ≤ ${constants.fixed.maxAbsError.toFixed(4)} LSB of 0.01 kg`,
-  `  float32 cubic: error ≤ ${kg(constants.float32.maxAbsError, 6)} against the exact map`,
+  `firmware: codes ${constants.codeMin}…${constants.codeMax}, target total error ${kg(constants.targetError, 4)} (u/10 at the budget point, or one output step)`,
+  `  fixed point (${constants.fixed!.kind}, steps of 0.01 kg): total error ≤ ${kg(fixedTotal.bound, 4)} against the exact map (${fixedTotal.proved ? 'proved' : 'measured'})`,
+  `  float32 (${constants.float32!.kind}): total error ≤ ${kg(f32Total.bound, 6)} against the exact map (${f32Total.proved ? 'proved' : 'measured'})`,
   '',
   'Caution: results support, and do not replace, qualified engineering judgement; follow local codes, legal-metrology rules and licensed practice.',
 ];

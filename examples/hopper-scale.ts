@@ -25,8 +25,8 @@ import {
 } from './hopper-scale/scenario.js';
 
 const channel = hopperChannel();
-const fixed = channel.fixed!;
-const f32 = channel.float32!;
+const fixed = channel.fixed;
+const f32 = channel.float32;
 const lines: string[] = [];
 lines.push('bridgework example: batching-hopper scale, firmware constants (invented scenario)');
 lines.push('');

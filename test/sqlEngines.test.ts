@@ -63,23 +63,29 @@ function caseOf(channel: Channel): Case {
       expected: (codes) => channel.convert(codes).values,
     };
   }
-  const f64 = channelConstants(channel).float64;
-  if (f64.kind !== 'polynomial' || f64.totalError === undefined)
-    throw new Error('expected a verified polynomial');
+  // One float64 polynomial over the whole span (a table of at most 6 doubles: a single segment),
+  // designed by the firmware package to the channel's default target and verified over every code.
+  const designed = channelConstants(channel, { types: ['float64'], maxTableBytes: 48 });
+  const f64 = designed.float64;
+  const total = designed.totals.float64;
+  if (f64?.kind !== 'piecewise-polynomial' || f64.segmentCount !== 1 || total === undefined)
+    throw new Error('expected a verified single-segment polynomial');
+  // The segment's centre: t = code − centre, as the firmware's evaluator forms it.
+  const centre = f64.segmentBase + 2 ** (f64.segmentBits - 1);
   return {
     name: channel.name,
     channel,
     map: {
       form: 'polynomial',
-      offset: f64.offset,
-      coefficients: f64.coefficients,
+      offset: centre,
+      coefficients: f64.coefficients[0] as readonly number[],
       codeMin: f64.codeMin,
       codeMax: f64.codeMax,
-      maxAbsError: f64.totalError.maxAbsError,
+      maxAbsError: total.bound,
     },
     expected: (codes) =>
       Float64Array.from(codes, (c) => (c >= f64.codeMin && c <= f64.codeMax ? f64.evaluate(c) : Number.NaN)),
-    bound: { maxAbsError: f64.totalError.maxAbsError, exact: (c) => channel.quantityFromCode(c) },
+    bound: { maxAbsError: total.bound, exact: (c) => channel.quantityFromCode(c) },
   };
 }
 

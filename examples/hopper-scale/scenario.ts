@@ -9,7 +9,7 @@
  * mean of a commissioning run). Firmware shows the net weight in 0.01 kg.
  */
 import { Decimal } from 'decimal.js';
-import { fixedPointMap, floatMap, type FirmwareChannel } from '@bridgework/firmware';
+import { fixedPointMap, floatMap, type FixedPointMap, type FloatMap } from '@bridgework/firmware';
 
 const D = Decimal.clone({ precision: 40, rounding: Decimal.ROUND_HALF_EVEN });
 
@@ -32,8 +32,15 @@ export const fullLoadCode = new D(deadLoadCode).plus(fullScaleCodes).toDecimalPl
 
 export const codeRange = { codeMin: -(2 ** (converterBits - 1)), codeMax: 2 ** (converterBits - 1) - 1 };
 
+/** The net-weight channel's maps (a `FirmwareChannel` for the emitters). */
+export interface HopperChannel {
+  readonly name: string;
+  readonly fixed: FixedPointMap;
+  readonly float32: FloatMap;
+}
+
 /** The net-weight channel: int32 output in 0.01 kg, and a float32 version for comparison. */
-export function hopperChannel(): FirmwareChannel {
+export function hopperChannel(): HopperChannel {
   const common = { scale: scaleKgPerCode, offset: deadLoadCode, ...codeRange, quantityUnit: 'kg' };
   return {
     name: 'Net weight',

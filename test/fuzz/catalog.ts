@@ -90,6 +90,7 @@ export const constants: Partial<Record<LibraryPackage, readonly string[]>> = {
     'EXHAUSTIVE_CODE_LIMIT',
     'FIRMWARE_CAUTION',
     'FIRMWARE_GENERATOR_VERSION',
+    'MAX_PIECEWISE_DEGREE',
     'MAX_MATRIX_SIZE',
     'MAX_POLYNOMIAL_COEFFICIENTS',
     'evaluatorTypes',

@@ -58,20 +58,4 @@ export const knownDefects: readonly KnownDefect[] = [
 ];
 
 /** Option objects that still accept a misspelt key, with their owner (same rule as above). */
-export const knownOptionDefects: readonly KnownDefect[] = [
-  { cases: 'fixedPointMap: 0 ', owner: firmware, note: 'options checked as an object, not against its keys' },
-  { cases: 'floatMap: 0 ', owner: firmware, note: 'as above' },
-  { cases: 'emitCHeader: 0 ', owner: firmware, note: 'as above' },
-  {
-    cases: 'emitCHeader: 0.channels.0 ',
-    owner: firmware,
-    note: 'a channel entry is not checked against its keys',
-  },
-  { cases: 'emitJson: 0 ', owner: firmware, note: 'as above' },
-  { cases: 'emitJson: 0.channels.0 ', owner: firmware, note: 'as above' },
-  {
-    cases: 'channelConstants: 1 ',
-    owner: channel,
-    note: 'options are not checked against their known keys (a misspelt outputResolution is ignored)',
-  },
-];
+export const knownOptionDefects: readonly KnownDefect[] = [];

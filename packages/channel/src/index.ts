@@ -33,8 +33,12 @@ export {
 } from './budget/channelBudget.js';
 export type { ChannelBudgetLine } from './budget/ChannelBudgetLine.js';
 export type { ChannelDesignCheck, DesignLimits } from './budget/designChecks.js';
-export { channelConstants } from './channelConstants.js';
-export type { ChannelConstants, ConstantsOptions } from './constants/createChannelConstants.js';
+export {
+  CHANNEL_MAP_RELATIVE_ACCURACY,
+  channelConstants,
+  type ChannelConstants,
+  type ConstantsOptions,
+} from './constants/channelConstants.js';
 export type { ConversionResult, ConversionStatus, ConvertOptions } from './convert/ConversionStatus.js';
 export {
   createInterleavedConverter,

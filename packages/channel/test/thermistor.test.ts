@@ -145,7 +145,9 @@ describe('thermistor: budget', () => {
       },
     );
     expect(c.codeMax).toBeGreaterThan(c.codeMin);
-    expect(c.float64.maxAbsError).toBeLessThan(5); // a cubic over a steep NTC curve: informative, bounded
+    // Every function meets the channel's default target against its exact map.
+    for (const t of ['fixed', 'float32', 'float64'] as const)
+      expect(c.totals[t]!.bound).toBeLessThanOrEqual(c.targetError);
   });
 
   it('refuses a model given twice or not at all, and a zero reading', () => {

@@ -1,11 +1,12 @@
 /**
  * `bridgework constants` end to end on the example file: the header is the firmware package's
- * header of the channel package's constants for the same channels (written by hand in SI), it
- * compiles under strict C99, and the compiled evaluators give, code for code, what the library
- * says firmware gives, within the proved bounds of the exact map.
+ * header of the channel package's constants for the same channels (written by hand in SI), each
+ * function within its stated total error of the channel's exact map, the compiled evaluators give
+ * what the library says, a target no form meets writes nothing and fails, and --test-program
+ * writes a program that passes on the host.
  */
 import { execFileSync } from 'node:child_process';
-import { readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { channelConstants, createChannel, type Channel, type ChannelConstants } from '@bridgework/channel';
 import { emitCHeader, emitJson } from '@bridgework/firmware';
@@ -18,20 +19,12 @@ import { useTestFiles } from './support/files.js';
 import { memoryIo } from './support/memoryIo.js';
 
 const { tmp, outPath } = useTestFiles('constants');
+const STRICT = ['-std=c99', '-Wall', '-Wextra', '-Wconversion', '-Werror', '-pedantic'];
 
 async function run(...argv: string[]) {
   const io = memoryIo();
   const code = await runCli(argv, io);
   return { code, stdout: io.stdout.text(), stderr: io.stderr.text() };
-}
-
-/** The largest quantity magnitude over a channel's valid codes (the map is monotone). */
-function largest(channel: Channel): number {
-  const { min, max } = channel.validCodes;
-  return Math.max(
-    Math.abs(channel.quantityFromCode(Math.floor(min) + 1)),
-    Math.abs(channel.quantityFromCode(Math.ceil(max) - 1)),
-  );
 }
 
 function hasGcc(): boolean {
@@ -43,7 +36,16 @@ function hasGcc(): boolean {
   }
 }
 
-// 'sampled' keeps the test quick: the RTD's exact map over 2.8 million codes takes seconds to verify.
+function needGcc(skip: () => void): boolean {
+  if (hasGcc()) return true;
+  if (process.env['CI'] !== undefined) throw new Error('gcc is required under CI');
+  skip();
+  return false;
+}
+
+// 'sampled' keeps the test quick: verifying the full bridge's 1.6 million codes exhaustively
+// takes its exact map some 20 s; exhaustive verification is tested in the firmware and channel
+// packages and in test/firmwareChannels.test.ts.
 const channels: Record<string, Channel> = Object.fromEntries(
   footbridgeNames.map((n) => [n, createChannel(footbridgeSpecs[n])]),
 );
@@ -52,10 +54,9 @@ const constants: Record<string, ChannelConstants> = Object.fromEntries(
 );
 
 describe('bridgework constants on the example file', () => {
-  it('writes the firmware package’s header for the three channels, with a first comment naming the file', async () => {
+  it('writes the firmware package’s header for the three channels, a first comment naming the file, a summary on stderr', async () => {
     const r = await run('constants', exampleShown, '--prefix', 'footbridge', '--verification', 'sampled');
     expect(r.code).toBe(exitCodes.ok);
-    expect(r.stderr).toBe('');
     const [first, ...rest] = r.stdout.split('\n');
     expect(first).toMatch(
       /^\/\* From the channel file packages\/cli\/demo\/footbridge-monitoring\.yaml \(channels hanger-h3, gusset-g2, deck-temp\) by bridgework \d+\.\d+\.\d+\. \*\/$/,
@@ -65,15 +66,20 @@ describe('bridgework constants on the example file', () => {
       prefix: 'footbridge',
     });
     expect(rest.join('\n')).toBe(expected);
-    // The caution, in the header's comment (wrapped there at 96 columns).
     expect(r.stdout.replace(/\n \* /g, ' ')).toContain(`Caution. ${SAFETY_CAUTION}`);
+    // One line per channel and function, with its form, table, total error and how it was found.
+    const lines = r.stderr.trimEnd().split('\n');
+    expect(lines.length).toBe(9);
+    expect(lines[0]).toMatch(
+      /^hanger-h3 fixed: affine, 20 bytes; total error <= [\d.e+-]+ N \(measured on \d+ codes; target [\d.e+-]+ N\)$/,
+    );
+    expect(r.stderr).toMatch(
+      /deck-temp float32: piecewise \w+, \d+ segments?, \d+ bytes; total error <= [\d.e+-]+ °C/,
+    );
   });
 
-  it('compiles under strict C99, and the evaluators give what the library computes, within the proved bounds', async () => {
-    if (!hasGcc()) {
-      if (process.env['CI'] !== undefined) throw new Error('gcc is required under CI');
-      return;
-    }
+  it('compiles under strict C99; the evaluators give what the library computes, within each stated total of the exact map', async (ctx) => {
+    if (!needGcc(() => ctx.skip())) return;
     const dir = tmp();
     const header = join(dir, 'footbridge_constants.h');
     const written = await run(
@@ -90,7 +96,6 @@ describe('bridgework constants on the example file', () => {
         c.codeMin,
         c.codeMin + 1,
         Math.round((c.codeMin + c.codeMax) / 2),
-        12_345,
         c.codeMax - 1,
         c.codeMax,
       ];
@@ -104,48 +109,81 @@ describe('bridgework constants on the example file', () => {
       join(dir, 'main.c'),
       `#include <stdio.h>\n#include "footbridge_constants.h"\nint main(void) {\n${calls.join('\n')}\nreturn 0;\n}\n`,
     );
-    execFileSync(
-      'gcc',
-      ['-std=c99', '-Wall', '-Wextra', '-Wconversion', '-Werror', '-pedantic', 'main.c', '-o', 'main'],
-      { cwd: dir },
-    );
+    execFileSync('gcc', [...STRICT, 'main.c', '-o', 'main'], { cwd: dir });
     const lines = execFileSync(join(dir, 'main'), { encoding: 'utf8' }).trim().split('\n');
     let k = 0;
     for (const n of footbridgeNames) {
       const c = constants[n]!;
-      const lsb = Number(c.fixed.source.outputUnit);
       for (const code of probes[n]!) {
         const [fixed, f32Text, f64] = (lines[k++] as string).split(' ').map(Number) as [
           number,
           number,
           number,
         ];
-        // %.9g identifies a binary32 value (the nearest float to it is the value) and %.17g a double.
-        const f32 = Math.fround(f32Text);
-        // Bit for bit what the library says the firmware computes.
-        expect(fixed, `${n} fixed at ${code}`).toBe(c.fixed.evaluate(code));
-        expect(f32, `${n} f32 at ${code}`).toBe(c.float32.evaluate(code));
-        expect(f64, `${n} f64 at ${code}`).toBe(c.float64.evaluate(code));
-        // Against the channel's exact map: within each map's total error, which the library
-        // measured at the sampled codes (the range's ends among them) against the reference it was
-        // given; for a kernel channel that reference is the conversion kernel, within 1e-12 of the
-        // largest quantity of the exact map (the kernel's acceptance bound, docs/channel.md).
-        if (code === c.codeMin || code === c.codeMax) {
-          const exact = channels[n]!.quantityFromCode(code);
-          const kernel = channels[n]!.method === 'kernel' ? 1e-12 * largest(channels[n]!) : 0;
-          expect(f32, `${n} f32 at ${code}`).toBeNear(exact, {
-            abs: c.float32.totalError!.maxAbsError + kernel,
-          });
-          expect(f64, `${n} f64 at ${code}`).toBeNear(exact, {
-            abs: c.float64.totalError!.maxAbsError + kernel,
-          });
-          expect(fixed * lsb, `${n} fixed at ${code}`).toBeNear(exact, {
-            abs: c.fixed.totalError!.maxAbsError * lsb + kernel,
-          });
-        }
+        const f32 = Math.fround(f32Text); // %.9g identifies a binary32 value
+        expect(fixed, `${n} fixed at ${code}`).toBe(c.fixed!.evaluate(code));
+        expect(f32, `${n} f32 at ${code}`).toBe(c.float32!.evaluate(code));
+        expect(f64, `${n} f64 at ${code}`).toBe(c.float64!.evaluate(code));
+        // Against the channel's exact map itself: the stated totals hold.
+        const exact = channels[n]!.quantityFromCode(code);
+        expect(f32).toBeNear(exact, { abs: c.totals.float32!.bound });
+        expect(f64).toBeNear(exact, { abs: c.totals.float64!.bound });
+        expect(fixed * c.outputResolution).toBeNear(exact, { abs: c.totals.fixed!.bound * (1 + 1e-12) });
       }
     }
     expect(k).toBe(lines.length);
+  });
+
+  it('takes --target-error per channel, and writes a test program that passes on the host (--test-program)', async (ctx) => {
+    if (!needGcc(() => ctx.skip())) return;
+    const dir = tmp();
+    const header = join(dir, 'deck.h');
+    const program = join(dir, 'deck_test.c');
+    const r = await run(
+      ...['constants', exampleShown, '--channel', 'deck-temp', '--target-error', 'deck-temp=0.01'],
+      ...['--verification', 'sampled', '-o', header, '--test-program', program],
+    );
+    expect(r.code).toBe(exitCodes.ok);
+    expect(r.stderr).toMatch(/deck-temp fixed: .*target 0\.01 °C\)/);
+    expect(r.stderr).toContain(`wrote the test program to ${program}\n`);
+    const deck = channelConstants(channels['deck-temp']!, { targetError: 0.01, verification: 'sampled' });
+    expect(readFileSync(header, 'utf8')).toContain(
+      `#define BRIDGEWORK_DECK_TEMP_FIXED_TOTAL_ERROR ${String(deck.totals.fixed!.bound)}`,
+    );
+    const source = readFileSync(program, 'utf8');
+    expect(source).toContain('#include "deck.h"');
+    execFileSync('gcc', [...STRICT, 'deck_test.c', '-o', 'deck_test'], { cwd: dir });
+    expect(execFileSync(join(dir, 'deck_test'), { encoding: 'utf8' })).toMatch(
+      /^bridgework test vectors: \d+ checked, 0 failed\n$/,
+    );
+  });
+
+  it('fails and writes nothing when a target cannot be met, naming the best bound and --target-error', async () => {
+    const out = outPath('never.h');
+    const program = outPath('never.c');
+    const r = await run(
+      ...[
+        'constants',
+        exampleShown,
+        '--channel',
+        'deck-temp',
+        '--target-error',
+        '1e-9',
+        '--coefficient-bits',
+        '16',
+      ],
+      ...['--verification', 'sampled', '-o', out, '--test-program', program],
+    );
+    expect(r.code).toBe(exitCodes.badInput);
+    expect(r.stdout).toBe('');
+    expect(r.stderr).toMatch(
+      /channels\.deck-temp: `--target-error` 1e-9 °C cannot be met by a \w+ function: /,
+    );
+    // A bound in the user's unit, and the command's own option names in the advice.
+    expect(r.stderr).toMatch(/(best bound reached is|can do better than) [\d.e-]+ °C/);
+    expect(r.stderr).not.toMatch(/`(targetError|outputUnit|outputResolution|coefficientBits|maxTableBytes)`/);
+    expect(existsSync(out)).toBe(false);
+    expect(existsSync(program)).toBe(false);
   });
 
   it('prints the firmware package’s JSON with --format json, for one channel', async () => {
@@ -163,7 +201,12 @@ describe('bridgework constants on the example file', () => {
     expect(r.stdout).toBe(
       emitJson({ channels: [constants['gusset-g2']!.firmwareChannel], prefix: 'bridgework' }),
     );
-    expect((JSON.parse(r.stdout) as { caution: string }).caution).toBe(SAFETY_CAUTION);
+    const json = JSON.parse(r.stdout) as {
+      caution: string;
+      channels: { fixed: { totalError: { bound: number } } }[];
+    };
+    expect(json.caution).toBe(SAFETY_CAUTION);
+    expect(json.channels[0]!.fixed.totalError.bound).toBe(constants['gusset-g2']!.totals.fixed!.bound);
   });
 
   it('writes only the evaluators asked for with --types', async () => {
@@ -194,14 +237,16 @@ describe('bridgework constants on the example file', () => {
       '-o',
       out,
     ];
-    expect((await run(...argv)).stderr).toBe(`wrote the constants of 1 channel to ${out}\n`);
+    expect((await run(...argv)).stderr).toMatch(
+      new RegExp(`wrote the constants of 1 channel to ${out.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}\\n$`),
+    );
     expect(readFileSync(out, 'utf8')).toMatch(/^\/\* From the channel file/);
     expect((await run(...argv)).stderr).toBe(
       `bridgework constants: ${out} exists already; pass --force to replace it\n`,
     );
   });
 
-  it('rejects a bad prefix or type list with the option’s name, exit 1', async () => {
+  it('rejects a bad prefix, type list, per-channel entry or a test program for JSON, with the option’s name, exit 1', async () => {
     const prefix = await run(
       'constants',
       exampleShown,
@@ -212,10 +257,19 @@ describe('bridgework constants on the example file', () => {
     );
     expect(prefix.code).toBe(exitCodes.badInput);
     expect(prefix.stdout).toBe('');
-    expect(prefix.stderr).toMatch(/^bridgework constants: `--prefix` must /);
+    expect(prefix.stderr).toMatch(/bridgework constants: `--prefix` must /);
     const types = await run('constants', exampleShown, '--types', 'fixed,double');
     expect(types.stderr).toBe(
       "bridgework constants: `--types` must list some of fixed, float32, float64, each once; got 'fixed,double'\n",
     );
+    const entry = await run('constants', exampleShown, '--target-error', 'deck=0.01');
+    expect(entry.code).toBe(exitCodes.badInput);
+    expect(entry.stderr).toMatch(
+      /`--target-error` entries must be name=value for distinct channels of the file \(hanger-h3, gusset-g2, deck-temp\); got 'deck=0\.01'/,
+    );
+    const negative = await run('constants', exampleShown, '--target-error', '-1');
+    expect(negative.stderr).toMatch(/`--target-error` must be a positive number/);
+    const json = await run('constants', exampleShown, '--format', 'json', '--test-program', outPath('x.c'));
+    expect(json.stderr).toMatch(/`--test-program` checks a C header: it needs `--format c`/);
   });
 });

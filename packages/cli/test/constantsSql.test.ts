@@ -50,12 +50,16 @@ const codes = channels.map(sweep);
 function expected(j: number): { values: Float64Array; bound?: number } {
   const c = channels[j] as Channel;
   if (c.map.form === 'mobius') return { values: c.convert(codes[j] as Int32Array).values };
-  const f64 = channelConstants(c, { verification: 'sampled' }).float64;
+  // The command's design: one float64 polynomial over the span, verified against the exact map.
+  const designed = channelConstants(c, { verification: 'sampled', types: ['float64'], maxTableBytes: 48 });
+  const f64 = designed.float64;
+  const total = designed.totals.float64;
+  if (f64 === undefined || total === undefined) throw new Error('expected a verified float64 function');
   return {
     values: Float64Array.from(codes[j] as Int32Array, (x) =>
       x >= f64.codeMin && x <= f64.codeMax ? f64.evaluate(x) : Number.NaN,
     ),
-    bound: f64.totalError!.maxAbsError,
+    bound: total.bound,
   };
 }
 

@@ -24,7 +24,7 @@ export const C_NAME_MAX_LENGTH = 32;
  * @example
  * ```ts
  * cIdentifierFromName('Wägezelle 2 "links"'); // 'wagezelle_2_links'
- * cIdentifierFromName('Øresund µε gauge'); // 'oresund_u_gauge'
+ * cIdentifierFromName('Øresund µε gauge'); // 'oresund_ue_gauge'
  * ```
  */
 export function cIdentifierFromName(name: string, param = 'name'): string {

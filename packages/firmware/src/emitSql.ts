@@ -5,6 +5,7 @@ import {
   checkObject,
   checkOneOf,
   checkOptions,
+  formatValue,
 } from '@bridgework/core';
 import { FIRMWARE_CAUTION } from './emitCHeader.js';
 import { FIRMWARE_GENERATOR_VERSION } from './version.js';
@@ -102,13 +103,13 @@ function literal(value: number, dialect: SqlDialect): string {
 }
 
 /** A quoted identifier. */
-function identifier(name: string, dialect: SqlDialect): string {
+function identifier(name: string, dialect: SqlDialect, param = 'name'): string {
   if (typeof name !== 'string' || name === '' || name.includes('\0')) {
     throw new BridgeworkError(
       'invalid-option',
       `a SQL identifier must be non-empty text; got ${JSON.stringify(name)}`,
       {
-        param: 'name',
+        param,
         value: name,
       },
     );
@@ -120,7 +121,7 @@ function identifier(name: string, dialect: SqlDialect): string {
 function tableName(name: string, dialect: SqlDialect): string {
   return name
     .split('.')
-    .map((part) => identifier(part, dialect))
+    .map((part) => identifier(part, dialect, 'options.table'))
     .join('.');
 }
 
@@ -273,8 +274,25 @@ export function emitSql(channels: readonly SqlChannel[], options: EmitSqlOptions
   const o = checkOptions('options', options, { known: ['dialect', 'table', 'keepColumns'] });
   const dialect =
     o['dialect'] === undefined ? 'duckdb' : checkOneOf('options.dialect', o['dialect'], sqlDialects);
-  const table = o['table'] === undefined ? 'codes' : String(o['table']);
-  const keep = (o['keepColumns'] ?? []) as readonly string[];
+  const table = o['table'] === undefined ? 'codes' : o['table'];
+  if (typeof table !== 'string') {
+    throw new BridgeworkError(
+      'invalid-option',
+      `\`options.table\` must be a table name (text); got ${formatValue(table)}`,
+      {
+        param: 'options.table',
+        value: table,
+      },
+    );
+  }
+  const keep = o['keepColumns'] ?? [];
+  if (!Array.isArray(keep)) {
+    throw new BridgeworkError(
+      'invalid-option',
+      `\`options.keepColumns\` must be a list of column names; got ${formatValue(keep)}`,
+      { param: 'options.keepColumns', value: keep },
+    );
+  }
   if (!Array.isArray(channels) || channels.length === 0) {
     throw new BridgeworkError('invalid-shape', '`channels` must be a non-empty array', { param: 'channels' });
   }
@@ -300,7 +318,9 @@ export function emitSql(channels: readonly SqlChannel[], options: EmitSqlOptions
     notes.push(`--   ${c.name} (${c.unit}), from column ${c.codeColumn ?? c.name}: ${accuracyNote(c)}.`);
     return `  ${expr} AS ${identifier(c.name, dialect)}`;
   });
-  const kept = keep.map((k) => `  ${identifier(k, dialect)}`);
+  const kept = (keep as readonly string[]).map(
+    (k, i) => `  ${identifier(k, dialect, `options.keepColumns[${i}]`)}`,
+  );
   return [
     `-- bridgework ${FIRMWARE_GENERATOR_VERSION}: SQL maps from converter codes to values (dialect ${dialect})`,
     `-- ${FIRMWARE_CAUTION}`,

@@ -1,7 +1,6 @@
 import {
   BridgeworkError,
   checkInteger,
-  checkObject,
   checkOneOf,
   formatValue,
   requireOption,
@@ -12,12 +11,13 @@ import { BINARY64, roundToBinary, upperDouble } from './internal/binary.js';
 import {
   checkBits,
   checkCodeRange,
-  checkReference,
+  readOptions,
   resolveVerification,
   sampleCodes,
 } from './internal/codes.js';
 import { decimalString } from './internal/decimal.js';
 import { exactRational, rationalFromNumber } from './internal/exact.js';
+import { registerFastEvaluator } from './internal/fast.js';
 import { scanAll, scanCodes, type FixedKernel, type ScanResult } from './internal/fixedScan.js';
 import {
   abs,
@@ -36,7 +36,7 @@ import {
 } from './internal/rational.js';
 import { checkQuantityUnit } from './internal/text.js';
 import { fixedPointRoundings, roundShiftUnchecked, type FixedPointRounding } from './roundShift.js';
-import type { TotalError, Verification, VerificationMode } from './verification.js';
+import type { Verification, VerificationMode } from './verification.js';
 
 /** Options of {@link fixedPointMap}. */
 export interface FixedPointMapOptions {
@@ -60,12 +60,6 @@ export interface FixedPointMapOptions {
   readonly outputBits?: number;
   /** How the accumulator is rounded to the output. Default `'half-even'`. */
   readonly rounding?: FixedPointRounding;
-  /**
-   * A reference for the quantity at each code (in the unit of `scale`), for example the channel's
-   * exact nonlinear map, so that the report states the total error of the affine fixed-point map
-   * against it. Optional.
-   */
-  readonly exact?: (code: number) => number;
   /** How the error is verified. Default `'auto'` (exhaustive up to 2^24 codes). */
   readonly verification?: VerificationMode;
 }
@@ -116,6 +110,8 @@ export interface BigIntRange {
 
 /** Constants and proved bounds of an integer map from converter code to output (see {@link fixedPointMap}). */
 export interface FixedPointMap {
+  /** Discriminator: the affine form. */
+  readonly kind: 'affine';
   /** Lowest code covered. */
   readonly codeMin: number;
   /** Highest code covered. */
@@ -162,8 +158,6 @@ export interface FixedPointMap {
   readonly errorBound: number;
   /** How the error was verified and the worst case found. */
   readonly verification: Verification;
-  /** The error against `exact`, in output LSB, when a reference was given. */
-  readonly totalError: TotalError | undefined;
   /**
    * The integer output for a code, computed exactly as the firmware computes it.
    *
@@ -297,7 +291,22 @@ function chooseShift(
  * ```
  */
 export function fixedPointMap(options: FixedPointMapOptions): FixedPointMap {
-  const o = checkObject('options', options);
+  const o = readOptions(options, {
+    known: [
+      'scale',
+      'offset',
+      'codeMin',
+      'codeMax',
+      'outputUnit',
+      'quantityUnit',
+      'coefficientBits',
+      'accumulatorBits',
+      'outputBits',
+      'rounding',
+      'verification',
+    ],
+    required: ['scale', 'codeMin', 'codeMax', 'outputUnit'],
+  });
   const scale = exactRational('scale', requireOption('scale', o['scale']));
   if (sign(scale) === 0) {
     throw new BridgeworkError('out-of-range', '`scale` must be non-zero; got 0', {
@@ -325,7 +334,6 @@ export function fixedPointMap(options: FixedPointMapOptions): FixedPointMap {
   const rounding =
     o['rounding'] === undefined ? 'half-even' : checkOneOf('rounding', o['rounding'], fixedPointRoundings);
   const quantityUnit = checkQuantityUnit(o['quantityUnit']);
-  const exact = checkReference(o['exact']);
   const method = resolveVerification(o['verification'], range);
 
   const m = div(scale, outputUnit);
@@ -380,11 +388,8 @@ export function fixedPointMap(options: FixedPointMapOptions): FixedPointMap {
     delta: roundToBinary(delta, BINARY64),
     beta: roundToBinary(beta, BINARY64),
   };
-  const unitDouble = roundToBinary(outputUnit, BINARY64);
   const scan =
-    method === 'exhaustive'
-      ? scanAll(kernel, exact, unitDouble)
-      : scanCodes(kernel, sampleCodes(range, [offsetCode]), exact, unitDouble);
+    method === 'exhaustive' ? scanAll(kernel) : scanCodes(kernel, sampleCodes(range, [offsetCode]));
 
   const evaluateExact = (code: number): bigint =>
     roundShiftUnchecked((BigInt(code) - offsetCodeBig) * multiplier + bias, s, rounding);
@@ -404,7 +409,8 @@ export function fixedPointMap(options: FixedPointMapOptions): FixedPointMap {
     checkInteger('code', code, { min: range.codeMin, max: range.codeMax });
     return code as number;
   };
-  return {
+  const map: FixedPointMap = Object.freeze({
+    kind: 'affine' as const,
     codeMin: range.codeMin,
     codeMax: range.codeMax,
     offsetCode,
@@ -431,8 +437,48 @@ export function fixedPointMap(options: FixedPointMapOptions): FixedPointMap {
     maxAbsError: upperDouble(proved),
     errorBound: upperDouble(analytic),
     verification,
-    totalError: exact === undefined ? undefined : totalErrorOf(scan, method),
     evaluate: (code: number) => Number(evaluateExact(checkCode(code))),
+  });
+  registerFastEvaluator(map, fastAffineEvaluator(kernel));
+  return map;
+}
+
+/**
+ * The output for a code in binary64 arithmetic, exact: acc = d·M + bias is split so that every
+ * partial value is an integer below 2^53 (d·M_hi·2^16 + d·M_lo + bias, |M_lo| < 2^16), the floor
+ * quotient and remainder by 2^s formed from the parts, then rounded as {@link roundShift} does.
+ * Shifts above 52 go through BigInt.
+ */
+function fastAffineEvaluator(k: FixedKernel): (code: number) => number {
+  const { offsetCode, multiplier: M, shift: s, rounding } = k;
+  const bias = Number(k.bias); // |bias| ≤ |M|/2 + 1 < 2^31
+  const T = 2 ** s;
+  const half = T / 2;
+  const mHi = Math.floor(M / 65536);
+  const mLo = M - mHi * 65536;
+  const bigShift = BigInt(s);
+  const round = (q: number, r: number): number => {
+    if (rounding === 'floor' || s === 0) return q;
+    if (rounding === 'half-away') return (q >= 0 ? r >= half : r > half) ? q + 1 : q;
+    return r > half || (r === half && q % 2 !== 0) ? q + 1 : q;
+  };
+  return (code: number): number => {
+    const d = code - offsetCode;
+    if (s <= 21) {
+      // |acc| < 2^(31 + s) ≤ 2^52: exact in binary64 (the outputs fit 32 bits).
+      const acc = d * M + bias;
+      const q = Math.floor(acc / T);
+      return round(q, acc - q * T);
+    }
+    if (s > 52) return Number(roundShiftUnchecked(BigInt(d) * BigInt(M) + k.bias, bigShift, rounding));
+    // acc = P1·2^16 + L with P1 = d·M_hi, L = d·M_lo + bias (both exact integers below 2^53).
+    const P1 = d * mHi;
+    const L = d * mLo + bias;
+    const D = 2 ** (s - 16);
+    const q1 = Math.floor(P1 / D);
+    const R = (P1 - q1 * D) * 65536 + L; // |R| < 2^s + 2^49 ≤ 2^53: exact
+    const q2 = Math.floor(R / T);
+    return round(q1 + q2, R - q2 * T);
   };
 }
 
@@ -483,17 +529,5 @@ function verificationOf(
     codesChecked: scan.count,
     worstCode: useMax ? scan.maxCode : scan.minCode,
     worstError: roundToBinary(useMax ? atMax : atMin, BINARY64),
-  };
-}
-
-function totalErrorOf(scan: ScanResult, method: 'exhaustive' | 'sampled'): TotalError {
-  // |y − ref| was measured with ref = exact/unit rounded twice (relative 2u) and one subtraction.
-  const u = 2 ** -53;
-  const bound = scan.totalMax * (1 + 4 * u) + 4 * u * scan.referenceMagnitude;
-  return {
-    maxAbsError: upperDouble(rationalFromNumber(bound)),
-    worstCode: scan.totalCode,
-    method,
-    codesChecked: scan.count,
   };
 }

@@ -1,16 +1,10 @@
-import {
-  BridgeworkError,
-  checkInteger,
-  checkObject,
-  checkOneOf,
-  formatValue,
-  requireOption,
-} from '@bridgework/core';
+import { BridgeworkError, checkInteger, checkOneOf, formatValue, requireOption } from '@bridgework/core';
 import type { ExactValue } from './exactValue.js';
 import { BINARY32, BINARY64, roundToBinary, upperDouble, type BinaryFormat } from './internal/binary.js';
-import { checkCodeRange, checkReference, resolveVerification, sampleCodes } from './internal/codes.js';
+import { checkCodeRange, readOptions, resolveVerification, sampleCodes } from './internal/codes.js';
 import { decimalString } from './internal/decimal.js';
 import { exactRational, rationalFromNumber } from './internal/exact.js';
+import { registerFastEvaluator } from './internal/fast.js';
 import { evaluationBound, referenceBound, type FloatBoundInput } from './internal/floatBounds.js';
 import { evaluateProgram, type FloatPrecision, type FloatProgram } from './internal/floatEval.js';
 import { scanFloat, type ReferenceMap } from './internal/floatScan.js';
@@ -29,7 +23,7 @@ import {
   type Rational,
 } from './internal/rational.js';
 import { checkQuantityUnit } from './internal/text.js';
-import type { TotalError, Verification, VerificationMode } from './verification.js';
+import type { Verification, VerificationMode } from './verification.js';
 
 export type { FloatPrecision };
 
@@ -63,12 +57,6 @@ export interface FloatMapOptions {
   readonly codeMax: number;
   /** Name of the quantity's unit for reports and headers (e.g. `'kg'`); default `''`. */
   readonly quantityUnit?: string;
-  /**
-   * A reference for the quantity at each code, for example the channel's exact nonlinear map when
-   * the polynomial is a fit to it, so the report states the total error (approximation plus
-   * rounding). Optional.
-   */
-  readonly exact?: (code: number) => number;
   /** How the error is verified. Default `'auto'` (exhaustive up to 2^24 codes). */
   readonly verification?: VerificationMode;
 }
@@ -105,8 +93,6 @@ export interface FloatMapBase {
   readonly errorBound: number;
   /** How the error was verified and the worst case found. */
   readonly verification: Verification;
-  /** The error against `exact`, in the quantity's unit, when a reference was given. */
-  readonly totalError: TotalError | undefined;
   /**
    * The result for a code, bit for bit as the emitted C evaluator computes it.
    *
@@ -241,7 +227,20 @@ function readCoefficients(o: Record<string, unknown>, kind: 'affine' | 'polynomi
  * ```
  */
 export function floatMap(options: FloatMapOptions): FloatMap {
-  const o = checkObject('options', options);
+  const o = readOptions(options, {
+    known: [
+      'kind',
+      'scale',
+      'coefficients',
+      'offset',
+      'precision',
+      'codeMin',
+      'codeMax',
+      'quantityUnit',
+      'verification',
+    ],
+    required: ['kind', 'precision', 'codeMin', 'codeMax'],
+  });
   const kind = checkOneOf('kind', requireOption('kind', o['kind']), ['affine', 'polynomial'] as const);
   const precision = checkOneOf('precision', requireOption('precision', o['precision']), floatPrecisions);
   const format = formatOf(precision);
@@ -249,7 +248,6 @@ export function floatMap(options: FloatMapOptions): FloatMap {
   const offset = o['offset'] === undefined ? ZERO : exactRational('offset', o['offset']);
   const range = checkCodeRange(o);
   const quantityUnit = checkQuantityUnit(o['quantityUnit']);
-  const exact = checkReference(o['exact']);
   const method = resolveVerification(o['verification'], range);
 
   const param = (k: number) => (kind === 'affine' ? 'scale' : `coefficients[${k}]`);
@@ -281,7 +279,7 @@ export function floatMap(options: FloatMapOptions): FloatMap {
     lo: split.map((p) => p[1]),
   };
   const codes = method === 'exhaustive' ? range : sampleCodes(range, [offsetRounded]);
-  const scan = scanFloat(program, reference, codes, exact);
+  const scan = scanFloat(program, reference, codes);
   if (scan.nonFiniteCode !== undefined) {
     throw new BridgeworkError(
       'overflow',
@@ -307,15 +305,6 @@ export function floatMap(options: FloatMapOptions): FloatMap {
     worstCode,
     worstError: roundToBinary(sub(rationalFromNumber(worstValue), exactAt(worstCode)), BINARY64),
   };
-  const totalError: TotalError | undefined =
-    exact === undefined
-      ? undefined
-      : {
-          maxAbsError: upperDouble(rationalFromNumber(scan.totalMax * (1 + 4 * u))),
-          worstCode: scan.totalCode,
-          method,
-          codesChecked: scan.count,
-        };
   const base = {
     precision,
     codeMin: range.codeMin,
@@ -326,15 +315,18 @@ export function floatMap(options: FloatMapOptions): FloatMap {
     maxAbsError: upperDouble(proved),
     errorBound: upperDouble(analytic),
     verification,
-    totalError,
     evaluate: (code: number) => {
       checkInteger('code', code, { min: range.codeMin, max: range.codeMax });
       return evaluateProgram(program, code);
     },
   };
-  return kind === 'affine'
-    ? { kind, scale: rounded[0] as number, ...base }
-    : { kind, coefficients: Object.freeze(rounded.slice()), ...base };
+  const map: FloatMap = Object.freeze(
+    kind === 'affine'
+      ? { kind, scale: rounded[0] as number, ...base }
+      : { kind, coefficients: Object.freeze(rounded.slice()), ...base },
+  );
+  registerFastEvaluator(map, (code: number) => evaluateProgram(program, code));
+  return map;
 }
 
 /**

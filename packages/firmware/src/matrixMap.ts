@@ -273,10 +273,10 @@ export function matrixMap(options: MatrixMapOptions): MatrixMap {
     const type = f32 ? 'float' : 'double';
     const lit = f32 ? floatLiteral : doubleLiteral;
     const suffix = f32 ? 'f32' : 'f64';
-    const rows = cr.map((row) => `    { ${row.map(lit).join(', ')} }`).join(',\n');
+    const rows = cr.map((row) => `    { ${row.map((v) => lit(v)).join(', ')} }`).join(',\n');
     return [
       `static const ${type} ${p}_matrix_${suffix}[${m}][${n}] = {\n${rows}\n};`,
-      `static const ${type} ${p}_offsets_${suffix}[${n}] = { ${ar.map(lit).join(', ')} };`,
+      `static const ${type} ${p}_offsets_${suffix}[${n}] = { ${ar.map((v) => lit(v)).join(', ')} };`,
       `/* y[j] = sum over i of matrix[j][i] * (x[i] - offsets[i]), in this order; bounds: ${bounds.map((b) => b.toPrecision(3)).join(', ')} */`,
       `static inline void ${p}_${suffix}(const ${type} x[${n}], ${type} y[${m}]) {`,
       '    int j;',

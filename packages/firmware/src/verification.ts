@@ -33,19 +33,3 @@ export interface Verification {
    */
   readonly worstError: number;
 }
-
-/** The error against a caller's reference function (approximation and rounding together). */
-export interface TotalError {
-  /**
-   * Largest |result − exact(code)| over the codes evaluated, in the map's error unit, rounded upward
-   * by the bound of the binary64 subtraction that measured it. It is only as good as the reference
-   * function's own values.
-   */
-  readonly maxAbsError: number;
-  /** A code where `maxAbsError` occurs. */
-  readonly worstCode: number;
-  /** `'exhaustive'` or `'sampled'`, as for the rounding error. */
-  readonly method: 'exhaustive' | 'sampled';
-  /** How many codes the reference was evaluated at. */
-  readonly codesChecked: number;
-}

@@ -5,7 +5,7 @@ import { C_NAME_MAX_LENGTH, cIdentifierFromName } from '@bridgework/firmware';
 describe('cIdentifierFromName', () => {
   it('folds accents, transliterates, and joins words with single underscores', () => {
     expect(cIdentifierFromName('Wägezelle 2 "links"')).toBe('wagezelle_2_links');
-    expect(cIdentifierFromName('Øresund µε gauge')).toBe('oresund_u_gauge');
+    expect(cIdentifierFromName('Øresund µε gauge')).toBe('oresund_ue_gauge');
     expect(cIdentifierFromName('Straße */ ??/ \\n')).toBe('strasse_n');
     expect(cIdentifierFromName('__init__')).toBe('init');
     expect(cIdentifierFromName('1st stage')).toBe('1st_stage');

@@ -18,7 +18,7 @@ import {
   STRICT_FLAGS,
   writeFiles,
 } from './support/cc.js';
-import { driverProgram, expectedLine, testChannels } from './support/channels.js';
+import { designedChannels, driverProgram, expectedLine, testChannels } from './support/channels.js';
 
 const channels = testChannels();
 const options: EmitOptions = { channels, prefix: 'hopper' };
@@ -29,7 +29,7 @@ const identifiers = channels.map((c) => cIdentifierFromName(c.name));
 function codesFor(ch: FirmwareChannel): number[] {
   const map = (ch.fixed ?? ch.float32 ?? ch.float64)!;
   const { codeMin, codeMax } = map;
-  const offset = ch.fixed?.offsetCode ?? 0;
+  const offset = ch.fixed?.kind === 'affine' ? ch.fixed.offsetCode : 0;
   const special = [codeMin - 1, codeMin, codeMin + 1, codeMax - 1, codeMax, codeMax + 1, 0, offset - 2];
   special.push(offset - 1, offset, offset + 1, offset + 2);
   const random = fc.sample(fc.integer({ min: codeMin, max: codeMax }), 1500);
@@ -148,6 +148,70 @@ describe('emitCHeader: the generated header', () => {
           [...CORTEX_M4F_FLAGS, ...STRICT_FLAGS, level, '-c', 'unit.c', '-o', 'unit.o'],
           dir,
         );
+      }
+    } finally {
+      remove();
+    }
+  });
+});
+
+describe('emitCHeader: channels designed against an exact map', () => {
+  const designed = designedChannels();
+  const text = emitCHeader({ channels: designed, prefix: 'plant' });
+  const unwrapped = text.replace(/\n \* /g, ' ');
+
+  it('matches the reviewed snapshot (test/snapshots/designed-constants.h)', async () => {
+    expect(designed[0]!.fixed!.kind).toBe('piecewise-polynomial');
+    expect(designed[1]!.float64!.kind).toBe('mobius');
+    await expect(text).toMatchFileSnapshot('snapshots/designed-constants.h');
+  });
+
+  it('states each function’s total error first, its parts as parts, its cost, and a macro with the bound', () => {
+    for (const ch of designed) {
+      for (const t of ['fixed', 'float32', 'float64'] as const) {
+        if (ch[t] === undefined) continue;
+        const total = ch.totals![t]!;
+        const { P } = {
+          P: `PLANT_${cIdentifierFromName(ch.name).toUpperCase()}_${t === 'fixed' ? 'FIXED' : t === 'float32' ? 'F32' : 'F64'}`,
+        };
+        expect(text).toContain(`#define ${P}_TOTAL_ERROR ${String(total.bound).replace(/^(\d+)$/, '$1.0')}`);
+      }
+    }
+    expect(unwrapped).toMatch(
+      /TOTAL ERROR: \|0\.001 \* output - exact map\| <= [\d.e-]+ degC over the whole code range, proved: every one of the 4096 codes/,
+    );
+    expect(unwrapped).toMatch(/Parts of it \(not the error\): approximation \(/);
+    expect(unwrapped).toMatch(/plus 1e-12 degC for the exact map's own error \(three binary64 operations/);
+    // The second channel stated no reference error: the header says so instead of hiding it.
+    expect(unwrapped).toMatch(/the exact map's own error is not included \(none stated\)/);
+    expect(unwrapped).toMatch(/Cost: \d+ bytes of constants; per conversion /);
+    // The old wording that called an arithmetic figure "the error against the exact map" is gone.
+    expect(text).not.toMatch(/Max \|y - exact map\|/);
+  });
+
+  it('compiles under the strict flags, equals TypeScript at every code at -O0 and -O2, and for Cortex-M0+ and M4F', (ctx) => {
+    if (!needCompiler('gcc', () => ctx.skip())) return;
+    const { dir, remove } = scratch();
+    try {
+      const driven = designed.map((c) => ({ ...c, identifier: cIdentifierFromName(c.name) }));
+      writeFiles(dir, { 'constants.h': text, 'driver.c': driverProgram('plant', driven) });
+      const input: string[] = [];
+      const expected: string[] = [];
+      designed.forEach((ch, i) => {
+        const { codeMin, codeMax } = (ch.fixed ?? ch.float64)!;
+        for (let code = codeMin - 1; code <= codeMax + 1; code++) {
+          input.push(`${i} ${code}`);
+          expected.push(expectedLine(driven[i]!, code, codeMin, codeMax));
+        }
+      });
+      for (const level of ['-O0', '-O2']) {
+        compile('gcc', [...STRICT_FLAGS, level, '-o', 'driver', 'driver.c'], dir);
+        const out = run(join(dir, 'driver'), `${input.join('\n')}\n`, dir)
+          .trimEnd()
+          .split('\n');
+        expect(out.length).toBe(expected.length);
+        for (let k = 0; k < out.length; k++)
+          if (out[k] !== expected[k]) expect(`${input[k]}: ${out[k]}`).toBe(`${input[k]}: ${expected[k]}`);
       }
     } finally {
       remove();

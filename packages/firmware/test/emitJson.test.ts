@@ -1,7 +1,14 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { emitJson, FIRMWARE_GENERATOR_VERSION, type EmitOptions } from '@bridgework/firmware';
-import { testChannels } from './support/channels.js';
+import {
+  emitJson,
+  FIRMWARE_GENERATOR_VERSION,
+  type EmitOptions,
+  type FixedPiecewiseMap,
+  type FixedPointMap,
+  type FloatMap,
+} from '@bridgework/firmware';
+import { designedChannels, testChannels } from './support/channels.js';
 
 const channels = testChannels();
 const text = emitJson({ channels, prefix: 'hopper' });
@@ -23,7 +30,7 @@ describe('emitJson', () => {
   });
 
   it('holds the same constants as the maps, with functions named as in the header', () => {
-    const [weight] = channels;
+    const weight = channels[0] as unknown as { fixed: FixedPointMap; float32: FloatMap; float64: FloatMap };
     const j = json.channels[0]!;
     expect(j.fixed.function).toBe('hopper_weight_fixed');
     expect(j.fixed.multiplier).toBe(weight!.fixed!.multiplier);
@@ -59,6 +66,29 @@ describe('emitJson', () => {
         param: 'channels',
       },
     );
+  });
+
+  it('carries each designed function’s total error, cost, tables and the test vectors; null totals for hand-made maps', () => {
+    const designed = designedChannels();
+    const j = JSON.parse(emitJson({ channels: designed, prefix: 'plant' })) as {
+      channels: Record<string, any>[];
+    };
+    const oven = j.channels[0]!;
+    expect(oven.targetError).toBe(0.005);
+    expect(oven.referenceError).toEqual(designed[0]!.reference);
+    expect(oven.fixed.kind).toBe('piecewise-polynomial');
+    expect(oven.fixed.totalError).toEqual(designed[0]!.totals!.fixed);
+    expect(oven.fixed.cost.tableBytes).toBeGreaterThan(0);
+    expect(oven.fixed.segments.map((s: { coefficients: number[] }) => s.coefficients)).toEqual(
+      (designed[0]!.fixed as FixedPiecewiseMap).segments.map((s) => s.coefficients),
+    );
+    expect(oven.float32.polynomial.segmentBits).toBe(10);
+    expect(oven.testVectors).toEqual(designed[0]!.testVectors);
+    const strut = j.channels[1]!;
+    expect(strut.float64.kind).toBe('mobius');
+    expect(strut.fixed).toBeUndefined();
+    // A map assembled by hand has no exact map, so no total error: null, never a number.
+    expect(json.channels[0]!.fixed.totalError).toBeNull();
   });
 
   it('is in step with the package version', () => {

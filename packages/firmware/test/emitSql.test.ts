@@ -151,4 +151,21 @@ describe('emitSql', () => {
       param: 'options.dialekt',
     });
   });
+
+  it('names the option at fault for a table or kept column that is not a name (issue 15: keepColumns was a TypeError)', () => {
+    const one = { name: 'x', unit: 'N', map: mobius };
+    expect(() => emitSql([one], { keepColumns: 'time' as never })).toThrowBridgeworkError('invalid-option', {
+      param: 'options.keepColumns',
+    });
+    expect(() => emitSql([one], { keepColumns: ['time', 7 as never] })).toThrowBridgeworkError(
+      'invalid-option',
+      { param: 'options.keepColumns[1]' },
+    );
+    expect(() => emitSql([one], { table: {} as never })).toThrowBridgeworkError('invalid-option', {
+      param: 'options.table',
+    });
+    expect(() => emitSql([one], { table: 'lake..codes' })).toThrowBridgeworkError('invalid-option', {
+      param: 'options.table',
+    });
+  });
 });

@@ -1,6 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { fixedPointMap, fixedPointRoundings, type FixedPointMapOptions } from '@bridgework/firmware';
+import { fastEvaluator } from '../src/internal/fast.js';
 import {
   D,
   decimalOf,
@@ -334,18 +335,35 @@ describe('fixedPointMap: overflow is an error', () => {
 });
 
 describe('fixedPointMap: reference maps, sampling and defaults', () => {
-  it('reports the total error against a nonlinear reference, as a direct loop measures it', () => {
-    const scale = 30 / 2134169.2493824;
-    const exact = (code: number) => code * scale * (1 + 2e-5 * (code / 2 ** 23) ** 2); // a slight bow
-    const range = { codeMin: -20000, codeMax: 20000 };
-    const map = fixedPointMap({ scale: '30/2134169.2493824', outputUnit: '0.00001', ...range, exact });
-    let max = 0;
-    for (let code = range.codeMin; code <= range.codeMax; code++) {
-      max = Math.max(max, Math.abs(map.evaluate(code) - exact(code) / 0.00001));
+  it('evaluates in the scans exactly as evaluate does, at every shift (binary64 parts, and BigInt past 52)', () => {
+    // The generator's total-error scans use the fast binary64 evaluator; it must equal the BigInt one.
+    const cases: FixedPointMapOptions[] = [
+      { scale: '30/2134169.2493824', offset: '-2.75', outputUnit: '0.00001', ...FULL_24 }, // shift 30
+      {
+        scale: '3/7',
+        offset: '100.5',
+        outputUnit: '1',
+        codeMin: -70000,
+        codeMax: 70000,
+        rounding: 'half-away',
+      },
+      {
+        scale: '-1/3',
+        outputUnit: '1',
+        codeMin: -5000,
+        codeMax: 5000,
+        rounding: 'floor',
+        coefficientBits: 16,
+      },
+      { scale: '1e-9', outputUnit: '1', codeMin: -3000, codeMax: 3000 }, // shift beyond 52
+    ];
+    for (const options of cases) {
+      const map = fixedPointMap({ ...options, verification: 'sampled' });
+      const fast = fastEvaluator(map);
+      const codes = fc.sample(fc.integer({ min: map.codeMin, max: map.codeMax }), 3000);
+      codes.push(map.codeMin, map.codeMax, map.offsetCode, map.offsetCode + 1);
+      for (const code of codes) expect(fast(code), `${map.shift} at ${code}`).toBe(map.evaluate(code));
     }
-    expect(map.totalError?.method).toBe('exhaustive');
-    expect(map.totalError?.maxAbsError).toBeGreaterThanOrEqual(max);
-    expect(map.totalError?.maxAbsError).toBeNear(max, { rel: 1e-9 });
   });
 
   it('samples ranges beyond 2^24 codes and then states the analytic bound', () => {
@@ -367,7 +385,7 @@ describe('fixedPointMap: reference maps, sampling and defaults', () => {
       64,
       32,
     ]);
-    expect([map.offsetCode, map.bias, map.quantityUnit, map.totalError]).toEqual([0, 0, '', undefined]);
+    expect([map.kind, map.offsetCode, map.bias, map.quantityUnit]).toEqual(['affine', 0, 0, '']);
   });
 });
 
@@ -392,8 +410,8 @@ describe('fixedPointMap: bad input', () => {
     ['outputBits', { outputBits: 1 }, 'out-of-range'],
     ['rounding', { rounding: 'nearest' }, 'invalid-option'],
     ['quantityUnit', { quantityUnit: 5 }, 'wrong-type'],
-    ['exact', { exact: 'linear' }, 'wrong-type'],
-    ['exact', { exact: () => Number.NaN }, 'model-not-finite'],
+    ['options.exact', { exact: () => 0 }, 'unknown-option'],
+    ['options.scal', { scal: '1/3' }, 'unknown-option'],
     ['verification', { verification: 'full' }, 'invalid-option'],
   ] as const)('%s: %o → %s', (param, patch, code) => {
     expect(() =>

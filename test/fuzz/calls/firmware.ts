@@ -38,7 +38,6 @@ const polynomialOptions = () => ({
   precision: 'float64',
   codeMin: -1000,
   codeMax: 1000,
-  exact: (code: number) => 0.5 + 0.001 * code + 1e-9 * code * code,
 });
 const fixed = () => firmware.fixedPointMap(fixedOptions() as never);
 const matrix = () =>
@@ -55,6 +54,33 @@ const matrix = () =>
     precision: 'float32',
   });
 const affine = () => firmware.floatMap(affineOptions() as never);
+// A gently curved map over 4096 codes: every designed function is verified over all its codes.
+const curve = (code: number) => 20 + code / 100 + (code * code) / 4e6;
+const polynomialFitOptions = () => ({ exact: curve, codeMin: 0, codeMax: 4095, segmentBits: 10, degree: 2 });
+const piecewise = () => firmware.fitPiecewisePolynomial(polynomialFitOptions());
+const fixedPiecewise = () => firmware.fixedPiecewiseMap({ polynomial: piecewise(), outputUnit: '0.001' });
+const floatPiecewise = () => firmware.floatPiecewiseMap({ polynomial: piecewise(), precision: 'float32' });
+const mobiusOptions = () => ({
+  a: '0.01',
+  b: '20',
+  c: '1e-6',
+  precision: 'float64',
+  codeMin: 0,
+  codeMax: 4095,
+  quantityUnit: 'degC',
+});
+const floatMobius = () => firmware.floatMobiusMap(mobiusOptions() as never);
+const designOptions = () => ({
+  name: 'bath',
+  exact: curve,
+  codeMin: 0,
+  codeMax: 4095,
+  quantityUnit: 'degC',
+  targetError: 0.01,
+  types: ['fixed', 'float32', 'float64'],
+  outputUnit: '0.001',
+  verification: 'exhaustive',
+});
 const mobius = () => ({
   form: 'mobius',
   coefficients: { a: 2, b: 1, c: 0.001, d: 1 },
@@ -97,7 +123,25 @@ export const firmwareCalls: readonly BaseCall[] = [
     [{ name: 'hook', unit: 'N', codeColumn: 'code', map: mobius() }],
     { dialect: 'duckdb', table: 'rig_codes', keepColumns: ['t'] },
   ]),
+  f('fitPiecewisePolynomial', () => [polynomialFitOptions()]),
+  f('segmentCodes', () => [piecewise(), 1]),
+  f('fixedPiecewiseMap', () => [{ polynomial: piecewise(), outputUnit: '0.001', coefficientBits: 24 }]),
+  f('floatPiecewiseMap', () => [{ polynomial: piecewise(), precision: 'float64', quantityUnit: 'degC' }]),
+  f('floatMobiusMap', () => [mobiusOptions()]),
+  f('firmwareCost', () => [fixedPiecewise()]),
+  f('designFirmwareConstants', () => [designOptions()]),
+  f('emitTestProgram', () => [
+    {
+      channels: [{ name: 'Bath', fixed: fixedPiecewise(), float32: floatPiecewise() }],
+      prefix: 'bath',
+      types: ['fixed', 'float32'],
+      header: 'bath_constants.h',
+    },
+  ]),
   m('fixedPointMap', fixed, 'evaluate', () => [1234]),
+  m('fixedPiecewiseMap', fixedPiecewise, 'evaluate', () => [1234]),
+  m('floatPiecewiseMap', floatPiecewise, 'evaluate', () => [1234]),
+  m('floatMobiusMap', floatMobius, 'evaluate', () => [1234]),
   m('floatMap', affine, 'evaluate', () => [1234]),
   m(
     'floatMap',

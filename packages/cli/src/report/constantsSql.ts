@@ -30,21 +30,29 @@ function sqlMapOf(
   if (m.form === 'mobius') {
     return { form: 'mobius', coefficients: m.coefficients, validCodes: m.validCodes };
   }
-  const f64 = inChannel(loaded, c, () => channelConstants(c.channel, { verification })).float64;
-  if (f64.kind !== 'polynomial' || f64.totalError === undefined) {
+  // One float64 polynomial over the whole span (a table of at most 6 doubles: a single segment),
+  // designed by the firmware package to the channel's default target and verified against the
+  // channel's exact map.
+  const designed = inChannel(loaded, c, () =>
+    channelConstants(c.channel, { verification, types: ['float64'], maxTableBytes: 48 }),
+  );
+  const f64 = designed.float64;
+  const total = designed.totals.float64;
+  if (f64?.kind !== 'piecewise-polynomial' || f64.segmentCount !== 1 || total === undefined) {
     throw new BridgeworkError(
       'invalid-spec',
-      `channel '${c.name}' has no verified float64 polynomial for SQL (its constants are ${f64.kind}); its map is not a ratio of affine functions of the code`,
+      `channel '${c.name}' has no verified single float64 polynomial over its span for SQL (its map is not a ratio of affine functions of the code, and one polynomial of degree 5 or less does not meet its target error); write its constants as C or JSON instead`,
       { param: `channels.${c.name}` },
     );
   }
   return {
     form: 'polynomial',
-    offset: f64.offset,
-    coefficients: f64.coefficients,
+    // The segment's centre: t = code − centre, as the firmware's evaluator forms it.
+    offset: f64.segmentBase + 2 ** (f64.segmentBits - 1),
+    coefficients: f64.coefficients[0] as readonly number[],
     codeMin: f64.codeMin,
     codeMax: f64.codeMax,
-    maxAbsError: f64.totalError.maxAbsError,
+    maxAbsError: total.bound,
   };
 }
 

@@ -1,4 +1,11 @@
-import { BridgeworkError, checkFinite, checkInteger, checkOneOf } from '@bridgework/core';
+import {
+  BridgeworkError,
+  checkFinite,
+  checkInteger,
+  checkOneOf,
+  checkOptions,
+  requireOption,
+} from '@bridgework/core';
 import { EXHAUSTIVE_CODE_LIMIT, verificationModes } from '../verification.js';
 
 /** Codes are signed 32-bit integers (a converter's code, sign-extended): C type int32_t. */
@@ -10,15 +17,19 @@ export interface CodeRange {
 }
 
 /** Checks `codeMin` ≤ `codeMax`, both int32. */
-export function checkCodeRange(o: Record<string, unknown>): CodeRange {
-  const codeMin = checkInteger('codeMin', o['codeMin'], CODE_LIMITS);
-  const codeMax = checkInteger('codeMax', o['codeMax'], CODE_LIMITS);
+export function checkCodeRange(o: Record<string, unknown>, prefix = ''): CodeRange {
+  const codeMin = checkInteger(`${prefix}codeMin`, o['codeMin'], CODE_LIMITS);
+  const codeMax = checkInteger(`${prefix}codeMax`, o['codeMax'], CODE_LIMITS);
   if (codeMax < codeMin) {
-    throw new BridgeworkError('out-of-range', `\`codeMax\` must be >= codeMin (${codeMin}); got ${codeMax}`, {
-      param: 'codeMax',
-      value: codeMax,
-      limit: [codeMin, CODE_LIMITS.max],
-    });
+    throw new BridgeworkError(
+      'out-of-range',
+      `\`${prefix}codeMax\` must be >= codeMin (${codeMin}); got ${codeMax}`,
+      {
+        param: `${prefix}codeMax`,
+        value: codeMax,
+        limit: [codeMin, CODE_LIMITS.max],
+      },
+    );
   }
   return { codeMin, codeMax };
 }
@@ -93,4 +104,18 @@ export function sampleCodes(range: CodeRange, centres: readonly number[]): numbe
 /** Checks a bit width option with a default. */
 export function checkBits(param: string, value: unknown, fallback: number, min: number, max: number): number {
   return value === undefined ? fallback : checkInteger(param, checkFinite(param, value), { min, max });
+}
+
+/**
+ * The options rule of every public function ({@link checkOptions} from core): an unknown key is
+ * `unknown-option` naming the closest known key (as `options.<key>`); a required key that is
+ * absent is `missing-option` with `param` the key itself, like every other check of that option.
+ */
+export function readOptions(
+  value: unknown,
+  keys: { readonly known: readonly string[]; readonly required?: readonly string[] },
+): Record<string, unknown> {
+  const o = checkOptions('options', value, { known: keys.known });
+  for (const key of keys.required ?? []) requireOption(key, o[key]);
+  return o;
 }

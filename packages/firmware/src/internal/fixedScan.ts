@@ -17,7 +17,6 @@
  * (then t = 0 and ρ is exact). The caller adds ε to the largest |e~| found. For s > 52 the scan
  * steps in BigInt and ρ is rounded once on conversion (relative u, inside the 2u term).
  */
-import { callReference } from './codes.js';
 import type { FixedPointRounding } from '../roundShift.js';
 import { roundShiftUnchecked } from '../roundShift.js';
 
@@ -41,10 +40,6 @@ export interface ScanResult {
   minError: number;
   minCode: number;
   count: number;
-  /** Against the reference: largest |y − exact/unit| and the largest |exact/unit| seen. */
-  totalMax: number;
-  totalCode: number;
-  referenceMagnitude: number;
 }
 
 function emptyResult(): ScanResult {
@@ -54,9 +49,6 @@ function emptyResult(): ScanResult {
     minError: Infinity,
     minCode: 0,
     count: 0,
-    totalMax: -Infinity,
-    totalCode: 0,
-    referenceMagnitude: 0,
   };
 }
 
@@ -70,14 +62,7 @@ function pointAt(k: FixedKernel, d: number): { y: number; rho: number } {
   return { y: Number(y), rho: Number((y << s) - acc) / 2 ** k.shift };
 }
 
-function record(
-  r: ScanResult,
-  code: number,
-  y: number,
-  e: number,
-  exact: ((code: number) => number) | undefined,
-  unit: number,
-): void {
+function record(r: ScanResult, code: number, e: number): void {
   r.count += 1;
   if (e > r.maxError) {
     r.maxError = e;
@@ -87,46 +72,25 @@ function record(
     r.minError = e;
     r.minCode = code;
   }
-  if (exact !== undefined) {
-    const ref = callReference(exact, code) / unit;
-    const t = Math.abs(y - ref);
-    if (t > r.totalMax) {
-      r.totalMax = t;
-      r.totalCode = code;
-    }
-    r.referenceMagnitude = Math.max(r.referenceMagnitude, Math.abs(ref));
-  }
 }
 
 /** Evaluates the listed codes (sampled verification). */
-export function scanCodes(
-  k: FixedKernel,
-  codes: readonly number[],
-  exact: ((code: number) => number) | undefined,
-  unit: number,
-): ScanResult {
+export function scanCodes(k: FixedKernel, codes: readonly number[]): ScanResult {
   const r = emptyResult();
   for (const code of codes) {
     const d = code - k.offsetCode;
-    const { y, rho } = pointAt(k, d);
-    record(r, code, y, rho + (d * k.delta + k.beta), exact, unit);
+    record(r, code, pointAt(k, d).rho + (d * k.delta + k.beta));
   }
   return r;
 }
 
 /** Evaluates every code from dMin to dMax (exhaustive verification). */
-export function scanAll(
-  k: FixedKernel,
-  exact: ((code: number) => number) | undefined,
-  unit: number,
-): ScanResult {
+export function scanAll(k: FixedKernel): ScanResult {
   if (k.shift > 52) {
     // Remainders would pass 2^53: step through BigInt instead (slower, still exact).
     const r = emptyResult();
-    for (let d = k.dMin; d <= k.dMax; d++) {
-      const { y, rho } = pointAt(k, d);
-      record(r, d + k.offsetCode, y, rho + (d * k.delta + k.beta), exact, unit);
-    }
+    for (let d = k.dMin; d <= k.dMax; d++)
+      record(r, d + k.offsetCode, pointAt(k, d).rho + (d * k.delta + k.beta));
     return r;
   }
   const T = 2 ** k.shift;
@@ -146,9 +110,6 @@ export function scanAll(
   let minError = Infinity;
   let maxCode = 0;
   let minCode = 0;
-  let totalMax = -Infinity;
-  let totalCode = 0;
-  let referenceMagnitude = 0;
   for (let d = k.dMin; d <= k.dMax; d++) {
     let y = Q;
     if (!floorMode) {
@@ -167,15 +128,6 @@ export function scanAll(
       minError = e;
       minCode = d + offsetCode;
     }
-    if (exact !== undefined) {
-      const ref = callReference(exact, d + offsetCode) / unit;
-      const t = Math.abs(y - ref);
-      if (t > totalMax) {
-        totalMax = t;
-        totalCode = d + offsetCode;
-      }
-      if (Math.abs(ref) > referenceMagnitude) referenceMagnitude = Math.abs(ref);
-    }
     rem += rM;
     Q += qM;
     if (rem >= T) {
@@ -189,8 +141,5 @@ export function scanAll(
     minError,
     minCode,
     count: k.dMax - k.dMin + 1,
-    totalMax,
-    totalCode,
-    referenceMagnitude,
   };
 }

@@ -16,7 +16,6 @@
  * some 10^−29 of the map's magnitude, is added likewise.
  */
 import { twoProduct } from '@bridgework/core';
-import { callReference } from './codes.js';
 import type { FloatProgram } from './floatEval.js';
 
 /** The exact map in double-double form. */
@@ -33,9 +32,6 @@ export interface FloatScanResult {
   maxError: number;
   maxCode: number;
   count: number;
-  /** Against the caller's reference: largest |ŷ − exact(code)| and its code. */
-  totalMax: number;
-  totalCode: number;
   /** A non-finite result was met at this code (overflow), or undefined. */
   nonFiniteCode: number | undefined;
 }
@@ -48,7 +44,6 @@ export function scanFloat(
   program: FloatProgram,
   ref: ReferenceMap,
   codes: { readonly codeMin: number; readonly codeMax: number } | readonly number[],
-  exact: ((code: number) => number) | undefined,
 ): FloatScanResult {
   const list = Array.isArray(codes) ? (codes as readonly number[]) : undefined;
   const first = list === undefined ? (codes as { codeMin: number }).codeMin : 0;
@@ -68,8 +63,6 @@ export function scanFloat(
   const offsetLo = ref.offsetLo;
   let maxError = -Infinity;
   let maxCode = 0;
-  let totalMax = -Infinity;
-  let totalCode = 0;
   for (let i = 0; i < count; i++) {
     const code = list === undefined ? first + i : (list[i] as number);
     // The firmware's evaluation, operation for operation (floatEval.ts).
@@ -125,19 +118,12 @@ export function scanFloat(
     }
     const e = Math.abs(y - rh - rl);
     if (!(e <= Number.MAX_VALUE)) {
-      return { maxError, maxCode, count: i, totalMax, totalCode, nonFiniteCode: code };
+      return { maxError, maxCode, count: i, nonFiniteCode: code };
     }
     if (e > maxError) {
       maxError = e;
       maxCode = code;
     }
-    if (exact !== undefined) {
-      const t = Math.abs(y - callReference(exact, code));
-      if (t > totalMax) {
-        totalMax = t;
-        totalCode = code;
-      }
-    }
   }
-  return { maxError, maxCode, count, totalMax, totalCode, nonFiniteCode: undefined };
+  return { maxError, maxCode, count, nonFiniteCode: undefined };
 }

@@ -17,6 +17,7 @@ const TRANSLITERATION: Readonly<Record<string, string>> = {
   Þ: 'Th',
   µ: 'u',
   μ: 'u',
+  ε: 'e',
   Ω: 'Ohm',
   '°': 'deg',
   '·': '.',

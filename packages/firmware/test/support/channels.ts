@@ -4,11 +4,12 @@
  * program that prints every evaluator's result for codes read from stdin.
  */
 import {
+  designFirmwareConstants,
   fixedPointMap,
   floatMap,
   type FirmwareChannel,
-  type FixedPointMap,
-  type FloatMap,
+  type FirmwareFixedMap,
+  type FirmwareFloatMap,
 } from '@bridgework/firmware';
 
 /** A 20-bit converter: small enough for exhaustive verification in milliseconds. */
@@ -104,9 +105,9 @@ export function testChannels(): FirmwareChannel[] {
 
 interface Driven {
   readonly identifier: string;
-  readonly fixed?: FixedPointMap | undefined;
-  readonly float32?: FloatMap | undefined;
-  readonly float64?: FloatMap | undefined;
+  readonly fixed?: FirmwareFixedMap | undefined;
+  readonly float32?: FirmwareFloatMap | undefined;
+  readonly float64?: FirmwareFloatMap | undefined;
 }
 
 /**
@@ -169,4 +170,35 @@ export function expectedLine(ch: Driven, code: number, codeMin: number, codeMax:
     parts.push(view.getBigUint64(0).toString(16).padStart(16, '0'));
   }
   return ` ${parts.join(' ')}`;
+}
+
+/**
+ * Two channels designed against exact maps (invented): a platinum-resistance-like curve over 12
+ * bits, and a quarter-bridge-like linear-fractional map read by a target that divides in hardware.
+ * Small, so the reviewed snapshot of their header stays readable.
+ */
+export function designedChannels(): FirmwareChannel[] {
+  const rtdLike = designFirmwareConstants({
+    name: 'Oven temperature',
+    exact: (c) => 250 * (c / 4096) + 12 * (c / 4096) ** 2 - 3 * (c / 4096) ** 3,
+    referenceError: { bound: 1e-12, source: 'three binary64 operations on values below 300 (test)' },
+    codeMin: 0,
+    codeMax: 4095,
+    quantityUnit: '°C',
+    targetError: 0.005,
+    outputUnit: '0.001',
+    maxTableBytes: 256,
+  });
+  const bridgeLike = designFirmwareConstants({
+    name: 'Strut strain',
+    exact: (c) => (2000 * (c / 2048)) / (1 + 0.08 * (c / 2048)),
+    codeMin: -2048,
+    codeMax: 2047,
+    quantityUnit: 'µε',
+    // So tight that the linear-fractional form, exact in shape, is the cheapest float64 function.
+    targetError: 1e-6,
+    types: ['float64'],
+    hardwareDivide: true,
+  });
+  return [rtdLike, bridgeLike];
 }

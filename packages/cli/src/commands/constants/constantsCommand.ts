@@ -56,13 +56,69 @@ export const constantsOptions = [
       'The evaluators to write, comma-separated: fixed (integer arithmetic), float32, float64. A Cortex-M4F, whose FPU has no double precision, wants fixed,float32.',
   },
   {
+    name: 'target-error',
+    type: 'string',
+    placeholder: 'value',
+    defaultText: 'max(u_c/10, one output step) per channel',
+    description:
+      "The total error each function must meet against the channel's exact map, in the channel's output unit: one number for every channel, or name=value entries (deck-temp=0.01,gusset-g2=0.5). The cheapest form meeting it is chosen; if none does, the command fails naming the best bound reached and writes nothing.",
+  },
+  {
+    name: 'output-step',
+    type: 'string',
+    placeholder: 'value',
+    defaultText: 'output.firmwareResolution, else a power of ten from the target and the span',
+    description:
+      "The fixed-point function's output step in the channel's output unit (its output counts these steps): one number, or name=value entries.",
+  },
+  {
+    name: 'test-program',
+    type: 'string',
+    placeholder: 'file',
+    description:
+      "Also write a small C99 program that checks the header's test vectors on the target (exact results and the stated total errors); it includes the header by the name of --out (or <prefix>_constants.h).",
+  },
+  {
+    name: 'hardware-divide',
+    type: 'boolean',
+    description:
+      'The target divides in hardware (a Cortex-M4F, for example): the linear-fractional (Moebius) form becomes a candidate for the float functions.',
+  },
+  {
+    name: 'accumulator-bits',
+    type: 'choice',
+    placeholder: 'bits',
+    choices: ['64', '32'],
+    default: '64',
+    description:
+      'Accumulator of the affine fixed-point form: 64 (a 32 x 32 -> 64-bit multiply, native on Cortex-M3/M4/M7) or 32 (32-bit operations only, for cores without that multiply such as a Cortex-M0+). Piecewise fixed-point forms always use 32-bit arithmetic.',
+  },
+  {
+    name: 'coefficient-bits',
+    type: 'integer',
+    placeholder: 'bits',
+    default: 32,
+    min: 8,
+    max: 32,
+    description: 'Width of the fixed-point coefficient words.',
+  },
+  {
+    name: 'max-table-bytes',
+    type: 'integer',
+    placeholder: 'bytes',
+    default: 4096,
+    min: 16,
+    max: 16777216,
+    description: 'The largest constant table one function may use.',
+  },
+  {
     name: 'verification',
     type: 'choice',
     placeholder: 'mode',
     choices: ['auto', 'exhaustive', 'sampled'],
     default: 'auto',
     description:
-      'How the error bounds are verified: every code of the span (exhaustive), an analytic bound checked on about 50 000 codes (sampled), or exhaustive up to 2^24 codes (auto).',
+      "How each function's total error is established: every code of the span evaluated and compared with the exact map (exhaustive: proved), about 50 000 codes plus the analytic arithmetic bound (sampled: measured), or exhaustive up to 2^24 codes (auto).",
   },
 ] as const satisfies readonly OptionSpec[];
 
@@ -72,9 +128,10 @@ export type ConstantsArgs = ParsedArgs<typeof constantsOptions, typeof constants
 /** `bridgework constants`: firmware constants of each channel. */
 export const constantsCommand = defineCommand({
   name: 'constants',
-  summary: 'Firmware constants of each channel as a C header or JSON, or its map as SQL.',
+  summary:
+    'Firmware constants of each channel as a C header or JSON, each function within a stated total error; or its map as SQL.',
   description:
-    'Writes the code-to-quantity map of each channel for firmware over its span of interest: a fixed-point map (integer multiply, add and shift on the minimax line of the exact map) and float32 and float64 Chebyshev polynomials, each with its proved rounding bound and its error against the exact channel map, as a C99 header (default) or as JSON. One header holds every selected channel; identifiers are the prefix and the channel name, so several channels and several headers can live in one firmware. The header and the JSON carry the safety caution.',
+    "Writes the code-to-quantity map of each channel for firmware over its span of interest: a fixed-point function (integer arithmetic only), a float32 and a float64 function, each the cheapest form (affine, piecewise polynomial with segments found by a shift, or linear-fractional where the target divides in hardware) whose total error against the channel's exact map meets the target, verified over every code of the span. The header states each function's total error (proved or measured), its parts, its table size and operation count, and carries test vectors; --test-program writes a C program that checks them on the target. A target that no form meets is an error, and nothing is written. One header holds every selected channel; identifiers are the prefix and the channel name. The header and the JSON carry the safety caution.",
   positionals: constantsArguments,
   options: constantsOptions,
   examples: [
@@ -85,6 +142,10 @@ export const constantsCommand = defineCommand({
     {
       command: 'bridgework constants hopper.yaml --types fixed,float32 -o hopper_m4f.h',
       description: 'Only the evaluators a Cortex-M4F runs fast.',
+    },
+    {
+      command: 'bridgework constants bath.yaml --target-error 0.01 -o bath.h --test-program bath_test.c',
+      description: 'Functions within 0.01 of the exact map, and a program that checks the test vectors.',
     },
     {
       command: 'bridgework constants hopper.yaml --format json',
