@@ -97,7 +97,7 @@ describe('the dependency table of DEVELOPERS.md', () => {
  */
 const knownCycles: Readonly<Record<string, readonly (readonly string[])[]>> = {
   // A command's definition loads its runner lazily, and the runner imports the command's argument
-  // type back; the CLI's owners are reworking its commands.
+  // type back. Owner: the CLI helper (worktree cli), reworking its commands.
   cli: [
     ['commands/constants/constantsCommand.ts', 'commands/constants/runConstants.ts'],
     ['commands/convert/convertCommand.ts', 'commands/convert/runConvert.ts'],

@@ -105,6 +105,15 @@ describe('the repository', () => {
     const performance = read('docs/performance.md');
     expect(performance).toContain(`**${CONVERSION_PATH_BUDGET_GZIP_BYTES / 1000} kB gzipped**`);
     expect(performance).toContain(`**${CONVERSION_PATH_TARGET_GZIP_BYTES / 1000} kB gzipped**`);
+    // The conversion-path rows of both tables are within it.
+    const rows = [
+      ...performance.matchAll(
+        /^\|\s*`?createChannel`? \+ `?convert`?[^|]*\|[^|]*\|\s*([\d.]+)(?: kB)?\s*\|/gm,
+      ),
+    ];
+    expect(rows).toHaveLength(2);
+    for (const m of rows)
+      expect(Number(m[1]) * 1000, m[0]).toBeLessThanOrEqual(CONVERSION_PATH_BUDGET_GZIP_BYTES);
   });
 
   it('pins development tools exactly, and gives runtime dependencies caret ranges from the tested version', () => {

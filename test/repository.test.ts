@@ -65,6 +65,28 @@ describe('workspace', () => {
     expect(rootPkg.type).toBe('module');
   });
 
+  it('CI installs on a clean Debian machine every program the tests run, and pnpm at the pinned version', () => {
+    const ci = read('.ci/run');
+    const apt = /^APT_PACKAGES=\(([^)]*)\)/m.exec(ci);
+    expect(apt, '.ci/run: APT_PACKAGES=( … )').not.toBeNull();
+    const listed = apt![1]!.split(/\s+/).filter((w) => w !== '' && !w.startsWith('#'));
+    // chromium (browser tests), pdftotext (printed report), host and Arm C compilers with their C
+    // libraries (firmware headers), the PostgreSQL server (SQL tests), tar (consumer test).
+    for (const p of [
+      'chromium',
+      'poppler-utils',
+      'gcc',
+      'libc6-dev',
+      'gcc-arm-none-eabi',
+      'libnewlib-arm-none-eabi',
+      'postgresql',
+      'tar',
+    ])
+      expect(listed, `.ci/run installs ${p}`).toContain(p);
+    expect(ci).toMatch(/^need_apt "\$\{APT_PACKAGES\[@\]\}"$/m); // unconditionally
+    expect(ci).toContain(`PNPM_VERSION=${rootPkg.packageManager!.replace('pnpm@', '')}`);
+  });
+
   it.each(packages)('package %s is ESM, side-effect free, exports source/types/default', (p) => {
     const j = pkg(p);
     expect(j.name).toBe(p === 'cli' ? 'bridgework' : `@bridgework/${p}`);

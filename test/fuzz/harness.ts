@@ -6,7 +6,7 @@
  * Nothing here imports a package's `src/`: the engine knows the packages only through the table of
  * base calls (calls/*.ts), which uses their public exports.
  */
-import { errorCodes, isBridgeworkError } from '@bridgework/core';
+import { errorCodes, isBridgeworkError, type SpecIssue } from '@bridgework/core';
 
 /** One valid call of a public function (or of a method of an evaluator a public function made). */
 export interface BaseCall {
@@ -35,6 +35,12 @@ export interface BaseCall {
   readonly fixed?: readonly string[];
   /** The function returns one of its arguments unchanged (a check): that value may come back as it is. */
   readonly passThrough?: boolean;
+  /**
+   * The first argument is a spec (a channel spec): its problems are gathered, each as an issue
+   * with its field path and code (an `invalid-spec` error, or `{ ok: false, issues }` from a
+   * validator), instead of the first one thrown as `unknown-option`.
+   */
+  readonly spec?: boolean;
 }
 
 /** An attack: a value put in place of one field. */
@@ -173,6 +179,8 @@ export type Outcome =
       readonly code: string;
       readonly param: string | undefined;
       readonly message: string;
+      /** The gathered problems of an `invalid-spec` error. */
+      readonly issues?: readonly SpecIssue[];
     }
   | { readonly kind: 'result'; readonly value: unknown }
   | { readonly kind: 'untyped'; readonly error: string };
@@ -189,7 +197,16 @@ export async function run(call: BaseCall, args: unknown[]): Promise<Outcome> {
     if (value instanceof Promise) value = await value;
     return { kind: 'result', value };
   } catch (e) {
-    if (isBridgeworkError(e)) return { kind: 'typed', code: e.code, param: e.param, message: e.message };
+    if (isBridgeworkError(e)) {
+      const issues = e.issues;
+      return {
+        kind: 'typed',
+        code: e.code,
+        param: e.param,
+        message: e.message,
+        ...(issues.length === 0 ? {} : { issues }),
+      };
+    }
     return { kind: 'untyped', error: describeError(e) };
   }
 }

@@ -4,10 +4,24 @@
  * failing case's text. The test fails when an entry no longer matches any failure: delete the
  * entry then (the defect is fixed).
  */
+/**
+ * Who fixes a listed defect: the helper owning the package (or the part of it) where it lies.
+ * Calibration, bridge, compensation and mechanics defects are not listed: they are fixed as found.
+ */
+export const defectOwners = {
+  firmware: 'helper B (firmware)',
+  uncertainty: 'helper C (uncertainty, chain)',
+  channel: 'helper G (channel)',
+} as const;
+
+export type DefectOwner = (typeof defectOwners)[keyof typeof defectOwners];
+
 export interface KnownDefect {
   /** The start of the case text (`function [variant]: path = attack`), or a pattern for it. */
   readonly cases: string | RegExp;
-  /** Who is fixing it, and where. */
+  /** Who is fixing it. */
+  readonly owner: DefectOwner;
+  /** What goes wrong, and where. */
   readonly note: string;
   /** Found by a seeded random case, which another seed may not draw: not checked for staleness. */
   readonly random?: boolean;
@@ -18,31 +32,24 @@ export function isKnown(finding: string, k: KnownDefect): boolean {
   return typeof k.cases === 'string' ? finding.startsWith(k.cases) : k.cases.test(finding);
 }
 
+const { channel } = defectOwners;
+
 export const knownDefects: readonly KnownDefect[] = [
-  // calibration (owner: the calibration helper)
-  { cases: 'createCertificateScale: 0.capacity = 1e308', note: 'calibration: loadPerRatio = Infinity' },
   {
-    cases: 'createCertificateScale: 0.ratedOutputVoltsPerVolt = 1e-308',
-    note: 'calibration: loadPerRatio = Infinity',
+    cases: /^defaultOutputUnit: 0 = /,
+    owner: channel,
+    note: "an unknown quantity is a TypeError (reading 'dimension' of undefined), not invalid-option",
   },
   {
-    cases: 'createCertificateScale: 0.calibrationGravityMetersPerSecondSquared = 1e308',
-    note: 'calibration: loadPerRatio = Infinity',
+    cases: /^parseQuantity: 1 = /,
+    owner: channel,
+    note: 'a unit that is not a string is a TypeError (text.trim), not wrong-type',
   },
   {
-    cases: 'createCertificateScale: 0.localGravityMetersPerSecondSquared = 1e-308',
-    note: 'calibration: loadPerRatio = Infinity',
+    cases: /^formatQuantity: 2 = /,
+    owner: channel,
+    note: 'digits outside 1…100 (or not a number) is a RangeError from toPrecision, not a typed error',
   },
-  {
-    cases: 'createCertificateScale().loadFromRatio: 0 = ',
-    note: 'calibration: a ratio near 1e306 gives Infinity',
-  },
-  { cases: 'fitSummingTrims: 0.cellOhms.2 = 1e-308', note: 'calibration: positionSpreadFraction = NaN' },
-  {
-    cases: 'createLoadCellClass().checkErrors: 0.errors.0 = 1e308',
-    note: 'calibration: rows[0].fractionOfMpe = Infinity',
-  },
-  { cases: 'fitTwoPoint().loadAt: 0 = 1e308', note: 'calibration: result Infinity' },
 ];
 
 /** Option objects that still accept a misspelt key, with their owner (same rule as above). */

@@ -25,7 +25,10 @@ import {
   run,
   withValue,
   type BaseCall,
+  type Outcome,
+  type Path,
 } from './harness.js';
+import type { SpecIssue } from '@bridgework/core';
 import { isKnown, knownDefects, knownOptionDefects, type KnownDefect } from './knownDefects.js';
 import type { FuzzFailure, FuzzJob, FuzzReport } from './worker.js';
 
@@ -105,11 +108,13 @@ describe('options rule: every options object refuses a misspelt key, naming the 
         const outcome = await run(c, withValue(c.args(), field.path, { ...obj, [typo]: obj[key] }));
         checked++;
         const ok =
-          outcome.kind === 'typed' &&
-          outcome.code === 'unknown-option' &&
-          outcome.param !== undefined &&
-          outcome.param.endsWith(typo) &&
-          outcome.message.includes(`\`${key}\``);
+          c.spec === true && field.path[0] === 0
+            ? specNamesTypo(outcome, field.path, typo)
+            : outcome.kind === 'typed' &&
+              outcome.code === 'unknown-option' &&
+              outcome.param !== undefined &&
+              outcome.param.endsWith(typo) &&
+              outcome.message.includes(`\`${key}\``);
         if (!ok) {
           const got = outcome.kind === 'typed' ? `${outcome.code}: ${outcome.message}` : outcome.kind;
           broken.push(`${label(c)}: ${pathText(field.path)} + '${typo}' → ${got}`);
@@ -125,6 +130,26 @@ describe('options rule: every options object refuses a misspelt key, naming the 
     expect(sortOut(allBroken, knownOptionDefects).stale).toEqual([]);
   });
 });
+
+/**
+ * A spec's misspelt field is an `unknown-option` issue at its own field path (`sensor.kidn`, or
+ * `channels.0.sensor.kidn` under a validator's path prefix), whether thrown in an `invalid-spec`
+ * error or returned by a validator, and it is the only problem.
+ */
+function specNamesTypo(outcome: Outcome, path: Path, typo: string): boolean {
+  const fieldPath = [...path.slice(1), typo].join('.');
+  let issues: readonly SpecIssue[] | undefined;
+  if (outcome.kind === 'typed' && outcome.code === 'invalid-spec') issues = outcome.issues;
+  if (outcome.kind === 'result' && typeof outcome.value === 'object' && outcome.value !== null) {
+    const v = outcome.value as { ok?: unknown; issues?: readonly SpecIssue[] };
+    if (v.ok === false) issues = v.issues;
+  }
+  return (
+    issues?.length === 1 &&
+    issues[0]!.code === 'unknown-option' &&
+    (issues[0]!.path === fieldPath || issues[0]!.path.endsWith(`.${fieldPath}`))
+  );
+}
 
 /** Starts the fuzz worker from TypeScript (tsx's loader registered first, as the uncertainty pool does). */
 function startWorker(job: FuzzJob): Worker {

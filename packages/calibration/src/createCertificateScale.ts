@@ -2,6 +2,7 @@ import {
   BridgeworkError,
   STANDARD_GRAVITY_METERS_PER_SECOND_SQUARED,
   checkFinite,
+  checkFiniteResult,
   checkOptions,
   checkOneOf,
   checkPositive,
@@ -112,7 +113,9 @@ const CONVENTIONAL_DENSITY = 8000;
  * @returns The scale.
  * @throws {@link @bridgework/core!BridgeworkError} `not-positive`, `not-finite`, `wrong-type` for bad
  *   numbers; `invalid-option` for an unknown unit; `missing-option` for a gravity that the units
- *   need; `out-of-range` for a zero rated output.
+ *   need; `out-of-range` for a zero rated output, or for options whose load per unit of output (or
+ *   capacity as a force) lies beyond the double range; `loadFromRatio` and `ratioFromLoad` refuse
+ *   (`out-of-range`, naming their argument) a result beyond it.
  * @example
  * ```ts
  * const scale = createCertificateScale({
@@ -185,27 +188,58 @@ export function createCertificateScale(options: CertificateScaleOptions): Certif
   const gravity = (param: string, why: string): number =>
     checkPositive(param, requireOption(param, o[param] as number | undefined, why));
 
+  // Every figure of the scale is finite: a product or quotient beyond the double range is refused
+  // against the option the caller gave (capacity 1e308 kg, a rated output of 1e-308 V/V).
   let capacityNewtons: number;
   if (capacityUnit === 'newton') capacityNewtons = capacity;
-  else if (capacityUnit === 'kilogram-force')
-    capacityNewtons = capacity * STANDARD_GRAVITY_METERS_PER_SECOND_SQUARED;
-  else {
-    const g = gravity('calibrationGravityMetersPerSecondSquared', "for capacityUnit 'kilogram'");
-    capacityNewtons = capacity * g * conventionalFactor * airFactor;
+  else if (capacityUnit === 'kilogram-force') {
+    capacityNewtons = checkFiniteResult(capacity * STANDARD_GRAVITY_METERS_PER_SECOND_SQUARED, {
+      what: 'the capacity as a force',
+      param: 'capacity',
+      value: capacity,
+    });
+  } else {
+    const param = 'calibrationGravityMetersPerSecondSquared';
+    const g = gravity(param, "for capacityUnit 'kilogram'");
+    capacityNewtons = checkFiniteResult(capacity * g * conventionalFactor * airFactor, {
+      what: 'the capacity as a force (capacity × calibration gravity)',
+      // The larger of the two factors is the one out of its range.
+      param: capacity >= g ? 'capacity' : param,
+      value: capacity >= g ? capacity : g,
+    });
   }
-  const capacityInOutput =
-    outputUnit === 'newton'
-      ? capacityNewtons
-      : capacityNewtons /
-        (gravity('localGravityMetersPerSecondSquared', "for outputUnit 'kilogram'") * conventionalFactor);
-  const loadPerRatio = capacityInOutput / ratedOutput;
+  let capacityInOutput = capacityNewtons;
+  if (outputUnit === 'kilogram') {
+    const param = 'localGravityMetersPerSecondSquared';
+    const g = gravity(param, "for outputUnit 'kilogram'");
+    capacityInOutput = checkFiniteResult(capacityNewtons / (g * conventionalFactor), {
+      what: 'the capacity as a mass at the site (capacity ÷ local gravity)',
+      param,
+      value: g,
+    });
+  }
+  const loadPerRatio = checkFiniteResult(capacityInOutput / ratedOutput, {
+    what: 'the load per unit of output (capacity ÷ rated output)',
+    param: 'ratedOutputVoltsPerVolt',
+    value: ratedOutput,
+  });
 
   return {
     outputUnit,
     zeroRatio,
     loadPerRatio,
     capacityNewtons,
-    loadFromRatio: (ratio: number) => loadPerRatio * (checkFinite('ratio', ratio) - zeroRatio),
-    ratioFromLoad: (load: number) => zeroRatio + checkFinite('load', load) / loadPerRatio,
+    loadFromRatio: (ratio: number) =>
+      checkFiniteResult(loadPerRatio * (checkFinite('ratio', ratio) - zeroRatio), {
+        what: 'the load',
+        param: 'ratio',
+        value: ratio,
+      }),
+    ratioFromLoad: (load: number) =>
+      checkFiniteResult(zeroRatio + checkFinite('load', load) / loadPerRatio, {
+        what: 'the output ratio',
+        param: 'load',
+        value: load,
+      }),
   };
 }

@@ -1,5 +1,6 @@
 import {
   BridgeworkError,
+  checkFiniteResult,
   checkInteger,
   checkOptions,
   checkOneOf,
@@ -308,7 +309,11 @@ export function createLoadCellClass(options: LoadCellClassOptions): LoadCellClas
           load,
           error,
           mpe: limit,
-          fractionOfMpe: Math.abs(error) / limit,
+          fractionOfMpe: checkFiniteResult(Math.abs(error) / limit, {
+            what: 'its share of the mpe',
+            param: `errors[${i}]`,
+            value: error,
+          }),
           ok: within(error, limit),
         };
       });

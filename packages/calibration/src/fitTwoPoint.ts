@@ -1,4 +1,4 @@
-import { BridgeworkError, checkFinite, checkOptions, formatValue } from '@bridgework/core';
+import { BridgeworkError, checkFinite, checkFiniteResult, checkOptions, formatValue } from '@bridgework/core';
 
 /** Options of {@link fitTwoPoint}: a zero point and a span point. */
 export interface TwoPointFitOptions {
@@ -45,7 +45,9 @@ export interface TwoPointFit {
  * @param options - The zero and span points.
  * @returns The line and its two maps.
  * @throws {@link @bridgework/core!BridgeworkError} `not-finite`, `wrong-type` for a bad number;
- *   `singular` when the two loads or the two readings are equal (no line, or no inverse).
+ *   `singular` when the two loads or the two readings are equal (no line, or no inverse);
+ *   `out-of-range` when the changes, the slope or the offset lie beyond the double range (or the
+ *   slope underflows to 0), and from `readingAt`/`loadAt` for a result beyond it.
  * @example
  * ```ts
  * const line = fitTwoPoint({ zeroReading: 1.2e-5, spanLoad: 1000, spanReading: 2.0012e-3 });
@@ -74,11 +76,37 @@ export function fitTwoPoint(options: TwoPointFitOptions): TwoPointFit {
       );
     }
   }
-  const slope = (y1 - y0) / (x1 - x0);
+  // Every figure is finite and the slope is not zero: a change or quotient beyond the double range
+  // is refused against the option the caller gave.
+  const dx = checkFiniteResult(x1 - x0, { what: 'the load change', param: 'spanLoad', value: x1 });
+  const dy = checkFiniteResult(y1 - y0, { what: 'the reading change', param: 'spanReading', value: y1 });
+  const slope = checkFiniteResult(dy / dx, {
+    what: 'the slope (reading change per load change)',
+    param: 'spanLoad',
+    value: x1,
+  });
+  if (slope === 0) {
+    throw new BridgeworkError(
+      'out-of-range',
+      `\`spanReading\` must differ from the zero reading by a slope a double can hold over the load change ${formatValue(dx)}; got ${formatValue(y1)}`,
+      { param: 'spanReading', value: y1 },
+    );
+  }
+  const offset = checkFiniteResult(y0 - slope * x0, { what: 'the offset', param: 'zeroLoad', value: x0 });
   return {
     slope,
-    offset: y0 - slope * x0,
-    readingAt: (load: number) => y0 + slope * (checkFinite('load', load) - x0),
-    loadAt: (reading: number) => x0 + (checkFinite('reading', reading) - y0) / slope,
+    offset,
+    readingAt: (load: number) =>
+      checkFiniteResult(y0 + slope * (checkFinite('load', load) - x0), {
+        what: 'the reading',
+        param: 'load',
+        value: load,
+      }),
+    loadAt: (reading: number) =>
+      checkFiniteResult(x0 + (checkFinite('reading', reading) - y0) / slope, {
+        what: 'the load',
+        param: 'reading',
+        value: reading,
+      }),
   };
 }

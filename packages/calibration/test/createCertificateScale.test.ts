@@ -155,6 +155,34 @@ describe('createCertificateScale', () => {
     expect(() => createCertificateScale(options as never)).toThrowBridgeworkError(code, { param });
   });
 
+  // Issue 15 (fuzz): options whose scale overflows the double range read as Infinity before.
+  it.each([
+    ['capacity', { ...base, capacity: 1e308, capacityUnit: 'kilogram-force' }],
+    ['ratedOutputVoltsPerVolt', { ...base, ratedOutputVoltsPerVolt: 1e-308 }],
+    [
+      'capacity',
+      { ...base, capacity: 1e308, capacityUnit: 'kilogram', calibrationGravityMetersPerSecondSquared: 9.81 },
+    ],
+    [
+      'calibrationGravityMetersPerSecondSquared',
+      { ...base, capacityUnit: 'kilogram', calibrationGravityMetersPerSecondSquared: 1e308 },
+    ],
+    [
+      'localGravityMetersPerSecondSquared',
+      { ...base, outputUnit: 'kilogram', localGravityMetersPerSecondSquared: 1e-308 },
+    ],
+  ] as const)('refuses a scale beyond the double range, naming %s', (param, options) => {
+    expect(() => createCertificateScale(options as never)).toThrowBridgeworkError('out-of-range', { param });
+  });
+
+  it('refuses a load or ratio beyond the double range, naming the argument', () => {
+    const scale = createCertificateScale(base);
+    expect(() => scale.loadFromRatio(1e306)).toThrowBridgeworkError('out-of-range', { param: 'ratio' });
+    expect(() => scale.loadFromRatio(-1.7e308)).toThrowBridgeworkError('out-of-range', { param: 'ratio' });
+    const steep = createCertificateScale({ ...base, capacity: 1e-300 });
+    expect(() => steep.ratioFromLoad(1e300)).toThrowBridgeworkError('out-of-range', { param: 'load' });
+  });
+
   it('rejects a non-finite ratio or load in the maps', () => {
     const scale = createCertificateScale(base);
     expect(() => scale.loadFromRatio(Number.NaN)).toThrowBridgeworkError('not-finite', { param: 'ratio' });

@@ -180,6 +180,18 @@ describe('OIML R 60 error check, vmin and declaration', () => {
     expect(() => createLoadCellClass(options as never)).toThrowBridgeworkError(code, { param });
   });
 
+  // Issue 15 (fuzz): an error of 1e308 gave fractionOfMpe = Infinity.
+  it('refuses an error whose share of the mpe lies beyond the double range, naming it', () => {
+    expect(() => c3.checkErrors({ loads: [0, 1500], errors: [1e308, 0] })).toThrowBridgeworkError(
+      'out-of-range',
+      { param: 'errors[0]' },
+    );
+    // A large but representable share is reported, not refused.
+    const check = c3.checkErrors({ loads: [0, 1500], errors: [1e300, 0] });
+    expect(check.ok).toBe(false);
+    expect(check.value.largestFractionOfMpe).toBeNear(1e300 / c3.mpe(0), { rel: 1e-15 });
+  });
+
   it('rejects loads outside the measuring range and bad error arrays', () => {
     expect(() => c3.mpe(-1)).toThrowBridgeworkError('out-of-range', { param: 'load' });
     expect(() => c3.mpe(3000.5)).toThrowBridgeworkError('out-of-range', { param: 'load' });

@@ -64,6 +64,33 @@ describe('fitTwoPoint', () => {
     expect(() => fitTwoPoint(options as never)).toThrowBridgeworkError(code, { param });
   });
 
+  // Issue 15 (fuzz): a span load of 5e-324 gave slope = Infinity, a reading of 1e308 a load of Infinity.
+  it('refuses a line whose slope or offset lies beyond the double range, naming the option', () => {
+    const base = { zeroReading: 1.2e-5, spanLoad: 1000, spanReading: 2.0012e-3 };
+    expect(() => fitTwoPoint({ ...base, spanLoad: 5e-324 })).toThrowBridgeworkError('out-of-range', {
+      param: 'spanLoad',
+    });
+    expect(() => fitTwoPoint({ ...base, zeroLoad: -1e308, spanLoad: 1e308 })).toThrowBridgeworkError(
+      'out-of-range',
+      { param: 'spanLoad' },
+    );
+    expect(() =>
+      fitTwoPoint({ zeroReading: -1e308, spanReading: 1e308, spanLoad: 1 }),
+    ).toThrowBridgeworkError('out-of-range', { param: 'spanReading' });
+    // The slope underflows to 0: no inverse.
+    expect(() =>
+      fitTwoPoint({ zeroReading: 0, spanReading: 1e-300, spanLoad: 1e300 }),
+    ).toThrowBridgeworkError('out-of-range', { param: 'spanReading' });
+  });
+
+  it('refuses a reading or load beyond the double range, naming the argument', () => {
+    const line = fitTwoPoint({ zeroReading: 1.2e-5, spanLoad: 1000, spanReading: 2.0012e-3 });
+    expect(() => line.loadAt(1e308)).toThrowBridgeworkError('out-of-range', { param: 'reading' });
+    expect(() => line.readingAt(-1e308)).not.toThrow(); // 2e-6·(−1e308) is finite
+    const steep = fitTwoPoint({ zeroReading: 0, spanLoad: 1, spanReading: 1e300 });
+    expect(() => steep.readingAt(1e10)).toThrowBridgeworkError('out-of-range', { param: 'load' });
+  });
+
   it('rejects a non-finite load or reading in the maps', () => {
     const line = fitTwoPoint({ zeroReading: 0, spanLoad: 10, spanReading: 1 });
     expect(() => line.readingAt(Number.NaN)).toThrowBridgeworkError('not-finite', { param: 'load' });

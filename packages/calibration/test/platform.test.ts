@@ -6,7 +6,7 @@ import {
   fitSummingTrims,
   summingNetworkRatio,
 } from '@bridgework/calibration';
-import { junctionRatio } from './support/mnaSolve.js';
+import { junctionRatio } from './support/summingJunction.js';
 
 /**
  * An invented four-cell platform on a deck flexible enough that a load over one quarter goes
@@ -179,6 +179,23 @@ describe('fitSummingTrims (analog summing, corner adjustment)', () => {
       expect(differences[0]! / differences[1]!).toBeNear(4, { rel: 0.05 });
     });
   }
+
+  // Issue 15 (fuzz): a cell of 1e-308 Ω gave positionSpreadFraction = NaN.
+  it('refuses a cell resistance below 1 mΩ or above 1 TΩ, naming the cell', () => {
+    for (const [ohms, code] of [
+      [1e-308, 'out-of-range'],
+      [1e-4, 'out-of-range'],
+      [2e12, 'out-of-range'],
+      [0, 'not-positive'],
+    ] as const) {
+      expect(() =>
+        fitSummingTrims({
+          cellOhms: [350, 352, ohms, 351],
+          cellRatios: quarters.map((q) => ratiosAt(q, 1000)),
+        }),
+      ).toThrowBridgeworkError(code, { param: 'cellOhms[2]' });
+    }
+  });
 
   it('the least sensitive cell position is the untrimmed reference; refusals', () => {
     const trims = fitSummingTrims({ cellOhms, cellRatios: quarters.map((q) => ratiosAt(q, 1000)) });

@@ -54,11 +54,35 @@ export function editDistance(a: string, b: string): number {
 }
 
 /**
+ * Like {@link editDistance}, but two adjacent letters swapped count as one edit (the optimal
+ * string alignment distance): `ta` is one typo from `at`, `kidn` one from `kind`.
+ */
+function typoDistance(a: string, b: string): number {
+  let before: number[] = [];
+  let prev = Array.from({ length: b.length + 1 }, (_, j) => j);
+  for (let i = 1; i <= a.length; i++) {
+    const row = [i];
+    for (let j = 1; j <= b.length; j++) {
+      const cost = a[i - 1] === b[j - 1] ? 0 : 1;
+      let d = Math.min((prev[j] as number) + 1, (row[j - 1] as number) + 1, (prev[j - 1] as number) + cost);
+      if (i > 1 && j > 1 && a[i - 1] === b[j - 2] && a[i - 2] === b[j - 1]) {
+        d = Math.min(d, (before[j - 2] as number) + 1);
+      }
+      row.push(d);
+    }
+    before = prev;
+    prev = row;
+  }
+  return prev[b.length] as number;
+}
+
+/**
  * The known name closest to a mistyped one, if it is close enough to be a likely typo.
  *
  * @remarks
  * A name counts as a likely typo when it differs only in letter case, or is at most two edits
- * away and fewer edits than half its length plus one. Names longer than 64 characters are not
+ * away and fewer edits than half its length plus one (an edit: a letter inserted, deleted or
+ * replaced, or two adjacent letters swapped). Names longer than 64 characters are not
  * compared (nobody mistypes those; it bounds the work).
  *
  * @param given - The name as written (a string).
@@ -100,7 +124,7 @@ export function closestName(given: string, known: readonly string[]): string | u
   let bestDistance = Infinity;
   for (const k of known) {
     if (k.length > 64) continue;
-    const d = editDistance(given, k);
+    const d = typoDistance(given, k);
     if (d < bestDistance) {
       best = k;
       bestDistance = d;

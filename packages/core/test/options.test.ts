@@ -68,6 +68,11 @@ describe('closestName', () => {
     expect(closestName('whiteDensty', ['whiteDensity', 'cornerHertz'])).toBe('whiteDensity');
     expect(closestName('GAIN', ['gain', 'bits'])).toBe('gain');
     expect(closestName('xyz', ['whiteDensity'])).toBeUndefined();
+    // Two adjacent letters swapped are one typo (optimal string alignment), even in a short name.
+    expect(closestName('ta', ['at', 'monteCarlo', 'limits'])).toBe('at');
+    expect(closestName('kidn', ['kind', 'name'])).toBe('kind');
+    expect(closestName('ab', ['cd'])).toBeUndefined();
+    expect(editDistance('ta', 'at')).toBe(2); // editDistance itself stays Levenshtein
     expect(closestName('a'.repeat(10_000), ['a'])).toBeUndefined();
   });
 });

@@ -1,6 +1,6 @@
 import type { BaseCall } from '../harness.js';
 
-type Extra = Pick<BaseCall, 'nonFinite' | 'maps' | 'fixed' | 'variant'>;
+type Extra = Pick<BaseCall, 'nonFinite' | 'maps' | 'fixed' | 'variant' | 'spec'>;
 type Exports = Record<string, unknown>;
 
 function exported(pkg: string, exports: Exports, name: string): (...args: unknown[]) => unknown {

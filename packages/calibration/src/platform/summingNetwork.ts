@@ -15,7 +15,7 @@ export type TrimPlacement = 'positive-excitation' | 'both-excitation';
 
 /** The topology of an analog summing junction (shared by the summing-network functions). */
 export interface SummingNetworkOptions {
-  /** Each cell's bridge resistance R_i in Ω (> 0): four arms of R_i at zero load. One entry per cell. */
+  /** Each cell's bridge resistance R_i in Ω, 1 mΩ to 1 TΩ: four arms of R_i at zero load. One entry per cell. */
   readonly cellOhms: readonly number[];
   /**
    * `'both-excitation'` (default): the trim is split equally between the cell's +E and −E leads,
@@ -85,7 +85,7 @@ function meterOhmsChecked(ohms: number): number {
 
 function readNetwork(o: Record<string, unknown>): Network {
   const cellOhms = checkBoundedArray('cellOhms', o['cellOhms']).map((r, i) =>
-    checkRange(`cellOhms[${i}]`, checkPositive(`cellOhms[${i}]`, r), { max: 1e12 }),
+    checkRange(`cellOhms[${i}]`, checkPositive(`cellOhms[${i}]`, r), { min: 1e-3, max: 1e12 }),
   );
   if (cellOhms.length < 2) {
     throw new BridgeworkError(
