@@ -101,6 +101,7 @@ export const constants: Partial<Record<LibraryPackage, readonly string[]>> = {
   ],
   channel: [
     'BUDGET_CAUTION',
+    'CHANNEL_MAP_RELATIVE_ACCURACY',
     'MAX_BUDGET_TRIALS',
     'dimensionTable',
     'dimensions',

@@ -32,14 +32,9 @@ export function isKnown(finding: string, k: KnownDefect): boolean {
   return typeof k.cases === 'string' ? finding.startsWith(k.cases) : k.cases.test(finding);
 }
 
-const { firmware, channel } = defectOwners;
+const { channel } = defectOwners;
 
 export const knownDefects: readonly KnownDefect[] = [
-  {
-    cases: 'emitSql: 1.keepColumns = ',
-    owner: firmware,
-    note: 'a non-array keepColumns is a TypeError (keep.map)',
-  },
   {
     cases: /^defaultOutputUnit: 0 = /,
     owner: channel,

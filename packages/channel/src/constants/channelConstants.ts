@@ -25,6 +25,7 @@ import {
 } from '@bridgework/firmware';
 import { channelBudget } from '../budget/channelBudget.js';
 import type { Channel } from '../Channel.js';
+import { channelInternals } from '../internal/makeChannel.js';
 
 /**
  * The relative accuracy the channel states for its binary64 map `quantityFromCode` against
@@ -209,6 +210,7 @@ function inChannelTerms<T>(step: () => T): T {
  * ```
  */
 export function channelConstants(channel: Channel, options: ConstantsOptions = {}): ChannelConstants {
+  channelInternals(channel); // a channel made by createChannel, or wrong-type
   const o = checkOptions('options', options, { known: KNOWN });
   const { codeMin, codeMax } = spanCodes(channel);
   const spanMagnitude = Math.max(Math.abs(channel.span.min), Math.abs(channel.span.max));
