@@ -125,13 +125,15 @@ describe('a 50 MB raw file', () => {
     };
     // Peak RSS depends on when V8's collector runs, which a loaded machine (the full suite on two
     // cores) delays: past the bound once, the pair is measured again and the better run counts.
-    // Memory that grows with the file fails both runs (the whole file's values are 94 MB more).
+    // Memory that grows with the file fails both runs (the whole file's values are 94 MB more; the
+    // bound is under half of that: the WebAssembly heap of the Parquet writer keeps the pages it
+    // grew to, measured 20–33 MB more for four times the row groups on a loaded machine).
     let m = await measure(1);
-    if (m.difference >= 24 * MB) {
+    if (m.difference >= 40 * MB) {
       const again = await measure(2);
       if (again.difference < m.difference) m = again;
     }
-    expect(m.difference).toBeLessThan(24 * MB);
+    expect(m.difference).toBeLessThan(40 * MB);
     expect(m.whole).toBeLessThan(192 * MB);
   });
 

@@ -101,7 +101,10 @@ describe('a sensor kind known only to a kit runs through every command', () => {
   it('constants writes a C header for it', async () => {
     const r = await run('constants', path, '--verification', 'sampled');
     expect(r.code).toBe(exitCodes.ok);
-    expect(r.stdout).toMatch(/#define BRIDGEWORK_FILM_F64_C0 /);
+    // Every evaluator is written for the kit's kind, each with its stated total error.
+    for (const type of ['FIXED', 'F32', 'F64'])
+      expect(r.stdout).toMatch(new RegExp(`#define BRIDGEWORK_FILM_${type}_TOTAL_ERROR \\d`));
+    expect(r.stdout).toMatch(/static inline double bridgework_film_f64\(int32_t code\)/);
   });
 
   it('uncertainty runs the channel package’s Monte Carlo on it', async () => {
