@@ -9,7 +9,7 @@ import type { FloatMobiusMap } from './floatMobiusMap.js';
 import type { FloatPiecewiseMap } from './floatPiecewiseMap.js';
 import { emitModel, type EmittedChannel } from './internal/channels.js';
 import { doubleLiteral, floatLiteral, intLiteral } from './internal/cLiterals.js';
-import { block, costText, INDENT, ownErrorText, totalText, unitText } from './internal/cText.js';
+import { block, cFloatType, costText, INDENT, ownErrorText, totalText, unitText } from './internal/cText.js';
 import { commentText } from './internal/text.js';
 import { segmentCodesUnchecked } from './piecewisePolynomial.js';
 import type { FixedPointRounding } from './roundShift.js';
@@ -249,7 +249,7 @@ function fixedPiecewiseSection(prefix: string, ch: EmittedChannel, map: FixedPie
 function floatSection(prefix: string, ch: EmittedChannel, map: FloatMap): string[] {
   const type = map.precision;
   const { P, fn } = names(prefix, ch, type);
-  const T = type === 'float32' ? 'float' : 'double';
+  const T = cFloatType(type);
   const lit = type === 'float32' ? floatLiteral : doubleLiteral;
   const unit = unitText(ch.quantityUnit);
   const total = ch.totals[type];
@@ -302,7 +302,7 @@ function floatSection(prefix: string, ch: EmittedChannel, map: FloatMap): string
 function floatPiecewiseSection(prefix: string, ch: EmittedChannel, map: FloatPiecewiseMap): string[] {
   const type = map.precision;
   const { P, fn } = names(prefix, ch, type);
-  const T = type === 'float32' ? 'float' : 'double';
+  const T = cFloatType(type);
   const lit = (x: number) => (type === 'float32' ? floatLiteral(x, false) : doubleLiteral(x, false));
   const unit = unitText(ch.quantityUnit);
   const n = map.degree;
@@ -345,7 +345,7 @@ function floatPiecewiseSection(prefix: string, ch: EmittedChannel, map: FloatPie
 function mobiusSection(prefix: string, ch: EmittedChannel, map: FloatMobiusMap): string[] {
   const type = map.precision;
   const { P, fn } = names(prefix, ch, type);
-  const T = type === 'float32' ? 'float' : 'double';
+  const T = cFloatType(type);
   const lit = type === 'float32' ? floatLiteral : doubleLiteral;
   const one = type === 'float32' ? '1.0f' : '1.0';
   const unit = unitText(ch.quantityUnit);

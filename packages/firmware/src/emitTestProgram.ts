@@ -2,7 +2,7 @@ import { BridgeworkError, formatValue } from '@bridgework/core';
 import type { EmitOptions } from './emitOptions.js';
 import { FIRMWARE_CAUTION } from './emitCHeader.js';
 import { emitModel, type EmittedChannel } from './internal/channels.js';
-import { INDENT } from './internal/cText.js';
+import { cFloatType, INDENT } from './internal/cText.js';
 import { FIRMWARE_GENERATOR_VERSION } from './version.js';
 import { readOptions } from './internal/codes.js';
 
@@ -44,7 +44,7 @@ function channelCheck(prefix: string, ch: EmittedChannel): string[] {
     ['float64', 'F64', 'bits64', 'f64_bits'],
   ] as const) {
     if (ch[type] === undefined) continue;
-    const T = type === 'float32' ? 'float' : 'double';
+    const T = cFloatType(type);
     out.push(
       `${INDENT}${INDENT}{`,
       `${INDENT}${INDENT}${INDENT}const ${T} y = ${id}_${tag.toLowerCase()}(v->code);`,

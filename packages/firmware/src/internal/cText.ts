@@ -11,6 +11,11 @@ import { commentText } from './text.js';
 
 export const INDENT = '    ';
 
+/** The C type of a float evaluator: `float` for float32, `double` for float64. */
+export function cFloatType(precision: 'float32' | 'float64'): 'float' | 'double' {
+  return precision === 'float32' ? 'float' : 'double';
+}
+
 /** A bound rounded upward to 6 significant digits. */
 export function bound(x: number): string {
   return boundString(rationalFromNumber(x));
