@@ -116,7 +116,13 @@ export function createThermalOutput(options: ThermalOutputOptions): ThermalOutpu
     gaugeFactor,
     rangeCelsius,
     apparentStrainAt(temperatureCelsius: number, gaugeFactorSetting?: number): number {
-      const t = checkRange('temperatureCelsius', temperatureCelsius, limits);
+      // In range, one comparison each (this runs per Monte Carlo trial); otherwise the full check throws.
+      const t =
+        typeof temperatureCelsius === 'number' &&
+        temperatureCelsius >= limits.min &&
+        temperatureCelsius <= limits.max
+          ? temperatureCelsius
+          : checkRange('temperatureCelsius', temperatureCelsius, limits);
       let sum = 0;
       for (let i = coefficients.length - 1; i >= 0; i--) sum = sum * t + (coefficients[i] as number);
       if (!(Math.abs(sum) < 1e6)) {
