@@ -20,10 +20,12 @@ import {
 } from './arrangements.js';
 import {
   armLayout,
+  COMPLETION_OHMS,
+  OHMS_PER_LEAD,
+  SERIES_OHMS,
   D0,
   D1,
   D2,
-  fillRational,
   quotient,
   K0,
   K1,
@@ -33,6 +35,8 @@ import {
   N1,
   N2,
   RATIONAL_LENGTH,
+  fillRational,
+  layoutVector,
   seriesOhmsOf,
   solveRational,
   strainLimits,
@@ -281,7 +285,10 @@ export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
   const multipliers = layout.multipliers;
   const seriesOhms = seriesOhmsOf(layout, sourceOhms, ohmsPerLead);
   const c = new Float64Array(RATIONAL_LENGTH);
-  fillRational(c, layout, gaugeOhms, gaugeFactor, completionOhms, ohmsPerLead, seriesOhms);
+  c[COMPLETION_OHMS] = completionOhms;
+  c[OHMS_PER_LEAD] = ohmsPerLead;
+  c[SERIES_OHMS] = seriesOhms;
+  fillRational(c, layoutVector(layout, gaugeOhms, gaugeFactor));
   const numerator: Quad = [c[N0] as number, c[N1] as number, c[N2] as number];
   const denominator: Quad = [c[D0] as number, c[D1] as number, c[D2] as number];
   const armOhms = (i: number, e: number): number =>

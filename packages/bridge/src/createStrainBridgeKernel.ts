@@ -21,8 +21,12 @@ import {
 } from './arrangements.js';
 import {
   armLayout,
-  fillRational,
+  COMPLETION_OHMS,
+  OHMS_PER_LEAD,
+  SERIES_OHMS,
   RATIONAL_LENGTH,
+  fillRational,
+  layoutVector,
   ratioOfRational,
   seriesOhmsOf,
   solveRational,
@@ -154,6 +158,7 @@ export function createStrainBridgeKernel(options: StrainBridgeKernelOptions): St
   const layout = armLayout(info, needsPoisson ? checkedPoisson : undefined, wiring);
   const [lo, hi] = strainLimits(layout, gaugeFactor);
   const c = new Float64Array(RATIONAL_LENGTH);
+  const v = layoutVector(layout, gaugeOhms, gaugeFactor);
   const k = gaugeOhms * gaugeFactor;
   const m = layout.multipliers;
   const leads = layout.leadsInArms;
@@ -173,22 +178,17 @@ export function createStrainBridgeKernel(options: StrainBridgeKernelOptions): St
 
   // The coefficients of the last resistances: a second call with the same ones (a zero reading
   // and a load reading of one trial) reuses them.
-  let lastCompletion = Number.NaN;
-  let lastLead = Number.NaN;
+  // (Kept in a typed array: a double written to a closure variable is boxed, one allocation per write.)
+  const last = Float64Array.of(Number.NaN, Number.NaN);
   function coefficients(completionOhms: number, ohmsPerLead: number): void {
-    if (completionOhms === lastCompletion && ohmsPerLead === lastLead) return;
+    if (completionOhms === last[0] && ohmsPerLead === last[1]) return;
     if (!inRange(completionOhms, ohmsPerLead)) checkResistances(completionOhms, ohmsPerLead);
-    fillRational(
-      c,
-      layout,
-      gaugeOhms,
-      gaugeFactor,
-      completionOhms,
-      ohmsPerLead,
-      seriesOhmsOf(layout, sourceOhms, ohmsPerLead),
-    );
-    lastCompletion = completionOhms;
-    lastLead = ohmsPerLead;
+    c[COMPLETION_OHMS] = completionOhms;
+    c[OHMS_PER_LEAD] = ohmsPerLead;
+    c[SERIES_OHMS] = seriesOhmsOf(layout, sourceOhms, ohmsPerLead);
+    fillRational(c, v);
+    last[0] = completionOhms;
+    last[1] = ohmsPerLead;
   }
 
   function checkStrain(strain: number): number {
@@ -201,6 +201,15 @@ export function createStrainBridgeKernel(options: StrainBridgeKernelOptions): St
     );
   }
 
+  // Out of line, so the hot paths stay small enough to be inlined into their callers.
+  function noStrain(ratio: number, completionOhms: number, ohmsPerLead: number): never {
+    throw new BridgeworkError(
+      'ratio-out-of-range',
+      `\`ratio\` must be one a '${arrangement}' bridge gives with ${formatValue(completionOhms)} Ω completion and ${formatValue(ohmsPerLead)} Ω per lead (a strain in (${lo}, ${hi})); got ${formatValue(ratio)}`,
+      { param: 'ratio', value: ratio },
+    );
+  }
+
   return {
     arrangement,
     strainRange: { min: lo, max: hi },
@@ -209,11 +218,7 @@ export function createStrainBridgeKernel(options: StrainBridgeKernelOptions): St
       if (typeof ratio !== 'number' || !Number.isFinite(ratio)) checkFinite('ratio', ratio);
       const strain = solveRational(c, ratio, lo, hi);
       if (strain > lo && strain < hi) return strain;
-      throw new BridgeworkError(
-        'ratio-out-of-range',
-        `\`ratio\` must be one a '${arrangement}' bridge gives with ${formatValue(completionOhms)} Ω completion and ${formatValue(ohmsPerLead)} Ω per lead (a strain in (${lo}, ${hi})); got ${formatValue(ratio)}`,
-        { param: 'ratio', value: ratio },
-      );
+      return noStrain(ratio, completionOhms, ohmsPerLead);
     },
     ratioFromStrain(strain, completionOhms, ohmsPerLead) {
       coefficients(completionOhms, ohmsPerLead);

@@ -110,47 +110,68 @@ export const M0 = 6;
 export const M1 = 7;
 export const K0 = 8;
 export const K1 = 9;
+/** The inputs of {@link fillRational}: completion resistance, one lead, resistance in series with the excitation (Ω). */
+export const COMPLETION_OHMS = 10;
+export const OHMS_PER_LEAD = 11;
+export const SERIES_OHMS = 12;
 /** Length of a coefficient vector. */
-export const RATIONAL_LENGTH = 10;
+export const RATIONAL_LENGTH = 13;
+
+/** The constants of a layout as one vector (see {@link layoutVector}): multipliers, gauge flags (1/0), leads per arm. */
+export type LayoutVector = Float64Array;
+
+/**
+ * Packs a layout's constants and the gauges into a vector for {@link fillRational}: s1…s4, 1/0 for
+ * a gauge in each arm, the leads in each arm, the gauge resistance and the gauge factor.
+ */
+export function layoutVector(l: ArmLayout, gaugeOhms: number, gaugeFactor: number): LayoutVector {
+  return Float64Array.from([
+    ...l.multipliers,
+    ...l.gauge.map((g) => (g ? 1 : 0)),
+    ...l.leadsInArms,
+    gaugeOhms,
+    gaugeFactor,
+  ]);
+}
 
 /**
  * Fills `c` with the exact map ratio(ε) = (n0 + n1ε + n2ε²)/(d0 + d1ε + d2ε²) (both in Ω²) and,
- * when it is linear-fractional, its lowest terms: with equal halves (R1 ≡ R3, R2 ≡ R4) the
- * factor R1 + R2 cancels, ratio = (R1 − R2)/(R1 + R2 + 2·Rser); otherwise it is linear-fractional
- * exactly when n2 = d2 = 0.
+ * when it is linear-fractional, its lowest terms: with equal halves (R1 ≡ R3, R2 ≡ R4) the factor
+ * R1 + R2 cancels, ratio = (R1 − R2)/(R1 + R2 + 2·Rser); otherwise it is linear-fractional exactly
+ * when n2 = d2 = 0. The resistances are read from `c` itself (slots {@link COMPLETION_OHMS},
+ * {@link OHMS_PER_LEAD}, {@link SERIES_OHMS}): a call with only typed arrays boxes no number, which
+ * matters where a Monte Carlo trial fills a vector per trial.
  */
-export function fillRational(
-  c: Float64Array,
-  l: ArmLayout,
-  gaugeOhms: number,
-  gaugeFactor: number,
-  completionOhms: number,
-  ohmsPerLead: number,
-  seriesOhms: number,
-): void {
-  const L = l.leadsInArms;
-  const s = l.multipliers;
-  const G = l.gauge;
-  const p1 = (G[0] ? gaugeOhms : completionOhms) + L[0] * ohmsPerLead;
-  const p2 = (G[1] ? gaugeOhms : completionOhms) + L[1] * ohmsPerLead;
-  const p3 = (G[2] ? gaugeOhms : completionOhms) + L[2] * ohmsPerLead;
-  const p4 = (G[3] ? gaugeOhms : completionOhms) + L[3] * ohmsPerLead;
+export function fillRational(c: Float64Array, v: LayoutVector): void {
+  const gaugeOhms = v[12] as number;
+  const gaugeFactor = v[13] as number;
+  const completionOhms = c[COMPLETION_OHMS] as number;
+  const ohmsPerLead = c[OHMS_PER_LEAD] as number;
+  const seriesOhms = c[SERIES_OHMS] as number;
+  const p1 = ((v[4] as number) === 1 ? gaugeOhms : completionOhms) + (v[8] as number) * ohmsPerLead;
+  const p2 = ((v[5] as number) === 1 ? gaugeOhms : completionOhms) + (v[9] as number) * ohmsPerLead;
+  const p3 = ((v[6] as number) === 1 ? gaugeOhms : completionOhms) + (v[10] as number) * ohmsPerLead;
+  const p4 = ((v[7] as number) === 1 ? gaugeOhms : completionOhms) + (v[11] as number) * ohmsPerLead;
   const k = gaugeOhms * gaugeFactor;
-  const g1 = k * s[0];
-  const g2 = k * s[1];
-  const g3 = k * s[2];
-  const g4 = k * s[3];
+  const g1 = k * (v[0] as number);
+  const g2 = k * (v[1] as number);
+  const g3 = k * (v[2] as number);
+  const g4 = k * (v[3] as number);
   const a0 = p1 + p2;
   const a1 = g1 + g2;
   const b0 = p3 + p4;
   const b1 = g3 + g4;
+  const n0 = differenceOfProducts(p1, p3, p2, p4);
+  const n1 = p1 * g3 + p3 * g1 - p2 * g4 - p4 * g2;
   const n2 = differenceOfProducts(g1, g3, g2, g4);
+  const d0 = a0 * b0 + seriesOhms * (a0 + b0);
+  const d1 = a0 * b1 + a1 * b0 + seriesOhms * (a1 + b1);
   const d2 = a1 * b1;
-  c[N0] = differenceOfProducts(p1, p3, p2, p4);
-  c[N1] = p1 * g3 + p3 * g1 - p2 * g4 - p4 * g2;
+  c[N0] = n0;
+  c[N1] = n1;
   c[N2] = n2;
-  c[D0] = a0 * b0 + seriesOhms * (a0 + b0);
-  c[D1] = a0 * b1 + a1 * b0 + seriesOhms * (a1 + b1);
+  c[D0] = d0;
+  c[D1] = d1;
   c[D2] = d2;
   if (p1 === p3 && g1 === g3 && p2 === p4 && g2 === g4) {
     c[M0] = p1 - p2;
@@ -158,10 +179,10 @@ export function fillRational(
     c[K0] = a0 + 2 * seriesOhms;
     c[K1] = a1;
   } else if (n2 === 0 && d2 === 0) {
-    c[M0] = c[N0] as number;
-    c[M1] = c[N1] as number;
-    c[K0] = c[D0] as number;
-    c[K1] = c[D1] as number;
+    c[M0] = n0;
+    c[M1] = n1;
+    c[K0] = d0;
+    c[K1] = d1;
   } else {
     c[M0] = Number.NaN;
   }
