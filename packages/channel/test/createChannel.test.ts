@@ -470,7 +470,9 @@ describe('a ratiometric converter and excitation.sourceOhms (issue 15: the sourc
     const stiff = at(0);
     const soft = at(25);
     // The ratio a converter referenced to the terminals reads: unchanged.
-    expect(soft.outputVolts / soft.bridgeVolts).toBeNear(stiff.outputVolts / stiff.bridgeVolts, { rel: 1e-14 });
+    expect(soft.outputVolts / soft.bridgeVolts).toBeNear(stiff.outputVolts / stiff.bridgeVolts, {
+      rel: 1e-14,
+    });
     // The bridge voltage: E·Rin/(Rin + Rs), Rin = (R1 + R2)(R3 + R4)/(R1 + R2 + R3 + R4). // circuit theory
     const rin = ((rg + 350) * 700) / (rg + 350 + 700);
     expect(soft.bridgeVolts).toBeNear((5 * rin) / (rin + 25), { rel: 1e-14 });

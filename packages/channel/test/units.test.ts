@@ -115,7 +115,9 @@ describe('typed errors at the unit helpers (issue 15, fuzz findings)', () => {
     expect(() => formatQuantity(1, 'V', 0)).toThrowBridgeworkError('out-of-range', { param: 'digits' });
     expect(() => formatQuantity(1, 'V', 101)).toThrowBridgeworkError('out-of-range', { param: 'digits' });
     expect(() => formatQuantity(1, 'V', 2.5)).toThrowBridgeworkError('not-integer', { param: 'digits' });
-    expect(() => formatQuantity(1, 'V', Number.NaN)).toThrowBridgeworkError('not-finite', { param: 'digits' });
+    expect(() => formatQuantity(1, 'V', Number.NaN)).toThrowBridgeworkError('not-finite', {
+      param: 'digits',
+    });
     expect(() => formatQuantity(1, 'V', '3' as unknown as number)).toThrowBridgeworkError('wrong-type', {
       param: 'digits',
     });
@@ -134,7 +136,9 @@ describe('typed errors at the unit helpers (issue 15, fuzz findings)', () => {
     expect(() => defaultOutputUnit('presure' as never)).toThrowBridgeworkError('invalid-option', {
       param: 'quantity',
     });
-    expect(() => defaultOutputUnit(0 as never)).toThrowBridgeworkError('invalid-option', { param: 'quantity' });
+    expect(() => defaultOutputUnit(0 as never)).toThrowBridgeworkError('invalid-option', {
+      param: 'quantity',
+    });
     // Every listed quantity has a unit of its dimension.
     for (const q of outputQuantities) expect(typeof defaultOutputUnit(q)).toBe('string');
     expect(defaultOutputUnit('pressure')).toBe('Pa');
