@@ -205,7 +205,7 @@ describe('check-certificate on the rope load cell', () => {
       /# from the certificate .*rope-certificate\.csv \(bridgework check-certificate, 2026-12-04\)\n {6}ratedOutputVoltsPerVolt: 0\.00200086/,
     );
     const loaded = await loadChannels(yaml, ['rope']);
-    const sensor = loaded.channels[0]!.channel.spec.sensor as Record<string, number>;
+    const sensor = loaded.channels[0]!.channel.spec.sensor as unknown as Record<string, number>;
     expect(sensor['ratedOutputVoltsPerVolt']).toBeNear(j.characteristics.sensitivity * 50, { rel: 1e-15 });
     expect(sensor['zeroBalanceVoltsPerVolt']).toBe(j.characteristics.zeroBalanceVoltsPerVolt);
     expect(sensor['certificateCelsius']).toBe(20);
