@@ -107,7 +107,6 @@ describe('the fixed-point step compiled to straight-line code', () => {
             const f = u.map((x, j) => x * fs[j]!);
             const r = hand.readings(f);
             let ia: number;
-            let ib: number;
             try {
               ia = compiled.solve(r, 0, a, 0);
             } catch (error) {
@@ -118,7 +117,7 @@ describe('the fixed-point step compiled to straight-line code', () => {
               expect((error as { code?: string }).code).toBe('not-converged');
               return;
             }
-            ib = loop.solve(r, 0, b, 0);
+            const ib = loop.solve(r, 0, b, 0);
             expect(ia).toBe(ib);
             counts.add(ia);
             for (let j = 0; j < c.m; j++) {
