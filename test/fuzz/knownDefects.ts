@@ -32,25 +32,7 @@ export function isKnown(finding: string, k: KnownDefect): boolean {
   return typeof k.cases === 'string' ? finding.startsWith(k.cases) : k.cases.test(finding);
 }
 
-const { channel } = defectOwners;
-
-export const knownDefects: readonly KnownDefect[] = [
-  {
-    cases: /^defaultOutputUnit: 0 = /,
-    owner: channel,
-    note: "an unknown quantity is a TypeError (reading 'dimension' of undefined), not invalid-option",
-  },
-  {
-    cases: /^parseQuantity: 1 = /,
-    owner: channel,
-    note: 'a unit that is not a string is a TypeError (text.trim), not wrong-type',
-  },
-  {
-    cases: /^formatQuantity: 2 = /,
-    owner: channel,
-    note: 'digits outside 1…100 (or not a number) is a RangeError from toPrecision, not a typed error',
-  },
-];
+export const knownDefects: readonly KnownDefect[] = [];
 
 /** Option objects that still accept a misspelt key, with their owner (same rule as above). */
 export const knownOptionDefects: readonly KnownDefect[] = [];

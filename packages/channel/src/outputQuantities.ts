@@ -1,3 +1,4 @@
+import { checkOneOf } from '@bridgework/core';
 import { fromBaseUnit } from './units/quantity.js';
 import { dimensionTable, type Dimension } from './units/unitTable.js';
 
@@ -41,8 +42,20 @@ export const outputQuantities: readonly OutputQuantity[] = Object.keys(
   outputQuantityTable,
 ) as OutputQuantity[];
 
-/** The unit a quantity's values are in when `output.unit` is not given: the dimension's SI unit. */
+/**
+ * The unit a quantity's values are in when `output.unit` is not given: the dimension's SI unit.
+ *
+ * @param quantity - One of {@link outputQuantities}.
+ * @returns The unit symbol (`'N'` for force, `'°C'` for temperature, `'m/m'` for strain).
+ * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for a quantity not in the table
+ *   (the message lists them).
+ * @example
+ * ```ts
+ * defaultOutputUnit('pressure'); // 'Pa'
+ * ```
+ */
 export function defaultOutputUnit(quantity: OutputQuantity): string {
+  checkOneOf('quantity', quantity, outputQuantities);
   return dimensionTable[outputQuantityTable[quantity].dimension].si;
 }
 

@@ -4,7 +4,8 @@ import { createStrainBridge } from '@bridgework/bridge';
 import { createAdc, type RatiometricAdc } from '@bridgework/chain';
 import { BridgeworkError } from '@bridgework/core';
 import { correctTemperatureEffects, createRtd, wireOhms } from '@bridgework/compensation';
-import { createChannel, type ChannelSpec } from '@bridgework/channel';
+import { createChannel, validateChannelSpec, type ChannelSpec } from '@bridgework/channel';
+import { solveBridgeNetwork } from '../../../test/support/nodal.js';
 import { D, X, arm1Ref, cvdTemperature, ratioFromCodeRef } from './support/reference.js';
 
 /** The minimal spec of issue #9, exactly as written there. */
@@ -434,5 +435,75 @@ describe('createChannel: codes that cannot be converted', () => {
     expect(ch.codeFromQuantity(-0.3)).toBe(-(2 ** 23));
     expect(() => ch.codeFromQuantity(-1)).toThrowBridgeworkError('out-of-range');
     expect(() => ch.codeFromQuantity(Infinity)).toThrowBridgeworkError('not-finite', { param: 'quantity' });
+  });
+});
+
+describe('a ratiometric converter and excitation.sourceOhms (issue 15: the source resistance was ignored silently)', () => {
+  it('refuses a source resistance with a ratiometric converter, at excitation.sourceOhms, saying why', () => {
+    const spec: ChannelSpec = { ...minimal, excitation: { volts: 5, sourceOhms: 10 } };
+    const e = caught(() => createChannel(spec));
+    expect(e.code).toBe('invalid-spec');
+    expect(e.issues).toHaveLength(1);
+    const issue = e.issues[0]!;
+    expect(issue).toMatchObject({ path: 'excitation.sourceOhms', code: 'conflicting-options', limit: '0 Ω' });
+    expect(issue.message).toMatch(/reference is the excitation at the instrument's terminals/);
+    expect(issue.message).toMatch(/does not change the ratio/);
+    expect(issue.message).toMatch(/got 10 Ω/);
+    expect(issue.suggestion).toMatch(/excitation\.volts/);
+    expect(issue.suggestion).toMatch(/adc\.ratiometric to false/);
+    // The same through the validator, as data.
+    const v = validateChannelSpec(spec);
+    expect(v.ok).toBe(false);
+    expect(v.ok ? [] : v.issues.map((i) => i.path)).toEqual(['excitation.sourceOhms']);
+    // An absolute reference sees the source resistance and models it (exact test above).
+    expect(() =>
+      createChannel({ ...spec, adc: { bits: 24, referenceVolts: 2.5, ratiometric: false } }),
+    ).not.toThrow();
+  });
+
+  it('why: in a nodal solve the ratio at the terminals is independent of the source resistance, the bridge voltage is not', () => {
+    // Quarter bridge at +1000 µε (GF 2.1, 350 Ω), EMF 5 V behind Rs; independent 40-digit nodal solve.
+    const rg = 350 * (1 + 2.1 * 1e-3);
+    const arms = [rg, 350, 350, 350] as const;
+    const at = (sourceOhms: number) =>
+      solveBridgeNetwork({ armsOhms: arms, excitationVolts: 5, sourceOhms, meterOhms: Infinity });
+    const stiff = at(0);
+    const soft = at(25);
+    // The ratio a converter referenced to the terminals reads: unchanged.
+    expect(soft.outputVolts / soft.bridgeVolts).toBeNear(stiff.outputVolts / stiff.bridgeVolts, {
+      rel: 1e-14,
+    });
+    // The bridge voltage: E·Rin/(Rin + Rs), Rin = (R1 + R2)(R3 + R4)/(R1 + R2 + R3 + R4). // circuit theory
+    const rin = ((rg + 350) * 700) / (rg + 350 + 700);
+    expect(soft.bridgeVolts).toBeNear((5 * rin) / (rin + 25), { rel: 1e-14 });
+    expect(soft.bridgeVolts).toBeLessThan(stiff.bridgeVolts * 0.94);
+    // What the refusal asks for: the terminal voltage as excitation.volts, sourceOhms 0. Its map
+    // agrees with the nodal ratio at the terminals.
+    const ch = createChannel({
+      ...minimal,
+      bridge: { arrangement: 'quarter', wiring: 'three-wire', ohmsPerLead: 0 },
+      excitation: { volts: soft.bridgeVolts },
+      adc: { bits: 24, referenceVolts: soft.bridgeVolts, ratiometric: true },
+    });
+    const ratio = soft.outputVolts / soft.bridgeVolts;
+    // Sign convention of docs/conventions.md: ratio = (V(S+) − V(S−))/E; a stretched R1 gives a positive ratio.
+    const code = ratio * 128 * 2 ** 23;
+    expect(ch.quantityFromCode(code)).toBeNear(1e-3, { rel: 1e-12 });
+  });
+
+  it('accepts a source resistance with remote sense (six-wire): the sensed excitation regulates it out, the map is unchanged', () => {
+    const base: ChannelSpec = {
+      sensor: { kind: 'transducer', capacity: '20 t', ratedOutputVoltsPerVolt: '2 mV/V' },
+      bridge: { wiring: 'six-wire' },
+      excitation: { volts: 5 },
+      amplifier: { gain: 128 },
+      adc: { bits: 24, referenceVolts: 5, ratiometric: true },
+      output: { quantity: 'mass', unit: 't' },
+    };
+    const a = createChannel(base);
+    const b = createChannel({ ...base, excitation: { volts: 5, sourceOhms: 10 } });
+    for (const code of [-4_000_000, -1, 0, 1, 1_234_567, 8_388_606]) {
+      expect(b.quantityFromCode(code)).toBe(a.quantityFromCode(code));
+    }
   });
 });

@@ -48,7 +48,7 @@ const full: ChannelSpec = {
     bits: 24,
     referenceVolts: 5,
     bipolar: true,
-    ratiometric: true,
+    ratiometric: false, // an absolute reference: it sees excitation.sourceOhms (refused with a ratiometric one)
     filter: { kind: 'sinc', order: 3, dataRateHertz: 10 },
     noiseRmsVolts: 2e-8,
   },

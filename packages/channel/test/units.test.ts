@@ -1,6 +1,13 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { dimensionTable, dimensions, formatQuantity, parseQuantity } from '@bridgework/channel';
+import {
+  defaultOutputUnit,
+  dimensionTable,
+  dimensions,
+  formatQuantity,
+  outputQuantities,
+  parseQuantity,
+} from '@bridgework/channel';
 
 describe('parseQuantity: the channel package’s table-driven units', () => {
   it('reads exact decimal factors exactly (one rounding of the exact product)', () => {
@@ -89,5 +96,52 @@ describe('parseQuantity: the channel package’s table-driven units', () => {
     expect(formatQuantity(30926.4, 'µε')).toBe('30926 µε');
     expect(formatQuantity(1.5e-7, 'V')).toBe('1.5e-7 V');
     expect(formatQuantity(0.35, '')).toBe('0.35');
+  });
+});
+
+describe('typed errors at the unit helpers (issue 15, fuzz findings)', () => {
+  it('parseQuantity: a unit that is not a string is wrong-type naming unit', () => {
+    for (const unit of [1, null, undefined, {}, [], Number.NaN]) {
+      expect(() => parseQuantity('350 Ω', unit as unknown as string)).toThrowBridgeworkError('wrong-type', {
+        param: 'unit',
+      });
+    }
+    expect(() => parseQuantity({} as unknown as string, 'Ω')).toThrowBridgeworkError('wrong-type', {
+      param: 'text',
+    });
+  });
+
+  it('formatQuantity: digits outside the integers 1…100 are typed errors naming digits', () => {
+    expect(() => formatQuantity(1, 'V', 0)).toThrowBridgeworkError('out-of-range', { param: 'digits' });
+    expect(() => formatQuantity(1, 'V', 101)).toThrowBridgeworkError('out-of-range', { param: 'digits' });
+    expect(() => formatQuantity(1, 'V', 2.5)).toThrowBridgeworkError('not-integer', { param: 'digits' });
+    expect(() => formatQuantity(1, 'V', Number.NaN)).toThrowBridgeworkError('not-finite', {
+      param: 'digits',
+    });
+    expect(() => formatQuantity(1, 'V', '3' as unknown as number)).toThrowBridgeworkError('wrong-type', {
+      param: 'digits',
+    });
+    expect(() => formatQuantity('1' as unknown as number, 'V')).toThrowBridgeworkError('wrong-type', {
+      param: 'value',
+    });
+    expect(() => formatQuantity(1, 3 as unknown as string)).toThrowBridgeworkError('wrong-type', {
+      param: 'unit',
+    });
+    // The ends of the range are accepted (toPrecision's own limits).
+    expect(formatQuantity(1.25, 'V', 1)).toBe('1 V');
+    expect(formatQuantity(0.5, 'V', 100)).toBe('0.5 V');
+  });
+
+  it('defaultOutputUnit: an unknown quantity is invalid-option naming quantity, listing the choices', () => {
+    expect(() => defaultOutputUnit('presure' as never)).toThrowBridgeworkError('invalid-option', {
+      param: 'quantity',
+    });
+    expect(() => defaultOutputUnit(0 as never)).toThrowBridgeworkError('invalid-option', {
+      param: 'quantity',
+    });
+    // Every listed quantity has a unit of its dimension.
+    for (const q of outputQuantities) expect(typeof defaultOutputUnit(q)).toBe('string');
+    expect(defaultOutputUnit('pressure')).toBe('Pa');
+    expect(defaultOutputUnit('temperature')).toBe('°C');
   });
 });

@@ -102,18 +102,18 @@ describe('nonsense designs that can be built are failed or flagged by the design
     );
   });
 
-  it('a source resistance of 1e12 Ω: flagged as outside its usual range, never a clean pass', async () => {
-    // The channel package's ratiometric model leaves the ratio and the noise unchanged by
-    // excitation.sourceOhms (the converter's reference is taken as the bridge's own excitation),
-    // so only the plausible-range check flags this design.
+  it('a source resistance of 1e12 Ω: refused with a ratiometric converter, never a clean pass', async () => {
+    // A ratiometric converter's reference is the excitation at the terminals: the source
+    // resistance only lowers the bridge voltage, which the channel asks for as excitation.volts.
     const path = edited(
       'source.yaml',
       'excitation: { volts: 2.5 V }',
       'excitation: { volts: 2.5 V, sourceOhms: 1e12 Ω }',
     );
     const r = await run('report', path, '--channel', 'gusset-g2');
-    expect(r.stdout).toMatch(
-      /^ {4}WARN {2}excitation\.sourceOhms in its usual range: excitation\.sourceOhms = 1e12 Ω lies outside the usual 0 … 100 Ω/m,
+    expect(r.code).toBe(exitCodes.badInput);
+    expect(r.stderr).toMatch(
+      /:\d+:\d+: channels\.gusset-g2\.excitation\.sourceOhms: must be 0 with a ratiometric converter, whose reference is the excitation at the instrument's terminals/,
     );
     expect(r.stdout).not.toMatch(/Every check passed/);
     // With an absolute reference the 1e12 Ω starves the bridge: refused, with what to check.

@@ -92,7 +92,9 @@ export function resolveChannel(spec: AnySpec, rules: ChannelRules): ResolvedChan
     poissonRatio: b.poissonRatio,
     wiring: b.wiring,
     // With a ratiometric converter the reference is the excitation at the instrument terminals
-    // (or at the bridge with remote sense), so the source resistance drops out of the ratio.
+    // (or at the bridge with remote sense), so the source resistance drops out of the ratio; the
+    // schema refuses one without remote sense (it would lower the bridge voltage, which the
+    // budget takes as excitation.volts), so it is 0 here unless remote sense regulates it out.
     sourceOhms: spec.adc.ratiometric ? 0 : spec.excitation.sourceOhms,
     zeroTemperatureCelsius: env.zeroTemperatureCelsius,
     quantity: spec.output.quantity,

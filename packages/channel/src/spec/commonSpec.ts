@@ -182,7 +182,12 @@ export function commonFields<const A extends string>(arrangements: readonly A[])
     excitation: objectField(
       {
         volts: numberField({ doc: 'Source EMF', unit: volts, min: 0, minExclusive: true }),
-        sourceOhms: numberField({ doc: 'Internal resistance of the source', unit: ohms, min: 0, default: 0 }),
+        sourceOhms: numberField({
+          doc: "Internal resistance of the source (an absolute reference sees it; must be 0 with a ratiometric converter unless bridge.wiring is 'six-wire')",
+          unit: ohms,
+          min: 0,
+          default: 0,
+        }),
         remoteSense: booleanField({
           doc: 'Excitation sensed at the bridge (six-wire)',
           derived: true,

@@ -2,7 +2,7 @@
  * Reading and writing quantities with units, from one table (unitTable.ts). No expression is
  * ever evaluated: a quantity is a decimal literal and a unit name, nothing else.
  */
-import { BridgeworkError, ZERO_CELSIUS_KELVIN, formatValue } from '@bridgework/core';
+import { BridgeworkError, ZERO_CELSIUS_KELVIN, checkInteger, formatValue } from '@bridgework/core';
 import { addDecimal, decimalToNumber, multiplyDecimal, parseDecimal, type Decimal } from './decimal.js';
 import { dimensionTable, dimensions, type Dimension, type UnitDefinition } from './unitTable.js';
 
@@ -235,8 +235,9 @@ export function readQuantity(
  * @param unit - The unit wanted (`'kg'`, `'Ω'`, `'V/V'`, `'°C'`...): any unit of the table.
  * @returns The value in `unit`.
  * @throws {@link @bridgework/core!BridgeworkError} `parse-error` (not a quantity, unknown unit),
- *   `wrong-type` (another dimension), `not-finite`, `out-of-range` (below absolute zero),
- *   `invalid-option` (`unit` not in the table).
+ *   `wrong-type` (another dimension; `text` neither a number nor a string, or `unit` not a
+ *   string), `not-finite`, `out-of-range` (below absolute zero), `invalid-option` (`unit` not in
+ *   the table).
  * @example
  * ```ts
  * parseQuantity('20 t', 'kg'); // 20000
@@ -255,9 +256,17 @@ export function parseQuantity(text: string | number, unit: string): number {
  * The dimension a unit symbol belongs to (the first in table order for symbols shared by two,
  * such as `K`: a temperature).
  *
- * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` for a unit not in the table.
+ * @throws {@link @bridgework/core!BridgeworkError} `wrong-type` for a unit that is not a string,
+ *   `invalid-option` for a unit not in the table.
  */
 export function dimensionOfUnit(unit: string): Dimension {
+  if (typeof unit !== 'string') {
+    throw new BridgeworkError(
+      'wrong-type',
+      `\`unit\` must be a unit symbol (a string such as 'kN' or '°C'); got ${formatValue(unit)}`,
+      { param: 'unit', value: unit },
+    );
+  }
   const found = unit === '' ? byDimension.get('fraction')?.get('') : anywhere.get(normalizeUnitText(unit));
   if (found === undefined) {
     throw new BridgeworkError(
@@ -326,8 +335,41 @@ export function formatSignificant(value: number, digits = 4): string {
   return text.includes('.') ? text.replace(/\.?0+$/, '') : text;
 }
 
-/** A value with its unit for messages (`'181.2 °C'`, `'120 kN'`, `'0.35'`). */
+/**
+ * A value with its unit for messages and reports: `digits` significant digits, trailing zeros
+ * dropped, exponent form beyond 1e6 or below 1e-3 (`'181.2 °C'`, `'120 kN'`, `'0.35'`).
+ *
+ * @remarks
+ * A value that is not finite is written as JavaScript prints it (`'NaN V'`, `'Infinity V'`), so a
+ * message about a non-finite figure shows it as it is.
+ *
+ * @param value - The value, already in `unit`.
+ * @param unit - The unit symbol to append (`''` for none).
+ * @param digits - Significant digits, an integer in 1…100 (default 4).
+ * @returns The text.
+ * @throws {@link @bridgework/core!BridgeworkError} `wrong-type` (`value` not a number, `unit` not a
+ *   string), `not-integer` or `out-of-range` (`digits` outside the integers 1…100).
+ * @example
+ * ```ts
+ * formatQuantity(181.23456, '°C'); // '181.2 °C'
+ * formatQuantity(1.2345e-3, 'V', 3); // '0.00123 V'
+ * ```
+ */
 export function formatQuantity(value: number, unit: string, digits = 4): string {
+  if (typeof value !== 'number') {
+    throw new BridgeworkError('wrong-type', `\`value\` must be a number; got ${formatValue(value)}`, {
+      param: 'value',
+      value,
+    });
+  }
+  if (typeof unit !== 'string') {
+    throw new BridgeworkError(
+      'wrong-type',
+      `\`unit\` must be a unit symbol (a string, '' for none); got ${formatValue(unit)}`,
+      { param: 'unit', value: unit },
+    );
+  }
+  checkInteger('digits', digits, { min: 1, max: 100 });
   const n = formatSignificant(value, digits);
   return unit === '' ? n : `${n} ${unit}`;
 }
