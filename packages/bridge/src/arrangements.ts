@@ -20,37 +20,7 @@ export interface ArrangementInfo {
   readonly measures: MeasuredStrain;
 }
 
-/**
- * Arm patterns, accepted lead wirings and measured strain of each arrangement: the one table from
- * which {@link createStrainBridge}, `createStrainBridgeKernel` and the channel package read every
- * arrangement. Its keys are the {@link StrainArrangement} names and {@link strainArrangements}, so
- * a new arrangement is one row here.
- *
- * @remarks
- * Arm strains, with ε the measured strain and ν the Poisson ratio (arms not listed hold
- * completion resistors):
- *
- * | arrangement | arm 1 | arm 2 | arm 3 | arm 4 | bridge factor N |
- * |---|---|---|---|---|---|
- * | `'quarter'` | ε | – | – | – | 1 |
- * | `'half-bending'` | ε | −ε | – | – | 2 |
- * | `'half-poisson'` | ε | −νε | – | – | 1 + ν |
- * | `'half-opposite'` | ε | – | ε | – | 2 |
- * | `'full-bending'` | ε | −ε | ε | −ε | 4 |
- * | `'full-poisson'` | ε | −νε | ε | −νε | 2(1 + ν) |
- * | `'full-shear'` | ε | −ε | ε | −ε | 4 (ε = the ±45° gauge strain) |
- * | `'full-bending-poisson'` | ε | −νε | νε | −ε | 2(1 + ν) |
- *
- * For small strains Vout/Vexc ≈ N·GF·ε/4. `'full-bending-poisson'` has the axial and transverse
- * gauges of the tension face in arms 1 and 2 and those of the compression face in arms 4 and 3.
- *
- * @example
- * ```ts
- * arrangementTable['half-bending'].arms; // [[1, 0], [-1, 0], null, null]
- * arrangementTable.quarter.wirings; // ['two-wire', 'three-wire']
- * ```
- */
-export const arrangementTable = {
+const arrangementRows = {
   quarter: { arms: [[1, 0], null, null, null], wirings: ['two-wire', 'three-wire'], measures: 'normal' },
   'half-bending': { arms: [[1, 0], [-1, 0], null, null], wirings: ['three-wire'], measures: 'bending' },
   'half-poisson': { arms: [[1, 0], [0, -1], null, null], wirings: ['three-wire'], measures: 'normal' },
@@ -101,11 +71,43 @@ export const arrangementTable = {
  * A strain-gauge bridge arrangement, named by its physics: a key of {@link arrangementTable}
  * (see its table of arm strains).
  */
-export type StrainArrangement = keyof typeof arrangementTable;
+export type StrainArrangement = keyof typeof arrangementRows;
+
+/**
+ * Arm patterns, accepted lead wirings and measured strain of each arrangement: the one table from
+ * which {@link createStrainBridge}, `createStrainBridgeKernel` and the channel package read every
+ * arrangement. Its keys are the {@link StrainArrangement} names and {@link strainArrangements}, so
+ * a new arrangement is one row here.
+ *
+ * @remarks
+ * Arm strains, with ε the measured strain and ν the Poisson ratio (arms not listed hold
+ * completion resistors):
+ *
+ * | arrangement | arm 1 | arm 2 | arm 3 | arm 4 | bridge factor N |
+ * |---|---|---|---|---|---|
+ * | `'quarter'` | ε | – | – | – | 1 |
+ * | `'half-bending'` | ε | −ε | – | – | 2 |
+ * | `'half-poisson'` | ε | −νε | – | – | 1 + ν |
+ * | `'half-opposite'` | ε | – | ε | – | 2 |
+ * | `'full-bending'` | ε | −ε | ε | −ε | 4 |
+ * | `'full-poisson'` | ε | −νε | ε | −νε | 2(1 + ν) |
+ * | `'full-shear'` | ε | −ε | ε | −ε | 4 (ε = the ±45° gauge strain) |
+ * | `'full-bending-poisson'` | ε | −νε | νε | −ε | 2(1 + ν) |
+ *
+ * For small strains Vout/Vexc ≈ N·GF·ε/4. `'full-bending-poisson'` has the axial and transverse
+ * gauges of the tension face in arms 1 and 2 and those of the compression face in arms 4 and 3.
+ *
+ * @example
+ * ```ts
+ * arrangementTable['half-bending'].arms; // [[1, 0], [-1, 0], null, null]
+ * arrangementTable.quarter.wirings; // ['two-wire', 'three-wire']
+ * ```
+ */
+export const arrangementTable: Readonly<Record<StrainArrangement, ArrangementInfo>> = arrangementRows;
 
 /** Every {@link StrainArrangement}, in the order of {@link arrangementTable}. */
 export const strainArrangements: readonly StrainArrangement[] = Object.keys(
-  arrangementTable,
+  arrangementRows,
 ) as StrainArrangement[];
 
 /**
