@@ -38,10 +38,42 @@ const fieldOfParam: Readonly<Record<string, string>> = {
   calibration: 'calibration.coefficients',
 };
 
+/** Sections of the spec searched, in order, for a component's parameter of the same name. */
+const SECTIONS = [
+  'sensor',
+  'bridge',
+  'excitation',
+  'amplifier',
+  'adc',
+  'adc.filter',
+  'environment',
+  'output',
+];
+
+/**
+ * The spec field a component package's parameter comes from: the table above, else the field of
+ * the same name in the sensor fragment or another section (`gaugeFactor` → `sensor.gaugeFactor`,
+ * `r0Ohms` → `sensor.r0Ohms`), else `''` (the channel as a whole).
+ */
+export function specFieldOf(param: string | undefined, spec: AnySpec): string {
+  if (param === undefined || param === '') return '';
+  const direct = fieldOfParam[param];
+  if (direct !== undefined) return direct;
+  const key = param.slice(param.lastIndexOf('.') + 1).replace(/\[\d+\]$/, '');
+  for (const section of SECTIONS) {
+    let node: unknown = spec;
+    for (const part of section.split('.')) {
+      node = typeof node === 'object' && node !== null ? (node as Record<string, unknown>)[part] : undefined;
+    }
+    if (typeof node === 'object' && node !== null && Object.hasOwn(node, key)) return `${section}.${key}`;
+  }
+  return fieldOfParam[key] ?? '';
+}
+
 /** The issue for a component package's error while building the model. */
-function buildIssue(e: unknown, prefix: string): SpecIssue {
+function buildIssue(e: unknown, prefix: string, spec: AnySpec): SpecIssue {
   if (!isBridgeworkError(e)) throw e;
-  const field = fieldOfParam[e.param ?? ''] ?? '';
+  const field = specFieldOf(e.param, spec);
   return {
     code: e.code,
     path: prefix === '' ? field : field === '' ? prefix : `${prefix}.${field}`,
@@ -93,7 +125,7 @@ export function prepareChannel(
     resolved = resolveChannel(spec, rules);
     nominal = createMapping(resolved, resolved.context.nominal);
   } catch (e) {
-    issues.push(buildIssue(e, prefix));
+    issues.push(buildIssue(e, prefix, spec));
     return undefined;
   }
   // The lead tolerance (with a cable's copper drift) cannot exceed the lead resistance itself.
@@ -123,7 +155,8 @@ export function prepareChannel(
       code: 'out-of-range',
       path: at('amplifier.gain'),
       message: `leaves no converter code for a reading the sensor can produce (valid codes (${formatSignificant(lo, 6)}, ${formatSignificant(hi, 6)}))`,
-      suggestion: 'check amplifier.gain, adc.referenceVolts, zero.code and polarity',
+      suggestion:
+        'check amplifier.gain, adc.referenceVolts, the bridge resistances (bridge.completionOhms and the sensor), zero.code and polarity',
     });
     return undefined;
   }

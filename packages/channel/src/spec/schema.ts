@@ -579,6 +579,12 @@ export interface ObjectOptions<T> {
   readonly finalize?: (value: T, path: string, ctx: ParseContext) => T;
   /** Rules across the fields, run when every field is valid. */
   readonly check?: CrossCheck<T>;
+  /**
+   * Keys this object no longer has, each with where its value is written now (a field path from
+   * the channel, such as `'adc.filter.dataRateHertz'`, or a short instruction): an unknown-field
+   * issue for such a key says so instead of guessing the closest name.
+   */
+  readonly renamed?: Readonly<Record<string, string>>;
 }
 
 function isPlainRecord(value: unknown): value is Record<string, unknown> {
@@ -629,6 +635,14 @@ export function objectField<F extends Fields, const P extends Presence = 'requir
       let ok = true;
       for (const key of Object.keys(value)) {
         if (!Object.hasOwn(fields, key)) {
+          const moved = o.renamed !== undefined && Object.hasOwn(o.renamed, key) ? o.renamed[key] : undefined;
+          if (moved !== undefined) {
+            report(ctx, joinPath(path, key), 'unknown-option', `unknown field: renamed; ${moved}`, {
+              suggestion: moved,
+            });
+            ok = false;
+            continue;
+          }
           const near = closestName(key, known);
           report(
             ctx,
