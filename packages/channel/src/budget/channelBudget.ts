@@ -555,6 +555,7 @@ export function channelBudget(channel: Channel, options: ChannelBudgetOptions = 
     resolution,
     lines,
     limits: o['limits'],
+    display: channel.display,
   });
   return {
     channel: r.name,

@@ -49,7 +49,9 @@ export function checkDetail(check: ChannelDesignCheck): string {
   const stated = isShare(check)
     ? formatQuantity(check.limit * 100, '%')
     : formatQuantity(check.limit, check.unit);
-  return threshold === '' || check.message.includes(stated)
+  // The channel package writes a true minus sign and a no-break space before a unit; compare in that form.
+  const plain = (t: string) => t.replace(/-/g, '−').replace(/\u00a0/g, ' ');
+  return threshold === '' || plain(check.message).includes(plain(stated))
     ? check.message
     : `${check.message} (${threshold})`;
 }
