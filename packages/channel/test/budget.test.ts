@@ -254,3 +254,47 @@ describe('budget: a span end too close to the end of the sensor’s range for it
     expect(c.span.max).toBeNear(839.5, { abs: 1e-9 });
   });
 });
+
+describe('a transducer budget without the sensor calibration is flagged (issue 15)', () => {
+  const cell: ChannelSpec = {
+    sensor: { kind: 'transducer', capacity: '20 t', ratedOutputVoltsPerVolt: '2 mV/V' },
+    excitation: { volts: 5 },
+    amplifier: { gain: 128 },
+    adc: { bits: 24, referenceVolts: 5, ratiometric: true },
+    output: { quantity: 'mass', unit: 't', range: [0, 20] },
+  };
+
+  it('warns, naming sensor.ratedOutputToleranceFraction, when the rated output has no tolerance', () => {
+    const b = channelBudget(createChannel(cell));
+    const check = b.checks.find((c) => c.id === 'sensor-calibration')!;
+    expect(check).toMatchObject({ status: 'warn', ok: true, path: 'sensor.ratedOutputToleranceFraction' });
+    expect(check.message).toMatch(/lacks the transducer's calibration uncertainty/);
+    expect(check.message).toMatch(/covers the electronics and the noise only/);
+    // What it says is so: no budget line comes from the sensor's calibration.
+    expect(b.lines.map((l) => l.name)).not.toContain('rated output');
+  });
+
+  it('passes, stating the tolerance, once it is filled in (and the line is in the budget)', () => {
+    const b = channelBudget(
+      createChannel({
+        ...cell,
+        sensor: { ...cell.sensor, ratedOutputToleranceFraction: '0.1 %' },
+      } as ChannelSpec),
+    );
+    const check = b.checks.find((c) => c.id === 'sensor-calibration')!;
+    expect(check.status).toBe('pass');
+    expect(check.message).toBe(
+      "the budget holds the rated output's tolerance ±0.1\u00a0% (sensor.ratedOutputToleranceFraction)",
+    );
+    expect(b.lines.map((l) => l.name)).toContain('rated output');
+  });
+
+  it('does not apply to a channel read as a bridge ratio, nor to other sensor kinds', () => {
+    const ratio = channelBudget(
+      createChannel({ ...cell, output: { quantity: 'ratio', unit: 'mV/V', range: [0, 2] } }),
+    );
+    expect(ratio.checks.some((c) => c.id === 'sensor-calibration')).toBe(false);
+    const gauge = channelBudget(createChannel(spec));
+    expect(gauge.checks.some((c) => c.id === 'sensor-calibration')).toBe(false);
+  });
+});

@@ -343,6 +343,30 @@ export function designChecks(x: DesignCheckInput): ChannelDesignCheck[] {
     });
   }
 
+  // A transducer's budget without its calibration: noise and electronics only (a warning).
+  const spec = r.spec;
+  if (
+    spec.sensor.kind === 'transducer' &&
+    spec.output.quantity !== 'ratio' &&
+    spec.calibration === undefined
+  ) {
+    const tolerance =
+      (spec.sensor as { ratedOutputToleranceFraction?: number }).ratedOutputToleranceFraction ?? 0;
+    push({
+      id: 'sensor-calibration',
+      name: "the sensor's calibration uncertainty in the budget",
+      status: tolerance > 0 ? 'pass' : 'warn',
+      value: tolerance,
+      limit: 0,
+      unit: '',
+      message:
+        tolerance > 0
+          ? `the budget holds the rated output's tolerance ±${percent(tolerance, 4)} (sensor.ratedOutputToleranceFraction)`
+          : "the budget lacks the transducer's calibration uncertainty: sensor.ratedOutputToleranceFraction is 0, so U covers the electronics and the noise only; fill it in from the certificate (the rated output's tolerance, or its calibration uncertainty as a rectangular half-width), or calibrate the channel against reference loads (calibration)",
+      path: 'sensor.ratedOutputToleranceFraction',
+    });
+  }
+
   // Inputs in the ranges a real design keeps them in (warnings).
   for (const p of [...commonRanges(r), ...(r.kind.plausibleRanges?.(r.spec.sensor as never) ?? [])]) {
     const inside = p.value >= p.range.min && p.value <= p.range.max;
