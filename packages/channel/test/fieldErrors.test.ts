@@ -195,3 +195,51 @@ describe('an old field name points to the field it became (issue 15; the renames
     expect(typo.message).toBe("unknown field; did you mean 'gainFraction'?");
   });
 });
+
+describe("a span at the ends of a Pt100's range (issue 15): the limit in °C that differs from the value, and a way out that works", () => {
+  const pt100 = (range: [number, number], gain = 2): ChannelSpec => ({
+    sensor: { kind: 'rtd', r0Ohms: 100 },
+    bridge: { wiring: 'three-wire', ohmsPerLead: 0.5 },
+    excitation: { volts: 1 },
+    amplifier: { gain },
+    adc: { bits: 24, referenceVolts: 1, ratiometric: true },
+    output: { quantity: 'temperature', range },
+  });
+  const issueOf = (spec: ChannelSpec) => {
+    const v = validateChannelSpec(spec);
+    expect(v.ok).toBe(false);
+    const issues = v.ok ? [] : v.issues;
+    expect(issues.map((i) => i.path)).toEqual(['output.range']);
+    return issues[0]!;
+  };
+
+  it('−200 … 850 °C (IEC 60751): the ends no converter code reaches, the nearest readings, and a range that is accepted', () => {
+    const issue = issueOf(pt100([-200, 850]));
+    expect(issue.message).toContain(
+      "-200 °C is the end of the sensor's range, which no converter code reaches: the nearest code reads -199.99999 °C (the sensor's range is -200 °C … 850 °C)",
+    );
+    expect(issue.message).toContain(
+      "850 °C is the end of the sensor's range, which no converter code reaches: the nearest code reads 849.9997 °C",
+    );
+    expect(issue.message).not.toMatch(/-200 °C is past what this channel reads \(at least -200 °C/);
+    expect(issue.suggestion).toBe('narrow output.range to [-199.9 °C, 849.9 °C]');
+    // The way out is accepted as written.
+    expect(createChannel(pt100([-199.9, 849.9])).span).toEqual({ min: -199.9, max: 849.9 });
+  });
+
+  it("a span past the sensor's range names the range; past the converter, the gain that fits, never a higher one", () => {
+    const past = issueOf(pt100([-250, 100]));
+    expect(past.message).toMatch(
+      /^-250 °C is past what this channel reads \(at least -200 °C: the sensor's range is -200 °C … 850 °C\)/,
+    );
+    expect(past.suggestion).toBe('narrow output.range to [-199.9 °C, 100 °C]');
+    const rails = issueOf(pt100([-250, 100], 4));
+    expect(rails.message).toMatch(/the converter's full scale at gain 4/);
+    expect(rails.suggestion).not.toMatch(/amplifier\.gain to 8/);
+    const high = issueOf(pt100([0, 850], 4));
+    expect(high.suggestion).toMatch(
+      /^lower amplifier\.gain to 2 or narrow output\.range to \[0 °C, 560\.\d+ °C\]$/,
+    );
+    expect(() => createChannel(pt100([0, 850], 2))).toThrow(/nearest code reads 849\.9997 °C/);
+  });
+});

@@ -216,9 +216,37 @@ export function prepareChannel(
       return Number.NaN;
     }
   };
+  // The ends of the sensor's own range (an RTD's −200 … 850 °C), in the channel's unit, when finite.
+  const sensorEnds = (() => {
+    try {
+      const { ratioRange } = nominal.model;
+      const a = nominal.model.valueFromRatio(ratioRange.min);
+      const b = nominal.model.valueFromRatio(ratioRange.max);
+      return Number.isFinite(a) && Number.isFinite(b)
+        ? { min: Math.min(a, b), max: Math.max(a, b) }
+        : undefined;
+    } catch {
+      return undefined;
+    }
+  })();
+  /** A limit with enough digits to differ from the value it is compared with (never "-200 past -200"). */
+  const precise = (x: number, other: number) => {
+    for (let d = 4; d <= 15; d++) {
+      const t = formatQuantity(x, unit, d);
+      if (t !== formatQuantity(other, unit, d)) return t;
+    }
+    return formatQuantity(x, unit, 17);
+  };
+  // A readable end rounded inward to a round number (a ten-thousandth of the readable width).
+  const width = reads.max - reads.min;
+  const step = 10 ** (Math.floor(Math.log10(width > 0 ? width : 1)) - 4);
+  const nice = (x: number, end: 'lower' | 'upper') =>
+    Number((end === 'lower' ? Math.ceil(x / step) * step : Math.floor(x / step) * step).toPrecision(12));
   const problems: string[] = [];
+  const fixed = { min: range.min, max: range.max };
   let limitText = '';
   let byConverter = false;
+  let bySensor = false;
   for (const end of ['lower', 'upper'] as const) {
     const value = end === 'lower' ? range.min : range.max;
     const limit = end === 'lower' ? reads.min : reads.max;
@@ -226,27 +254,45 @@ export function prepareChannel(
     // Which limit binds: the converter's rails, or the sensor's own range?
     const highCode = (end === 'upper') === increasing;
     const railBound = highCode ? hi === adc.codeMax : lo === adc.codeMin;
-    byConverter ||= railBound;
-    problems.push(
-      `${formatQuantity(value, unit, 8)} is past what this channel reads (at ${end === 'lower' ? 'least' : 'most'} ${formatQuantity(limit, unit)}${railBound ? `, the converter's full scale at gain ${formatSignificant(gain)}` : ", the end of the sensor's range"})`,
-    );
-    limitText = formatQuantity(limit, unit);
+    const sensorEnd =
+      sensorEnds === undefined ? undefined : end === 'lower' ? sensorEnds.min : sensorEnds.max;
+    const most = end === 'lower' ? 'least' : 'most';
+    if (railBound) {
+      byConverter = true;
+      problems.push(
+        `${formatQuantity(value, unit, 8)} is past what this channel reads (at ${most} ${precise(limit, value)}, the converter's full scale at gain ${formatSignificant(gain)})`,
+      );
+    } else {
+      bySensor = true;
+      const beyond = sensorEnd !== undefined && (end === 'lower' ? value < sensorEnd : value > sensorEnd);
+      const rangeText =
+        sensorEnds === undefined
+          ? "the end of the sensor's range"
+          : `the sensor's range is ${formatQuantity(sensorEnds.min, unit, 6)} … ${formatQuantity(sensorEnds.max, unit, 6)}`;
+      problems.push(
+        beyond || sensorEnd === undefined
+          ? `${formatQuantity(value, unit, 8)} is past what this channel reads (at ${most} ${precise(limit, value)}: ${rangeText})`
+          : `${formatQuantity(value, unit, 8)} is the end of the sensor's range, which no converter code reaches: the nearest code reads ${precise(limit, value)} (${rangeText})`,
+      );
+    }
+    fixed[end === 'lower' ? 'min' : 'max'] = nice(limit, end);
+    limitText = precise(limit, value);
   }
   if (problems.length > 0) {
-    let suggestion = 'narrow output.range';
-    if (byConverter) {
+    const inward = `narrow output.range to [${formatQuantity(fixed.min, unit, 8)}, ${formatQuantity(fixed.max, unit, 8)}]`;
+    let suggestion = inward;
+    if (byConverter && !bySensor) {
       const codes = [codeOf(range.min), codeOf(range.max)];
       if (!spec.adc.bipolar && codes.some((c) => c < 0)) {
-        suggestion =
-          "set adc.bipolar to true (the span's lower end needs a negative input), or narrow output.range";
-      } else {
+        suggestion = `set adc.bipolar to true (the span's lower end needs a negative input), or ${inward}`;
+      } else if (codes.every(Number.isFinite)) {
         // Codes scale with the gain (the input is referred to the amplifier's input), so the span fits below this gain.
         const room = codes
           .map((c) => (c > 0 ? adc.codeMax - 1 : -(adc.codeMin + 1)) / Math.abs(c))
           .filter((x) => Number.isFinite(x) && x > 0);
         const maxGain = gain * Math.min(...room);
-        if (maxGain > 0 && Number.isFinite(maxGain))
-          suggestion = `lower amplifier.gain to ${formatSignificant(niceGainBelow(gain, maxGain))} or narrow output.range`;
+        if (maxGain > 0 && maxGain < gain)
+          suggestion = `lower amplifier.gain to ${formatSignificant(niceGainBelow(gain, maxGain))} or ${inward}`;
       }
     }
     issues.push({
