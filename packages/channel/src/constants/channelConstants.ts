@@ -28,9 +28,11 @@ import type { Channel } from '../Channel.js';
 import { channelInternals } from '../internal/makeChannel.js';
 
 /**
- * The relative accuracy the channel states for its binary64 map `quantityFromCode` against
- * 40-digit references (docs/channel.md, "Accuracy and verification"); times the largest quantity
- * over the code range, it is the reference error added to every firmware bound.
+ * The accuracy the channel states for its binary64 map `quantityFromCode` against 40-digit
+ * references, relative to the largest |value| the channel reads over its valid codes (not to each
+ * value: near zero a value is a small difference of large ones; docs/channel.md, "Accuracy and
+ * verification"). Times that largest value it is the reference error added to every firmware
+ * bound.
  */
 export const CHANNEL_MAP_RELATIVE_ACCURACY = 1e-13;
 
@@ -189,7 +191,7 @@ function inChannelTerms<T>(step: () => T): T {
  * The exact map is the channel's own `quantityFromCode`; the firmware package's
  * `designFirmwareConstants` fits, chooses and verifies every code of the span (up to 2^24 codes;
  * above that the bound is measured, not proved) and adds the map's own error: the channel's stated
- * relative accuracy {@link CHANNEL_MAP_RELATIVE_ACCURACY} times the largest quantity over the span.
+ * accuracy {@link CHANNEL_MAP_RELATIVE_ACCURACY} times the largest value it reads over its valid codes.
  * Default target: max(u_c/10, one output step), with u_c the combined standard uncertainty of the
  * channel's budget at its default point (docs/firmware.md). A target no form meets is an
  * `out-of-range` error naming the best bound reached; no header is made.
@@ -248,9 +250,18 @@ export function channelConstants(channel: Channel, options: ConstantsOptions = {
     standardUncertainty = uc;
     targetError = Math.max(uc / 10, resolution);
   }
+  // The map's stated accuracy is relative to the largest value read over the valid codes.
+  const valid = channel.validCodes;
+  const readsLargest = Math.max(
+    largest,
+    ...[Math.floor(valid.min) + 1, Math.ceil(valid.max) - 1].map((c) => {
+      const q = Math.abs(channel.quantityFromCode(c));
+      return Number.isFinite(q) ? q : 0;
+    }),
+  );
   const referenceError: ReferenceError = {
-    bound: CHANNEL_MAP_RELATIVE_ACCURACY * largest,
-    source: `the channel's stated accuracy of its binary64 map, ${CHANNEL_MAP_RELATIVE_ACCURACY} relative to 40-digit references (docs/channel.md, measured by its tests), times the largest quantity of the span`,
+    bound: CHANNEL_MAP_RELATIVE_ACCURACY * readsLargest,
+    source: `the channel's stated accuracy of its binary64 map, ${CHANNEL_MAP_RELATIVE_ACCURACY} of the largest value it reads over its valid codes against 40-digit references (docs/channel.md, measured by its tests)`,
   };
   const pass = (key: string) => (o[key] === undefined ? {} : { [key]: o[key] });
   const design = inChannelTerms(() =>
