@@ -9,6 +9,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { Decimal } from 'decimal.js';
+import { execFileSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 import { exitCodes } from '../src/exitCodes.js';
 import { runCli } from '../src/runCli.js';
@@ -16,6 +17,7 @@ import { loadChannels } from '../src/channels/loadChannels.js';
 import { loadGroups, type MultiComponentGroup, type PlatformGroup } from '../src/groups/loadGroups.js';
 import {
   compile,
+  CORTEX_M4F_FLAGS,
   needCompiler,
   run as runProgram,
   scratch,
@@ -173,6 +175,62 @@ describe('constants on a file with groups', async () => {
               expect(v[3 * j + 2]!).toBeNear(lib[j]!, { abs: 1e-9 * c.fullScale[j]! });
           }
         });
+      } finally {
+        remove();
+      }
+    },
+  );
+  it(
+    'cross-compiles for a Cortex-M0+ and a Cortex-M4F (arm-none-eabi-gcc, strict flags, -O2), every group function used',
+    { timeout: 240_000 },
+    async (ctx) => {
+      if (!needCompiler('arm-none-eabi-gcc', () => ctx.skip())) return;
+      const header = join(tmp(), 'rig-arm.h');
+      expect(
+        (await cli('constants', example, '--prefix', 'rig', '--verification', 'sampled', '-o', header)).code,
+      ).toBe(exitCodes.ok);
+      // A translation unit that calls every group function and reads the term tables, so nothing
+      // of the groups' section is left uncompiled.
+      const unit = `#include "rig.h"
+void use(const float xf[10], const double x[10], float yf[7], double y[7], float gf[21], double g[21],
+         float df[6], double dd[6]);
+void use(const float xf[10], const double x[10], float yf[7], double y[7], float gf[21], double g[21],
+         float df[6], double dd[6]) {
+    int i;
+    rig_coupling_f32(xf, yf);
+    rig_coupling_f64(x, y);
+    rig_stand_f32(xf + 6, yf + 6);
+    rig_stand_f64(x + 6, y + 6);
+    for (i = 0; i < 21; i++) {
+        gf[i] = yf[rig_coupling_term_a[i]] * yf[rig_coupling_term_b[i]];
+        g[i] = y[rig_coupling_term_a[i]] * y[rig_coupling_term_b[i]];
+    }
+    rig_coupling_interaction_f32(gf, df);
+    rig_coupling_interaction_f64(g, dd);
+}
+`;
+      const { dir, remove } = scratch();
+      try {
+        writeFiles(dir, { 'rig.h': readFileSync(header, 'utf8'), 'unit.c': unit });
+        for (const flags of [['-mcpu=cortex-m0plus', '-mthumb'], CORTEX_M4F_FLAGS]) {
+          compile(
+            'arm-none-eabi-gcc',
+            [...flags, ...STRICT_FLAGS, '-O2', '-c', 'unit.c', '-o', 'unit.o'],
+            dir,
+          );
+          const symbols = execFileSync('arm-none-eabi-nm', ['-u', 'unit.o'], { cwd: dir, encoding: 'utf8' })
+            .split('\n')
+            .map((l) => l.trim().split(/\s+/).pop() ?? '')
+            .filter((s) => s !== '');
+          if (flags === CORTEX_M4F_FLAGS) {
+            // float32 runs on the FPU: software float appears only for the float64 functions.
+            expect(symbols.filter((s) => /^__aeabi_f(add|mul|sub)$/.test(s))).toEqual([]);
+          } else {
+            // The M0+ has no FPU: the float arithmetic is the compiler's library (__aeabi_*), nothing else.
+            expect(symbols.every((s) => s.startsWith('__aeabi_'))).toBe(true);
+            expect(symbols).toContain('__aeabi_fmul');
+          }
+        }
       } finally {
         remove();
       }

@@ -105,6 +105,91 @@ describe('report on a file with groups', () => {
     mc.forEach((r, j) => expect(r.standardUncertainty).toBeNear(gum[j]!, { rel: 0.03 }));
   });
 
+  it("the report's Monte Carlo figures agree with an independent sampler written here, and with the GUM", async () => {
+    const [g] = (await loadGroups(await loadChannels(example))) as [MultiComponentGroup];
+    const c = g.calibration;
+    const noise = readingNoise(g);
+    const { code, stdout } = await run('report', example, '--json');
+    expect(code).toBe(exitCodes.ok);
+    const payload = (
+      JSON.parse(stdout) as {
+        groups: {
+          coupling: CouplingPayload & {
+            standardUncertaintyAtFullScale: number[];
+            monteCarlo: {
+              trials: number;
+              atZero: { standardUncertainty: number; interval: [number, number] }[];
+              atFullScale: { standardUncertainty: number }[];
+            };
+          };
+        };
+      }
+    ).groups.coupling;
+    expect(payload.monteCarlo.trials).toBe(10_000);
+    // An independent sampler: readings = the model's readings at F, plus each bridge's noise
+    // (independent, u_i from its channel budget) plus the calibration's error of the fitted
+    // readings at F, normal with covariance q·Σ (q = g(F)ᵀ(AᵀA)⁻¹g(F), Σ the readings' covariance;
+    // JCGM 100 for the multivariate linear model), drawn through a Cholesky factor written here;
+    // each draw solved by the calibration's exact inverse.
+    const nb = g.bridges.length;
+    const sigma = c.readingCovariance;
+    const chol = sigma.map(() => new Array<number>(nb).fill(0));
+    for (let i = 0; i < nb; i++) {
+      for (let k = 0; k <= i; k++) {
+        let s = sigma[i]![k]!;
+        for (let l = 0; l < k; l++) s -= chol[i]![l]! * chol[k]![l]!;
+        chol[i]![k] = i === k ? Math.sqrt(Math.max(s, 0)) : chol[k]![k]! > 0 ? s / chol[k]![k]! : 0;
+      }
+    }
+    let seed = 12345;
+    const uniform = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) + 0.5) / 2147483648;
+    const normal = () => Math.sqrt(-2 * Math.log(uniform())) * Math.cos(2 * Math.PI * uniform());
+    const inverse = c.createInverse();
+    const sampled = (loads: number[], j: number): number => {
+      const gv = c.terms.map((t) => t.components.reduce((p, k) => p * loads[k]!, 1));
+      const q = gv.reduce(
+        (s, a, x) => s + gv.reduce((t, b, y) => t + a * c.unitCovariance[x]![y]! * b, 0),
+        0,
+      );
+      const r0 = c.readingsAt(loads);
+      const trials = 20_000;
+      let sum = 0;
+      let sum2 = 0;
+      const r = new Array<number>(nb);
+      for (let n = 0; n < trials; n++) {
+        const z = Array.from({ length: nb }, normal);
+        for (let i = 0; i < nb; i++) {
+          let cal = 0;
+          for (let k = 0; k <= i; k++) cal += chol[i]![k]! * z[k]!;
+          r[i] = r0[i]! + Math.sqrt(q) * cal + noise[i]! * normal();
+        }
+        const f = inverse.loadsFromReadings(r)[j]!;
+        sum += f;
+        sum2 += f * f;
+      }
+      return Math.sqrt((sum2 - (sum * sum) / trials) / (trials - 1));
+    };
+    const zero = [0, 0, 0, 0, 0, 0];
+    for (const j of [0, 2, 5]) {
+      // Two Monte Carlo estimates of u, 10⁴ and 2·10⁴ trials: each within ~1 %, so 4 % apart at most.
+      expect(payload.monteCarlo.atZero[j]!.standardUncertainty).toBeNear(sampled(zero, j), { rel: 0.04 });
+      const full = zero.map((_, k) => (k === j ? payload.components[j]!.fullScale : 0));
+      expect(payload.monteCarlo.atFullScale[j]!.standardUncertainty).toBeNear(sampled(full, j), {
+        rel: 0.04,
+      });
+    }
+    // And both methods (JCGM 101 against JCGM 100) agree where the model is nearly linear.
+    payload.monteCarlo.atZero.forEach((r, j) =>
+      expect(r.standardUncertainty).toBeNear(payload.standardUncertaintyAtZero[j]!, { rel: 0.03 }),
+    );
+    payload.monteCarlo.atFullScale.forEach((r, j) =>
+      expect(r.standardUncertainty).toBeNear(payload.standardUncertaintyAtFullScale[j]!, { rel: 0.03 }),
+    );
+    const [lo, hi] = payload.monteCarlo.atZero[0]!.interval;
+    expect(lo).toBeLessThan(0);
+    expect(hi).toBeGreaterThan(0);
+  });
+
   it('writes the HTML report with the group sections and a residual plot per component', async () => {
     const html = join(tmp(), 'rig.html');
     const { code } = await run('report', example, '--html', html);

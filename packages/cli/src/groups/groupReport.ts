@@ -1,4 +1,5 @@
 import { channelBudget } from '@bridgework/channel';
+import type { MonteCarloResult } from '@bridgework/uncertainty';
 import { formatNumber, formatPercent } from '../report/formatNumber.js';
 import type { TableColumn } from '../terminal/formatTable.js';
 import type { LoadedGroup, MultiComponentGroup, PlatformGroup } from './loadGroups.js';
@@ -50,6 +51,11 @@ export interface GroupReport {
 }
 
 const right = (header: string): TableColumn => ({ header, align: 'right' });
+
+/** Trials per component of the report's Monte Carlo runs (JCGM 101) at each load state. */
+export const GROUP_MONTE_CARLO_TRIALS = 10_000;
+/** The seed of those runs (the report is reproducible). */
+export const GROUP_MONTE_CARLO_SEED = 1;
 const n4 = (x: number): string => formatNumber(x, 4);
 
 /** The standard uncertainty of each bridge's reading in use: its channel's total noise (rms), in the channel's unit. */
@@ -75,6 +81,21 @@ function multiComponentReport(g: MultiComponentGroup): GroupReport {
       readingStandardUncertainties: noise,
     }),
   );
+  // The same states by Monte Carlo through the exact inverse (JCGM 101), the readings' noise and
+  // the calibration's covariance as the GUM figures take them.
+  const monteCarlo = (loads: readonly number[]) =>
+    c.monteCarloAt({
+      loads,
+      readingStandardUncertainties: noise,
+      trials: GROUP_MONTE_CARLO_TRIALS,
+      seed: GROUP_MONTE_CARLO_SEED,
+    });
+  const mcZero = monteCarlo(zero);
+  const mcFull = comps.map(
+    (_, j) =>
+      monteCarlo(comps.map((__, k) => (k === j ? (c.fullScale[j] as number) : 0)))[j] as MonteCarloResult,
+  );
+  const sampling = 1 / Math.sqrt(2 * GROUP_MONTE_CARLO_TRIALS);
   const paragraphs = [
     `${g.bridges.length} bridges (${g.spec.bridges.join(', ')}) → ${comps.length} components (${comps.map((x) => `${x.name} in ${x.unit}`).join(', ')}); readings are each bridge's converted value (${sameBridgeUnit ? bu : bridgeUnits.join(', ')}).`,
     `Model r = a + S·F${second.length > 0 ? ` + ${second.length} second-order terms (${g.spec.calibration.interactions}; AIAA R-091)` : ' (linear)'}, fitted by least squares (Householder QR) to ${g.points.length} points of ${g.spec.calibration.schedule}; ${c.degreesOfFreedom} degrees of freedom; uncertainties of the coefficients from the residuals.`,
@@ -148,6 +169,35 @@ function multiComponentReport(g: MultiComponentGroup): GroupReport {
         : `${formatPercent(c.hysteresisFractions[j] as number)} FS`,
     ]),
   });
+  tables.push({
+    caption: `per component: Monte Carlo through the exact inverse (JCGM 101, ${GROUP_MONTE_CARLO_TRIALS} trials, seed ${GROUP_MONTE_CARLO_SEED}) beside the law of propagation (JCGM 100); a Monte Carlo u from ${GROUP_MONTE_CARLO_TRIALS} trials is itself uncertain by about ${formatPercent(sampling)}`,
+    columns: [
+      { header: 'component' },
+      right('u at zero, GUM'),
+      right('u at zero, MC'),
+      right('MC/GUM'),
+      right('95 % interval at zero, MC'),
+      right('u at full scale, GUM'),
+      right('u at full scale, MC'),
+      right('MC/GUM'),
+    ],
+    rows: comps.map((x, j) => {
+      const z = mcZero[j] as MonteCarloResult;
+      const f = mcFull[j] as MonteCarloResult;
+      const gz = atZero.standardUncertainties[j] as number;
+      const gf = atFull[j]?.standardUncertainties[j] as number;
+      return [
+        `${x.name} (${x.unit})`,
+        formatNumber(gz, 3),
+        formatNumber(z.standardUncertainty, 3),
+        formatNumber(z.standardUncertainty / gz, 3),
+        `[${formatNumber(z.interval.min, 3)}, ${formatNumber(z.interval.max, 3)}]`,
+        formatNumber(gf, 3),
+        formatNumber(f.standardUncertainty, 3),
+        formatNumber(f.standardUncertainty / gf, 3),
+      ];
+    }),
+  });
   return {
     name: g.spec.name,
     title: `${g.spec.name}: ${comps.length}-component group`,
@@ -192,6 +242,21 @@ function multiComponentReport(g: MultiComponentGroup): GroupReport {
       hysteresisFractions: c.hysteresisFractions.map((v) => v ?? null),
       loadResiduals: c.loadResiduals,
       inverse: { method: inverse.method, tolerance: inverse.tolerance, maxIterations: inverse.maxIterations },
+      monteCarlo: {
+        trials: GROUP_MONTE_CARLO_TRIALS,
+        seed: GROUP_MONTE_CARLO_SEED,
+        coverage: mcZero[0]?.coverage,
+        atZero: mcZero.map((r) => ({
+          value: r.value,
+          standardUncertainty: r.standardUncertainty,
+          interval: [r.interval.min, r.interval.max],
+        })),
+        atFullScale: mcFull.map((r) => ({
+          value: r.value,
+          standardUncertainty: r.standardUncertainty,
+          interval: [r.interval.min, r.interval.max],
+        })),
+      },
     },
   };
 }
