@@ -1,7 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { createStrainBridge } from '@bridgework/bridge';
 import { johnsonNoiseDensity } from '@bridgework/chain';
-import { channelBudget, createChannel, validateChannelSpec, type ChannelSpec } from '@bridgework/channel';
+import {
+  MAX_BUDGET_TRIALS,
+  channelBudget,
+  createChannel,
+  validateChannelSpec,
+  type ChannelSpec,
+} from '@bridgework/channel';
 
 const spec: ChannelSpec = {
   name: 'crane hook',
@@ -296,5 +302,53 @@ describe('a transducer budget without the sensor calibration is flagged (issue 1
     expect(ratio.checks.some((c) => c.id === 'sensor-calibration')).toBe(false);
     const gauge = channelBudget(createChannel(spec));
     expect(gauge.checks.some((c) => c.id === 'sensor-calibration')).toBe(false);
+  });
+});
+
+describe('channelBudget options are checked, never read loosely (issue 15, items 6 and 8)', () => {
+  const ch = createChannel(spec);
+  it.each([
+    [0, 'wrong-type'],
+    ['no', 'wrong-type'],
+    [Number.NaN, 'wrong-type'],
+    [-1, 'wrong-type'],
+    [null, 'wrong-type'],
+    [[], 'wrong-type'],
+  ] as const)(
+    'monteCarlo: %s is %s naming options.monteCarlo (was: 10⁵ trials run, or a TypeError)',
+    (value, code) => {
+      expect(() => channelBudget(ch, { monteCarlo: value as never })).toThrowBridgeworkError(code, {
+        param: 'options.monteCarlo',
+      });
+    },
+  );
+
+  it.each([1, 'yes', null, {}])('monteCarlo.returnValues: %s is wrong-type', (value) => {
+    expect(() =>
+      channelBudget(ch, { monteCarlo: { trials: 1000, returnValues: value as never } }),
+    ).toThrowBridgeworkError('wrong-type', { param: 'options.monteCarlo.returnValues' });
+  });
+
+  it('monteCarlo.trials beyond the memory-derived limit is refused at once (was: hours of work)', () => {
+    const started = Date.now();
+    expect(() => channelBudget(ch, { monteCarlo: { trials: 1e9 } })).toThrowBridgeworkError('out-of-range', {
+      param: 'options.monteCarlo.trials',
+    });
+    expect(() => channelBudget(ch, { monteCarlo: { trials: MAX_BUDGET_TRIALS + 1 } })).toThrowBridgeworkError(
+      'out-of-range',
+      { param: 'options.monteCarlo.trials' },
+    );
+    // Refused before any trial runs (a generous bound on a shared machine; nothing near hours).
+    expect(Date.now() - started).toBeLessThan(5_000);
+  });
+
+  it('a misspelt option or Monte Carlo setting names the closest key', () => {
+    expect(() => channelBudget(ch, { monteCarol: true } as never)).toThrowBridgeworkError('unknown-option', {
+      param: 'options.monteCarol',
+    });
+    expect(() => channelBudget(ch, { monteCarlo: { trails: 1000 } } as never)).toThrowBridgeworkError(
+      'unknown-option',
+      { param: 'options.monteCarlo.trails' },
+    );
   });
 });

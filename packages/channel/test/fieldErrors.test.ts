@@ -51,7 +51,7 @@ function issuePaths(spec: unknown): string[] {
 }
 
 const edit = (spec: ChannelSpec, section: string, fields: Record<string, unknown>): unknown => {
-  const s = structuredClone(spec) as Record<string, Record<string, unknown>>;
+  const s = structuredClone(spec) as unknown as Record<string, Record<string, unknown>>;
   s[section] = { ...s[section], ...fields };
   return s;
 };

@@ -61,7 +61,8 @@ describe('nonsense designs are refused', () => {
     const r = await run('report', edited(`${what}.yaml`, from, to), '--channel', channel);
     expect(r.code).toBe(exitCodes.badInput);
     expect(r.stdout).toBe('');
-    const path = `channels.${channel}${field === '' ? '' : `.${field}`}`;
+    // Every refusal names the field the user can change, never the channel as a whole.
+    const path = `channels.${channel}.${field}`;
     expect(r.stderr).toMatch(
       new RegExp(`:\\d+:\\d+: ${path.replace(/[.]/g, '\\.')}: .*${limit.replace(/[.]/g, '\\.')}`),
     );

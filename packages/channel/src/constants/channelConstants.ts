@@ -234,6 +234,20 @@ export function channelConstants(channel: Channel, options: ConstantsOptions = {
         : explicitTarget !== undefined
           ? Math.max(finestStep, Math.min(spanStep, powerOfTenBelow(explicitTarget)))
           : spanStep;
+  // A fixed-point output step must resolve the span and keep its outputs in an int32.
+  if (o['outputResolution'] !== undefined || specResolution !== undefined) {
+    const param = o['outputResolution'] !== undefined ? 'outputResolution' : 'output.firmwareResolution';
+    const unit = channel.unit;
+    const coarsest = spanMagnitude > 0 ? spanMagnitude : largest;
+    const finest = largest / 2 ** 31;
+    if (!(resolution <= coarsest && resolution >= finest)) {
+      throw new BridgeworkError(
+        'out-of-range',
+        `\`${param}\` must lie in [${formatValue(finest)}, ${formatValue(coarsest)}] ${unit}: at most the span's largest magnitude (a coarser step cannot resolve the span) and at least that of the largest output / 2^31 (finer steps overflow the int32 outputs); got ${formatValue(resolution)}; the default is ${formatValue(spanStep)}`,
+        { param, value: resolution, limit: [finest, coarsest] },
+      );
+    }
+  }
   let targetError: number;
   let standardUncertainty: number | undefined;
   if (explicitTarget !== undefined) {
