@@ -86,6 +86,13 @@ const headroomNames: Readonly<Record<string, string>> = {
   'adc-high': 'converter high rail',
 };
 
+/** The field to change first when a headroom limit is reached. */
+function headroomField(limit: string): string {
+  return limit.startsWith('input-common-mode') || limit === 'input-differential'
+    ? 'excitation.volts'
+    : 'amplifier.gain';
+}
+
 /** What to change when a headroom limit is reached. */
 function headroomWayOut(limit: string): string {
   if (limit.startsWith('input-common-mode'))
@@ -327,7 +334,7 @@ export function designChecks(x: DesignCheckInput): ChannelDesignCheck[] {
       limit: m.limitVolts,
       unit: 'V',
       message: `${figure(m.nodeVolts, 'V')} against ${figure(m.limitVolts, 'V')}${pointText(m.pointIndex)}, margin ${figure(m.marginVolts, 'V')}${failed ? `: the ${name} is reached; ${headroomWayOut(m.limit)}` : ''}`,
-      ...(failed ? { path: 'amplifier.gain' } : {}),
+      ...(failed ? { path: headroomField(m.limit) } : {}),
     });
   }
   for (const issue of issues) {
