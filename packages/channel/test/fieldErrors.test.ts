@@ -213,24 +213,23 @@ describe("a span at the ends of a Pt100's range (issue 15): the limit in °C tha
     return issues[0]!;
   };
 
-  it('−200 … 850 °C (IEC 60751): the ends no converter code reaches, the nearest readings, and a range that is accepted', () => {
+  it('−200 … 850 °C (IEC 60751): the nearest readings in °C (never "-200 °C past -200 °C"), and a range that is accepted', () => {
     const issue = issueOf(pt100([-200, 850]));
     expect(issue.message).toContain(
-      "-200 °C is the end of the sensor's range, which no converter code reaches: the nearest code reads -199.99999 °C (the sensor's range is -200 °C … 850 °C)",
+      "-200 °C is past what this channel reads (at least -199.99999 °C, the end of the sensor's range)",
     );
     expect(issue.message).toContain(
-      "850 °C is the end of the sensor's range, which no converter code reaches: the nearest code reads 849.9997 °C",
+      "850 °C is past what this channel reads (at most 849.99968 °C, the end of the sensor's range)",
     );
-    expect(issue.message).not.toMatch(/-200 °C is past what this channel reads \(at least -200 °C/);
     expect(issue.suggestion).toBe('narrow output.range to [-199.9 °C, 849.9 °C]');
     // The way out is accepted as written.
     expect(createChannel(pt100([-199.9, 849.9])).span).toEqual({ min: -199.9, max: 849.9 });
   });
 
-  it("a span past the sensor's range names the range; past the converter, the gain that fits, never a higher one", () => {
+  it("a span past the sensor's range gives its end; past the converter, the gain that fits, never a higher one", () => {
     const past = issueOf(pt100([-250, 100]));
     expect(past.message).toMatch(
-      /^-250 °C is past what this channel reads \(at least -200 °C: the sensor's range is -200 °C … 850 °C\)/,
+      /^-250 °C is past what this channel reads \(at least -199\.99999 °C, the end of the sensor's range\)/,
     );
     expect(past.suggestion).toBe('narrow output.range to [-199.9 °C, 100 °C]');
     const rails = issueOf(pt100([-250, 100], 4));
@@ -240,6 +239,6 @@ describe("a span at the ends of a Pt100's range (issue 15): the limit in °C tha
     expect(high.suggestion).toMatch(
       /^lower amplifier\.gain to 2 or narrow output\.range to \[0 °C, 560\.\d+ °C\]$/,
     );
-    expect(() => createChannel(pt100([0, 850], 2))).toThrow(/nearest code reads 849\.9997 °C/);
+    expect(() => createChannel(pt100([0, 850], 2))).toThrow(/at most 849\.99968 °C/);
   });
 });

@@ -121,7 +121,7 @@ describe('nonsense designs that can be built are failed or flagged by the design
     const r = await run('report', path, '--channel', 'gusset-g2');
     expect(r.code).toBe(exitCodes.badInput);
     expect(r.stderr).toMatch(
-      /:\d+:\d+: channels\.gusset-g2\.excitation\.sourceOhms: must be 0 with a ratiometric converter, whose reference is the excitation at the instrument's terminals/,
+      /:\d+:\d+: channels\.gusset-g2\.excitation\.sourceOhms: must be 0 with a ratiometric converter: its reference is taken at the excitation terminals/,
     );
     expect(r.stdout).not.toMatch(/Every check passed/);
     // With an absolute reference the 1e12 Ω starves the bridge: refused, with what to check.

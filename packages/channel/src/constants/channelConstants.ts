@@ -29,8 +29,8 @@ import { channelInternals } from '../internal/makeChannel.js';
 
 /**
  * The accuracy the channel states for its binary64 map `quantityFromCode` against 40-digit
- * references, relative to the largest |value| the channel reads over its valid codes (not to each
- * value: near zero a value is a small difference of large ones; docs/channel.md, "Accuracy and
+ * references at the codes of its span, relative to the span's largest |value| (not to each value:
+ * near zero a value is a small difference of large ones; docs/channel.md, "Accuracy and
  * verification"). Times that largest value it is the reference error added to every firmware
  * bound.
  */
@@ -191,7 +191,7 @@ function inChannelTerms<T>(step: () => T): T {
  * The exact map is the channel's own `quantityFromCode`; the firmware package's
  * `designFirmwareConstants` fits, chooses and verifies every code of the span (up to 2^24 codes;
  * above that the bound is measured, not proved) and adds the map's own error: the channel's stated
- * accuracy {@link CHANNEL_MAP_RELATIVE_ACCURACY} times the largest value it reads over its valid codes.
+ * accuracy {@link CHANNEL_MAP_RELATIVE_ACCURACY} times the span's largest value.
  * Default target: max(u_c/10, one output step), with u_c the combined standard uncertainty of the
  * channel's budget at its default point (docs/firmware.md). A target no form meets is an
  * `out-of-range` error naming the best bound reached; no header is made.
@@ -264,18 +264,9 @@ export function channelConstants(channel: Channel, options: ConstantsOptions = {
     standardUncertainty = uc;
     targetError = Math.max(uc / 10, resolution);
   }
-  // The map's stated accuracy is relative to the largest value read over the valid codes.
-  const valid = channel.validCodes;
-  const readsLargest = Math.max(
-    largest,
-    ...[Math.floor(valid.min) + 1, Math.ceil(valid.max) - 1].map((c) => {
-      const q = Math.abs(channel.quantityFromCode(c));
-      return Number.isFinite(q) ? q : 0;
-    }),
-  );
   const referenceError: ReferenceError = {
-    bound: CHANNEL_MAP_RELATIVE_ACCURACY * readsLargest,
-    source: `the channel's stated accuracy of its binary64 map, ${CHANNEL_MAP_RELATIVE_ACCURACY} of the largest value it reads over its valid codes against 40-digit references (docs/channel.md, measured by its tests)`,
+    bound: CHANNEL_MAP_RELATIVE_ACCURACY * largest,
+    source: `the channel's stated accuracy of its binary64 map, ${CHANNEL_MAP_RELATIVE_ACCURACY} of the span's largest value against 40-digit references (docs/channel.md, measured by its tests)`,
   };
   const pass = (key: string) => (o[key] === undefined ? {} : { [key]: o[key] });
   const design = inChannelTerms(() =>

@@ -38,36 +38,17 @@ const fieldOfParam: Readonly<Record<string, string>> = {
   calibration: 'calibration.coefficients',
 };
 
-/** Sections of the spec searched, in order, for a component's parameter of the same name. */
-const SECTIONS = [
-  'sensor',
-  'bridge',
-  'excitation',
-  'amplifier',
-  'adc',
-  'adc.filter',
-  'environment',
-  'output',
-];
-
 /**
- * The spec field a component package's parameter comes from: the table above, else the field of
- * the same name in the sensor fragment or another section (`gaugeFactor` → `sensor.gaugeFactor`,
- * `r0Ohms` → `sensor.r0Ohms`), else `''` (the channel as a whole).
+ * The spec field a component package's parameter comes from: the table above, else the sensor
+ * field of the same name (`gaugeFactor` → `sensor.gaugeFactor`, `r0Ohms` → `sensor.r0Ohms`), else
+ * `''` (the channel as a whole).
  */
 export function specFieldOf(param: string | undefined, spec: AnySpec): string {
-  if (param === undefined || param === '') return '';
-  const direct = fieldOfParam[param];
-  if (direct !== undefined) return direct;
-  const key = param.slice(param.lastIndexOf('.') + 1).replace(/\[\d+\]$/, '');
-  for (const section of SECTIONS) {
-    let node: unknown = spec;
-    for (const part of section.split('.')) {
-      node = typeof node === 'object' && node !== null ? (node as Record<string, unknown>)[part] : undefined;
-    }
-    if (typeof node === 'object' && node !== null && Object.hasOwn(node, key)) return `${section}.${key}`;
-  }
-  return fieldOfParam[key] ?? '';
+  const key = (param ?? '').slice((param ?? '').lastIndexOf('.') + 1);
+  return (
+    fieldOfParam[param ?? ''] ??
+    (key !== '' && Object.hasOwn(spec.sensor, key) ? `sensor.${key}` : (fieldOfParam[key] ?? ''))
+  );
 }
 
 /** The issue for a component package's error while building the model. */
@@ -216,27 +197,6 @@ export function prepareChannel(
       return Number.NaN;
     }
   };
-  // The ends of the sensor's own range (an RTD's −200 … 850 °C), in the channel's unit, when finite.
-  const sensorEnds = (() => {
-    try {
-      const { ratioRange } = nominal.model;
-      const a = nominal.model.valueFromRatio(ratioRange.min);
-      const b = nominal.model.valueFromRatio(ratioRange.max);
-      return Number.isFinite(a) && Number.isFinite(b)
-        ? { min: Math.min(a, b), max: Math.max(a, b) }
-        : undefined;
-    } catch {
-      return undefined;
-    }
-  })();
-  /** A limit with enough digits to differ from the value it is compared with (never "-200 past -200"). */
-  const precise = (x: number, other: number) => {
-    for (let d = 4; d <= 15; d++) {
-      const t = formatQuantity(x, unit, d);
-      if (t !== formatQuantity(other, unit, d)) return t;
-    }
-    return formatQuantity(x, unit, 17);
-  };
   // A readable end rounded inward to a round number (a ten-thousandth of the readable width).
   const width = reads.max - reads.min;
   const step = 10 ** (Math.floor(Math.log10(width > 0 ? width : 1)) - 4);
@@ -254,29 +214,14 @@ export function prepareChannel(
     // Which limit binds: the converter's rails, or the sensor's own range?
     const highCode = (end === 'upper') === increasing;
     const railBound = highCode ? hi === adc.codeMax : lo === adc.codeMin;
-    const sensorEnd =
-      sensorEnds === undefined ? undefined : end === 'lower' ? sensorEnds.min : sensorEnds.max;
     const most = end === 'lower' ? 'least' : 'most';
-    if (railBound) {
-      byConverter = true;
-      problems.push(
-        `${formatQuantity(value, unit, 8)} is past what this channel reads (at ${most} ${precise(limit, value)}, the converter's full scale at gain ${formatSignificant(gain)})`,
-      );
-    } else {
-      bySensor = true;
-      const beyond = sensorEnd !== undefined && (end === 'lower' ? value < sensorEnd : value > sensorEnd);
-      const rangeText =
-        sensorEnds === undefined
-          ? "the end of the sensor's range"
-          : `the sensor's range is ${formatQuantity(sensorEnds.min, unit, 6)} … ${formatQuantity(sensorEnds.max, unit, 6)}`;
-      problems.push(
-        beyond || sensorEnd === undefined
-          ? `${formatQuantity(value, unit, 8)} is past what this channel reads (at ${most} ${precise(limit, value)}: ${rangeText})`
-          : `${formatQuantity(value, unit, 8)} is the end of the sensor's range, which no converter code reaches: the nearest code reads ${precise(limit, value)} (${rangeText})`,
-      );
-    }
+    byConverter ||= railBound;
+    bySensor ||= !railBound;
+    problems.push(
+      `${formatQuantity(value, unit, 8)} is past what this channel reads (at ${most} ${formatQuantity(limit, unit, 8)}${railBound ? `, the converter's full scale at gain ${formatSignificant(gain)}` : ", the end of the sensor's range"})`,
+    );
     fixed[end === 'lower' ? 'min' : 'max'] = nice(limit, end);
-    limitText = precise(limit, value);
+    limitText = formatQuantity(limit, unit, 8);
   }
   if (problems.length > 0) {
     const inward = `narrow output.range to [${formatQuantity(fixed.min, unit, 8)}, ${formatQuantity(fixed.max, unit, 8)}]`;

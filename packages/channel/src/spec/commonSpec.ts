@@ -186,7 +186,7 @@ export function commonFields<const A extends string>(arrangements: readonly A[])
       {
         volts: numberField({ doc: 'Source EMF', unit: volts, min: 0, minExclusive: true }),
         sourceOhms: numberField({
-          doc: "Internal resistance of the source (an absolute reference sees it; must be 0 with a ratiometric converter unless bridge.wiring is 'six-wire')",
+          doc: 'Internal resistance of the source (absolute reference only)',
           unit: ohms,
           min: 0,
           max: 1e12,

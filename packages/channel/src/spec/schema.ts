@@ -636,25 +636,22 @@ export function objectField<F extends Fields, const P extends Presence = 'requir
       for (const key of Object.keys(value)) {
         if (!Object.hasOwn(fields, key)) {
           const moved = o.renamed !== undefined && Object.hasOwn(o.renamed, key) ? o.renamed[key] : undefined;
-          if (moved !== undefined) {
-            report(ctx, joinPath(path, key), 'unknown-option', `unknown field: renamed; ${moved}`, {
-              suggestion: moved,
-            });
-            ok = false;
-            continue;
-          }
-          const near = closestName(key, known);
+          const near = moved === undefined ? closestName(key, known) : undefined;
           report(
             ctx,
             joinPath(path, key),
             'unknown-option',
-            near === undefined
-              ? `unknown field; expected one of ${known.join(', ')}`
-              : `unknown field; did you mean '${near}'?`,
-            {
-              expected: `one of ${known.join(', ')}`,
-              ...(near === undefined ? {} : { suggestion: `write '${near}'` }),
-            },
+            moved !== undefined
+              ? `unknown field: renamed; write it as ${moved}`
+              : near === undefined
+                ? `unknown field; expected one of ${known.join(', ')}`
+                : `unknown field; did you mean '${near}'?`,
+            moved !== undefined
+              ? { suggestion: `write it as ${moved}` }
+              : {
+                  expected: `one of ${known.join(', ')}`,
+                  ...(near === undefined ? {} : { suggestion: `write '${near}'` }),
+                },
           );
           ok = false;
         }
