@@ -3,6 +3,7 @@ import { constantsCommand } from './constants/constantsCommand.js';
 import { convertCommand } from './convert/convertCommand.js';
 import { demoCommand } from './demo/demoCommand.js';
 import { fitCalibrationCommand } from './fit/fitCommand.js';
+import { fitGroupCommand } from './fitGroup/fitGroupCommand.js';
 import { helpCommand } from './help/helpCommand.js';
 import { reportCommand } from './report/reportCommand.js';
 import { shuntApplyCommand, shuntPlanCommand } from './shunt/shuntCommands.js';
@@ -20,6 +21,7 @@ export const commands: readonly CommandSpec[] = Object.freeze([
   shuntPlanCommand,
   shuntApplyCommand,
   fitCalibrationCommand,
+  fitGroupCommand,
   demoCommand,
   helpCommand,
 ] as unknown as CommandSpec[]);

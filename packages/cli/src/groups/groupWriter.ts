@@ -128,7 +128,9 @@ export function planGroupOutput(options: GroupOutputOptions): GroupOutputPlan {
             group: g.spec.name,
             kind: 'multi-component',
             bridges: g.spec.bridges,
-            schedule: g.spec.calibration.schedule,
+            ...(g.spec.calibration.form === 'schedule'
+              ? { schedule: g.spec.calibration.schedule }
+              : { storedCoefficients: true, source: g.spec.calibration.source ?? null }),
             terms: g.calibration.terms.map((t) => t.name),
             inverse: g.calibration.createInverse().method,
             columns: g.spec.components.map((c) => `${g.spec.name}.${c.name}`),
