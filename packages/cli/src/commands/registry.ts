@@ -1,5 +1,6 @@
 import type { CommandSpec } from '../args/optionTable.js';
 import { constantsCommand } from './constants/constantsCommand.js';
+import { checkCertificateCommand } from './certificate/certificateCommand.js';
 import { convertCommand } from './convert/convertCommand.js';
 import { demoCommand } from './demo/demoCommand.js';
 import { fitCalibrationCommand } from './fit/fitCommand.js';
@@ -21,6 +22,7 @@ export const commands: readonly CommandSpec[] = Object.freeze([
   shuntPlanCommand,
   shuntApplyCommand,
   fitCalibrationCommand,
+  checkCertificateCommand,
   fitGroupCommand,
   demoCommand,
   helpCommand,
