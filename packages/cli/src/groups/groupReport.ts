@@ -323,23 +323,54 @@ function platformReport(g: PlatformGroup): GroupReport {
   const cellUnits = g.bridges.map((b) => b.unit);
   // Errors below 1e-12 of the test load are rounding of the fit (numerical dust), shown as a bound.
   const dust = 1e-12 * e.testLoad;
+  const s = g.summing;
+  // The check positions in the order they were evaluated (file order).
+  const checkNames = g.positions.filter((_, p) => g.fitted[p] !== true);
+  const junction = g.spec.summing;
   const paragraphs = [
-    `${g.bridges.length} load cells (${g.spec.bridges.join(', ')}) summed digitally: ${g.spec.indication.name} = Σ k_i·r_i in ${unit}, r_i each cell's converted value (${[...new Set(cellUnits)].join(', ')}).`,
-    `Factors k_i from the eccentricity test ${e.test} (${g.fitted.filter((f) => f).length} positions of ${formatNumber(e.testLoad, 4)} ${unit}, least squares; condition ${formatNumber(g.factors.condition, 3)})${e.checkPositions.length > 0 ? `; ${e.checkPositions.join(', ')} only checks them` : ''}.`,
+    s === undefined || junction === undefined
+      ? `${g.bridges.length} load cells (${g.spec.bridges.join(', ')}) summed digitally: ${g.spec.indication.name} = Σ k_i·r_i in ${unit}, r_i each cell's converted value (${[...new Set(cellUnits)].join(', ')}).`
+      : `${g.bridges.length} load cells (${g.spec.bridges.join(', ')}) summed in an analog junction: each cell's excitation through a trim resistor (${junction.trimPlacement === 'both-excitation' ? 'split between its +E and −E leads' : 'in its +E lead'}), the signals paralleled onto two buses${junction.summingOhms > 0 ? ` through ${formatNumber(junction.summingOhms, 4)} Ω each` : ''}, read by an indicator ${Number.isFinite(junction.meterOhms) ? `of ${formatNumber(junction.meterOhms, 4)} Ω input` : 'drawing no current'}; cells of ${[...new Set(junction.cellOhms.map((r) => formatNumber(r, 4)))].join(', ')} Ω. ${g.spec.indication.name} = k·(summed output), k = ${formatNumber(s.spanFactor / 1000, 7)} ${unit} per mV/V of supply.`,
+    s === undefined
+      ? `Factors k_i from the eccentricity test ${e.test} (${g.fitted.filter((f) => f).length} positions of ${formatNumber(e.testLoad, 4)} ${unit}, least squares; condition ${formatNumber(g.factors.condition, 3)})${e.checkPositions.length > 0 ? `; ${e.checkPositions.join(', ')} only checks them` : ''}.`
+      : `Trims from the eccentricity test ${e.test} (${g.fitted.filter((f) => f).length} positions of ${formatNumber(e.testLoad, 4)} ${unit}), solved through the junction's network exactly (calibration fitSummingTrims, ${s.trims.iterations} Newton ${s.trims.iterations === 1 ? 'step' : 'steps'}): the corners read alike ${s.trims.positionSpreadFraction < 1e-12 ? 'to rounding (within 1e−12 of their mean)' : `within ${formatPercent(s.trims.positionSpreadFraction)} of their mean`}; ${g.spec.bridges[s.trims.referenceCell]} needs the most excitation and is left untrimmed${e.checkPositions.length > 0 ? `; ${e.checkPositions.join(', ')} only checks them` : ''}.`,
+    ...(s === undefined || s.trims.checks.length === 0
+      ? []
+      : [
+          `Remaining difference of the check positions from the corners' mean output: ${s.trims.checks.map((c, k) => `${checkNames[k] ?? `check ${k + 1}`} ${formatPercent(c.differenceFraction)}`).join(', ')}. This is the junction's second-order effect, not a trim error: each cell's input and output resistance changes as R(1 − x²) with load and one cell's imbalance drives currents through the others, so it shrinks about as the load squared.`,
+        ]),
     `OIML R 76 eccentricity test, class ${e.accuracyClass}, Max ${formatNumber(e.maxCapacity, 4)} ${unit}, e = ${formatNumber(e.verificationInterval, 4)} ${unit}: mpe at the test load ${formatNumber(check.mpe, 3)} ${unit} (${formatNumber(check.mpeInIntervals, 2)} e); the test load R 76 asks for with ${e.supportPoints} supports is ${formatNumber(check.recommendedTestLoad, 4)} ${unit}; spread of the indications ${formatNumber(check.spread, 3)} ${unit}.`,
   ];
   const tables: GroupTable[] = [
+    s === undefined
+      ? {
+          caption: `cell factors k (${unit} per reading unit)`,
+          columns: [{ header: 'cell' }, right('factor k'), { header: 'per' }],
+          rows: g.factors.factors.map((k, i) => [
+            g.spec.bridges[i] as string,
+            formatNumber(k, 7),
+            cellUnits[i] as string,
+          ]),
+        }
+      : {
+          caption: `trim resistors of the summing junction (Ω), beside the digital factors the same test gives (${unit} per reading unit)`,
+          columns: [
+            { header: 'cell' },
+            right('trim (Ω)'),
+            { header: 'role' },
+            right('digital factor'),
+            { header: 'per' },
+          ],
+          rows: s.trims.trimsOhms.map((t, i) => [
+            g.spec.bridges[i] as string,
+            formatNumber(t, 5),
+            i === s.trims.referenceCell ? 'reference' : 'trimmed',
+            formatNumber(g.factors.factors[i] as number, 7),
+            cellUnits[i] as string,
+          ]),
+        },
     {
-      caption: `cell factors k (${unit} per reading unit)`,
-      columns: [{ header: 'cell' }, right('factor k'), { header: 'per' }],
-      rows: g.factors.factors.map((k, i) => [
-        g.spec.bridges[i] as string,
-        formatNumber(k, 7),
-        cellUnits[i] as string,
-      ]),
-    },
-    {
-      caption: `indication at each position with the factors (${unit})`,
+      caption: `indication at each position with the ${s === undefined ? 'factors' : 'trims'} (${unit})`,
       columns: [
         { header: 'position' },
         { header: 'role' },
@@ -381,6 +412,25 @@ function platformReport(g: PlatformGroup): GroupReport {
       bridges: g.spec.bridges,
       bridgeUnits: cellUnits,
       indication: { name: g.spec.indication.name, unit },
+      summing:
+        s === undefined || junction === undefined
+          ? null
+          : {
+              trimsOhms: s.trims.trimsOhms,
+              referenceCell: g.spec.bridges[s.trims.referenceCell],
+              trimPlacement: junction.trimPlacement,
+              cellOhms: junction.cellOhms,
+              summingOhms: junction.summingOhms,
+              meterOhms: Number.isFinite(junction.meterOhms) ? junction.meterOhms : null,
+              spanFactorPerVoltPerVolt: s.spanFactor,
+              positionRatios: s.trims.positionRatios,
+              positionSpreadFraction: s.trims.positionSpreadFraction,
+              checks: s.trims.checks.map((c, k) => ({
+                position: checkNames[k],
+                ratio: c.ratio,
+                differenceFraction: c.differenceFraction,
+              })),
+            },
       factors: g.factors.factors,
       condition: g.factors.condition,
       positions: g.positions.map((name, p) => ({

@@ -6,7 +6,7 @@
  */
 import { closestName, formatValue, type SpecIssue } from '@bridgework/core';
 import { interactionTermChoices, instrumentAccuracyClasses } from '@bridgework/calibration';
-import type { InstrumentAccuracyClass, InteractionTerms } from '@bridgework/calibration';
+import type { InstrumentAccuracyClass, InteractionTerms, TrimPlacement } from '@bridgework/calibration';
 import { dimensionTable, dimensions, parseQuantity, type Dimension } from '@bridgework/channel';
 import { channelNamePattern } from '../channelFile/loadChannelFile.js';
 import { reservedNames } from '../channelFile/parseChannelDocument.js';
@@ -96,6 +96,21 @@ export interface StoredCalibrationSpec {
   readonly source?: StoredCalibrationSource;
 }
 
+/** An analog summing junction: each cell's excitation through a trim resistor, the signals paralleled onto two buses. */
+export interface SummingSpec {
+  /** Each cell's bridge resistance, Ω (one per cell). */
+  readonly cellOhms: readonly number[];
+  /** Where the trims sit: split between +E and −E (default), or all in +E. */
+  readonly trimPlacement: TrimPlacement;
+  /** The resistor from each cell's +S and −S to the buses, Ω (0: paralleled directly). */
+  readonly summingOhms: number;
+  /** The indicator's input resistance across the buses, Ω (Infinity: open). */
+  readonly meterOhms: number;
+}
+
+/** The trim placements of an analog summing junction. */
+export const trimPlacements = ['both-excitation', 'positive-excitation'] as const;
+
 /** A platform group: load cells summed with per-cell factors from an eccentricity (corner) test. */
 export interface PlatformGroupSpec {
   /** The kind. */
@@ -106,6 +121,8 @@ export interface PlatformGroupSpec {
   readonly bridges: readonly string[];
   /** The platform's indication (one component). */
   readonly indication: GroupComponent;
+  /** An analog summing junction whose trims the eccentricity test sets (digital summing without it). */
+  readonly summing?: SummingSpec;
   /** The eccentricity test and the R 76 check. */
   readonly eccentricity: {
     /** The test file (CSV: a `position` column and one column per cell), relative to the channel file. */
@@ -294,7 +311,7 @@ function bridgeList(
 
 const groupKeys = {
   'multi-component': ['kind', 'bridges', 'components', 'calibration'],
-  platform: ['kind', 'bridges', 'indication', 'eccentricity'],
+  platform: ['kind', 'bridges', 'indication', 'eccentricity', 'summing'],
 } as const;
 
 function interactionChoice(list: IssueList, path: string, value: unknown): InteractionTerms | undefined {
@@ -593,6 +610,92 @@ function multiComponent(
   return { kind: 'multi-component', name, bridges, components, calibration };
 }
 
+function summingJunction(
+  list: IssueList,
+  at: string,
+  raw: unknown,
+  bridges: readonly string[] | undefined,
+): SummingSpec | undefined {
+  if (!isRecord(raw)) {
+    list.add(
+      at,
+      `must be a mapping with 'cellOhms' (the cells' bridge resistance); got ${formatValue(raw)}`,
+      {
+        code: 'invalid-shape',
+      },
+    );
+    return undefined;
+  }
+  const before = list.issues.length;
+  list.unknown(raw, ['cellOhms', 'trimPlacement', 'summingOhms', 'meterOhms'], at);
+  if (
+    !list.required(
+      raw,
+      ['cellOhms'],
+      at,
+      "each cell's bridge resistance, such as '350 Ω' (one for all, or a list)",
+    )
+  )
+    return undefined;
+  const ohms = (path: string, value: unknown): number | undefined => {
+    const v = quantity(list, path, value, 'Ω', true);
+    if (v !== undefined && (v < 1e-3 || v > 1e12)) {
+      list.add(path, `${formatValue(value)} is outside 1 mΩ … 1 TΩ`, {
+        code: 'out-of-range',
+        limit: '1 mΩ … 1 TΩ',
+      });
+      return undefined;
+    }
+    return v;
+  };
+  const raws = raw['cellOhms'];
+  let cellOhms: number[] | undefined;
+  if (Array.isArray(raws)) {
+    if (bridges !== undefined && raws.length !== bridges.length)
+      list.add(`${at}.cellOhms`, `lists ${raws.length} resistances for ${bridges.length} cells`, {
+        code: 'invalid-shape',
+        suggestion: 'give one resistance per cell, or one for all',
+      });
+    else {
+      const values = raws.map((v, i) => ohms(`${at}.cellOhms[${i}]`, v));
+      if (values.every((v) => v !== undefined)) cellOhms = values as number[];
+    }
+  } else {
+    const one = ohms(`${at}.cellOhms`, raws);
+    if (one !== undefined && bridges !== undefined) cellOhms = bridges.map(() => one);
+  }
+  const placement = raw['trimPlacement'] ?? 'both-excitation';
+  if (!trimPlacements.includes(placement as TrimPlacement))
+    list.add(
+      `${at}.trimPlacement`,
+      `must be one of ${trimPlacements.join(', ')}; got ${formatValue(placement)}`,
+      {
+        code: 'invalid-option',
+      },
+    );
+  let summingOhms = 0;
+  if (raw['summingOhms'] !== undefined) {
+    const v = quantity(list, `${at}.summingOhms`, raw['summingOhms'], 'Ω', false);
+    if (v !== undefined && !(v >= 0 && v <= 1e12))
+      list.add(
+        `${at}.summingOhms`,
+        `must be ≥ 0 Ω and at most 1 TΩ; got ${formatValue(raw['summingOhms'])}`,
+        {
+          code: 'out-of-range',
+          limit: '0 … 1 TΩ',
+        },
+      );
+    else if (v !== undefined) summingOhms = v;
+  }
+  let meterOhms = Infinity;
+  if (raw['meterOhms'] !== undefined && raw['meterOhms'] !== 'open') {
+    const v = ohms(`${at}.meterOhms`, raw['meterOhms']);
+    if (v !== undefined) meterOhms = v;
+  }
+  if (list.issues.length > before || cellOhms === undefined) return undefined;
+  return { cellOhms, trimPlacement: placement as TrimPlacement, summingOhms, meterOhms };
+}
+
 function platform(
   list: IssueList,
   name: string,
@@ -735,8 +838,20 @@ function platform(
       }
     }
   }
+  const summing =
+    raw['summing'] === undefined
+      ? undefined
+      : summingJunction(list, `${at}.summing`, raw['summing'], bridges);
   if (bridges === undefined || indication === undefined || eccentricity === undefined) return undefined;
-  return { kind: 'platform', name, bridges, indication, eccentricity };
+  if (raw['summing'] !== undefined && summing === undefined) return undefined;
+  return {
+    kind: 'platform',
+    name,
+    bridges,
+    indication,
+    eccentricity,
+    ...(summing === undefined ? {} : { summing }),
+  };
 }
 
 /**
@@ -749,7 +864,8 @@ function platform(
  * `calibration`, either fitted when read (`schedule`, `interactions`, `offset`,
  * `independenceTolerance`) or stored (`terms`, `coefficients` per bridge, `readingUnit`,
  * `covariance`, `source`; every component then needs a `fullScale`); for a platform
- * `indication` (`{ name, unit }`) and `eccentricity` (`test`, `testLoad`, `checkPositions`,
+ * `indication` (`{ name, unit }`), optionally `summing` (an analog junction: `cellOhms`,
+ * `trimPlacement`, `summingOhms`, `meterOhms`) and `eccentricity` (`test`, `testLoad`, `checkPositions`,
  * `accuracyClass`, `maxCapacity`, `verificationInterval`, `supportPoints`). Every problem is an
  * issue with its full field path (`groups.coupling.components.Fx.unit`).
  *

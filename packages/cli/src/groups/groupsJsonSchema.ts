@@ -154,6 +154,32 @@ export function groupsJsonSchema(): Record<string, unknown> {
           unit: text("The indication's unit (kg, t, N, …)"),
         },
       },
+      summing: {
+        type: 'object',
+        description:
+          'An analog summing junction whose trim resistors the eccentricity test sets (without it the cells are summed digitally with factors)',
+        additionalProperties: false,
+        required: ['cellOhms'],
+        properties: {
+          cellOhms: {
+            type: ['number', 'string', 'array'],
+            items: { type: ['number', 'string'] },
+            description:
+              "Each cell's bridge resistance: one for every cell, or a list (a number in Ω, or a text with a unit)",
+          },
+          trimPlacement: {
+            enum: ['both-excitation', 'positive-excitation'],
+            description: "Where each cell's trim sits: split between +E and −E (default), or all in +E",
+          },
+          summingOhms: quantity(
+            "The resistor from each cell's +S and −S to the buses; default 0 (paralleled directly)",
+          ),
+          meterOhms: {
+            type: ['number', 'string'],
+            description: "The indicator's input resistance across the buses; default 'open'",
+          },
+        },
+      },
       eccentricity: {
         type: 'object',
         description: 'The eccentricity (corner) test that sets the cell factors, and the OIML R 76 check',

@@ -4,12 +4,14 @@ import {
   createMultiComponentModel,
   fitCornerFactors,
   fitMultiComponent,
+  fitSummingTrims,
   type CheckResult,
   type CornerFactors,
   type EccentricityCheck,
   type LoadingPoint,
   type MultiComponentCalibration,
   type MultiComponentModel,
+  type SummingTrims,
 } from '@bridgework/calibration';
 import { createChannel, parseQuantity, type Channel } from '@bridgework/channel';
 import { BridgeworkError, isBridgeworkError, type SpecIssue } from '@bridgework/core';
@@ -73,6 +75,22 @@ export interface PlatformGroup {
   readonly indications: readonly number[];
   /** The OIML R 76 eccentricity check of those indications. */
   readonly eccentricity: CheckResult<EccentricityCheck>;
+  /**
+   * With an analog summing junction: its trims (solved through the network exactly), the
+   * indicator's span factor and each cell's reading-to-ratio factor; the indications are then the
+   * junction's (`factors` stays the digital solution, for comparison).
+   */
+  readonly summing?: AnalogSumming;
+}
+
+/** An analog summing junction's trims and scale (see {@link PlatformGroup.summing}). */
+export interface AnalogSumming {
+  /** The trims, the reference cell, each position's summed output (V/V of the supply), the checks. */
+  readonly trims: SummingTrims;
+  /** The indicator's span factor: indication unit per V/V of summed output (the test load over the fitted positions' mean output). */
+  readonly spanFactor: number;
+  /** Each cell's V/V per unit of its channel's reading (1000 for mV/V). */
+  readonly ratioPerReading: readonly number[];
 }
 
 /** A group of a channel file, ready to use. */
@@ -381,17 +399,55 @@ async function loadPlatform(
     issues.push(...local);
     return undefined;
   }
+  // An analog junction works on the cells' own output ratios: each cell's reading in V/V.
+  let ratioPerReading: number[] | undefined;
+  if (spec.summing !== undefined) {
+    try {
+      ratioPerReading = bridges.map((b) => parseQuantity(`1 ${b.unit}`, 'V/V'));
+    } catch {
+      issues.push({
+        code: 'invalid-option',
+        path: `groups.${spec.name}.summing`,
+        message: `an analog summing junction needs each cell's own output ratio, but the cells read ${[...new Set(bridges.map((b) => b.unit))].join(', ')}`,
+        suggestion: 'read the cells as their output ratio (output: { quantity: ratio, unit: mV/V })',
+      });
+      return undefined;
+    }
+  }
   try {
     const factors = fitCornerFactors({
       cellReadings: fitRows,
       testLoad: e.testLoad,
       checkReadings: checkRows,
     });
+    let summing: AnalogSumming | undefined;
     let fi = 0;
     let ci = 0;
-    const indications = fitted.map((f) =>
-      f ? (factors.positions[fi++]?.indication as number) : (factors.checks[ci++]?.indication as number),
-    );
+    let indications: number[];
+    if (spec.summing !== undefined && ratioPerReading !== undefined) {
+      const perCell = ratioPerReading;
+      const toRatios = (rows: number[][]) => rows.map((row) => row.map((x, i) => x * (perCell[i] as number)));
+      const trims = fitSummingTrims({
+        cellOhms: spec.summing.cellOhms,
+        trimPlacement: spec.summing.trimPlacement,
+        summingOhms: spec.summing.summingOhms,
+        meterOhms: spec.summing.meterOhms,
+        cellRatios: toRatios(fitRows),
+        checkRatios: toRatios(checkRows),
+      });
+      const mean = trims.positionRatios.reduce((a, x) => a + x, 0) / trims.positionRatios.length;
+      const spanFactor = e.testLoad / mean;
+      summing = { trims, spanFactor, ratioPerReading: perCell };
+      indications = fitted.map((f) =>
+        f
+          ? spanFactor * (trims.positionRatios[fi++] as number)
+          : spanFactor * (trims.checks[ci++]?.ratio as number),
+      );
+    } else {
+      indications = fitted.map((f) =>
+        f ? (factors.positions[fi++]?.indication as number) : (factors.checks[ci++]?.indication as number),
+      );
+    }
     const eccentricity = checkEccentricity({
       accuracyClass: e.accuracyClass,
       maxCapacity: e.maxCapacity,
@@ -400,13 +456,23 @@ async function loadPlatform(
       indications,
       supportPoints: e.supportPoints,
     });
-    return { kind: 'platform', spec, bridges, positions, fitted, factors, indications, eccentricity };
+    return {
+      kind: 'platform',
+      spec,
+      bridges,
+      positions,
+      fitted,
+      factors,
+      indications,
+      eccentricity,
+      ...(summing === undefined ? {} : { summing }),
+    };
   } catch (err) {
     if (!isBridgeworkError(err)) throw err;
     issues.push({
       code: err.code,
       path: at,
-      message: `${e.test} does not determine the cell factors: ${err.message}`,
+      message: `${e.test} does not determine the cell ${spec.summing === undefined ? 'factors' : 'trims'}: ${err.message}`,
       suggestion: 'put the test load over each cell (each corner or segment) in turn',
     });
     return undefined;

@@ -40,7 +40,10 @@ function schemaType(node: SchemaNode): string {
   if (Array.isArray(node['enum']))
     return (node['enum'] as unknown[]).map((v) => `'${String(v)}'`).join(' | ');
   const type = node['type'];
-  if (Array.isArray(type)) return type.includes('string') ? 'number or text with a unit' : type.join(' or ');
+  if (Array.isArray(type)) {
+    if (type.includes('array')) return 'number or text with a unit, or a list of them';
+    return type.includes('string') ? 'number or text with a unit' : type.join(' or ');
+  }
   if (type === 'array') {
     const items = (node['items'] ?? {}) as SchemaNode;
     if (items['type'] === 'array') return 'matrix of numbers (a list of rows)';
