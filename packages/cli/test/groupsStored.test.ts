@@ -12,6 +12,8 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { parse, stringify } from 'yaml';
 import { describe, expect, it } from 'vitest';
+import { interactionTermChoices } from '@bridgework/calibration';
+import { fitGroupOptions } from '../src/commands/fitGroup/fitGroupOptions.js';
 import { exitCodes } from '../src/exitCodes.js';
 import { runCli } from '../src/runCli.js';
 import { loadChannels } from '../src/channels/loadChannels.js';
@@ -97,6 +99,12 @@ describe('fit-group and the stored form', async () => {
     expect(schemaErrors(schema, data)).toEqual([]);
     data.groups.coupling.calibration.covariance.degreesOfFreedon = 3;
     expect(schemaErrors(schema, data)).not.toEqual([]);
+  });
+
+  it('offers the calibration package’s interaction choices', () => {
+    expect(fitGroupOptions.find((o) => o.name === 'interactions')!.choices).toEqual([
+      ...interactionTermChoices,
+    ]);
   });
 
   it('without --write nothing is written', async () => {

@@ -2,7 +2,6 @@
  * The option table of `bridgework fit-group` (apart from the command, so that its body imports
  * these types without an import cycle).
  */
-import { interactionTermChoices } from '@bridgework/calibration';
 import type { OptionSpec, ParsedArgs, PositionalSpec } from '../../args/optionTable.js';
 import { channelFileArgument, forceOption, jsonOption, outOption } from '../sharedOptions.js';
 
@@ -31,7 +30,9 @@ export const fitGroupOptions = [
     name: 'interactions',
     type: 'choice',
     placeholder: 'terms',
-    choices: [...interactionTermChoices],
+    // The calibration package's interactionTermChoices, written out: option tables load at start-up,
+    // which imports nothing but node built-ins and @bridgework/core (a test keeps the two equal).
+    choices: ['none', 'squares', 'products', 'second-order'],
     defaultText: "the group's own choice, else none",
     description:
       'The second-order terms the model may hold (AIAA R-091): none (the linear model), squares, products or second-order (both); terms the schedule cannot determine are left out and reported.',
