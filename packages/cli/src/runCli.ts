@@ -4,10 +4,21 @@ import { parseCommandLine } from './args/parseCommandLine.js';
 import type { ChannelFactory } from './channels/loadChannels.js';
 import type { CliIo } from './cliIo.js';
 import { createCommandContext } from './commands/createCommandContext.js';
+import type { CommandHelp } from './commands/CommandContext.js';
 import { commands } from './commands/registry.js';
 import { exitCodes } from './exitCodes.js';
 import { closestName } from '@bridgework/core';
 import { readVersion } from './internal/readVersion.js';
+
+/** The help texts of {@link commands}, handed to the command bodies through their context. */
+const commandHelp: CommandHelp = {
+  names: commands.map((c) => c.name),
+  program: () => formatProgramHelp(commands),
+  command: (name) => {
+    const spec = commands.find((c) => c.name === name);
+    return spec === undefined ? undefined : formatCommandHelp(spec);
+  },
+};
 
 /**
  * Runs the `bridgework` command in this process and returns its exit code.
@@ -93,7 +104,7 @@ export async function runCommandLine(
     }
     usage = false;
     const body = await spec.load();
-    return await body.run(parsed, createCommandContext(spec.name, io, channels));
+    return await body.run(parsed, createCommandContext(spec.name, io, commandHelp, channels));
   } catch (e) {
     if (isBridgeworkError(e)) {
       const hint = usage ? `Run 'bridgework ${spec.name} --help' for its options.\n` : '';

@@ -3,12 +3,27 @@ import type { CliIo } from '../cliIo.js';
 import type { ProgressBar, ProgressBarOptions } from '../terminal/progressBar.js';
 import type { TextStyle } from '../terminal/textStyle.js';
 
+/** The help texts of the program's commands. */
+export interface CommandHelp {
+  /** Every command's name, in the help text's order. */
+  readonly names: readonly string[];
+  /** The program's help: its usage and the list of commands. */
+  program(): string;
+  /** One command's help, or `undefined` for a name that is not a command. */
+  command(name: string): string | undefined;
+}
+
 /** What a command body gets besides its arguments (built by the command runner). */
 export interface CommandContext {
   /** The command word (`'report'`), for messages. */
   readonly command: string;
   /** Streams and environment. */
   readonly io: CliIo;
+  /**
+   * The program's help texts, for `help`: built by the runner from its command table, so that no
+   * command body imports the table that loads it.
+   */
+  readonly help: CommandHelp;
   /** Styling for standard output (plain unless it is a terminal and NO_COLOR is unset). */
   readonly stdoutStyle: TextStyle;
   /** Styling for standard error. */

@@ -10,7 +10,7 @@ import { constantsSql } from '../../report/constantsSql.js';
 import { constantsFiles, parsePerChannel, parseTypeList } from '../../report/constantsText.js';
 import type { CommandContext } from '../CommandContext.js';
 import { openResultOutput } from '../resultOutput.js';
-import type { ConstantsArgs } from './constantsCommand.js';
+import type { ConstantsArgs } from './constantsOptions.js';
 
 /**
  * The body of `bridgework constants`: the firmware constants of the selected channels as one C

@@ -20,7 +20,7 @@ import { splitOptionList } from '../../internal/splitOptionList.js';
 import { planGroupOutput, type GroupOutputPlan } from '../../groups/groupWriter.js';
 import { loadGroups } from '../../groups/loadGroups.js';
 import type { CommandContext } from '../CommandContext.js';
-import type { ConvertArgs } from './convertCommand.js';
+import type { ConvertArgs } from './convertOptions.js';
 
 /**
  * Splits `--channels`: channel names, comma-separated.

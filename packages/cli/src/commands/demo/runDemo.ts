@@ -14,7 +14,7 @@ import { designReportHtml } from '../../report/designReportHtml.js';
 import { formatTextReport } from '../../report/formatTextReport.js';
 import { runDate } from '../../report/runDate.js';
 import type { CommandContext } from '../CommandContext.js';
-import type { DemoArgs } from './demoCommand.js';
+import type { DemoArgs } from './demoOptions.js';
 
 /**
  * The demo's channel file, shipped in the package as `demo/footbridge-monitoring.yaml` and found

@@ -1,20 +1,5 @@
-import {
-  defineCommand,
-  type OptionSpec,
-  type ParsedArgs,
-  type PositionalSpec,
-} from '../../args/optionTable.js';
-
-/** The positional arguments of `bridgework help`. */
-export const helpArguments = [
-  { name: 'command', required: false, description: 'The command to describe.' },
-] as const satisfies readonly PositionalSpec[];
-
-/** The option table of `bridgework help`. */
-export const helpOptions = [] as const satisfies readonly OptionSpec[];
-
-/** The parsed arguments of `bridgework help`. */
-export type HelpArgs = ParsedArgs<typeof helpOptions, typeof helpArguments>;
+import { defineCommand } from '../../args/optionTable.js';
+import { helpArguments, helpOptions } from './helpOptions.js';
 
 /** `bridgework help [command]`. */
 export const helpCommand = defineCommand({

@@ -1,30 +1,26 @@
 import { BridgeworkError } from '@bridgework/core';
-import { formatCommandHelp, formatProgramHelp } from '../../args/formatHelp.js';
 import { exitCodes } from '../../exitCodes.js';
 import { closestName } from '@bridgework/core';
 import type { CommandContext } from '../CommandContext.js';
-import { commands } from '../registry.js';
-import type { HelpArgs } from './helpCommand.js';
+import type { HelpArgs } from './helpOptions.js';
 
 /** The body of `bridgework help [command]`. */
 export function run(args: HelpArgs, context: CommandContext): Promise<number> {
+  const { help } = context;
   const name = args.positionals.command;
   if (name === undefined) {
-    context.io.stdout.write(formatProgramHelp(commands));
+    context.io.stdout.write(help.program());
     return Promise.resolve(exitCodes.ok);
   }
-  const spec = commands.find((c) => c.name === name);
-  if (spec === undefined) {
-    const near = closestName(
-      name,
-      commands.map((c) => c.name),
-    );
+  const text = help.command(name);
+  if (text === undefined) {
+    const near = closestName(name, help.names);
     throw new BridgeworkError(
       'invalid-option',
       `unknown command '${name}'${near === undefined ? '' : `; did you mean '${near}'?`}`,
       { param: '<command>', value: name },
     );
   }
-  context.io.stdout.write(formatCommandHelp(spec));
+  context.io.stdout.write(text);
   return Promise.resolve(exitCodes.ok);
 }

@@ -15,7 +15,7 @@ import { reportJson } from '../../report/reportJson.js';
 import { runDate } from '../../report/runDate.js';
 import type { CommandContext } from '../CommandContext.js';
 import { openResultOutput } from '../resultOutput.js';
-import type { ReportArgs } from './reportCommand.js';
+import type { ReportArgs } from './reportOptions.js';
 
 /**
  * The body of `bridgework report`: loads the channel file, computes each channel's budget and

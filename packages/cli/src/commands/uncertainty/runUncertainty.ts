@@ -13,7 +13,7 @@ import {
 import type { CommandContext } from '../CommandContext.js';
 import { openResultOutput } from '../resultOutput.js';
 import { monteCarloInWorker } from './monteCarloJob.js';
-import type { UncertaintyArgs } from './uncertaintyCommand.js';
+import type { UncertaintyArgs } from './uncertaintyOptions.js';
 
 /**
  * The body of `bridgework uncertainty`: for each selected channel, the channel package's Monte
