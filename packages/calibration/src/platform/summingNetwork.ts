@@ -274,7 +274,7 @@ function checkCellRatios(param: string, value: unknown, cells: number): number[]
  * equations of the whole junction are solved by Gaussian elimination with partial pivoting, first
  * unloaded and then for the change the loads make, so the output is computed directly rather
  * than as the difference of two bus voltages near half the supply (exact but for rounding: within
- * 1e-12 relative, or 1e-13 of the largest cell ratio when the cells' outputs cancel, in the tests
+ * 1e-12 relative, or 1e-12 of the largest cell ratio when the cells' outputs cancel, in the tests
  * against a 40-digit solve). The output is
  * a rational function of the cell ratios, not their weighted sum: currents that one cell's
  * imbalance drives through the others make it nonlinear at second order.
