@@ -12,5 +12,10 @@ export {
   type StrainBridgeOptions,
   type StrainFromRatioOptions,
 } from './createStrainBridge.js';
+export {
+  createStrainBridgeKernel,
+  type StrainBridgeKernel,
+  type StrainBridgeKernelOptions,
+} from './createStrainBridgeKernel.js';
 export { solveArm, type SolveArmOptions } from './solveArm.js';
 export { solveBridge, type BridgeSolution, type SolveBridgeOptions } from './solveBridge.js';

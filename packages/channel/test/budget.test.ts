@@ -138,6 +138,44 @@ describe('budget: lines, models and the combined uncertainty', () => {
     expect(sum / 5000).toBeNear(kept.value, { rel: 1e-12 });
   });
 
+  it('reports progress per block of 16 384 trials and stops when its signal is aborted', () => {
+    const channel = createChannel(spec);
+    const seen: number[] = [];
+    const full = channelBudget(channel, {
+      monteCarlo: { trials: 40_000, seed: 3, onProgress: (p) => seen.push(p.trials) },
+    }).monteCarlo!;
+    expect(seen).toEqual([16_384, 32_768, 40_000]);
+    // Aborted from the progress hook after the first block: the run throws the signal's reason.
+    const controller = new AbortController();
+    const reason = new Error('stopped by the test');
+    let calls = 0;
+    expect(() =>
+      channelBudget(channel, {
+        monteCarlo: {
+          trials: 40_000,
+          seed: 3,
+          signal: controller.signal,
+          onProgress: () => {
+            calls++;
+            controller.abort(reason);
+          },
+        },
+      }),
+    ).toThrow(reason);
+    expect(calls).toBe(1);
+    // Without a reason: a closed error; never aborted: the same run as without a signal.
+    expect(() =>
+      channelBudget(channel, { monteCarlo: { trials: 5000, signal: { aborted: true } } }),
+    ).toThrowBridgeworkError('closed', { param: 'signal' });
+    const watched = channelBudget(channel, {
+      monteCarlo: { trials: 40_000, seed: 3, signal: new AbortController().signal },
+    }).monteCarlo!;
+    expect(watched.value).toBe(full.value);
+    expect(() =>
+      channelBudget(channel, { monteCarlo: { trials: 5000, signal: 'stop' as never } }),
+    ).toThrowBridgeworkError('wrong-type', { param: 'options.monteCarlo.signal' });
+  });
+
   it('adds the IEC 60751 class tolerance of an RTD (class A at 100 °C: ±0.35 °C)', () => {
     const rtd = channelBudget(
       createChannel({

@@ -23,6 +23,7 @@ import {
 import {
   MONTE_CARLO_MAX_TRIALS,
   monteCarlo,
+  type AbortSignalLike,
   propagate,
   type InputQuantities,
   type MonteCarloProgress,
@@ -55,6 +56,13 @@ export interface MonteCarloBudgetOptions {
   readonly returnValues?: boolean;
   /** Called as the trials are done (the uncertainty package's `onProgress`: after every block of 16 384 trials). */
   readonly onProgress?: (progress: MonteCarloProgress) => void;
+  /**
+   * Stops the run once `signal.aborted` is true (the uncertainty package's `signal`, read before
+   * the run and after every block of 16 384 trials): the budget throws `signal.reason`, or a
+   * `closed` error when it has none. In one thread only `onProgress` or another thread (through
+   * shared memory) can set it while the run is busy. An `AbortController`'s `signal` will do.
+   */
+  readonly signal?: AbortSignalLike;
 }
 
 /** Options of {@link channelBudget}. */
@@ -175,13 +183,26 @@ function readMonteCarlo(value: unknown): MonteCarloBudgetOptions | undefined {
   if (typeof value !== 'object' || value === null || Array.isArray(value)) {
     throw new BridgeworkError(
       'wrong-type',
-      `\`options.monteCarlo\` must be true, false or a set of Monte Carlo settings ({ trials, seed, returnValues }); got ${formatValue(value)}`,
+      `\`options.monteCarlo\` must be true, false or a set of Monte Carlo settings ({ trials, seed, returnValues, onProgress, signal }); got ${formatValue(value)}`,
       { param: 'options.monteCarlo', value },
     );
   }
   const o = checkOptions('options.monteCarlo', value, {
-    known: ['trials', 'seed', 'returnValues', 'onProgress'],
+    known: ['trials', 'seed', 'returnValues', 'onProgress', 'signal'],
   });
+  const signal = o['signal'];
+  if (
+    signal !== undefined &&
+    (typeof signal !== 'object' ||
+      signal === null ||
+      typeof (signal as { aborted?: unknown }).aborted !== 'boolean')
+  ) {
+    throw new BridgeworkError(
+      'wrong-type',
+      `\`options.monteCarlo.signal\` must be an AbortSignal (an object with a boolean \`aborted\`); got ${formatValue(signal)}`,
+      { param: 'options.monteCarlo.signal', value: signal },
+    );
+  }
   if (o['onProgress'] !== undefined && typeof o['onProgress'] !== 'function') {
     throw new BridgeworkError(
       'wrong-type',
@@ -240,7 +261,10 @@ function readMonteCarlo(value: unknown): MonteCarloBudgetOptions | undefined {
  * @returns The budget.
  * @throws {@link @bridgework/core!BridgeworkError} `wrong-type` (not a channel; `monteCarlo` not a
  *   boolean or settings), `unknown-option`, `out-of-range` (`at` outside what the channel reads,
- *   trials beyond 10⁷), `not-integer`, `not-finite`, `model-not-finite` (a Monte Carlo trial).
+ *   trials beyond 5·10⁷), `not-integer`, `not-finite`; for a Monte Carlo trial whose inputs give a
+ *   reading the sensor cannot produce, `model-not-finite` or the map's own code
+ *   (`ratio-out-of-range`), with the trial's inputs; `signal.reason` (or `closed` without one) once
+ *   `monteCarlo.signal` is aborted.
  * @example
  * ```ts
  * const budget = channelBudget(channel, { at: 1000 });
@@ -486,6 +510,7 @@ export function channelBudget(channel: Channel, options: ChannelBudgetOptions = 
           seed: mc.seed ?? 1,
           ...(mc.returnValues === true ? { returnValues: true } : {}),
           ...(mc.onProgress === undefined ? {} : { onProgress: mc.onProgress }),
+          ...(mc.signal === undefined ? {} : { signal: mc.signal }),
         });
 
   const lines: ChannelBudgetLine[] = [];

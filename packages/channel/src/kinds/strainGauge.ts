@@ -6,7 +6,7 @@
  * for a uniaxial field (compensation); strain becomes stress, shear stress, force, bending moment
  * or torque through the mechanics package.
  */
-import { createStrainBridge } from '@bridgework/bridge';
+import { createStrainBridge, createStrainBridgeKernel, type StrainArrangement } from '@bridgework/bridge';
 import {
   correctTemperatureEffects,
   createThermalOutput,
@@ -15,7 +15,6 @@ import {
   type ThermalOutput,
 } from '@bridgework/compensation';
 import { createAxialMember, createBendingMember, createShaft } from '@bridgework/mechanics';
-import { armLayout, strainFromRatioArms } from '../internal/bridgeArms.js';
 import { type OutputQuantity } from '../outputQuantities.js';
 import { intervalField, numberField, numberListField, objectField, type ObjectOut } from '../spec/schema.js';
 import type { CommonSpec } from '../spec/commonSpec.js';
@@ -354,7 +353,16 @@ export const strainGaugeKind: SensorKind<typeof fields, 'strain-gauge'> = {
   },
   fastMap(ctx) {
     const s = ctx.sensor;
-    const layout = armLayout(ctx.arms, ctx.poissonRatio, ctx.wiring);
+    const setting = s.gaugeFactor;
+    // The bridge package's closed form with the completion and lead resistances per call.
+    const bridge = createStrainBridgeKernel({
+      arrangement: (ctx.arrangement ?? 'quarter') as StrainArrangement,
+      gaugeFactor: setting,
+      gaugeOhms: s.gaugeOhms,
+      ...(ctx.poissonRatio === undefined ? {} : { poissonRatio: ctx.poissonRatio }),
+      wiring: ctx.wiring,
+      sourceOhms: ctx.sourceOhms,
+    });
     const to = s.thermalOutput;
     const thermal =
       to === undefined
@@ -364,7 +372,6 @@ export const strainGaugeKind: SensorKind<typeof fields, 'strain-gauge'> = {
             gaugeFactor: to.gaugeFactor,
             rangeCelsius: [to.rangeCelsius.min, to.rangeCelsius.max],
           });
-    const setting = s.gaugeFactor;
     const beta = s.gaugeFactorTemperatureCoefficientPerKelvin;
     const t0 = s.gaugeFactorReferenceCelsius;
     const tZero = ctx.zeroTemperatureCelsius;
@@ -380,14 +387,13 @@ export const strainGaugeKind: SensorKind<typeof fields, 'strain-gauge'> = {
     // Thermal output at the zero temperature, rescaled to the setting (compensation rescaleGaugeFactor: ε·from/to).
     const thermalZero =
       thermal === undefined ? 0 : (thermal.apparentStrainAt(tZero) * thermal.gaugeFactor) / setting;
-    const rs = ctx.sourceOhms;
     return {
       quantity(ratio, zeroRatio, p) {
         const completion = p[Parameter.completionOhms] as number;
         const lead = p[Parameter.ohmsPerLead] as number;
-        let e = strainFromRatioArms(layout, s.gaugeOhms, setting, completion, lead, rs, ratio);
+        let e = bridge.strainFromRatio(ratio, completion, lead);
         if (zeroRatio === zeroRatio) {
-          const e0 = strainFromRatioArms(layout, s.gaugeOhms, setting, completion, lead, rs, zeroRatio);
+          const e0 = bridge.strainFromRatio(zeroRatio, completion, lead);
           e = (e - e0) / (1 + setting * e0);
         }
         const t = p[Parameter.temperatureCelsius] as number;

@@ -5,7 +5,7 @@
  * one place.
  */
 import type { LeadWiring } from '@bridgework/core';
-import type { ArmPattern } from '../internal/bridgeArms.js';
+import type { GaugePattern } from '@bridgework/bridge';
 import type { SensorKind, SpecReporter } from '../kinds/SensorKind.js';
 import { defaultOutputUnit } from '../outputQuantities.js';
 import { commonFields, type CommonSpec } from './commonSpec.js';
@@ -22,7 +22,7 @@ import {
 /** One arrangement of the table: its arms and the lead wirings it accepts (the bridge package's `ArrangementInfo`). */
 export interface ArrangementRow {
   /** Arms R1…R4: each gauge's strain pattern, or null for a completion resistor. */
-  readonly arms: readonly ArmPattern[];
+  readonly arms: readonly GaugePattern[];
   /** The lead wirings it accepts. */
   readonly wirings: readonly LeadWiring[];
 }
