@@ -4,6 +4,7 @@ export {
   strainArrangements,
   type ArrangementInfo,
   type GaugePattern,
+  type MeasuredStrain,
   type StrainArrangement,
 } from './arrangements.js';
 export {

@@ -45,6 +45,7 @@ import { Parameter } from '../kinds/SensorKind.js';
 import { differenceFromBaseUnit, formatQuantity, formatSignificant } from '../units/quantity.js';
 import type { ChannelBudgetLine } from './ChannelBudgetLine.js';
 import { designChecks, type ChannelDesignCheck, type DesignLimits } from './designChecks.js';
+import { inChannelTerms } from './frontEndErrors.js';
 
 /** Monte Carlo settings of a budget. */
 export interface MonteCarloBudgetOptions {
@@ -305,44 +306,46 @@ export function channelBudget(channel: Channel, options: ChannelBudgetOptions = 
   const ratioEnds = [model.ratioFromValue(span.min), model.ratioFromValue(span.max)];
   const amp = spec.amplifier;
   const limits = amp.limits;
-  const frontEnd = resolutionBudget({
-    span: model.kindMap.frontEndSpan(
-      Math.min(...(ratioEnds as [number, number])),
-      Math.max(...(ratioEnds as [number, number])),
-    ),
-    excitationVolts: p0[Parameter.excitationVolts] as number,
-    excitationLowVolts: amp.excitationLowVolts,
-    temperatureCelsius: spec.environment.temperatureCelsius,
-    gain: amp.gain,
-    amplifier: {
-      inputVoltageNoiseVoltsPerRootHz: amp.inputVoltageNoiseVoltsPerRootHz,
-      voltageCornerHertz: amp.voltageCornerHertz,
-      currentNoiseAmpsPerRootHz: amp.currentNoiseAmpsPerRootHz,
-      currentCornerHertz: amp.currentCornerHertz,
-      secondStageGain: amp.secondStageGain,
-      outputReferenceVolts: amp.outputReferenceVolts,
-      limits: {
-        ...(limits?.inputCommonModeVolts === undefined
-          ? {}
-          : { inputCommonModeVolts: limits.inputCommonModeVolts }),
-        ...(limits?.inputDifferentialVolts === undefined
-          ? {}
-          : { inputDifferentialVolts: limits.inputDifferentialVolts }),
-        ...(limits?.firstStageVolts === undefined ? {} : { firstStageVolts: limits.firstStageVolts }),
-        ...(limits?.outputVolts === undefined ? {} : { outputVolts: limits.outputVolts }),
+  const frontEnd = inChannelTerms(() =>
+    resolutionBudget({
+      span: model.kindMap.frontEndSpan(
+        Math.min(...(ratioEnds as [number, number])),
+        Math.max(...(ratioEnds as [number, number])),
+      ),
+      excitationVolts: p0[Parameter.excitationVolts] as number,
+      excitationLowVolts: amp.excitationLowVolts,
+      temperatureCelsius: spec.environment.temperatureCelsius,
+      gain: amp.gain,
+      amplifier: {
+        inputVoltageNoiseVoltsPerRootHz: amp.inputVoltageNoiseVoltsPerRootHz,
+        voltageCornerHertz: amp.voltageCornerHertz,
+        currentNoiseAmpsPerRootHz: amp.currentNoiseAmpsPerRootHz,
+        currentCornerHertz: amp.currentCornerHertz,
+        secondStageGain: amp.secondStageGain,
+        outputReferenceVolts: amp.outputReferenceVolts,
+        limits: {
+          ...(limits?.inputCommonModeVolts === undefined
+            ? {}
+            : { inputCommonModeVolts: limits.inputCommonModeVolts }),
+          ...(limits?.inputDifferentialVolts === undefined
+            ? {}
+            : { inputDifferentialVolts: limits.inputDifferentialVolts }),
+          ...(limits?.firstStageVolts === undefined ? {} : { firstStageVolts: limits.firstStageVolts }),
+          ...(limits?.outputVolts === undefined ? {} : { outputVolts: limits.outputVolts }),
+        },
       },
-    },
-    adc: {
-      bits: spec.adc.bits,
-      referenceVolts: spec.adc.ratiometric ? spec.excitation.volts : spec.adc.referenceVolts,
-      bipolar: spec.adc.bipolar,
-      ratiometric: spec.adc.ratiometric,
-      ...(spec.adc.noiseRmsVolts === undefined ? {} : { noiseRmsVolts: spec.adc.noiseRmsVolts }),
-    },
-    filter: spec.adc.filter,
-    ...(amp.voltageCornerHertz > 0 || amp.currentCornerHertz > 0 ? { lowHertz: 0.01 } : {}),
-    peakToPeakFactor: ppf,
-  });
+      adc: {
+        bits: spec.adc.bits,
+        referenceVolts: spec.adc.ratiometric ? spec.excitation.volts : spec.adc.referenceVolts,
+        bipolar: spec.adc.bipolar,
+        ratiometric: spec.adc.ratiometric,
+        ...(spec.adc.noiseRmsVolts === undefined ? {} : { noiseRmsVolts: spec.adc.noiseRmsVolts }),
+      },
+      filter: spec.adc.filter,
+      ...(amp.voltageCornerHertz > 0 || amp.currentCornerHertz > 0 ? { lowHertz: 0.01 } : {}),
+      peakToPeakFactor: ppf,
+    }),
+  );
   const fe = frontEnd.value;
   const absPerVolt = Math.abs(quantityPerVolt);
   const terms: ChannelNoiseTerm[] = fe.noise.terms.map((t) => ({
@@ -577,6 +580,7 @@ export function channelBudget(channel: Channel, options: ChannelBudgetOptions = 
     resolution,
     lines,
     limits: o['limits'],
+    display: channel.display,
   });
   return {
     channel: r.name,

@@ -6,7 +6,13 @@
  * for a uniaxial field (compensation); strain becomes stress, shear stress, force, bending moment
  * or torque through the mechanics package.
  */
-import { createStrainBridge, createStrainBridgeKernel, type StrainArrangement } from '@bridgework/bridge';
+import {
+  arrangementTable,
+  createStrainBridge,
+  createStrainBridgeKernel,
+  type ArrangementInfo,
+  type StrainArrangement,
+} from '@bridgework/bridge';
 import {
   correctTemperatureEffects,
   createThermalOutput,
@@ -86,17 +92,13 @@ const fields = {
 
 type StrainGaugeSpec = ObjectOut<typeof fields>;
 
-/** What the strain of each arrangement is, for the quantities derived from it (arrangements not listed give strain only). */
-const strainMeaning: Readonly<Record<string, 'normal' | 'bending' | 'shear'>> = {
-  quarter: 'normal',
-  'half-poisson': 'normal',
-  'half-opposite': 'normal',
-  'full-poisson': 'normal',
-  'half-bending': 'bending',
-  'full-bending': 'bending',
-  'full-bending-poisson': 'bending',
-  'full-shear': 'shear',
-};
+/** What the strain of an arrangement is (the bridge table's `measures`; a row without it gives strain only). */
+function strainMeaning(arrangement: string | undefined): 'normal' | 'bending' | 'shear' | 'unknown' {
+  const row = (arrangementTable as Readonly<Record<string, Partial<ArrangementInfo> | undefined>>)[
+    arrangement ?? 'quarter'
+  ];
+  return row?.measures ?? 'unknown';
+}
 
 const quantitiesByMeaning: Readonly<
   Record<'normal' | 'bending' | 'shear' | 'unknown', readonly OutputQuantity[]>
@@ -149,7 +151,7 @@ function quantityPerStrain(
   poissonRatio: number | undefined,
 ): number {
   const o = spec.output;
-  const meaning = strainMeaning[arrangement ?? ''];
+  const meaning = strainMeaning(arrangement);
   const shearModulus = () =>
     o.shearModulusPascals ??
     createShaft({
@@ -211,7 +213,7 @@ export const strainGaugeKind: SensorKind<typeof fields, 'strain-gauge'> = {
   nominalOhms: (s) => s.gaugeOhms,
   check(s, spec, report: SpecReporter) {
     const arrangement = spec.bridge.arrangement ?? 'quarter';
-    const meaning = strainMeaning[arrangement] ?? 'unknown';
+    const meaning = strainMeaning(arrangement);
     const q = spec.output.quantity;
     if (q !== 'ratio' && !quantitiesByMeaning[meaning].includes(q)) {
       report('output.quantity', `cannot be '${q}' from a '${arrangement}' bridge: ${why[meaning]}`, {
@@ -275,7 +277,7 @@ export const strainGaugeKind: SensorKind<typeof fields, 'strain-gauge'> = {
   },
   outputFields(_s, spec) {
     const arrangement = spec.bridge.arrangement ?? 'quarter';
-    const meaning = strainMeaning[arrangement] ?? 'unknown';
+    const meaning = strainMeaning(arrangement);
     return spec.output.quantity === 'ratio' ? [] : memberFields(spec.output.quantity, meaning, spec);
   },
   describe: (s, spec) =>

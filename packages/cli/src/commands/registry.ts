@@ -4,6 +4,7 @@ import { checkCertificateCommand } from './certificate/certificateCommand.js';
 import { convertCommand } from './convert/convertCommand.js';
 import { demoCommand } from './demo/demoCommand.js';
 import { fitCalibrationCommand } from './fit/fitCommand.js';
+import { fitGroupCommand } from './fitGroup/fitGroupCommand.js';
 import { helpCommand } from './help/helpCommand.js';
 import { reportCommand } from './report/reportCommand.js';
 import { shuntApplyCommand, shuntPlanCommand } from './shunt/shuntCommands.js';
@@ -22,6 +23,7 @@ export const commands: readonly CommandSpec[] = Object.freeze([
   shuntApplyCommand,
   fitCalibrationCommand,
   checkCertificateCommand,
+  fitGroupCommand,
   demoCommand,
   helpCommand,
 ] as unknown as CommandSpec[]);
