@@ -12,6 +12,7 @@ import { compile } from 'mathjs';
 import {
   createChannel,
   createInterleavedConverter,
+  createWasmConverter,
   type Channel,
   type ChannelSpec,
 } from '@bridgework/channel';
@@ -196,6 +197,60 @@ report(
     rounds,
   ),
 );
+
+// The optional WebAssembly SIMD kernel (issue 19 item 6) on the gusset channel: the codes already
+// in WebAssembly memory (what it is for), and with a copy in from and out to JavaScript arrays.
+{
+  const channel = createChannel(gusset);
+  const wasm = await createWasmConverter(channel, { pages: Math.ceil((12 * N) / 65536) + 1 });
+  const wasmIn = new Int32Array(wasm.memory.buffer, 0, N);
+  const wasmOut = new Float64Array(wasm.memory.buffer, 4 * N, N);
+  wasmIn.set(inA);
+  const check = wasm.convert(wasmIn, wasmOut);
+  const js = channel.convert(inA, outA);
+  let same = 0;
+  for (let i = 0; i < N; i++) if (Object.is(wasmOut[i], js.values[i])) same++;
+  report(
+    `WebAssembly SIMD kernel, channel '${gusset.name}': ${N.toExponential(0)} codes`,
+    compare(
+      [
+        baseline,
+        {
+          name: 'wasm convert, codes in wasm memory',
+          opsPerCall: N,
+          run() {
+            const r = wasm.convert(wasmIn, wasmOut);
+            return (wasmOut[N >> 1] as number) + r.status.rejected;
+          },
+        },
+        {
+          name: 'wasm convert, copy in and out',
+          opsPerCall: N,
+          run(call) {
+            const [input, out] = pick(call);
+            wasmIn.set(input);
+            const r = wasm.convert(wasmIn, wasmOut);
+            out.set(wasmOut);
+            return (out[N >> 1] as number) + r.status.rejected;
+          },
+        },
+        {
+          name: 'channel.convert (JavaScript kernel)',
+          opsPerCall: N,
+          run(call) {
+            const [input, out] = pick(call);
+            const r = channel.convert(input, out);
+            return (out[N >> 1] as number) + r.status.rejected;
+          },
+        },
+      ],
+      rounds,
+    ),
+  );
+  console.log(
+    `  ${((100 * same) / N).toFixed(1)} % of ${N.toExponential(0)} outputs bit-identical to channel.convert; statuses ${JSON.stringify(check.status) === JSON.stringify(js.status) ? 'equal' : 'DIFFER'}`,
+  );
+}
 
 /** The codes of `channel` that convert to a value: its valid codes, narrowed at each end (bisection) to where quantityFromCode succeeds. */
 function convertibleCodes(channel: Channel): [number, number] {

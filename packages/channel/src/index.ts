@@ -46,6 +46,12 @@ export {
   type InterleavedConverter,
   type InterleavedConvertOptions,
 } from './createInterleavedConverter.js';
+export {
+  createWasmConverter,
+  type WasmConverter,
+  type WasmConverterOptions,
+  type WasmMemory,
+} from './convert/wasm/createWasmConverter.js';
 export { formatQuantity, parseQuantity } from './units/quantity.js';
 export {
   dimensionTable,
