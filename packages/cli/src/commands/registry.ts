@@ -5,6 +5,7 @@ import { convertCommand } from './convert/convertCommand.js';
 import { demoCommand } from './demo/demoCommand.js';
 import { fitCalibrationCommand } from './fit/fitCommand.js';
 import { helpCommand } from './help/helpCommand.js';
+import { reduceRosetteCommand } from './rosette/rosetteCommand.js';
 import { reportCommand } from './report/reportCommand.js';
 import { shuntApplyCommand, shuntPlanCommand } from './shunt/shuntCommands.js';
 import { uncertaintyCommand } from './uncertainty/uncertaintyCommand.js';
@@ -22,6 +23,7 @@ export const commands: readonly CommandSpec[] = Object.freeze([
   shuntApplyCommand,
   fitCalibrationCommand,
   checkCertificateCommand,
+  reduceRosetteCommand,
   demoCommand,
   helpCommand,
 ] as unknown as CommandSpec[]);
