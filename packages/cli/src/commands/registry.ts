@@ -4,6 +4,7 @@ import { checkCertificateCommand } from './certificate/certificateCommand.js';
 import { convertCommand } from './convert/convertCommand.js';
 import { demoCommand } from './demo/demoCommand.js';
 import { fitCalibrationCommand } from './fit/fitCommand.js';
+import { fitThermistorCommand } from './thermistor/thermistorCommand.js';
 import { helpCommand } from './help/helpCommand.js';
 import { reduceRosetteCommand } from './rosette/rosetteCommand.js';
 import { reportCommand } from './report/reportCommand.js';
@@ -24,6 +25,7 @@ export const commands: readonly CommandSpec[] = Object.freeze([
   fitCalibrationCommand,
   checkCertificateCommand,
   reduceRosetteCommand,
+  fitThermistorCommand,
   demoCommand,
   helpCommand,
 ] as unknown as CommandSpec[]);
