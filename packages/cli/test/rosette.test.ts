@@ -15,6 +15,7 @@ import { runCli } from '../src/runCli.js';
 import { memoryIo } from './support/memoryIo.js';
 import { exited, spawnTs, waitForLine } from './support/spawnChild.js';
 import { useTempDir } from './support/tempDir.js';
+import { formatNumber } from '../src/report/formatNumber.js';
 
 const tmp = useTempDir('rosette');
 const exampleDir = fileURLToPath(new URL('../../../examples/test-day/', import.meta.url));
@@ -375,4 +376,55 @@ describe('reduce-rosette on a large recording', () => {
       }
     },
   );
+});
+
+describe('reduce-rosette --html', () => {
+  it("draws Mohr's circle of the row asked for, or of the largest von Mises stress", async () => {
+    const file = write('mohr.csv', 'a,b,c\n100,50,-20\n400,300,-100\n1,,2\n');
+    const html = join(tmp(), 'mohr.html');
+    const r = await run(
+      'reduce-rosette',
+      file,
+      '--legs',
+      'a,b,c',
+      '--modulus',
+      '200 GPa',
+      '--poisson',
+      '0.3',
+      '--html',
+      html,
+    );
+    expect(r.code).toBe(exitCodes.ok);
+    expect(r.stderr).toMatch(/wrote the HTML page to .*mohr\.html \(row 2\)/);
+    const page = readFileSync(html, 'utf8');
+    // The circle, the principal diameter and a radius to each of the three legs; the stress circle.
+    expect(page).toMatch(/data-plot="mohr-strain"[^>]*data-series-count="5"/);
+    expect(page).toMatch(/data-plot="mohr-stress"[^>]*data-series-count="2"/);
+    expect(page).toMatch(/support, and do not replace,\s+qualified engineering judgement/);
+    const red = reduceRosette({ layout: 'rectangular', strains: [400e-6, 300e-6, -100e-6] });
+    expect(page).toContain(`${formatNumber(red.maxStrain / 1e-6, 6)} µε`);
+    const first = await run(
+      'reduce-rosette',
+      file,
+      '--legs',
+      'a,b,c',
+      '--html',
+      html,
+      '--mohr-row',
+      '1',
+      '-f',
+    );
+    expect(first.stderr).toMatch(/\(row 1\)/);
+    expect(readFileSync(html, 'utf8')).not.toMatch(/data-plot="mohr-stress"/);
+    const cases: [string[], RegExp][] = [
+      [['--html', join(tmp(), 'x.html'), '--mohr-row', '7'], /--mohr-row 7: .*mohr\.csv has 3 data rows/],
+      [['--html', join(tmp(), 'x.html'), '--mohr-row', '3'], /row 3 could not be reduced/],
+      [['--mohr-row', '1'], /--mohr-row needs --html/],
+    ];
+    for (const [args, message] of cases) {
+      const e = await run('reduce-rosette', file, '--legs', 'a,b,c', ...args);
+      expect(e.stderr).toMatch(message);
+      expect(e.code).toBe(exitCodes.badInput);
+    }
+  });
 });

@@ -78,6 +78,17 @@ describe('fit-thermistor', () => {
       fitThermistor({ model: 'beta', points, referenceCelsius: 25 }).beta,
     );
 
+    const text = await run(
+      'fit-thermistor',
+      at('slipway-winch.yaml'),
+      at('tie-thermistor-points.csv'),
+      '-c',
+      'tie-temperature',
+    );
+    expect(text.code).toBe(exitCodes.ok);
+    await expect(text.stdout.replaceAll(at(''), '<dir>')).toMatchFileSnapshot(
+      './__snapshots__/test-day-fit-thermistor.txt',
+    );
     const before = readFileSync(at('slipway-winch.yaml'), 'utf8');
     const w = await run(
       'fit-thermistor',

@@ -125,6 +125,22 @@ export const rosetteOptions = [
     description:
       "The largest condition number of the layout taken as well conditioned (rectangular 3.87, delta 3.16); above it the layout amplifies the legs' errors that many times: the results are written and the check fails (exit code 2).",
   },
+  {
+    name: 'html',
+    type: 'string',
+    placeholder: 'file',
+    description:
+      "Also write a self-contained HTML page with Mohr's circle of strain (and of stress, with E and ν) for one row: --mohr-row, else the row with the largest von Mises stress (the largest shear strain without stresses).",
+  },
+  {
+    name: 'mohr-row',
+    type: 'integer',
+    placeholder: 'n',
+    min: 1,
+    max: Number.MAX_SAFE_INTEGER,
+    defaultText: 'the row with the largest von Mises stress (or shear strain)',
+    description: 'The data row (from 1, after the header) drawn by --html.',
+  },
   outOption,
   forceOption,
 ] as const satisfies readonly OptionSpec[];

@@ -1,7 +1,11 @@
 import { createReadStream } from 'node:fs';
 import { parseQuantity } from '@bridgework/channel';
 import { BridgeworkError, formatValue, isBridgeworkError, type RosetteLayout } from '@bridgework/core';
+import { resolve } from 'node:path';
 import { SAFETY_CAUTION } from '../../caution.js';
+import { openAtomicFile, type AtomicFile } from '../../files/atomicFile.js';
+import { readVersion } from '../../internal/readVersion.js';
+import { mohrHtml } from './mohrHtml.js';
 import { loadChannels } from '../../channels/loadChannels.js';
 import { exitCodes } from '../../exitCodes.js';
 import { CsvRecordReader, CsvSyntaxError, type CsvRecord } from '../../internal/csvRecords.js';
@@ -237,6 +241,25 @@ export async function run(args: RosetteArgs, context: CommandContext): Promise<n
   const kappa = reducer.rosette.conditionNumber;
   if (o.out !== undefined && o.out !== '-') await refuseOutputOverInputs(o.out, [input]);
 
+  if (o.mohrRow !== undefined && o.html === undefined) {
+    throw new BridgeworkError('missing-option', '--mohr-row needs --html (the page it draws)', {
+      param: 'html',
+    });
+  }
+  if (o.html !== undefined) {
+    await refuseOutputOverInputs(o.html, [input]);
+    if (o.out !== undefined && o.out !== '-' && resolve(o.html) === resolve(o.out)) {
+      throw new BridgeworkError('conflicting-options', '`--html` and `--out` must name different files', {
+        param: 'html',
+        value: o.html,
+      });
+    }
+  }
+  // The row --html draws: the one asked for, or the one with the largest von Mises stress (shear
+  // strain without stresses), kept as the stream passes it.
+  let drawn: { row: number; line: number; reduced: ReducedRow; score: number } | undefined;
+  const html: AtomicFile | undefined =
+    o.html === undefined ? undefined : await openAtomicFile(o.html, { force: o.force });
   const stream = createReadStream(input, { encoding: 'utf8', highWaterMark: 1 << 20 });
   const reader = new CsvRecordReader(',');
   const output = await openResultOutput(context, o.out, o.force);
@@ -313,6 +336,12 @@ export async function run(args: RosetteArgs, context: CommandContext): Promise<n
         const n = (o.keepLegs ? 3 : 0) + 4 + (material === undefined ? 0 : 5);
         for (let k = 0; k < n; k++) values.push(Number.NaN);
       } else {
+        if (html !== undefined) {
+          const score = row.stresses?.vonMises ?? row.maxShearStrain;
+          if (o.mohrRow === undefined ? drawn === undefined || score > drawn.score : rows === o.mohrRow) {
+            drawn = { row: rows, line: record.line, reduced: row, score };
+          }
+        }
         if (o.keepLegs) values.push(...row.legs.map((x) => x / perStrain));
         values.push(
           row.strain1 / perStrain,
@@ -347,9 +376,43 @@ export async function run(args: RosetteArgs, context: CommandContext): Promise<n
     }
     if (header === undefined)
       throw new BridgeworkError('parse-error', `${input}: no header row`, { param: input });
+    if (html !== undefined) {
+      if (drawn === undefined) {
+        throw new BridgeworkError(
+          'invalid-option',
+          o.mohrRow === undefined
+            ? `--html: no row of ${input} could be reduced, so there is no circle to draw`
+            : `--mohr-row ${o.mohrRow}: ${input} has ${rows} data rows${o.mohrRow <= rows ? ` and row ${o.mohrRow} could not be reduced` : ''}`,
+          { param: o.mohrRow === undefined ? 'html' : 'mohr-row', value: o.mohrRow },
+        );
+      }
+      await html.write(
+        mohrHtml({
+          recording: input,
+          row: drawn.row,
+          line: drawn.line,
+          why:
+            o.mohrRow !== undefined
+              ? 'the row asked for (--mohr-row)'
+              : material === undefined
+                ? 'the largest shear strain of the recording'
+                : 'the largest von Mises stress of the recording',
+          anglesRadians: reducer.rosette.anglesRadians,
+          reduced: drawn.reduced,
+          strainUnit,
+          perStrain,
+          stressUnit,
+          pascalsPerUnit,
+          generator: `bridgework ${await readVersion()}`,
+        }),
+      );
+      await html.commit();
+      context.io.stderr.write(`wrote the HTML page to ${o.html} (row ${drawn.row})\n`);
+    }
     await output.commit('the rosette reduction');
   } finally {
     stream.destroy();
+    await html?.abort();
     await output.abort();
   }
   const illConditioned = kappa > o.maxCondition;
