@@ -1,7 +1,83 @@
 import { checkOneOf, type LeadWiring } from '@bridgework/core';
 
+/** A gauge's strain as `axial·ε + poisson·ν·ε`; `null` marks a completion resistor. */
+export type GaugePattern = readonly [axial: number, poisson: number] | null;
+
 /**
- * A strain-gauge bridge arrangement, named by its physics.
+ * What the strain ε of an arrangement is, which decides the quantities it can give: a normal
+ * strain (axial or surface), a bending strain (the axial part cancelled), or the ±45° strain of
+ * pure shear.
+ */
+export type MeasuredStrain = 'normal' | 'bending' | 'shear';
+
+/** One row of {@link arrangementTable}: what each arm holds, the lead wirings the arrangement accepts, and what it measures. */
+export interface ArrangementInfo {
+  /** Arms R1…R4 (ring order): each gauge's strain pattern, or `null` for a completion resistor. */
+  readonly arms: readonly [GaugePattern, GaugePattern, GaugePattern, GaugePattern];
+  /** The lead wirings this arrangement accepts (see `StrainBridgeOptions.leads`). */
+  readonly wirings: readonly LeadWiring[];
+  /** What its strain ε is (see {@link MeasuredStrain}). */
+  readonly measures: MeasuredStrain;
+}
+
+const arrangementRows = {
+  quarter: { arms: [[1, 0], null, null, null], wirings: ['two-wire', 'three-wire'], measures: 'normal' },
+  'half-bending': { arms: [[1, 0], [-1, 0], null, null], wirings: ['three-wire'], measures: 'bending' },
+  'half-poisson': { arms: [[1, 0], [0, -1], null, null], wirings: ['three-wire'], measures: 'normal' },
+  'half-opposite': { arms: [[1, 0], null, [1, 0], null], wirings: ['two-wire'], measures: 'normal' },
+  'full-bending': {
+    arms: [
+      [1, 0],
+      [-1, 0],
+      [1, 0],
+      [-1, 0],
+    ],
+    wirings: ['four-wire', 'six-wire'],
+    measures: 'bending',
+  },
+  'full-poisson': {
+    arms: [
+      [1, 0],
+      [0, -1],
+      [1, 0],
+      [0, -1],
+    ],
+    wirings: ['four-wire', 'six-wire'],
+    measures: 'normal',
+  },
+  'full-shear': {
+    arms: [
+      [1, 0],
+      [-1, 0],
+      [1, 0],
+      [-1, 0],
+    ],
+    wirings: ['four-wire', 'six-wire'],
+    measures: 'shear',
+  },
+  'full-bending-poisson': {
+    arms: [
+      [1, 0],
+      [0, -1],
+      [0, 1],
+      [-1, 0],
+    ],
+    wirings: ['four-wire', 'six-wire'],
+    measures: 'bending',
+  },
+} as const satisfies Readonly<Record<string, ArrangementInfo>>;
+
+/**
+ * A strain-gauge bridge arrangement, named by its physics: a key of {@link arrangementTable}
+ * (see its table of arm strains).
+ */
+export type StrainArrangement = keyof typeof arrangementRows;
+
+/**
+ * Arm patterns, accepted lead wirings and measured strain of each arrangement: the one table from
+ * which {@link createStrainBridge}, `createStrainBridgeKernel` and the channel package read every
+ * arrangement. Its keys are the {@link StrainArrangement} names and {@link strainArrangements}, so
+ * a new arrangement is one row here.
  *
  * @remarks
  * Arm strains, with ε the measured strain and ν the Poisson ratio (arms not listed hold
@@ -20,43 +96,6 @@ import { checkOneOf, type LeadWiring } from '@bridgework/core';
  *
  * For small strains Vout/Vexc ≈ N·GF·ε/4. `'full-bending-poisson'` has the axial and transverse
  * gauges of the tension face in arms 1 and 2 and those of the compression face in arms 4 and 3.
- */
-export type StrainArrangement =
-  | 'quarter'
-  | 'half-bending'
-  | 'half-poisson'
-  | 'half-opposite'
-  | 'full-bending'
-  | 'full-poisson'
-  | 'full-shear'
-  | 'full-bending-poisson';
-
-/** Every {@link StrainArrangement}, in the order of the table in its documentation. */
-export const strainArrangements: readonly StrainArrangement[] = [
-  'quarter',
-  'half-bending',
-  'half-poisson',
-  'half-opposite',
-  'full-bending',
-  'full-poisson',
-  'full-shear',
-  'full-bending-poisson',
-];
-
-/** A gauge's strain as `axial·ε + poisson·ν·ε`; `null` marks a completion resistor. */
-export type GaugePattern = readonly [axial: number, poisson: number] | null;
-
-/** One row of {@link arrangementTable}: what each arm holds and the lead wirings the arrangement accepts. */
-export interface ArrangementInfo {
-  /** Arms R1…R4 (ring order): each gauge's strain pattern, or `null` for a completion resistor. */
-  readonly arms: readonly [GaugePattern, GaugePattern, GaugePattern, GaugePattern];
-  /** The lead wirings this arrangement accepts (see {@link StrainBridgeOptions.leads}). */
-  readonly wirings: readonly LeadWiring[];
-}
-
-/**
- * Arm patterns and the lead wirings each arrangement accepts: the one table from which
- * {@link createStrainBridge} and the channel package read every arrangement.
  *
  * @example
  * ```ts
@@ -64,48 +103,12 @@ export interface ArrangementInfo {
  * arrangementTable.quarter.wirings; // ['two-wire', 'three-wire']
  * ```
  */
-export const arrangementTable: Readonly<Record<StrainArrangement, ArrangementInfo>> = {
-  quarter: { arms: [[1, 0], null, null, null], wirings: ['two-wire', 'three-wire'] },
-  'half-bending': { arms: [[1, 0], [-1, 0], null, null], wirings: ['three-wire'] },
-  'half-poisson': { arms: [[1, 0], [0, -1], null, null], wirings: ['three-wire'] },
-  'half-opposite': { arms: [[1, 0], null, [1, 0], null], wirings: ['two-wire'] },
-  'full-bending': {
-    arms: [
-      [1, 0],
-      [-1, 0],
-      [1, 0],
-      [-1, 0],
-    ],
-    wirings: ['four-wire', 'six-wire'],
-  },
-  'full-poisson': {
-    arms: [
-      [1, 0],
-      [0, -1],
-      [1, 0],
-      [0, -1],
-    ],
-    wirings: ['four-wire', 'six-wire'],
-  },
-  'full-shear': {
-    arms: [
-      [1, 0],
-      [-1, 0],
-      [1, 0],
-      [-1, 0],
-    ],
-    wirings: ['four-wire', 'six-wire'],
-  },
-  'full-bending-poisson': {
-    arms: [
-      [1, 0],
-      [0, -1],
-      [0, 1],
-      [-1, 0],
-    ],
-    wirings: ['four-wire', 'six-wire'],
-  },
-};
+export const arrangementTable: Readonly<Record<StrainArrangement, ArrangementInfo>> = arrangementRows;
+
+/** Every {@link StrainArrangement}, in the order of {@link arrangementTable}. */
+export const strainArrangements: readonly StrainArrangement[] = Object.keys(
+  arrangementRows,
+) as StrainArrangement[];
 
 /**
  * True when the arrangement needs a Poisson ratio (it has a transverse gauge).

@@ -7,9 +7,9 @@ import {
   checkGaugeFactor,
   checkOptions,
   checkRange,
-  differenceOfProducts,
   formatValue,
   type Interval,
+  type LeadWiring,
   type LeadsOptions,
 } from '@bridgework/core';
 import {
@@ -18,6 +18,29 @@ import {
   strainArrangements,
   type StrainArrangement,
 } from './arrangements.js';
+import {
+  armLayout,
+  COMPLETION_OHMS,
+  OHMS_PER_LEAD,
+  SERIES_OHMS,
+  D0,
+  D1,
+  D2,
+  quotient,
+  K0,
+  K1,
+  M0,
+  M1,
+  N0,
+  N1,
+  N2,
+  RATIONAL_LENGTH,
+  fillRational,
+  layoutVector,
+  seriesOhmsOf,
+  solveRational,
+  strainLimits,
+} from './internal/closedForm.js';
 
 /** Options of {@link createStrainBridge}. */
 export interface StrainBridgeOptions {
@@ -150,20 +173,6 @@ export interface StrainBridge {
 
 type Quad = readonly [number, number, number];
 
-function evaluate(c: Quad, x: number): number {
-  return c[0] + x * (c[1] + x * c[2]);
-}
-
-/** Beyond this strain the quotient is formed from powers of 1/ε, so nothing overflows on the way. */
-const HUGE_STRAIN = 1e100;
-
-/** n(x)/d(x) for quadratics n and d, without intermediate overflow at any finite x. */
-function quotient(n: Quad, d: Quad, x: number): number {
-  if (Math.abs(x) <= HUGE_STRAIN) return evaluate(n, x) / evaluate(d, x);
-  if (n[2] === 0 && d[2] === 0) return (n[0] / x + n[1]) / (d[0] / x + d[1]);
-  return ((n[0] / x + n[1]) / x + n[2]) / ((d[0] / x + d[1]) / x + d[2]);
-}
-
 /** Limit of n(x)/d(x) as x → ±∞ (sign = ±1), or the value at a finite x. */
 const POISSON_LIMITS = { min: -1, max: 0.5, minExclusive: true } as const;
 const ZERO_OK = { allowZero: true } as const;
@@ -260,74 +269,46 @@ export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
   const sourceOhms = o['sourceOhms'] === undefined ? 0 : checkOhms('sourceOhms', o['sourceOhms'], ZERO_OK);
   const info = arrangementTable[arrangement];
 
-  let leadsInArms: [number, number, number, number] = [0, 0, 0, 0];
-  let seriesOhms = sourceOhms;
+  let wiring: LeadWiring | undefined;
+  let ohmsPerLead = 0;
   if (o['leads'] !== undefined) {
     const l = checkOptions('leads', o['leads'], {
       known: ['ohmsPerLead', 'wiring'],
       required: ['ohmsPerLead', 'wiring'],
     });
-    const ohmsPerLead = checkOhms('leads.ohmsPerLead', l['ohmsPerLead'], ZERO_OK);
-    const wiring = checkOneOf('leads.wiring', l['wiring'], info.wirings);
-    if (wiring === 'two-wire') {
-      leadsInArms =
-        arrangement === 'quarter' ? [2 * ohmsPerLead, 0, 0, 0] : [2 * ohmsPerLead, 0, 2 * ohmsPerLead, 0];
-    } else if (wiring === 'three-wire') {
-      leadsInArms = [ohmsPerLead, ohmsPerLead, 0, 0];
-    } else if (wiring === 'four-wire') {
-      seriesOhms = sourceOhms + 2 * ohmsPerLead;
-    } else {
-      seriesOhms = 0; // six-wire: the ratio is referred to the excitation sensed at the bridge
-    }
+    ohmsPerLead = checkOhms('leads.ohmsPerLead', l['ohmsPerLead'], ZERO_OK);
+    wiring = checkOneOf('leads.wiring', l['wiring'], info.wirings);
   }
 
-  // Arm i = p[i] + g[i]·ε.
-  const nu = poissonRatio ?? 0;
-  const multipliers = info.arms.map((gauge) => (gauge === null ? 0 : gauge[0] + gauge[1] * nu));
-  const p = info.arms.map(
-    (gauge, i) => (gauge === null ? completionOhms : gaugeOhms) + (leadsInArms[i] as number),
-  );
-  const g = multipliers.map((s) => gaugeOhms * gaugeFactor * s);
-  const [p1, p2, p3, p4] = p as [number, number, number, number];
-  const [g1, g2, g3, g4] = g as [number, number, number, number];
+  // Arm i = p[i] + g[i]·ε: the closed form shared with createStrainBridgeKernel.
+  const layout = armLayout(info, poissonRatio, wiring);
+  const multipliers = layout.multipliers;
+  const seriesOhms = seriesOhmsOf(layout, sourceOhms, ohmsPerLead);
+  const c = new Float64Array(RATIONAL_LENGTH);
+  c[COMPLETION_OHMS] = completionOhms;
+  c[OHMS_PER_LEAD] = ohmsPerLead;
+  c[SERIES_OHMS] = seriesOhms;
+  fillRational(c, layoutVector(layout, gaugeOhms, gaugeFactor));
+  const numerator: Quad = [c[N0] as number, c[N1] as number, c[N2] as number];
+  const denominator: Quad = [c[D0] as number, c[D1] as number, c[D2] as number];
+  const armOhms = (i: number, e: number): number =>
+    (layout.gauge[i] ? gaugeOhms : completionOhms) +
+    (layout.leadsInArms[i] as number) * ohmsPerLead +
+    gaugeOhms * gaugeFactor * (multipliers[i] as number) * e;
 
-  const numerator: Quad = [
-    differenceOfProducts(p1, p3, p2, p4),
-    p1 * g3 + p3 * g1 - p2 * g4 - p4 * g2,
-    differenceOfProducts(g1, g3, g2, g4),
-  ];
-  const pSum0 = p1 + p2;
-  const pSum1 = g1 + g2;
-  const qSum0 = p3 + p4;
-  const qSum1 = g3 + g4;
-  const denominator: Quad = [
-    pSum0 * qSum0 + seriesOhms * (pSum0 + qSum0),
-    pSum0 * qSum1 + pSum1 * qSum0 + seriesOhms * (pSum1 + qSum1),
-    pSum1 * qSum1,
-  ];
-
-  // Strains keeping every gauge resistance Rg(1 + GF·s·ε) positive.
-  let strainMin = -Infinity;
-  let strainMax = Infinity;
-  for (const s of multipliers) {
-    if (s > 0) strainMin = Math.max(strainMin, -1 / (gaugeFactor * s));
-    if (s < 0) strainMax = Math.min(strainMax, -1 / (gaugeFactor * s));
-  }
+  const [strainMin, strainMax] = strainLimits(layout, gaugeFactor);
   const strainRange: Interval = { min: strainMin, max: strainMax };
   const ratioEnds = [ratioAt(numerator, denominator, strainMin), ratioAt(numerator, denominator, strainMax)];
   const ratioRange: Interval = { min: Math.min(...ratioEnds), max: Math.max(...ratioEnds) };
 
   const [n0, n1, n2] = numerator;
   const [d0, d1, d2] = denominator;
-
-  // Lowest terms. Equal halves (R1 ≡ R3, R2 ≡ R4): N = (R1 − R2)(R1 + R2) and
-  // D = (R1 + R2)(R1 + R2 + 2·Rser), so ratio = (R1 − R2)/(R1 + R2 + 2·Rser).
-  const equalHalves = p1 === p3 && g1 === g3 && p2 === p4 && g2 === g4;
-  const linearFractional = equalHalves
-    ? { numerator: [p1 - p2, g1 - g2] as const, denominator: [p1 + p2 + 2 * seriesOhms, g1 + g2] as const }
-    : n2 === 0 && d2 === 0
-      ? { numerator: [n0, n1] as const, denominator: [d0, d1] as const }
-      : undefined;
+  const linearFractional = Number.isNaN(c[M0])
+    ? undefined
+    : {
+        numerator: [c[M0] as number, c[M1] as number] as const,
+        denominator: [c[K0] as number, c[K1] as number] as const,
+      };
   const a = n1 * d0 - n0 * d1;
   const b = n2 * d0 - n0 * d2;
   const sensitivity = a / (d0 * d0);
@@ -350,39 +331,13 @@ export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
 
   function solve(param: string, value: unknown): number {
     const r = checkFinite(param, value);
-    const strain = linearFractional !== undefined ? solveLinearFractional(r) : solveQuadratic(r);
+    const strain = solveRational(c, r, strainMin, strainMax);
     if (!(strain > strainMin && strain < strainMax && r > ratioRange.min && r < ratioRange.max)) {
       throw new BridgeworkError(
         'ratio-out-of-range',
         `\`${param}\` must be in (${ratioRange.min}, ${ratioRange.max}) for a '${arrangement}' bridge; got ${formatValue(r)}`,
         { param, value: r, limit: [ratioRange.min, ratioRange.max] },
       );
-    }
-    return strain;
-  }
-
-  const [m0, m1] = linearFractional?.numerator ?? [0, 0];
-  const [k0, k1] = linearFractional?.denominator ?? [0, 0];
-  function solveLinearFractional(r: number): number {
-    return -differenceOfProducts(k0, r, m0, 1) / (k1 * r - m1);
-  }
-
-  function solveQuadratic(r: number): number {
-    const qa = r * d2 - n2;
-    const qb = r * d1 - n1;
-    const qc = differenceOfProducts(r, d0, n0, 1);
-    // Roots of qa·ε² + qb·ε + qc = 0: keep the one inside the strain range (at most one lies
-    // there, since the map is strictly increasing on it). No allocation: this runs per sample.
-    let strain = Number.NaN;
-    if (qa === 0) {
-      strain = -qc / qb;
-    } else {
-      const disc = qb * qb - 4 * qa * qc;
-      if (disc >= 0) {
-        const q = -0.5 * (qb + (qb < 0 ? -Math.sqrt(disc) : Math.sqrt(disc)));
-        strain = qc / q;
-        if (!(strain > strainMin && strain < strainMax)) strain = q / qa;
-      }
     }
     return strain;
   }
@@ -394,7 +349,7 @@ export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
     completionOhms,
     poissonRatio,
     seriesOhms,
-    bridgeFactor: multipliers[0]! + multipliers[2]! - (multipliers[1]! + multipliers[3]!),
+    bridgeFactor: multipliers[0] + multipliers[2] - (multipliers[1] + multipliers[3]),
     sensitivity,
     offsetRatio,
     strainRange,
@@ -441,7 +396,12 @@ export function createStrainBridge(options: StrainBridgeOptions): StrainBridge {
     },
     armsOhms(strain: number): [number, number, number, number] {
       const e = checkStrain('strain', strain);
-      const arms: [number, number, number, number] = [p1 + g1 * e, p2 + g2 * e, p3 + g3 * e, p4 + g4 * e];
+      const arms: [number, number, number, number] = [
+        armOhms(0, e),
+        armOhms(1, e),
+        armOhms(2, e),
+        armOhms(3, e),
+      ];
       for (const r of arms)
         checkFiniteResult(r, { what: 'every arm resistance', param: 'strain', value: strain });
       return arms;

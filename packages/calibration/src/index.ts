@@ -71,15 +71,20 @@ export {
 export {
   fitMultiComponent,
   type LoadingPoint,
+  type MultiComponentCalibration,
+  type MultiComponentFitOptions,
+  type RejectedTerm,
+} from './multicomponent/fitMultiComponent.js';
+export {
+  createMultiComponentModel,
   type LoadStateMonteCarloOptions,
   type LoadStateOptions,
   type LoadStateUncertainty,
-  type MultiComponentCalibration,
-  type MultiComponentFitOptions,
   type MultiComponentInverse,
   type MultiComponentInverseOptions,
-  type RejectedTerm,
-} from './multicomponent/fitMultiComponent.js';
+  type MultiComponentModel,
+  type MultiComponentModelOptions,
+} from './multicomponent/createMultiComponentModel.js';
 export { interactionTermChoices, type InteractionTerms, type ModelTerm } from './multicomponent/terms.js';
 export {
   nearestPreferredValue,

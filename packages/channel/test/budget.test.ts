@@ -1,7 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { createStrainBridge } from '@bridgework/bridge';
 import { johnsonNoiseDensity } from '@bridgework/chain';
-import { channelBudget, createChannel, validateChannelSpec, type ChannelSpec } from '@bridgework/channel';
+import {
+  MAX_BUDGET_TRIALS,
+  channelBudget,
+  createChannel,
+  validateChannelSpec,
+  type ChannelSpec,
+} from '@bridgework/channel';
 
 const spec: ChannelSpec = {
   name: 'crane hook',
@@ -138,6 +144,44 @@ describe('budget: lines, models and the combined uncertainty', () => {
     expect(sum / 5000).toBeNear(kept.value, { rel: 1e-12 });
   });
 
+  it('reports progress per block of 16 384 trials and stops when its signal is aborted', () => {
+    const channel = createChannel(spec);
+    const seen: number[] = [];
+    const full = channelBudget(channel, {
+      monteCarlo: { trials: 40_000, seed: 3, onProgress: (p) => seen.push(p.trials) },
+    }).monteCarlo!;
+    expect(seen).toEqual([16_384, 32_768, 40_000]);
+    // Aborted from the progress hook after the first block: the run throws the signal's reason.
+    const controller = new AbortController();
+    const reason = new Error('stopped by the test');
+    let calls = 0;
+    expect(() =>
+      channelBudget(channel, {
+        monteCarlo: {
+          trials: 40_000,
+          seed: 3,
+          signal: controller.signal,
+          onProgress: () => {
+            calls++;
+            controller.abort(reason);
+          },
+        },
+      }),
+    ).toThrow(reason);
+    expect(calls).toBe(1);
+    // Without a reason: a closed error; never aborted: the same run as without a signal.
+    expect(() =>
+      channelBudget(channel, { monteCarlo: { trials: 5000, signal: { aborted: true } } }),
+    ).toThrowBridgeworkError('closed', { param: 'signal' });
+    const watched = channelBudget(channel, {
+      monteCarlo: { trials: 40_000, seed: 3, signal: new AbortController().signal },
+    }).monteCarlo!;
+    expect(watched.value).toBe(full.value);
+    expect(() =>
+      channelBudget(channel, { monteCarlo: { trials: 5000, signal: 'stop' as never } }),
+    ).toThrowBridgeworkError('wrong-type', { param: 'options.monteCarlo.signal' });
+  });
+
   it('adds the IEC 60751 class tolerance of an RTD (class A at 100 °C: ±0.35 °C)', () => {
     const rtd = channelBudget(
       createChannel({
@@ -252,5 +296,97 @@ describe('budget: a span end too close to the end of the sensor’s range for it
     });
     expect(c.span.min).toBeNear(-189.5, { abs: 1e-9 });
     expect(c.span.max).toBeNear(839.5, { abs: 1e-9 });
+  });
+});
+
+describe('a transducer budget without the sensor calibration is flagged (issue 15)', () => {
+  const cell: ChannelSpec = {
+    sensor: { kind: 'transducer', capacity: '20 t', ratedOutputVoltsPerVolt: '2 mV/V' },
+    excitation: { volts: 5 },
+    amplifier: { gain: 128 },
+    adc: { bits: 24, referenceVolts: 5, ratiometric: true },
+    output: { quantity: 'mass', unit: 't', range: [0, 20] },
+  };
+
+  it('warns, naming sensor.ratedOutputToleranceFraction, when the rated output has no tolerance', () => {
+    const b = channelBudget(createChannel(cell));
+    const check = b.checks.find((c) => c.id === 'sensor-calibration')!;
+    expect(check).toMatchObject({ status: 'warn', ok: true, path: 'sensor.ratedOutputToleranceFraction' });
+    expect(check.message).toMatch(/lacks the transducer's calibration uncertainty/);
+    expect(check.message).toMatch(/covers the electronics and the noise only/);
+    // What it says is so: no budget line comes from the sensor's calibration.
+    expect(b.lines.map((l) => l.name)).not.toContain('rated output');
+  });
+
+  it('passes, stating the tolerance, once it is filled in (and the line is in the budget)', () => {
+    const b = channelBudget(
+      createChannel({
+        ...cell,
+        sensor: { ...cell.sensor, ratedOutputToleranceFraction: '0.1 %' },
+      } as ChannelSpec),
+    );
+    const check = b.checks.find((c) => c.id === 'sensor-calibration')!;
+    expect(check.status).toBe('pass');
+    expect(check.message).toBe(
+      "the budget holds the rated output's tolerance ±0.1\u00a0% (sensor.ratedOutputToleranceFraction)",
+    );
+    expect(b.lines.map((l) => l.name)).toContain('rated output');
+  });
+
+  it('does not apply to a channel read as a bridge ratio, nor to other sensor kinds', () => {
+    const ratio = channelBudget(
+      createChannel({ ...cell, output: { quantity: 'ratio', unit: 'mV/V', range: [0, 2] } }),
+    );
+    expect(ratio.checks.some((c) => c.id === 'sensor-calibration')).toBe(false);
+    const gauge = channelBudget(createChannel(spec));
+    expect(gauge.checks.some((c) => c.id === 'sensor-calibration')).toBe(false);
+  });
+});
+
+describe('channelBudget options are checked, never read loosely (issue 15, items 6 and 8)', () => {
+  const ch = createChannel(spec);
+  it.each([
+    [0, 'wrong-type'],
+    ['no', 'wrong-type'],
+    [Number.NaN, 'wrong-type'],
+    [-1, 'wrong-type'],
+    [null, 'wrong-type'],
+    [[], 'wrong-type'],
+  ] as const)(
+    'monteCarlo: %s is %s naming options.monteCarlo (was: 10⁵ trials run, or a TypeError)',
+    (value, code) => {
+      expect(() => channelBudget(ch, { monteCarlo: value as never })).toThrowBridgeworkError(code, {
+        param: 'options.monteCarlo',
+      });
+    },
+  );
+
+  it.each([1, 'yes', null, {}])('monteCarlo.returnValues: %s is wrong-type', (value) => {
+    expect(() =>
+      channelBudget(ch, { monteCarlo: { trials: 1000, returnValues: value as never } }),
+    ).toThrowBridgeworkError('wrong-type', { param: 'options.monteCarlo.returnValues' });
+  });
+
+  it('monteCarlo.trials beyond the memory-derived limit is refused at once (was: hours of work)', () => {
+    const started = Date.now();
+    expect(() => channelBudget(ch, { monteCarlo: { trials: 1e9 } })).toThrowBridgeworkError('out-of-range', {
+      param: 'options.monteCarlo.trials',
+    });
+    expect(() => channelBudget(ch, { monteCarlo: { trials: MAX_BUDGET_TRIALS + 1 } })).toThrowBridgeworkError(
+      'out-of-range',
+      { param: 'options.monteCarlo.trials' },
+    );
+    // Refused before any trial runs (a generous bound on a shared machine; nothing near hours).
+    expect(Date.now() - started).toBeLessThan(5_000);
+  });
+
+  it('a misspelt option or Monte Carlo setting names the closest key', () => {
+    expect(() => channelBudget(ch, { monteCarol: true } as never)).toThrowBridgeworkError('unknown-option', {
+      param: 'options.monteCarol',
+    });
+    expect(() => channelBudget(ch, { monteCarlo: { trails: 1000 } } as never)).toThrowBridgeworkError(
+      'unknown-option',
+      { param: 'options.monteCarlo.trails' },
+    );
   });
 });

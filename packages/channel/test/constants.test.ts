@@ -187,6 +187,27 @@ describe('channelConstants: options and refusals', () => {
     );
   });
 
+  it('refuses an output step that cannot resolve the span or overflows the int32 outputs, naming it (issue 15 fuzz: was "scale")', () => {
+    for (const step of [1e308, 51, 1e-308, 50 / 2 ** 32]) {
+      expect(() => channelConstants(ch, { outputResolution: step }), String(step)).toThrowBridgeworkError(
+        'out-of-range',
+        { param: 'outputResolution' },
+      );
+    }
+    // The same limits for the spec's output.firmwareResolution, named as the field.
+    const fine = createChannel({
+      ...cell,
+      output: { quantity: 'mass', range: [0, 50], firmwareResolution: 1e-12 },
+    });
+    expect(() => channelConstants(fine)).toThrowBridgeworkError('out-of-range', {
+      param: 'output.firmwareResolution',
+    });
+    // The ends themselves are accepted: the span's magnitude, and that of the largest output / 2^31.
+    expect(
+      channelConstants(ch, { outputResolution: 50, targetError: 100, types: ['fixed'] }).outputResolution,
+    ).toBe(50);
+  });
+
   it('refuses a span of fewer than two codes', () => {
     const narrow = createChannel({
       sensor: { kind: 'strain-gauge', gaugeFactor: 2.1 },

@@ -4,7 +4,12 @@ import { createStrainBridge } from '@bridgework/bridge';
 import { createAdc, type RatiometricAdc } from '@bridgework/chain';
 import { BridgeworkError } from '@bridgework/core';
 import { correctTemperatureEffects, createRtd, wireOhms } from '@bridgework/compensation';
-import { createChannel, validateChannelSpec, type ChannelSpec } from '@bridgework/channel';
+import {
+  CHANNEL_MAP_RELATIVE_ACCURACY,
+  createChannel,
+  validateChannelSpec,
+  type ChannelSpec,
+} from '@bridgework/channel';
 import { solveBridgeNetwork } from '../../../test/support/nodal.js';
 import { D, X, arm1Ref, cvdTemperature, ratioFromCodeRef } from './support/reference.js';
 
@@ -446,8 +451,8 @@ describe('a ratiometric converter and excitation.sourceOhms (issue 15: the sourc
     expect(e.issues).toHaveLength(1);
     const issue = e.issues[0]!;
     expect(issue).toMatchObject({ path: 'excitation.sourceOhms', code: 'conflicting-options', limit: '0 Ω' });
-    expect(issue.message).toMatch(/reference is the excitation at the instrument's terminals/);
-    expect(issue.message).toMatch(/does not change the ratio/);
+    expect(issue.message).toMatch(/reference is taken at the excitation terminals/);
+    expect(issue.message).toMatch(/changes the bridge voltage, not the ratio/);
     expect(issue.message).toMatch(/got 10 Ω/);
     expect(issue.suggestion).toMatch(/excitation\.volts/);
     expect(issue.suggestion).toMatch(/adc\.ratiometric to false/);
@@ -504,6 +509,117 @@ describe('a ratiometric converter and excitation.sourceOhms (issue 15: the sourc
     const b = createChannel({ ...base, excitation: { volts: 5, sourceOhms: 10 } });
     for (const code of [-4_000_000, -1, 0, 1, 1_234_567, 8_388_606]) {
       expect(b.quantityFromCode(code)).toBe(a.quantityFromCode(code));
+    }
+  });
+});
+
+describe("quantityFromCode's stated accuracy, exactly as docs/channel.md states it (issue 15)", () => {
+  // docs/channel.md, "Accuracy and verification": at every code of the span, |error| ≤ 1e-13 × the
+  // span's largest |value| against 40-digit references. Not relative to each value: at code 1 the
+  // value is a small difference of large ones.
+  const BOUND = 1e-13;
+  const largestRead = (ch: ReturnType<typeof createChannel>) =>
+    Math.max(Math.abs(ch.span.min), Math.abs(ch.span.max));
+  const codes = (lo: number, hi: number) =>
+    fc
+      .sample(fc.integer({ min: lo, max: hi }), { numRuns: 1500, seed: 15 })
+      .concat([-3, -1, 0, 1, 2, 3, lo, hi]);
+  /** The codes of a channel's span, as the firmware verification takes them. */
+  const spanCodes = (ch: ReturnType<typeof createChannel>) => {
+    const ends = [ch.span.min, ch.span.max].map((v) => ch.codeFromQuantity(v));
+    return codes(Math.min(...ends), Math.max(...ends));
+  };
+
+  it('the constant the firmware bounds use is the stated figure', () => {
+    expect(CHANNEL_MAP_RELATIVE_ACCURACY).toBe(BOUND);
+  });
+
+  it("quarter three-wire, ratiometric (m/m): within 1e-13 of the span's largest value, zero included", () => {
+    const ch = createChannel(minimal);
+    const largest = largestRead(ch);
+    const rl = X(1.2);
+    const rg = new D(350);
+    for (const code of spanCodes(ch)) {
+      const r1 = arm1Ref(ratioFromCodeRef(code, 128, 24), rg.plus(rl), rg, rg, new D(0));
+      const ref = r1
+        .minus(rl)
+        .minus(rg)
+        .div(rg.times(X(2.1)))
+        .toNumber();
+      expect(ch.quantityFromCode(code)).toBeNear(ref, { abs: BOUND * largest });
+    }
+  });
+
+  it("RTD three-wire (°C), where a value near 0 °C has no useful relative accuracy: within 1e-13 of the span's largest", () => {
+    const ch = createChannel({
+      sensor: { kind: 'rtd', r0Ohms: 100 },
+      bridge: { wiring: 'three-wire', ohmsPerLead: 0.8, completionOhms: 100 },
+      excitation: { volts: 1 },
+      amplifier: { gain: 8 },
+      adc: { bits: 24, referenceVolts: 1, ratiometric: true },
+      output: { quantity: 'temperature' },
+    });
+    const largest = largestRead(ch);
+    const [r0, a, b, c] = [X(100), X(3.9083e-3), X(-5.775e-7), X(-4.183e-12)];
+    let nearZero = 0;
+    for (const code of spanCodes(ch)) {
+      const arm = arm1Ref(ratioFromCodeRef(code, 8, 24), X(100.8), X(100), X(100), new D(0));
+      const ref = cvdTemperature(arm.minus(X(0.8)), r0, a, b, c).toNumber();
+      const got = ch.quantityFromCode(code);
+      expect(got).toBeNear(ref, { abs: BOUND * largest });
+      if (Math.abs(ref) < 1e-6) nearZero++;
+    }
+    // The sample holds readings near 0 °C, where a bound relative to the value itself would not hold.
+    expect(nearZero).toBeGreaterThan(0);
+  });
+
+  it('load cell four-wire (N) and an absolute reference with source resistance (µε)', () => {
+    const cell = createChannel({
+      sensor: {
+        kind: 'transducer',
+        capacity: 5000,
+        ratedOutputVoltsPerVolt: 2e-3,
+        zeroBalanceVoltsPerVolt: 1.5e-5,
+        inputOhms: 400,
+        outputOhms: 350,
+      },
+      bridge: { wiring: 'four-wire', ohmsPerLead: 2.2 },
+      excitation: { volts: 10 },
+      amplifier: { gain: 128 },
+      adc: { bits: 24, referenceVolts: 10, ratiometric: true },
+      output: { quantity: 'force' },
+    });
+    const cellLargest = largestRead(cell);
+    const span = X(400).div(X(400).plus(X(2.2).times(2)));
+    for (const code of spanCodes(cell)) {
+      const ref = X(5000)
+        .times(ratioFromCodeRef(code, 128, 24).div(span).minus(X(1.5e-5)))
+        .div(X(2e-3))
+        .toNumber();
+      expect(cell.quantityFromCode(code)).toBeNear(ref, { abs: BOUND * cellLargest });
+    }
+    const gauge = createChannel({
+      sensor: { kind: 'strain-gauge', gaugeFactor: 2.05, gaugeOhms: 120 },
+      bridge: { arrangement: 'quarter', wiring: 'two-wire', cable: { awg: 26, lengthMeters: 15 } },
+      excitation: { volts: 2.5, sourceOhms: 4.7 },
+      amplifier: { gain: 64 },
+      adc: { bits: 24, referenceVolts: 2.5 },
+      environment: { temperatureCelsius: 35 },
+      output: { quantity: 'strain', unit: 'µε' },
+    });
+    const gaugeLargest = largestRead(gauge);
+    const rl = X(wireOhms({ awg: 26, lengthMeters: 15, temperatureCelsius: 35 }));
+    const lsb = X(2.5).div(X(64).times(new D(2).pow(23)));
+    const rg = new D(120);
+    for (const code of spanCodes(gauge)) {
+      const r1 = arm1Ref(X(code).times(lsb).div(X(2.5)), rg, rg, rg, X(4.7));
+      const ref = r1
+        .minus(rl.times(2))
+        .minus(rg)
+        .div(rg.times(X(2.05)))
+        .times(1e6)
+        .toNumber();
+      expect(gauge.quantityFromCode(code)).toBeNear(ref, { abs: BOUND * gaugeLargest });
     }
   });
 });

@@ -1,7 +1,8 @@
 /**
  * Conversion loops for channels without one Möbius function over every valid code (issue 19
- * item 4): the platinum RTD loop against the channel's exact scalar path, bit for bit, over every
- * code of a 24-bit converter; the partial kernel of a map with a pole just beyond its valid codes
+ * item 4): the platinum RTD loop (createRtd's closed form above 0 °C, its polynomial start and
+ * Newton step below) against the channel's exact scalar path, bit for bit, over every code of a
+ * 24-bit converter, including blocks that fall back to the scalar path; the partial kernel of a map with a pole just beyond its valid codes
  * (a quarter bridge read at gain 1) against the exact map. In-place conversion keeps rail codes
  * rejected on both (issue 15 item 1).
  */
@@ -9,6 +10,8 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { createChannel, createInterleavedConverter, type ChannelSpec } from '@bridgework/channel';
 import { channelInternals } from '../src/internal/makeChannel.js';
+import { convertCallendarVanDusen } from '../src/convert/curveKernels.js';
+import { RejectTally } from '../src/convert/kernel.js';
 import { arm1Ref, cvdTemperature, D, ratioFromCodeRef, X } from './support/reference.js';
 
 const RAIL_LOW = -(2 ** 23);
@@ -108,6 +111,38 @@ describe('platinum RTD loop (IEC 60751 inverse inline)', () => {
       }),
       { numRuns: 200 },
     );
+  });
+
+  it('a block whose Newton step fails its bound, or whose start is wrong, is converted again sample by sample', () => {
+    // The proved bound is the loop's own check: a start made useless (all zero), or a guard no
+    // step can pass, must send those samples to the scalar path (the iteration), never out wrong.
+    const ch = createChannel(pt100);
+    const kernel = channelInternals(ch).mappingAt(undefined).resistanceCurve!.kernel!;
+    const scalar = scalarPath(ch);
+    const first = Math.floor(ch.validCodes.min) + 1;
+    const last = Math.ceil(ch.validCodes.max) - 1;
+    const codes = Int32Array.from({ length: 5000 }, (_, i) =>
+      Math.round(first + ((last - first) * i) / 4999),
+    );
+    for (const broken of [
+      { ...kernel, guard: Infinity },
+      { ...kernel, start: new Float64Array(9) },
+      { ...kernel, start: kernel.start.map((p, i) => (i === 0 ? p * (1 + 1e-5) : p)) },
+    ]) {
+      const out = new Float64Array(codes.length);
+      const tally = new RejectTally(8, RAIL_LOW, RAIL_HIGH);
+      convertCallendarVanDusen(codes, out, broken, tally, 0, 1, codes.length, 0, 1);
+      expect(firstDifference(out, (i) => scalar(codes[i]!), codes.length)).toBe(-1);
+      const strided = new Float64Array(2 * codes.length);
+      convertCallendarVanDusen(codes, strided, broken, tally, 0, 1, codes.length, 0, 2);
+      expect(firstDifference(strided, (i) => (i % 2 === 0 ? scalar(codes[i / 2]!) : 0), strided.length)).toBe(
+        -1,
+      );
+    }
+    // Below 0 °C at this gain: a third of the codes (the fallback above was exercised).
+    let below = 0;
+    for (const x of codes) if (scalar(x) < 0) below++;
+    expect(below).toBeGreaterThan(1000);
   });
 
   it('in place, rails and beyond are NaN and counted, exactly as into a separate buffer', () => {

@@ -3,6 +3,7 @@
  * kind is added here through a kit, never in src/), and an arrangement is one row of the bridge
  * package's table (a fake row is added here, and removed again, in one test).
  */
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { arrangementTable, strainArrangements } from '@bridgework/bridge';
 import { channelBudget, createChannel } from '@bridgework/channel';
@@ -63,13 +64,21 @@ describe('a sensor kind is its module and one registry line', () => {
   });
 });
 
+/** The invented arrangement of the worked example in docs/channel.md: three active gauges and one completion resistor. */
+const threeActiveRow = {
+  arms: [[1, 0], [-1, 0], [1, 0], null],
+  wirings: ['three-wire'],
+  measures: 'normal',
+} as const;
+
 describe('an arrangement is one row of the bridge package’s table', () => {
   it('a fake row measures strain through the channel, checked by a 40-digit network solve', () => {
     // Three active gauges (arms 1, 2, 3 at ε, −ε, ε) and one completion resistor: invented.
     const name = 'three-active';
     const table = arrangementTable as unknown as Record<string, unknown>;
     const list = strainArrangements as unknown as string[];
-    table[name] = { arms: [[1, 0], [-1, 0], [1, 0], null], wirings: ['three-wire'] };
+    // The row exactly as docs/channel.md shows it (a test there compares the two).
+    table[name] = threeActiveRow;
     list.push(name);
     try {
       const kit = createChannelKit({ sensorKinds: builtInSensorKinds });
@@ -113,6 +122,23 @@ describe('an arrangement is one row of the bridge package’s table', () => {
       // The closed-form Monte Carlo model reads the same row and agrees with the composed map.
       const budget = channelBudget(channel);
       expect(budget.model).toBe('closed-form');
+      // The row says it measures normal strain: stress (σ = E·ε, uniaxial Hooke's law) follows with
+      // no other change, and a shear quantity is refused with the reason.
+      const stress = kit.createChannel({
+        ...spec,
+        output: { quantity: 'stress', unit: 'MPa', range: [-300, 300], modulusPascals: 200e9 },
+      });
+      for (const code of [-2_000_000, 1_234_567])
+        expect(stress.quantityFromCode(code)).toBeNear(
+          (channel.quantityFromCode(code) * 1e-6 * 200e9) / 1e6,
+          {
+            rel: 1e-14,
+          },
+        );
+      expect(
+        kit.validateChannelSpec({ ...spec, output: { quantity: 'torque', shaftDiameterMeters: 0.05 } })
+          .issues,
+      ).toEqual([expect.objectContaining({ path: 'output.quantity' })]);
       expect(budget.combined.contributions['gauge factor']).toBeNear((1500 * 0.01) / Math.sqrt(3), {
         rel: 1e-6,
       });
@@ -121,5 +147,38 @@ describe('an arrangement is one row of the bridge package’s table', () => {
       list.splice(list.indexOf(name), 1);
     }
     expect(strainArrangements).not.toContain(name);
+  });
+});
+
+describe('docs/channel.md: the worked examples are the code', () => {
+  const docs = readFileSync(new URL('../../../docs/channel.md', import.meta.url), 'utf8');
+  /** The first fenced block after a marker comment. */
+  const blockAfter = (marker: string): string => {
+    const at = docs.indexOf(`<!-- worked-example: ${marker} -->`);
+    expect(at, `docs/channel.md has the marker ${marker}`).toBeGreaterThan(0);
+    const m = /```ts\n([\s\S]*?)```/.exec(docs.slice(at));
+    return (m?.[1] ?? '').trimEnd();
+  };
+
+  it('the sensor kind module is test/support/fakeKind.ts (import paths as in src/kinds/)', () => {
+    const file = readFileSync(new URL('./support/fakeKind.ts', import.meta.url), 'utf8');
+    const module = file
+      .slice(file.indexOf('import '))
+      .replace("'../../src/kinds/SensorKind.js'", "'./SensorKind.js'")
+      .replace("'../../src/spec/schema.js'", "'../spec/schema.js'")
+      .trimEnd();
+    expect(blockAfter('packages/channel/test/support/fakeKind.ts')).toBe(module);
+    // The registry block lists the built-in kinds in the registry's order, then the new one.
+    const registry = readFileSync(new URL('../src/kinds/registry.ts', import.meta.url), 'utf8');
+    const names = (text: string) => /builtInSensorKinds = \[([^\]]*)\]/.exec(text)?.[1]?.match(/\w+/g) ?? [];
+    const at = docs.indexOf('gains its name:');
+    expect(names(docs.slice(at))).toEqual([...names(registry), 'fakeKind']);
+    expect(names(registry)).toHaveLength(builtInSensorKinds.length);
+  });
+
+  it('the arrangement row is the one the test above adds', () => {
+    const block = blockAfter('threeActiveRow in packages/channel/test/kinds.test.ts');
+    const row = new Function(`return { ${block} };`)() as Record<string, unknown>;
+    expect(row).toEqual({ 'three-active': threeActiveRow });
   });
 });

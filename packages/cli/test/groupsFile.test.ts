@@ -53,7 +53,7 @@ async function problems(path: string): Promise<string> {
 describe('the example test rig (examples/test-rig-coupling/test-rig.yaml)', () => {
   it('fits the coupling: the recovered sensitivity is the generator’s within 4 standard uncertainties', async () => {
     const [coupling] = (await groupsOf(example)) as [MultiComponentGroup];
-    const c = coupling.calibration;
+    const c = coupling.fit!.calibration;
     expect(c.components).toEqual(['Fx', 'Fy', 'Fz', 'Mx', 'My', 'Mz']);
     expect(c.rejectedTerms).toEqual([]);
     expect(c.terms).toHaveLength(1 + 6 + 21); // offset, linear, squares and products (AIAA R-091's full second order)

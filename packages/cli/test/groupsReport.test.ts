@@ -107,7 +107,7 @@ describe('report on a file with groups', () => {
 
   it("the report's Monte Carlo figures agree with an independent sampler written here, and with the GUM", async () => {
     const [g] = (await loadGroups(await loadChannels(example))) as [MultiComponentGroup];
-    const c = g.calibration;
+    const c = g.fit!.calibration;
     const noise = readingNoise(g);
     const { code, stdout } = await run('report', example, '--json');
     expect(code).toBe(exitCodes.ok);

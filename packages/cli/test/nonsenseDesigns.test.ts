@@ -38,10 +38,17 @@ describe('nonsense designs are refused', () => {
       'dataRateHertz: 10 Hz } }\n    environment',
       'dataRateHertz: 1e308 Hz } }\n    environment',
       'hanger-h3',
-      '',
-      'dataRateHertz',
+      'adc.filter.dataRateHertz',
+      '<= 1e12 Hz',
     ],
-    ['an RTD of R0 = 1e17 Ω', 'r0Ohms: 1000 Ω', 'r0Ohms: 1e17 Ω', 'deck-temp', '', 'r0Ohms'],
+    [
+      'an RTD of R0 = 1e17 Ω',
+      'r0Ohms: 1000 Ω',
+      'r0Ohms: 1e17 Ω',
+      'deck-temp',
+      'sensor.r0Ohms',
+      '1000000000000000',
+    ],
     [
       'a 50 000 km cable',
       'lengthMeters: 22 m',
@@ -54,7 +61,8 @@ describe('nonsense designs are refused', () => {
     const r = await run('report', edited(`${what}.yaml`, from, to), '--channel', channel);
     expect(r.code).toBe(exitCodes.badInput);
     expect(r.stdout).toBe('');
-    const path = `channels.${channel}${field === '' ? '' : `.${field}`}`;
+    // Every refusal names the field the user can change, never the channel as a whole.
+    const path = `channels.${channel}.${field}`;
     expect(r.stderr).toMatch(
       new RegExp(`:\\d+:\\d+: ${path.replace(/[.]/g, '\\.')}: .*${limit.replace(/[.]/g, '\\.')}`),
     );
@@ -72,7 +80,7 @@ describe('nonsense designs that can be built are failed or flagged by the design
     expect(r.stdout).toMatch(/^ {4}FAIL {2}expanded uncertainty against the span: /m);
     expect(r.stdout).toMatch(/^ {4}FAIL {2}rms noise against the span: /m);
     expect(r.stdout).toMatch(
-      /^ {4}WARN {2}amplifier\.gain in its usual range: amplifier\.gain = 1e-6 lies outside/m,
+      /^ {4}WARN {2}amplifier\.gain in its usual range: amplifier\.gain = 1e−6 lies outside/m,
     );
     expect(r.stdout).toMatch(/A design check failed: see the FAIL lines above \(exit code 2\)/);
     expect(r.stdout).not.toMatch(/Every check passed/);
@@ -94,11 +102,11 @@ describe('nonsense designs that can be built are failed or flagged by the design
     const r = await run('report', path, '--channel', 'gusset-g2');
     expect(r.code).toBe(exitCodes.failedCheck);
     expect(r.stdout).toMatch(
-      /^ {4}FAIL {2}expanded uncertainty against the span: U = [\d.]+ µε is \d+ % of the span/m,
+      /^ {4}FAIL {2}expanded uncertainty against the span: U = [\d.]+\u00a0µε is \d+\u00a0% of the span/m,
     );
     expect(r.stdout).toMatch(/^ {4}FAIL {2}rms noise against the span: /m);
     expect(r.stdout).toMatch(
-      /amplifier\.inputVoltageNoiseVoltsPerRootHz = 8e6 nV\/√Hz lies outside the usual/,
+      /amplifier\.inputVoltageNoiseVoltsPerRootHz = 8e6\u00a0nV\/√Hz lies outside the usual/,
     );
   });
 
@@ -113,7 +121,7 @@ describe('nonsense designs that can be built are failed or flagged by the design
     const r = await run('report', path, '--channel', 'gusset-g2');
     expect(r.code).toBe(exitCodes.badInput);
     expect(r.stderr).toMatch(
-      /:\d+:\d+: channels\.gusset-g2\.excitation\.sourceOhms: must be 0 with a ratiometric converter, whose reference is the excitation at the instrument's terminals/,
+      /:\d+:\d+: channels\.gusset-g2\.excitation\.sourceOhms: must be 0 with a ratiometric converter: its reference is taken at the excitation terminals/,
     );
     expect(r.stdout).not.toMatch(/Every check passed/);
     // With an absolute reference the 1e12 Ω starves the bridge: refused, with what to check.

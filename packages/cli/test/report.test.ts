@@ -65,7 +65,7 @@ describe('bridgework report on the example file', () => {
     });
     // The gusset gauge uses 2.5 % of the converter's range (the channel package warns below 5 %).
     expect(stdout).toMatch(
-      /^ {4}WARN {2}share of the converter's range used by the span: the span uses 2\.51 %/m,
+      /^ {4}WARN {2}share of the converter's range used by the span: the span uses 2\.51\u00a0%/m,
     );
     expect(stdout).toMatch(/No check failed, but 1 warning: see the WARN lines above\./);
   });
@@ -181,7 +181,7 @@ describe('bridgework report: output files and failed checks', () => {
     const r = await run('report', failing, '--html', html);
     expect(r.code).toBe(exitCodes.failedCheck);
     expect(r.stdout).toMatch(
-      /^ {4}FAIL {2}amplifier output, low swing: 2\.424 V against 3\.5 V, margin -1\.076 V: .+$/m,
+      /^ {4}FAIL {2}amplifier output, low swing: 2\.424\u00a0V against 3\.5\u00a0V at −10\u00a0kN, margin −1\.076\u00a0V: .+$/m,
     );
     expect(r.stdout).toMatch(
       /A design check failed: see the FAIL lines above \(exit code 2\); 1 warning as well\./,

@@ -102,7 +102,7 @@ describe('Channel.curve, as the plots draw it', () => {
 });
 
 describe('design check rows', () => {
-  it('show every check of the budget, a failed headroom with the chain package’s message', () => {
+  it('show every check of the budget, a failed headroom at its operating point in the report’s unit', () => {
     const spec = footbridgeSpecs['hanger-h3'];
     const failing = channelBudget(
       createChannel({
@@ -116,9 +116,13 @@ describe('design check rows', () => {
     );
     const low = failing.checks.find((k) => k.id === 'headroom-output-low')!;
     expect(statusMark(low)).toBe('FAIL');
-    expect(checkDetail(low)).toContain(
-      failing.frontEnd.issues.find((i) => i.limit === 'output-low')!.message,
+    // The worst point named by its value in the report's unit (kN), with true minus signs.
+    const margin = failing.frontEnd.value.headroom.margins.find((m) => m.limit === 'output-low')!;
+    expect(margin.pointIndex).toBe(0);
+    expect(checkDetail(low)).toMatch(
+      /^2\.424\u00a0V against 3\.5\u00a0V at −10\u00a0kN, margin −1\.076\u00a0V: the amplifier output, low swing is reached; lower amplifier\.gain or narrow output\.range$/,
     );
+    expect(checkDetail(low)).not.toMatch(/point \d|-/);
     expect(headroom.filter((k) => k.status === 'fail')).toHaveLength(failing.frontEnd.issues.length);
     const counts = countChecks(failing.checks);
     expect(counts.pass + counts.warn + counts.fail).toBe(failing.checks.length);
@@ -132,8 +136,19 @@ describe('design check rows', () => {
     expect(thresholdText(byId('span-codes'))).toBe('threshold 100\u00a0codes');
     expect(thresholdText(byId('span-share'))).toBe('threshold 5\u00a0%');
     expect(thresholdText(byId('finite'))).toBe('');
+    // A message that states its threshold keeps it once (no second "(threshold …)").
     expect(checkDetail(byId('span-share'))).toMatch(
-      /^the span uses [\d.]+ % of the converter's range \(threshold 5\u00a0%\)$/,
+      /^the span uses [\d.]+\u00a0% of the converter's range \(at least 5\u00a0% advised\)$/,
+    );
+    // A passing uncertainty and noise state the warning threshold they were judged against.
+    expect(byId('uncertainty').status).toBe('pass');
+    expect(byId('uncertainty').limit).toBe(0.02);
+    expect(checkDetail(byId('uncertainty'))).toMatch(
+      /^U = [\d.]+\u00a0kN is [\d.]+\u00a0% of the span \[−10\u00a0kN, 120\u00a0kN\] \(at most 2\u00a0%\)$/,
+    );
+    expect(byId('noise').limit).toBe(0.005);
+    expect(checkDetail(byId('noise'))).toMatch(
+      /^the rms noise [\d.e−]+\u00a0kN is [\d.e−]+\u00a0% of the span \(at most 0\.5\u00a0%\)$/,
     );
     expect(checksOutcome({ pass: 3, warn: 0, fail: 0 })).toBe('pass');
     expect(checksOutcome({ pass: 1, warn: 2, fail: 1 })).toBe('1 failed, 2 warnings');

@@ -5,12 +5,15 @@
  * distribution of half-width a, which is ±0.95a (derived: a rectangle spreads its probability
  * evenly over 2a).
  */
-import { readFileSync } from 'node:fs';
+import { spawn } from 'node:child_process';
+import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { channelBudget, createChannel } from '@bridgework/channel';
 import { describe, expect, it } from 'vitest';
 import { exitCodes } from '../src/exitCodes.js';
 import { runCli } from '../src/runCli.js';
-import { exampleShown, footbridgeSpecs } from './support/footbridge.js';
+import { examplePath, exampleShown, footbridgeSpecs, repoRoot } from './support/footbridge.js';
 import { useTestFiles } from './support/files.js';
 import { memoryIo } from './support/memoryIo.js';
 
@@ -145,4 +148,52 @@ describe('bridgework uncertainty', () => {
     expect(readFileSync(out, 'utf8')).toMatch(/^Monte Carlo uncertainty/);
     expect((await run([...argv, '-o', out])).code).toBe(exitCodes.badInput);
   });
+});
+
+describe('bridgework uncertainty: Ctrl-C during a long run', () => {
+  it(
+    'stops within one block, leaves no file behind and ends by SIGINT (the built command)',
+    { timeout: 120_000 },
+    async () => {
+      // The trials run in a worker thread, so the command's own thread hears the signal at once
+      // and sets the run's abort signal; 2·10⁷ trials of three channels would take many seconds.
+      const dir = mkdtempSync(join(tmpdir(), 'bridgework-sigint-'));
+      const out = join(dir, 'mc.txt');
+      const child = spawn(
+        process.execPath,
+        [
+          join(repoRoot, 'packages/cli/dist/bin.js'),
+          'uncertainty',
+          examplePath,
+          '--trials',
+          '20000000',
+          '-o',
+          out,
+        ],
+        { stdio: ['ignore', 'ignore', 'pipe'], env: { ...process.env, NO_COLOR: '1' } },
+      );
+      let stderr = '';
+      child.stderr.on('data', (d: Buffer) => (stderr += d.toString()));
+      const ended = new Promise<{ code: number | null; signal: NodeJS.Signals | null; at: number }>(
+        (resolve) => child.on('exit', (code, signal) => resolve({ code, signal, at: Date.now() })),
+      );
+      // Busy: the output's temporary file exists once the command has read the file and started.
+      const start = Date.now();
+      while (!readdirSync(dir).some((f) => f.endsWith('.tmp')) && Date.now() - start < 60_000)
+        await new Promise((r) => setTimeout(r, 50));
+      await new Promise((r) => setTimeout(r, 500));
+      const sent = Date.now();
+      child.kill('SIGINT');
+      const { code, signal, at } = await ended;
+      try {
+        expect({ code, signal }, stderr).toSatisfy(
+          (e: { code: number | null; signal: string | null }) => e.signal === 'SIGINT' || e.code === 130,
+        );
+        expect(at - sent, 'ended soon after the signal (a whole run takes far longer)').toBeLessThan(5_000);
+        expect(readdirSync(dir)).toEqual([]); // neither the output nor its temporary file
+      } finally {
+        rmSync(dir, { recursive: true, force: true });
+      }
+    },
+  );
 });

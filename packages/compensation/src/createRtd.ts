@@ -55,6 +55,27 @@ export interface RtdTolerance {
   readonly ohms: number;
 }
 
+/**
+ * The start of {@link Rtd.temperatureAt}'s inverse below 0 °C, for conversion loops that reproduce
+ * it operation for operation (the channel package's RTD kernel): with x = R/R0 − 1 in
+ * [x(−200 °C), 0), u = (x − xMin)·scale − 1, u₂ = u·u and u₄ = u₂·u₂, the start is
+ * t₀ = x·(p₀ + p₁u + (p₂ + p₃u)·u₂ + (p₄ + p₅u + (p₆ + p₇u)·u₂)·u₄ + p₈·(u₄·u₄)) (Estrin's scheme,
+ * evaluated left to right as written), the pᵢ being `coefficients[i]`. One Newton step on the
+ * quartic follows: δ = (t₀·(A + t₀·(B + t₀·(C·(t₀ − 100)))) − x)/(A + t₀·(2B + t₀·(C·(4t₀ − 300)))),
+ * t = t₀ − δ, kept when δ²·guard ≤ |t₀| and −201 °C ≤ t₀ < 0 (else the safeguarded iteration
+ * decides).
+ */
+export interface RtdInverseStart {
+  /** x(−200 °C), the lower end of the polynomial's interval. */
+  readonly xMin: number;
+  /** 2/|xMin|: u = (x − xMin)·scale − 1 runs over [−1, 1]. */
+  readonly scale: number;
+  /** The polynomial's nine coefficients (degree 8), lowest power first. */
+  readonly coefficients: readonly number[];
+  /** The proved bound's factor K·κ²·2⁵⁶ (see `createRtd`); Infinity when no bound holds. */
+  readonly guard: number;
+}
+
 /** A platinum resistance thermometer per IEC 60751 (see {@link createRtd}). */
 export interface Rtd {
   /** R0 in Ω. */
@@ -77,12 +98,15 @@ export interface Rtd {
    */
   ohmsAt(temperatureCelsius: number): number;
   /**
-   * Temperature at a resistance, °C: the exact inverse of `ohmsAt` (within 1e-9 K).
+   * Temperature at a resistance, °C: the inverse of `ohmsAt`, within 4 ulp of the exact root of
+   * x = R/R0 − 1 (40-digit checks; the round trip is within 1e-9 K).
    *
    * @param ohms - In `rangeOhms`.
    * @throws {@link @bridgework/core!BridgeworkError} `out-of-range`, `not-finite`, `wrong-type`.
    */
   temperatureAt(ohms: number): number;
+  /** The start of the inverse below 0 °C (see {@link RtdInverseStart}). */
+  readonly inverseStart: RtdInverseStart;
   /**
    * Slope dR/dt at a temperature, Ω/°C.
    *
@@ -102,6 +126,10 @@ const T_MAX = 850;
 /** Newton steps stop when they move t by less than this, °C (the result is then far closer). */
 const STEP_TOLERANCE_CELSIUS = 1e-12;
 const MAX_ITERATIONS = 100;
+/** Degree of the start's polynomial for t/x below 0 °C. */
+const START_DEGREE = 8;
+/** Lower end of the interval the Newton step's bound covers, °C (a start a little below −200 °C). */
+const T_BOUND = -201;
 
 /**
  * Creates a platinum resistance thermometer model per IEC 60751 (Callendar–Van Dusen).
@@ -111,11 +139,20 @@ const MAX_ITERATIONS = 100;
  * R(t) = R0·(1 + A·t + B·t²) for 0 ≤ t ≤ 850 °C. The forward map is evaluated by Horner's rule.
  * The inverse above 0 °C is the quadratic's root in the cancellation-free form
  * t = 2x/(A + √(A² + 4Bx)), x = R/R0 − 1. Below 0 °C no closed form exists for the quartic: the
- * quadratic alone is wrong by 2.4 K at −200 °C. The inverse starts from the quadratic's root and
- * iterates Newton's method on the full quartic, safeguarded by bisection inside [−200, 0] °C (the
- * quartic is strictly increasing there, which is checked at creation), until a step is below
- * 1e-12 °C; the round trip is within 1e-9 K (tested against 40-digit references and by property
- * tests; it is in fact about 1e-13 K). The slope is dR/dt = R0·(A + 2Bt) above 0 °C and
+ * quadratic alone is wrong by 2.4 K at −200 °C. Below 0 °C the inverse starts from a polynomial
+ * for t/x over [x(−200 °C), 0] (degree 8, interpolated at Chebyshev nodes at creation from the
+ * converged iteration below; about 1e-10 relative for IEC 60751's coefficients)
+ * and takes one Newton step on the full quartic, t = t₀ − δ, δ = f(t₀)/f′(t₀). The step's error is
+ * proved small: with κ = max f′/min f′ and K = max |f″|/(2 min f′) over [−201, 0] °C (computed at
+ * creation from the coefficients: f′ at the ends and at the roots of f″, f″ at the ends),
+ * |t₀ − t*| ≤ κ|δ| and |t − t*| ≤ K·κ²·δ², so the step is kept only when δ²·K·κ²·2⁵⁶ ≤ |t₀|: the
+ * method's error is then below 2⁻⁵⁶ of the result, and what remains is rounding (within 4 ulp of
+ * the exact root of the rounded x, 40-digit checks). Otherwise (custom coefficients the start
+ * does not follow) Newton's method iterates on the quartic from the quadratic's root,
+ * safeguarded by bisection inside [−200, 0] °C (the quartic is strictly increasing there, which is
+ * checked at creation), until a step is below 1e-12 °C. The round trip is within 1e-9 K (tested
+ * against 40-digit references and by property tests; it is in fact about 1e-13 K). Conversion
+ * loops reproduce the inverse operation for operation from `inverseStart`. The slope is dR/dt = R0·(A + 2Bt) above 0 °C and
  * R0·(A + 2Bt + C·(4t³ − 300t²)) below. Custom coefficients are accepted when they keep R
  * positive and strictly increasing over [−200, 850] °C.
  *
@@ -164,13 +201,8 @@ export function createRtd(options: RtdOptions = {}): Rtd {
   }
   const rangeOhms = Object.freeze([r0Ohms * (1 + x(T_MIN)), r0Ohms * (1 + x(T_MAX))] as [number, number]);
 
-  function temperatureAt(ohms: number): number {
-    const r = checkRange('ohms', ohms, { min: rangeOhms[0], max: rangeOhms[1] });
-    const target = r / r0Ohms - 1;
-    const disc = a * a + 4 * b * target;
-    const quadratic = disc >= 0 ? (2 * target) / (a + Math.sqrt(disc)) : target / a;
-    if (target >= 0) return quadratic;
-    // Safeguarded Newton on the quartic over the bracket [−200, 0], where x(t) is increasing.
+  /** Safeguarded Newton on the quartic over [−200, 0] °C from the quadratic's root, to convergence. */
+  function iterateBelowZero(target: number, quadratic: number): number {
     let lo = T_MIN;
     let hi = 0;
     let t = Math.min(hi, Math.max(lo, quadratic));
@@ -184,6 +216,44 @@ export function createRtd(options: RtdOptions = {}): Rtd {
       if (Math.abs(next - t) <= STEP_TOLERANCE_CELSIUS) return next;
       t = next;
     }
+    return Number.NaN;
+  }
+  const quadraticRoot = (target: number): number => {
+    const disc = a * a + 4 * b * target;
+    return disc >= 0 ? (2 * target) / (a + Math.sqrt(disc)) : target / a;
+  };
+  const inverseStart = fitInverseStart(x(T_MIN), a, b, c, dx, (target) =>
+    iterateBelowZero(target, quadraticRoot(target)),
+  );
+  const { xMin, scale, guard } = inverseStart;
+  const [p0, p1, p2, p3, p4, p5, p6, p7, p8] = inverseStart.coefficients as [
+    number,
+    number,
+    number,
+    number,
+    number,
+    number,
+    number,
+    number,
+    number,
+  ];
+
+  function temperatureAt(ohms: number): number {
+    const r = checkRange('ohms', ohms, { min: rangeOhms[0], max: rangeOhms[1] });
+    const target = r / r0Ohms - 1;
+    if (target >= 0) return quadraticRoot(target);
+    // The piecewise-polynomial start and one Newton step on the quartic (see the remarks).
+    const u = (target - xMin) * scale - 1;
+    // Estrin's scheme (a short chain of dependent operations for conversion loops).
+    const u2 = u * u;
+    const u4 = u2 * u2;
+    const t0 =
+      target * (p0 + p1 * u + (p2 + p3 * u) * u2 + (p4 + p5 * u + (p6 + p7 * u) * u2) * u4 + p8 * (u4 * u4));
+    const f = t0 * (a + t0 * (b + t0 * (c * (t0 - 100)))) - target;
+    const delta = f / (a + t0 * (2 * b + t0 * (c * (4 * t0 - 300))));
+    if (delta * delta * guard <= Math.abs(t0) && t0 >= T_BOUND && t0 < 0) return t0 - delta;
+    const t = iterateBelowZero(target, quadraticRoot(target));
+    if (t === t) return t;
     throw new BridgeworkError(
       'not-converged',
       `\`ohms\` could not be inverted within ${MAX_ITERATIONS} steps; got ${formatValue(ohms)}`,
@@ -209,6 +279,7 @@ export function createRtd(options: RtdOptions = {}): Rtd {
       return r0Ohms * (1 + x(checkRange('temperatureCelsius', temperatureCelsius, limits)));
     },
     temperatureAt,
+    inverseStart,
     slopeAt,
     toleranceAt(toleranceOptions: RtdToleranceOptions): RtdTolerance {
       const celsius = rtdToleranceCelsius(toleranceOptions);
@@ -222,6 +293,84 @@ export function createRtd(options: RtdOptions = {}): Rtd {
  * decide; below, the slope's minimum lies at an end or where its derivative
  * 2B + C·(12t² − 600t) vanishes.
  */
+/**
+ * The polynomial start of the inverse below 0 °C (see {@link RtdInverseStart}): t/x
+ * interpolated at Chebyshev nodes (`solve` gives the converged root), and the
+ * guard of the Newton step's proved bound.
+ */
+function fitInverseStart(
+  xMin: number,
+  a: number,
+  b: number,
+  c: number,
+  dx: (t: number) => number,
+  solve: (target: number) => number,
+): RtdInverseStart {
+  const scale = 2 / -xMin;
+  const n = START_DEGREE + 1;
+  // Interpolation at n Chebyshev nodes of u ∈ [−1, 1]: the Vandermonde system, partial pivoting.
+  const rows: number[][] = [];
+  for (let j = 0; j < n; j++) {
+    const u = Math.cos((Math.PI * (j + 0.5)) / n);
+    const target = xMin + (u + 1) / scale;
+    const row = Array.from({ length: n }, (_, i) => u ** i);
+    row.push(solve(target) / target);
+    rows.push(row);
+  }
+  const coefficients = solveSquare(rows);
+  // f′ = dx on [−201, 0]: its extremes at the ends and where f″ = 2B + C(12t² − 600t) vanishes;
+  // |f″| is largest at an end (f‴ = C(24t − 600) vanishes only at 25 °C).
+  const points = [T_BOUND, 0];
+  if (c !== 0) {
+    const disc = 360000 * c * c - 96 * b * c;
+    if (disc >= 0) {
+      const root = Math.sqrt(disc);
+      for (const t of [(600 * c + root) / (24 * c), (600 * c - root) / (24 * c)])
+        if (t > T_BOUND && t < 0) points.push(t);
+    }
+  }
+  const slopes = points.map(dx);
+  const minSlope = Math.min(...slopes);
+  const maxSlope = Math.max(...slopes);
+  const curvature = Math.max(Math.abs(2 * b), Math.abs(2 * b + c * (12 * T_BOUND * T_BOUND - 600 * T_BOUND)));
+  const kappa = maxSlope / minSlope;
+  // Slopes bounded below by a margin (the rounding of the evaluations above) or no bound at all.
+  const guard =
+    minSlope > 1e-9 * maxSlope && coefficients.every(Number.isFinite)
+      ? (curvature / (2 * minSlope)) * kappa * kappa * 2 ** 56 * (1 + 1e-6)
+      : Infinity;
+  return Object.freeze({
+    xMin,
+    scale,
+    coefficients: Object.freeze(coefficients),
+    guard,
+  });
+}
+
+/** Solves the square system given as augmented rows [A | b] by Gaussian elimination with partial pivoting. */
+function solveSquare(rows: number[][]): number[] {
+  const n = rows.length;
+  for (let col = 0; col < n; col++) {
+    let pivot = col;
+    for (let r = col + 1; r < n; r++) if (Math.abs(rows[r]![col]!) > Math.abs(rows[pivot]![col]!)) pivot = r;
+    [rows[col], rows[pivot]] = [rows[pivot]!, rows[col]!];
+    const p = rows[col]!;
+    for (let r = col + 1; r < n; r++) {
+      const row = rows[r]!;
+      const factor = row[col]! / p[col]!;
+      for (let k = col; k <= n; k++) row[k] = row[k]! - factor * p[k]!;
+    }
+  }
+  const out = new Array<number>(n).fill(0);
+  for (let r = n - 1; r >= 0; r--) {
+    const row = rows[r]!;
+    let sum = row[n]!;
+    for (let k = r + 1; k < n; k++) sum -= row[k]! * out[k]!;
+    out[r] = sum / row[r]!;
+  }
+  return out;
+}
+
 function checkMonotone(a: number, b: number, c: number, dx: (t: number) => number): void {
   if (!(dx(T_MAX) > 0)) {
     throw new BridgeworkError(

@@ -103,6 +103,9 @@ export function createThermalOutput(options: ThermalOutputOptions): ThermalOutpu
   // Required above, so never undefined here.
   const rangeCelsius = checkOptionalRange(o['rangeCelsius']) as readonly [number, number];
   const limits = { min: rangeCelsius[0], max: rangeCelsius[1] };
+  // The same coefficients as unboxed doubles for evaluation (a frozen array's elements are boxed).
+  const horner = Float64Array.from(coefficients);
+  const degree = horner.length - 1;
 
   /** Strain in m/m (divided by the exact 10⁶), at the lot's gauge factor or rescaled to a setting. */
   function rescale(microstrain: number, gaugeFactorSetting: unknown): number {
@@ -116,9 +119,15 @@ export function createThermalOutput(options: ThermalOutputOptions): ThermalOutpu
     gaugeFactor,
     rangeCelsius,
     apparentStrainAt(temperatureCelsius: number, gaugeFactorSetting?: number): number {
-      const t = checkRange('temperatureCelsius', temperatureCelsius, limits);
+      // In range, one comparison each (this runs per Monte Carlo trial); otherwise the full check throws.
+      const t =
+        typeof temperatureCelsius === 'number' &&
+        temperatureCelsius >= limits.min &&
+        temperatureCelsius <= limits.max
+          ? temperatureCelsius
+          : checkRange('temperatureCelsius', temperatureCelsius, limits);
       let sum = 0;
-      for (let i = coefficients.length - 1; i >= 0; i--) sum = sum * t + (coefficients[i] as number);
+      for (let i = degree; i >= 0; i--) sum = sum * t + (horner[i] as number);
       if (!(Math.abs(sum) < 1e6)) {
         throw new BridgeworkError(
           'out-of-range',

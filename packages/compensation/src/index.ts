@@ -48,6 +48,7 @@ export {
   createRtd,
   type CallendarVanDusenCoefficients,
   type Rtd,
+  type RtdInverseStart,
   type RtdOptions,
   type RtdTolerance,
 } from './createRtd.js';

@@ -105,6 +105,60 @@ describe('createRtd: IEC 60751 table values', () => {
   });
 });
 
+describe('createRtd: the inverse below 0 °C (polynomial start, one Newton step under a proved bound)', () => {
+  /** The exact root of the 40-digit equation for the double x = R/R0 − 1 the inverse sees (bisection). */
+  const rootOf = (x: number): number =>
+    bisect((t) => referenceRatio(t).minus(X(x).plus(1)), new D(-201), new D(851)).toNumber();
+
+  it('is within 4 ulp of the exact root of x = R/R0 − 1 on both sides of 0 °C (40-digit bisection)', () => {
+    // IEC 60751's equation restated above; x is the double temperatureAt computes from R.
+    fc.assert(
+      fc.property(fc.double({ min: 0, max: 1, noNaN: true }), (u) => {
+        const ohms = pt100.rangeOhms[0] + u * (pt100.rangeOhms[1] - pt100.rangeOhms[0]);
+        if (!(ohms <= pt100.rangeOhms[1])) return;
+        const x = ohms / 100 - 1;
+        if (x === 0) return;
+        expect(pt100.temperatureAt(ohms)).toBeNear(rootOf(x), { ulps: 4 });
+      }),
+      { numRuns: 300 },
+    );
+    for (const ohms of [pt100.rangeOhms[0], 99.99999999, 100 - 1e-9, 60.25584, 100 + 1e-9]) {
+      expect(pt100.temperatureAt(ohms)).toBeNear(rootOf(ohms / 100 - 1), { ulps: 4 });
+    }
+  });
+
+  it('inverseStart is the documented formula: start and step reproduce temperatureAt bit for bit', () => {
+    // The contract conversion loops rely on (Rtd.inverseStart's TSDoc), restated here.
+    const { xMin, scale, coefficients: p, guard } = pt100.inverseStart;
+    const { a, b, c } = pt100;
+    expect(p).toHaveLength(9);
+    expect(Number.isFinite(guard) && guard > 0).toBe(true);
+    expect(xMin).toBeNear(pt100.ohmsAt(-200) / 100 - 1, { ulps: 1 });
+    let worstStart = 0;
+    for (let i = 1; i < 4000; i++) {
+      const ohms = pt100.rangeOhms[0] + ((100 - pt100.rangeOhms[0]) * i) / 4000;
+      const x = ohms / 100 - 1;
+      const u = (x - xMin) * scale - 1;
+      const u2 = u * u;
+      const u4 = u2 * u2;
+      const t0 =
+        x *
+        (p[0]! +
+          p[1]! * u +
+          (p[2]! + p[3]! * u) * u2 +
+          (p[4]! + p[5]! * u + (p[6]! + p[7]! * u) * u2) * u4 +
+          p[8]! * (u4 * u4));
+      const f = t0 * (a + t0 * (b + t0 * (c * (t0 - 100)))) - x;
+      const delta = f / (a + t0 * (2 * b + t0 * (c * (4 * t0 - 300))));
+      expect(delta * delta * guard <= Math.abs(t0) && t0 >= -201 && t0 < 0).toBe(true);
+      expect(pt100.temperatureAt(ohms)).toBe(t0 - delta);
+      worstStart = Math.max(worstStart, Math.abs(delta / t0));
+    }
+    // The start alone: about 1e-10 relative for IEC 60751's coefficients (the step then squares it).
+    expect(worstStart).toBeNear(0, { abs: 1e-9 });
+  });
+});
+
 describe('createRtd: round trips', () => {
   it('t → R → t within 1e-9 K over −200…850 °C (Pt100 and Pt1000)', () => {
     fc.assert(

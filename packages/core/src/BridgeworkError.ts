@@ -77,8 +77,9 @@ export const errorCodeDescriptions: Readonly<Record<ErrorCode, string>> = {
 };
 
 /** All error codes, in the order of {@link errorCodeDescriptions}. */
-export const errorCodes: readonly ErrorCode[] = Object.freeze(
-  Object.keys(errorCodeDescriptions) as ErrorCode[],
+// Marked pure so that a bundle which never reads the codes drops the descriptions with them.
+export const errorCodes: readonly ErrorCode[] = /* @__PURE__ */ Object.freeze(
+  /* @__PURE__ */ Object.keys(errorCodeDescriptions) as ErrorCode[],
 );
 
 /**

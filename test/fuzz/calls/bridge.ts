@@ -17,6 +17,15 @@ const quarter = () =>
   });
 const bendingPoisson = () =>
   bridge.createStrainBridge({ arrangement: 'full-bending-poisson', gaugeFactor: 2.1, poissonRatio: 0.3 });
+const kernel = () =>
+  bridge.createStrainBridgeKernel({
+    arrangement: 'quarter',
+    gaugeFactor: 2,
+    wiring: 'three-wire',
+    sourceOhms: 0.5,
+  });
+const k = (name: string, args: () => unknown[]): BaseCall =>
+  method('bridge', 'createStrainBridgeKernel', kernel, name, args, { variant: 'quarter' });
 const m = (make: () => unknown, variant: string, name: string, args: () => unknown[], extra = {}): BaseCall =>
   method('bridge', 'createStrainBridge', make, name, args, { variant, ...extra });
 
@@ -69,6 +78,17 @@ export const bridgeCalls: readonly BaseCall[] = [
       ...ranges,
     },
   ),
+  f(
+    'createStrainBridgeKernel',
+    () => [
+      { arrangement: 'full-poisson', gaugeFactor: 2, poissonRatio: 0.3, wiring: 'four-wire', sourceOhms: 1 },
+    ],
+    { variant: 'full-poisson', ...ranges },
+  ),
+  k('strainFromRatio', () => [4.98e-4, 350.1, 0.8]),
+  k('ratioFromStrain', () => [1e-3, 350.1, 0.8]),
+  k('armOhms', () => [2, 1e-3, 350.1, 0.8]),
+  k('seriesOhms', () => [0.8]),
   m(quarter, 'quarter', 'ratioFromStrain', () => [1e-3, { zeroRatio: 1e-6 }]),
   m(quarter, 'quarter', 'strainFromRatio', () => [4.98e-4, { zeroRatio: 1.2e-6 }]),
   m(quarter, 'quarter', 'nonlinearity', () => [2e-3]),

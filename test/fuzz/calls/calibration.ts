@@ -34,6 +34,30 @@ const multiPoints = () => {
 };
 const multiOptions = () => ({ components: ['Fx', 'Fy'], bridges: ['A', 'B'], points: multiPoints() });
 const multi = () => calibration.fitMultiComponent(multiOptions() as never);
+const storedOptions = () => ({
+  components: ['Fx', 'Fy'],
+  bridges: ['A', 'B'],
+  terms: ['1', 'Fx', 'Fy', 'Fx*Fy'],
+  coefficients: [
+    [1e-5, 1e-6, 1e-8, 2e-12],
+    [-2e-5, 2e-8, 1e-6, -1e-12],
+  ],
+  fullScale: [1000, 1000],
+  covariance: {
+    unitCovariance: [
+      [0.2, 0, 0, 0],
+      [0, 1e-7, 0, 0],
+      [0, 0, 1e-7, 0],
+      [0, 0, 0, 1e-13],
+    ],
+    readingCovariance: [
+      [1e-17, 0],
+      [0, 1e-17],
+    ],
+    degreesOfFreedom: 5,
+  },
+});
+const stored = () => calibration.createMultiComponentModel(storedOptions() as never);
 const bridgeShunt = { gaugeOhms: 350, gaugeFactor: 2 };
 
 /** Base calls of @bridgework/calibration. */
@@ -178,6 +202,22 @@ export const calibrationCalls: readonly BaseCall[] = [
       }),
     'sum',
     () => [[2.5e-4, 2.5e-4, 2.5e-4, 2.5e-4]],
+  ),
+  // Degrees of freedom are ∞ for a stored covariance without them (JCGM 100 G.4).
+  f('createMultiComponentModel', () => [storedOptions()], {
+    nonFinite: ['degreesOfFreedom', '**.degreesOfFreedom'],
+  }),
+  m('createMultiComponentModel', stored, 'readingsAt', () => [[300, -200]]),
+  m('createMultiComponentModel', stored, 'createInverse', () => [{ tolerance: 1e-12, maxIterations: 50 }]),
+  m('createMultiComponentModel', stored, 'uncertaintyAt', () => [
+    { loads: [300, -200], readingStandardUncertainties: [1e-9, 1e-9], includeCalibration: true },
+  ]),
+  m(
+    'createMultiComponentModel',
+    stored,
+    'monteCarloAt',
+    () => [{ loads: [300, -200], readingStandardUncertainties: [1e-9, 1e-9], trials: 2000, seed: 5 }],
+    { nonFinite: ['**.degreesOfFreedom', '**.effectiveDegreesOfFreedom'] },
   ),
   m('fitMultiComponent', multi, 'readingsAt', () => [[300, -200]]),
   m('fitMultiComponent', multi, 'createInverse', () => [{ tolerance: 1e-12, maxIterations: 50 }]),

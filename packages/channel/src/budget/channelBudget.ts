@@ -23,6 +23,7 @@ import {
 import {
   MONTE_CARLO_MAX_TRIALS,
   monteCarlo,
+  type AbortSignalLike,
   propagate,
   type InputQuantities,
   type MonteCarloProgress,
@@ -44,6 +45,7 @@ import { Parameter } from '../kinds/SensorKind.js';
 import { differenceFromBaseUnit, formatQuantity, formatSignificant } from '../units/quantity.js';
 import type { ChannelBudgetLine } from './ChannelBudgetLine.js';
 import { designChecks, type ChannelDesignCheck, type DesignLimits } from './designChecks.js';
+import { inChannelTerms } from './frontEndErrors.js';
 
 /** Monte Carlo settings of a budget. */
 export interface MonteCarloBudgetOptions {
@@ -55,6 +57,13 @@ export interface MonteCarloBudgetOptions {
   readonly returnValues?: boolean;
   /** Called as the trials are done (the uncertainty package's `onProgress`: after every block of 16 384 trials). */
   readonly onProgress?: (progress: MonteCarloProgress) => void;
+  /**
+   * Stops the run once `signal.aborted` is true (the uncertainty package's `signal`, read before
+   * the run and after every block of 16 384 trials): the budget throws `signal.reason`, or a
+   * `closed` error when it has none. In one thread only `onProgress` or another thread (through
+   * shared memory) can set it while the run is busy. An `AbortController`'s `signal` will do.
+   */
+  readonly signal?: AbortSignalLike;
 }
 
 /** Options of {@link channelBudget}. */
@@ -175,13 +184,26 @@ function readMonteCarlo(value: unknown): MonteCarloBudgetOptions | undefined {
   if (typeof value !== 'object' || value === null || Array.isArray(value)) {
     throw new BridgeworkError(
       'wrong-type',
-      `\`options.monteCarlo\` must be true, false or a set of Monte Carlo settings ({ trials, seed, returnValues }); got ${formatValue(value)}`,
+      `\`options.monteCarlo\` must be true, false or a set of Monte Carlo settings ({ trials, seed, returnValues, onProgress, signal }); got ${formatValue(value)}`,
       { param: 'options.monteCarlo', value },
     );
   }
   const o = checkOptions('options.monteCarlo', value, {
-    known: ['trials', 'seed', 'returnValues', 'onProgress'],
+    known: ['trials', 'seed', 'returnValues', 'onProgress', 'signal'],
   });
+  const signal = o['signal'];
+  if (
+    signal !== undefined &&
+    (typeof signal !== 'object' ||
+      signal === null ||
+      typeof (signal as { aborted?: unknown }).aborted !== 'boolean')
+  ) {
+    throw new BridgeworkError(
+      'wrong-type',
+      `\`options.monteCarlo.signal\` must be an AbortSignal (an object with a boolean \`aborted\`); got ${formatValue(signal)}`,
+      { param: 'options.monteCarlo.signal', value: signal },
+    );
+  }
   if (o['onProgress'] !== undefined && typeof o['onProgress'] !== 'function') {
     throw new BridgeworkError(
       'wrong-type',
@@ -240,7 +262,10 @@ function readMonteCarlo(value: unknown): MonteCarloBudgetOptions | undefined {
  * @returns The budget.
  * @throws {@link @bridgework/core!BridgeworkError} `wrong-type` (not a channel; `monteCarlo` not a
  *   boolean or settings), `unknown-option`, `out-of-range` (`at` outside what the channel reads,
- *   trials beyond 10⁷), `not-integer`, `not-finite`, `model-not-finite` (a Monte Carlo trial).
+ *   trials beyond 5·10⁷), `not-integer`, `not-finite`; for a Monte Carlo trial whose inputs give a
+ *   reading the sensor cannot produce, `model-not-finite` or the map's own code
+ *   (`ratio-out-of-range`), with the trial's inputs; `signal.reason` (or `closed` without one) once
+ *   `monteCarlo.signal` is aborted.
  * @example
  * ```ts
  * const budget = channelBudget(channel, { at: 1000 });
@@ -281,44 +306,46 @@ export function channelBudget(channel: Channel, options: ChannelBudgetOptions = 
   const ratioEnds = [model.ratioFromValue(span.min), model.ratioFromValue(span.max)];
   const amp = spec.amplifier;
   const limits = amp.limits;
-  const frontEnd = resolutionBudget({
-    span: model.kindMap.frontEndSpan(
-      Math.min(...(ratioEnds as [number, number])),
-      Math.max(...(ratioEnds as [number, number])),
-    ),
-    excitationVolts: p0[Parameter.excitationVolts] as number,
-    excitationLowVolts: amp.excitationLowVolts,
-    temperatureCelsius: spec.environment.temperatureCelsius,
-    gain: amp.gain,
-    amplifier: {
-      inputVoltageNoiseVoltsPerRootHz: amp.inputVoltageNoiseVoltsPerRootHz,
-      voltageCornerHertz: amp.voltageCornerHertz,
-      currentNoiseAmpsPerRootHz: amp.currentNoiseAmpsPerRootHz,
-      currentCornerHertz: amp.currentCornerHertz,
-      secondStageGain: amp.secondStageGain,
-      outputReferenceVolts: amp.outputReferenceVolts,
-      limits: {
-        ...(limits?.inputCommonModeVolts === undefined
-          ? {}
-          : { inputCommonModeVolts: limits.inputCommonModeVolts }),
-        ...(limits?.inputDifferentialVolts === undefined
-          ? {}
-          : { inputDifferentialVolts: limits.inputDifferentialVolts }),
-        ...(limits?.firstStageVolts === undefined ? {} : { firstStageVolts: limits.firstStageVolts }),
-        ...(limits?.outputVolts === undefined ? {} : { outputVolts: limits.outputVolts }),
+  const frontEnd = inChannelTerms(() =>
+    resolutionBudget({
+      span: model.kindMap.frontEndSpan(
+        Math.min(...(ratioEnds as [number, number])),
+        Math.max(...(ratioEnds as [number, number])),
+      ),
+      excitationVolts: p0[Parameter.excitationVolts] as number,
+      excitationLowVolts: amp.excitationLowVolts,
+      temperatureCelsius: spec.environment.temperatureCelsius,
+      gain: amp.gain,
+      amplifier: {
+        inputVoltageNoiseVoltsPerRootHz: amp.inputVoltageNoiseVoltsPerRootHz,
+        voltageCornerHertz: amp.voltageCornerHertz,
+        currentNoiseAmpsPerRootHz: amp.currentNoiseAmpsPerRootHz,
+        currentCornerHertz: amp.currentCornerHertz,
+        secondStageGain: amp.secondStageGain,
+        outputReferenceVolts: amp.outputReferenceVolts,
+        limits: {
+          ...(limits?.inputCommonModeVolts === undefined
+            ? {}
+            : { inputCommonModeVolts: limits.inputCommonModeVolts }),
+          ...(limits?.inputDifferentialVolts === undefined
+            ? {}
+            : { inputDifferentialVolts: limits.inputDifferentialVolts }),
+          ...(limits?.firstStageVolts === undefined ? {} : { firstStageVolts: limits.firstStageVolts }),
+          ...(limits?.outputVolts === undefined ? {} : { outputVolts: limits.outputVolts }),
+        },
       },
-    },
-    adc: {
-      bits: spec.adc.bits,
-      referenceVolts: spec.adc.ratiometric ? spec.excitation.volts : spec.adc.referenceVolts,
-      bipolar: spec.adc.bipolar,
-      ratiometric: spec.adc.ratiometric,
-      ...(spec.adc.noiseRmsVolts === undefined ? {} : { noiseRmsVolts: spec.adc.noiseRmsVolts }),
-    },
-    filter: spec.adc.filter,
-    ...(amp.voltageCornerHertz > 0 || amp.currentCornerHertz > 0 ? { lowHertz: 0.01 } : {}),
-    peakToPeakFactor: ppf,
-  });
+      adc: {
+        bits: spec.adc.bits,
+        referenceVolts: spec.adc.ratiometric ? spec.excitation.volts : spec.adc.referenceVolts,
+        bipolar: spec.adc.bipolar,
+        ratiometric: spec.adc.ratiometric,
+        ...(spec.adc.noiseRmsVolts === undefined ? {} : { noiseRmsVolts: spec.adc.noiseRmsVolts }),
+      },
+      filter: spec.adc.filter,
+      ...(amp.voltageCornerHertz > 0 || amp.currentCornerHertz > 0 ? { lowHertz: 0.01 } : {}),
+      peakToPeakFactor: ppf,
+    }),
+  );
   const fe = frontEnd.value;
   const absPerVolt = Math.abs(quantityPerVolt);
   const terms: ChannelNoiseTerm[] = fe.noise.terms.map((t) => ({
@@ -502,6 +529,7 @@ export function channelBudget(channel: Channel, options: ChannelBudgetOptions = 
           seed: mc.seed ?? 1,
           ...(mc.returnValues === true ? { returnValues: true } : {}),
           ...(mc.onProgress === undefined ? {} : { onProgress: mc.onProgress }),
+          ...(mc.signal === undefined ? {} : { signal: mc.signal }),
         });
 
   const lines: ChannelBudgetLine[] = [];
@@ -568,6 +596,7 @@ export function channelBudget(channel: Channel, options: ChannelBudgetOptions = 
     resolution,
     lines,
     limits: o['limits'],
+    display: channel.display,
   });
   return {
     channel: r.name,

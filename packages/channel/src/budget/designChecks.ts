@@ -8,7 +8,8 @@ import type { Propagation } from '@bridgework/uncertainty';
 import type { Mapping } from '../internal/mapping.js';
 import type { ResolvedChannel } from '../internal/resolve.js';
 import type { PlausibleRange } from '../kinds/SensorKind.js';
-import { formatQuantity, formatSignificant } from '../units/quantity.js';
+import type { DisplayUnit } from '../outputQuantities.js';
+import { formatSignificant } from '../units/quantity.js';
 import type { ChannelBudgetLine } from './ChannelBudgetLine.js';
 
 /** Thresholds of the design checks (every one has a default; see {@link channelBudget}). */
@@ -85,6 +86,21 @@ const headroomNames: Readonly<Record<string, string>> = {
   'adc-high': 'converter high rail',
 };
 
+/** The field to change first when a headroom limit is reached. */
+function headroomField(limit: string): string {
+  return limit.startsWith('input-common-mode') || limit === 'input-differential'
+    ? 'excitation.volts'
+    : 'amplifier.gain';
+}
+
+/** What to change when a headroom limit is reached. */
+function headroomWayOut(limit: string): string {
+  if (limit.startsWith('input-common-mode'))
+    return 'the bridge sets the common mode: change excitation.volts or amplifier.excitationLowVolts, or use an amplifier whose input range includes it';
+  if (limit === 'input-differential') return 'lower excitation.volts or narrow output.range';
+  return 'lower amplifier.gain or narrow output.range';
+}
+
 /** Inputs every channel has, with the range a real design keeps them in (common practice). */
 function commonRanges(r: ResolvedChannel): PlausibleRange[] {
   const s = r.spec;
@@ -154,17 +170,40 @@ export interface DesignCheckInput {
   readonly resolution: Readonly<Record<string, number>>;
   readonly lines: readonly ChannelBudgetLine[];
   readonly limits: unknown;
+  /** The unit people read the channel's values in (the report's unit: kN, t, µε). */
+  readonly display: DisplayUnit;
+}
+
+/** A number as the reports print it: a true minus sign (U+2212), in the exponent too. */
+function withMinus(text: string): string {
+  return text.replace(/-/g, '−');
+}
+
+/** The space between a figure and its unit: a no-break space (U+00A0), so the two stay on one line. */
+const UNIT_SPACE = '\u00a0';
+
+/** A figure with its unit for a design-check message, with a true minus sign. */
+function figure(value: number, unit: string, digits = 4): string {
+  const n = withMinus(formatSignificant(value, digits));
+  return unit === '' ? n : `${n}${UNIT_SPACE}${unit}`;
+}
+
+/** A share in percent for a message (`'0.52 %'`). */
+function percent(share: number, digits = 3): string {
+  return figure(share * 100, '%', digits);
 }
 
 /** The design checks of a budget. */
 export function designChecks(x: DesignCheckInput): ChannelDesignCheck[] {
   const limits = readDesignLimits(x.limits);
   const r = x.resolved;
-  const unit = r.unit;
+  const { unit: shown, factor } = x.display;
+  /** A value of the channel (in its unit) in the report's unit. */
+  const value = (v: number) => figure(v * factor, shown);
   const width = x.span.max - x.span.min;
   const checks: ChannelDesignCheck[] = [];
   const push = (c: Omit<ChannelDesignCheck, 'ok'>) => checks.push({ ...c, ok: c.status !== 'fail' });
-  const spanText = `[${formatQuantity(x.span.min, unit)}, ${formatQuantity(x.span.max, unit)}]`;
+  const spanText = `[${value(x.span.min)}, ${value(x.span.max)}]`;
 
   // The span against the converter's codes.
   const model = x.nominal.model;
@@ -183,8 +222,8 @@ export function designChecks(x: DesignCheckInput): ChannelDesignCheck[] {
     unit: 'codes',
     message:
       codes >= limits.minimumSpanCodes
-        ? `the span ${spanText} covers ${formatSignificant(codes, 6)} converter codes`
-        : `the span ${spanText} covers only ${formatSignificant(codes)} converter codes (at least ${limits.minimumSpanCodes} are needed to measure it); raise amplifier.gain or adc.bits, or check excitation and the sensor's output`,
+        ? `the span ${spanText} covers ${withMinus(formatSignificant(codes, 6))} converter codes (at least ${figure(limits.minimumSpanCodes, 'codes')} needed)`
+        : `the span ${spanText} covers only ${withMinus(formatSignificant(codes))} converter codes (at least ${figure(limits.minimumSpanCodes, 'codes')} are needed to measure it); raise amplifier.gain or adc.bits, or check excitation and the sensor's output`,
     path: 'amplifier.gain',
   });
   push({
@@ -196,12 +235,13 @@ export function designChecks(x: DesignCheckInput): ChannelDesignCheck[] {
     unit: '',
     message:
       share >= limits.minimumSpanShare
-        ? `the span uses ${formatSignificant(share * 100, 3)} % of the converter's range`
-        : `the span uses ${formatSignificant(share * 100, 3)} % of the converter's range (less than ${formatSignificant(limits.minimumSpanShare * 100)} %): a higher amplifier.gain would resolve it better, if the noise allows`,
+        ? `the span uses ${percent(share)} of the converter's range (at least ${percent(limits.minimumSpanShare, 4)} advised)`
+        : `the span uses ${percent(share)} of the converter's range (less than ${percent(limits.minimumSpanShare, 4)}): a higher amplifier.gain would resolve it better, if the noise allows`,
     path: 'amplifier.gain',
   });
 
-  // The uncertainty and the noise against the span.
+  // The uncertainty and the noise against the span: a pass is judged against the warning
+  // threshold (at most it), a warning against both, a failure against the limit.
   const expanded = x.combined.expandedUncertainty;
   const uShare = Math.abs(expanded) / width;
   const uStatus = !(uShare <= limits.uncertaintyShareLimit)
@@ -209,22 +249,20 @@ export function designChecks(x: DesignCheckInput): ChannelDesignCheck[] {
     : uShare > limits.uncertaintyShareWarning
       ? 'warn'
       : 'pass';
+  const uText = `U = ${value(expanded)} is ${percent(uShare)} of the span ${spanText}`;
   push({
     id: 'uncertainty',
     name: 'expanded uncertainty against the span',
     status: uStatus,
     value: uShare,
-    limit:
-      uStatus === 'pass' || uStatus === 'warn'
-        ? uStatus === 'warn'
-          ? limits.uncertaintyShareWarning
-          : limits.uncertaintyShareLimit
-        : limits.uncertaintyShareLimit,
+    limit: uStatus === 'fail' ? limits.uncertaintyShareLimit : limits.uncertaintyShareWarning,
     unit: '',
     message:
       uStatus === 'pass'
-        ? `U = ${formatQuantity(expanded, unit)} is ${formatSignificant(uShare * 100, 3)} % of the span`
-        : `U = ${formatQuantity(expanded, unit)} is ${formatSignificant(uShare * 100, 3)} % of the span ${spanText} (${uStatus === 'fail' ? 'more than' : 'above'} ${formatSignificant((uStatus === 'fail' ? limits.uncertaintyShareLimit : limits.uncertaintyShareWarning) * 100)} %)${uStatus === 'fail' ? ': the channel cannot measure its span as designed' : ''}; see the largest lines of the budget`,
+        ? `${uText} (at most ${percent(limits.uncertaintyShareWarning, 4)})`
+        : uStatus === 'warn'
+          ? `${uText} (above ${percent(limits.uncertaintyShareWarning, 4)}, within the ${percent(limits.uncertaintyShareLimit, 4)} limit); see the largest lines of the budget`
+          : `${uText} (more than ${percent(limits.uncertaintyShareLimit, 4)}): the channel cannot measure its span as designed; see the largest lines of the budget`,
   });
   const nShare = x.noiseRms / width;
   const nStatus = !(nShare <= limits.noiseShareLimit)
@@ -232,17 +270,22 @@ export function designChecks(x: DesignCheckInput): ChannelDesignCheck[] {
     : nShare > limits.noiseShareWarning
       ? 'warn'
       : 'pass';
+  const nText = `the rms noise ${value(x.noiseRms)} is ${percent(nShare)} of the span`;
+  const lower =
+    "lower the amplifier's noise, the data rate (adc.filter.dataRateHertz) or raise the excitation";
   push({
     id: 'noise',
     name: 'rms noise against the span',
     status: nStatus,
     value: nShare,
-    limit: nStatus === 'warn' ? limits.noiseShareWarning : limits.noiseShareLimit,
+    limit: nStatus === 'fail' ? limits.noiseShareLimit : limits.noiseShareWarning,
     unit: '',
     message:
       nStatus === 'pass'
-        ? `the rms noise ${formatQuantity(x.noiseRms, unit)} is ${formatSignificant(nShare * 100, 3)} % of the span`
-        : `the rms noise ${formatQuantity(x.noiseRms, unit)} is ${formatSignificant(nShare * 100, 3)} % of the span (${nStatus === 'fail' ? 'more than' : 'above'} ${formatSignificant((nStatus === 'fail' ? limits.noiseShareLimit : limits.noiseShareWarning) * 100)} %): lower the amplifier's noise, the data rate (adc.filter.dataRateHertz) or raise the excitation`,
+        ? `${nText} (at most ${percent(limits.noiseShareWarning, 4)})`
+        : nStatus === 'warn'
+          ? `${nText} (above ${percent(limits.noiseShareWarning, 4)}, within the ${percent(limits.noiseShareLimit, 4)} limit): ${lower}`
+          : `${nText} (more than ${percent(limits.noiseShareLimit, 4)}): ${lower}`,
     path: nStatus === 'pass' ? undefined : 'adc.filter.dataRateHertz',
   } as Omit<ChannelDesignCheck, 'ok'>);
 
@@ -268,18 +311,30 @@ export function designChecks(x: DesignCheckInput): ChannelDesignCheck[] {
         : `${bad} figure${bad === 1 ? '' : 's'} of the budget are not finite: the design's numbers are out of any sensible range`,
   });
 
-  // Headroom of the front end (chain).
+  // Headroom of the front end (chain), each at its worst operating point named by its value.
+  const points = x.frontEnd.value.points;
+  const pointText = (i: number): string => {
+    const pt = points[i];
+    if (pt === undefined) return '';
+    try {
+      return ` at ${value(model.valueFromRatio(pt.ratio))}`;
+    } catch {
+      return ` at the bridge's ${i === 0 ? 'lower' : i === points.length - 1 ? 'upper' : 'zero'} point`;
+    }
+  };
   const issues = x.frontEnd.issues;
   for (const m of x.frontEnd.value.headroom.margins) {
-    const issue = issues.find((i) => i.limit === m.limit);
+    const failed = !m.ok || issues.some((i) => i.limit === m.limit);
+    const name = headroomNames[m.limit] ?? m.limit;
     push({
       id: `headroom-${m.limit}`,
-      name: headroomNames[m.limit] ?? m.limit,
-      status: m.ok ? 'pass' : 'fail',
+      name,
+      status: failed ? 'fail' : 'pass',
       value: m.nodeVolts,
       limit: m.limitVolts,
       unit: 'V',
-      message: `${formatQuantity(m.nodeVolts, 'V')} against ${formatQuantity(m.limitVolts, 'V')}, margin ${formatQuantity(m.marginVolts, 'V')}${issue === undefined ? '' : `: ${issue.message}`}`,
+      message: `${figure(m.nodeVolts, 'V')} against ${figure(m.limitVolts, 'V')}${pointText(m.pointIndex)}, margin ${figure(m.marginVolts, 'V')}${failed ? `: the ${name} is reached; ${headroomWayOut(m.limit)}` : ''}`,
+      ...(failed ? { path: headroomField(m.limit) } : {}),
     });
   }
   for (const issue of issues) {
@@ -291,7 +346,31 @@ export function designChecks(x: DesignCheckInput): ChannelDesignCheck[] {
       value: Number.NaN,
       limit: Number.NaN,
       unit: '',
-      message: issue.message,
+      message: withMinus(issue.message),
+    });
+  }
+
+  // A transducer's budget without its calibration: noise and electronics only (a warning).
+  const spec = r.spec;
+  if (
+    spec.sensor.kind === 'transducer' &&
+    spec.output.quantity !== 'ratio' &&
+    spec.calibration === undefined
+  ) {
+    const tolerance =
+      (spec.sensor as { ratedOutputToleranceFraction?: number }).ratedOutputToleranceFraction ?? 0;
+    push({
+      id: 'sensor-calibration',
+      name: "the sensor's calibration uncertainty in the budget",
+      status: tolerance > 0 ? 'pass' : 'warn',
+      value: tolerance,
+      limit: 0,
+      unit: '',
+      message:
+        tolerance > 0
+          ? `the budget holds the rated output's tolerance ±${percent(tolerance, 4)} (sensor.ratedOutputToleranceFraction)`
+          : "the budget lacks the transducer's calibration uncertainty: sensor.ratedOutputToleranceFraction is 0, so U covers the electronics and the noise only; fill it in from the certificate (the rated output's tolerance, or its calibration uncertainty as a rectangular half-width), or calibrate the channel against reference loads (calibration)",
+      path: 'sensor.ratedOutputToleranceFraction',
     });
   }
 
@@ -306,8 +385,8 @@ export function designChecks(x: DesignCheckInput): ChannelDesignCheck[] {
       limit: p.value < p.range.min ? p.range.min : p.range.max,
       unit: p.unit,
       message: inside
-        ? `${p.path} = ${formatQuantity(p.value, p.unit)}`
-        : `${p.path} = ${formatQuantity(p.value, p.unit)} lies outside the usual ${formatQuantity(p.range.min, '')} … ${formatQuantity(p.range.max, p.unit)}; check the value`,
+        ? `${p.path} = ${figure(p.value, p.unit)}`
+        : `${p.path} = ${figure(p.value, p.unit)} lies outside the usual ${figure(p.range.min, '')} … ${figure(p.range.max, p.unit)}; check the value`,
       path: p.path,
     });
   }

@@ -28,9 +28,11 @@ import type { Channel } from '../Channel.js';
 import { channelInternals } from '../internal/makeChannel.js';
 
 /**
- * The relative accuracy the channel states for its binary64 map `quantityFromCode` against
- * 40-digit references (docs/channel.md, "Accuracy and verification"); times the largest quantity
- * over the code range, it is the reference error added to every firmware bound.
+ * The accuracy the channel states for its binary64 map `quantityFromCode` against 40-digit
+ * references at the codes of its span, relative to the span's largest |value| (not to each value:
+ * near zero a value is a small difference of large ones; docs/channel.md, "Accuracy and
+ * verification"). Times that largest value it is the reference error added to every firmware
+ * bound.
  */
 export const CHANNEL_MAP_RELATIVE_ACCURACY = 1e-13;
 
@@ -189,7 +191,7 @@ function inChannelTerms<T>(step: () => T): T {
  * The exact map is the channel's own `quantityFromCode`; the firmware package's
  * `designFirmwareConstants` fits, chooses and verifies every code of the span (up to 2^24 codes;
  * above that the bound is measured, not proved) and adds the map's own error: the channel's stated
- * relative accuracy {@link CHANNEL_MAP_RELATIVE_ACCURACY} times the largest quantity over the span.
+ * accuracy {@link CHANNEL_MAP_RELATIVE_ACCURACY} times the span's largest value.
  * Default target: max(u_c/10, one output step), with u_c the combined standard uncertainty of the
  * channel's budget at its default point (docs/firmware.md). A target no form meets is an
  * `out-of-range` error naming the best bound reached; no header is made.
@@ -232,6 +234,20 @@ export function channelConstants(channel: Channel, options: ConstantsOptions = {
         : explicitTarget !== undefined
           ? Math.max(finestStep, Math.min(spanStep, powerOfTenBelow(explicitTarget)))
           : spanStep;
+  // A fixed-point output step must resolve the span and keep its outputs in an int32.
+  if (o['outputResolution'] !== undefined || specResolution !== undefined) {
+    const param = o['outputResolution'] !== undefined ? 'outputResolution' : 'output.firmwareResolution';
+    const unit = channel.unit;
+    const coarsest = spanMagnitude > 0 ? spanMagnitude : largest;
+    const finest = largest / 2 ** 31;
+    if (!(resolution <= coarsest && resolution >= finest)) {
+      throw new BridgeworkError(
+        'out-of-range',
+        `\`${param}\` must lie in [${formatValue(finest)}, ${formatValue(coarsest)}] ${unit}: at most the span's largest magnitude (a coarser step cannot resolve the span) and at least that of the largest output / 2^31 (finer steps overflow the int32 outputs); got ${formatValue(resolution)}; the default is ${formatValue(spanStep)}`,
+        { param, value: resolution, limit: [finest, coarsest] },
+      );
+    }
+  }
   let targetError: number;
   let standardUncertainty: number | undefined;
   if (explicitTarget !== undefined) {
@@ -250,7 +266,7 @@ export function channelConstants(channel: Channel, options: ConstantsOptions = {
   }
   const referenceError: ReferenceError = {
     bound: CHANNEL_MAP_RELATIVE_ACCURACY * largest,
-    source: `the channel's stated accuracy of its binary64 map, ${CHANNEL_MAP_RELATIVE_ACCURACY} relative to 40-digit references (docs/channel.md, measured by its tests), times the largest quantity of the span`,
+    source: `the channel's stated accuracy of its binary64 map, ${CHANNEL_MAP_RELATIVE_ACCURACY} of the span's largest value against 40-digit references (docs/channel.md, measured by its tests)`,
   };
   const pass = (key: string) => (o[key] === undefined ? {} : { [key]: o[key] });
   const design = inChannelTerms(() =>

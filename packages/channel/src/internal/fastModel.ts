@@ -81,7 +81,12 @@ export function fastModelAgrees(
       } catch {
         continue; // a reading this parameter set cannot produce: nothing to compare
       }
-      const got = fast(code, p);
+      let got: number;
+      try {
+        got = fast(code, p);
+      } catch {
+        return false; // the exact map reads it: the closed form must too
+      }
       if (!(Math.abs(got - want) <= FAST_MODEL_TOLERANCE * scale)) return false;
     }
   }

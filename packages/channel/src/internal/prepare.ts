@@ -38,10 +38,23 @@ const fieldOfParam: Readonly<Record<string, string>> = {
   calibration: 'calibration.coefficients',
 };
 
+/**
+ * The spec field a component package's parameter comes from: the table above, else the sensor
+ * field of the same name (`gaugeFactor` → `sensor.gaugeFactor`, `r0Ohms` → `sensor.r0Ohms`), else
+ * `''` (the channel as a whole).
+ */
+export function specFieldOf(param: string | undefined, spec: AnySpec): string {
+  const key = (param ?? '').slice((param ?? '').lastIndexOf('.') + 1);
+  return (
+    fieldOfParam[param ?? ''] ??
+    (key !== '' && Object.hasOwn(spec.sensor, key) ? `sensor.${key}` : (fieldOfParam[key] ?? ''))
+  );
+}
+
 /** The issue for a component package's error while building the model. */
-function buildIssue(e: unknown, prefix: string): SpecIssue {
+function buildIssue(e: unknown, prefix: string, spec: AnySpec): SpecIssue {
   if (!isBridgeworkError(e)) throw e;
-  const field = fieldOfParam[e.param ?? ''] ?? '';
+  const field = specFieldOf(e.param, spec);
   return {
     code: e.code,
     path: prefix === '' ? field : field === '' ? prefix : `${prefix}.${field}`,
@@ -93,7 +106,7 @@ export function prepareChannel(
     resolved = resolveChannel(spec, rules);
     nominal = createMapping(resolved, resolved.context.nominal);
   } catch (e) {
-    issues.push(buildIssue(e, prefix));
+    issues.push(buildIssue(e, prefix, spec));
     return undefined;
   }
   // The lead tolerance (with a cable's copper drift) cannot exceed the lead resistance itself.
@@ -123,7 +136,8 @@ export function prepareChannel(
       code: 'out-of-range',
       path: at('amplifier.gain'),
       message: `leaves no converter code for a reading the sensor can produce (valid codes (${formatSignificant(lo, 6)}, ${formatSignificant(hi, 6)}))`,
-      suggestion: 'check amplifier.gain, adc.referenceVolts, zero.code and polarity',
+      suggestion:
+        'check amplifier.gain, adc.referenceVolts, the bridge resistances (bridge.completionOhms and the sensor), zero.code and polarity',
     });
     return undefined;
   }
@@ -183,9 +197,16 @@ export function prepareChannel(
       return Number.NaN;
     }
   };
+  // A readable end rounded inward to a round number (a ten-thousandth of the readable width).
+  const width = reads.max - reads.min;
+  const step = 10 ** (Math.floor(Math.log10(width > 0 ? width : 1)) - 4);
+  const nice = (x: number, end: 'lower' | 'upper') =>
+    Number((end === 'lower' ? Math.ceil(x / step) * step : Math.floor(x / step) * step).toPrecision(12));
   const problems: string[] = [];
+  const fixed = { min: range.min, max: range.max };
   let limitText = '';
   let byConverter = false;
+  let bySensor = false;
   for (const end of ['lower', 'upper'] as const) {
     const value = end === 'lower' ? range.min : range.max;
     const limit = end === 'lower' ? reads.min : reads.max;
@@ -193,27 +214,30 @@ export function prepareChannel(
     // Which limit binds: the converter's rails, or the sensor's own range?
     const highCode = (end === 'upper') === increasing;
     const railBound = highCode ? hi === adc.codeMax : lo === adc.codeMin;
+    const most = end === 'lower' ? 'least' : 'most';
     byConverter ||= railBound;
+    bySensor ||= !railBound;
     problems.push(
-      `${formatQuantity(value, unit, 8)} is past what this channel reads (at ${end === 'lower' ? 'least' : 'most'} ${formatQuantity(limit, unit)}${railBound ? `, the converter's full scale at gain ${formatSignificant(gain)}` : ", the end of the sensor's range"})`,
+      `${formatQuantity(value, unit, 8)} is past what this channel reads (at ${most} ${formatQuantity(limit, unit, 8)}${railBound ? `, the converter's full scale at gain ${formatSignificant(gain)}` : ", the end of the sensor's range"})`,
     );
-    limitText = formatQuantity(limit, unit);
+    fixed[end === 'lower' ? 'min' : 'max'] = nice(limit, end);
+    limitText = formatQuantity(limit, unit, 8);
   }
   if (problems.length > 0) {
-    let suggestion = 'narrow output.range';
-    if (byConverter) {
+    const inward = `narrow output.range to [${formatQuantity(fixed.min, unit, 8)}, ${formatQuantity(fixed.max, unit, 8)}]`;
+    let suggestion = inward;
+    if (byConverter && !bySensor) {
       const codes = [codeOf(range.min), codeOf(range.max)];
       if (!spec.adc.bipolar && codes.some((c) => c < 0)) {
-        suggestion =
-          "set adc.bipolar to true (the span's lower end needs a negative input), or narrow output.range";
-      } else {
+        suggestion = `set adc.bipolar to true (the span's lower end needs a negative input), or ${inward}`;
+      } else if (codes.every(Number.isFinite)) {
         // Codes scale with the gain (the input is referred to the amplifier's input), so the span fits below this gain.
         const room = codes
           .map((c) => (c > 0 ? adc.codeMax - 1 : -(adc.codeMin + 1)) / Math.abs(c))
           .filter((x) => Number.isFinite(x) && x > 0);
         const maxGain = gain * Math.min(...room);
-        if (maxGain > 0 && Number.isFinite(maxGain))
-          suggestion = `lower amplifier.gain to ${formatSignificant(niceGainBelow(gain, maxGain))} or narrow output.range`;
+        if (maxGain > 0 && maxGain < gain)
+          suggestion = `lower amplifier.gain to ${formatSignificant(niceGainBelow(gain, maxGain))} or ${inward}`;
       }
     }
     issues.push({

@@ -5,7 +5,7 @@
 import type { ErrorCode, Interval, LeadWiring } from '@bridgework/core';
 import type { BridgeSpan } from '@bridgework/chain';
 import type { ChannelBudgetLine } from '../budget/ChannelBudgetLine.js';
-import type { ArmPattern } from '../internal/bridgeArms.js';
+import type { GaugePattern } from '@bridgework/bridge';
 import type { OutputQuantity } from '../outputQuantities.js';
 import type { Fields, ObjectOut, ParseContext } from '../spec/schema.js';
 import type { CommonSpec } from '../spec/commonSpec.js';
@@ -60,7 +60,7 @@ export interface KindContext<S = Record<string, unknown>> {
   /** The strain arrangement (`'quarter'` for `'arm-1'` kinds; `undefined` for `'own-bridge'`). */
   readonly arrangement: string | undefined;
   /** The arms of the arrangement (the bridge package's table row). */
-  readonly arms: readonly ArmPattern[];
+  readonly arms: readonly GaugePattern[];
   /** Poisson ratio of the specimen (`bridge.poissonRatio`), when given. */
   readonly poissonRatio: number | undefined;
   /** The lead wiring (defaults applied). */

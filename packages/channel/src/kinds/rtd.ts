@@ -3,14 +3,13 @@
  * bridge. The element's relative change (R − R0)/R0 enters arm 1 exactly as a gauge's GF·ε does,
  * so the bridge package's quarter bridge with gauge factor 1 and "gauge" resistance R0 solves it.
  */
-import { createStrainBridge } from '@bridgework/bridge';
+import { createStrainBridge, createStrainBridgeKernel } from '@bridgework/bridge';
 import {
   IEC_60751_COEFFICIENTS,
   createRtd,
   rtdToleranceCelsius,
   RTD_TOLERANCE_CLASSES,
 } from '@bridgework/compensation';
-import { armLayout, strainFromRatioArms } from '../internal/bridgeArms.js';
 import { choiceField, numberField, type ObjectOut } from '../spec/schema.js';
 import { formatSignificant } from '../units/quantity.js';
 import { KIND_PARAMETERS_START, Parameter, type KindContext, type SensorKind } from './SensorKind.js';
@@ -134,18 +133,20 @@ export const rtdKind: SensorKind<typeof fields, 'rtd'> = {
   fastMap(ctx: KindContext<RtdSpec>) {
     const s = ctx.sensor;
     const rtd = curve(s);
-    const layout = armLayout([[1, 0], null, null, null], undefined, ctx.wiring);
-    const rs = ctx.sourceOhms;
+    // The element in arm 1 of a quarter bridge: gauge factor 1, "gauge" resistance R0 (the bridge package's closed form).
+    const bridge = createStrainBridgeKernel({
+      arrangement: 'quarter',
+      gaugeFactor: 1,
+      gaugeOhms: s.r0Ohms,
+      wiring: ctx.wiring,
+      sourceOhms: ctx.sourceOhms,
+    });
     return {
       quantity(ratio, _zero, p) {
-        const e = strainFromRatioArms(
-          layout,
-          s.r0Ohms,
-          1,
+        const e = bridge.strainFromRatio(
+          ratio,
           p[Parameter.completionOhms] as number,
           p[Parameter.ohmsPerLead] as number,
-          rs,
-          ratio,
         );
         return rtd.temperatureAt(s.r0Ohms * (1 + e)) + (p[CLASS_DEVIATION] as number);
       },

@@ -6,7 +6,13 @@
  * for a uniaxial field (compensation); strain becomes stress, shear stress, force, bending moment
  * or torque through the mechanics package.
  */
-import { createStrainBridge } from '@bridgework/bridge';
+import {
+  arrangementTable,
+  createStrainBridge,
+  createStrainBridgeKernel,
+  type ArrangementInfo,
+  type StrainArrangement,
+} from '@bridgework/bridge';
 import {
   correctTemperatureEffects,
   createThermalOutput,
@@ -15,7 +21,6 @@ import {
   type ThermalOutput,
 } from '@bridgework/compensation';
 import { createAxialMember, createBendingMember, createShaft } from '@bridgework/mechanics';
-import { armLayout, strainFromRatioArms } from '../internal/bridgeArms.js';
 import { type OutputQuantity } from '../outputQuantities.js';
 import { intervalField, numberField, numberListField, objectField, type ObjectOut } from '../spec/schema.js';
 import type { CommonSpec } from '../spec/commonSpec.js';
@@ -87,17 +92,13 @@ const fields = {
 
 type StrainGaugeSpec = ObjectOut<typeof fields>;
 
-/** What the strain of each arrangement is, for the quantities derived from it (arrangements not listed give strain only). */
-const strainMeaning: Readonly<Record<string, 'normal' | 'bending' | 'shear'>> = {
-  quarter: 'normal',
-  'half-poisson': 'normal',
-  'half-opposite': 'normal',
-  'full-poisson': 'normal',
-  'half-bending': 'bending',
-  'full-bending': 'bending',
-  'full-bending-poisson': 'bending',
-  'full-shear': 'shear',
-};
+/** What the strain of an arrangement is (the bridge table's `measures`; a row without it gives strain only). */
+function strainMeaning(arrangement: string | undefined): 'normal' | 'bending' | 'shear' | 'unknown' {
+  const row = (arrangementTable as Readonly<Record<string, Partial<ArrangementInfo> | undefined>>)[
+    arrangement ?? 'quarter'
+  ];
+  return row?.measures ?? 'unknown';
+}
 
 const quantitiesByMeaning: Readonly<
   Record<'normal' | 'bending' | 'shear' | 'unknown', readonly OutputQuantity[]>
@@ -150,7 +151,7 @@ function quantityPerStrain(
   poissonRatio: number | undefined,
 ): number {
   const o = spec.output;
-  const meaning = strainMeaning[arrangement ?? ''];
+  const meaning = strainMeaning(arrangement);
   const shearModulus = () =>
     o.shearModulusPascals ??
     createShaft({
@@ -212,7 +213,7 @@ export const strainGaugeKind: SensorKind<typeof fields, 'strain-gauge'> = {
   nominalOhms: (s) => s.gaugeOhms,
   check(s, spec, report: SpecReporter) {
     const arrangement = spec.bridge.arrangement ?? 'quarter';
-    const meaning = strainMeaning[arrangement] ?? 'unknown';
+    const meaning = strainMeaning(arrangement);
     const q = spec.output.quantity;
     if (q !== 'ratio' && !quantitiesByMeaning[meaning].includes(q)) {
       report('output.quantity', `cannot be '${q}' from a '${arrangement}' bridge: ${why[meaning]}`, {
@@ -276,7 +277,7 @@ export const strainGaugeKind: SensorKind<typeof fields, 'strain-gauge'> = {
   },
   outputFields(_s, spec) {
     const arrangement = spec.bridge.arrangement ?? 'quarter';
-    const meaning = strainMeaning[arrangement] ?? 'unknown';
+    const meaning = strainMeaning(arrangement);
     return spec.output.quantity === 'ratio' ? [] : memberFields(spec.output.quantity, meaning, spec);
   },
   describe: (s, spec) =>
@@ -354,7 +355,16 @@ export const strainGaugeKind: SensorKind<typeof fields, 'strain-gauge'> = {
   },
   fastMap(ctx) {
     const s = ctx.sensor;
-    const layout = armLayout(ctx.arms, ctx.poissonRatio, ctx.wiring);
+    const setting = s.gaugeFactor;
+    // The bridge package's closed form with the completion and lead resistances per call.
+    const bridge = createStrainBridgeKernel({
+      arrangement: (ctx.arrangement ?? 'quarter') as StrainArrangement,
+      gaugeFactor: setting,
+      gaugeOhms: s.gaugeOhms,
+      ...(ctx.poissonRatio === undefined ? {} : { poissonRatio: ctx.poissonRatio }),
+      wiring: ctx.wiring,
+      sourceOhms: ctx.sourceOhms,
+    });
     const to = s.thermalOutput;
     const thermal =
       to === undefined
@@ -364,7 +374,6 @@ export const strainGaugeKind: SensorKind<typeof fields, 'strain-gauge'> = {
             gaugeFactor: to.gaugeFactor,
             rangeCelsius: [to.rangeCelsius.min, to.rangeCelsius.max],
           });
-    const setting = s.gaugeFactor;
     const beta = s.gaugeFactorTemperatureCoefficientPerKelvin;
     const t0 = s.gaugeFactorReferenceCelsius;
     const tZero = ctx.zeroTemperatureCelsius;
@@ -380,14 +389,13 @@ export const strainGaugeKind: SensorKind<typeof fields, 'strain-gauge'> = {
     // Thermal output at the zero temperature, rescaled to the setting (compensation rescaleGaugeFactor: ε·from/to).
     const thermalZero =
       thermal === undefined ? 0 : (thermal.apparentStrainAt(tZero) * thermal.gaugeFactor) / setting;
-    const rs = ctx.sourceOhms;
     return {
       quantity(ratio, zeroRatio, p) {
         const completion = p[Parameter.completionOhms] as number;
         const lead = p[Parameter.ohmsPerLead] as number;
-        let e = strainFromRatioArms(layout, s.gaugeOhms, setting, completion, lead, rs, ratio);
+        let e = bridge.strainFromRatio(ratio, completion, lead);
         if (zeroRatio === zeroRatio) {
-          const e0 = strainFromRatioArms(layout, s.gaugeOhms, setting, completion, lead, rs, zeroRatio);
+          const e0 = bridge.strainFromRatio(zeroRatio, completion, lead);
           e = (e - e0) / (1 + setting * e0);
         }
         const t = p[Parameter.temperatureCelsius] as number;

@@ -6,13 +6,12 @@
  * channel reads the ambient temperature.
  */
 import { ZERO_CELSIUS_KELVIN } from '@bridgework/core';
-import { createStrainBridge, solveBridge } from '@bridgework/bridge';
+import { createStrainBridge, createStrainBridgeKernel, solveBridge } from '@bridgework/bridge';
 import {
   createBetaThermistor,
   createSteinhartHartThermistor,
   type Thermistor,
 } from '@bridgework/compensation';
-import { arm1Watts, armLayout, strainFromRatioArms } from '../internal/bridgeArms.js';
 import { intervalField, numberField, objectField, type ObjectOut } from '../spec/schema.js';
 import { formatSignificant } from '../units/quantity.js';
 import { KIND_PARAMETERS_START, Parameter, type KindContext, type SensorKind } from './SensorKind.js';
@@ -214,11 +213,21 @@ export const thermistorKind: SensorKind<typeof fields, 'thermistor'> = {
   },
   fastMap(ctx: KindContext<ThermistorSpec>) {
     const s = ctx.sensor;
-    const layout = armLayout([[1, 0], null, null, null], undefined, ctx.wiring);
-    const powerLayout = { ...layout, sourceCounts: true };
-    const rs = ctx.sourceOhms;
-    const rsPower = ctx.spec.excitation.sourceOhms;
     const r0 = s.referenceOhms;
+    // The element in arm 1 of a quarter bridge (gauge factor 1, "gauge" resistance R0): the bridge
+    // package's closed form, once as the ratio sees the source, once with the whole source in series (power).
+    const quarter = { arrangement: 'quarter', gaugeFactor: 1, gaugeOhms: r0, wiring: ctx.wiring } as const;
+    const bridge = createStrainBridgeKernel({ ...quarter, sourceOhms: ctx.sourceOhms });
+    const power = createStrainBridgeKernel({ ...quarter, sourceOhms: ctx.spec.excitation.sourceOhms });
+    // Power in the element (not its leads) at a strain: the arm current of the unloaded bridge fed
+    // through the series resistance, I1 = E·Q/(P·Q + Rs·(P + Q)) with P = R1 + R2, Q = R3 + R4 (the
+    // exact map uses solveBridge; the channel checks the two agree before this one is used).
+    const watts = (e: number, completion: number, lead: number, volts: number): number => {
+      const pp = power.armOhms(1, e, completion, lead) + power.armOhms(2, e, completion, lead);
+      const qq = power.armOhms(3, e, completion, lead) + power.armOhms(4, e, completion, lead);
+      const current = (volts * qq) / (pp * qq + power.seriesOhms(lead) * (pp + qq));
+      return current * current * r0 * (1 + e);
+    };
     const sh = s.steinhartHart === undefined ? undefined : model(s, 0);
     const t0 = s.referenceCelsius;
     const k0 = t0 + ZERO_CELSIUS_KELVIN;
@@ -228,7 +237,7 @@ export const thermistorKind: SensorKind<typeof fields, 'thermistor'> = {
       quantity(ratio, _zero, p) {
         const completion = p[Parameter.completionOhms] as number;
         const lead = p[Parameter.ohmsPerLead] as number;
-        const e = strainFromRatioArms(layout, r0, 1, completion, lead, rs, ratio);
+        const e = bridge.strainFromRatio(ratio, completion, lead);
         const ohms = (r0 * (1 + e)) / (1 + (p[RESISTANCE_DEVIATION] as number));
         let t: number;
         if (sh !== undefined) t = sh.temperatureAt(ohms);
@@ -239,20 +248,7 @@ export const thermistorKind: SensorKind<typeof fields, 'thermistor'> = {
           if (!(t >= lo && t <= hi)) return Number.NaN;
         }
         const d = p[DISSIPATION] as number;
-        return d > 0
-          ? t -
-              arm1Watts(
-                powerLayout,
-                r0,
-                1,
-                completion,
-                lead,
-                rsPower,
-                p[Parameter.excitationVolts] as number,
-                e,
-              ) /
-                d
-          : t;
+        return d > 0 ? t - watts(e, completion, lead, p[Parameter.excitationVolts] as number) / d : t;
       },
     };
   },

@@ -5,6 +5,7 @@
 import { arrangementTable, strainArrangements, type StrainArrangement } from '@bridgework/bridge';
 import type { SensorKind } from '../kinds/SensorKind.js';
 import { channelSchemaFor, type ChannelRules } from './channelSchema.js';
+import { renamedSensorFields } from './renamedFields.js';
 import { objectField, type Fields, type ObjectIn, type ObjectOut, type SchemaNode } from './schema.js';
 
 /** Any sensor kind. */
@@ -26,7 +27,13 @@ export function buildChannelSchema<const K extends readonly AnySensorKind[]>(kin
     names.add(k.name);
   }
   const variants = Object.fromEntries(
-    kinds.map((k) => [k.name, objectField(k.fields as Fields, { doc: k.doc })]),
+    kinds.map((k) => [
+      k.name,
+      objectField(k.fields as Fields, {
+        doc: k.doc,
+        ...(renamedSensorFields[k.name] === undefined ? {} : { renamed: renamedSensorFields[k.name] }),
+      }),
+    ]),
   ) as VariantsOf<K>;
   const rules: ChannelRules = {
     kinds: new Map(kinds.map((k) => [k.name, k as SensorKind])),

@@ -5,7 +5,7 @@
  * one place.
  */
 import type { LeadWiring } from '@bridgework/core';
-import type { ArmPattern } from '../internal/bridgeArms.js';
+import type { GaugePattern } from '@bridgework/bridge';
 import type { SensorKind, SpecReporter } from '../kinds/SensorKind.js';
 import { defaultOutputUnit } from '../outputQuantities.js';
 import { commonFields, type CommonSpec } from './commonSpec.js';
@@ -22,7 +22,7 @@ import {
 /** One arrangement of the table: its arms and the lead wirings it accepts (the bridge package's `ArrangementInfo`). */
 export interface ArrangementRow {
   /** Arms R1…R4: each gauge's strain pattern, or null for a completion resistor. */
-  readonly arms: readonly ArmPattern[];
+  readonly arms: readonly GaugePattern[];
   /** The lead wirings it accepts. */
   readonly wirings: readonly LeadWiring[];
 }
@@ -212,12 +212,12 @@ function check(spec: Spec, ctx: ParseContext, rules: ChannelRules): void {
     // bridge voltage as given, so it asks for it rather than for an EMF and a source resistance.
     reportAt(
       'excitation.sourceOhms',
-      `must be 0 with a ratiometric converter, whose reference is the excitation at the instrument's terminals: there a source resistance does not change the ratio (nor any code ↔ quantity map), it only lowers the bridge voltage to excitation.volts·Rin/(Rin + sourceOhms), Rin being the bridge's input resistance; got ${spec.excitation.sourceOhms} Ω`,
+      `must be 0 with a ratiometric converter: its reference is taken at the excitation terminals, where a source resistance changes the bridge voltage, not the ratio; got ${spec.excitation.sourceOhms} Ω`,
       {
         code: 'conflicting-options',
         limit: '0 Ω',
         suggestion:
-          "write the voltage at the terminals under load as excitation.volts (and adc.referenceVolts) and leave sourceOhms at 0; or set adc.ratiometric to false (an absolute reference, which sees the source resistance); with remote sense (bridge.wiring 'six-wire') the source resistance is regulated out and may stay",
+          'write the terminal voltage as excitation.volts and adc.referenceVolts, or set adc.ratiometric to false',
       },
     );
   }

@@ -26,6 +26,7 @@ import {
   type ParseContext,
   type UnitRule,
 } from './schema.js';
+import { renamedCommonFields } from './renamedFields.js';
 import { testDayFields } from './testDaySpec.js';
 
 const ohms = { dimension: 'resistance' } as const;
@@ -33,6 +34,8 @@ const volts = { dimension: 'voltage' } as const;
 const hertz = { dimension: 'frequency' } as const;
 const meters = { dimension: 'length' } as const;
 const celsius = { dimension: 'temperature' } as const;
+/** The highest sensor temperature a channel file may state, °C: no bridge sensor works beyond it (high-temperature strain gauges end near 1000 °C, IEC 60751 at 850 °C). */
+const MAX_CELSIUS = 2000;
 const fraction = { dimension: 'fraction' } as const;
 
 /** The output quantity, once `output.quantity` is parsed. */
@@ -183,9 +186,10 @@ export function commonFields<const A extends string>(arrangements: readonly A[])
       {
         volts: numberField({ doc: 'Source EMF', unit: volts, min: 0, minExclusive: true }),
         sourceOhms: numberField({
-          doc: "Internal resistance of the source (an absolute reference sees it; must be 0 with a ratiometric converter unless bridge.wiring is 'six-wire')",
+          doc: 'Internal resistance of the source (absolute reference only)',
           unit: ohms,
           min: 0,
+          max: 1e12,
           default: 0,
         }),
         remoteSense: booleanField({
@@ -289,8 +293,8 @@ export function commonFields<const A extends string>(arrangements: readonly A[])
             dataRateHertz: numberField({
               doc: 'Output data rate',
               unit: hertz,
-              min: 0,
-              minExclusive: true,
+              min: 1e-9,
+              max: 1e12,
               default: 10,
             }),
           },
@@ -304,7 +308,7 @@ export function commonFields<const A extends string>(arrangements: readonly A[])
           optional: true,
         }),
       },
-      { doc: 'Analog-to-digital converter' },
+      { doc: 'Analog-to-digital converter', renamed: renamedCommonFields.adc },
     ),
     zero: objectField(
       {
@@ -323,11 +327,13 @@ export function commonFields<const A extends string>(arrangements: readonly A[])
         temperatureCelsius: numberField({
           doc: 'Sensor temperature during the measurement',
           unit: celsius,
+          max: MAX_CELSIUS,
           default: 20,
         }),
         zeroTemperatureCelsius: numberField({
           doc: 'Sensor temperature when the zero was taken',
           unit: celsius,
+          max: MAX_CELSIUS,
           derived: true,
           defaultText: 'temperatureCelsius',
         }),
@@ -342,6 +348,7 @@ export function commonFields<const A extends string>(arrangements: readonly A[])
         rangeCelsius: intervalField({
           doc: 'Temperature range the budget covers',
           unit: celsius,
+          max: MAX_CELSIUS,
           allowEqual: true,
           derived: true,
           defaultText: '[temperatureCelsius, temperatureCelsius]',
@@ -376,7 +383,11 @@ export function commonFields<const A extends string>(arrangements: readonly A[])
           default: 0.95,
         }),
       },
-      { doc: 'Tolerance half-widths (rectangular limits) for the budget', presence: 'default' },
+      {
+        doc: 'Tolerance half-widths (rectangular limits) for the budget',
+        presence: 'default',
+        renamed: renamedCommonFields.tolerances,
+      },
     ),
     output: objectField(
       {

@@ -579,6 +579,12 @@ export interface ObjectOptions<T> {
   readonly finalize?: (value: T, path: string, ctx: ParseContext) => T;
   /** Rules across the fields, run when every field is valid. */
   readonly check?: CrossCheck<T>;
+  /**
+   * Keys this object no longer has, each with where its value is written now (a field path from
+   * the channel, such as `'adc.filter.dataRateHertz'`, or a short instruction): an unknown-field
+   * issue for such a key says so instead of guessing the closest name.
+   */
+  readonly renamed?: Readonly<Record<string, string>>;
 }
 
 function isPlainRecord(value: unknown): value is Record<string, unknown> {
@@ -629,18 +635,23 @@ export function objectField<F extends Fields, const P extends Presence = 'requir
       let ok = true;
       for (const key of Object.keys(value)) {
         if (!Object.hasOwn(fields, key)) {
-          const near = closestName(key, known);
+          const moved = o.renamed !== undefined && Object.hasOwn(o.renamed, key) ? o.renamed[key] : undefined;
+          const near = moved === undefined ? closestName(key, known) : undefined;
           report(
             ctx,
             joinPath(path, key),
             'unknown-option',
-            near === undefined
-              ? `unknown field; expected one of ${known.join(', ')}`
-              : `unknown field; did you mean '${near}'?`,
-            {
-              expected: `one of ${known.join(', ')}`,
-              ...(near === undefined ? {} : { suggestion: `write '${near}'` }),
-            },
+            moved !== undefined
+              ? `unknown field: renamed; write it as ${moved}`
+              : near === undefined
+                ? `unknown field; expected one of ${known.join(', ')}`
+                : `unknown field; did you mean '${near}'?`,
+            moved !== undefined
+              ? { suggestion: `write it as ${moved}` }
+              : {
+                  expected: `one of ${known.join(', ')}`,
+                  ...(near === undefined ? {} : { suggestion: `write '${near}'` }),
+                },
           );
           ok = false;
         }

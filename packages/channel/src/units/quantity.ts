@@ -261,11 +261,10 @@ export function parseQuantity(text: string | number, unit: string): number {
  */
 export function dimensionOfUnit(unit: string): Dimension {
   if (typeof unit !== 'string') {
-    throw new BridgeworkError(
-      'wrong-type',
-      `\`unit\` must be a unit symbol (a string such as 'kN' or '°C'); got ${formatValue(unit)}`,
-      { param: 'unit', value: unit },
-    );
+    throw new BridgeworkError('wrong-type', `\`unit\` must be a unit symbol; got ${formatValue(unit)}`, {
+      param: 'unit',
+      value: unit,
+    });
   }
   const found = unit === '' ? byDimension.get('fraction')?.get('') : anywhere.get(normalizeUnitText(unit));
   if (found === undefined) {
@@ -363,11 +362,10 @@ export function formatQuantity(value: number, unit: string, digits = 4): string 
     });
   }
   if (typeof unit !== 'string') {
-    throw new BridgeworkError(
-      'wrong-type',
-      `\`unit\` must be a unit symbol (a string, '' for none); got ${formatValue(unit)}`,
-      { param: 'unit', value: unit },
-    );
+    throw new BridgeworkError('wrong-type', `\`unit\` must be a unit symbol; got ${formatValue(unit)}`, {
+      param: 'unit',
+      value: unit,
+    });
   }
   checkInteger('digits', digits, { min: 1, max: 100 });
   const n = formatSignificant(value, digits);

@@ -4,6 +4,7 @@ import { checkCertificateCommand } from './certificate/certificateCommand.js';
 import { convertCommand } from './convert/convertCommand.js';
 import { demoCommand } from './demo/demoCommand.js';
 import { fitCalibrationCommand } from './fit/fitCommand.js';
+import { fitGroupCommand } from './fitGroup/fitGroupCommand.js';
 import { fitThermistorCommand } from './thermistor/thermistorCommand.js';
 import { helpCommand } from './help/helpCommand.js';
 import { reduceRosetteCommand } from './rosette/rosetteCommand.js';
@@ -26,6 +27,7 @@ export const commands: readonly CommandSpec[] = Object.freeze([
   checkCertificateCommand,
   reduceRosetteCommand,
   fitThermistorCommand,
+  fitGroupCommand,
   demoCommand,
   helpCommand,
 ] as unknown as CommandSpec[]);

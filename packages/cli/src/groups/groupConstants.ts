@@ -216,7 +216,12 @@ export function withGroups(
     (p) => options.types === undefined || options.types.includes(p),
   );
   if (precisions.length === 0) return text;
-  const made = groups.map((g) => groupConstants(g, precisions));
+  // A platform summed in an analog junction sums in hardware: its indicator reads one signal, so
+  // there is no per-cell map to write (its span factor is in the report).
+  const made = groups
+    .filter((g) => g.kind !== 'platform' || g.summing === undefined)
+    .map((g) => groupConstants(g, precisions));
+  if (made.length === 0) return text;
   if (options.format === 'c')
     return `${text}${text.endsWith('\n') ? '' : '\n'}${groupsCSource(made, options.prefix, options.source)}`;
   const json = JSON.parse(text) as Record<string, unknown>;

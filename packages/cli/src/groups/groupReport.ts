@@ -63,8 +63,39 @@ export function readingNoise(group: LoadedGroup): number[] {
   return group.bridges.map((b) => channelBudget(b.channel).noise.totalRms);
 }
 
+/** How the group's model came about, in words (fitted at load, or stored with its source). */
+function modelSentence(g: MultiComponentGroup, secondOrder: number): string {
+  const c = g.calibration;
+  const terms =
+    secondOrder > 0
+      ? ` + ${secondOrder} second-order terms${g.fit === undefined ? '' : ` (${g.fit.spec.interactions})`}; AIAA R-091`
+      : ' (linear)';
+  if (g.fit !== undefined)
+    return `Model r = a + S·F${terms}, fitted by least squares (Householder QR) to ${g.fit.points.length} points of ${g.fit.spec.schedule}; ${c.degreesOfFreedom} degrees of freedom; uncertainties of the coefficients from the residuals.`;
+  const stored = g.spec.calibration.form === 'stored' ? g.spec.calibration : undefined;
+  const source = stored?.source;
+  const from =
+    source === undefined
+      ? 'no source stated'
+      : [
+          source.schedule === undefined
+            ? undefined
+            : `fitted to ${source.points === undefined ? '' : `${source.points} points of `}${source.schedule}${source.scheduleSha256 === undefined ? '' : ` (sha256 ${source.scheduleSha256.slice(0, 16)}…)`}`,
+          source.date === undefined ? undefined : `on ${source.date}`,
+          source.note,
+        ]
+          .filter((x) => x !== undefined)
+          .join(' ');
+  const covariance =
+    c.uncertaintySource === 'stored'
+      ? `with the fit's covariance stored (${Number.isFinite(c.degreesOfFreedom) ? `${c.degreesOfFreedom} degrees of freedom` : 'degrees of freedom not stated: taken as infinite'})`
+      : "without a stored covariance: the uncertainties below hold the reading noise only, not the calibration's own uncertainty";
+  return `Model r = a + S·F${terms}: stored coefficients (${from}), ${covariance}.`;
+}
+
 function multiComponentReport(g: MultiComponentGroup): GroupReport {
   const c = g.calibration;
+  const fit = g.fit?.calibration;
   const comps = g.spec.components;
   const units = comps.map((x) => x.unit);
   const bridgeUnits = g.bridges.map((b) => b.unit);
@@ -98,12 +129,18 @@ function multiComponentReport(g: MultiComponentGroup): GroupReport {
   const sampling = 1 / Math.sqrt(2 * GROUP_MONTE_CARLO_TRIALS);
   const paragraphs = [
     `${g.bridges.length} bridges (${g.spec.bridges.join(', ')}) → ${comps.length} components (${comps.map((x) => `${x.name} in ${x.unit}`).join(', ')}); readings are each bridge's converted value (${sameBridgeUnit ? bu : bridgeUnits.join(', ')}).`,
-    `Model r = a + S·F${second.length > 0 ? ` + ${second.length} second-order terms (${g.spec.calibration.interactions}; AIAA R-091)` : ' (linear)'}, fitted by least squares (Householder QR) to ${g.points.length} points of ${g.spec.calibration.schedule}; ${c.degreesOfFreedom} degrees of freedom; uncertainties of the coefficients from the residuals.`,
-    `Condition of the schedule (design matrix, unit-norm columns): ${formatNumber(c.condition, 3)}; of the full-scale-weighted sensitivity matrix (what the inverse amplifies): ${formatNumber(c.sensitivityCondition, 3)}.`,
-    c.rejectedTerms.length === 0
-      ? 'Every candidate term is determined by the schedule.'
-      : `Terms the schedule cannot determine (left out): ${c.rejectedTerms.map((r) => `${r.term.name} (${r.reason})`).join('; ')}.`,
-    `Inverse per sample: ${inverse.method === 'direct' ? 'direct, F = C·(r − a)' : `${inverse.method}, until every step is within ${formatNumber(inverse.tolerance, 2)} of full scale, at most ${inverse.maxIterations} steps`}. The reverse fit (loads regressed on readings) differs from C by at most ${formatPercent(c.reverseFit.largestDifferenceFraction)} of a row's largest entry.`,
+    modelSentence(g, second.length),
+    fit === undefined
+      ? `Condition of the full-scale-weighted sensitivity matrix (what the inverse amplifies): ${formatNumber(c.sensitivityCondition, 3)}.`
+      : `Condition of the schedule (design matrix, unit-norm columns): ${formatNumber(fit.condition, 3)}; of the full-scale-weighted sensitivity matrix (what the inverse amplifies): ${formatNumber(c.sensitivityCondition, 3)}.`,
+    ...(fit === undefined
+      ? []
+      : [
+          fit.rejectedTerms.length === 0
+            ? 'Every candidate term is determined by the schedule.'
+            : `Terms the schedule cannot determine (left out): ${fit.rejectedTerms.map((r) => `${r.term.name} (${r.reason})`).join('; ')}.`,
+        ]),
+    `Inverse per sample: ${inverse.method === 'direct' ? 'direct, F = C·(r − a)' : `${inverse.method}, until every step is within ${formatNumber(inverse.tolerance, 2)} of full scale, at most ${inverse.maxIterations} steps`}.${fit === undefined ? '' : ` The reverse fit (loads regressed on readings) differs from C by at most ${formatPercent(fit.reverseFit.largestDifferenceFraction)} of a row's largest entry.`}`,
     `Reading noise in use, per bridge (its channel's total rms noise): ${g.bridges.map((b, i) => `${b.name} ${formatNumber(noise[i] as number, 3)} ${b.unit}`).join(', ')}.`,
   ];
   const sensitivity: GroupTable = {
@@ -146,27 +183,32 @@ function multiComponentReport(g: MultiComponentGroup): GroupReport {
     });
   }
   tables.push({
-    caption:
-      'per component: standard uncertainty u (k = 1, JCGM 100: calibration and reading noise), residuals',
+    caption: `per component: standard uncertainty u (k = 1, JCGM 100: ${c.uncertaintySource === 'none' ? 'reading noise only, no calibration covariance stored' : 'calibration and reading noise'})${fit === undefined ? '' : ', residuals'}`,
     columns: [
       { header: 'component' },
       right('full scale'),
       right('u at zero'),
       right('u at full scale'),
-      right('std error of fit'),
-      right('largest residual'),
-      right('hysteresis'),
+      ...(fit === undefined
+        ? []
+        : [right('std error of fit'), right('largest residual'), right('hysteresis')]),
     ],
     rows: comps.map((x, j) => [
       `${x.name} (${x.unit})`,
       n4(c.fullScale[j] as number),
       formatNumber(atZero.standardUncertainties[j] as number, 3),
       formatNumber(atFull[j]?.standardUncertainties[j] as number, 3),
-      c.loadStandardErrors[j] === undefined ? '—' : formatNumber(c.loadStandardErrors[j] as number, 3),
-      `${formatPercent(c.largestLoadResidualFractions[j] as number)} FS`,
-      c.hysteresisFractions[j] === undefined
-        ? '—'
-        : `${formatPercent(c.hysteresisFractions[j] as number)} FS`,
+      ...(fit === undefined
+        ? []
+        : [
+            fit.loadStandardErrors[j] === undefined
+              ? '—'
+              : formatNumber(fit.loadStandardErrors[j] as number, 3),
+            `${formatPercent(fit.largestLoadResidualFractions[j] as number)} FS`,
+            fit.hysteresisFractions[j] === undefined
+              ? '—'
+              : `${formatPercent(fit.hysteresisFractions[j] as number)} FS`,
+          ]),
     ]),
   });
   tables.push({
@@ -204,12 +246,16 @@ function multiComponentReport(g: MultiComponentGroup): GroupReport {
     paragraphs,
     tables,
     checks: [],
-    residuals: {
-      series: comps.map((x, j) => ({
-        name: x.name,
-        fractions: c.loadResiduals.map((r) => (r[j] as number) / (c.fullScale[j] as number)),
-      })),
-    },
+    ...(fit === undefined
+      ? {}
+      : {
+          residuals: {
+            series: comps.map((x, j) => ({
+              name: x.name,
+              fractions: fit.loadResiduals.map((r) => (r[j] as number) / (c.fullScale[j] as number)),
+            })),
+          },
+        }),
     ok: true,
     payload: {
       kind: 'multi-component',
@@ -220,27 +266,36 @@ function multiComponentReport(g: MultiComponentGroup): GroupReport {
         unit: x.unit,
         fullScale: c.fullScale[comps.indexOf(x)],
       })),
-      schedule: g.spec.calibration.schedule,
-      points: g.points.length,
+      calibration: g.fit === undefined ? 'stored' : 'schedule',
+      ...(g.fit === undefined
+        ? { source: g.spec.calibration.form === 'stored' ? (g.spec.calibration.source ?? null) : null }
+        : { schedule: g.fit.spec.schedule, points: g.fit.points.length }),
       terms: c.terms.map((t) => t.name),
-      rejectedTerms: c.rejectedTerms.map((r) => ({ term: r.term.name, reason: r.reason })),
+      ...(fit === undefined
+        ? {}
+        : { rejectedTerms: fit.rejectedTerms.map((r) => ({ term: r.term.name, reason: r.reason })) }),
       coefficients: c.coefficients,
-      coefficientStandardUncertainties: c.coefficientStandardUncertainties,
+      coefficientStandardUncertainties: c.coefficientStandardUncertainties ?? null,
+      uncertaintySource: c.uncertaintySource,
       offsets: c.offsets,
       sensitivity: c.sensitivity,
       loadMatrix: c.loadMatrix,
       crossTalk: c.crossTalk,
       termFractions: c.termFractions,
-      condition: c.condition,
+      ...(fit === undefined ? {} : { condition: fit.condition }),
       sensitivityCondition: c.sensitivityCondition,
-      degreesOfFreedom: c.degreesOfFreedom,
+      degreesOfFreedom: Number.isFinite(c.degreesOfFreedom) ? c.degreesOfFreedom : null,
       readingStandardUncertainties: noise,
       standardUncertaintyAtZero: atZero.standardUncertainties,
       standardUncertaintyAtFullScale: atFull.map((u, j) => u.standardUncertainties[j]),
-      loadStandardErrors: c.loadStandardErrors.map((v) => v ?? null),
-      largestLoadResidualFractions: c.largestLoadResidualFractions,
-      hysteresisFractions: c.hysteresisFractions.map((v) => v ?? null),
-      loadResiduals: c.loadResiduals,
+      ...(fit === undefined
+        ? {}
+        : {
+            loadStandardErrors: fit.loadStandardErrors.map((v) => v ?? null),
+            largestLoadResidualFractions: fit.largestLoadResidualFractions,
+            hysteresisFractions: fit.hysteresisFractions.map((v) => v ?? null),
+            loadResiduals: fit.loadResiduals,
+          }),
       inverse: { method: inverse.method, tolerance: inverse.tolerance, maxIterations: inverse.maxIterations },
       monteCarlo: {
         trials: GROUP_MONTE_CARLO_TRIALS,
@@ -268,23 +323,54 @@ function platformReport(g: PlatformGroup): GroupReport {
   const cellUnits = g.bridges.map((b) => b.unit);
   // Errors below 1e-12 of the test load are rounding of the fit (numerical dust), shown as a bound.
   const dust = 1e-12 * e.testLoad;
+  const s = g.summing;
+  // The check positions in the order they were evaluated (file order).
+  const checkNames = g.positions.filter((_, p) => g.fitted[p] !== true);
+  const junction = g.spec.summing;
   const paragraphs = [
-    `${g.bridges.length} load cells (${g.spec.bridges.join(', ')}) summed digitally: ${g.spec.indication.name} = Σ k_i·r_i in ${unit}, r_i each cell's converted value (${[...new Set(cellUnits)].join(', ')}).`,
-    `Factors k_i from the eccentricity test ${e.test} (${g.fitted.filter((f) => f).length} positions of ${formatNumber(e.testLoad, 4)} ${unit}, least squares; condition ${formatNumber(g.factors.condition, 3)})${e.checkPositions.length > 0 ? `; ${e.checkPositions.join(', ')} only checks them` : ''}.`,
+    s === undefined || junction === undefined
+      ? `${g.bridges.length} load cells (${g.spec.bridges.join(', ')}) summed digitally: ${g.spec.indication.name} = Σ k_i·r_i in ${unit}, r_i each cell's converted value (${[...new Set(cellUnits)].join(', ')}).`
+      : `${g.bridges.length} load cells (${g.spec.bridges.join(', ')}) summed in an analog junction: each cell's excitation through a trim resistor (${junction.trimPlacement === 'both-excitation' ? 'split between its +E and −E leads' : 'in its +E lead'}), the signals paralleled onto two buses${junction.summingOhms > 0 ? ` through ${formatNumber(junction.summingOhms, 4)} Ω each` : ''}, read by an indicator ${Number.isFinite(junction.meterOhms) ? `of ${formatNumber(junction.meterOhms, 4)} Ω input` : 'drawing no current'}; cells of ${[...new Set(junction.cellOhms.map((r) => formatNumber(r, 4)))].join(', ')} Ω. ${g.spec.indication.name} = k·(summed output), k = ${formatNumber(s.spanFactor / 1000, 7)} ${unit} per mV/V of supply.`,
+    s === undefined
+      ? `Factors k_i from the eccentricity test ${e.test} (${g.fitted.filter((f) => f).length} positions of ${formatNumber(e.testLoad, 4)} ${unit}, least squares; condition ${formatNumber(g.factors.condition, 3)})${e.checkPositions.length > 0 ? `; ${e.checkPositions.join(', ')} only checks them` : ''}.`
+      : `Trims from the eccentricity test ${e.test} (${g.fitted.filter((f) => f).length} positions of ${formatNumber(e.testLoad, 4)} ${unit}), solved through the junction's network exactly (calibration fitSummingTrims, ${s.trims.iterations} Newton ${s.trims.iterations === 1 ? 'step' : 'steps'}): the corners read alike ${s.trims.positionSpreadFraction < 1e-12 ? 'to rounding (within 1e−12 of their mean)' : `within ${formatPercent(s.trims.positionSpreadFraction)} of their mean`}; ${g.spec.bridges[s.trims.referenceCell]} needs the most excitation and is left untrimmed${e.checkPositions.length > 0 ? `; ${e.checkPositions.join(', ')} only checks them` : ''}.`,
+    ...(s === undefined || s.trims.checks.length === 0
+      ? []
+      : [
+          `Remaining difference of the check positions from the corners' mean output: ${s.trims.checks.map((c, k) => `${checkNames[k] ?? `check ${k + 1}`} ${formatPercent(c.differenceFraction)}`).join(', ')}. This is the junction's second-order effect, not a trim error: each cell's input and output resistance changes as R(1 − x²) with load and one cell's imbalance drives currents through the others, so it shrinks about as the load squared.`,
+        ]),
     `OIML R 76 eccentricity test, class ${e.accuracyClass}, Max ${formatNumber(e.maxCapacity, 4)} ${unit}, e = ${formatNumber(e.verificationInterval, 4)} ${unit}: mpe at the test load ${formatNumber(check.mpe, 3)} ${unit} (${formatNumber(check.mpeInIntervals, 2)} e); the test load R 76 asks for with ${e.supportPoints} supports is ${formatNumber(check.recommendedTestLoad, 4)} ${unit}; spread of the indications ${formatNumber(check.spread, 3)} ${unit}.`,
   ];
   const tables: GroupTable[] = [
+    s === undefined
+      ? {
+          caption: `cell factors k (${unit} per reading unit)`,
+          columns: [{ header: 'cell' }, right('factor k'), { header: 'per' }],
+          rows: g.factors.factors.map((k, i) => [
+            g.spec.bridges[i] as string,
+            formatNumber(k, 7),
+            cellUnits[i] as string,
+          ]),
+        }
+      : {
+          caption: `trim resistors of the summing junction (Ω), beside the digital factors the same test gives (${unit} per reading unit)`,
+          columns: [
+            { header: 'cell' },
+            right('trim (Ω)'),
+            { header: 'role' },
+            right('digital factor'),
+            { header: 'per' },
+          ],
+          rows: s.trims.trimsOhms.map((t, i) => [
+            g.spec.bridges[i] as string,
+            formatNumber(t, 5),
+            i === s.trims.referenceCell ? 'reference' : 'trimmed',
+            formatNumber(g.factors.factors[i] as number, 7),
+            cellUnits[i] as string,
+          ]),
+        },
     {
-      caption: `cell factors k (${unit} per reading unit)`,
-      columns: [{ header: 'cell' }, right('factor k'), { header: 'per' }],
-      rows: g.factors.factors.map((k, i) => [
-        g.spec.bridges[i] as string,
-        formatNumber(k, 7),
-        cellUnits[i] as string,
-      ]),
-    },
-    {
-      caption: `indication at each position with the factors (${unit})`,
+      caption: `indication at each position with the ${s === undefined ? 'factors' : 'trims'} (${unit})`,
       columns: [
         { header: 'position' },
         { header: 'role' },
@@ -326,6 +412,25 @@ function platformReport(g: PlatformGroup): GroupReport {
       bridges: g.spec.bridges,
       bridgeUnits: cellUnits,
       indication: { name: g.spec.indication.name, unit },
+      summing:
+        s === undefined || junction === undefined
+          ? null
+          : {
+              trimsOhms: s.trims.trimsOhms,
+              referenceCell: g.spec.bridges[s.trims.referenceCell],
+              trimPlacement: junction.trimPlacement,
+              cellOhms: junction.cellOhms,
+              summingOhms: junction.summingOhms,
+              meterOhms: Number.isFinite(junction.meterOhms) ? junction.meterOhms : null,
+              spanFactorPerVoltPerVolt: s.spanFactor,
+              positionRatios: s.trims.positionRatios,
+              positionSpreadFraction: s.trims.positionSpreadFraction,
+              checks: s.trims.checks.map((c, k) => ({
+                position: checkNames[k],
+                ratio: c.ratio,
+                differenceFraction: c.differenceFraction,
+              })),
+            },
       factors: g.factors.factors,
       condition: g.factors.condition,
       positions: g.positions.map((name, p) => ({

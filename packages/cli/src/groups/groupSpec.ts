@@ -6,7 +6,7 @@
  */
 import { closestName, formatValue, type SpecIssue } from '@bridgework/core';
 import { interactionTermChoices, instrumentAccuracyClasses } from '@bridgework/calibration';
-import type { InstrumentAccuracyClass, InteractionTerms } from '@bridgework/calibration';
+import type { InstrumentAccuracyClass, InteractionTerms, TrimPlacement } from '@bridgework/calibration';
 import { dimensionTable, dimensions, parseQuantity, type Dimension } from '@bridgework/channel';
 import { channelNamePattern } from '../channelFile/loadChannelFile.js';
 import { reservedNames } from '../channelFile/parseChannelDocument.js';
@@ -39,18 +39,77 @@ export interface MultiComponentGroupSpec {
   readonly bridges: readonly string[];
   /** The load components, in file order. */
   readonly components: readonly GroupComponent[];
-  /** The calibration. */
-  readonly calibration: {
-    /** The loading-schedule file (CSV), relative to the channel file. */
-    readonly schedule: string;
-    /** The second-order terms the model may hold. */
-    readonly interactions: InteractionTerms;
-    /** Whether a zero offset per bridge is fitted. */
-    readonly offset: boolean;
-    /** The term-rejection tolerance, when given. */
-    readonly independenceTolerance?: number;
-  };
+  /** The calibration: fitted to a loading schedule when the file is read, or stored coefficients. */
+  readonly calibration: ScheduleCalibrationSpec | StoredCalibrationSpec;
 }
+
+/** A calibration fitted to a loading schedule each time the file is read. */
+export interface ScheduleCalibrationSpec {
+  /** The form. */
+  readonly form: 'schedule';
+  /** The loading-schedule file (CSV), relative to the channel file. */
+  readonly schedule: string;
+  /** The second-order terms the model may hold. */
+  readonly interactions: InteractionTerms;
+  /** Whether a zero offset per bridge is fitted. */
+  readonly offset: boolean;
+  /** The term-rejection tolerance, when given. */
+  readonly independenceTolerance?: number;
+}
+
+/** Where stored coefficients came from (written by `fit-group`, or by hand). */
+export interface StoredCalibrationSource {
+  /** The loading-schedule file, as given to the command. */
+  readonly schedule?: string;
+  /** SHA-256 of its bytes. */
+  readonly scheduleSha256?: string;
+  /** Its number of load points. */
+  readonly points?: number;
+  /** The second-order terms the fit was allowed. */
+  readonly interactions?: InteractionTerms;
+  /** When the calibration was made (ISO 8601 date or date and time). */
+  readonly date?: string;
+  /** Who, with what, why (free text). */
+  readonly note?: string;
+}
+
+/** Coefficients calibrated elsewhere (or by `fit-group` on another day), stored in the file. */
+export interface StoredCalibrationSpec {
+  /** The form. */
+  readonly form: 'stored';
+  /** The unit of the readings the coefficients give (one unit for every bridge); each bridge's channel unit when absent. */
+  readonly readingUnit?: string;
+  /** The terms of the coefficient columns, by name (`1`, `Fx`, `Fx²` or `Fx^2`, `Fx·My` or `Fx*My`). */
+  readonly terms: readonly string[];
+  /** One row per bridge, in the order of `bridges`: reading_i = Σ_t b_it·g_t(F). */
+  readonly coefficients: readonly (readonly unknown[])[];
+  /** The fit's covariance, when known: (AᵀA)⁻¹ over the terms and Σ over the readings. */
+  readonly covariance?: {
+    /** (AᵀA)⁻¹ (T×T). */
+    readonly terms: unknown;
+    /** Σ (N×N), in the reading unit squared. */
+    readonly readings: unknown;
+    /** Degrees of freedom of Σ. */
+    readonly degreesOfFreedom?: number;
+  };
+  /** Where the coefficients came from. */
+  readonly source?: StoredCalibrationSource;
+}
+
+/** An analog summing junction: each cell's excitation through a trim resistor, the signals paralleled onto two buses. */
+export interface SummingSpec {
+  /** Each cell's bridge resistance, Ω (one per cell). */
+  readonly cellOhms: readonly number[];
+  /** Where the trims sit: split between +E and −E (default), or all in +E. */
+  readonly trimPlacement: TrimPlacement;
+  /** The resistor from each cell's +S and −S to the buses, Ω (0: paralleled directly). */
+  readonly summingOhms: number;
+  /** The indicator's input resistance across the buses, Ω (Infinity: open). */
+  readonly meterOhms: number;
+}
+
+/** The trim placements of an analog summing junction. */
+export const trimPlacements = ['both-excitation', 'positive-excitation'] as const;
 
 /** A platform group: load cells summed with per-cell factors from an eccentricity (corner) test. */
 export interface PlatformGroupSpec {
@@ -62,6 +121,8 @@ export interface PlatformGroupSpec {
   readonly bridges: readonly string[];
   /** The platform's indication (one component). */
   readonly indication: GroupComponent;
+  /** An analog summing junction whose trims the eccentricity test sets (digital summing without it). */
+  readonly summing?: SummingSpec;
   /** The eccentricity test and the R 76 check. */
   readonly eccentricity: {
     /** The test file (CSV: a `position` column and one column per cell), relative to the channel file. */
@@ -250,8 +311,185 @@ function bridgeList(
 
 const groupKeys = {
   'multi-component': ['kind', 'bridges', 'components', 'calibration'],
-  platform: ['kind', 'bridges', 'indication', 'eccentricity'],
+  platform: ['kind', 'bridges', 'indication', 'eccentricity', 'summing'],
 } as const;
+
+function interactionChoice(list: IssueList, path: string, value: unknown): InteractionTerms | undefined {
+  if (value === undefined) return 'none';
+  if (!interactionTermChoices.includes(value as InteractionTerms)) {
+    list.add(path, `must be one of ${interactionTermChoices.join(', ')}; got ${formatValue(value)}`, {
+      code: 'invalid-option',
+    });
+    return undefined;
+  }
+  return value as InteractionTerms;
+}
+
+/** The keys of a stored calibration. */
+const storedKeys = ['readingUnit', 'terms', 'coefficients', 'covariance', 'source'] as const;
+const sourceKeys = ['schedule', 'scheduleSha256', 'points', 'interactions', 'date', 'note'] as const;
+
+function storedCalibration(
+  list: IssueList,
+  cal: Record<string, unknown>,
+  cat: string,
+  bridges: readonly string[] | undefined,
+  components: readonly GroupComponent[],
+  componentsOk: boolean,
+): StoredCalibrationSpec | undefined {
+  const before = list.issues.length;
+  list.unknown(cal, storedKeys, cat);
+  if (cal['schedule'] !== undefined)
+    list.add(
+      `${cat}.schedule`,
+      'cannot be given with stored coefficients: the calibration is either fitted to a schedule when the file is read, or stored',
+      {
+        code: 'conflicting-options',
+        suggestion: "keep 'schedule' (fit when read) or 'terms' and 'coefficients' (stored), not both",
+      },
+    );
+  list.required(
+    cal,
+    ['terms', 'coefficients'],
+    cat,
+    'stored coefficients need their terms and one row per bridge',
+  );
+  const terms = cal['terms'];
+  if (
+    terms !== undefined &&
+    !(
+      Array.isArray(terms) &&
+      terms.length > 0 &&
+      terms.every((t) => typeof t === 'string' || typeof t === 'number')
+    )
+  )
+    list.add(
+      `${cat}.terms`,
+      `must be a list of term names ('1', a component, 'Fx^2', 'Fx*My'); got ${formatValue(terms)}`,
+      {
+        code: 'invalid-shape',
+      },
+    );
+  const termCount = Array.isArray(terms) ? terms.length : 0;
+  const unit = cal['readingUnit'];
+  if (unit !== undefined && (typeof unit !== 'string' || unit.trim() === ''))
+    list.add(`${cat}.readingUnit`, `must be a unit such as 'mV/V'; got ${formatValue(unit)}`, {
+      code: 'wrong-type',
+    });
+  const rows: unknown[][] = [];
+  const coefficients = cal['coefficients'];
+  if (coefficients !== undefined) {
+    if (!isRecord(coefficients)) {
+      list.add(
+        `${cat}.coefficients`,
+        `must map each bridge to its row of coefficients (one per term); got ${formatValue(coefficients)}`,
+        {
+          code: 'invalid-shape',
+        },
+      );
+    } else if (bridges !== undefined) {
+      list.unknown(coefficients, bridges, `${cat}.coefficients`);
+      for (const b of bridges) {
+        const row = coefficients[b];
+        if (row === undefined) {
+          list.add(
+            `${cat}.coefficients.${b}`,
+            'is required: one coefficient per term for each bridge of the group',
+            {
+              code: 'missing-option',
+            },
+          );
+        } else if (!Array.isArray(row) || (termCount > 0 && row.length !== termCount)) {
+          list.add(
+            `${cat}.coefficients.${b}`,
+            `must be a list of ${termCount} numbers, one per term; got ${formatValue(row)}`,
+            {
+              code: 'invalid-shape',
+              limit: `${termCount} numbers`,
+            },
+          );
+        } else rows.push(row as unknown[]);
+      }
+    }
+  }
+  const cov = cal['covariance'];
+  let covariance: StoredCalibrationSpec['covariance'];
+  if (cov !== undefined) {
+    if (!isRecord(cov)) {
+      list.add(
+        `${cat}.covariance`,
+        `must be a mapping with 'terms' and 'readings' (matrices); got ${formatValue(cov)}`,
+        {
+          code: 'invalid-shape',
+        },
+      );
+    } else {
+      list.unknown(cov, ['terms', 'readings', 'degreesOfFreedom'], `${cat}.covariance`);
+      list.required(
+        cov,
+        ['terms', 'readings'],
+        `${cat}.covariance`,
+        'the covariance is (AᵀA)⁻¹ over the terms and Σ over the readings',
+      );
+      const dof = cov['degreesOfFreedom'];
+      if (dof !== undefined && !(typeof dof === 'number' && dof > 0))
+        list.add(`${cat}.covariance.degreesOfFreedom`, `must be a number > 0; got ${formatValue(dof)}`, {
+          code: 'out-of-range',
+          limit: '> 0',
+        });
+      covariance = {
+        terms: cov['terms'],
+        readings: cov['readings'],
+        ...(typeof dof === 'number' ? { degreesOfFreedom: dof } : {}),
+      };
+    }
+  }
+  const src = cal['source'];
+  let source: StoredCalibrationSource | undefined;
+  if (src !== undefined) {
+    if (!isRecord(src)) {
+      list.add(
+        `${cat}.source`,
+        `must be a mapping (schedule, scheduleSha256, points, interactions, date, note); got ${formatValue(src)}`,
+        {
+          code: 'invalid-shape',
+        },
+      );
+    } else {
+      list.unknown(src, sourceKeys, `${cat}.source`);
+      for (const k of ['schedule', 'scheduleSha256', 'date', 'note'] as const) {
+        if (src[k] !== undefined && typeof src[k] !== 'string')
+          list.add(`${cat}.source.${k}`, `must be a text; got ${formatValue(src[k])}`, {
+            code: 'wrong-type',
+          });
+      }
+      if (src['points'] !== undefined && !(Number.isInteger(src['points']) && (src['points'] as number) > 0))
+        list.add(`${cat}.source.points`, `must be a whole number > 0; got ${formatValue(src['points'])}`, {
+          code: 'not-integer',
+        });
+      const interactions = interactionChoice(list, `${cat}.source.interactions`, src['interactions']);
+      source = {
+        ...(src as StoredCalibrationSource),
+        ...(src['interactions'] === undefined || interactions === undefined ? {} : { interactions }),
+      };
+    }
+  }
+  if (componentsOk && components.some((c) => c.fullScale === undefined))
+    list.add(
+      `${cat.replace(/\.calibration$/, '')}.components`,
+      'needs a fullScale for every component with stored coefficients (there is no schedule to take it from)',
+      { code: 'missing-option', suggestion: "give each component a fullScale, such as '2 kN'" },
+    );
+  if (list.issues.length > before || bridges === undefined) return undefined;
+  return {
+    form: 'stored',
+    ...(typeof unit === 'string' ? { readingUnit: unit.trim() } : {}),
+    terms: (terms as (string | number)[]).map(String),
+    coefficients: rows,
+    ...(covariance === undefined ? {} : { covariance }),
+    ...(source === undefined ? {} : { source }),
+  };
+}
 
 function multiComponent(
   list: IssueList,
@@ -329,27 +567,25 @@ function multiComponent(
   const cat = `${at}.calibration`;
   let calibration: MultiComponentGroupSpec['calibration'] | undefined;
   if (!isRecord(cal)) {
-    list.add(cat, `must be a mapping with 'schedule' (a loading-schedule file); got ${formatValue(cal)}`, {
-      code: 'invalid-shape',
-    });
+    list.add(
+      cat,
+      `must be a mapping with 'schedule' (a loading-schedule file) or 'terms' and 'coefficients' (stored coefficients); got ${formatValue(cal)}`,
+      { code: 'invalid-shape' },
+    );
+  } else if (cal['coefficients'] !== undefined || cal['terms'] !== undefined) {
+    calibration = storedCalibration(list, cal, cat, bridges, components, componentsOk);
   } else {
     list.unknown(cal, ['schedule', 'interactions', 'offset', 'independenceTolerance'], cat);
     if (
-      list.required(cal, ['schedule'], cat, 'the loading-schedule file (CSV) the calibration is fitted to')
+      list.required(
+        cal,
+        ['schedule'],
+        cat,
+        "the loading-schedule file (CSV) the calibration is fitted to (or 'terms' and 'coefficients' for stored coefficients)",
+      )
     ) {
       const schedule = fileName(list, `${cat}.schedule`, cal['schedule'], 'a loading-schedule file (CSV)');
-      let interactions: InteractionTerms = 'none';
-      if (cal['interactions'] !== undefined) {
-        if (!interactionTermChoices.includes(cal['interactions'] as InteractionTerms)) {
-          list.add(
-            `${cat}.interactions`,
-            `must be one of ${interactionTermChoices.join(', ')}; got ${formatValue(cal['interactions'])}`,
-            {
-              code: 'invalid-option',
-            },
-          );
-        } else interactions = cal['interactions'] as InteractionTerms;
-      }
+      const interactions = interactionChoice(list, `${cat}.interactions`, cal['interactions']);
       if (cal['offset'] !== undefined && typeof cal['offset'] !== 'boolean')
         list.add(`${cat}.offset`, `must be true or false; got ${formatValue(cal['offset'])}`, {
           code: 'wrong-type',
@@ -360,8 +596,9 @@ function multiComponent(
           code: 'out-of-range',
           limit: '(0, 0.1]',
         });
-      if (schedule !== undefined)
+      if (schedule !== undefined && interactions !== undefined)
         calibration = {
+          form: 'schedule',
           schedule,
           interactions,
           offset: cal['offset'] !== false,
@@ -371,6 +608,92 @@ function multiComponent(
   }
   if (bridges === undefined || !componentsOk || calibration === undefined) return undefined;
   return { kind: 'multi-component', name, bridges, components, calibration };
+}
+
+function summingJunction(
+  list: IssueList,
+  at: string,
+  raw: unknown,
+  bridges: readonly string[] | undefined,
+): SummingSpec | undefined {
+  if (!isRecord(raw)) {
+    list.add(
+      at,
+      `must be a mapping with 'cellOhms' (the cells' bridge resistance); got ${formatValue(raw)}`,
+      {
+        code: 'invalid-shape',
+      },
+    );
+    return undefined;
+  }
+  const before = list.issues.length;
+  list.unknown(raw, ['cellOhms', 'trimPlacement', 'summingOhms', 'meterOhms'], at);
+  if (
+    !list.required(
+      raw,
+      ['cellOhms'],
+      at,
+      "each cell's bridge resistance, such as '350 Ω' (one for all, or a list)",
+    )
+  )
+    return undefined;
+  const ohms = (path: string, value: unknown): number | undefined => {
+    const v = quantity(list, path, value, 'Ω', true);
+    if (v !== undefined && (v < 1e-3 || v > 1e12)) {
+      list.add(path, `${formatValue(value)} is outside 1 mΩ … 1 TΩ`, {
+        code: 'out-of-range',
+        limit: '1 mΩ … 1 TΩ',
+      });
+      return undefined;
+    }
+    return v;
+  };
+  const raws = raw['cellOhms'];
+  let cellOhms: number[] | undefined;
+  if (Array.isArray(raws)) {
+    if (bridges !== undefined && raws.length !== bridges.length)
+      list.add(`${at}.cellOhms`, `lists ${raws.length} resistances for ${bridges.length} cells`, {
+        code: 'invalid-shape',
+        suggestion: 'give one resistance per cell, or one for all',
+      });
+    else {
+      const values = raws.map((v, i) => ohms(`${at}.cellOhms[${i}]`, v));
+      if (values.every((v) => v !== undefined)) cellOhms = values as number[];
+    }
+  } else {
+    const one = ohms(`${at}.cellOhms`, raws);
+    if (one !== undefined && bridges !== undefined) cellOhms = bridges.map(() => one);
+  }
+  const placement = raw['trimPlacement'] ?? 'both-excitation';
+  if (!trimPlacements.includes(placement as TrimPlacement))
+    list.add(
+      `${at}.trimPlacement`,
+      `must be one of ${trimPlacements.join(', ')}; got ${formatValue(placement)}`,
+      {
+        code: 'invalid-option',
+      },
+    );
+  let summingOhms = 0;
+  if (raw['summingOhms'] !== undefined) {
+    const v = quantity(list, `${at}.summingOhms`, raw['summingOhms'], 'Ω', false);
+    if (v !== undefined && !(v >= 0 && v <= 1e12))
+      list.add(
+        `${at}.summingOhms`,
+        `must be ≥ 0 Ω and at most 1 TΩ; got ${formatValue(raw['summingOhms'])}`,
+        {
+          code: 'out-of-range',
+          limit: '0 … 1 TΩ',
+        },
+      );
+    else if (v !== undefined) summingOhms = v;
+  }
+  let meterOhms = Infinity;
+  if (raw['meterOhms'] !== undefined && raw['meterOhms'] !== 'open') {
+    const v = ohms(`${at}.meterOhms`, raw['meterOhms']);
+    if (v !== undefined) meterOhms = v;
+  }
+  if (list.issues.length > before || cellOhms === undefined) return undefined;
+  return { cellOhms, trimPlacement: placement as TrimPlacement, summingOhms, meterOhms };
 }
 
 function platform(
@@ -515,8 +838,20 @@ function platform(
       }
     }
   }
+  const summing =
+    raw['summing'] === undefined
+      ? undefined
+      : summingJunction(list, `${at}.summing`, raw['summing'], bridges);
   if (bridges === undefined || indication === undefined || eccentricity === undefined) return undefined;
-  return { kind: 'platform', name, bridges, indication, eccentricity };
+  if (raw['summing'] !== undefined && summing === undefined) return undefined;
+  return {
+    kind: 'platform',
+    name,
+    bridges,
+    indication,
+    eccentricity,
+    ...(summing === undefined ? {} : { summing }),
+  };
 }
 
 /**
@@ -526,8 +861,11 @@ function platform(
  * `groups` maps a group name (the pattern of channel names, distinct from every channel name) to
  * a group: `kind` (`multi-component`, the default, or `platform`), `bridges` (names of channels of
  * the file), and for a multi-component group `components` (name → `{ unit, fullScale }`) and
- * `calibration` (`schedule`, `interactions`, `offset`, `independenceTolerance`); for a platform
- * `indication` (`{ name, unit }`) and `eccentricity` (`test`, `testLoad`, `checkPositions`,
+ * `calibration`, either fitted when read (`schedule`, `interactions`, `offset`,
+ * `independenceTolerance`) or stored (`terms`, `coefficients` per bridge, `readingUnit`,
+ * `covariance`, `source`; every component then needs a `fullScale`); for a platform
+ * `indication` (`{ name, unit }`), optionally `summing` (an analog junction: `cellOhms`,
+ * `trimPlacement`, `summingOhms`, `meterOhms`) and `eccentricity` (`test`, `testLoad`, `checkPositions`,
  * `accuracyClass`, `maxCapacity`, `verificationInterval`, `supportPoints`). Every problem is an
  * issue with its full field path (`groups.coupling.components.Fx.unit`).
  *

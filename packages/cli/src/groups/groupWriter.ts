@@ -1,3 +1,4 @@
+import { summingNetworkRatio } from '@bridgework/calibration';
 import { BridgeworkError, closestName, isBridgeworkError } from '@bridgework/core';
 import type { ConvertedBlock, RecordingWriter } from '../data/convertRecording.js';
 import type { ChannelColumn } from '../data/recordingColumns.js';
@@ -50,11 +51,13 @@ function quantityOf(group: LoadedGroup, c: number): string {
  * A multi-component group's components are the calibration's inverse of its bridges' readings
  * (the calibration package's `createInverse().convert`: direct for the linear model; the
  * fixed-point or Newton iteration of AIAA R-091 with its stated tolerance otherwise), in each
- * component's unit; a platform's indication is Σ k_i·r_i. The readings are the channels' values
+ * component's unit; a platform's indication is Σ k_i·r_i, or with an analog summing junction
+ * k·(the junction's output solved through its network for the cells' own ratios, with the trims).
+ * The readings are the channels' values
  * in their own units (what the group was calibrated in), before any display factor. A frame in
  * which a bridge's reading is flagged (NaN), or whose readings the model cannot explain (the
  * iteration does not converge), gives NaN components, counted per component. Nothing is allocated
- * per sample.
+ * per sample (but for the analog junction's network solve, which makes a few small arrays).
  *
  * @param options - Groups, names, whether to drop the bridges, the recording's columns.
  * @returns The plan.
@@ -121,14 +124,22 @@ export function planGroupOutput(options: GroupOutputOptions): GroupOutputPlan {
             group: g.spec.name,
             kind: 'platform',
             bridges: g.spec.bridges,
-            factors: g.factors.factors,
+            ...(g.summing === undefined
+              ? { factors: g.factors.factors }
+              : {
+                  summing: 'analog',
+                  trimsOhms: g.summing.trims.trimsOhms,
+                  spanFactor: g.summing.spanFactor,
+                }),
             column: `${g.spec.name}.${g.spec.indication.name}`,
           }
         : {
             group: g.spec.name,
             kind: 'multi-component',
             bridges: g.spec.bridges,
-            schedule: g.spec.calibration.schedule,
+            ...(g.spec.calibration.form === 'schedule'
+              ? { schedule: g.spec.calibration.schedule }
+              : { storedCoefficients: true, source: g.spec.calibration.source ?? null }),
             terms: g.calibration.terms.map((t) => t.name),
             inverse: g.calibration.createInverse().method,
             columns: g.spec.components.map((c) => `${g.spec.name}.${c.name}`),
@@ -148,6 +159,44 @@ export function planGroupOutput(options: GroupOutputOptions): GroupOutputPlan {
       const solvers = chosen.map((g, gi) => {
         const lanes = lanesOf[gi] as number[];
         const nb = lanes.length;
+        if (g.kind === 'platform' && g.summing !== undefined && g.spec.summing !== undefined) {
+          // The analog junction's indication, W = k·(the junction's output for these cells' own
+          // ratios), solved through the network (calibration summingNetworkRatio) per frame; a
+          // frame with a cell at a rail (NaN) or beyond a bridge's ratio range gives NaN.
+          const junction = g.spec.summing;
+          const { spanFactor, ratioPerReading } = g.summing;
+          const trimsOhms = g.summing.trims.trimsOhms;
+          const ratios = new Array<number>(nb).fill(0);
+          return (values: Float64Array, frames: number, target: number): void => {
+            const base = target * stride;
+            let bad = 0;
+            for (let f = 0; f < frames; f++) {
+              let ok = true;
+              for (let i = 0; i < nb; i++) {
+                const x =
+                  (values[(lanes[i] as number) * inStride + f] as number) * (ratioPerReading[i] as number);
+                if (!(Math.abs(x) < 0.5)) ok = false;
+                ratios[i] = x;
+              }
+              const w = ok
+                ? spanFactor *
+                  summingNetworkRatio({
+                    cellOhms: junction.cellOhms,
+                    trimPlacement: junction.trimPlacement,
+                    summingOhms: junction.summingOhms,
+                    meterOhms: junction.meterOhms,
+                    trimsOhms,
+                    cellRatios: ratios,
+                  })
+                : NaN;
+              out[base + f] = w;
+              if (w !== w) bad++;
+            }
+            rejected[target] = bad;
+            const key = columns[target]?.name as string;
+            flagged.set(key, (flagged.get(key) as number) + bad);
+          };
+        }
         if (g.kind === 'platform') {
           const k = Float64Array.from(g.factors.factors);
           return (values: Float64Array, frames: number, target: number): void => {

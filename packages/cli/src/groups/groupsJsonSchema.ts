@@ -22,9 +22,92 @@ export function groupsJsonSchema(): Record<string, unknown> {
     minItems: 1,
     maxItems: MAX_GROUP_BRIDGES,
   };
+  const scheduleCalibration = {
+    type: 'object',
+    description: 'A calibration fitted to a loading schedule each time the file is read',
+    additionalProperties: false,
+    required: ['schedule'],
+    properties: {
+      schedule: text('The loading-schedule file (CSV), relative to the channel file'),
+      interactions: {
+        enum: [...interactionTermChoices],
+        description: 'Second-order terms of the model (AIAA R-091); default none',
+      },
+      offset: { type: 'boolean', description: 'Fit a zero offset per bridge; default true' },
+      independenceTolerance: {
+        type: 'number',
+        exclusiveMinimum: 0,
+        maximum: 0.1,
+        description: 'A term whose independent part is at or below this is rejected; default 1e-7',
+      },
+    },
+  };
+  const numberMatrix = (description: string) => ({
+    type: 'array',
+    description,
+    items: { type: 'array', items: { type: 'number' } },
+  });
+  const storedCalibration = {
+    type: 'object',
+    description:
+      'Stored coefficients (a sensor calibrated elsewhere, or written by bridgework fit-group); every component needs a fullScale',
+    additionalProperties: false,
+    required: ['terms', 'coefficients'],
+    properties: {
+      readingUnit: text(
+        "The unit of the readings the coefficients give (mV/V, V/V, …), one for every bridge; default each bridge channel's unit",
+      ),
+      terms: {
+        type: 'array',
+        description:
+          "The terms of the coefficient columns: '1', a component, 'Fx^2' (or Fx²), 'Fx*My' (or Fx·My)",
+        items: { type: ['string', 'number'] },
+        minItems: 1,
+      },
+      coefficients: {
+        type: 'object',
+        description:
+          "Bridge → its coefficients, one per term: reading = Σ b_t·g_t(F), loads in the components' units",
+        propertyNames: { pattern: channelNamePattern.source },
+        additionalProperties: { type: 'array', items: { type: 'number' } },
+      },
+      covariance: {
+        type: 'object',
+        description: "The fit's covariance: Cov(b_i, b_k) = Σ_ik·(AᵀA)⁻¹",
+        additionalProperties: false,
+        required: ['terms', 'readings'],
+        properties: {
+          terms: numberMatrix('(AᵀA)⁻¹ over the terms (T×T)'),
+          readings: numberMatrix('Σ over the readings (N×N), in the reading unit squared'),
+          degreesOfFreedom: {
+            type: 'number',
+            exclusiveMinimum: 0,
+            description: 'Degrees of freedom of Σ; default infinite',
+          },
+        },
+      },
+      source: {
+        type: 'object',
+        description: 'Where the coefficients came from',
+        additionalProperties: false,
+        properties: {
+          schedule: text('The loading-schedule file, as given to the command'),
+          scheduleSha256: text("SHA-256 of the schedule file's bytes"),
+          points: { type: 'integer', minimum: 1, description: 'Its number of load points' },
+          interactions: {
+            enum: [...interactionTermChoices],
+            description: 'The second-order terms the fit was allowed',
+          },
+          date: text('When the calibration was made (ISO 8601 date or date and time)'),
+          note: text('Who, with what, why (free text)'),
+        },
+      },
+    },
+  };
   const multiComponent = {
     type: 'object',
-    description: 'Bridges mapped to load components by a calibration fitted to a loading schedule',
+    description:
+      'Bridges mapped to load components by a calibration (fitted to a loading schedule, or stored coefficients)',
     additionalProperties: false,
     required: ['bridges', 'components', 'calibration'],
     properties: {
@@ -37,6 +120,7 @@ export function groupsJsonSchema(): Record<string, unknown> {
         propertyNames: { pattern: componentNamePattern.source },
         additionalProperties: {
           type: 'object',
+          description: 'One load component: its unit and full scale',
           additionalProperties: false,
           required: ['unit'],
           properties: {
@@ -45,25 +129,7 @@ export function groupsJsonSchema(): Record<string, unknown> {
           },
         },
       },
-      calibration: {
-        type: 'object',
-        additionalProperties: false,
-        required: ['schedule'],
-        properties: {
-          schedule: text('The loading-schedule file (CSV), relative to the channel file'),
-          interactions: {
-            enum: [...interactionTermChoices],
-            description: 'Second-order terms of the model (AIAA R-091); default none',
-          },
-          offset: { type: 'boolean', description: 'Fit a zero offset per bridge; default true' },
-          independenceTolerance: {
-            type: 'number',
-            exclusiveMinimum: 0,
-            maximum: 0.1,
-            description: 'A term whose independent part is at or below this is rejected; default 1e-7',
-          },
-        },
-      },
+      calibration: { oneOf: [scheduleCalibration, storedCalibration] },
     },
   };
   const platform = {
@@ -73,9 +139,10 @@ export function groupsJsonSchema(): Record<string, unknown> {
     required: ['kind', 'bridges', 'indication', 'eccentricity'],
     properties: {
       kind: { const: 'platform', description: 'The kind of group' },
-      bridges,
+      bridges: { ...bridges, description: 'The load cells: names of channels of this file', minItems: 2 },
       indication: {
         type: 'object',
+        description: "The platform's indication: its name (a data column's) and unit",
         additionalProperties: false,
         required: ['name', 'unit'],
         properties: {
@@ -87,8 +154,35 @@ export function groupsJsonSchema(): Record<string, unknown> {
           unit: text("The indication's unit (kg, t, N, …)"),
         },
       },
+      summing: {
+        type: 'object',
+        description:
+          'An analog summing junction whose trim resistors the eccentricity test sets (without it the cells are summed digitally with factors)',
+        additionalProperties: false,
+        required: ['cellOhms'],
+        properties: {
+          cellOhms: {
+            type: ['number', 'string', 'array'],
+            items: { type: ['number', 'string'] },
+            description:
+              "Each cell's bridge resistance: one for every cell, or a list (a number in Ω, or a text with a unit)",
+          },
+          trimPlacement: {
+            enum: ['both-excitation', 'positive-excitation'],
+            description: "Where each cell's trim sits: split between +E and −E (default), or all in +E",
+          },
+          summingOhms: quantity(
+            "The resistor from each cell's +S and −S to the buses; default 0 (paralleled directly)",
+          ),
+          meterOhms: {
+            type: ['number', 'string'],
+            description: "The indicator's input resistance across the buses; default 'open'",
+          },
+        },
+      },
       eccentricity: {
         type: 'object',
+        description: 'The eccentricity (corner) test that sets the cell factors, and the OIML R 76 check',
         additionalProperties: false,
         required: ['test', 'testLoad', 'accuracyClass', 'maxCapacity', 'verificationInterval'],
         properties: {

@@ -1,19 +1,29 @@
 import { dirname, resolve } from 'node:path';
 import {
   checkEccentricity,
+  createMultiComponentModel,
   fitCornerFactors,
   fitMultiComponent,
+  fitSummingTrims,
   type CheckResult,
   type CornerFactors,
   type EccentricityCheck,
   type LoadingPoint,
   type MultiComponentCalibration,
+  type MultiComponentModel,
+  type SummingTrims,
 } from '@bridgework/calibration';
-import { createChannel, type Channel } from '@bridgework/channel';
+import { createChannel, parseQuantity, type Channel } from '@bridgework/channel';
 import { BridgeworkError, isBridgeworkError, type SpecIssue } from '@bridgework/core';
 import { formatIssues } from '../channelFile/formatIssues.js';
 import type { LoadedChannels } from '../channels/loadChannels.js';
-import { validateGroups, type MultiComponentGroupSpec, type PlatformGroupSpec } from './groupSpec.js';
+import {
+  validateGroups,
+  type MultiComponentGroupSpec,
+  type PlatformGroupSpec,
+  type ScheduleCalibrationSpec,
+  type StoredCalibrationSpec,
+} from './groupSpec.js';
 import { readGroupTable } from './readGroupTable.js';
 
 /** One bridge of a group: its channel, whose converted values are the group's readings. */
@@ -26,7 +36,7 @@ export interface GroupBridge {
   readonly unit: string;
 }
 
-/** A multi-component group with its fitted calibration. */
+/** A multi-component group with its calibration (fitted to its schedule, or from stored coefficients). */
 export interface MultiComponentGroup {
   /** The kind. */
   readonly kind: 'multi-component';
@@ -34,10 +44,17 @@ export interface MultiComponentGroup {
   readonly spec: MultiComponentGroupSpec;
   /** The bridges, in the order of the readings. */
   readonly bridges: readonly GroupBridge[];
-  /** The loading schedule as read (loads in each component's unit, readings in each bridge's unit). */
-  readonly points: readonly LoadingPoint[];
-  /** The calibration fitted to it. */
-  readonly calibration: MultiComponentCalibration;
+  /** The model: coefficients, load matrix, inverse, uncertainty (in each component's and bridge's unit). */
+  readonly calibration: MultiComponentModel;
+  /** The fit, when the calibration is fitted to a schedule as the file is read. */
+  readonly fit?: {
+    /** The loading schedule as read (loads in each component's unit, readings in each bridge's unit). */
+    readonly points: readonly LoadingPoint[];
+    /** The fitted calibration (the same object as `calibration`). */
+    readonly calibration: MultiComponentCalibration;
+    /** The schedule form of the spec. */
+    readonly spec: ScheduleCalibrationSpec;
+  };
 }
 
 /** A platform group with its corner factors and the R 76 eccentricity check. */
@@ -58,6 +75,22 @@ export interface PlatformGroup {
   readonly indications: readonly number[];
   /** The OIML R 76 eccentricity check of those indications. */
   readonly eccentricity: CheckResult<EccentricityCheck>;
+  /**
+   * With an analog summing junction: its trims (solved through the network exactly), the
+   * indicator's span factor and each cell's reading-to-ratio factor; the indications are then the
+   * junction's (`factors` stays the digital solution, for comparison).
+   */
+  readonly summing?: AnalogSumming;
+}
+
+/** An analog summing junction's trims and scale (see {@link PlatformGroup.summing}). */
+export interface AnalogSumming {
+  /** The trims, the reference cell, each position's summed output (V/V of the supply), the checks. */
+  readonly trims: SummingTrims;
+  /** The indicator's span factor: indication unit per V/V of summed output (the test load over the fitted positions' mean output). */
+  readonly spanFactor: number;
+  /** Each cell's V/V per unit of its channel's reading (1000 for mV/V). */
+  readonly ratioPerReading: readonly number[];
 }
 
 /** A group of a channel file, ready to use. */
@@ -66,7 +99,15 @@ export type LoadedGroup = MultiComponentGroup | PlatformGroup;
 /** The position name of a test file's row that holds the unloaded platform's readings. */
 export const ZERO_POSITION = 'zero';
 
-function channelFor(loaded: LoadedChannels, name: string): GroupBridge {
+/**
+ * A bridge of a group: the named channel of the file, as made by the loader (or made here when
+ * the loader selected other channels).
+ *
+ * @param loaded - The channel file.
+ * @param name - The channel's name.
+ * @returns The bridge.
+ */
+export function groupBridge(loaded: LoadedChannels, name: string): GroupBridge {
   const made = loaded.channels.find((c) => c.name === name);
   const channel =
     made?.channel ??
@@ -90,15 +131,167 @@ function fitIssue(path: string, file: string, e: unknown): SpecIssue {
   };
 }
 
+/** The parameter of a stored model's error, as the path of the field in the file. */
+function storedPath(spec: MultiComponentGroupSpec, param: string | undefined): string {
+  const at = `groups.${spec.name}.calibration`;
+  if (param === undefined) return at;
+  const row = /^coefficients\[(\d+)\](.*)$/.exec(param);
+  if (row !== null) return `${at}.coefficients.${spec.bridges[Number(row[1])] ?? row[1]}${row[2] ?? ''}`;
+  if (param === 'fullScale' || param.startsWith('fullScale['))
+    return `groups.${spec.name}.components.${spec.components[Number(/\[(\d+)\]/.exec(param)?.[1] ?? 0)]?.name}.fullScale`;
+  return `${at}.${param.replace(/^covariance\.unitCovariance/, 'covariance.terms').replace(/^covariance\.readingCovariance/, 'covariance.readings')}`;
+}
+
+/**
+ * A stored calibration: the coefficients (and covariance) converted from `readingUnit` to each
+ * bridge's unit, through the calibration package's `createMultiComponentModel`.
+ */
+function storedModel(
+  spec: MultiComponentGroupSpec,
+  stored: StoredCalibrationSpec,
+  bridges: readonly GroupBridge[],
+  issues: SpecIssue[],
+): MultiComponentModel | undefined {
+  const at = `groups.${spec.name}.calibration`;
+  let factors = bridges.map(() => 1);
+  if (stored.readingUnit !== undefined) {
+    const unit = stored.readingUnit;
+    try {
+      factors = bridges.map((b) => parseQuantity(`1 ${unit}`, b.unit));
+    } catch {
+      issues.push({
+        code: 'invalid-option',
+        path: `${at}.readingUnit`,
+        message: `'${unit}' is not a unit of every bridge's reading (${[...new Set(bridges.map((b) => b.unit))].join(', ')})`,
+        suggestion:
+          "give the unit the coefficients' readings are in, of the bridges' quantity (such as 'mV/V')",
+      });
+      return undefined;
+    }
+  }
+  const scale = (row: readonly unknown[], f: number): unknown[] =>
+    row.map((v) => (typeof v === 'number' ? v * f : v));
+  const scaledMatrix = (value: unknown): unknown =>
+    Array.isArray(value)
+      ? value.map((row, i) =>
+          Array.isArray(row)
+            ? row.map((v, k) => (typeof v === 'number' ? v * (factors[i] ?? 1) * (factors[k] ?? 1) : v))
+            : row,
+        )
+      : value;
+  try {
+    return createMultiComponentModel({
+      components: spec.components.map((c) => c.name),
+      bridges: spec.bridges,
+      terms: stored.terms,
+      coefficients: stored.coefficients.map((row, i) => scale(row, factors[i] as number)) as number[][],
+      fullScale: spec.components.map((c) => c.fullScale as number),
+      ...(stored.covariance === undefined
+        ? {}
+        : {
+            covariance: {
+              unitCovariance: stored.covariance.terms as number[][],
+              readingCovariance: scaledMatrix(stored.covariance.readings) as number[][],
+              ...(stored.covariance.degreesOfFreedom === undefined
+                ? {}
+                : { degreesOfFreedom: stored.covariance.degreesOfFreedom }),
+            },
+          }),
+    });
+  } catch (e) {
+    if (!isBridgeworkError(e)) throw e;
+    issues.push({
+      code: e.code,
+      path: storedPath(spec, e.param),
+      message: `the stored coefficients do not make a model: ${e.message}`,
+    });
+    return undefined;
+  }
+}
+
 async function loadMultiComponent(
   loaded: LoadedChannels,
   base: string,
   spec: MultiComponentGroupSpec,
   issues: SpecIssue[],
 ): Promise<MultiComponentGroup | undefined> {
-  const bridges = spec.bridges.map((b) => channelFor(loaded, b));
+  const bridges = spec.bridges.map((b) => groupBridge(loaded, b));
+  if (spec.calibration.form === 'stored') {
+    const calibration = storedModel(spec, spec.calibration, bridges, issues);
+    return calibration === undefined ? undefined : { kind: 'multi-component', spec, bridges, calibration };
+  }
+  const form = spec.calibration;
+  const read = await readSchedule(base, spec, form.schedule, bridges, issues);
+  if (read === undefined) return undefined;
+  const { points } = read;
   const at = `groups.${spec.name}.calibration.schedule`;
-  const file = spec.calibration.schedule;
+  const file = form.schedule;
+  const fullScale = spec.components.map((c) => c.fullScale);
+  if (fullScale.some((f) => f !== undefined) && !fullScale.every((f) => f !== undefined)) {
+    issues.push({
+      code: 'missing-option',
+      path: `groups.${spec.name}.components`,
+      message: 'gives fullScale for some components but not all',
+      suggestion: 'give every component a fullScale, or none (the schedule’s largest loads are then used)',
+    });
+    return undefined;
+  }
+  try {
+    const calibration = fitGroup(spec, points, form);
+    return { kind: 'multi-component', spec, bridges, calibration, fit: { points, calibration, spec: form } };
+  } catch (e) {
+    issues.push(fitIssue(at, file, e));
+    return undefined;
+  }
+}
+
+/**
+ * Fits a multi-component group's calibration to a loading schedule read by {@link readSchedule}
+ * (`fitMultiComponent` with the components' full scales when every one is given).
+ *
+ * @param spec - The group.
+ * @param points - The schedule's points.
+ * @param form - Interactions, offset and tolerance.
+ * @returns The calibration.
+ */
+export function fitGroup(
+  spec: MultiComponentGroupSpec,
+  points: readonly LoadingPoint[],
+  form: Pick<ScheduleCalibrationSpec, 'interactions' | 'offset' | 'independenceTolerance'>,
+): MultiComponentCalibration {
+  const fullScale = spec.components.map((c) => c.fullScale);
+  return fitMultiComponent({
+    components: spec.components.map((c) => c.name),
+    bridges: spec.bridges,
+    points,
+    interactions: form.interactions,
+    offset: form.offset,
+    ...(fullScale.every((f) => f !== undefined) ? { fullScale: fullScale as number[] } : {}),
+    ...(form.independenceTolerance === undefined
+      ? {}
+      : { independenceTolerance: form.independenceTolerance }),
+  });
+}
+
+/**
+ * Reads a group's loading schedule (CSV): a column per component and per bridge, in their units
+ * (a heading's bracketed unit converted), `direction` and `run` optional.
+ *
+ * @param base - The directory the file is relative to.
+ * @param spec - The group.
+ * @param file - The schedule, as written in the file or given to the command.
+ * @param bridges - The group's bridges.
+ * @param issues - Where problems go (path `groups.<name>.calibration.schedule`).
+ * @returns The points and the file's SHA-256, or undefined when there were problems.
+ */
+export async function readSchedule(
+  base: string,
+  spec: MultiComponentGroupSpec,
+  file: string,
+  bridges: readonly GroupBridge[],
+  issues: SpecIssue[],
+): Promise<{ readonly points: LoadingPoint[]; readonly sha256: string } | undefined> {
+  const at = `groups.${spec.name}.calibration.schedule`;
   const read = await readGroupTable(resolve(base, file), file, [
     ...spec.components.map((c) => ({ name: c.name, unit: c.unit, required: true })),
     ...bridges.map((b) => ({ name: b.name, unit: b.unit, required: true })),
@@ -144,33 +337,7 @@ async function loadMultiComponent(
     issues.push(...rowIssues);
     return undefined;
   }
-  const fullScale = spec.components.map((c) => c.fullScale);
-  if (fullScale.some((f) => f !== undefined) && !fullScale.every((f) => f !== undefined)) {
-    issues.push({
-      code: 'missing-option',
-      path: `groups.${spec.name}.components`,
-      message: 'gives fullScale for some components but not all',
-      suggestion: 'give every component a fullScale, or none (the schedule’s largest loads are then used)',
-    });
-    return undefined;
-  }
-  try {
-    const calibration = fitMultiComponent({
-      components: spec.components.map((c) => c.name),
-      bridges: spec.bridges,
-      points,
-      interactions: spec.calibration.interactions,
-      offset: spec.calibration.offset,
-      ...(fullScale.every((f) => f !== undefined) ? { fullScale: fullScale as number[] } : {}),
-      ...(spec.calibration.independenceTolerance === undefined
-        ? {}
-        : { independenceTolerance: spec.calibration.independenceTolerance }),
-    });
-    return { kind: 'multi-component', spec, bridges, points, calibration };
-  } catch (e) {
-    issues.push(fitIssue(at, file, e));
-    return undefined;
-  }
+  return { points, sha256: t.sha256 };
 }
 
 async function loadPlatform(
@@ -179,7 +346,7 @@ async function loadPlatform(
   spec: PlatformGroupSpec,
   issues: SpecIssue[],
 ): Promise<PlatformGroup | undefined> {
-  const bridges = spec.bridges.map((b) => channelFor(loaded, b));
+  const bridges = spec.bridges.map((b) => groupBridge(loaded, b));
   const e = spec.eccentricity;
   const at = `groups.${spec.name}.eccentricity.test`;
   const read = await readGroupTable(resolve(base, e.test), e.test, [
@@ -232,17 +399,55 @@ async function loadPlatform(
     issues.push(...local);
     return undefined;
   }
+  // An analog junction works on the cells' own output ratios: each cell's reading in V/V.
+  let ratioPerReading: number[] | undefined;
+  if (spec.summing !== undefined) {
+    try {
+      ratioPerReading = bridges.map((b) => parseQuantity(`1 ${b.unit}`, 'V/V'));
+    } catch {
+      issues.push({
+        code: 'invalid-option',
+        path: `groups.${spec.name}.summing`,
+        message: `an analog summing junction needs each cell's own output ratio, but the cells read ${[...new Set(bridges.map((b) => b.unit))].join(', ')}`,
+        suggestion: 'read the cells as their output ratio (output: { quantity: ratio, unit: mV/V })',
+      });
+      return undefined;
+    }
+  }
   try {
     const factors = fitCornerFactors({
       cellReadings: fitRows,
       testLoad: e.testLoad,
       checkReadings: checkRows,
     });
+    let summing: AnalogSumming | undefined;
     let fi = 0;
     let ci = 0;
-    const indications = fitted.map((f) =>
-      f ? (factors.positions[fi++]?.indication as number) : (factors.checks[ci++]?.indication as number),
-    );
+    let indications: number[];
+    if (spec.summing !== undefined && ratioPerReading !== undefined) {
+      const perCell = ratioPerReading;
+      const toRatios = (rows: number[][]) => rows.map((row) => row.map((x, i) => x * (perCell[i] as number)));
+      const trims = fitSummingTrims({
+        cellOhms: spec.summing.cellOhms,
+        trimPlacement: spec.summing.trimPlacement,
+        summingOhms: spec.summing.summingOhms,
+        meterOhms: spec.summing.meterOhms,
+        cellRatios: toRatios(fitRows),
+        checkRatios: toRatios(checkRows),
+      });
+      const mean = trims.positionRatios.reduce((a, x) => a + x, 0) / trims.positionRatios.length;
+      const spanFactor = e.testLoad / mean;
+      summing = { trims, spanFactor, ratioPerReading: perCell };
+      indications = fitted.map((f) =>
+        f
+          ? spanFactor * (trims.positionRatios[fi++] as number)
+          : spanFactor * (trims.checks[ci++]?.ratio as number),
+      );
+    } else {
+      indications = fitted.map((f) =>
+        f ? (factors.positions[fi++]?.indication as number) : (factors.checks[ci++]?.indication as number),
+      );
+    }
     const eccentricity = checkEccentricity({
       accuracyClass: e.accuracyClass,
       maxCapacity: e.maxCapacity,
@@ -251,13 +456,23 @@ async function loadPlatform(
       indications,
       supportPoints: e.supportPoints,
     });
-    return { kind: 'platform', spec, bridges, positions, fitted, factors, indications, eccentricity };
+    return {
+      kind: 'platform',
+      spec,
+      bridges,
+      positions,
+      fitted,
+      factors,
+      indications,
+      eccentricity,
+      ...(summing === undefined ? {} : { summing }),
+    };
   } catch (err) {
     if (!isBridgeworkError(err)) throw err;
     issues.push({
       code: err.code,
       path: at,
-      message: `${e.test} does not determine the cell factors: ${err.message}`,
+      message: `${e.test} does not determine the cell ${spec.summing === undefined ? 'factors' : 'trims'}: ${err.message}`,
       suggestion: 'put the test load over each cell (each corner or segment) in turn',
     });
     return undefined;

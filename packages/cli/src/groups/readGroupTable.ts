@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import { readFile } from 'node:fs/promises';
 import { BridgeworkError, closestName, type SpecIssue } from '@bridgework/core';
 import { parseQuantity } from '@bridgework/channel';
@@ -25,6 +26,8 @@ export interface GroupTable {
   readonly texts: ReadonlyMap<string, readonly string[]>;
   /** The line of each row in the file. */
   readonly lines: readonly number[];
+  /** SHA-256 of the file's bytes (hexadecimal), to record which file a calibration came from. */
+  readonly sha256: string;
 }
 
 /**
@@ -44,8 +47,11 @@ export async function readGroupTable(
   columns: readonly TableColumnSpec[],
 ): Promise<{ readonly table?: GroupTable; readonly issues: readonly SpecIssue[] }> {
   let text: string;
+  let sha256: string;
   try {
-    text = await readFile(file, 'utf8');
+    const bytes = await readFile(file);
+    sha256 = createHash('sha256').update(bytes).digest('hex');
+    text = bytes.toString('utf8');
   } catch (e) {
     throw new BridgeworkError('io-error', `cannot read ${shownAs}: ${describeFsError(e)}`, {
       param: shownAs,
@@ -181,5 +187,5 @@ export async function readGroupTable(
     numbers.set(h.name, values);
   });
   if (issues.length > 0) return { issues };
-  return { table: { numbers, texts, lines: rows.map((r) => r.line) }, issues };
+  return { table: { numbers, texts, lines: rows.map((r) => r.line), sha256 }, issues };
 }

@@ -23,8 +23,9 @@ function isShare(check: ChannelDesignCheck): boolean {
  * @returns The text.
  */
 export function thresholdText(check: ChannelDesignCheck): string {
-  // The finite-figures check counts figures against none: its message says so in words.
-  if (!Number.isFinite(check.limit) || check.id === 'finite') return '';
+  // The finite-figures check counts figures against none, the sensor-calibration check asks for a
+  // tolerance above 0: their messages say so in words.
+  if (!Number.isFinite(check.limit) || check.id === 'finite' || check.id === 'sensor-calibration') return '';
   return isShare(check)
     ? `threshold ${figure(check.limit * 100, '%')}`
     : `threshold ${figure(check.limit, check.unit)}`;
@@ -49,7 +50,9 @@ export function checkDetail(check: ChannelDesignCheck): string {
   const stated = isShare(check)
     ? formatQuantity(check.limit * 100, '%')
     : formatQuantity(check.limit, check.unit);
-  return threshold === '' || check.message.includes(stated)
+  // The channel package writes a true minus sign and a no-break space before a unit; compare in that form.
+  const plain = (t: string) => t.replace(/-/g, '−').replace(/\u00a0/g, ' ');
+  return threshold === '' || plain(check.message).includes(plain(stated))
     ? check.message
     : `${check.message} (${threshold})`;
 }

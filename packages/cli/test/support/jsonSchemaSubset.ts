@@ -66,7 +66,9 @@ export function schemaErrors(root: Schema, value: unknown): string[] {
       const name = (schema['$ref'] as string).replace(/^#\/\$defs\//, '');
       visit(defs[name]!, v, path, errors);
     }
-    if (schema['type'] !== undefined && !typeOk(schema['type'] as string, v)) {
+    // `type` is one name or a list of names (the value must be of one of them).
+    const types = schema['type'] === undefined ? [] : ([schema['type']].flat() as string[]);
+    if (types.length > 0 && !types.some((t) => typeOk(t, v))) {
       fail('type');
       return;
     }
