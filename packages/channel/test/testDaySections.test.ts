@@ -127,3 +127,34 @@ describe('calibration in the budget', () => {
     expect(budget.combined.standardUncertainty).toBeGreaterThanOrEqual(line!.standardUncertainty!);
   });
 });
+
+describe('span correction in the budget', () => {
+  it("replaces the gain tolerance by the span factor's uncertainty: |∂q/∂G|·(G/k)·u(k)/k, the derivative by the channel's own map", () => {
+    const k = 1.0038;
+    const uk = 3.5e-4;
+    const spec: ChannelSpec = {
+      ...strain,
+      tolerances: { gainFraction: 0.01 },
+      spanCorrection: { factor: k, factorStandardUncertainty: uk },
+    };
+    const budget = channelBudget(createChannel(spec), { at: 1000e-6 });
+    const line = budget.lines.find((l) => l.name === 'span correction');
+    expect(line?.kind).toBe('calibration');
+    // The shunt measured the gain: the gain tolerance no longer counts.
+    expect(budget.lines.find((l) => l.name === 'gain')).toBeUndefined();
+    // Independently: the channel without a span correction at gain G/k·(1 ± δ) reads the budget's
+    // code; the central difference gives ∂q/∂G (the map is smooth in G).
+    const g = 128 / k;
+    const at = (gain: number) =>
+      createChannel({ ...strain, amplifier: { gain } }).quantityFromCode(budget.code);
+    const d = 1e-6;
+    const slope = (at(g * (1 + d)) - at(g * (1 - d))) / (2 * d * g);
+    expect(line?.standardUncertainty).toBeNear(Math.abs(slope) * g * (uk / k), { rel: 1e-6 });
+    // Near proportional: the strain's relative uncertainty is about u(k)/k.
+    expect(line!.standardUncertainty! / 1000e-6).toBeNear(uk / k, { rel: 2e-3 });
+    // Without the factor's uncertainty the gain tolerance stays.
+    const plain = channelBudget(createChannel({ ...spec, spanCorrection: { factor: k } }), { at: 1000e-6 });
+    expect(plain.lines.find((l) => l.name === 'gain')?.standardUncertainty).toBeGreaterThan(0);
+    expect(plain.lines.find((l) => l.name === 'span correction')).toBeUndefined();
+  });
+});

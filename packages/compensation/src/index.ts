@@ -76,3 +76,9 @@ export {
 } from './createSteinhartHartThermistor.js';
 export { fitSteinhartHart, type FitSteinhartHartOptions, type ThermistorPoint } from './fitSteinhartHart.js';
 export { fitBeta, type FitBetaOptions } from './fitBeta.js';
+export {
+  fitThermistor,
+  type FitThermistorOptions,
+  type ThermistorFit,
+  type ThermistorModel,
+} from './fitThermistor.js';

@@ -162,6 +162,17 @@ export const compensationCalls: readonly BaseCall[] = [
       ],
     },
   ]),
+  f('fitThermistor', () => [
+    {
+      model: 'steinhart-hart',
+      points: [
+        { ohms: 32650, temperatureCelsius: 0 },
+        { ohms: 10000, temperatureCelsius: 25 },
+        { ohms: 4917, temperatureCelsius: 45 },
+        { ohms: 1752, temperatureCelsius: 70 },
+      ],
+    },
+  ]),
   f('fitBeta', () => [
     {
       points: [

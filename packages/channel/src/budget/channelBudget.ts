@@ -409,13 +409,29 @@ export function channelBudget(channel: Channel, options: ChannelBudgetOptions = 
       `the map with the converter reference varied over ±${percent(t.referenceVoltsFraction)}`,
     );
   }
-  add(
-    'gain',
-    Parameter.gain,
-    t.gainFraction * (p0[Parameter.gain] as number),
-    'tolerance',
-    `the map with the gain varied over ±${percent(t.gainFraction)}`,
-  );
+  // A shunt calibration measured the gain from the bridge to the code (span factor k): the
+  // factor's standard uncertainty (the shunt's tolerance and the readings' scatter) replaces the
+  // gain tolerance, as a normal input on the effective gain G/k, u(G/k)/(G/k) = u(k)/k.
+  const shunt = spec.spanCorrection;
+  if (shunt?.factorStandardUncertainty !== undefined && shunt.factorStandardUncertainty > 0) {
+    const u = ((p0[Parameter.gain] as number) * shunt.factorStandardUncertainty) / shunt.factor;
+    uncertain.push({
+      name: 'span correction',
+      index: Parameter.gain,
+      halfWidth: u,
+      standardUncertainty: u,
+      kind: 'calibration',
+      model: `the shunt calibration's span factor k = ${formatSignificant(shunt.factor)} with u(k)/k = ${formatSignificant(shunt.factorStandardUncertainty / shunt.factor, 3)} (the shunt's tolerance and the readings' scatter), on the gain it measured (replaces the gain tolerance)`,
+    });
+  } else {
+    add(
+      'gain',
+      Parameter.gain,
+      t.gainFraction * (p0[Parameter.gain] as number),
+      'tolerance',
+      `the map with the gain varied over ±${percent(t.gainFraction)}`,
+    );
+  }
   add(
     'offset',
     Parameter.offsetVolts,

@@ -50,7 +50,7 @@ export function testDayFields(outputUnitRule: UnitRule) {
           max: 2,
         }),
         factorStandardUncertainty: numberField({
-          doc: 'Standard uncertainty of the factor (provenance; from the readings’ scatter and the shunt’s tolerance)',
+          doc: 'Standard uncertainty of the factor (from the readings’ scatter and the shunt’s tolerance); replaces the gain tolerance in the budget',
           min: 0,
           optional: true,
         }),

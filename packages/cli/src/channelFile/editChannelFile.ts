@@ -250,12 +250,28 @@ function editYaml(
   const newValue = rest.length === 0 ? value : withValue({}, rest, value);
   const pair = map.items.find((p) => isScalar(p.key) && p.key.value === key) as Pair<Node, Node> | undefined;
   if (map.flow === true) {
-    // A flow mapping `{ … }` is edited through the document (the rest of the file is kept; the
-    // mapping itself is rewritten).
+    // A flow mapping `{ … }` is edited through the document model, and only its own text is
+    // replaced by the edited mapping written in flow style (the rest of the file is kept byte for
+    // byte; a whole-document rewrite would respace every other flow collection).
     const d = parseYaml(text);
     if (newValue === undefined) d.deleteIn(path.slice(0, depth + 1));
     else d.setIn(path.slice(0, depth + 1), newValue);
-    return d.toString({ lineWidth: 0 });
+    const edited = (depth === 0 ? d.contents : d.getIn(path.slice(0, depth), true)) as YAMLMap;
+    visit(edited, {
+      Collection(_, node) {
+        node.flow = true;
+      },
+    });
+    const alone = new Document(null);
+    alone.contents = edited;
+    const body = alone
+      .toString({ lineWidth: 0, flowCollectionPadding: true })
+      .replace(/\n$/, '')
+      // The house style of flow lists: `[a, b]` (mappings keep their `{ a: 1 }` padding).
+      .replace(/\[ /g, '[')
+      .replace(/ \]/g, ']');
+    const [start, end] = map.range as [number, number, number];
+    return text.slice(0, start) + body + text.slice(end);
   }
   // The indentation step here: this mapping's keys against the key that holds it, else the file's.
   const keyColumn =

@@ -5,7 +5,9 @@ import { convertCommand } from './convert/convertCommand.js';
 import { demoCommand } from './demo/demoCommand.js';
 import { fitCalibrationCommand } from './fit/fitCommand.js';
 import { fitGroupCommand } from './fitGroup/fitGroupCommand.js';
+import { fitThermistorCommand } from './thermistor/thermistorCommand.js';
 import { helpCommand } from './help/helpCommand.js';
+import { reduceRosetteCommand } from './rosette/rosetteCommand.js';
 import { reportCommand } from './report/reportCommand.js';
 import { shuntApplyCommand, shuntPlanCommand } from './shunt/shuntCommands.js';
 import { uncertaintyCommand } from './uncertainty/uncertaintyCommand.js';
@@ -23,6 +25,8 @@ export const commands: readonly CommandSpec[] = Object.freeze([
   shuntApplyCommand,
   fitCalibrationCommand,
   checkCertificateCommand,
+  reduceRosetteCommand,
+  fitThermistorCommand,
   fitGroupCommand,
   demoCommand,
   helpCommand,

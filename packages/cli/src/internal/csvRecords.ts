@@ -72,11 +72,14 @@ export class CsvRecordReader {
   private parse(text: string, final: boolean, out: CsvRecord[]): number {
     let pos = 0;
     const n = text.length;
+    // The next quote at or after pos (−1: none in the rest of the text), found once and reused
+    // until passed, so that a text without quotes is not searched to its end for every line.
+    let quote = -2;
     while (pos < n) {
       const nl = text.indexOf('\n', pos);
       const lineEnd = nl < 0 ? n : nl;
       if (nl < 0 && !final) return pos;
-      const quote = text.indexOf('"', pos);
+      if (quote !== -1 && quote < pos) quote = text.indexOf('"', pos);
       if (quote < 0 || quote > lineEnd) {
         // Fast path: a record on one line without quotes.
         const end = lineEnd > pos && text.charCodeAt(lineEnd - 1) === 13 ? lineEnd - 1 : lineEnd;

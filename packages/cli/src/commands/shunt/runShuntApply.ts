@@ -1,4 +1,7 @@
+import { resolve } from 'node:path';
 import { isDeepStrictEqual } from 'node:util';
+import { openAtomicFile, type AtomicFile } from '../../files/atomicFile.js';
+import { shuntApplyHtml } from './shuntHtml.js';
 import { spanCorrectionFromShunt, type BridgeArm, type SpanCorrection } from '@bridgework/calibration';
 import type { Channel } from '@bridgework/channel';
 import { BridgeworkError } from '@bridgework/core';
@@ -20,58 +23,12 @@ import { formatTable } from '../../terminal/formatTable.js';
 import type { TextStyle } from '../../terminal/textStyle.js';
 import type { CommandContext } from '../CommandContext.js';
 import { openResultOutput } from '../resultOutput.js';
-import { channelShunt, type ShuntStep } from './channelShunt.js';
+import { channelShunt } from './channelShunt.js';
 import { readSmallTable } from './readSmallTable.js';
 import type { ShuntApplyArgs } from './shuntOptions.js';
+import type { ShuntApplication, ShuntReadings } from './shuntTypes.js';
 
-/** The measured readings of a shunt calibration. */
-export type ShuntReadings =
-  | { readonly zeroCode: number; readonly shuntedCode: number }
-  | { readonly zeroReadings: readonly number[]; readonly shuntedReadings: readonly number[] };
-
-/** The outcome of a shunt calibration of one channel (the JSON payload). */
-export interface ShuntApplication {
-  /** The channel's name. */
-  readonly channel: string;
-  /** The channel's unit. */
-  readonly unit: string;
-  /** The shunt, arm and placement. */
-  readonly shunt: {
-    readonly ohms: number;
-    readonly arm: BridgeArm;
-    readonly placement: 'gauge' | 'instrument';
-    readonly tolerancePercent: number;
-  };
-  /** The step the exact network predicts (without any span correction). */
-  readonly expected: ShuntStep & { readonly standardUncertaintyCodes: number };
-  /** The measured step. */
-  readonly measured: {
-    /** Mean code without the shunt. */
-    readonly zeroCode: number;
-    /** Mean code with the shunt. */
-    readonly shuntedCode: number;
-    /** Readings per state (1 for two codes). */
-    readonly readings: readonly [number, number];
-    /** The step, codes. */
-    readonly stepCodes: number;
-    /** Its standard uncertainty, codes (Type A), when known. */
-    readonly standardUncertaintyCodes: number | undefined;
-    /** What the uncorrected channel indicates for it, channel unit (undefined when it cannot convert the readings). */
-    readonly indicated: number | undefined;
-  };
-  /** measured/expected − 1. */
-  readonly spanErrorFraction: number;
-  /** k = expected / measured. */
-  readonly factor: number;
-  /** u(k). */
-  readonly factorStandardUncertainty: number | undefined;
-  /** The factor in the file before (absent when none). */
-  readonly previousFactor: number | undefined;
-  /** Whether the plausibility check passed. */
-  readonly ok: boolean;
-  /** Why not. */
-  readonly issues: readonly string[];
-}
+export type { ShuntApplication, ShuntReadings } from './shuntTypes.js';
 
 const mean = (xs: readonly number[]): number => xs.reduce((s, x) => s + x / xs.length, 0);
 
@@ -308,9 +265,30 @@ export async function run(args: ShuntApplyArgs, context: CommandContext): Promis
     }),
   );
   const date = options.date ?? runDate(context.io.env);
+  const out = options.out === '-' ? undefined : options.out;
+  if (options.html !== undefined && out !== undefined && resolve(options.html) === resolve(out)) {
+    throw new BridgeworkError('conflicting-options', '`--html` and `--out` must name different files', {
+      param: 'html',
+      value: options.html,
+    });
+  }
   const output = await openResultOutput(context, options.out, options.force);
+  let html: AtomicFile | undefined;
   let written = false;
   try {
+    if (options.html !== undefined) {
+      html = await openAtomicFile(options.html, { force: options.force });
+      await html.write(
+        shuntApplyHtml(
+          application,
+          'zeroReadings' in readings
+            ? { zero: readings.zeroReadings, shunted: readings.shuntedReadings }
+            : { zero: [readings.zeroCode], shunted: [readings.shuntedCode] },
+          target.channel,
+          { channelFile: path, date, generator: `bridgework ${await readVersion()}` },
+        ),
+      );
+    }
     // The output is open (an existing file without --force stops here): now the write-back.
     if (options.write && application.ok) {
       const editor = await openChannelFileEditor(path);
@@ -346,8 +324,13 @@ export async function run(args: ShuntApplyArgs, context: CommandContext): Promis
         `${applicationText(application, target.channel, path, output.style)}\n\n${note}\n\n${wrapText(SAFETY_CAUTION, 100).join('\n')}\n`,
       );
     }
+    if (html !== undefined) {
+      await html.commit();
+      context.io.stderr.write(`wrote the HTML page to ${options.html}\n`);
+    }
     await output.commit('the shunt calibration');
   } finally {
+    await html?.abort();
     await output.abort();
   }
   return application.ok ? exitCodes.ok : exitCodes.failedCheck;

@@ -1,4 +1,9 @@
+import { resolve } from 'node:path';
 import { parseQuantity, type Channel } from '@bridgework/channel';
+import { BridgeworkError } from '@bridgework/core';
+import { openAtomicFile, type AtomicFile } from '../../files/atomicFile.js';
+import { runDate } from '../../report/runDate.js';
+import { shuntPlanHtml } from './shuntHtml.js';
 import type { BridgeArm, PreferredSeries, ShuntPlacement } from '@bridgework/calibration';
 import { SAFETY_CAUTION } from '../../caution.js';
 import { inChannel, loadChannels } from '../../channels/loadChannels.js';
@@ -13,24 +18,9 @@ import type { CommandContext } from '../CommandContext.js';
 import { openResultOutput } from '../resultOutput.js';
 import { channelShunt, preferredShunt, shuntForQuantity, type ShuntStep } from './channelShunt.js';
 import type { ShuntPlanArgs } from './shuntOptions.js';
+import type { ShuntPlan } from './shuntTypes.js';
 
-/** The plan of one channel (the JSON payload's entry). */
-export interface ShuntPlan {
-  /** The channel's name. */
-  readonly channel: string;
-  /** The channel's unit (every quantity below is in it). */
-  readonly unit: string;
-  /** The arm. */
-  readonly arm: BridgeArm;
-  /** The placement. */
-  readonly placement: ShuntPlacement;
-  /** The quantity to simulate (absent when a resistor was given). */
-  readonly simulate: number | undefined;
-  /** The shunt that simulates it exactly, or the resistor given. */
-  readonly exact: ShuntStep;
-  /** The preferred resistor nearest to it. */
-  readonly preferred: ShuntStep & { readonly series: PreferredSeries; readonly deviationFraction: number };
-}
+export type { ShuntPlan } from './shuntTypes.js';
 
 /**
  * The shunt plan of one channel.
@@ -141,7 +131,15 @@ export async function run(args: ShuntPlanArgs, context: CommandContext): Promise
     options.channel === undefined
       ? loaded.channels.filter((c) => c.channel.kind === 'strain-gauge' || c.channel.kind === 'transducer')
       : loaded.channels;
+  const out = options.out === '-' ? undefined : options.out;
+  if (options.html !== undefined && out !== undefined && resolve(options.html) === resolve(out)) {
+    throw new BridgeworkError('conflicting-options', '`--html` and `--out` must name different files', {
+      param: 'html',
+      value: options.html,
+    });
+  }
   const output = await openResultOutput(context, options.out, options.force);
+  let html: AtomicFile | undefined;
   try {
     const plans = selected.map((c) =>
       inChannel(loaded, c, () =>
@@ -155,6 +153,29 @@ export async function run(args: ShuntPlanArgs, context: CommandContext): Promise
       ),
     );
     const file = loaded.file.file;
+    if (options.html !== undefined) {
+      html = await openAtomicFile(options.html, { force: options.force });
+      await html.write(
+        shuntPlanHtml(
+          selected.map((c, i) => {
+            const shunt = channelShunt(c.channel, {
+              arm: options.arm as BridgeArm,
+              placement: options.placement,
+            });
+            return {
+              plan: plans[i] as ShuntPlan,
+              channel: c.channel,
+              step: (ohms: number) => shunt.step(ohms),
+            };
+          }),
+          {
+            channelFile: file,
+            date: runDate(context.io.env),
+            generator: `bridgework ${await readVersion()}`,
+          },
+        ),
+      );
+    }
     if (options.json) {
       await output.write(reportJson({ file, plans }, { generator: `bridgework ${await readVersion()}` }));
     } else {
@@ -169,9 +190,14 @@ export async function run(args: ShuntPlanArgs, context: CommandContext): Promise
       ];
       await output.write(`${text.join('\n\n')}\n`);
     }
+    if (html !== undefined) {
+      await html.commit();
+      context.io.stderr.write(`wrote the HTML page to ${options.html}\n`);
+    }
     await output.commit('the shunt plan');
     return exitCodes.ok;
   } finally {
+    await html?.abort();
     await output.abort();
   }
 }

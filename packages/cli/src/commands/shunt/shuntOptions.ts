@@ -61,6 +61,13 @@ export const shuntPlanOptions = [
     default: 'E96',
     description: 'The preferred-value series (IEC 60063) to pick the resistor from.',
   },
+  {
+    name: 'html',
+    type: 'string',
+    placeholder: 'file',
+    description:
+      'Also write a self-contained HTML page: per channel the plan and a plot of what the channel indicates against the shunt resistor (half to twice the exact shunt), the exact and the preferred resistor marked.',
+  },
   jsonOption,
   outOption,
   forceOption,
@@ -136,6 +143,13 @@ export const shuntApplyOptions = [
     placeholder: 'date',
     defaultText: 'today (UTC; SOURCE_DATE_EPOCH when set)',
     description: 'The date recorded in the section (ISO 8601).',
+  },
+  {
+    name: 'html',
+    type: 'string',
+    placeholder: 'file',
+    description:
+      'Also write a self-contained HTML page: the expected and measured steps, the span check, and a plot of the readings without and with the shunt against the level the model expects.',
   },
   jsonOption,
   outOption,
