@@ -107,7 +107,7 @@ function identifier(name: string, dialect: SqlDialect, param = 'name'): string {
   if (typeof name !== 'string' || name === '' || name.includes('\0')) {
     throw new BridgeworkError(
       'invalid-option',
-      `a SQL identifier must be non-empty text; got ${JSON.stringify(name)}`,
+      `a SQL identifier must be non-empty text; got ${formatValue(name)}`,
       {
         param,
         value: name,

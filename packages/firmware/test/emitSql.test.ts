@@ -167,5 +167,7 @@ describe('emitSql', () => {
     expect(() => emitSql([one], { table: 'lake..codes' })).toThrowBridgeworkError('invalid-option', {
       param: 'options.table',
     });
+    // A channel name that is a bigint is named in the message (was a TypeError from JSON.stringify; fuzz seed 7).
+    expect(() => emitSql([{ ...one, name: 10n as never }])).toThrowBridgeworkError('invalid-option');
   });
 });
