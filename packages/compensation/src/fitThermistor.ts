@@ -30,7 +30,14 @@ export interface ThermistorFit {
   readonly model: ThermistorModel;
   /** Beta model: R0 at t0 and B (undefined for Steinhart–Hart). */
   readonly beta:
-    | { readonly referenceOhms: number; readonly referenceCelsius: number; readonly betaKelvin: number }
+    | {
+        /** R0: the fitted resistance at the reference temperature, Ω. */
+        readonly referenceOhms: number;
+        /** t0: the reference temperature, °C. */
+        readonly referenceCelsius: number;
+        /** B: the fitted beta constant, K. */
+        readonly betaKelvin: number;
+      }
     | undefined;
   /** Steinhart–Hart coefficients (undefined for the beta model). */
   readonly steinhartHart: SteinhartHartCoefficients | undefined;
