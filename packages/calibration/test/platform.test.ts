@@ -253,6 +253,30 @@ describe('checkEccentricity (OIML R 76-1:2006, 3.6.2 and 3.5.1 Table 6; values f
     expect(inService.ok).toBe(true);
   });
 
+  it('refuses a verification interval so small that the mpe underflows, and an error that overflows in mpe (issue 15, a fuzz finding)', () => {
+    const base = { accuracyClass: 'III', maxCapacity: 3000, testLoad: 1000, indications: [1000.5] } as const;
+    // e = 5e-324 made the mpe a subnormal and |error|/mpe = Infinity.
+    expect(() => checkEccentricity({ ...base, verificationInterval: 5e-324 })).toThrowBridgeworkError(
+      'out-of-range',
+      {
+        param: 'verificationInterval',
+      },
+    );
+    // 10⁹ intervals in Max is the limit, and accepted: every figure finite.
+    const fine = checkEccentricity({ ...base, verificationInterval: 3000 / 1e9 });
+    expect(Number.isFinite(fine.value.largestFractionOfMpe)).toBe(true);
+    // A tiny Max with a huge indication: the error in mpe would overflow; refused at the indication.
+    expect(() =>
+      checkEccentricity({
+        accuracyClass: 'III',
+        maxCapacity: 1e-300,
+        verificationInterval: 1e-301,
+        testLoad: 3e-301,
+        indications: [1e15],
+      }),
+    ).toThrowBridgeworkError('out-of-range', { param: 'indications[0]' });
+  });
+
   it('band edges of every class (Table 6) and the test load for more supports (3.6.2.2)', () => {
     const mpeAt = (accuracyClass: 'I' | 'II' | 'III' | 'IIII', m: number): number =>
       checkEccentricity({

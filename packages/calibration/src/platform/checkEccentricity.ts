@@ -8,7 +8,7 @@ import {
   checkRange,
 } from '@bridgework/core';
 import type { CheckResult } from '../checkResult.js';
-import { MAGNITUDE_LIMIT, checkBoundedArray } from '../internal/checks.js';
+import { MAGNITUDE_LIMIT, checkBoundedArray, finiteResult } from '../internal/checks.js';
 
 /** An OIML R 76 accuracy class of a non-automatic weighing instrument. */
 export type InstrumentAccuracyClass = 'I' | 'II' | 'III' | 'IIII';
@@ -85,6 +85,9 @@ export interface EccentricityCheck {
   readonly spread: number;
 }
 
+/** The most verification intervals in Max that the check accepts. */
+const MAX_INTERVALS = 1e9;
+
 /**
  * The OIML R 76 eccentricity test of a weighing instrument: every position's indication against
  * the mpe for the test load of the chosen accuracy class.
@@ -117,7 +120,8 @@ export interface EccentricityCheck {
  *   or the test load is not the one 3.6.2 asks for.
  * @throws {@link @bridgework/core!BridgeworkError} `unknown-option`, `missing-option` by the options
  *   rule; `invalid-option` for an unknown class or verification; `not-positive`, `not-finite`,
- *   `out-of-range`, `not-integer` for bad numbers (test load above Max); `too-few-points` for no
+ *   `out-of-range`, `not-integer` for bad numbers (test load above Max, more than 10⁹ intervals
+ *   e in Max, an indication whose error in multiples of the mpe overflows); `too-few-points` for no
  *   indication.
  * @example
  * ```ts
@@ -147,12 +151,12 @@ export function checkEccentricity(options: EccentricityCheckOptions): CheckResul
   const max = checkRange('maxCapacity', checkPositive('maxCapacity', o['maxCapacity']), {
     max: MAGNITUDE_LIMIT,
   });
+  // At most 10⁹ verification intervals in Max (R 76 classes go to 10⁵ for class II and have no upper
+  // limit for class I; 10⁹ keeps every mpe a normal number of the load's order).
   const e = checkRange(
     'verificationInterval',
     checkPositive('verificationInterval', o['verificationInterval']),
-    {
-      max: max,
-    },
+    { min: max / MAX_INTERVALS, max },
   );
   const testLoad = checkRange('testLoad', checkPositive('testLoad', o['testLoad']), { max });
   const indications = checkBoundedArray('indications', o['indications']);
@@ -188,7 +192,12 @@ export function checkEccentricity(options: EccentricityCheckOptions): CheckResul
       indication,
       error,
       mpe,
-      fractionOfMpe: Math.abs(error) / mpe,
+      fractionOfMpe: finiteResult(
+        `indications[${position}]`,
+        indication,
+        Math.abs(error) / mpe,
+        'the error in multiples of the mpe',
+      ),
       ok: Math.abs(error) <= mpe * (1 + LIMIT_TOLERANCE),
     };
   });
