@@ -2,7 +2,8 @@
  * Reports that say what was computed (issue 15 items 19, 21, 22): resolution figures named by
  * what they are with their formulas, numerical dust shown as `< limit` with no curve drawn of it,
  * and labels that match the figure (nonlinearity over the span, power in an arm with its lead,
- * no expanded uncertainty on a standard-uncertainty axis).
+ * no expanded uncertainty on a standard-uncertainty axis, a unit on every limit in the budget's
+ * model column).
  */
 import { readFileSync } from 'node:fs';
 import { channelBudget, createChannel } from '@bridgework/channel';
@@ -100,5 +101,53 @@ describe('report wording', () => {
     expect(categories.some((c) => /expanded/.test(c ?? ''))).toBe(false);
     // The expanded uncertainty is named in the title, with its coverage probability.
     expect(chart).toMatch(/expanded uncertainty 18\.9 µε, 95 %/);
+  });
+
+  it("states a unit with every limit in the budget's model column (item 22)", () => {
+    // Every channel of the demo and one of each sensor kind with all its tolerances set: each
+    // ±limit in a line's model text is followed by its unit (%, Ω, K, °C …), and the RTD's class
+    // formula ±(a + b·|t|) by °C.
+    const specs = [
+      ...Object.values(footbridgeSpecs),
+      {
+        sensor: {
+          kind: 'transducer',
+          ratedOutputVoltsPerVolt: 2e-3,
+          capacity: '500 kN',
+          ratedOutputToleranceFraction: 0.001,
+        },
+        excitation: { volts: 5 },
+        amplifier: { gain: 128 },
+        tolerances: { gainFraction: 2e-4 },
+        adc: { bits: 24, referenceVolts: 5, ratiometric: true },
+        output: { quantity: 'force', unit: 'kN' },
+      },
+      {
+        sensor: {
+          kind: 'thermistor',
+          referenceOhms: 10000,
+          betaKelvin: 3950,
+          referenceOhmsToleranceFraction: 0.01,
+          betaToleranceFraction: 0.01,
+        },
+        excitation: { volts: 2.5 },
+        adc: { bits: 24, referenceVolts: 2.5, ratiometric: true },
+        output: { quantity: 'temperature', range: ['0 °C', '80 °C'] },
+      },
+    ];
+    let limits = 0;
+    for (const spec of specs) {
+      const budget = channelBudget(createChannel(spec as Parameters<typeof createChannel>[0]));
+      for (const line of budget.lines) {
+        for (const m of line.model.matchAll(/±\s*(\([^)]*\)|[0-9][0-9.,e+−-]*)/g)) {
+          limits++;
+          const after = line.model.slice((m.index as number) + m[0].length);
+          expect(after, `${line.model}`).toMatch(
+            /^[\s\u00a0]*(%|Ω|K\b|°C|°F|V\b|mV|µε|kN|N\b|t\b|kg|Pa|kPa|MPa|bar)/,
+          );
+        }
+      }
+    }
+    expect(limits).toBeGreaterThanOrEqual(8); // the test reads real limits, not none
   });
 });
