@@ -214,6 +214,22 @@ describe('budget: lines, models and the combined uncertainty', () => {
     expect(budget.ok).toBe(true);
   });
 
+  it('names a headroom point at zero as 0, not as its rounding dust (issue 15 item 21)', () => {
+    // A thermistor divider over 0 … 90 °C: its high-rail margin is worst at 0 °C, which the ratio
+    // gives back as −3.6e−15 °C.
+    const kiln = channelBudget(
+      createChannel({
+        sensor: { kind: 'thermistor', referenceOhms: 10000, betaKelvin: 3950 },
+        excitation: { volts: 2.5 },
+        adc: { bits: 24, referenceVolts: 2.5, ratiometric: true },
+        output: { quantity: 'temperature', range: ['0 °C', '90 °C'] },
+      }),
+    );
+    const high = kiln.checks.find((c) => c.id === 'headroom-adc-high');
+    expect(high?.message).toMatch(/ at 0\u00a0°C, margin/);
+    for (const c of kiln.checks) expect(c.message).not.toMatch(/e[−-]1[0-9]/);
+  });
+
   it('rejects a budget point the channel cannot convert, and a lead tolerance beyond the leads', () => {
     expect(() => channelBudget(createChannel(spec), { at: 1e9 })).toThrowBridgeworkError('out-of-range', {
       param: 'options.at',

@@ -3,7 +3,7 @@
  * compensation package's `fitThermistor` called directly, the write-back, the failed check), and
  * the HTML pages of `shunt-plan` and `shunt-apply` (their plots and the caution).
  */
-import { copyFileSync, readFileSync } from 'node:fs';
+import { copyFileSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { fitThermistor } from '@bridgework/compensation';
@@ -154,6 +154,18 @@ describe('fit-thermistor', () => {
       expect(e.stderr).toMatch(message);
       expect(e.code).toBe(exitCodes.badInput);
     }
+  });
+});
+
+describe('small tables of the test day', () => {
+  it('a header naming its unit is refused with the header as written and the way out, never read as if the unit were known', async () => {
+    const at = copy('slipway-winch.yaml');
+    const points = at('kiln-points.csv');
+    writeFileSync(points, 'Temperature (°F),Resistance (Ω)\n32,33656\n77,10009\n140,2488\n');
+    const r = await run('fit-thermistor', at('slipway-winch.yaml'), points, '-c', 'tie-temperature');
+    expect(r.code).toBe(exitCodes.badInput);
+    expect(r.stderr).toContain("it names 'Temperature (°F)', 'Resistance (Ω)'");
+    expect(r.stderr).toContain("write 'temperature' without the unit in brackets ('Temperature (°F)')");
   });
 });
 

@@ -317,7 +317,10 @@ export function designChecks(x: DesignCheckInput): ChannelDesignCheck[] {
     const pt = points[i];
     if (pt === undefined) return '';
     try {
-      return ` at ${value(model.valueFromRatio(pt.ratio))}`;
+      // A point at zero comes back from the ratio with rounding dust (−3.6e−15 °C): below 10⁻¹²
+      // of the span it is shown as 0, as the report shows dust (issue 15 item 21).
+      const v = model.valueFromRatio(pt.ratio);
+      return ` at ${value(Math.abs(v) < 1e-12 * Math.abs(width) ? 0 : v)}`;
     } catch {
       return ` at the bridge's ${i === 0 ? 'lower' : i === points.length - 1 ? 'upper' : 'zero'} point`;
     }

@@ -78,13 +78,20 @@ export async function readSmallTable(file: string, required: readonly string[]):
   );
   const header = records.shift();
   if (header === undefined) throw parseError(file, 1, 'no header row');
-  const columns = header.fields.map((f) => f.trim().toLowerCase());
+  const written = header.fields.map((f) => f.trim());
+  const columns = written.map((f) => f.toLowerCase());
   for (const name of required) {
     if (!columns.includes(name)) {
+      // A header with a unit ('temperature (°C)') is not matched: the unit would go unread.
+      const withUnit = written.find((w) => w.toLowerCase().replace(/\s*\(.*\)\s*$/, '') === name);
+      const hint =
+        withUnit === undefined
+          ? ''
+          : `; write '${name}' without the unit in brackets ('${withUnit}'): units are not read from a header (the command's help says how to state them)`;
       throw parseError(
         file,
         header.line,
-        `the header must name a column '${name}'; it names ${columns.map((c) => `'${c}'`).join(', ')}`,
+        `the header must name a column '${name}'; it names ${written.map((c) => `'${c}'`).join(', ')}${hint}`,
       );
     }
   }
