@@ -16,7 +16,7 @@
  * scalar path rejects it.
  */
 import { createRtd } from '@bridgework/compensation';
-import type { Codes, RejectTally } from './kernel.js';
+import { integerTestApplies, type Codes, type RejectTally } from './kernel.js';
 
 const ZERO_CELSIUS_KELVIN = 273.15;
 /** Terms of `Rtd.inverseStart`'s polynomial this loop reproduces (degree 8). */
@@ -141,14 +141,7 @@ export function convertCallendarVanDusen(
   outStart: number,
   outStride: number,
 ): void {
-  if (
-    codes instanceof Int32Array &&
-    stride === 1 &&
-    outStride === 1 &&
-    k.lo >= -(2 ** 30) &&
-    k.hi <= 2 ** 30 &&
-    !buffersShare(codes, out)
-  ) {
+  if (integerTestApplies(codes, k.lo, k.hi) && stride === 1 && outStride === 1 && !buffersShare(codes, out)) {
     cvdInt32(codes, out, k, tally, start, count, outStart);
     return;
   }
@@ -346,13 +339,7 @@ export function convertQuadratic(
   outStart: number,
   outStride: number,
 ): void {
-  if (
-    codes instanceof Int32Array &&
-    stride === 1 &&
-    outStride === 1 &&
-    k.lo >= -(2 ** 30) &&
-    k.hi <= 2 ** 30
-  ) {
+  if (integerTestApplies(codes, k.lo, k.hi) && stride === 1 && outStride === 1) {
     quadraticInt32(codes, out, k, tally, start, count, outStart);
     return;
   }

@@ -92,8 +92,11 @@ export type Codes = Int32Array | Float64Array;
 /** Samples per range-test block. */
 const BLOCK = 256;
 
-/** Whether integer codes can take the integer range test (see the module comment). */
-function integerTestApplies(codes: Codes, lo: number, hi: number): codes is Int32Array {
+/**
+ * Whether integer codes can take the integer range test (see the module comment): the blocked
+ * loops here and in ./curveKernels.ts fold `(x − lo) | (hi − x)` per block, exact only inside ±2^30.
+ */
+export function integerTestApplies(codes: Codes, lo: number, hi: number): codes is Int32Array {
   return codes instanceof Int32Array && lo >= -(2 ** 30) && hi <= 2 ** 30;
 }
 
