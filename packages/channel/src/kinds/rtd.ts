@@ -3,16 +3,11 @@
  * bridge. The element's relative change (R − R0)/R0 enters arm 1 exactly as a gauge's GF·ε does,
  * so the bridge package's quarter bridge with gauge factor 1 and "gauge" resistance R0 solves it.
  */
-import { createStrainBridge, createStrainBridgeKernel } from '@bridgework/bridge';
-import {
-  IEC_60751_COEFFICIENTS,
-  createRtd,
-  rtdToleranceCelsius,
-  RTD_TOLERANCE_CLASSES,
-} from '@bridgework/compensation';
+import { createStrainBridge } from '@bridgework/bridge';
+import { IEC_60751_COEFFICIENTS, createRtd, RTD_TOLERANCE_CLASSES } from '@bridgework/compensation';
 import { choiceField, numberField, type ObjectOut } from '../spec/schema.js';
 import { formatSignificant } from '../units/quantity.js';
-import { KIND_PARAMETERS_START, Parameter, type KindContext, type SensorKind } from './SensorKind.js';
+import { KIND_PARAMETERS_START, Parameter, type SensorKind } from './SensorKind.js';
 
 const fields = {
   r0Ohms: numberField({
@@ -36,9 +31,11 @@ const fields = {
 };
 
 type RtdSpec = ObjectOut<typeof fields>;
-const CLASS_DEVIATION = KIND_PARAMETERS_START;
+/** Index of the class deviation (°C, nominal 0) in the parameter vector. */
+export const CLASS_DEVIATION = KIND_PARAMETERS_START;
 
-function curve(s: RtdSpec) {
+/** The element's IEC 60751 curve. */
+export function curve(s: RtdSpec) {
   return createRtd({ r0Ohms: s.r0Ohms, a: s.a, b: s.b, c: s.c });
 }
 
@@ -130,49 +127,6 @@ export const rtdKind: SensorKind<typeof fields, 'rtd'> = {
         : {}),
     };
   },
-  fastMap(ctx: KindContext<RtdSpec>) {
-    const s = ctx.sensor;
-    const rtd = curve(s);
-    // The element in arm 1 of a quarter bridge: gauge factor 1, "gauge" resistance R0 (the bridge package's closed form).
-    const bridge = createStrainBridgeKernel({
-      arrangement: 'quarter',
-      gaugeFactor: 1,
-      gaugeOhms: s.r0Ohms,
-      wiring: ctx.wiring,
-      sourceOhms: ctx.sourceOhms,
-    });
-    return {
-      quantity(ratio, _zero, p) {
-        const e = bridge.strainFromRatio(
-          ratio,
-          p[Parameter.completionOhms] as number,
-          p[Parameter.ohmsPerLead] as number,
-        );
-        return rtd.temperatureAt(s.r0Ohms * (1 + e)) + (p[CLASS_DEVIATION] as number);
-      },
-    };
-  },
-  budgetInputs(ctx, at) {
-    const s = ctx.sensor;
-    if (s.toleranceClass === undefined || ctx.quantity !== 'temperature') return [];
-    const halfWidth = rtdToleranceCelsius({
-      toleranceClass: s.toleranceClass,
-      temperatureCelsius: at,
-      element: s.element,
-    });
-    return [
-      {
-        name: 'RTD class tolerance',
-        index: CLASS_DEVIATION,
-        halfWidth,
-        kind: 'tolerance',
-        model: `IEC 60751 class ${s.toleranceClass} (${s.element}) limits ±(${RTD_TOLERANCE_CLASSES[s.toleranceClass].fixedCelsius} + ${RTD_TOLERANCE_CLASSES[s.toleranceClass].proportional}·|t|) °C at ${formatSignificant(at)} °C, rectangular`,
-      },
-    ];
-  },
-  plausibleRanges: (s) => [
-    { path: 'sensor.r0Ohms', value: s.r0Ohms, range: { min: 10, max: 10_000 }, unit: 'Ω' },
-  ],
 };
 
 export type { RtdSpec };

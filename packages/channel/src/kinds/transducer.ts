@@ -159,7 +159,8 @@ const fields = {
 };
 
 type TransducerSpec = ObjectOut<typeof fields>;
-const RATED_OUTPUT = KIND_PARAMETERS_START;
+/** Index of the rated output (V/V) in the parameter vector. */
+export const RATED_OUTPUT = KIND_PARAMETERS_START;
 
 /** Output quantities a rated quantity can give (besides the bridge ratio). */
 const outputsOf: Readonly<Record<RatedQuantity, readonly OutputQuantity[]>> = {
@@ -170,7 +171,7 @@ const outputsOf: Readonly<Record<RatedQuantity, readonly OutputQuantity[]>> = {
 };
 
 /** The certificate scale's units for a channel: what the capacity is, what comes out. */
-function scaleUnits(s: TransducerSpec, quantity: OutputQuantity) {
+export function scaleUnits(s: TransducerSpec, quantity: OutputQuantity) {
   const capacityUnit = s.ratedQuantity === 'mass' ? ('kilogram' as const) : ('newton' as const);
   const out = quantity === 'ratio' ? s.ratedQuantity : quantity;
   // Pressure and torque scale linearly through the 'newton' path (no gravity or buoyancy).
@@ -178,7 +179,8 @@ function scaleUnits(s: TransducerSpec, quantity: OutputQuantity) {
   return { capacityUnit, outputUnit };
 }
 
-function gravities(s: TransducerSpec) {
+/** The certificate scale's gravities from the spec. */
+export function gravities(s: TransducerSpec) {
   return {
     calibrationGravityMetersPerSecondSquared: s.calibrationGravityMetersPerSecondSquared,
     localGravityMetersPerSecondSquared: s.localGravityMetersPerSecondSquared,
@@ -303,60 +305,6 @@ export const transducerKind: SensorKind<typeof fields, 'transducer'> = {
       },
     };
   },
-  fastMap(ctx) {
-    const s = ctx.sensor;
-    const units = scaleUnits(s, ctx.quantity);
-    // The certificate's load per unit ratio at a rated output of 1: loadPerRatio = this/RO (calibration createCertificateScale).
-    const capacityInOutput = createCertificateScale({
-      capacity: s.capacity,
-      ...units,
-      ratedOutputVoltsPerVolt: 1,
-      ...gravities(s),
-    }).loadPerRatio;
-    const tk0 = s.zeroTemperatureCoefficientPerKelvin;
-    const tkc = s.spanTemperatureCoefficientPerKelvin;
-    const tZero = ctx.zeroTemperatureCelsius;
-    const tCert = s.certificateCelsius;
-    const rin = s.inputOhms;
-    const rs = ctx.sourceOhms;
-    const sixWire = ctx.wiring === 'six-wire';
-    return {
-      quantity(ratio, zeroRatio, p) {
-        const lead = p[Parameter.ohmsPerLead] as number;
-        const span = sixWire ? 1 : rin / (rin + 2 * (lead + rs / 2));
-        const t = p[Parameter.temperatureCelsius] as number;
-        const rated = p[RATED_OUTPUT] as number;
-        const zeroDrift = tk0 * rated * (t - tZero);
-        const ratedNow = rated * (1 + tkc * (t - tCert));
-        const zero = (zeroRatio === zeroRatio ? zeroRatio / span : s.zeroBalanceVoltsPerVolt) + zeroDrift;
-        return (capacityInOutput / ratedNow) * (ratio / span - zero);
-      },
-    };
-  },
-  budgetInputs(ctx) {
-    const s = ctx.sensor;
-    return s.ratedOutputToleranceFraction > 0
-      ? [
-          {
-            name: 'rated output',
-            first: true,
-            index: RATED_OUTPUT,
-            halfWidth: s.ratedOutputToleranceFraction * s.ratedOutputVoltsPerVolt,
-            kind: 'tolerance',
-            model: `the exact map with the certificate's rated output varied over ±${formatSignificant(s.ratedOutputToleranceFraction * 100)} % (rectangular)`,
-          },
-        ]
-      : [];
-  },
-  plausibleRanges: (s) => [
-    {
-      path: 'sensor.ratedOutputVoltsPerVolt',
-      value: s.ratedOutputVoltsPerVolt * 1e3,
-      range: { min: 0.5, max: 5 },
-      unit: 'mV/V',
-    },
-    { path: 'sensor.inputOhms', value: s.inputOhms, range: { min: 100, max: 10_000 }, unit: 'Ω' },
-  ],
 };
 
 export type { TransducerSpec };
