@@ -18,12 +18,7 @@ import type { ErrorCode } from '@bridgework/core';
 import { leastSquaresReference } from './support/reference.js';
 
 /** Expects a typed error with its code and param, and a message in the user's terms. */
-function refuses(
-  f: () => unknown,
-  code: ErrorCode,
-  param: string,
-  message: RegExp,
-) {
+function refuses(f: () => unknown, code: ErrorCode, param: string, message: RegExp) {
   expect(f).toThrowBridgeworkError(code, { param });
   expect(f).toThrow(message);
 }

@@ -229,6 +229,8 @@ export function leastSquaresReference(rows: readonly (readonly number[])[], b: r
   const a = math.matrix(rows.map((r) => r.map((x, j) => big(x * (scales[j] as number)))));
   const at = math.transpose(a);
   const bb = math.matrix(b.map((x) => [big(x)]));
-  const x = (math.lusolve(math.multiply(at, a) as Matrix, math.multiply(at, bb) as Matrix) as Matrix).toArray() as BigNumber[][];
+  const x = (
+    math.lusolve(math.multiply(at, a) as Matrix, math.multiply(at, bb) as Matrix) as Matrix
+  ).toArray() as BigNumber[][];
   return x.map((r, j) => Number(r[0]) * (scales[j] as number));
 }
