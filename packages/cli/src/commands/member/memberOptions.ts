@@ -3,8 +3,12 @@
  * imports these types without an import cycle).
  */
 import type { OptionSpec, ParsedArgs, PositionalSpec } from '../../args/optionTable.js';
-import { keepColumnsOptionRow, materialOptionRows } from '../recording/recordingOptions.js';
-import { forceOption, jsonOption, outOption } from '../sharedOptions.js';
+import {
+  keepColumnsOptionRow,
+  materialOptionRows,
+  summaryJsonOptionRow,
+} from '../recording/recordingOptions.js';
+import { forceOption, outOption } from '../sharedOptions.js';
 
 /** The positional arguments of `bridgework reduce-member`. */
 export const memberArguments = [
@@ -116,11 +120,8 @@ export const memberOptions = [
     description:
       "With more gauges than resultants: the largest residual (a gauge's strain minus what the solved resultants give there) taken as consistent, with its unit ('25 µε'); a row above it fails the check (exit code 2) and the summary names its gauge.",
   },
-  {
-    ...jsonOption,
-    description:
-      'Print the summary as JSON on standard output instead of text on standard error (the rows then need --out); it carries the same safety caution.',
-  },
+  summaryJsonOptionRow,
+
   outOption,
   forceOption,
 ] as const satisfies readonly OptionSpec[];

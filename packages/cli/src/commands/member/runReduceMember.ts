@@ -22,6 +22,7 @@ import {
   isBlankOrComment,
   optionError,
   quantityOption,
+  refuseJsonWithoutOut,
   SkippedRows,
   specimenMaterial,
   streamCsvRecords,
@@ -135,13 +136,7 @@ export async function run(args: MemberArgs, context: CommandContext): Promise<nu
       o.maxResidual,
     );
   }
-  if (o.json && (o.out === undefined || o.out === '-')) {
-    throw new BridgeworkError(
-      'missing-option',
-      '--json prints the summary on standard output, so the rows need --out (a CSV file)',
-      { param: 'out' },
-    );
-  }
+  refuseJsonWithoutOut(o.json, o.out);
   if (o.out !== undefined && o.out !== '-') await refuseOutputOverInputs(o.out, [input]);
 
   const output = await openResultOutput(context, o.out, o.force);

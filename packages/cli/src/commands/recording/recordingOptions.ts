@@ -62,3 +62,14 @@ export function keepColumnsOptionRow(inputs: string) {
       'The columns passed through to the output, before the results (names or numbers from 1, comma-separated; an empty list keeps none).',
   } as const;
 }
+
+/**
+ * `--json` of a row-by-row reduction: the summary as JSON on standard output (the rows then go to
+ * `--out`).
+ */
+export const summaryJsonOptionRow = {
+  name: 'json',
+  type: 'boolean',
+  description:
+    'Print the summary as JSON on standard output instead of text on standard error (the rows then need --out); it carries the same safety caution.',
+} as const;

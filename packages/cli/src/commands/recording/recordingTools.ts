@@ -201,3 +201,18 @@ export async function streamCsvRecords(
     stream.destroy();
   }
 }
+
+/**
+ * Refuses `--json` without a file for the rows: the summary takes standard output.
+ *
+ * @throws {@link @bridgework/core!BridgeworkError} `missing-option` (`param` `out`).
+ */
+export function refuseJsonWithoutOut(json: boolean, out: string | undefined): void {
+  if (json && (out === undefined || out === '-')) {
+    throw new BridgeworkError(
+      'missing-option',
+      '--json prints the summary on standard output, so the rows need --out (a CSV file)',
+      { param: 'out' },
+    );
+  }
+}

@@ -3,7 +3,11 @@
  * imports these types without an import cycle).
  */
 import type { OptionSpec, ParsedArgs, PositionalSpec } from '../../args/optionTable.js';
-import { keepColumnsOptionRow, materialOptionRows } from '../recording/recordingOptions.js';
+import {
+  keepColumnsOptionRow,
+  materialOptionRows,
+  summaryJsonOptionRow,
+} from '../recording/recordingOptions.js';
 import { forceOption, outOption } from '../sharedOptions.js';
 
 /** The positional arguments of `bridgework reduce-rosette`. */
@@ -106,6 +110,7 @@ export const rosetteOptions = [
     defaultText: 'the row with the largest von Mises stress (or shear strain)',
     description: 'The data row (from 1, after the header) drawn by --html.',
   },
+  summaryJsonOptionRow,
   outOption,
   forceOption,
 ] as const satisfies readonly OptionSpec[];

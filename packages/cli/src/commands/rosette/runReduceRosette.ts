@@ -11,6 +11,7 @@ import { refuseOutputOverInputs } from '../../internal/fileErrors.js';
 import { splitOptionList } from '../../internal/splitOptionList.js';
 import { wrapText } from '../../internal/wrapText.js';
 import { formatNumber } from '../../report/formatNumber.js';
+import { reportJson } from '../../report/reportJson.js';
 import type { CommandContext } from '../CommandContext.js';
 import { openResultOutput } from '../resultOutput.js';
 import {
@@ -19,6 +20,7 @@ import {
   headerUnit,
   isBlankOrComment,
   optionError,
+  refuseJsonWithoutOut,
   SkippedRows,
   specimenMaterial,
   streamCsvRecords,
@@ -128,6 +130,7 @@ export async function run(args: RosetteArgs, context: CommandContext): Promise<n
     );
   }
   const kappa = reducer.rosette.conditionNumber;
+  refuseJsonWithoutOut(o.json, o.out);
   if (o.out !== undefined && o.out !== '-') await refuseOutputOverInputs(o.out, [input]);
 
   if (o.mohrRow !== undefined && o.html === undefined) {
@@ -290,7 +293,47 @@ export async function run(args: RosetteArgs, context: CommandContext): Promise<n
     await output.abort();
   }
   const illConditioned = kappa > o.maxCondition;
-  const angles = reducer.rosette.anglesRadians.map((a) => formatNumber(a / DEG, 4)).join('°, ');
+  const anglesDegrees = reducer.rosette.anglesRadians.map((a) => a / DEG);
+  const conditionMessage = illConditioned
+    ? `the layout's condition number ${formatNumber(kappa, 3)} exceeds --max-condition ${o.maxCondition}: the legs' errors are amplified up to that many times in the strains; spread the legs further apart (rectangular 3.87, delta 3.16)`
+    : `the layout's condition number ${formatNumber(kappa, 3)} is within --max-condition ${o.maxCondition}`;
+  if (o.json) {
+    context.io.stdout.write(
+      reportJson(
+        {
+          recording: input,
+          output: o.out,
+          rows,
+          reducedRows: rows - bad,
+          layout: { name: o.layout, anglesDegrees, conditionNumber: kappa },
+          transverse:
+            kt === undefined
+              ? null
+              : { transverseSensitivity: kt, calibrationPoissonRatio: o.calibrationPoisson },
+          material: material ?? null,
+          units: { strain: strainUnit, stress: material === undefined ? null : stressUnit },
+          html:
+            o.html === undefined || drawn === undefined
+              ? null
+              : { file: o.html, row: drawn.row, line: drawn.line },
+          skipped: skipped.toJson(),
+          checks: [
+            {
+              id: 'condition-number',
+              status: illConditioned ? 'fail' : 'pass',
+              value: kappa,
+              limit: o.maxCondition,
+              message: conditionMessage,
+            },
+          ],
+          ok: !illConditioned,
+        },
+        { generator: `bridgework ${await readVersion()}` },
+      ),
+    );
+    return illConditioned ? exitCodes.failedCheck : exitCodes.ok;
+  }
+  const angles = anglesDegrees.map((a) => formatNumber(a, 4)).join('°, ');
   const summary = [
     `reduced ${rows - bad} of ${rows} rows of ${input}: rosette legs at ${angles}° (${o.layout}), condition number ${formatNumber(kappa, 3)}`,
     kt === undefined
@@ -300,11 +343,7 @@ export async function run(args: RosetteArgs, context: CommandContext): Promise<n
       ? 'stresses: not written (give --modulus and --poisson, or --channel-file)'
       : `stresses: plane stress, E ${formatNumber(material.modulusPascals / 1e9, 6)} GPa, ν ${material.poissonRatio} (from ${material.from}); von Mises and Tresca with σ3 = 0`,
     ...skipped.lines(),
-    ...(illConditioned
-      ? [
-          `check failed: the layout's condition number ${formatNumber(kappa, 3)} exceeds --max-condition ${o.maxCondition}: the legs' errors are amplified up to that many times in the strains; spread the legs further apart (rectangular 3.87, delta 3.16)`,
-        ]
-      : []),
+    ...(illConditioned ? [`check failed: ${conditionMessage}`] : []),
     '',
     ...wrapText(SAFETY_CAUTION, 100),
   ];
