@@ -15,6 +15,8 @@ import { runCli } from '../src/runCli.js';
 import { memoryIo } from './support/memoryIo.js';
 import { exited, spawnTs, waitForLine } from './support/spawnChild.js';
 import { useTempDir } from './support/tempDir.js';
+import { MAX_BUCKETS, RowEnvelope } from '../src/commands/member/memberHtml.js';
+import { formatNumber } from '../src/report/formatNumber.js';
 
 const tmp = useTempDir('member');
 const exampleDir = fileURLToPath(new URL('../../../examples/test-day/', import.meta.url));
@@ -310,6 +312,48 @@ describe('reduce-member', () => {
       expect(e.stderr).toMatch(message);
       expect(e.code).toBe(code);
     }
+  });
+});
+
+describe('reduce-member --html', () => {
+  it('draws the resultants over the recording with every extreme kept, in bounded memory', async () => {
+    const rec = recording(5000);
+    const file = write('mast-html.csv', rec.text);
+    const page = join(tmp(), 'mast.html');
+    const out = join(tmp(), 'mast-html.csv.out');
+    const r = await run('reduce-member', file, ...common, '-o', out, '--html', page);
+    expect(r.code).toBe(exitCodes.ok);
+    const html = readFileSync(page, 'utf8');
+    expect(html).toMatch(/data-plot="member-force"[^>]*data-series-count="1"/);
+    expect(html).toMatch(/data-plot="member-moment"[^>]*data-series-count="3"/);
+    expect(html).toMatch(/support, and do not replace,\s+qualified engineering judgement/);
+    // 5000 rows into at most 1000 strokes; the table's extremes are those of the rows written.
+    expect(html).toMatch(/\d+ strokes for 5000 rows/);
+    const rows = table(readFileSync(out, 'utf8'))
+      .slice(1)
+      .map((x) => x.map(Number));
+    const max = Math.max(...rows.map((x) => x[1]!));
+    expect(html).toContain(formatNumber(max, 5));
+  });
+
+  it('RowEnvelope keeps at most MAX_BUCKETS buckets and every extreme, whatever the row count', () => {
+    const env = new RowEnvelope(1);
+    let lo = Infinity;
+    let hi = -Infinity;
+    for (let row = 1; row <= 123_457; row++) {
+      if (row % 17 === 0) continue; // rows not reduced leave gaps
+      const v = Math.sin(row / 700) * 100 + (row === 77_777 ? 500 : 0);
+      lo = Math.min(lo, v);
+      hi = Math.max(hi, v);
+      env.add(row, [v]);
+      expect(env.buckets).toBeLessThanOrEqual(MAX_BUCKETS);
+    }
+    expect(env.range(0).max).toBe(hi);
+    expect(env.range(0).min).toBe(lo);
+    const line = env.polyline(0);
+    expect(Math.max(...line.y)).toBe(500 + Math.sin(77_777 / 700) * 100);
+    // Abscissas increase (strokes in row order).
+    for (let i = 2; i < line.x.length; i += 2) expect(line.x[i]!).toBeGreaterThan(line.x[i - 2]!);
   });
 });
 

@@ -8,7 +8,7 @@ export const reduceMemberCommand = defineCommand({
     "Reduce a member's recorded gauge strains to axial force, bending moments about two axes and torque, row by row.",
   description:
     "Streams a CSV recording of the gauges around one cross-section of a bar, tube or rectangular member (each gauge's column, its place on the section and its direction) and writes, for every row, the section resultants: axial force N, bending moments My and Mz and torque T, by least squares through the mechanics package's createMemberReduction (σx = N/A + My·z/Iy − Mz·y/Iz; τ = T·r/J or T/Wt; each gauge at its angle by the strain transformation). With more gauges than resultants the largest residual of each row is written too: a gauge that disagrees with the rest (damaged, misplaced, drifting) shows there. The other columns (a time stamp, for example) pass through unchanged; memory does not grow with the file.\n\n" +
-    "The summary on standard error (or as JSON with --json) gives the rows reduced, the rows that could not be (written as NaN, with the reason and the first line), the layout's condition number and the largest residual with its gauge and line: above --max-condition or --max-residual the results are written and the command exits with 2.",
+    "The summary on standard error (or as JSON with --json) gives the rows reduced, the rows that could not be (written as NaN, with the reason and the first line), the layout's condition number and the largest residual with its gauge and line: above --max-condition or --max-residual the results are written and the command exits with 2. With --html, a page draws the resultants over the whole recording.",
   positionals: memberArguments,
   options: memberOptions,
   examples: [

@@ -120,8 +120,14 @@ export const memberOptions = [
     description:
       "With more gauges than resultants: the largest residual (a gauge's strain minus what the solved resultants give there) taken as consistent, with its unit ('25 µε'); a row above it fails the check (exit code 2) and the summary names its gauge.",
   },
+  {
+    name: 'html',
+    type: 'string',
+    placeholder: 'file',
+    description:
+      'Also write a self-contained HTML page with the axial force, moments and torque over the whole recording (each stroke the smallest and largest value of the rows it covers, so no peak is lost) and the gauges as read.',
+  },
   summaryJsonOptionRow,
-
   outOption,
   forceOption,
 ] as const satisfies readonly OptionSpec[];

@@ -1,3 +1,4 @@
+import { resolve } from 'node:path';
 import { BridgeworkError, isBridgeworkError } from '@bridgework/core';
 import {
   createMemberReduction,
@@ -28,7 +29,9 @@ import {
   streamCsvRecords,
   unitFactor,
 } from '../recording/recordingTools.js';
+import { openAtomicFile, type AtomicFile } from '../../files/atomicFile.js';
 import { openResultOutput } from '../resultOutput.js';
+import { memberHtml, RowEnvelope } from './memberHtml.js';
 import { gaugeEntries, resultantsOption, sectionChoice, type GaugeEntry } from './memberGauges.js';
 import type { MemberArgs } from './memberOptions.js';
 
@@ -138,7 +141,18 @@ export async function run(args: MemberArgs, context: CommandContext): Promise<nu
   }
   refuseJsonWithoutOut(o.json, o.out);
   if (o.out !== undefined && o.out !== '-') await refuseOutputOverInputs(o.out, [input]);
-
+  if (o.html !== undefined) {
+    await refuseOutputOverInputs(o.html, [input]);
+    if (o.out !== undefined && o.out !== '-' && resolve(o.html) === resolve(o.out)) {
+      throw new BridgeworkError('conflicting-options', '`--html` and `--out` must name different files', {
+        param: 'html',
+        value: o.html,
+      });
+    }
+  }
+  const envelope = o.html === undefined ? undefined : new RowEnvelope(reduction.resultants.length);
+  const html: AtomicFile | undefined =
+    o.html === undefined ? undefined : await openAtomicFile(o.html, { force: o.force });
   const output = await openResultOutput(context, o.out, o.force);
   const skipped = new SkippedRows();
   const withResidual = reduction.redundancy > 0;
@@ -201,6 +215,7 @@ export async function run(args: MemberArgs, context: CommandContext): Promise<nu
           values = reduction.resultants.map(
             (name) => (r[columns[name].key] as number) / perUnit[columns[name].unit],
           );
+          envelope?.add(rows, values);
           if (withResidual) {
             values.push(r.maxResidualStrain / perStrain);
             if (worst === undefined || r.maxResidualStrain > worst.strain) {
@@ -231,8 +246,43 @@ export async function run(args: MemberArgs, context: CommandContext): Promise<nu
     await streamCsvRecords(input, onRecords);
     if (header === undefined)
       throw new BridgeworkError('parse-error', `${input}: no header row`, { param: input });
+    if (html !== undefined && envelope !== undefined) {
+      if (envelope.buckets === 0) {
+        throw new BridgeworkError(
+          'invalid-option',
+          `--html: no row of ${input} could be reduced, so there is nothing to draw`,
+          {
+            param: 'html',
+          },
+        );
+      }
+      await html.write(
+        memberHtml({
+          recording: input,
+          sectionText: choice.text,
+          gauges: entries.map((e) => ({
+            column: e.column,
+            y: e.gauge.yMeters,
+            z: e.gauge.zMeters,
+            angleDegrees: e.gauge.angleRadians / DEG,
+          })),
+          series: reduction.resultants.map((name) => ({
+            name: columns[name].name.replace(/_/g, ' '),
+            unit: columns[name].unit === 'force' ? forceUnit : momentUnit,
+            plot: columns[name].unit,
+          })),
+          envelope,
+          rows,
+          conditionNumber: reduction.conditionNumber,
+          generator: `bridgework ${await readVersion()}`,
+        }),
+      );
+      await html.commit();
+      context.io.stderr.write(`wrote the HTML page to ${o.html}\n`);
+    }
     await output.commit('the member reduction');
   } finally {
+    await html?.abort();
     await output.abort();
   }
 
