@@ -8,6 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { arrangementTable, strainArrangements } from '@bridgework/bridge';
 import { channelBudget, createChannel } from '@bridgework/channel';
 import { createChannelKit } from '../src/channelKit.js';
+import { kitSpecFields, kitSpecJsonSchema } from '../src/channelSpecReference.js';
 import { builtInKindBudgets } from '../src/kinds/budgetRegistry.js';
 import { builtInSensorKinds } from '../src/kinds/registry.js';
 import type { SensorKind } from '../src/kinds/SensorKind.js';
@@ -32,10 +33,10 @@ describe('a sensor kind is its module and one registry line', () => {
       wiring: 'three-wire', // the quarter arrangement's default, from the bridge table
       completionOhms: 1000, // the kind's nominal resistance
     });
-    expect(
-      kit.channelSpecFields().find((r) => r.path === 'sensor<resistive-film>.sensitivity'),
-    ).toMatchObject({ presence: 'required' });
-    expect(JSON.stringify(kit.channelSpecJsonSchema())).toContain('"const":"resistive-film"');
+    expect(kitSpecFields(kit).find((r) => r.path === 'sensor<resistive-film>.sensitivity')).toMatchObject({
+      presence: 'required',
+    });
+    expect(JSON.stringify(kitSpecJsonSchema(kit))).toContain('"const":"resistive-film"');
     const typo = kit.validateChannelSpec({ ...spec, sensor: { kind: 'resistive-flim', sensitivity: 4 } });
     expect(typo.issues).toEqual([
       expect.objectContaining({

@@ -247,8 +247,8 @@ export interface SensorKindBudget<F extends Fields = Fields> {
 export interface SensorKind<F extends Fields = Fields, N extends string = string> {
   /** The value of `sensor.kind`. */
   readonly name: N;
-  /** One line for the field reference. */
-  readonly doc: string;
+  /** One line for the field reference (a built-in kind's is in `spec/fieldDocs.ts`, under `sensor<name>`). */
+  readonly doc?: string;
   /** The fields of `sensor` besides `kind` (defaults inside). */
   readonly fields: F;
   /** The output quantities it can give (besides `'ratio'`, which every kind gives). */

@@ -11,21 +11,18 @@ import { KIND_PARAMETERS_START, Parameter, type SensorKind } from './SensorKind.
 
 const fields = {
   r0Ohms: numberField({
-    doc: 'Resistance at 0 °C',
     unit: { dimension: 'resistance' },
     min: 0,
     minExclusive: true,
     default: 100,
   }),
-  a: numberField({ doc: 'Callendar–Van Dusen A, 1/°C', default: IEC_60751_COEFFICIENTS.a }),
-  b: numberField({ doc: 'Callendar–Van Dusen B, 1/°C²', default: IEC_60751_COEFFICIENTS.b }),
-  c: numberField({ doc: 'Callendar–Van Dusen C (below 0 °C), 1/°C⁴', default: IEC_60751_COEFFICIENTS.c }),
+  a: numberField({ default: IEC_60751_COEFFICIENTS.a }),
+  b: numberField({ default: IEC_60751_COEFFICIENTS.b }),
+  c: numberField({ default: IEC_60751_COEFFICIENTS.c }),
   toleranceClass: choiceField(['AA', 'A', 'B', 'C'] as const, {
-    doc: 'IEC 60751 tolerance class, for the budget',
     optional: true,
   }),
   element: choiceField(['wire-wound', 'film'] as const, {
-    doc: 'Element construction (sets the class’s validity range)',
     default: 'wire-wound',
   }),
 };
@@ -42,7 +39,6 @@ export function curve(s: RtdSpec) {
 /** The RTD kind. */
 export const rtdKind: SensorKind<typeof fields, 'rtd'> = {
   name: 'rtd',
-  doc: 'A platinum RTD (IEC 60751) in arm 1 of a quarter bridge',
   fields,
   quantities: ['temperature'],
   placement: 'arm-1',

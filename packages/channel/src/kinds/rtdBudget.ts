@@ -46,7 +46,7 @@ export const rtdBudget: SensorKindBudget<(typeof rtdKind)['fields']> = {
         index: CLASS_DEVIATION,
         halfWidth,
         kind: 'tolerance',
-        model: `IEC 60751 class ${s.toleranceClass} (${s.element}) limits ±(${RTD_TOLERANCE_CLASSES[s.toleranceClass].fixedCelsius} + ${RTD_TOLERANCE_CLASSES[s.toleranceClass].proportional}·|t|) °C at ${formatSignificant(at)} °C, rectangular`,
+        model: `IEC 60751 class ${s.toleranceClass} (${s.element}) limits ±(${RTD_TOLERANCE_CLASSES[s.toleranceClass].fixedCelsius} + ${RTD_TOLERANCE_CLASSES[s.toleranceClass].proportional}·|t|) °C at ${formatSignificant(at)} °C`,
       },
     ];
   },

@@ -28,14 +28,12 @@ const fields = {
     minExclusive: true,
   }),
   gaugeOhms: numberField({
-    doc: 'Gauge resistance',
     unit: { dimension: 'resistance' },
     min: 0,
     minExclusive: true,
     default: 350,
   }),
   gaugeFactorToleranceFraction: numberField({
-    doc: 'Gauge factor tolerance, relative (the lot’s data sheet), for the budget',
     unit: { dimension: 'fraction' },
     min: 0,
     max: 1,
@@ -43,7 +41,6 @@ const fields = {
     default: 0,
   }),
   transverseSensitivity: numberField({
-    doc: 'Transverse sensitivity Kt (measured with ν0 = 0.285)',
     unit: { dimension: 'fraction' },
     min: -1,
     max: 1,
@@ -52,12 +49,10 @@ const fields = {
     default: 0,
   }),
   gaugeFactorTemperatureCoefficientPerKelvin: numberField({
-    doc: 'Gauge-factor temperature coefficient β: GF(T) = GF·(1 + β·(T − T0))',
     unit: { dimension: 'per-kelvin' },
     default: 0,
   }),
   gaugeFactorReferenceCelsius: numberField({
-    doc: 'Reference temperature T0 of the gauge factor',
     unit: { dimension: 'temperature' },
     default: 24,
   }),
@@ -70,7 +65,6 @@ const fields = {
         item: { doc: 'µε/°Cⁱ' },
       }),
       gaugeFactor: numberField({
-        doc: 'Gauge-factor setting the curve was recorded with',
         min: 0,
         minExclusive: true,
         default: 2,
@@ -80,7 +74,7 @@ const fields = {
         unit: { dimension: 'temperature' },
       }),
     },
-    { doc: "The gauge lot's thermal output (apparent strain) on the specimen", presence: 'optional' },
+    { presence: 'optional' },
   ),
 };
 
@@ -199,7 +193,6 @@ export const GAUGE_FACTOR = KIND_PARAMETERS_START;
 /** The strain-gauge kind. */
 export const strainGaugeKind: SensorKind<typeof fields, 'strain-gauge'> = {
   name: 'strain-gauge',
-  doc: 'Strain gauges, in the arrangement of bridge.arrangement',
   fields,
   quantities: ['strain', 'stress', 'shear-stress', 'force', 'bending-moment', 'torque'],
   placement: 'arrangement',

@@ -78,7 +78,7 @@ export const strainGaugeBudget: SensorKindBudget<(typeof strainGaugeKind)['field
             index: GAUGE_FACTOR,
             halfWidth: s.gaugeFactorToleranceFraction * s.gaugeFactor,
             kind: 'tolerance',
-            model: `the exact map with the gauge factor varied over ±${formatSignificant(s.gaugeFactorToleranceFraction * 100)} % (rectangular)`,
+            model: `the exact map with the gauge factor varied over ±${formatSignificant(s.gaugeFactorToleranceFraction * 100)} %`,
           },
         ]
       : [];

@@ -17,8 +17,7 @@ import { formatSignificant } from '../units/quantity.js';
 import { KIND_PARAMETERS_START, Parameter, type SensorKind } from './SensorKind.js';
 
 const fraction = { dimension: 'fraction' } as const;
-const relative = (doc: string) =>
-  numberField({ doc, unit: fraction, min: 0, max: 1, maxExclusive: true, default: 0 });
+const relative = () => numberField({ unit: fraction, min: 0, max: 1, maxExclusive: true, default: 0 });
 
 const fields = {
   referenceOhms: numberField({
@@ -28,12 +27,10 @@ const fields = {
     minExclusive: true,
   }),
   referenceCelsius: numberField({
-    doc: 'Reference temperature t0',
     unit: { dimension: 'temperature' },
     default: 25,
   }),
   betaKelvin: numberField({
-    doc: 'Beta constant B (e.g. B25/85): R = R0·exp(B·(1/T − 1/T0)); give this or steinhartHart',
     unit: { dimension: 'temperature-difference' },
     min: 0,
     minExclusive: true,
@@ -46,28 +43,22 @@ const fields = {
       c: numberField({ doc: 'c, 1/K' }),
     },
     {
-      doc: 'Steinhart–Hart coefficients: 1/T = a + b·ln R + c·(ln R)³; give this or betaKelvin',
       presence: 'optional',
     },
   ),
   rangeCelsius: intervalField({
-    doc: 'Temperatures over which the model holds and the channel converts',
     unit: { dimension: 'temperature' },
     derived: true,
-    defaultText: '[-55, 150] (a common NTC rating)',
   }),
-  referenceOhmsToleranceFraction: relative(
-    'Resistance tolerance at t0, relative (the element reads as R·(1 + δ)), for the budget',
-  ),
-  betaToleranceFraction: relative('Beta tolerance, relative, for the budget (beta model)'),
+  referenceOhmsToleranceFraction: relative(),
+  betaToleranceFraction: relative(),
   dissipationConstantWattsPerKelvin: numberField({
-    doc: 'Dissipation constant δ (power per kelvin of self-heating, in the medium); the map corrects self-heating when given',
     unit: { dimension: 'thermal-conductance' },
     min: 0,
     minExclusive: true,
     optional: true,
   }),
-  dissipationToleranceFraction: relative('Dissipation constant tolerance, relative, for the budget'),
+  dissipationToleranceFraction: relative(),
 };
 
 type ThermistorSpec = ObjectOut<typeof fields>;
@@ -98,7 +89,6 @@ export function model(s: ThermistorSpec, beta: number): Thermistor {
 /** The thermistor kind. */
 export const thermistorKind: SensorKind<typeof fields, 'thermistor'> = {
   name: 'thermistor',
-  doc: 'An NTC thermistor (beta or Steinhart–Hart) in arm 1 of a quarter bridge',
   fields,
   quantities: ['temperature'],
   placement: 'arm-1',

@@ -67,7 +67,7 @@ export const thermistorBudget: SensorKindBudget<(typeof thermistorKind)['fields'
         index: RESISTANCE_DEVIATION,
         halfWidth: s.referenceOhmsToleranceFraction,
         kind: 'tolerance' as const,
-        model: `the element reads as R·(1 + δ) with δ within ±${formatSignificant(s.referenceOhmsToleranceFraction * 100)} % (rectangular)`,
+        model: `the element reads as R·(1 + δ) with δ within ±${formatSignificant(s.referenceOhmsToleranceFraction * 100)} %`,
       });
     }
     if (s.betaToleranceFraction > 0 && s.betaKelvin !== undefined) {
@@ -76,7 +76,7 @@ export const thermistorBudget: SensorKindBudget<(typeof thermistorKind)['fields'
         index: BETA,
         halfWidth: s.betaToleranceFraction * s.betaKelvin,
         kind: 'tolerance' as const,
-        model: `the beta model with B varied over ±${formatSignificant(s.betaToleranceFraction * 100)} % (rectangular)`,
+        model: `the beta model with B varied over ±${formatSignificant(s.betaToleranceFraction * 100)} %`,
       });
     }
     if (s.dissipationToleranceFraction > 0 && s.dissipationConstantWattsPerKelvin !== undefined) {
@@ -85,7 +85,7 @@ export const thermistorBudget: SensorKindBudget<(typeof thermistorKind)['fields'
         index: DISSIPATION,
         halfWidth: s.dissipationToleranceFraction * s.dissipationConstantWattsPerKelvin,
         kind: 'self-heating' as const,
-        model: `the self-heating correction P/δ with δ varied over ±${formatSignificant(s.dissipationToleranceFraction * 100)} % (rectangular)`,
+        model: `the self-heating correction P/δ with δ varied over ±${formatSignificant(s.dissipationToleranceFraction * 100)} %`,
       });
     }
     return inputs;

@@ -33,13 +33,16 @@ const ratedDimension: Readonly<Record<RatedQuantity, Dimension>> = {
 
 /** The capacity: a force, mass, pressure or torque, its kind told by its unit. */
 function capacityField(): SchemaNode<number | `${number}${string}`, number, 'required'> {
-  const doc =
-    'Rated capacity: a force, mass, pressure or torque with its unit (`20 t`, `50 kN`, `10 bar`, `500 N·m`)';
   return {
     presence: 'required',
-    doc,
+    doc: 'Rated capacity: a force, mass, pressure or torque with its unit (`20 t`, `50 kN`, `10 bar`, `500 N·m`)',
     fallback: undefined,
-    defaultText: undefined,
+    shape: {
+      form: 'custom',
+      type: 'number (> 0)',
+      unit: 'N, kg, Pa or N·m',
+      json: { anyOf: [{ type: 'number', exclusiveMinimum: 0 }, { type: 'string' }] },
+    },
     parse(value: unknown, path: string, ctx: ParseContext) {
       if (typeof value === 'string') {
         const unitText = value.replace(/^\s*[+\-−]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+\-−]?\d+)?\s*/, '');
@@ -78,18 +81,12 @@ function capacityField(): SchemaNode<number | `${number}${string}`, number, 'req
         });
       return r.value;
     },
-    jsonSchema: () => ({
-      description: doc,
-      anyOf: [{ type: 'number', exclusiveMinimum: 0 }, { type: 'string' }],
-    }),
-    rows: (path) => [{ path, type: 'number (> 0)', unit: 'N, kg, Pa or N·m', presence: 'required', doc }],
   };
 }
 
 const ohms = { dimension: 'resistance' } as const;
 const perKelvin = { dimension: 'per-kelvin' } as const;
 const gravity = {
-  doc: '',
   unit: { dimension: 'acceleration' },
   min: 0,
   minExclusive: true,
@@ -99,9 +96,7 @@ const gravity = {
 const fields = {
   capacity: capacityField(),
   ratedQuantity: choiceField(ratedQuantities, {
-    doc: 'What the capacity is',
     derived: true,
-    defaultText: "from capacity's unit; for a plain number, the output quantity",
   }),
   ratedOutputVoltsPerVolt: numberField({
     doc: 'Rated output at capacity (certificate)',
@@ -111,7 +106,6 @@ const fields = {
     max: 0.5,
   }),
   ratedOutputToleranceFraction: numberField({
-    doc: 'Rated output tolerance, relative (certificate), for the budget',
     unit: { dimension: 'fraction' },
     min: 0,
     max: 1,
@@ -119,40 +113,33 @@ const fields = {
     default: 0,
   }),
   zeroBalanceVoltsPerVolt: numberField({
-    doc: 'Zero balance (output at no load)',
     unit: { dimension: 'ratio' },
     min: -0.5,
     max: 0.5,
     default: 0,
   }),
   inputOhms: numberField({
-    doc: 'Input (excitation) resistance',
     unit: ohms,
     min: 0,
     minExclusive: true,
     default: 350,
   }),
-  outputOhms: numberField({ doc: 'Output resistance', unit: ohms, min: 0, minExclusive: true, default: 350 }),
+  outputOhms: numberField({ unit: ohms, min: 0, minExclusive: true, default: 350 }),
   calibrationGravityMetersPerSecondSquared: numberField({
     ...gravity,
-    doc: "Gravity where the certificate's weights acted",
   }),
   localGravityMetersPerSecondSquared: numberField({
     ...gravity,
-    doc: 'Gravity where the transducer is used (mass from force)',
   }),
   zeroTemperatureCoefficientPerKelvin: numberField({
-    doc: 'Zero shift per kelvin, as a fraction of the rated output (data sheet: "0.02 % RO/10 K" is 2e-5)',
     unit: perKelvin,
     default: 0,
   }),
   spanTemperatureCoefficientPerKelvin: numberField({
-    doc: 'Span (rated output) change per kelvin, relative',
     unit: perKelvin,
     default: 0,
   }),
   certificateCelsius: numberField({
-    doc: "Temperature at which the certificate's rated output holds",
     unit: { dimension: 'temperature' },
     default: 23,
   }),
@@ -201,7 +188,6 @@ function spanFactor(ctx: KindContext<TransducerSpec>, ohmsPerLead: number): numb
 /** The transducer kind. */
 export const transducerKind: SensorKind<typeof fields, 'transducer'> = {
   name: 'transducer',
-  doc: 'A bridge transducer with a certificate (load cell, pressure or torque transducer)',
   fields,
   quantities: ['force', 'mass', 'pressure', 'torque'],
   placement: 'own-bridge',

@@ -49,7 +49,7 @@ export const transducerBudget: SensorKindBudget<(typeof transducerKind)['fields'
             index: RATED_OUTPUT,
             halfWidth: s.ratedOutputToleranceFraction * s.ratedOutputVoltsPerVolt,
             kind: 'tolerance',
-            model: `the exact map with the certificate's rated output varied over ±${formatSignificant(s.ratedOutputToleranceFraction * 100)} % (rectangular)`,
+            model: `the exact map with the certificate's rated output varied over ±${formatSignificant(s.ratedOutputToleranceFraction * 100)} %`,
           },
         ]
       : [];
