@@ -54,6 +54,16 @@ export const transducerBudget: SensorKindBudget<(typeof transducerKind)['fields'
         ]
       : [];
   },
+  calibrationCheck: (s) => ({
+    holds: s.ratedOutputToleranceFraction > 0,
+    value: s.ratedOutputToleranceFraction,
+    unit: '',
+    path: 'sensor.ratedOutputToleranceFraction',
+    message:
+      s.ratedOutputToleranceFraction > 0
+        ? `the budget holds the rated output's tolerance ±${formatSignificant(s.ratedOutputToleranceFraction * 100)}\u00a0% (sensor.ratedOutputToleranceFraction)`
+        : "the budget lacks the transducer's calibration uncertainty: sensor.ratedOutputToleranceFraction is 0, so U covers the electronics and the noise only; fill it in from the certificate (the rated output's tolerance, or its calibration uncertainty as a rectangular half-width), or calibrate the channel against reference loads (calibration)",
+  }),
   plausibleRanges: (s) => [
     {
       path: 'sensor.ratedOutputVoltsPerVolt',
