@@ -6,6 +6,7 @@ import { ZERO_CELSIUS_KELVIN } from '@bridgework/core';
 import { createStrainBridge, createStrainBridgeKernel, solveBridge } from '@bridgework/bridge';
 import { formatSignificant } from '../units/quantity.js';
 import { Parameter, type KindContext, type SensorKindBudget } from './SensorKind.js';
+import { toleranceText } from './toleranceCheck.js';
 import {
   BETA,
   DISSIPATION,
@@ -127,13 +128,15 @@ export const thermistorBudget: SensorKindBudget<(typeof thermistorKind)['fields'
     const held = [
       ...(s.referenceOhmsToleranceFraction > 0
         ? [
-            `the resistance tolerance ±${formatSignificant(s.referenceOhmsToleranceFraction * 100)}\u00a0% (sensor.referenceOhmsToleranceFraction)`,
+            toleranceText(
+              'the resistance tolerance',
+              s.referenceOhmsToleranceFraction,
+              'sensor.referenceOhmsToleranceFraction',
+            ),
           ]
         : []),
       ...(s.betaToleranceFraction > 0 && s.betaKelvin !== undefined
-        ? [
-            `the beta tolerance ±${formatSignificant(s.betaToleranceFraction * 100)}\u00a0% (sensor.betaToleranceFraction)`,
-          ]
+        ? [toleranceText('the beta tolerance', s.betaToleranceFraction, 'sensor.betaToleranceFraction')]
         : []),
     ];
     if (held.length > 0) {
