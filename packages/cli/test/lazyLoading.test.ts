@@ -68,6 +68,12 @@ describe('start-up path', () => {
     );
   });
 
+  it('reads a JSON channel file without the yaml package: convert loads yaml only for a YAML file', () => {
+    expect(closure(join(src, 'channelFile/jsonChannelDocument.ts')).packages).not.toContain('yaml');
+    expect(closure(join(src, 'commands/convert/runConvert.ts')).packages).not.toContain('yaml');
+    expect(closure(join(src, 'channelFile/parseChannelDocument.ts')).packages).toContain('yaml');
+  });
+
   it.each(commands.map((c) => [c.name, c] as const))(
     '%s: load() imports a body with run()',
     async (_n, c) => {

@@ -2,7 +2,7 @@ import { BridgeworkError, formatValue, type SpecIssue } from '@bridgework/core';
 import { parseQuantity } from '@bridgework/channel';
 import { closestName } from '@bridgework/core';
 import { formatIssues } from './formatIssues.js';
-import { reservedNames, type ChannelDocument } from './parseChannelDocument.js';
+import { reservedNames, type ChannelDocument } from './channelFileText.js';
 import { readChannelDocument } from './readChannelDocument.js';
 import { channelFileLimits } from './channelFileLimits.js';
 import { validateRecordingSection, type RecordingSection } from './recordingSection.js';

@@ -1,5 +1,4 @@
-import { BridgeworkError, type SpecIssue } from '@bridgework/core';
-import { checkJsonSyntax } from '../internal/checkJsonSyntax.js';
+import type { SpecIssue } from '@bridgework/core';
 import {
   isAlias,
   isMap,
@@ -13,50 +12,21 @@ import {
   type Node,
 } from 'yaml';
 import { channelFileLimits } from './channelFileLimits.js';
+import {
+  channelFileSource,
+  numberLiteralIssue,
+  parseError,
+  positionOf,
+  reservedKey,
+  splitFieldPath,
+  type ChannelDocument,
+  type ChannelFileSyntax,
+  type SourcePosition,
+} from './channelFileText.js';
+import { parseJsonChannelDocument } from './jsonChannelDocument.js';
 
-/** A place in a text file: 1-based line and column. */
-export interface SourcePosition {
-  /** Line, from 1. */
-  readonly line: number;
-  /** Column, from 1. */
-  readonly column: number;
-}
-
-/** The syntaxes a channel file may be written in. */
-export type ChannelFileSyntax = 'yaml' | 'json';
-
-/** A parsed channel file: its plain data and a map from field paths back to the text. */
-export interface ChannelDocument {
-  /** The file name, as given (used in every message). */
-  readonly file: string;
-  /** The syntax it was read as. */
-  readonly syntax: ChannelFileSyntax;
-  /** The content as plain JavaScript values (objects, arrays, strings, numbers, booleans, null). */
-  readonly data: unknown;
-  /**
-   * Problems of single values that parsing found and that belong to a field (a number literal
-   * beyond the range of a double, such as `1e400`): reported with the field's other problems.
-   */
-  readonly valueIssues: readonly SpecIssue[];
-  /**
-   * Where a field is written: `'channels.hook.bridge.ohmsPerLead'` or `'channels[0].adc'`. For a
-   * field that is missing, the position of its deepest existing parent; `undefined` when not even
-   * the first key exists.
-   */
-  locate(path: string): SourcePosition | undefined;
-}
-
-/** Splits `a.b[2].c` into `['a', 'b', 2, 'c']`. */
-export function splitFieldPath(path: string): (string | number)[] {
-  const keys: (string | number)[] = [];
-  for (const m of path.matchAll(/([^.[\]]+)|\[(\d+)\]/g))
-    keys.push(m[2] === undefined ? (m[1] as string) : Number(m[2]));
-  return keys;
-}
-
-function parseError(message: string, file: string): BridgeworkError {
-  return new BridgeworkError('parse-error', message, { param: file });
-}
+export { reservedNames, splitFieldPath } from './channelFileText.js';
+export type { ChannelDocument, ChannelFileSyntax, SourcePosition } from './channelFileText.js';
 
 function firstLine(message: string): string {
   return (message.split('\n')[0] as string).replace(/ at line \d+, column \d+:?$/, '');
@@ -87,21 +57,6 @@ function locator(doc: Document, lines: LineCounter): (path: string) => SourcePos
   };
 }
 
-/** Turns a character offset into a position. */
-function positionOf(text: string, offset: number): SourcePosition {
-  const before = text.slice(0, offset).split('\n');
-  return { line: before.length, column: (before[before.length - 1] as string).length + 1 };
-}
-
-function parseJson(text: string, file: string): unknown {
-  const problem = checkJsonSyntax(text, channelFileLimits.maxDepth);
-  if (problem !== undefined) {
-    const p = positionOf(text, problem.offset);
-    throw parseError(`${file}:${p.line}:${p.column}: malformed JSON: ${problem.message}`, file);
-  }
-  return JSON.parse(text) as unknown;
-}
-
 /**
  * The offset of the first collection nested deeper than `limit` in YAML's concrete syntax tree,
  * found without recursion (the tree is built by yaml's iterative parser, so depth costs no stack
@@ -124,51 +79,6 @@ function tooDeep(source: string, limit: number): number | undefined {
     }
   }
   return undefined;
-}
-
-/** Is this literal a non-zero number written with more digits than a double can tell from 0? */
-function underflows(source: string, value: number): boolean {
-  return (
-    value === 0 &&
-    /^[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?$/.test(source) &&
-    /[1-9]/.test(source.replace(/[eE].*$/, ''))
-  );
-}
-
-/** Names that plain JavaScript objects carry already (`constructor`, `toString`, `__proto__`...). */
-export const reservedNames: ReadonlySet<string> = new Set(Object.getOwnPropertyNames(Object.prototype));
-
-/**
- * A key named like a member of every JavaScript object is no field of a channel file: an
- * unknown field wherever it stands (names of channels, directly under `channels`, are judged by
- * the loader).
- */
-function reservedKey(key: string, parent: string, path: string, issues: SpecIssue[]): void {
-  if (!reservedNames.has(key) || parent === 'channels') return;
-  issues.push({
-    code: 'unknown-option',
-    path,
-    message: `unknown field: '${key}' is a name every JavaScript object carries, never a field of a channel file`,
-  });
-}
-
-/** JSON read without a usable syntax tree: `JSON.parse` gives ±Infinity only for a literal that overflows. */
-function nonFiniteNumbers(value: unknown, path: string, issues: SpecIssue[]): void {
-  if (typeof value === 'number' && !Number.isFinite(value)) {
-    issues.push({
-      code: 'out-of-range',
-      path,
-      message: 'the number is beyond the largest a double can hold (about 1.8e308)',
-      limit: '1.7976931348623157e308',
-    });
-  } else if (Array.isArray(value)) value.forEach((v, i) => nonFiniteNumbers(v, `${path}[${i}]`, issues));
-  else if (typeof value === 'object' && value !== null) {
-    for (const [k, v] of Object.entries(value)) {
-      const child = path === '' ? k : `${path}.${k}`;
-      reservedKey(k, path, child, issues);
-      nonFiniteNumbers(v, child, issues);
-    }
-  }
 }
 
 interface Walk {
@@ -242,22 +152,8 @@ function walk(node: unknown, path: string, doc: Document, w: Walk): { nodes: num
     }
   } else if (isScalar(node) && typeof node.value === 'number') {
     const source = (node.source ?? '').trim();
-    const written = source === '' ? String(node.value) : source;
-    if (!Number.isFinite(node.value) && !/^[-+]?\.(?:inf|Inf|INF|nan|NaN|NAN)$/.test(written)) {
-      w.issues.push({
-        code: 'out-of-range',
-        path,
-        message: `the number ${written} is beyond the largest a double can hold (about 1.8e308)`,
-        limit: '1.7976931348623157e308',
-      });
-    } else if (underflows(written, node.value)) {
-      w.issues.push({
-        code: 'out-of-range',
-        path,
-        message: `the number ${written} is too small for a double and would be read as 0 (the smallest is about 4.9e-324)`,
-        limit: '4.9e-324',
-      });
-    }
+    const issue = numberLiteralIssue(source === '' ? String(node.value) : source, node.value, path);
+    if (issue !== undefined) w.issues.push(issue);
   }
   const size = { nodes, depth };
   if (node !== null && typeof node === 'object') w.sizes.set(node as Node, size);
@@ -279,9 +175,10 @@ function walk(node: unknown, path: string, doc: Document, w: Walk): { nodes: num
  * itself. Each is a `parse-error` with the position.
  *
  * JSON is checked against the strict JSON grammar first (RFC 8259: no comments, no trailing
- * commas, no NaN; the first error is named with its line and column), then read again through
- * the YAML parser (JSON is YAML 1.2) to find duplicate keys, which `JSON.parse` would silently
- * drop, and to map field paths to positions.
+ * commas, no NaN; the first error is named with its line and column), its values read by
+ * `JSON.parse`, and the text scanned once more for duplicate keys, which `JSON.parse` would
+ * silently drop, and to map field paths to positions (see {@link parseJsonChannelDocument}: JSON
+ * is read without the YAML parser, so a JSON file never loads it).
  *
  * Values are returned as they are written; YAML's `.nan` and `.inf` become NaN and Infinity and
  * must be rejected by the schema where a finite number is needed. A number literal beyond the
@@ -308,19 +205,13 @@ export function parseChannelDocument(
   syntax?: ChannelFileSyntax,
 ): ChannelDocument {
   const kind = syntax ?? (/\.json$/i.test(file) ? 'json' : 'yaml');
-  if (text.length > channelFileLimits.maxBytes) {
-    throw parseError(
-      `${file} is larger than a channel file may be (${channelFileLimits.maxBytes} bytes, 1 MiB); split it into several files`,
-      file,
-    );
-  }
-  const source = text.replace(/^\uFEFF/, '');
-  const json = kind === 'json' ? parseJson(source, file) : undefined;
+  if (kind === 'json') return parseJsonChannelDocument(text, file);
+  const source = channelFileSource(text, file);
   const deep = tooDeep(source, channelFileLimits.maxDepth);
   if (deep !== undefined) {
     const p = positionOf(source, deep);
     throw parseError(
-      `${file}:${p.line}:${p.column}: malformed ${kind === 'json' ? 'JSON' : 'YAML'}: nested more than ${channelFileLimits.maxDepth} levels deep`,
+      `${file}:${p.line}:${p.column}: malformed YAML: nested more than ${channelFileLimits.maxDepth} levels deep`,
       file,
     );
   }
@@ -337,49 +228,27 @@ export function parseChannelDocument(
     return `${file}:${line}:${col}`;
   };
   const problems = [...doc.errors, ...doc.warnings];
-  if (kind === 'json') {
-    const duplicates = doc.errors.filter((e) => e.code === 'DUPLICATE_KEY');
-    if (duplicates.length > 0) {
-      throw parseError(duplicates.map((e) => `${at(e.pos[0])}: duplicate key in JSON`).join('\n'), file);
-    }
-  } else if (problems.length > 0) {
+  if (problems.length > 0) {
     throw parseError(
       problems.map((e) => `${at(e.pos[0])}: malformed YAML: ${firstLine(e.message)}`).join('\n'),
       file,
     );
   }
-  const usable = doc.errors.length === 0;
   const w: Walk = { issues: [], problems: [], sizes: new Map(), aliasNodes: 0 };
-  if (usable) {
-    try {
-      walk(doc.contents, '', doc, w);
-    } catch (e) {
-      if (e !== w) throw e;
-    }
+  try {
+    walk(doc.contents, '', doc, w);
+  } catch (e) {
+    if (e !== w) throw e;
   }
   if (w.problems.length > 0) {
-    throw parseError(
-      w.problems
-        .map((p) => `${at(p.offset)}: malformed ${kind === 'json' ? 'JSON' : 'YAML'}: ${p.message}`)
-        .join('\n'),
-      file,
-    );
+    throw parseError(w.problems.map((p) => `${at(p.offset)}: malformed YAML: ${p.message}`).join('\n'), file);
   }
-  if (kind === 'json' && !usable) nonFiniteNumbers(json, '', w.issues);
-  let data: unknown = json;
-  if (kind === 'yaml') {
-    try {
-      data = doc.toJS({ maxAliasCount: channelFileLimits.maxAliasNodes });
-    } catch (e) {
-      // The walk above has checked every alias; this is the yaml package's own guard.
-      throw parseError(`${file}: malformed YAML: ${(e as Error).message}`, file);
-    }
+  let data: unknown;
+  try {
+    data = doc.toJS({ maxAliasCount: channelFileLimits.maxAliasNodes });
+  } catch (e) {
+    // The walk above has checked every alias; this is the yaml package's own guard.
+    throw parseError(`${file}: malformed YAML: ${(e as Error).message}`, file);
   }
-  return {
-    file,
-    syntax: kind,
-    data,
-    valueIssues: w.issues,
-    locate: usable ? locator(doc, lines) : () => undefined,
-  };
+  return { file, syntax: kind, data, valueIssues: w.issues, locate: locator(doc, lines) };
 }

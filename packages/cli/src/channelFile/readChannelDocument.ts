@@ -2,7 +2,8 @@ import { open } from 'node:fs/promises';
 import { BridgeworkError } from '@bridgework/core';
 import { describeFsError } from '../internal/fileErrors.js';
 import { channelFileLimits } from './channelFileLimits.js';
-import { parseChannelDocument, type ChannelDocument } from './parseChannelDocument.js';
+import type { ChannelDocument } from './channelFileText.js';
+import { parseJsonChannelDocument } from './jsonChannelDocument.js';
 
 /** Reads at most `limit + 1` bytes, so a file past the limit is refused without reading it all. */
 async function readBounded(file: string, limit: number): Promise<Buffer> {
@@ -64,5 +65,8 @@ export async function readChannelDocument(file: string): Promise<ChannelDocument
   } catch (e) {
     throw new BridgeworkError('parse-error', `${file} is not UTF-8 text`, { param: file, cause: e });
   }
+  if (/\.json$/i.test(file)) return parseJsonChannelDocument(text, file);
+  // The YAML reader (and the yaml package) is loaded only for a YAML file.
+  const { parseChannelDocument } = await import('./parseChannelDocument.js');
   return parseChannelDocument(text, file);
 }

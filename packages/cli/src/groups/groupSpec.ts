@@ -9,7 +9,7 @@ import { interactionTermChoices, instrumentAccuracyClasses } from '@bridgework/c
 import type { InstrumentAccuracyClass, InteractionTerms, TrimPlacement } from '@bridgework/calibration';
 import { dimensionTable, dimensions, parseQuantity, type Dimension } from '@bridgework/channel';
 import { channelNamePattern } from '../channelFile/loadChannelFile.js';
-import { reservedNames } from '../channelFile/parseChannelDocument.js';
+import { reservedNames } from '../channelFile/channelFileText.js';
 
 /** What a component name must match: a C identifier of at most 32 characters (it names C constants and data columns). */
 export const componentNamePattern = /^[A-Za-z][A-Za-z0-9_]{0,31}$/;
