@@ -13,8 +13,9 @@ import {
   positionOf,
   reservedKey,
   splitFieldPath,
+  type ChannelDocument,
+  type SourcePosition,
 } from './channelFileText.js';
-import type { ChannelDocument, SourcePosition } from './parseChannelDocument.js';
 
 /** A value of the file and where it starts; objects list their members in order, arrays their items. */
 interface JsonNode {
