@@ -177,7 +177,14 @@ export function describeRange(limits: RangeLimits): string {
  * ```
  */
 export function checkRange(param: string, value: unknown, limits: RangeLimits): number {
-  checkLimits(limits);
+  return checkWithin(param, value, checkLimits(limits));
+}
+
+/**
+ * {@link checkRange} for limits that are the library's own constants (known to be well formed,
+ * so not checked again on every call): the same checks and messages. Internal to core.
+ */
+export function checkWithin(param: string, value: unknown, limits: RangeLimits): number {
   const x = checkFinite(param, value);
   const lo = limits.min ?? -Infinity;
   const hi = limits.max ?? Infinity;

@@ -4,9 +4,10 @@ import {
   checkNonNegative,
   checkOptions,
   checkPositive,
-  checkRange,
+  checkWithin,
   formatValue,
   type CheckPositiveOptions,
+  type RangeLimits,
 } from './checks.js';
 import type { Interval } from './Interval.js';
 
@@ -153,8 +154,11 @@ export const GAUGE_FACTOR_LIMITS: Readonly<Interval> = Object.freeze({
  * ```
  */
 export function checkGaugeFactor(param: string, value: unknown): number {
-  return checkRange(param, checkPositive(param, value), GAUGE_FACTOR_LIMITS);
+  return checkWithin(param, checkPositive(param, value), GAUGE_FACTOR_LIMITS);
 }
+
+/** Above absolute zero, in °C (for {@link checkCelsius}). */
+const ABOVE_ABSOLUTE_ZERO: RangeLimits = Object.freeze({ min: -273.15, minExclusive: true });
 
 /**
  * Checks that `value` is a temperature in °C above absolute zero (> −273.15) and returns it.
@@ -169,7 +173,7 @@ export function checkGaugeFactor(param: string, value: unknown): number {
  * ```
  */
 export function checkCelsius(param: string, value: unknown): number {
-  return checkRange(param, value, { min: -273.15, minExclusive: true });
+  return checkWithin(param, value, ABOVE_ABSOLUTE_ZERO);
 }
 
 /**
@@ -181,6 +185,9 @@ export function checkCelsius(param: string, value: unknown): number {
  * binary64.
  */
 export const VOLTS_LIMITS: Readonly<Interval> = Object.freeze({ min: 1e-9, max: 1e6 });
+
+/** Either sign, |v| ≤ VOLTS_LIMITS.max (for {@link checkVolts} with `signed`). */
+const SIGNED_VOLTS: RangeLimits = Object.freeze({ min: -VOLTS_LIMITS.max, max: VOLTS_LIMITS.max });
 
 /** Options of {@link checkVolts}. */
 export interface CheckVoltsOptions {
@@ -211,6 +218,6 @@ export function checkVolts(param: string, value: unknown, options?: CheckVoltsOp
     if (s !== undefined && typeof s !== 'boolean') fail('wrong-type', 'options.signed', 'a boolean', s);
     signed = s === true;
   }
-  if (signed) return checkRange(param, value, { min: -VOLTS_LIMITS.max, max: VOLTS_LIMITS.max });
-  return checkRange(param, checkPositive(param, value), VOLTS_LIMITS);
+  if (signed) return checkWithin(param, value, SIGNED_VOLTS);
+  return checkWithin(param, checkPositive(param, value), VOLTS_LIMITS);
 }

@@ -21,7 +21,7 @@
  */
 import { portableExp, portableExpm1, portableLog } from './portableMath.js';
 import { nextUint32, type GeneratorState } from './xoshiro128.js';
-import { ZIGGURAT_R, zigguratF, zigguratRatio, zigguratX } from './ziggurat.js';
+import { ZIGGURAT_R, zigguratTables } from './ziggurat.js';
 
 /** What one input column is drawn from (plain data, so it can be posted to a worker). */
 export type SamplerSpec =
@@ -67,6 +67,7 @@ function zigguratSlowPath(s: GeneratorState, layer: number, u: number): number {
     } while (y + y < x * x);
     return u < 0 ? -(ZIGGURAT_R + x) : ZIGGURAT_R + x;
   }
+  const { x: zigguratX, f: zigguratF } = zigguratTables();
   const z = u * (zigguratX[layer] as number);
   const low = zigguratF[layer] as number;
   const y = low + uniformOpen(s) * ((zigguratF[layer + 1] as number) - low);
@@ -75,6 +76,7 @@ function zigguratSlowPath(s: GeneratorState, layer: number, u: number): number {
 
 /** One standard normal variate by the whole ziggurat (fast test, then the slow path), state in `s`. */
 function normalOne(s: GeneratorState): number {
+  const { x: zigguratX, ratio: zigguratRatio } = zigguratTables();
   for (;;) {
     const r = nextUint32(s) | 0;
     const layer = r & 1023;
@@ -89,8 +91,18 @@ function normalOne(s: GeneratorState): number {
 // |u| < x_{i+1}/x_i for u = (h + ½)·2⁻²¹ exactly when m < ⌈ratio_i·2²¹ − ½⌉ (the scaling by 2²¹ and
 // the subtraction of ½ are exact). Accepted values are (h + ½)·(x_i·2⁻²¹): the same double as
 // u·x_i, since scaling by a power of two is exact.
-const fastLimit = Int32Array.from(zigguratRatio, (ratio) => Math.ceil(ratio * 2097152 - 0.5));
-const fastScale = zigguratX.map((x) => x * TWO_POW_M21);
+// Built with the ziggurat's tables, on first use.
+let fastTables: { readonly limit: Int32Array; readonly scale: Float64Array } | undefined;
+function fastTest(): { readonly limit: Int32Array; readonly scale: Float64Array } {
+  if (fastTables === undefined) {
+    const { x, ratio } = zigguratTables();
+    fastTables = {
+      limit: Int32Array.from(ratio, (r) => Math.ceil(r * 2097152 - 0.5)),
+      scale: x.map((v) => v * TWO_POW_M21),
+    };
+  }
+  return fastTables;
+}
 
 // Draws that failed the fast test (their output word and position), completed after the pass.
 let rejectedWord = new Int32Array(256);
@@ -120,8 +132,7 @@ export function fillNormal(
   }
   const words = rejectedWord;
   const at = rejectedAt;
-  const limit = fastLimit;
-  const width = fastScale;
+  const { limit, scale: width } = fastTest();
   let rejected = 0;
   let a = s[0] as number;
   let b = s[1] as number;

@@ -21,22 +21,40 @@ export const ZIGGURAT_R = 4.038849846109504;
 /** Area of each layer, V = R·f(R) + ∫_R^∞ f. */
 export const ZIGGURAT_V = 0.0012263246463530897;
 
-/** x_i for i = 0…1024 (x_0 = V/f(R), x_1 = R, x_1024 = 0). */
-export const zigguratX = new Float64Array(ZIGGURAT_LAYERS + 1);
-/** f(x_i) = exp(−x_i²/2) for i = 0…1024 (f_1024 = 1; f_0 is never used). */
-export const zigguratF = new Float64Array(ZIGGURAT_LAYERS + 1);
-/** x_{i+1}/x_i: a point u·x_i of layer i with |u| below this lies under the curve. */
-export const zigguratRatio = new Float64Array(ZIGGURAT_LAYERS);
-
-const f = (x: number): number => portableExp(-0.5 * x * x);
-zigguratX[0] = ZIGGURAT_V / f(ZIGGURAT_R);
-zigguratX[1] = ZIGGURAT_R;
-for (let i = 2; i < ZIGGURAT_LAYERS; i++) {
-  const prev = zigguratX[i - 1] as number;
-  zigguratX[i] = Math.sqrt(-2 * portableLog(ZIGGURAT_V / prev + f(prev)));
+/** The tables of the ziggurat. */
+export interface ZigguratTables {
+  /** x_i for i = 0…1024 (x_0 = V/f(R), x_1 = R, x_1024 = 0). */
+  readonly x: Float64Array;
+  /** f(x_i) = exp(−x_i²/2) for i = 0…1024 (f_1024 = 1; f_0 is never used). */
+  readonly f: Float64Array;
+  /** x_{i+1}/x_i: a point u·x_i of layer i with |u| below this lies under the curve. */
+  readonly ratio: Float64Array;
 }
-zigguratX[ZIGGURAT_LAYERS] = 0;
-for (let i = 0; i <= ZIGGURAT_LAYERS; i++) zigguratF[i] = f(zigguratX[i] as number);
-for (let i = 0; i < ZIGGURAT_LAYERS; i++) {
-  zigguratRatio[i] = (zigguratX[i + 1] as number) / (zigguratX[i] as number);
+
+let tables: ZigguratTables | undefined;
+
+/**
+ * The tables, built on first use (about 2000 portable logarithms and exponentials, so a program
+ * that draws no normal variate does not pay for them when it loads this package).
+ */
+export function zigguratTables(): ZigguratTables {
+  tables ??= buildTables();
+  return tables;
+}
+
+function buildTables(): ZigguratTables {
+  const x = new Float64Array(ZIGGURAT_LAYERS + 1);
+  const fx = new Float64Array(ZIGGURAT_LAYERS + 1);
+  const ratio = new Float64Array(ZIGGURAT_LAYERS);
+  const f = (v: number): number => portableExp(-0.5 * v * v);
+  x[0] = ZIGGURAT_V / f(ZIGGURAT_R);
+  x[1] = ZIGGURAT_R;
+  for (let i = 2; i < ZIGGURAT_LAYERS; i++) {
+    const prev = x[i - 1] as number;
+    x[i] = Math.sqrt(-2 * portableLog(ZIGGURAT_V / prev + f(prev)));
+  }
+  x[ZIGGURAT_LAYERS] = 0;
+  for (let i = 0; i <= ZIGGURAT_LAYERS; i++) fx[i] = f(x[i] as number);
+  for (let i = 0; i < ZIGGURAT_LAYERS; i++) ratio[i] = (x[i + 1] as number) / (x[i] as number);
+  return { x, f: fx, ratio };
 }
