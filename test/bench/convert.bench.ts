@@ -26,7 +26,16 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 const root = fileURLToPath(new URL('../../../', import.meta.url)); // .bench-build/test/bench → repo
-const bin = join(root, 'packages/cli/dist/bin.js');
+// The package's executable (its bin: the bundled command), as an installed copy runs it.
+const bin = join(
+  root,
+  'packages/cli',
+  (
+    JSON.parse(readFileSync(join(root, 'packages/cli/package.json'), 'utf8')) as {
+      bin: Record<string, string>;
+    }
+  ).bin['bridgework'] as string,
+);
 const short = process.argv.includes('--short');
 const channels = 8;
 const flag = (name: string): number | undefined => {

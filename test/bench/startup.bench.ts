@@ -19,7 +19,16 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 const root = fileURLToPath(new URL('../../../', import.meta.url)); // .bench-build/test/bench → repo
-const bin = join(root, 'packages/cli/dist/bin.js');
+// The package's executable (its bin: the bundled command), as an installed copy runs it.
+const bin = join(
+  root,
+  'packages/cli',
+  (
+    JSON.parse(readFileSync(join(root, 'packages/cli/package.json'), 'utf8')) as {
+      bin: Record<string, string>;
+    }
+  ).bin['bridgework'] as string,
+);
 const short = process.argv.includes('--short');
 const flag = (name: string): string | undefined =>
   process.argv.find((x) => x.startsWith(`--${name}=`))?.slice(name.length + 3);

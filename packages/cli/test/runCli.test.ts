@@ -98,8 +98,8 @@ describe('runCli: a channel file that cannot be read', () => {
 
 describe('the executable', () => {
   const bin = `${packageDir}src/bin.ts`;
-  it('is declared as dist/bin.js with a node shebang', () => {
-    expect(pkg.bin).toEqual({ bridgework: 'dist/bin.js' });
+  it('is declared as the bundle of dist/bin.js, with a node shebang (see bundledBin.test.ts)', () => {
+    expect(pkg.bin).toEqual({ bridgework: 'dist/bundle/bridgework.js' });
     expect(readFileSync(bin, 'utf8').split('\n')[0]).toBe('#!/usr/bin/env node');
   });
 

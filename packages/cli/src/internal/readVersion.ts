@@ -1,7 +1,8 @@
 import { readFile } from 'node:fs/promises';
+import { packageFile } from './packageFile.js';
 
-/** The package version, read from package.json (one folder above both src/ and dist/). */
+/** The package version, read from the package's package.json. */
 export async function readVersion(): Promise<string> {
-  const text = await readFile(new URL('../../package.json', import.meta.url), 'utf8');
+  const text = await readFile(packageFile('package.json'), 'utf8');
   return (JSON.parse(text) as { version: string }).version;
 }

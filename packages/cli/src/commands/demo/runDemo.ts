@@ -12,18 +12,16 @@ import { constantsText } from '../../report/constantsText.js';
 import { designReport } from '../../report/designReport.js';
 import { designReportHtml } from '../../report/designReportHtml.js';
 import { formatTextReport } from '../../report/formatTextReport.js';
+import { packageFile } from '../../internal/packageFile.js';
 import { runDate } from '../../report/runDate.js';
 import type { CommandContext } from '../CommandContext.js';
 import type { DemoArgs } from './demoOptions.js';
 
 /**
  * The demo's channel file, shipped in the package as `demo/footbridge-monitoring.yaml` and found
- * relative to this module (`src/commands/demo/` in a clone, `dist/commands/demo/` once
- * installed: the same number of folders below the package), never relative to the working folder.
+ * from the command's own location (see `packageFile`), never relative to the working folder.
  */
-export const demoChannelFile = fileURLToPath(
-  new URL('../../../demo/footbridge-monitoring.yaml', import.meta.url),
-);
+export const demoChannelFile = fileURLToPath(packageFile('demo/footbridge-monitoring.yaml'));
 
 /** The files the demo writes, in its folder: the reports and a copy of the channel file to edit. */
 export const demoFiles = {
@@ -105,7 +103,7 @@ export async function run(args: DemoArgs, context: CommandContext): Promise<numb
       constantsText(loaded, { format: 'c', prefix: 'footbridge', verification: 'sampled', generator }),
     );
     // The copy points editors at the schema shipped in the package.
-    const schema = fileURLToPath(new URL('../../../schema/channel-file.schema.json', import.meta.url));
+    const schema = fileURLToPath(packageFile('schema/channel-file.schema.json'));
     await copy.write(
       example.replace(/^# yaml-language-server: \$schema=.*$/m, `# yaml-language-server: $schema=${schema}`),
     );
