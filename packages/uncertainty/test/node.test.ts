@@ -10,6 +10,7 @@ import {
   twelveInputPositional,
   twelveInputs,
 } from './support/benchModel.js';
+import { intervalRoutes } from '../src/node/counters.js';
 
 const module = new URL('./support/benchModel.ts', import.meta.url);
 
@@ -32,6 +33,30 @@ describe('@bridgework/uncertainty/node: worker threads', () => {
         expect({ ...r, values: undefined }).toEqual({ ...reference, values: undefined });
         const a = await pool.run({ inputs: twelveInputs, adaptive: true, seed: 5 });
         expect(a).toEqual(adaptiveReference);
+      } finally {
+        await pool.close();
+      }
+    }
+  }, 60_000);
+
+  it('reads the intervals from the tails the workers sorted (one side per worker), bit-identical to one thread', async () => {
+    // The workers copy their tails into two combined arrays and sort one each; the main thread
+    // only walks them. A fallback to the values on the main thread would give the same result, so
+    // the route is counted too (src/node/counters.ts).
+    const options = { inputs: twelveInputs, trials: 300_000, seed: 9 } as const;
+    for (const workers of [1, 2, 3]) {
+      const pool = await createMonteCarloPool({
+        model: { module, exportName: 'twelveInputPositional' },
+        workers,
+      });
+      try {
+        const before = { ...intervalRoutes };
+        for (const coverage of [0.95, 0.99]) {
+          const r = await pool.run({ ...options, coverage });
+          expect(r).toEqual(monteCarlo({ model: twelveInputPositional, ...options, coverage }));
+        }
+        expect(intervalRoutes.fromWorkers - before.fromWorkers).toBe(2);
+        expect(intervalRoutes.onMainThread - before.onMainThread).toBe(0);
       } finally {
         await pool.close();
       }
