@@ -13,7 +13,7 @@ import { describe, expect, it } from 'vitest';
 import { createChannel, createInterleavedConverter, type ChannelSpec } from '@bridgework/channel';
 import { channelInternals } from '../src/internal/makeChannel.js';
 import { convertCallendarVanDusen } from '../src/convert/curveKernels.js';
-import { createRtdPolynomial } from '../src/convert/rtdPolynomial.js';
+import { createRtdPolynomial, SEGMENT, segmentValue, STRIDE } from '../src/convert/rtdPolynomial.js';
 import { RejectTally } from '../src/convert/kernel.js';
 import { arm1Ref, cvdTemperature, D, ratioFromCodeRef, X } from './support/reference.js';
 import { rtdExact, ulp } from './support/doubleDouble.js';
@@ -151,6 +151,25 @@ describe('platinum RTD loop (IEC 60751 inverse inline)', () => {
         });
       }
     }
+  });
+
+  it('the loop evaluates exactly the checked expression (segmentValue), sample for sample', () => {
+    // The check covers segmentValue; the loop writes the same expression out with its loads first.
+    const ch = createChannel(pt100);
+    const kernel = channelInternals(ch).mappingAt(undefined).resistanceCurve!.kernel!;
+    const p = kernel.polynomial!;
+    const codes = Int32Array.from({ length: 20_000 }, (_, i) => -8_300_000 + i * 829 + (i % 13));
+    const { values } = ch.convert(codes);
+    let served = 0;
+    for (let i = 0; i < codes.length; i++) {
+      const x = codes[i]!;
+      const s = (x - p.base) >>> p.shift;
+      if (p.states[s] !== SEGMENT.CHECKED) continue;
+      served++;
+      const want = segmentValue(p.table, s * STRIDE, ((x - p.base) & p.offsetMask) - p.half);
+      if (!Object.is(values[i], want)) expect([x, values[i]]).toEqual([x, want]);
+    }
+    expect(served).toBeGreaterThan(19_000);
   });
 
   it('a polynomial whose check fails leaves every code to the exact loop, bit for bit', () => {

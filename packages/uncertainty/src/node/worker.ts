@@ -123,6 +123,10 @@ class TailCollector {
    */
   contribute(): void {
     const control = this.control;
+    // A worker that collected nothing has nothing to add, whether or not block 0 is done yet
+    // (unless block 0 gave no thresholds: then the tails are lost for every worker).
+    const empty = this.pending.length === 0 && this.nl === 0 && this.nh === 0;
+    if (empty && !this.failed && Atomics.load(control, CONTROL.ready) !== 2) return;
     if (this.pending.length > 0) {
       // Block 0 is being run by another worker: wait for it (a failure anywhere ends the wait).
       while (Atomics.load(control, CONTROL.ready) === 0 && Atomics.load(control, CONTROL.failed) >= 0) {
