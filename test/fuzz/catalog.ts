@@ -78,7 +78,7 @@ export const constants: Partial<Record<LibraryPackage, readonly string[]>> = {
   ],
   chain: ['PEAK_TO_PEAK_PER_RMS', 'heatSinkPowerDensity', 'noiseFilterKinds'],
   uncertainty: ['MONTE_CARLO_BYTES_PER_TRIAL', 'MONTE_CARLO_MAX_TRIALS', 'distributions'],
-  mechanics: ['maxRosetteConditionNumber'],
+  mechanics: ['maxRosetteConditionNumber', 'memberResultants'],
   calibration: [
     'instrumentAccuracyClasses',
     'interactionTermChoices',

@@ -5,8 +5,7 @@ import { prepareChannel, type PreparedChannel } from './internal/prepare.js';
 import type { AnySpec } from './internal/resolve.js';
 import type { SensorKind } from './kinds/SensorKind.js';
 import { buildChannelSchema, type AnySensorKind } from './spec/buildSchema.js';
-import type { FieldRow } from './spec/schema.js';
-import { runSchema } from './spec/schema.js';
+import { runSchema, type AnyNode } from './spec/schema.js';
 
 /** Options of {@link validateChannelSpec}. */
 export interface ValidateChannelSpecOptions {
@@ -52,10 +51,12 @@ export interface ChannelKit {
    * @throws {@link @bridgework/core!BridgeworkError} `invalid-spec` with every problem in `issues`.
    */
   createChannel(spec: unknown): Channel;
-  /** The JSON Schema (draft 2020-12) of a spec. */
-  channelSpecJsonSchema(): Record<string, unknown>;
-  /** The field reference: one row per field. */
-  channelSpecFields(): FieldRow[];
+  /**
+   * The schema that validates a spec: the field reference and the JSON Schema are made from it by
+   * `kitSpecFields` and `kitSpecJsonSchema` (channelSpecReference.ts), which validation and
+   * conversion do not import.
+   */
+  readonly schema: AnyNode;
 }
 
 /** Validated values and their prepared channels: the private brand of a validated spec. */
@@ -150,11 +151,6 @@ export function createChannelKit(options: { readonly sensorKinds: readonly Senso
         });
       return makeChannel(prepared.get(result.value as object) as PreparedChannel);
     },
-    channelSpecJsonSchema: () => ({
-      $schema: 'https://json-schema.org/draft/2020-12/schema',
-      title: 'bridgework channel',
-      ...schema.jsonSchema(),
-    }),
-    channelSpecFields: () => schema.rows(''),
+    schema,
   };
 }

@@ -1,5 +1,33 @@
+import type { ChannelKit } from './channelKit.js';
 import { defaultKit } from './internal/defaultKit.js';
+import { builtInFieldDocs } from './spec/fieldDocs.js';
 import type { FieldRow } from './spec/schema.js';
+import { fieldJsonSchema, fieldRows } from './spec/schemaReference.js';
+
+/**
+ * The JSON Schema of a kit's spec (see {@link channelSpecJsonSchema}); a field of a kind made
+ * outside the package is described by its own `doc`.
+ *
+ * @param kit - The kit.
+ * @returns A JSON-serialisable schema object.
+ */
+export function kitSpecJsonSchema(kit: ChannelKit): Record<string, unknown> {
+  return {
+    $schema: 'https://json-schema.org/draft/2020-12/schema',
+    title: 'bridgework channel',
+    ...fieldJsonSchema(kit.schema, '', builtInFieldDocs),
+  };
+}
+
+/**
+ * The field reference of a kit's spec (see {@link channelSpecFields}).
+ *
+ * @param kit - The kit.
+ * @returns The rows, in schema order.
+ */
+export function kitSpecFields(kit: ChannelKit): FieldRow[] {
+  return fieldRows(kit.schema, '', builtInFieldDocs);
+}
 
 /**
  * The JSON Schema (draft 2020-12) of a channel spec, for editors and file schemas.
@@ -11,7 +39,7 @@ import type { FieldRow } from './spec/schema.js';
  * @returns A JSON-serialisable schema object.
  */
 export function channelSpecJsonSchema(): Record<string, unknown> {
-  return defaultKit.channelSpecJsonSchema();
+  return kitSpecJsonSchema(defaultKit);
 }
 
 /**
@@ -21,5 +49,5 @@ export function channelSpecJsonSchema(): Record<string, unknown> {
  * @returns The rows, in schema order.
  */
 export function channelSpecFields(): FieldRow[] {
-  return defaultKit.channelSpecFields();
+  return kitSpecFields(defaultKit);
 }

@@ -40,6 +40,8 @@ describe('budget: lines, models and the combined uncertainty', () => {
     );
     for (const line of budget.lines) {
       expect(line.model.length).toBeGreaterThan(20);
+      // A tolerance names its distribution once (it was '… (rectangular); rectangular limits …').
+      expect(line.model.match(/rectangular/g)?.length ?? 0).toBeLessThanOrEqual(1);
       expect(Object.keys(line.inputs).length).toBeGreaterThan(0);
       expect(Number.isFinite(line.value)).toBe(true);
     }
@@ -197,6 +199,9 @@ describe('budget: lines, models and the combined uncertainty', () => {
     const line = rtd.lines.find((l) => l.name === 'RTD class tolerance')!;
     expect(line.value).toBeNear(0.35, { rel: 1e-12 });
     expect(rtd.combined.contributions['RTD class tolerance']).toBeNear(0.35 / Math.sqrt(3), { rel: 1e-9 });
+    expect(line.model).toBe(
+      'IEC 60751 class A (wire-wound) limits ±(0.15 + 0.002·|t|) °C at 100 °C; rectangular limits (u = a/√3, JCGM 100 4.3.7)',
+    );
   });
 
   it('flags headroom: an output swing too small for the span fails the check', () => {

@@ -8,7 +8,10 @@ import { describe, expect, it } from 'vitest';
 import { arrangementTable, strainArrangements } from '@bridgework/bridge';
 import { channelBudget, createChannel } from '@bridgework/channel';
 import { createChannelKit } from '../src/channelKit.js';
+import { kitSpecFields, kitSpecJsonSchema } from '../src/channelSpecReference.js';
+import { builtInKindBudgets } from '../src/kinds/budgetRegistry.js';
 import { builtInSensorKinds } from '../src/kinds/registry.js';
+import type { SensorKind } from '../src/kinds/SensorKind.js';
 import { fakeKind } from './support/fakeKind.js';
 import { D, X, arm1Ref, ratioFromCodeRef } from './support/reference.js';
 
@@ -30,10 +33,10 @@ describe('a sensor kind is its module and one registry line', () => {
       wiring: 'three-wire', // the quarter arrangement's default, from the bridge table
       completionOhms: 1000, // the kind's nominal resistance
     });
-    expect(
-      kit.channelSpecFields().find((r) => r.path === 'sensor<resistive-film>.sensitivity'),
-    ).toMatchObject({ presence: 'required' });
-    expect(JSON.stringify(kit.channelSpecJsonSchema())).toContain('"const":"resistive-film"');
+    expect(kitSpecFields(kit).find((r) => r.path === 'sensor<resistive-film>.sensitivity')).toMatchObject({
+      presence: 'required',
+    });
+    expect(JSON.stringify(kitSpecJsonSchema(kit))).toContain('"const":"resistive-film"');
     const typo = kit.validateChannelSpec({ ...spec, sensor: { kind: 'resistive-flim', sensitivity: 4 } });
     expect(typo.issues).toEqual([
       expect.objectContaining({
@@ -61,6 +64,32 @@ describe('a sensor kind is its module and one registry line', () => {
     const budget = channelBudget(channel, { at: 500 });
     expect(budget.model).toBe('composed'); // no closed form given: the exact map per evaluation
     expect(budget.ok).toBe(true);
+  });
+
+  it('a kind without a budget side converts, and its budget is refused naming the kind', () => {
+    const { budget: _dropped, ...bare } = fakeKind;
+    const bareKit = createChannelKit({ sensorKinds: [...builtInSensorKinds, bare] });
+    const channel = bareKit.createChannel(spec);
+    expect(channel.quantityFromCode(0)).toBeNear(0, { abs: 1e-9 });
+    expect(() => channelBudget(channel)).toThrowBridgeworkError('missing-option', { param: 'sensor.kind' });
+  });
+});
+
+describe('the built-in kinds keep their budget side apart from the conversion path', () => {
+  it('no built-in kind object carries budget methods; the budget registry has each one’s', () => {
+    for (const kind of builtInSensorKinds) {
+      for (const key of ['budget', 'budgetInputs', 'budgetLines', 'fastMap', 'plausibleRanges'])
+        expect(Object.hasOwn(kind, key), `${kind.name}.${key}`).toBe(false);
+      expect(builtInKindBudgets.get(kind as unknown as SensorKind)?.budgetInputs, kind.name).toBeTypeOf(
+        'function',
+      );
+    }
+    expect(builtInKindBudgets.size).toBe(builtInSensorKinds.length);
+    // The conversion modules do not import the budget ones (the bundle-size split; the consumer test measures it).
+    for (const name of ['strainGauge', 'transducer', 'rtd', 'thermistor', 'registry', 'SensorKind']) {
+      const text = readFileSync(new URL(`../src/kinds/${name}.ts`, import.meta.url), 'utf8');
+      expect(text, name).not.toMatch(/from '\.\/(\w+Budget|budgetRegistry)\.js'/);
+    }
   });
 });
 

@@ -6,6 +6,9 @@ import {
   validateChannelSpec,
   type ChannelSpec,
 } from '@bridgework/channel';
+import { defaultKit } from '../src/internal/defaultKit.js';
+import { builtInFieldDocs } from '../src/spec/fieldDocs.js';
+import type { AnyNode } from '../src/spec/schema.js';
 import { normalizedRows, unitTableMarkdown } from './support/unitTableDocs.js';
 
 const full: ChannelSpec = {
@@ -227,6 +230,42 @@ describe('the channel spec schema', () => {
     });
     expect(rows.find((r) => r.path === 'adc.filter.order')).toMatchObject({ presence: '3' });
     expect(JSON.parse(JSON.stringify(schema))).toEqual(schema);
+  });
+
+  it('states each field’s meaning in one place: a required field on itself (its missing message quotes it), any other in the reference table', () => {
+    const rows = channelSpecFields();
+    const fields = new Map<string, AnyNode>();
+    const walk = (node: AnyNode, path: string): void => {
+      fields.set(path, node);
+      const shape = node.shape;
+      if (shape.form === 'object')
+        for (const [k, f] of Object.entries(shape.fields)) walk(f, path === '' ? k : `${path}.${k}`);
+      if (shape.form === 'tagged')
+        for (const [n, v] of Object.entries(shape.variants)) walk(v, `${path}<${n}>`);
+    };
+    walk(defaultKit.schema, '');
+    // Every row of the reference has a meaning.
+    for (const row of rows) expect(row.doc.trim(), row.path).not.toBe('');
+    for (const [path, node] of fields) {
+      const inTable = Object.hasOwn(builtInFieldDocs, path);
+      const onField = node.doc !== undefined;
+      // A required field of an object (not a tagged union's variant, not the whole spec) carries its own.
+      const quoted = node.presence === 'required' && path !== '' && !path.endsWith('>');
+      expect({ path, inTable, onField }).toEqual({ path, inTable: !quoted, onField: quoted });
+    }
+    // No entry of the table names a field the schema does not have.
+    for (const path of Object.keys(builtInFieldDocs)) expect(fields.has(path), path).toBe(true);
+    // The message for a missing required field quotes its meaning.
+    const { volts: _volts, ...excitation } = full.excitation;
+    const missing = validateChannelSpec({ ...full, excitation });
+    expect(missing.issues).toContainEqual(
+      expect.objectContaining({
+        code: 'missing-option',
+        path: 'excitation.volts',
+        message: 'is required (Source EMF)',
+        expected: 'Source EMF',
+      }),
+    );
   });
 
   it('docs/channel.md holds the unit table exactly as the unit table defines it', () => {

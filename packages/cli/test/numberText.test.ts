@@ -166,6 +166,54 @@ describe('writeDigits', () => {
     expect(digits(NaN, 3)).toBe('NaN');
   });
 
+  it('the short path (one correctly rounded scaling, up to 12 digits) equals decimal.js wherever it decides', () => {
+    let decided = 0;
+    let tried = 0;
+    for (const arb of [anyFinite, measured, widened]) {
+      fc.assert(
+        fc.property(arb, fc.integer({ min: 1, max: 12 }), (v, d) => {
+          const lean = numberTextPaths.lean(v, d);
+          if (v === 0 || !Number.isFinite(v)) return;
+          tried++;
+          if (lean !== undefined) {
+            decided++;
+            expect(lean, `${v} to ${d}`).toBe(referenceDigits(v, d));
+          }
+        }),
+        { numRuns: 4_000 },
+      );
+    }
+    // It decides every value of a practical magnitude (1e-13 to 1e21) but near-ties; anyFinite's
+    // values are mostly far outside, measured and float32 values mostly inside.
+    expect(decided).toBeGreaterThan(tried / 3);
+  });
+
+  it('the short path decides measured values at 6 and 9 digits, and defers exact ties and far exponents', () => {
+    const rng = fc.sample(measured, { numRuns: 2_000, seed: 17 });
+    for (const d of [6, 9]) {
+      const undecided = rng.filter((v) => v !== 0 && numberTextPaths.lean(v, d) === undefined);
+      expect(undecided.length, `${d} digits: ${undecided.slice(0, 5).join(', ')}`).toBeLessThan(100);
+    }
+    expect(numberTextPaths.lean(2.5, 1)).toBeUndefined(); // a tie: the exact path rounds it to even
+    expect(numberTextPaths.lean(0.125, 2)).toBeUndefined();
+    expect(numberTextPaths.lean(1e300, 6)).toBeUndefined(); // 10^j not an exact double
+    expect(numberTextPaths.lean(5e-324, 6)).toBeUndefined();
+    expect(numberTextPaths.lean(9.9999996, 6)).toBe('10'); // carries into the next power of ten
+    expect(numberTextPaths.lean(-0.000123456789, 4)).toBe('-0.0001235');
+  });
+
+  it('the decimal exponent estimate ⌊be·log10 2⌋ is exact for every binary exponent (BigInt check)', () => {
+    for (let be = -1022; be <= 1023; be++) {
+      const e = Math.floor(be * 0.3010299956639812);
+      // 10^e ≤ 2^be < 10^(e+1), compared exactly.
+      const two = be >= 0 ? [2n ** BigInt(be), 1n] : [1n, 2n ** BigInt(-be)];
+      const ten = (k: number) => (k >= 0 ? [10n ** BigInt(k), 1n] : [1n, 10n ** BigInt(-k)]);
+      const le = (x: bigint[], y: bigint[]) => x[0]! * y[1]! <= y[0]! * x[1]!;
+      const lt = (x: bigint[], y: bigint[]) => x[0]! * y[1]! < y[0]! * x[1]!;
+      expect(le(ten(e), two) && lt(two, ten(e + 1)), `be = ${be}`).toBe(true);
+    }
+  });
+
   it('reads back within half a unit in the d-th digit, and at 17 digits as the same double', () => {
     fc.assert(
       fc.property(anyFinite, fc.integer({ min: 1, max: 17 }), (v, d) => {

@@ -101,6 +101,38 @@ function totalMacro(P: string, total: TotalErrorBound | undefined): string[] {
   return total === undefined ? [] : [`#define ${P}_TOTAL_ERROR ${doubleLiteral(total.bound)}`];
 }
 
+/**
+ * One evaluator's section as every form writes it: the comment block, the macros, the total-error
+ * macro, then `static inline <type> <name>(int32_t code)` with its body.
+ */
+function functionText(
+  comment: readonly string[],
+  macros: readonly string[],
+  P: string,
+  total: TotalErrorBound | undefined,
+  returnType: string,
+  fn: string,
+  body: readonly string[],
+): string[] {
+  return [
+    ...comment,
+    ...macros,
+    ...totalMacro(P, total),
+    '',
+    `static inline ${returnType} ${fn}(int32_t code)`,
+    '{',
+    ...body,
+    '}',
+    '',
+  ];
+}
+
+/** The names, C type, unit and total a floating-point evaluator's section starts from. */
+function floatParts(prefix: string, ch: EmittedChannel, type: 'float32' | 'float64') {
+  const { P, fn } = names(prefix, ch, type);
+  return { P, fn, T: cFloatType(type), unit: unitText(ch.quantityUnit), total: ch.totals[type] };
+}
+
 /** Segment index and centred t in C (see PiecewisePolynomial). */
 function segmentLines(P: string, bits: number): string[] {
   const mask = (2 ** bits - 1).toString(16).toUpperCase();
@@ -156,22 +188,14 @@ function fixedAffineSection(prefix: string, ch: EmittedChannel, map: FixedPointM
           `${INDENT}const int32_t d = (int32_t)((int64_t)code - ${P}_OFFSET_CODE);`,
           `${INDENT}const int32_t acc = d * ${P}_MULTIPLIER + ${P}_BIAS;`,
         ];
-  return [
-    ...lines,
+  const macros = [
     `#define ${P}_OFFSET_CODE ${intLiteral(map.offsetCode, 64)}`,
     `#define ${P}_MULTIPLIER ${intLiteral(map.multiplier, 32)}`,
     `#define ${P}_BIAS ${intLiteral(map.bias, width)}`,
     `#define ${P}_SHIFT ${map.shift}`,
     `#define ${PF}_OUTPUT_UNIT ${doubleLiteral(Number(map.source.outputUnit))}`,
-    ...totalMacro(PF, total),
-    '',
-    `static inline int32_t ${fn}(int32_t code)`,
-    '{',
-    ...accumulate,
-    rounding,
-    '}',
-    '',
   ];
+  return functionText(lines, macros, PF, total, 'int32_t', fn, [...accumulate, rounding]);
 }
 
 /** Row of a table with a trailing comment, aligned for reading. */
@@ -224,14 +248,11 @@ function fixedPiecewiseSection(prefix: string, ch: EmittedChannel, map: FixedPie
   const body = [`${INDENT}int32_t y = C[i][${n}];`];
   for (let j = n - 1; j >= 0; j--) body.push(`${INDENT}y = ${floor}(y * t, S[i][${j}]) + C[i][${j}];`);
   body.push(`${INDENT}return ${floor}(y, S[i][${n}]);`);
-  return [
-    ...lines,
+  const macros = [
     `#define ${P}_SEGMENT_BASE ${intLiteral(map.segmentBase, 32)}`,
     `#define ${P}_OUTPUT_UNIT ${doubleLiteral(Number(map.outputUnit))}`,
-    ...totalMacro(P, total),
-    '',
-    `static inline int32_t ${fn}(int32_t code)`,
-    '{',
+  ];
+  return functionText(lines, macros, P, total, 'int32_t', fn, [
     `${INDENT}static const ${word} C[${map.segmentCount}][${n + 1}] = {`,
     ...rows,
     `${INDENT}};`,
@@ -241,18 +262,13 @@ function fixedPiecewiseSection(prefix: string, ch: EmittedChannel, map: FixedPie
     ...segmentLines(P, map.segmentBits),
     ...(n === 0 ? [`${INDENT}(void)t;`] : []),
     ...body,
-    '}',
-    '',
-  ];
+  ]);
 }
 
 function floatSection(prefix: string, ch: EmittedChannel, map: FloatMap): string[] {
   const type = map.precision;
-  const { P, fn } = names(prefix, ch, type);
-  const T = cFloatType(type);
+  const { P, fn, T, unit, total } = floatParts(prefix, ch, type);
   const lit = type === 'float32' ? floatLiteral : doubleLiteral;
-  const unit = unitText(ch.quantityUnit);
-  const total = ch.totals[type];
   const coefficients = map.kind === 'affine' ? [map.scale] : map.coefficients;
   const formula =
     map.kind === 'affine'
@@ -286,27 +302,14 @@ function floatSection(prefix: string, ch: EmittedChannel, map: FloatMap): string
     for (let k = n - 1; k >= 0; k--) body.push(`${INDENT}y = y * x + ${P}_C${k};`);
     body.push(`${INDENT}return y;`);
   }
-  return [
-    ...lines,
-    ...defines,
-    ...totalMacro(P, total),
-    '',
-    `static inline ${T} ${fn}(int32_t code)`,
-    '{',
-    ...body,
-    '}',
-    '',
-  ];
+  return functionText(lines, defines, P, total, T, fn, body);
 }
 
 function floatPiecewiseSection(prefix: string, ch: EmittedChannel, map: FloatPiecewiseMap): string[] {
   const type = map.precision;
-  const { P, fn } = names(prefix, ch, type);
-  const T = cFloatType(type);
+  const { P, fn, T, unit, total } = floatParts(prefix, ch, type);
   const lit = (x: number) => (type === 'float32' ? floatLiteral(x, false) : doubleLiteral(x, false));
-  const unit = unitText(ch.quantityUnit);
   const n = map.degree;
-  const total = ch.totals[type];
   const error =
     total === undefined
       ? [ownErrorText(map.arithmeticBound, map.arithmeticBound, undefined, unit, 'the piecewise polynomial')]
@@ -325,31 +328,28 @@ function floatPiecewiseSection(prefix: string, ch: EmittedChannel, map: FloatPie
   for (let j = n - 1; j >= 0; j--) body.push(`${INDENT}y = y * x + C[i][${j}];`);
   if (n === 0) body.splice(0, 1, `${INDENT}(void)t;`);
   body.push(`${INDENT}return y;`);
-  return [
-    ...lines,
-    `#define ${P}_SEGMENT_BASE ${intLiteral(map.segmentBase, 32)}`,
-    ...totalMacro(P, total),
-    '',
-    `static inline ${T} ${fn}(int32_t code)`,
-    '{',
-    `${INDENT}static const ${T} C[${map.segmentCount}][${n + 1}] = {`,
-    ...rows,
-    `${INDENT}};`,
-    ...segmentLines(P, map.segmentBits),
-    ...body,
-    '}',
-    '',
-  ];
+  return functionText(
+    lines,
+    [`#define ${P}_SEGMENT_BASE ${intLiteral(map.segmentBase, 32)}`],
+    P,
+    total,
+    T,
+    fn,
+    [
+      `${INDENT}static const ${T} C[${map.segmentCount}][${n + 1}] = {`,
+      ...rows,
+      `${INDENT}};`,
+      ...segmentLines(P, map.segmentBits),
+      ...body,
+    ],
+  );
 }
 
 function mobiusSection(prefix: string, ch: EmittedChannel, map: FloatMobiusMap): string[] {
   const type = map.precision;
-  const { P, fn } = names(prefix, ch, type);
-  const T = cFloatType(type);
+  const { P, fn, T, unit, total } = floatParts(prefix, ch, type);
   const lit = type === 'float32' ? floatLiteral : doubleLiteral;
   const one = type === 'float32' ? '1.0f' : '1.0';
-  const unit = unitText(ch.quantityUnit);
-  const total = ch.totals[type];
   const error =
     total === undefined
       ? [
@@ -368,21 +368,16 @@ function mobiusSection(prefix: string, ch: EmittedChannel, map: FloatMobiusMap):
     `Source values: a ${map.source.a} ${unit} per code, b ${map.source.b} ${unit}, c ${map.source.c} per code; the denominator stays positive over the code range.`,
     costText(map),
   ]);
-  return [
-    ...lines,
+  const macros = [
     `#define ${P}_CENTRE ${intLiteral(map.centre, 32)}`,
     `#define ${P}_A ${lit(map.a)}`,
     `#define ${P}_B ${lit(map.b)}`,
     `#define ${P}_C ${lit(map.c)}`,
-    ...totalMacro(P, total),
-    '',
-    `static inline ${T} ${fn}(int32_t code)`,
-    '{',
+  ];
+  return functionText(lines, macros, P, total, T, fn, [
     `${INDENT}const ${T} x = (${T})(code - ${P}_CENTRE);`,
     `${INDENT}return (${P}_B + ${P}_A * x) / (${one} + ${P}_C * x);`,
-    '}',
-    '',
-  ];
+  ]);
 }
 
 function functionSection(prefix: string, ch: EmittedChannel, type: EvaluatorType): string[] {

@@ -1,4 +1,14 @@
 export { createAxialMember, type AxialMember, type AxialMemberOptions } from './createAxialMember.js';
+export {
+  createMemberReduction,
+  memberResultants,
+  type MemberGauge,
+  type MemberLoads,
+  type MemberReduction,
+  type MemberReductionOptions,
+  type MemberReductionResult,
+  type MemberResultant,
+} from './createMemberReduction.js';
 export { createBendingMember, type BendingMember, type BendingMemberOptions } from './createBendingMember.js';
 export {
   createRosette,

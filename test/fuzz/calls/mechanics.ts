@@ -16,6 +16,17 @@ const bending = () =>
     leverArmMeters: 0.5,
   });
 const shaft = () => mechanics.createShaft({ diameterMeters: 0.05, innerDiameterMeters: 0.02, ...steel });
+const memberOptions = () => ({
+  ...steel,
+  section: { shape: 'circular', diameterMeters: 0.06, innerDiameterMeters: 0.05 },
+  gauges: [
+    { yMeters: 0, zMeters: 0.03 },
+    { yMeters: 0, zMeters: -0.03 },
+    { yMeters: 0.03, zMeters: 0 },
+    { yMeters: -0.03, zMeters: 0, angleRadians: 0.7853981633974483 },
+  ],
+});
+const member = () => mechanics.createMemberReduction(memberOptions() as never);
 const rosette = () => mechanics.createRosette({ layout: { anglesRadians: [0, 1, 2] } });
 // The direction of the principal axes is undefined when the principal strains are equal; the
 // reduction says so with `equalPrincipalStrains` (see the rosette's documentation).
@@ -56,6 +67,11 @@ export const mechanicsCalls: readonly BaseCall[] = [
   m('createShaft', shaft, 'torqueFromStrain', () => [2e-4]),
   m('createShaft', shaft, 'torqueFromGaugePair', () => [2e-4, -2e-4]),
   m('createShaft', shaft, 'strainFromTorque', () => [500]),
+  f('createMemberReduction', () => [memberOptions()]),
+  m('createMemberReduction', member, 'reduce', () => [[3e-4, 1e-4, 2e-4, 5e-5]]),
+  m('createMemberReduction', member, 'gaugeStrains', () => [
+    { axialForceNewtons: 1e4, torqueNewtonMeters: 50 },
+  ]),
   m('createRosette', rosette, 'reduce', () => [[1e-3, 3.5e-4, -3e-4]]),
   m('createRosette', rosette, 'legStrains', () => [state]),
 ];

@@ -41,6 +41,7 @@ import {
 import { channelInternals } from '../internal/makeChannel.js';
 import type { Mapping } from '../internal/mapping.js';
 import { leadDriftOhms, type ResolvedChannel } from '../internal/resolve.js';
+import { budgetSideOf } from '../kinds/budgetRegistry.js';
 import { Parameter } from '../kinds/SensorKind.js';
 import { differenceFromBaseUnit, formatQuantity, formatSignificant } from '../units/quantity.js';
 import type { ChannelBudgetLine } from './ChannelBudgetLine.js';
@@ -279,6 +280,7 @@ export function channelBudget(channel: Channel, options: ChannelBudgetOptions = 
     known: ['at', 'monteCarlo', 'peakToPeakFactor', 'coverageProbability', 'limits'],
   });
   const { resolved: r, nominal, span } = prepared;
+  budgetSideOf(r.kind); // a kind without a budget side is refused before any work
   const spec = r.spec;
   const mc = readMonteCarlo(o['monteCarlo']);
   const ppf =
@@ -372,7 +374,7 @@ export function channelBudget(channel: Channel, options: ChannelBudgetOptions = 
     if (halfWidth > 0) uncertain.push({ name, index, halfWidth, kind, model: text });
   };
   const atSi = siQuantity(nominal, at);
-  const kindInputs = r.kind.budgetInputs(r.context as never, atSi);
+  const kindInputs = budgetSideOf(r.kind).budgetInputs(r.context as never, atSi);
   for (const input of kindInputs)
     if (input.first === true) add(input.name, input.index, input.halfWidth, input.kind, input.model);
   const percent = (x: number) => `${formatSignificant(x * 100)} %`;
@@ -574,7 +576,7 @@ export function channelBudget(channel: Channel, options: ChannelBudgetOptions = 
       standardUncertainty: combined.contributions[u.name],
     });
   }
-  for (const line of r.kind.budgetLines?.(r.context as never, model.kindMap, atSi) ?? []) {
+  for (const line of budgetSideOf(r.kind).budgetLines?.(r.context as never, model.kindMap, atSi) ?? []) {
     lines.push({ ...line, value: differenceFromBaseUnit(line.value, r.dimension, unit) });
   }
 

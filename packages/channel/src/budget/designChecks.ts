@@ -7,6 +7,7 @@ import type { BudgetIssue, DesignCheck, ResolutionBudget } from '@bridgework/cha
 import type { Propagation } from '@bridgework/uncertainty';
 import type { Mapping } from '../internal/mapping.js';
 import type { ResolvedChannel } from '../internal/resolve.js';
+import { budgetSideOf } from '../kinds/budgetRegistry.js';
 import type { PlausibleRange } from '../kinds/SensorKind.js';
 import type { DisplayUnit } from '../outputQuantities.js';
 import { formatSignificant } from '../units/quantity.js';
@@ -378,7 +379,10 @@ export function designChecks(x: DesignCheckInput): ChannelDesignCheck[] {
   }
 
   // Inputs in the ranges a real design keeps them in (warnings).
-  for (const p of [...commonRanges(r), ...(r.kind.plausibleRanges?.(r.spec.sensor as never) ?? [])]) {
+  for (const p of [
+    ...commonRanges(r),
+    ...(budgetSideOf(r.kind).plausibleRanges?.(r.spec.sensor as never) ?? []),
+  ]) {
     const inside = p.value >= p.range.min && p.value <= p.range.max;
     push({
       id: `plausible:${p.path}`,

@@ -5,6 +5,7 @@
  * evaluation. Before it is used it is checked against the exact composed model (createChannelModel,
  * rebuilt at each checked parameter vector); a model that disagrees is not used.
  */
+import { budgetSideOf } from '../kinds/budgetRegistry.js';
 import { Parameter } from '../kinds/SensorKind.js';
 import { fromBaseUnitFunction } from '../units/quantity.js';
 import { createChannelModel } from './model.js';
@@ -20,7 +21,7 @@ export const FAST_MODEL_TOLERANCE = 1e-10;
 export function createFastModel(r: ResolvedChannel): ParametricModel | undefined {
   // A calibrated channel's map is the calibration's inverse: the exact model serves it.
   if (r.spec.calibration !== undefined) return undefined;
-  const fast = r.kind.fastMap?.(r.context as never);
+  const fast = budgetSideOf(r.kind).fastMap?.(r.context as never);
   if (fast === undefined && r.spec.output.quantity !== 'ratio') return undefined;
   const spec = r.spec;
   const ratiometric = spec.adc.ratiometric;

@@ -195,6 +195,27 @@ export type SpecReporter = (
 ) => void;
 
 /**
+ * The budget side of a sensor kind: what only `channelBudget` (and the constants, through it)
+ * reads. Kept apart from {@link SensorKind} so that the conversion path does not carry it.
+ *
+ * @typeParam F - The fields of the kind's spec fragment.
+ */
+export interface SensorKindBudget<F extends Fields = Fields> {
+  /** The map as straight-line arithmetic (for Monte Carlo), or undefined to use the exact map per trial. */
+  fastMap?(context: KindContext<ObjectOut<F>>): FastKindMap;
+  /** The kind's uncertain inputs at a budget point (a quantity in SI). */
+  budgetInputs(context: KindContext<ObjectOut<F>>, atQuantity: number): readonly KindBudgetInput[];
+  /** Informative budget lines of its own (self-heating, say). */
+  budgetLines?(
+    context: KindContext<ObjectOut<F>>,
+    map: KindMap,
+    atQuantity: number,
+  ): readonly ChannelBudgetLine[];
+  /** Inputs to check against plausible ranges (warnings). */
+  plausibleRanges?(sensor: ObjectOut<F>): readonly PlausibleRange[];
+}
+
+/**
  * A sensor-kind module.
  *
  * @typeParam F - The fields of its spec fragment (besides `kind`).
@@ -203,8 +224,8 @@ export type SpecReporter = (
 export interface SensorKind<F extends Fields = Fields, N extends string = string> {
   /** The value of `sensor.kind`. */
   readonly name: N;
-  /** One line for the field reference. */
-  readonly doc: string;
+  /** One line for the field reference (a built-in kind's is in `spec/fieldDocs.ts`, under `sensor<name>`). */
+  readonly doc?: string;
   /** The fields of `sensor` besides `kind` (defaults inside). */
   readonly fields: F;
   /** The output quantities it can give (besides `'ratio'`, which every kind gives). */
@@ -230,18 +251,12 @@ export interface SensorKind<F extends Fields = Fields, N extends string = string
   defaultSpan(context: KindContext<ObjectOut<F>>): Interval;
   /** The exact map at a parameter vector; `zeroRatio` is the bridge ratio of the zero reading (or undefined). */
   exactMap(context: KindContext<ObjectOut<F>>, p: Float64Array, zeroRatio: number | undefined): KindMap;
-  /** The map as straight-line arithmetic (for Monte Carlo), or undefined to use the exact map per trial. */
-  fastMap?(context: KindContext<ObjectOut<F>>): FastKindMap;
-  /** The kind's uncertain inputs at a budget point (a quantity in SI). */
-  budgetInputs(context: KindContext<ObjectOut<F>>, atQuantity: number): readonly KindBudgetInput[];
-  /** Informative budget lines of its own (self-heating, say). */
-  budgetLines?(
-    context: KindContext<ObjectOut<F>>,
-    map: KindMap,
-    atQuantity: number,
-  ): readonly ChannelBudgetLine[];
   /** The `output` fields (`modulusPascals`, `areaSquareMeters`...) the channel's quantity uses; any other such field given is a problem. */
   outputFields?(sensor: ObjectOut<F>, spec: CommonSpec): readonly string[];
-  /** Inputs to check against plausible ranges (warnings). */
-  plausibleRanges?(sensor: ObjectOut<F>): readonly PlausibleRange[];
+  /**
+   * The kind's budget side, for a kind made outside this package (see {@link SensorKindBudget}).
+   * The built-in kinds leave it out: theirs are in `kinds/budgetRegistry.ts`, which only the
+   * budget imports, so that an application that only converts does not carry them.
+   */
+  readonly budget?: SensorKindBudget<F>;
 }

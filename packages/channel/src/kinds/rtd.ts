@@ -3,49 +3,42 @@
  * bridge. The element's relative change (R − R0)/R0 enters arm 1 exactly as a gauge's GF·ε does,
  * so the bridge package's quarter bridge with gauge factor 1 and "gauge" resistance R0 solves it.
  */
-import { createStrainBridge, createStrainBridgeKernel } from '@bridgework/bridge';
-import {
-  IEC_60751_COEFFICIENTS,
-  createRtd,
-  rtdToleranceCelsius,
-  RTD_TOLERANCE_CLASSES,
-} from '@bridgework/compensation';
+import { createStrainBridge } from '@bridgework/bridge';
+import { IEC_60751_COEFFICIENTS, createRtd, RTD_TOLERANCE_CLASSES } from '@bridgework/compensation';
 import { choiceField, numberField, type ObjectOut } from '../spec/schema.js';
 import { formatSignificant } from '../units/quantity.js';
-import { KIND_PARAMETERS_START, Parameter, type KindContext, type SensorKind } from './SensorKind.js';
+import { KIND_PARAMETERS_START, Parameter, type SensorKind } from './SensorKind.js';
 
 const fields = {
   r0Ohms: numberField({
-    doc: 'Resistance at 0 °C',
     unit: { dimension: 'resistance' },
     min: 0,
     minExclusive: true,
     default: 100,
   }),
-  a: numberField({ doc: 'Callendar–Van Dusen A, 1/°C', default: IEC_60751_COEFFICIENTS.a }),
-  b: numberField({ doc: 'Callendar–Van Dusen B, 1/°C²', default: IEC_60751_COEFFICIENTS.b }),
-  c: numberField({ doc: 'Callendar–Van Dusen C (below 0 °C), 1/°C⁴', default: IEC_60751_COEFFICIENTS.c }),
+  a: numberField({ default: IEC_60751_COEFFICIENTS.a }),
+  b: numberField({ default: IEC_60751_COEFFICIENTS.b }),
+  c: numberField({ default: IEC_60751_COEFFICIENTS.c }),
   toleranceClass: choiceField(['AA', 'A', 'B', 'C'] as const, {
-    doc: 'IEC 60751 tolerance class, for the budget',
     optional: true,
   }),
   element: choiceField(['wire-wound', 'film'] as const, {
-    doc: 'Element construction (sets the class’s validity range)',
     default: 'wire-wound',
   }),
 };
 
 type RtdSpec = ObjectOut<typeof fields>;
-const CLASS_DEVIATION = KIND_PARAMETERS_START;
+/** Index of the class deviation (°C, nominal 0) in the parameter vector. */
+export const CLASS_DEVIATION = KIND_PARAMETERS_START;
 
-function curve(s: RtdSpec) {
+/** The element's IEC 60751 curve. */
+export function curve(s: RtdSpec) {
   return createRtd({ r0Ohms: s.r0Ohms, a: s.a, b: s.b, c: s.c });
 }
 
 /** The RTD kind. */
 export const rtdKind: SensorKind<typeof fields, 'rtd'> = {
   name: 'rtd',
-  doc: 'A platinum RTD (IEC 60751) in arm 1 of a quarter bridge',
   fields,
   quantities: ['temperature'],
   placement: 'arm-1',
@@ -130,49 +123,6 @@ export const rtdKind: SensorKind<typeof fields, 'rtd'> = {
         : {}),
     };
   },
-  fastMap(ctx: KindContext<RtdSpec>) {
-    const s = ctx.sensor;
-    const rtd = curve(s);
-    // The element in arm 1 of a quarter bridge: gauge factor 1, "gauge" resistance R0 (the bridge package's closed form).
-    const bridge = createStrainBridgeKernel({
-      arrangement: 'quarter',
-      gaugeFactor: 1,
-      gaugeOhms: s.r0Ohms,
-      wiring: ctx.wiring,
-      sourceOhms: ctx.sourceOhms,
-    });
-    return {
-      quantity(ratio, _zero, p) {
-        const e = bridge.strainFromRatio(
-          ratio,
-          p[Parameter.completionOhms] as number,
-          p[Parameter.ohmsPerLead] as number,
-        );
-        return rtd.temperatureAt(s.r0Ohms * (1 + e)) + (p[CLASS_DEVIATION] as number);
-      },
-    };
-  },
-  budgetInputs(ctx, at) {
-    const s = ctx.sensor;
-    if (s.toleranceClass === undefined || ctx.quantity !== 'temperature') return [];
-    const halfWidth = rtdToleranceCelsius({
-      toleranceClass: s.toleranceClass,
-      temperatureCelsius: at,
-      element: s.element,
-    });
-    return [
-      {
-        name: 'RTD class tolerance',
-        index: CLASS_DEVIATION,
-        halfWidth,
-        kind: 'tolerance',
-        model: `IEC 60751 class ${s.toleranceClass} (${s.element}) limits ±(${RTD_TOLERANCE_CLASSES[s.toleranceClass].fixedCelsius} + ${RTD_TOLERANCE_CLASSES[s.toleranceClass].proportional}·|t|) °C at ${formatSignificant(at)} °C, rectangular`,
-      },
-    ];
-  },
-  plausibleRanges: (s) => [
-    { path: 'sensor.r0Ohms', value: s.r0Ohms, range: { min: 10, max: 10_000 }, unit: 'Ω' },
-  ],
 };
 
 export type { RtdSpec };

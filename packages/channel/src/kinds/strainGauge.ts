@@ -6,13 +6,7 @@
  * for a uniaxial field (compensation); strain becomes stress, shear stress, force, bending moment
  * or torque through the mechanics package.
  */
-import {
-  arrangementTable,
-  createStrainBridge,
-  createStrainBridgeKernel,
-  type ArrangementInfo,
-  type StrainArrangement,
-} from '@bridgework/bridge';
+import { arrangementTable, createStrainBridge, type ArrangementInfo } from '@bridgework/bridge';
 import {
   correctTemperatureEffects,
   createThermalOutput,
@@ -34,14 +28,12 @@ const fields = {
     minExclusive: true,
   }),
   gaugeOhms: numberField({
-    doc: 'Gauge resistance',
     unit: { dimension: 'resistance' },
     min: 0,
     minExclusive: true,
     default: 350,
   }),
   gaugeFactorToleranceFraction: numberField({
-    doc: 'Gauge factor tolerance, relative (the lot’s data sheet), for the budget',
     unit: { dimension: 'fraction' },
     min: 0,
     max: 1,
@@ -49,7 +41,6 @@ const fields = {
     default: 0,
   }),
   transverseSensitivity: numberField({
-    doc: 'Transverse sensitivity Kt (measured with ν0 = 0.285)',
     unit: { dimension: 'fraction' },
     min: -1,
     max: 1,
@@ -58,12 +49,10 @@ const fields = {
     default: 0,
   }),
   gaugeFactorTemperatureCoefficientPerKelvin: numberField({
-    doc: 'Gauge-factor temperature coefficient β: GF(T) = GF·(1 + β·(T − T0))',
     unit: { dimension: 'per-kelvin' },
     default: 0,
   }),
   gaugeFactorReferenceCelsius: numberField({
-    doc: 'Reference temperature T0 of the gauge factor',
     unit: { dimension: 'temperature' },
     default: 24,
   }),
@@ -76,7 +65,6 @@ const fields = {
         item: { doc: 'µε/°Cⁱ' },
       }),
       gaugeFactor: numberField({
-        doc: 'Gauge-factor setting the curve was recorded with',
         min: 0,
         minExclusive: true,
         default: 2,
@@ -86,7 +74,7 @@ const fields = {
         unit: { dimension: 'temperature' },
       }),
     },
-    { doc: "The gauge lot's thermal output (apparent strain) on the specimen", presence: 'optional' },
+    { presence: 'optional' },
   ),
 };
 
@@ -145,7 +133,7 @@ const why: Readonly<Record<string, string>> = {
 };
 
 /** The linear conversion strain → quantity (every member conversion is linear in strain), in SI. */
-function quantityPerStrain(
+export function quantityPerStrain(
   spec: CommonSpec,
   arrangement: string | undefined,
   poissonRatio: number | undefined,
@@ -199,12 +187,12 @@ function quantityPerStrain(
   }
 }
 
-const GAUGE_FACTOR = KIND_PARAMETERS_START;
+/** Index of the gauge factor in the parameter vector. */
+export const GAUGE_FACTOR = KIND_PARAMETERS_START;
 
 /** The strain-gauge kind. */
 export const strainGaugeKind: SensorKind<typeof fields, 'strain-gauge'> = {
   name: 'strain-gauge',
-  doc: 'Strain gauges, in the arrangement of bridge.arrangement',
   fields,
   quantities: ['strain', 'stress', 'shear-stress', 'force', 'bending-moment', 'torque'],
   placement: 'arrangement',
@@ -353,82 +341,6 @@ export const strainGaugeKind: SensorKind<typeof fields, 'strain-gauge'> = {
       },
     };
   },
-  fastMap(ctx) {
-    const s = ctx.sensor;
-    const setting = s.gaugeFactor;
-    // The bridge package's closed form with the completion and lead resistances per call.
-    const bridge = createStrainBridgeKernel({
-      arrangement: (ctx.arrangement ?? 'quarter') as StrainArrangement,
-      gaugeFactor: setting,
-      gaugeOhms: s.gaugeOhms,
-      ...(ctx.poissonRatio === undefined ? {} : { poissonRatio: ctx.poissonRatio }),
-      wiring: ctx.wiring,
-      sourceOhms: ctx.sourceOhms,
-    });
-    const to = s.thermalOutput;
-    const thermal =
-      to === undefined
-        ? undefined
-        : createThermalOutput({
-            coefficientsMicrostrain: to.coefficientsMicrostrain,
-            gaugeFactor: to.gaugeFactor,
-            rangeCelsius: [to.rangeCelsius.min, to.rangeCelsius.max],
-          });
-    const beta = s.gaugeFactorTemperatureCoefficientPerKelvin;
-    const t0 = s.gaugeFactorReferenceCelsius;
-    const tZero = ctx.zeroTemperatureCelsius;
-    const transverse =
-      s.transverseSensitivity === 0
-        ? 1
-        : indicatedTransverseStrain({
-            axialStrain: 1,
-            transverseStrain: -(ctx.poissonRatio as number),
-            transverseSensitivity: s.transverseSensitivity,
-          });
-    const perStrain = quantityPerStrain(ctx.spec, ctx.arrangement, ctx.poissonRatio);
-    // Thermal output at the zero temperature, rescaled to the setting (compensation rescaleGaugeFactor: ε·from/to).
-    const thermalZero =
-      thermal === undefined ? 0 : (thermal.apparentStrainAt(tZero) * thermal.gaugeFactor) / setting;
-    return {
-      quantity(ratio, zeroRatio, p) {
-        const completion = p[Parameter.completionOhms] as number;
-        const lead = p[Parameter.ohmsPerLead] as number;
-        let e = bridge.strainFromRatio(ratio, completion, lead);
-        if (zeroRatio === zeroRatio) {
-          const e0 = bridge.strainFromRatio(zeroRatio, completion, lead);
-          e = (e - e0) / (1 + setting * e0);
-        }
-        const t = p[Parameter.temperatureCelsius] as number;
-        const thermalStrain =
-          thermal === undefined
-            ? 0
-            : (thermal.apparentStrainAt(t) * thermal.gaugeFactor) / setting - thermalZero;
-        // correctTemperatureEffects: (ε_ind − thermal)·GF_setting/GF(T), GF(T) = GF·(1 + β(T − T0)).
-        const gfNow =
-          beta === 0 ? (p[GAUGE_FACTOR] as number) : (p[GAUGE_FACTOR] as number) * (1 + beta * (t - t0));
-        return (perStrain * (((e - thermalStrain) * setting) / gfNow)) / transverse;
-      },
-    };
-  },
-  budgetInputs(ctx) {
-    const s = ctx.sensor;
-    return s.gaugeFactorToleranceFraction > 0
-      ? [
-          {
-            name: 'gauge factor',
-            first: true,
-            index: GAUGE_FACTOR,
-            halfWidth: s.gaugeFactorToleranceFraction * s.gaugeFactor,
-            kind: 'tolerance',
-            model: `the exact map with the gauge factor varied over ±${formatSignificant(s.gaugeFactorToleranceFraction * 100)} % (rectangular)`,
-          },
-        ]
-      : [];
-  },
-  plausibleRanges: (s) => [
-    { path: 'sensor.gaugeFactor', value: s.gaugeFactor, range: { min: 1, max: 5 }, unit: '' },
-    { path: 'sensor.gaugeOhms', value: s.gaugeOhms, range: { min: 60, max: 10_000 }, unit: 'Ω' },
-  ],
 };
 
 export type { StrainGaugeSpec };

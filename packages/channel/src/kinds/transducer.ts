@@ -33,13 +33,16 @@ const ratedDimension: Readonly<Record<RatedQuantity, Dimension>> = {
 
 /** The capacity: a force, mass, pressure or torque, its kind told by its unit. */
 function capacityField(): SchemaNode<number | `${number}${string}`, number, 'required'> {
-  const doc =
-    'Rated capacity: a force, mass, pressure or torque with its unit (`20 t`, `50 kN`, `10 bar`, `500 N·m`)';
   return {
     presence: 'required',
-    doc,
+    doc: 'Rated capacity: a force, mass, pressure or torque with its unit (`20 t`, `50 kN`, `10 bar`, `500 N·m`)',
     fallback: undefined,
-    defaultText: undefined,
+    shape: {
+      form: 'custom',
+      type: 'number (> 0)',
+      unit: 'N, kg, Pa or N·m',
+      json: { anyOf: [{ type: 'number', exclusiveMinimum: 0 }, { type: 'string' }] },
+    },
     parse(value: unknown, path: string, ctx: ParseContext) {
       if (typeof value === 'string') {
         const unitText = value.replace(/^\s*[+\-−]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+\-−]?\d+)?\s*/, '');
@@ -78,18 +81,12 @@ function capacityField(): SchemaNode<number | `${number}${string}`, number, 'req
         });
       return r.value;
     },
-    jsonSchema: () => ({
-      description: doc,
-      anyOf: [{ type: 'number', exclusiveMinimum: 0 }, { type: 'string' }],
-    }),
-    rows: (path) => [{ path, type: 'number (> 0)', unit: 'N, kg, Pa or N·m', presence: 'required', doc }],
   };
 }
 
 const ohms = { dimension: 'resistance' } as const;
 const perKelvin = { dimension: 'per-kelvin' } as const;
 const gravity = {
-  doc: '',
   unit: { dimension: 'acceleration' },
   min: 0,
   minExclusive: true,
@@ -99,9 +96,7 @@ const gravity = {
 const fields = {
   capacity: capacityField(),
   ratedQuantity: choiceField(ratedQuantities, {
-    doc: 'What the capacity is',
     derived: true,
-    defaultText: "from capacity's unit; for a plain number, the output quantity",
   }),
   ratedOutputVoltsPerVolt: numberField({
     doc: 'Rated output at capacity (certificate)',
@@ -111,7 +106,6 @@ const fields = {
     max: 0.5,
   }),
   ratedOutputToleranceFraction: numberField({
-    doc: 'Rated output tolerance, relative (certificate), for the budget',
     unit: { dimension: 'fraction' },
     min: 0,
     max: 1,
@@ -119,47 +113,41 @@ const fields = {
     default: 0,
   }),
   zeroBalanceVoltsPerVolt: numberField({
-    doc: 'Zero balance (output at no load)',
     unit: { dimension: 'ratio' },
     min: -0.5,
     max: 0.5,
     default: 0,
   }),
   inputOhms: numberField({
-    doc: 'Input (excitation) resistance',
     unit: ohms,
     min: 0,
     minExclusive: true,
     default: 350,
   }),
-  outputOhms: numberField({ doc: 'Output resistance', unit: ohms, min: 0, minExclusive: true, default: 350 }),
+  outputOhms: numberField({ unit: ohms, min: 0, minExclusive: true, default: 350 }),
   calibrationGravityMetersPerSecondSquared: numberField({
     ...gravity,
-    doc: "Gravity where the certificate's weights acted",
   }),
   localGravityMetersPerSecondSquared: numberField({
     ...gravity,
-    doc: 'Gravity where the transducer is used (mass from force)',
   }),
   zeroTemperatureCoefficientPerKelvin: numberField({
-    doc: 'Zero shift per kelvin, as a fraction of the rated output (data sheet: "0.02 % RO/10 K" is 2e-5)',
     unit: perKelvin,
     default: 0,
   }),
   spanTemperatureCoefficientPerKelvin: numberField({
-    doc: 'Span (rated output) change per kelvin, relative',
     unit: perKelvin,
     default: 0,
   }),
   certificateCelsius: numberField({
-    doc: "Temperature at which the certificate's rated output holds",
     unit: { dimension: 'temperature' },
     default: 23,
   }),
 };
 
 type TransducerSpec = ObjectOut<typeof fields>;
-const RATED_OUTPUT = KIND_PARAMETERS_START;
+/** Index of the rated output (V/V) in the parameter vector. */
+export const RATED_OUTPUT = KIND_PARAMETERS_START;
 
 /** Output quantities a rated quantity can give (besides the bridge ratio). */
 const outputsOf: Readonly<Record<RatedQuantity, readonly OutputQuantity[]>> = {
@@ -170,7 +158,7 @@ const outputsOf: Readonly<Record<RatedQuantity, readonly OutputQuantity[]>> = {
 };
 
 /** The certificate scale's units for a channel: what the capacity is, what comes out. */
-function scaleUnits(s: TransducerSpec, quantity: OutputQuantity) {
+export function scaleUnits(s: TransducerSpec, quantity: OutputQuantity) {
   const capacityUnit = s.ratedQuantity === 'mass' ? ('kilogram' as const) : ('newton' as const);
   const out = quantity === 'ratio' ? s.ratedQuantity : quantity;
   // Pressure and torque scale linearly through the 'newton' path (no gravity or buoyancy).
@@ -178,7 +166,8 @@ function scaleUnits(s: TransducerSpec, quantity: OutputQuantity) {
   return { capacityUnit, outputUnit };
 }
 
-function gravities(s: TransducerSpec) {
+/** The certificate scale's gravities from the spec. */
+export function gravities(s: TransducerSpec) {
   return {
     calibrationGravityMetersPerSecondSquared: s.calibrationGravityMetersPerSecondSquared,
     localGravityMetersPerSecondSquared: s.localGravityMetersPerSecondSquared,
@@ -199,7 +188,6 @@ function spanFactor(ctx: KindContext<TransducerSpec>, ohmsPerLead: number): numb
 /** The transducer kind. */
 export const transducerKind: SensorKind<typeof fields, 'transducer'> = {
   name: 'transducer',
-  doc: 'A bridge transducer with a certificate (load cell, pressure or torque transducer)',
   fields,
   quantities: ['force', 'mass', 'pressure', 'torque'],
   placement: 'own-bridge',
@@ -303,60 +291,6 @@ export const transducerKind: SensorKind<typeof fields, 'transducer'> = {
       },
     };
   },
-  fastMap(ctx) {
-    const s = ctx.sensor;
-    const units = scaleUnits(s, ctx.quantity);
-    // The certificate's load per unit ratio at a rated output of 1: loadPerRatio = this/RO (calibration createCertificateScale).
-    const capacityInOutput = createCertificateScale({
-      capacity: s.capacity,
-      ...units,
-      ratedOutputVoltsPerVolt: 1,
-      ...gravities(s),
-    }).loadPerRatio;
-    const tk0 = s.zeroTemperatureCoefficientPerKelvin;
-    const tkc = s.spanTemperatureCoefficientPerKelvin;
-    const tZero = ctx.zeroTemperatureCelsius;
-    const tCert = s.certificateCelsius;
-    const rin = s.inputOhms;
-    const rs = ctx.sourceOhms;
-    const sixWire = ctx.wiring === 'six-wire';
-    return {
-      quantity(ratio, zeroRatio, p) {
-        const lead = p[Parameter.ohmsPerLead] as number;
-        const span = sixWire ? 1 : rin / (rin + 2 * (lead + rs / 2));
-        const t = p[Parameter.temperatureCelsius] as number;
-        const rated = p[RATED_OUTPUT] as number;
-        const zeroDrift = tk0 * rated * (t - tZero);
-        const ratedNow = rated * (1 + tkc * (t - tCert));
-        const zero = (zeroRatio === zeroRatio ? zeroRatio / span : s.zeroBalanceVoltsPerVolt) + zeroDrift;
-        return (capacityInOutput / ratedNow) * (ratio / span - zero);
-      },
-    };
-  },
-  budgetInputs(ctx) {
-    const s = ctx.sensor;
-    return s.ratedOutputToleranceFraction > 0
-      ? [
-          {
-            name: 'rated output',
-            first: true,
-            index: RATED_OUTPUT,
-            halfWidth: s.ratedOutputToleranceFraction * s.ratedOutputVoltsPerVolt,
-            kind: 'tolerance',
-            model: `the exact map with the certificate's rated output varied over ±${formatSignificant(s.ratedOutputToleranceFraction * 100)} % (rectangular)`,
-          },
-        ]
-      : [];
-  },
-  plausibleRanges: (s) => [
-    {
-      path: 'sensor.ratedOutputVoltsPerVolt',
-      value: s.ratedOutputVoltsPerVolt * 1e3,
-      range: { min: 0.5, max: 5 },
-      unit: 'mV/V',
-    },
-    { path: 'sensor.inputOhms', value: s.inputOhms, range: { min: 100, max: 10_000 }, unit: 'Ω' },
-  ],
 };
 
 export type { TransducerSpec };

@@ -30,7 +30,7 @@ export function buildChannelSchema<const K extends readonly AnySensorKind[]>(kin
     kinds.map((k) => [
       k.name,
       objectField(k.fields as Fields, {
-        doc: k.doc,
+        ...(k.doc === undefined ? {} : { doc: k.doc }),
         ...(renamedSensorFields[k.name] === undefined ? {} : { renamed: renamedSensorFields[k.name] }),
       }),
     ]),

@@ -265,7 +265,6 @@ export function channelSchemaFor<
   return objectField(
     { name, sensor, ...rest },
     {
-      doc: 'A measurement channel',
       finalize: (value, _path, ctx) =>
         finalize(value as unknown as Spec, ctx, rules) as unknown as typeof value,
       check: (value, _path, ctx) => check(value as unknown as Spec, ctx, rules),
@@ -275,5 +274,5 @@ export function channelSchemaFor<
 
 /** The sensor fragment of a kind as an object node. */
 export function kindNode(kind: SensorKind): AnyNode {
-  return objectField(kind.fields, { doc: kind.doc });
+  return objectField(kind.fields, kind.doc === undefined ? {} : { doc: kind.doc });
 }

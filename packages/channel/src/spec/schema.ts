@@ -1,14 +1,19 @@
 /**
  * A small schema engine for specs written by people: each node validates a value (every problem
- * as data, in the user's terms and unit), applies its default, describes itself as a JSON Schema
- * and as rows of the field reference, and carries its TypeScript types, so that the spec's
- * types are derived from the schema (`InputOf`, `OutputOf`) and cannot drift from it.
+ * as data, in the user's terms and unit), applies its default, states its shape (what it is, its
+ * limits, its unit) as data, and carries its TypeScript types, so that the spec's types are
+ * derived from the schema (`InputOf`, `OutputOf`) and cannot drift from it.
+ *
+ * The JSON Schema and the rows of the field reference are made from the shapes by
+ * `schemaReference.ts`, and the fields' meanings are in `fieldDocs.ts`: neither is imported by
+ * validation, so an application that only validates and converts does not carry them. A required
+ * field keeps its meaning here (`doc`), because the message for a missing one quotes it.
  *
  * Object nodes read only their own known keys: a key named like an object prototype member
  * (`constructor`, `__proto__`, `toString`) is an unknown field like any other.
  */
 import { closestName, formatValue, type ErrorCode, type SpecIssue } from '@bridgework/core';
-import { formatQuantity, readQuantity, unitSymbols } from '../units/quantity.js';
+import { formatQuantity, readQuantity } from '../units/quantity.js';
 import { dimensionTable, type Dimension } from '../units/unitTable.js';
 
 /** A quantity written with its unit, such as `'350 Ω'` or `'20 t'` (see docs/channel-file.md). */
@@ -73,18 +78,18 @@ export function joinPath(a: string, b: string): string {
 export interface SchemaNode<In, Out, P extends Presence = Presence> {
   /** Whether the field may be absent. */
   readonly presence: P;
-  /** One-line meaning. */
-  readonly doc: string;
+  /**
+   * One-line meaning, where the node carries it: a required field's (the message for a missing
+   * one quotes it), or a field of a sensor kind made outside the package. The built-in fields'
+   * other meanings are in `fieldDocs.ts`.
+   */
+  readonly doc?: string | undefined;
   /** The value of an absent field with a default. */
   readonly fallback: Out | undefined;
-  /** The default as the field reference shows it (also for defaults that depend on other fields). */
-  readonly defaultText: string | undefined;
+  /** What the node is, for the field reference and the JSON Schema (validation does not read it). */
+  readonly shape: NodeShape;
   /** Validates `value` at `path`; returns the value or {@link INVALID} (its issues recorded). */
   parse(value: unknown, path: string, ctx: ParseContext): Out | Invalid;
-  /** JSON Schema (draft 2020-12) of the field. */
-  jsonSchema(): Record<string, unknown>;
-  /** Rows of the field reference. */
-  rows(path: string): FieldRow[];
   /** Phantom: the input type. */
   readonly ['~in']?: In;
 }
@@ -120,10 +125,38 @@ export type ObjectOut<F extends Fields> = Expand<
   }
 >;
 
+/**
+ * What a node is, as data: the form and the options it was made with. `schemaReference.ts` makes
+ * the JSON Schema and the field reference from it.
+ */
+export type NodeShape =
+  | { readonly form: 'number'; readonly options: NumberOptions }
+  | { readonly form: 'choice'; readonly values: readonly string[]; readonly options: FieldOptions<string> }
+  | { readonly form: 'boolean'; readonly options: FieldOptions<boolean> }
+  | { readonly form: 'text'; readonly options: FieldOptions<string> & { readonly pattern?: RegExp } }
+  | { readonly form: 'interval'; readonly options: NumberOptions }
+  | { readonly form: 'number-list'; readonly options: NumberListOptions }
+  | { readonly form: 'object'; readonly fields: Fields }
+  | { readonly form: 'tagged'; readonly tag: string; readonly variants: Readonly<Record<string, AnyNode>> }
+  | {
+      /** A node with its own parser; its reference row and JSON Schema are given as data. */
+      readonly form: 'custom';
+      /** The type column of the field reference. */
+      readonly type: string;
+      /** The unit column. */
+      readonly unit: string;
+      /** Its JSON Schema, without the description. */
+      readonly json: Readonly<Record<string, unknown>>;
+    };
+
 /** Options every field takes. */
 export interface FieldOptions<T> {
-  /** One-line meaning (docs, messages of required fields). */
-  readonly doc: string;
+  /**
+   * One-line meaning. A required field states it here (the message for a missing one quotes
+   * it); the built-in fields' other meanings are in `fieldDocs.ts`, which validation does not
+   * import.
+   */
+  readonly doc?: string;
   /** The default (makes the field optional on input, present on output). */
   readonly default?: T;
   /** The field may be absent without a default (`undefined` on output). */
@@ -151,14 +184,6 @@ function presenceOf<T>(o: FieldOptions<T>): Presence {
       : o.optional === true
         ? 'optional'
         : 'required';
-}
-
-function presenceText(node: AnyNode): string {
-  return node.defaultText ?? (node.presence === 'required' ? 'required' : 'optional');
-}
-
-function row(path: string, node: AnyNode, type: string, unit = ''): FieldRow {
-  return { path, type, unit, presence: presenceText(node), doc: node.doc };
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -196,7 +221,8 @@ export interface NumberOptions extends FieldOptions<number> {
 
 type NumberIn<O> = O extends { readonly unit: UnitRule } ? number | QuantityText : number;
 
-function limitsText(o: NumberOptions, unit: string): string {
+/** The limits of a number field in words (`>= 0 and < 1`), in the given unit. */
+export function limitsText(o: NumberOptions, unit: string): string {
   const parts: string[] = [];
   const show = (x: number) => formatQuantity(x, x === 0 ? '' : unit, 6);
   if (o.min !== undefined) parts.push(`${o.minExclusive === true ? '>' : '>='} ${show(o.min)}`);
@@ -209,7 +235,8 @@ function limitCode(o: NumberOptions, low: boolean): ErrorCode {
   return 'out-of-range';
 }
 
-function unitOf(
+/** The dimension and unit of a number field (a dynamic one needs the context). */
+export function unitOf(
   rule: UnitRule | undefined,
   ctx: ParseContext | undefined,
 ): { dimension: Dimension; unit: string } | undefined {
@@ -270,44 +297,13 @@ export function parseNumber(
 export function numberField<const O extends NumberOptions>(
   o: O,
 ): SchemaNode<NumberIn<O>, number, PresenceOf<O>> {
-  const rule = o.unit;
-  const unitText =
-    rule === undefined ? '' : 'dimension' in rule ? dimensionTable[rule.dimension].si : rule.describe;
-  const type = `${o.integer === true ? 'integer' : 'number'}${o.limitText !== undefined ? ` (${o.limitText})` : limitsText(o, unitText) === '' ? '' : ` (${limitsText(o, unitText)})`}`;
-  const node: SchemaNode<NumberIn<O>, number, PresenceOf<O>> = {
+  return {
     presence: presenceOf(o) as PresenceOf<O>,
     doc: o.doc,
     fallback: o.default,
-    defaultText:
-      o.defaultText ??
-      (o.default === undefined ? undefined : formatQuantity(o.default, o.default === 0 ? '' : unitText, 17)),
+    shape: { form: 'number', options: o },
     parse: (value, path, ctx) => parseNumber(o, value, path, ctx),
-    jsonSchema() {
-      const n: Record<string, unknown> = { type: o.integer === true ? 'integer' : 'number' };
-      if (o.min !== undefined) n[o.minExclusive === true ? 'exclusiveMinimum' : 'minimum'] = o.min;
-      if (o.max !== undefined) n[o.maxExclusive === true ? 'exclusiveMaximum' : 'maximum'] = o.max;
-      const meta = { description: o.doc, ...(o.default === undefined ? {} : { default: o.default }) };
-      if (rule === undefined) return { ...n, ...meta };
-      const units = 'dimension' in rule ? unitSymbols(rule.dimension).filter((s) => s !== '') : [];
-      return {
-        ...meta,
-        'x-unit': unitText,
-        anyOf: [
-          n,
-          {
-            type: 'string',
-            pattern: '^\\s*[+\\-−]?(\\d+(\\.\\d*)?|\\.\\d+)([eE][+\\-−]?\\d+)?\\s*\\S*',
-            description:
-              units.length > 0
-                ? `a number and a unit: ${units.join(', ')}`
-                : `a number and a unit (${unitText})`,
-          },
-        ],
-      };
-    },
-    rows: (path) => [row(path, node, type, unitText)],
   };
-  return node;
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -319,11 +315,11 @@ export function choiceField<const T extends string, const O extends FieldOptions
   o: O,
 ): SchemaNode<T, T, PresenceOf<O>> {
   const list = () => values.map((v) => `'${v}'`).join(', ');
-  const node: SchemaNode<T, T, PresenceOf<O>> = {
+  return {
     presence: presenceOf(o) as PresenceOf<O>,
     doc: o.doc,
     fallback: o.default,
-    defaultText: o.defaultText ?? (o.default === undefined ? undefined : `'${o.default}'`),
+    shape: { form: 'choice', values, options: o },
     parse(value, path, ctx) {
       if (typeof value === 'string' && (values as readonly string[]).includes(value)) return value as T;
       const near = typeof value === 'string' && value.length >= 3 ? closestName(value, values) : undefined;
@@ -338,39 +334,25 @@ export function choiceField<const T extends string, const O extends FieldOptions
         },
       );
     },
-    jsonSchema: () => ({
-      enum: [...values],
-      description: o.doc,
-      ...(o.default === undefined ? {} : { default: o.default }),
-    }),
-    rows: (path) => [row(path, node, values.map((v) => `'${v}'`).join(' \\| '))],
   };
-  return node;
 }
 
 /** `true` or `false`. */
 export function booleanField<const O extends FieldOptions<boolean>>(
   o: O,
 ): SchemaNode<boolean, boolean, PresenceOf<O>> {
-  const node: SchemaNode<boolean, boolean, PresenceOf<O>> = {
+  return {
     presence: presenceOf(o) as PresenceOf<O>,
     doc: o.doc,
     fallback: o.default,
-    defaultText: o.defaultText ?? (o.default === undefined ? undefined : String(o.default)),
+    shape: { form: 'boolean', options: o },
     parse: (value, path, ctx) =>
       typeof value === 'boolean'
         ? value
         : report(ctx, path, 'wrong-type', `must be true or false; got ${formatValue(value)}`, {
             expected: 'true or false',
           }),
-    jsonSchema: () => ({
-      type: 'boolean',
-      description: o.doc,
-      ...(o.default === undefined ? {} : { default: o.default }),
-    }),
-    rows: (path) => [row(path, node, 'boolean')],
   };
-  return node;
 }
 
 /** A text, optionally matching a pattern. */
@@ -378,11 +360,11 @@ export function textField<
   const O extends FieldOptions<string> & { readonly pattern?: RegExp; readonly maxLength?: number },
 >(o: O): SchemaNode<string, string, PresenceOf<O>> {
   const maxLength = o.maxLength ?? 200;
-  const node: SchemaNode<string, string, PresenceOf<O>> = {
+  return {
     presence: presenceOf(o) as PresenceOf<O>,
     doc: o.doc,
     fallback: o.default,
-    defaultText: o.defaultText ?? (o.default === undefined ? undefined : `'${o.default}'`),
+    shape: { form: 'text', options: o },
     parse(value, path, ctx) {
       if (typeof value !== 'string')
         return report(ctx, path, 'wrong-type', `must be a text; got ${formatValue(value)}`, {
@@ -407,15 +389,7 @@ export function textField<
       }
       return value;
     },
-    jsonSchema: () => ({
-      type: 'string',
-      description: o.doc,
-      ...(o.pattern ? { pattern: o.pattern.source } : {}),
-      ...(o.default === undefined ? {} : { default: o.default }),
-    }),
-    rows: (path) => [row(path, node, 'text')],
   };
-  return node;
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -437,13 +411,11 @@ export function intervalField<
   const O extends Omit<NumberOptions, 'default'> & { readonly allowEqual?: boolean },
 >(o: O): SchemaNode<IntervalIn<NumberIn<O>>, SpecInterval, PresenceOf<O>> {
   const rule = o.unit;
-  const unitText =
-    rule === undefined ? '' : 'dimension' in rule ? dimensionTable[rule.dimension].si : rule.describe;
-  const node: SchemaNode<IntervalIn<NumberIn<O>>, SpecInterval, PresenceOf<O>> = {
+  return {
     presence: presenceOf(o) as PresenceOf<O>,
     doc: o.doc,
     fallback: undefined,
-    defaultText: o.defaultText,
+    shape: { form: 'interval', options: o },
     parse(value, path, ctx) {
       let ends: [unknown, unknown] | undefined;
       let names: [string, string] = ['[0]', '[1]'];
@@ -485,48 +457,34 @@ export function intervalField<
       }
       return { min: a, max: b };
     },
-    jsonSchema() {
-      const item = numberField({ ...o, doc: 'an end' } as NumberOptions).jsonSchema();
-      return {
-        description: o.doc,
-        ...(rule === undefined ? {} : { 'x-unit': unitText }),
-        anyOf: [
-          { type: 'array', items: item, minItems: 2, maxItems: 2 },
-          {
-            type: 'object',
-            additionalProperties: false,
-            required: ['min', 'max'],
-            properties: { min: item, max: item },
-          },
-        ],
-      };
-    },
-    rows: (path) => [
-      row(
-        path,
-        node,
-        `[min, max]${limitsText(o, unitText) === '' ? '' : ` (each ${limitsText(o, unitText)})`}`,
-        unitText,
-      ),
-    ],
   };
-  return node;
+}
+
+/** Options of a list of numbers. */
+export interface NumberListOptions extends FieldOptions<readonly number[]> {
+  /** Fewest numbers. */
+  readonly minLength: number;
+  /** Most numbers. */
+  readonly maxLength: number;
+  /** Each number's options (its `doc` is the items' description in the JSON Schema). */
+  readonly item: NumberOptions;
+}
+
+/** The length of a list field in words (`4`, `1 to 5`). */
+export function listLengthText(o: NumberListOptions): string {
+  return o.minLength === o.maxLength ? `${o.minLength}` : `${o.minLength} to ${o.maxLength}`;
 }
 
 /** A list of numbers of bounded length (polynomial coefficients). */
-export function numberListField<
-  const O extends FieldOptions<readonly number[]> & {
-    readonly minLength: number;
-    readonly maxLength: number;
-    readonly item: NumberOptions;
-  },
->(o: O): SchemaNode<readonly number[], readonly number[], PresenceOf<O>> {
-  const length = o.minLength === o.maxLength ? `${o.minLength}` : `${o.minLength} to ${o.maxLength}`;
-  const node: SchemaNode<readonly number[], readonly number[], PresenceOf<O>> = {
+export function numberListField<const O extends NumberListOptions>(
+  o: O,
+): SchemaNode<readonly number[], readonly number[], PresenceOf<O>> {
+  const length = listLengthText(o);
+  return {
     presence: presenceOf(o) as PresenceOf<O>,
     doc: o.doc,
     fallback: o.default,
-    defaultText: o.defaultText ?? (o.default === undefined ? undefined : `[${o.default.join(', ')}]`),
+    shape: { form: 'number-list', options: o },
     parse(value, path, ctx) {
       if (!Array.isArray(value) || value.length < o.minLength || value.length > o.maxLength) {
         return report(
@@ -548,16 +506,7 @@ export function numberListField<
       });
       return ok ? out : INVALID;
     },
-    jsonSchema: () => ({
-      type: 'array',
-      description: o.doc,
-      items: numberField(o.item).jsonSchema(),
-      minItems: o.minLength,
-      maxItems: o.maxLength,
-    }),
-    rows: (path) => [row(path, node, `list of ${length} numbers`)],
   };
-  return node;
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -568,8 +517,8 @@ export type CrossCheck<T> = (value: T, path: string, ctx: ParseContext) => void;
 
 /** Options of an object field. */
 export interface ObjectOptions<T> {
-  /** One-line meaning. */
-  readonly doc: string;
+  /** One-line meaning (see {@link FieldOptions.doc}). */
+  readonly doc?: string;
   /**
    * `'required'`; `'optional'` (absent stays absent); or `'default'`: an absent object takes the
    * defaults of its fields (each must have one or be optional).
@@ -615,11 +564,11 @@ export function objectField<F extends Fields, const P extends Presence = 'requir
     }
     fallback = value as ObjectOut<F>;
   }
-  const node: SchemaNode<ObjectIn<F>, ObjectOut<F>, P> = {
+  return {
     presence,
     doc: o.doc,
     fallback,
-    defaultText: presence === 'default' ? 'defaults of its fields' : undefined,
+    shape: { form: 'object', fields },
     parse(value, path, ctx) {
       if (!isPlainRecord(value)) {
         return report(
@@ -662,12 +611,19 @@ export function objectField<F extends Fields, const P extends Presence = 'requir
         const p = joinPath(path, key);
         const given = ownField(value, key);
         if (given === undefined || given === null) {
+          const what = f.doc === undefined ? '' : ` (${f.doc})`;
           if (given === null && f.presence === 'required') {
-            report(ctx, p, 'missing-option', `is required (${f.doc}); got null`);
+            report(ctx, p, 'missing-option', `is required${what}; got null`);
             ok = false;
           } else if (f.presence === 'default') out[key] = f.fallback;
           else if (f.presence === 'required') {
-            report(ctx, p, 'missing-option', `is required (${f.doc})`, { expected: f.doc });
+            report(
+              ctx,
+              p,
+              'missing-option',
+              `is required${what}`,
+              f.doc === undefined ? {} : { expected: f.doc },
+            );
             ok = false;
           }
           if (out[key] !== undefined) ctx.parsed.set(p, out[key]);
@@ -691,29 +647,14 @@ export function objectField<F extends Fields, const P extends Presence = 'requir
       }
       return done;
     },
-    jsonSchema() {
-      const required = known.filter((k) => (fields[k] as AnyNode).presence === 'required');
-      return {
-        type: 'object',
-        description: o.doc,
-        additionalProperties: false,
-        properties: Object.fromEntries(known.map((k) => [k, (fields[k] as AnyNode).jsonSchema()])),
-        ...(required.length > 0 ? { required } : {}),
-      };
-    },
-    rows: (path) => [
-      ...(path === '' ? [] : [row(path, node, 'object')]),
-      ...known.flatMap((k) => (fields[k] as AnyNode).rows(joinPath(path, k))),
-    ],
   };
-  return node;
 }
 
 /** A union of objects told apart by a tag field (`kind`). */
 export function taggedField<const V extends Readonly<Record<string, SchemaNode<object, object, Presence>>>>(
   tag: string,
   variants: V,
-  o: { readonly doc: string },
+  o: { readonly doc?: string },
 ): SchemaNode<
   { [K in keyof V]: Expand<{ readonly kind: K } & InOf<V[K]>> }[keyof V],
   { [K in keyof V]: Expand<{ readonly kind: K } & OutOf<V[K]>> }[keyof V],
@@ -726,7 +667,7 @@ export function taggedField<const V extends Readonly<Record<string, SchemaNode<o
     presence: 'required',
     doc: o.doc,
     fallback: undefined,
-    defaultText: undefined,
+    shape: { form: 'tagged', tag, variants },
     parse(value, path, ctx) {
       if (!isPlainRecord(value)) {
         return report(
@@ -761,30 +702,6 @@ export function taggedField<const V extends Readonly<Record<string, SchemaNode<o
       const parsed = variant.parse(rest, path, ctx);
       return parsed === INVALID ? INVALID : { [tag]: kind, ...parsed };
     },
-    jsonSchema: () => ({
-      description: o.doc,
-      oneOf: names.map((n) => {
-        const s = (variants[n] as AnyNode).jsonSchema() as {
-          properties?: Record<string, unknown>;
-          required?: string[];
-        };
-        return {
-          ...s,
-          properties: { [tag]: { const: n }, ...(s.properties ?? {}) },
-          required: [tag, ...(s.required ?? [])],
-        };
-      }),
-    }),
-    rows: (path) => [
-      {
-        path: joinPath(path, tag),
-        type: names.map((n) => `'${n}'`).join(' \\| '),
-        unit: '',
-        presence: 'required',
-        doc: o.doc,
-      },
-      ...names.flatMap((n) => (variants[n] as AnyNode).rows(`${path}<${n}>`).map((r) => ({ ...r }))),
-    ],
   };
   return node;
 }

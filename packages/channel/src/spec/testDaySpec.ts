@@ -20,11 +20,10 @@ import {
 
 const provenance = {
   date: textField({
-    doc: 'When it was measured (ISO 8601 date or date and time)',
     optional: true,
     maxLength: 40,
   }),
-  note: textField({ doc: 'Who, with what, why (free text)', optional: true, maxLength: 500 }),
+  note: textField({ optional: true, maxLength: 500 }),
 };
 
 /** The output quantity parsed so far, if valid. */
@@ -50,38 +49,31 @@ export function testDayFields(outputUnitRule: UnitRule) {
           max: 2,
         }),
         factorStandardUncertainty: numberField({
-          doc: 'Standard uncertainty of the factor (from the readings’ scatter and the shunt’s tolerance); replaces the gain tolerance in the budget',
           min: 0,
           optional: true,
         }),
         shuntOhms: numberField({
-          doc: 'The shunt resistor used',
           unit: { dimension: 'resistance' },
           min: 0,
           minExclusive: true,
           optional: true,
         }),
         arm: numberField({
-          doc: 'The bridge arm it was across (1–4)',
           integer: true,
           min: 1,
           max: 4,
           optional: true,
         }),
         placement: choiceField(['gauge', 'instrument'] as const, {
-          doc: 'Where it was connected: across the gauge, or at the instrument end of the cable',
           optional: true,
         }),
         expectedStepCodes: numberField({
-          doc: 'The step the exact network predicts, in converter codes',
           optional: true,
         }),
         measuredStepCodes: numberField({
-          doc: 'The step measured (with shunt minus without), in converter codes',
           optional: true,
         }),
         readings: numberField({
-          doc: 'Readings averaged in each state (without and with the shunt)',
           integer: true,
           min: 1,
           optional: true,
@@ -89,7 +81,6 @@ export function testDayFields(outputUnitRule: UnitRule) {
         ...provenance,
       },
       {
-        doc: 'Span correction from a shunt calibration (written by `bridgework shunt-apply`)',
         presence: 'optional',
       },
     ),
@@ -106,7 +97,6 @@ export function testDayFields(outputUnitRule: UnitRule) {
           item: { doc: 'coefficient' },
         }),
         covariance: numberListField({
-          doc: 'Covariance of the coefficients, row by row ((degree + 1)² numbers)',
           minLength: 4,
           maxLength: 16,
           item: { doc: 'covariance entry' },
@@ -114,31 +104,26 @@ export function testDayFields(outputUnitRule: UnitRule) {
         }),
         range: intervalField({ doc: 'The reference loads’ span', unit: outputUnitRule }),
         extrapolationFraction: numberField({
-          doc: 'How far past the reference loads the channel converts, as a fraction of their span on each side',
           min: 0,
           max: 1,
           default: 0.05,
         }),
         residualStandardDeviation: numberField({
-          doc: 'Residual standard deviation of the fit, V/V',
           min: 0,
           optional: true,
         }),
-        points: numberField({ doc: 'Number of calibration points', integer: true, min: 2, optional: true }),
+        points: numberField({ integer: true, min: 2, optional: true }),
         pointsFile: textField({
-          doc: 'The points file (as given to the command)',
           optional: true,
           maxLength: 500,
         }),
         pointsSha256: textField({
-          doc: 'SHA-256 of the points file’s bytes',
           pattern: /^[0-9a-f]{64}$/,
           optional: true,
         }),
         ...provenance,
       },
       {
-        doc: 'Calibration against reference loads (written by `bridgework fit-calibration`): the channel converts through it',
         presence: 'optional',
         check(value, path, ctx) {
           const q = quantityOf(ctx);

@@ -54,5 +54,5 @@ export const fakeKind: SensorKind<typeof fields, 'resistive-film'> = {
       }),
     };
   },
-  budgetInputs: () => [],
+  budget: { budgetInputs: () => [] },
 };

@@ -62,6 +62,28 @@ export interface ClipCounter {
     factor?: number,
   ): void;
   /**
+   * Takes a block of interleaved values (frame after frame, `channels` values each) into the
+   * output buffer in one pass: each value times its channel's factor (the display unit), stored in
+   * `target` (rounded to float32 when `target` is a `Float32Array`), counted when not finite; then
+   * checks the counts against what the converter reported. Counts the block's frames (no
+   * {@link ClipCounter.endBlock}).
+   *
+   * @param values - The converted values, `frames × channels`, frame-major.
+   * @param target - Receives the scaled values (may be `values` itself, scaled in place).
+   * @param frames - Frames in the block.
+   * @param firstFrame - Index of the block's first frame in the recording.
+   * @param rejected - Per channel, samples that the converter reported as NaN.
+   * @param factors - Per channel, the factor (all 1: values are copied or only read).
+   */
+  addFrames(
+    values: Float64Array,
+    target: Float64Array | Float32Array,
+    frames: number,
+    firstFrame: number,
+    rejected: readonly number[],
+    factors: Float64Array,
+  ): void;
+  /**
    * Ends a block whose lanes went through {@link ClipCounter.addLane}.
    *
    * @param frames - Frames in the block.
@@ -149,7 +171,70 @@ export function createClipCounter(channels: number): ClipCounter {
     counts[c] = (counts[c] as number) + flagged;
     total += flagged;
   };
+  /** The rare path of addFrames: count per channel, locate, and stop at an infinite value. */
+  const locateFrames = (
+    values: Float64Array,
+    target: Float64Array | Float32Array,
+    blockFrames: number,
+    firstFrame: number,
+    rejected: readonly number[],
+    factors: Float64Array,
+  ): void => {
+    const count = blockFrames * channels;
+    for (let c = 0; c < channels; c++) {
+      let flagged = 0;
+      for (let i = c, f = 0; i < count; i += channels, f++) {
+        const v = target[i] as number;
+        if (v !== v) {
+          flagged++;
+          if (first[c] === undefined) first[c] = firstFrame + f;
+          last[c] = firstFrame + f;
+        } else if (v === Infinity || v === -Infinity) {
+          const scaled = target === values ? v : (values[i] as number) * (factors[c] as number);
+          if (target instanceof Float32Array && scaled - scaled === 0) {
+            throw float32Overflow(c, firstFrame + f, scaled);
+          }
+          throw new BridgeworkError(
+            'model-not-finite',
+            `the converter returned ${v} for channel ${c + 1} at frame ${firstFrame + f}; flagged samples must be NaN`,
+            { param: 'values', value: v },
+          );
+        }
+      }
+      if (flagged !== rejected[c]) {
+        // A converter defect, not bad input: stop with a plain Error (reported as an internal error).
+        throw new Error(
+          `the converter reported ${rejected[c]} clipped samples of channel ${c + 1} in frames ${firstFrame} to ${firstFrame + blockFrames - 1}, but ${flagged} are NaN`,
+        );
+      }
+      counts[c] = (counts[c] as number) + flagged;
+      total += flagged;
+    }
+  };
   return {
+    addFrames(values, target, blockFrames, firstFrame, rejected, factors) {
+      const count = blockFrames * channels;
+      if (values.length < count || target.length < count || factors.length < channels) {
+        throw new BridgeworkError(
+          'invalid-shape',
+          `\`values\` and \`target\` must hold ${blockFrames} frames of ${channels} values, and \`factors\` one per channel; got ${values.length}, ${target.length} and ${factors.length}`,
+          { param: 'values', value: Math.min(values.length, target.length), limit: count },
+        );
+      }
+      let expected = 0;
+      let unit = true;
+      for (let c = 0; c < channels; c++) {
+        expected += rejected[c] as number;
+        if (factors[c] !== 1) unit = false;
+      }
+      const flagged =
+        target instanceof Float32Array
+          ? storeFloat32(values, target, count, channels, unit ? undefined : factors)
+          : storeFloat64(values, target, count, channels, unit ? undefined : factors);
+      if (flagged !== 0 || expected !== 0)
+        locateFrames(values, target, blockFrames, firstFrame, rejected, factors);
+      frames += blockFrames;
+    },
     add(values, laneStride, blockFrames, firstFrame, rejected) {
       if (values.length < (channels - 1) * laneStride + blockFrames || laneStride < blockFrames) {
         throw new BridgeworkError(
@@ -182,6 +267,92 @@ export function createClipCounter(channels: number): ClipCounter {
       };
     },
   };
+}
+
+/** The largest finite float32, (2 − 2⁻²³) × 2¹²⁷. */
+export const FLOAT32_MAX = 3.4028234663852886e38;
+
+/**
+ * The refusal of a value that float32 cannot hold (it would be written as ±∞).
+ *
+ * @param channel - The channel (0-based).
+ * @param frame - The frame (0-based).
+ * @param value - The value (finite, beyond ±{@link FLOAT32_MAX} after rounding).
+ * @returns A `BridgeworkError` `out-of-range` for `--to`.
+ */
+export function float32Overflow(channel: number, frame: number, value: number): BridgeworkError {
+  return new BridgeworkError(
+    'out-of-range',
+    `channel ${channel + 1} at frame ${frame} is ${value}, beyond the largest float32 (${FLOAT32_MAX}); write float64 (--to float64le), or values in a larger unit`,
+    { param: '--to', value, limit: FLOAT32_MAX },
+  );
+}
+
+/**
+ * `target[i] = fround(values[i] × factors[i mod channels])` for `i < count`; returns how many stored
+ * values are not finite (NaN, or ±∞ from a float32 overflow).
+ */
+function storeFloat32(
+  values: Float64Array,
+  target: Float32Array,
+  count: number,
+  channels: number,
+  factors: Float64Array | undefined,
+): number {
+  let flagged = 0;
+  if (factors === undefined) {
+    for (let i = 0; i < count; i++) {
+      const s = Math.fround(values[i] as number);
+      target[i] = s;
+      if (s - s !== 0) flagged++;
+    }
+    return flagged;
+  }
+  for (let i = 0; i < count;) {
+    for (let c = 0; c < channels; c++, i++) {
+      const s = Math.fround((values[i] as number) * (factors[c] as number));
+      target[i] = s;
+      if (s - s !== 0) flagged++;
+    }
+  }
+  return flagged;
+}
+
+/**
+ * `target[i] = values[i] × factors[i mod channels]` for `i < count` (only read when `target` is
+ * `values` and there are no factors); returns how many values are not finite.
+ */
+function storeFloat64(
+  values: Float64Array,
+  target: Float64Array,
+  count: number,
+  channels: number,
+  factors: Float64Array | undefined,
+): number {
+  let flagged = 0;
+  if (factors === undefined) {
+    if (target === values) {
+      for (let i = 0; i < count; i++) {
+        const v = values[i] as number;
+        if (v - v !== 0) flagged++;
+      }
+    } else {
+      for (let i = 0; i < count; i++) {
+        const v = values[i] as number;
+        target[i] = v;
+        if (v - v !== 0) flagged++;
+      }
+    }
+    return flagged;
+  }
+  for (let i = 0; i < count;) {
+    for (let c = 0; c < channels; c++, i++) {
+      const v = (values[i] as number) * (factors[c] as number);
+      target[i] = v;
+      if (v - v !== 0) flagged++;
+    }
+  }
+  return flagged;
 }
 
 /**

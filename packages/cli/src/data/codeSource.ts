@@ -26,6 +26,24 @@ export interface RecordingBlock {
   readonly passThrough: readonly (readonly string[])[] | undefined;
 }
 
+/**
+ * A block of a raw recording with its codes as stored, frame after frame (see
+ * {@link CodeSource.frames}): the code of channel `j` in frame `f` at `codes[f × channels + j]`.
+ */
+export interface FrameBlock {
+  /** Number of frames in this block (≥ 1). */
+  readonly frames: number;
+  /** Index of this block's first frame in the recording (0-based). */
+  readonly firstFrame: number;
+  /** Bytes of the input consumed so far, including this block (for progress bars). */
+  readonly bytesRead: number;
+  /**
+   * The codes, `frames × channels` of them, frame-major. Valid until the next block is requested
+   * (it may be a view of the bytes read).
+   */
+  readonly codes: Int32Array | Float64Array;
+}
+
 /** The code file formats: CSV text, or a raw layout's {@link SampleType}. */
 export type CodeFileFormat = 'csv' | SampleType;
 
@@ -70,6 +88,12 @@ export interface CodeSource {
   readonly totalFrames: number | undefined;
   /** Reads the file block by block; each call starts from the beginning of the file. */
   blocks(): AsyncGenerator<RecordingBlock, void, undefined>;
+  /**
+   * Raw recordings only: reads the file block by block with the codes left interleaved, frame
+   * after frame, without the frame headers (time stamps are not read). Blocks hold the same frames
+   * as those of `blocks()`; each call starts from the beginning of the file.
+   */
+  frames?(): AsyncGenerator<FrameBlock, void, undefined>;
 }
 
 /** Default frames per block: 65 536 frames. */

@@ -1,5 +1,5 @@
 import { BridgeworkError } from '@bridgework/core';
-import { createClipCounter, type ClipSummary } from './clipCounter.js';
+import { createClipCounter, type ClipCounter, type ClipSummary } from './clipCounter.js';
 import type { CodeSource, RecordingBlock } from './codeSource.js';
 import type { CodeLanes, TimeStamps } from './decodeFrames.js';
 
@@ -35,6 +35,48 @@ export interface ConvertingChannel {
   ): LaneConversion;
 }
 
+/**
+ * Converts interleaved frames of every channel in one call: the channel package's
+ * `InterleavedConverter` (from `createInterleavedConverter`) has this shape, and its values equal
+ * each channel's own `convert` of its lane, bit for bit.
+ */
+export interface FrameConverter {
+  /**
+   * Converts `codes` (frame after frame, one code per channel) into `out`, NaN for each code that
+   * cannot be converted.
+   *
+   * @param codes - The codes, a whole number of frames.
+   * @param out - Receives the values (same length).
+   * @param options - How many rejected positions to record (the pipeline asks for none).
+   * @returns Per channel, how the conversion went.
+   */
+  convert(
+    codes: Int32Array | Float64Array,
+    out: Float64Array,
+    options: { readonly maxLocations: number },
+  ): { readonly statuses: readonly LaneConversion['status'][] };
+}
+
+/**
+ * The interleaved output buffers of a writer that stores frames as they are in memory (the raw
+ * formats): the pipeline fills them directly, with no lanes in between (see
+ * {@link RecordingWriter.frames}).
+ */
+export interface FrameOutput {
+  /** The buffers' value type: `float32` buffers receive each value rounded to float32. */
+  readonly type: 'float32' | 'float64';
+  /**
+   * The next buffer to fill with up to `blockFrames × channels` values, frame-major; resolves once
+   * that buffer's earlier write has finished (and rejects if a write failed).
+   */
+  next(): Promise<Float32Array | Float64Array>;
+  /**
+   * Queues the first `count` values of a buffer from `next` for writing, after the writes queued
+   * before; the buffer is not touched by the caller again until `next` returns it.
+   */
+  write(buffer: Float32Array | Float64Array, count: number): void;
+}
+
 /** A block of converted values handed to a {@link RecordingWriter}. */
 export interface ConvertedBlock {
   /** Frames in the block. */
@@ -68,6 +110,12 @@ export interface RecordingWriter {
    * writes in order.
    */
   readonly blocksInFlight?: number;
+  /**
+   * Writers of frames as they lie in memory (the raw formats): with a {@link FrameConverter}, a
+   * source that reads frames, and no per-block temperature correction, the pipeline converts each
+   * block of interleaved codes straight into these buffers and never calls `writeBlock`.
+   */
+  readonly frames?: FrameOutput;
   /** Writes what remains (a header for an empty recording, a file footer). */
   finish(): Promise<void>;
 }
@@ -102,8 +150,13 @@ export interface ConvertRecordingOptions {
   readonly temperature?: BlockTemperature;
   /** Receives the values. */
   readonly writer: RecordingWriter;
-  /** Called after each block is written (for a progress bar). */
-  readonly onBlock?: (block: RecordingBlock) => void;
+  /**
+   * All the channels at once, for interleaved frames: used when the writer takes frames (see
+   * {@link RecordingWriter.frames}), the source reads them, and there is no `temperature`.
+   */
+  readonly frameConverter?: FrameConverter;
+  /** Called after each block is converted (for a progress bar). */
+  readonly onBlock?: (block: Pick<RecordingBlock, 'frames' | 'firstFrame' | 'bytesRead'>) => void;
 }
 
 /** The result of a conversion. */
@@ -117,6 +170,9 @@ export interface ConversionResult {
   /** Per block of the temperature correction, the temperature used (°C), in block order; capped at 10 000. */
   readonly blockTemperatures: readonly number[];
 }
+
+/** Values converted at a time on the interleaved path (256 KiB of float64: within a core's cache). */
+const SLICE_VALUES = 32_768;
 
 /** Blocks' temperatures kept for the summary. */
 const MAX_KEPT_TEMPERATURES = 10_000;
@@ -140,6 +196,16 @@ const MAX_KEPT_TEMPERATURES = 10_000;
  * (`blocksInFlight: 2`) gets two sets of arrays in turn. Memory: one or two sets of
  * `blockFrames × channels` values, plus what the source and the writer hold.
  *
+ * Interleaved path. With a `frameConverter`, a writer that takes frames (the raw formats) and no
+ * `temperature`, the codes stay frame after frame as read (for int32le frames of codes only, the
+ * bytes read are the codes): each slice of 32 768 values is converted by all channels at once and
+ * taken into the writer's buffer in one pass that multiplies by the factor, rounds to float32 when
+ * the output is float32, and counts non-finite values ({@link ClipCounter.addFrames}). The values
+ * equal those of the lane path bit for bit (the frame converter equals each channel's own
+ * `convert`); it saves the de-interleaving of the codes, the lanes and the interleaving of the
+ * values. Memory: one slice of float64 values (float32 output), plus the source's two byte buffers
+ * and the writer's two output buffers.
+ *
  * @param options - Source, channels, factors, temperature correction, writer and progress hook.
  * @returns Frames converted, clipped samples, temperature gaps and block temperatures.
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-shape` (channel count differs from the
@@ -161,6 +227,14 @@ export async function convertRecording(options: ConvertRecordingOptions): Promis
     );
   }
   const factors = options.factors ?? channels.map(() => 1);
+  if (
+    options.frameConverter !== undefined &&
+    writer.frames !== undefined &&
+    source.frames !== undefined &&
+    temperature === undefined
+  ) {
+    return convertFrames(source, options.frameConverter, writer, writer.frames, factors, options.onBlock);
+  }
   const stride = source.blockFrames;
   // One set of arrays per block the writer may hold (see RecordingWriter.blocksInFlight).
   const sets = writer.blocksInFlight === 2 ? 2 : 1;
@@ -280,5 +354,55 @@ export async function convertRecording(options: ConvertRecordingOptions): Promis
     clip: counter.summary(),
     temperatureGaps: { frames: gapFrames, firstFrame: gapFirst, lastFrame: gapLast },
     blockTemperatures,
+  };
+}
+
+/**
+ * The interleaved path of {@link convertRecording}: each block of codes, frame after frame as read,
+ * is converted by the frame converter and taken into the writer's own buffer in one pass (display
+ * factor, float32 rounding, NaN count; see {@link ClipCounter.addFrames}). float64 buffers are
+ * converted into directly and scaled in place; float32 buffers are filled from one block of
+ * float64 values.
+ */
+async function convertFrames(
+  source: CodeSource,
+  converter: FrameConverter,
+  writer: RecordingWriter,
+  output: FrameOutput,
+  factorList: readonly number[],
+  onBlock: ConvertRecordingOptions['onBlock'],
+): Promise<ConversionResult> {
+  const n = source.channels;
+  const factors = Float64Array.from(factorList);
+  const counter = createClipCounter(n);
+  // Slices of a block small enough that the converted values are still in the cache when they are
+  // taken into the output buffer.
+  const sliceFrames = Math.max(1, Math.floor(SLICE_VALUES / n));
+  const scratch = output.type === 'float32' ? new Float64Array(sliceFrames * n) : undefined;
+  const rejected = new Array<number>(n).fill(0);
+  const options = { maxLocations: 0 };
+  let frames = 0;
+  for await (const block of (source.frames as NonNullable<CodeSource['frames']>)()) {
+    const target = await output.next();
+    for (let f = 0; f < block.frames; f += sliceFrames) {
+      const sliceCount = Math.min(sliceFrames, block.frames - f);
+      const from = f * n;
+      const to = from + sliceCount * n;
+      const into = target.subarray(from, to);
+      const values = scratch === undefined ? (into as Float64Array) : scratch.subarray(0, to - from);
+      const { statuses } = converter.convert(block.codes.subarray(from, to), values, options);
+      for (let j = 0; j < n; j++) rejected[j] = (statuses[j] as LaneConversion['status']).rejected;
+      counter.addFrames(values, into, sliceCount, block.firstFrame + f, rejected, factors);
+    }
+    output.write(target, block.frames * n);
+    frames += block.frames;
+    onBlock?.(block);
+  }
+  await writer.finish();
+  return {
+    frames,
+    clip: counter.summary(),
+    temperatureGaps: { frames: 0, firstFrame: undefined, lastFrame: undefined },
+    blockTemperatures: [],
   };
 }

@@ -1,4 +1,4 @@
-import type { SampleType, TimeStampType } from './recordingLayout.js';
+import { storedBytes, type SampleType, type TimeStampType } from './recordingLayout.js';
 
 /** Codes of a block, one lane per channel: `Int32Array` for types that fit, else `Float64Array`. */
 export type CodeLanes = Int32Array | Float64Array;
@@ -125,6 +125,106 @@ export function decodeFrames(
         for (let f = 0; f < frames; f++, p += frameBytes) lanes[base + f] = view.getFloat64(p, little);
         break;
       }
+    }
+  }
+}
+
+/**
+ * The codes of `frames` frames as an `Int32Array` view of the bytes themselves, when they already
+ * lie in memory as one: int32 little-endian on a little-endian host, 4-byte aligned, frames of
+ * codes only (no frame header or trailer). Otherwise `undefined` (decode with
+ * {@link decodeInterleaved}).
+ *
+ * @param bytes - The frames.
+ * @param frames - Frames to view.
+ * @param geometry - Sample type, channels, frame size and code offset.
+ * @returns The view (`frames × channels` codes, frame after frame), or `undefined`.
+ */
+export function interleavedView(
+  bytes: Uint8Array,
+  frames: number,
+  geometry: FrameGeometry,
+): Int32Array | undefined {
+  const { sample, channels, frameBytes, codeOffset } = geometry;
+  if (
+    sample !== 'int32le' ||
+    !littleEndianHost ||
+    codeOffset !== 0 ||
+    frameBytes !== 4 * channels ||
+    bytes.byteOffset % 4 !== 0
+  ) {
+    return undefined;
+  }
+  return new Int32Array(bytes.buffer, bytes.byteOffset, frames * channels);
+}
+
+/**
+ * Decodes the codes of `frames` frames keeping them interleaved: the code of channel `j` in frame
+ * `f` goes to `out[f × channels + j]` (the frame headers and trailers are left out).
+ *
+ * @remarks
+ * The same per-type reads as {@link decodeFrames} (so the same codes, bit for bit), written in one
+ * sequential pass over the frames.
+ *
+ * @param bytes - The frames (at least `frames × frameBytes` bytes).
+ * @param frames - Frames to decode.
+ * @param geometry - Sample type, channels, frame size and code offset.
+ * @param out - Receives `frames × channels` codes (`Int32Array` or `Float64Array` as
+ *   {@link fitsInt32} says).
+ */
+export function decodeInterleaved(
+  bytes: Uint8Array,
+  frames: number,
+  geometry: FrameGeometry,
+  out: CodeLanes,
+): void {
+  const { sample, channels, frameBytes, codeOffset } = geometry;
+  if (frames === 0) return;
+  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  const little = sample.endsWith('le');
+  const size = storedBytes(sample);
+  let o = 0;
+  for (let f = 0; f < frames; f++) {
+    let p = f * frameBytes + codeOffset;
+    switch (sample) {
+      case 'int16le':
+      case 'int16be':
+        for (let j = 0; j < channels; j++, p += size) out[o++] = view.getInt16(p, little);
+        break;
+      case 'uint16le':
+      case 'uint16be':
+        for (let j = 0; j < channels; j++, p += size) out[o++] = view.getUint16(p, little);
+        break;
+      case 'int24le':
+      case 'uint24le':
+        for (let j = 0; j < channels; j++, p += size) {
+          const u = (bytes[p] as number) | ((bytes[p + 1] as number) << 8) | ((bytes[p + 2] as number) << 16);
+          out[o++] = sample === 'int24le' ? (u << 8) >> 8 : u;
+        }
+        break;
+      case 'int24be':
+      case 'uint24be':
+        for (let j = 0; j < channels; j++, p += size) {
+          const u = ((bytes[p] as number) << 16) | ((bytes[p + 1] as number) << 8) | (bytes[p + 2] as number);
+          out[o++] = sample === 'int24be' ? (u << 8) >> 8 : u;
+        }
+        break;
+      case 'int32le':
+      case 'int32be':
+        for (let j = 0; j < channels; j++, p += size) out[o++] = view.getInt32(p, little);
+        break;
+      case 'uint32le':
+      case 'uint32be':
+        for (let j = 0; j < channels; j++, p += size) out[o++] = view.getUint32(p, little);
+        break;
+      case 'float32le':
+      case 'float32be':
+        for (let j = 0; j < channels; j++, p += size) out[o++] = view.getFloat32(p, little);
+        break;
+      case 'float64le':
+      case 'float64be':
+        for (let j = 0; j < channels; j++, p += size) out[o++] = view.getFloat64(p, little);
+        break;
     }
   }
 }

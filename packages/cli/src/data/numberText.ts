@@ -6,7 +6,9 @@
  *   digit — the fewest significant digits that read back as the same double, the closest such
  *   decimal to the double when several have that length, the even one on a tie;
  * - `digits` significant digits ({@link writeDigits}): the exact binary value correctly rounded to
- *   that many digits (ties to even, IEEE 754's default rounding), trailing zeros dropped.
+ *   that many digits (ties to even, IEEE 754's default rounding), trailing zeros dropped. Up to 12
+ *   digits, a short path decides first from one correctly rounded scaling by an exact power of
+ *   ten (see digitsLean); what it cannot decide goes to the paths below.
  *
  * Both lay the digits out as Number::toString does (plain notation for decimal exponents from −7
  * to 20, else `d.ddde±x`), so a reader sees one format whichever is chosen.
@@ -394,6 +396,89 @@ function digitsFast(a: number, p: number): number {
 }
 
 // ---------------------------------------------------------------------------------------------
+// The short fixed-digit path of writeDigits (1 ≤ p ≤ LEAN_MAX_DIGITS): one correctly rounded
+// operation on exact operands instead of the double-double product.
+
+/** The most significant digits the short path takes: 10^12 · 2^-53 leaves a margin of 1.1e-4. */
+const LEAN_MAX_DIGITS = 12;
+/** 10^k for k in [0, 22]: exact doubles. */
+const POW10_EXACT = Float64Array.from({ length: 23 }, (_, k) => Number(`1e${k}`));
+/**
+ * Per p, how far t's fraction must be from one half for the short path to round: 10^p · 2^-50,
+ * eight times the largest error of t (half an ulp of t < 10^p, at most 10^p · 2^-53).
+ */
+const LEAN_MARGIN = Float64Array.from({ length: LEAN_MAX_DIGITS + 1 }, (_, p) => 10 ** p * 2 ** -50);
+
+/**
+ * The short path of {@link writeDigits} for a > 0 and 1 ≤ p ≤ {@link LEAN_MAX_DIGITS}: fills
+ * digitText and returns the decimal exponent, or NaN when it cannot decide.
+ *
+ * @remarks
+ * With E the decimal exponent of a (10^E ≤ a < 10^(E+1)), the answer is the integer nearest to
+ * a·10^(p−1−E). The binary exponent gives e = ⌊be·log10 2⌋ with E ∈ {e, e + 1}; for
+ * j = p − 1 − e in [−22, 22], 10^|j| is an exact double, so t = a·10^j (or a / 10^−j) is one
+ * correctly rounded operation on exact operands: |t − a·10^j| ≤ half an ulp of t < 10^p·2^-53
+ * (t < 2^53 as p ≤ 12, after the step below). When t ≥ 10^p, E = e + 1 and t is computed again
+ * with j − 1 (rounding is monotone, so t ≥ 10^p exactly when a·10^j ≥ 10^p). The fraction of t
+ * then decides the rounding when it is at least {@link LEAN_MARGIN} (eight error bounds) away
+ * from one half; otherwise (a possible tie or a near one) the double-double or exact path decides.
+ * A rounding up to 10^p carries into the exponent. About 2·10^p·2^-50 of uniformly spread
+ * fractions defer: under 10^-6 for p ≤ 9.
+ */
+function digitsLean(a: number, p: number): number {
+  f64[0] = a;
+  const be = ((u32[HI] as number) >>> 20) - 1023;
+  let e = Math.floor(be * LOG10_2) | 0; // an int32 (a small integer when returned: nothing allocated)
+  let j = p - 1 - e;
+  if (j > 22 || j < -21) return Number.NaN;
+  const limit = POW10_EXACT[p] as number;
+  let t = j >= 0 ? a * (POW10_EXACT[j] as number) : a / (POW10_EXACT[-j] as number);
+  if (t >= limit) {
+    e++;
+    j--;
+    t = j >= 0 ? a * (POW10_EXACT[j] as number) : a / (POW10_EXACT[-j] as number);
+  }
+  const n = Math.floor(t);
+  const f = t - n; // exact: t < 2^53
+  const margin = LEAN_MARGIN[p] as number;
+  let r: number;
+  if (f > 0.5 + margin) r = n + 1;
+  else if (f < 0.5 - margin) r = n;
+  else return Number.NaN;
+  if (r === limit) {
+    r = limit / 10;
+    e++;
+  }
+  // The p digits of r, most significant first, trailing zeros dropped (int32 arithmetic below
+  // 10^9, which the JIT keeps in integer registers; doubles above).
+  let k = p;
+  if (r < 1_000_000_000) {
+    let x = r | 0;
+    while (k > 1 && x % 10 === 0) {
+      x = (x / 10) | 0;
+      k--;
+    }
+    for (let i = k - 1; i >= 0; i--) {
+      const q = (x / 10) | 0;
+      digitText[i] = 48 + x - q * 10;
+      x = q;
+    }
+  } else {
+    while (k > 1 && r % 10 === 0) {
+      r /= 10;
+      k--;
+    }
+    for (let i = k - 1; i >= 0; i--) {
+      const q = Math.floor(r / 10);
+      digitText[i] = 48 + (r - q * 10);
+      r = q;
+    }
+  }
+  digitCount = k;
+  return e;
+}
+
+// ---------------------------------------------------------------------------------------------
 // The exact path (BigInt): the reference, and the fallback of the fast path.
 
 /** Exact decimal exponent of a > 0: 10^e ≤ a < 10^(e+1). a = M / D. */
@@ -524,14 +609,15 @@ export function writeDigits(v: number, digits: number, buffer: Uint8Array, pos: 
   const negative = v < 0;
   const a = negative ? -v : v;
   if (a === Infinity) return writeAscii(negative ? '-Infinity' : 'Infinity', buffer, pos);
-  let e = digitsFast(a, digits);
+  let e = digits <= LEAN_MAX_DIGITS ? digitsLean(a, digits) : Number.NaN;
+  if (e !== e) e = digitsFast(a, digits);
   if (e !== e) e = exactDecimal(a, digits);
   return layout(negative, e, buffer, pos);
 }
 
 /**
- * The two paths apart, for tests: the fast path's text, or `undefined` where it defers; and the
- * exact path's text.
+ * The paths apart, for tests: the fast path's text, or `undefined` where it defers; the short
+ * fixed-digit path's (digits 1 to 12), likewise; and the exact path's text.
  *
  * @internal
  */
@@ -539,6 +625,12 @@ export const numberTextPaths = {
   fast(v: number, digits: number): string | undefined {
     const a = Math.abs(v);
     const e = digits === 0 ? shortestFast(a) : digitsFast(a, digits);
+    if (e !== e) return undefined;
+    const buffer = new Uint8Array(32);
+    return new TextDecoder().decode(buffer.subarray(0, layout(v < 0, e, buffer, 0)));
+  },
+  lean(v: number, digits: number): string | undefined {
+    const e = digitsLean(Math.abs(v), digits);
     if (e !== e) return undefined;
     const buffer = new Uint8Array(32);
     return new TextDecoder().decode(buffer.subarray(0, layout(v < 0, e, buffer, 0)));

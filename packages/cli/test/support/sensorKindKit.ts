@@ -13,9 +13,12 @@ import { fakeKind } from '../../../channel/test/support/fakeKind.js';
 /** The invented kind, with its sensitivity's usual range (1 … 10) checked by the budget. */
 const filmKind: typeof fakeKind = {
   ...fakeKind,
-  plausibleRanges: (s) => [
-    { path: 'sensor.sensitivity', value: s.sensitivity, range: { min: 1, max: 10 }, unit: '' },
-  ],
+  budget: {
+    ...fakeKind.budget!,
+    plausibleRanges: (s) => [
+      { path: 'sensor.sensitivity', value: s.sensitivity, range: { min: 1, max: 10 }, unit: '' },
+    ],
+  },
 };
 
 /** The built-in kinds and the invented one: validation and creation as the command uses them. */

@@ -17,10 +17,11 @@ export function checkModulus(param: string, value: unknown): number {
 export const METERS_LIMITS = { min: 1e-6, max: 1e3 } as const;
 
 /**
- * Checks a length (power 1), an area (2) or a section modulus (3) against the length limits raised
- * to that power, so that every section property formed from them is finite and non-zero.
+ * Checks a length (power 1), an area (2), a section modulus (3) or a second moment of area (4)
+ * against the length limits raised to that power, so that every section property formed from them
+ * is finite and non-zero.
  */
-export function checkGeometry(param: string, value: unknown, power: 1 | 2 | 3, unit: string): number {
+export function checkGeometry(param: string, value: unknown, power: 1 | 2 | 3 | 4, unit: string): number {
   const x = checkPositive(param, value);
   const min = METERS_LIMITS.min ** power;
   const max = METERS_LIMITS.max ** power;

@@ -217,3 +217,20 @@ export function planeStressReference(
     outOfPlaneStrain: Number(ez),
   };
 }
+
+/**
+ * The least-squares solution of A·x = b by the normal equations AᵀA·x = Aᵀb solved with mathjs
+ * `lusolve` at 40 digits (squaring the condition number costs nothing at that precision). Each
+ * column is scaled by an exact power of two first, and the unknowns scaled back.
+ */
+export function leastSquaresReference(rows: readonly (readonly number[])[], b: readonly number[]): number[] {
+  const k = (rows[0] as readonly number[]).length;
+  const scales = Array.from({ length: k }, (_, j) => scaleFor(rows.map((r) => r[j] as number)));
+  const a = math.matrix(rows.map((r) => r.map((x, j) => big(x * (scales[j] as number)))));
+  const at = math.transpose(a);
+  const bb = math.matrix(b.map((x) => [big(x)]));
+  const x = (
+    math.lusolve(math.multiply(at, a) as Matrix, math.multiply(at, bb) as Matrix) as Matrix
+  ).toArray() as BigNumber[][];
+  return x.map((r, j) => Number(r[0]) * (scales[j] as number));
+}

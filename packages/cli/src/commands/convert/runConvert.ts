@@ -1,7 +1,12 @@
 import { createHash } from 'node:crypto';
 import { readFile } from 'node:fs/promises';
 import { basename } from 'node:path';
-import { createChannel, type Channel, type ChannelSpec } from '@bridgework/channel';
+import {
+  createChannel,
+  createInterleavedConverter,
+  type Channel,
+  type ChannelSpec,
+} from '@bridgework/channel';
 import { BridgeworkError } from '@bridgework/core';
 import { SAFETY_CAUTION } from '../../caution.js';
 import { loadChannels, type LoadedChannel } from '../../channels/loadChannels.js';
@@ -314,6 +319,8 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
           // With groups, the writer applies the display factors after the groups read the channels' own units.
           ...(groupPlan === undefined ? { factors: units.map((u) => u.factor) } : {}),
           ...(temperature === undefined ? {} : { temperature }),
+          // Raw outputs take the frames as read, converted by all channels at once.
+          ...(groupPlan === undefined ? { frameConverter: createInterleavedConverter(channels) } : {}),
           writer: groupPlan === undefined ? writer : (groupWriter = groupPlan.wrap(writer)),
           onBlock: (block) => progress.update(block.bytesRead),
         }),
