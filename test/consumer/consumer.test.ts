@@ -399,6 +399,12 @@ describe('(c) the conversion path in a browser', () => {
       );
       expect(bundle.code).not.toMatch(/\bfrom\s*["']node:|require\(["']node:/);
       expect(bundle.gzippedBytes).toBeLessThanOrEqual(CONVERSION_PATH_BUDGET_GZIP_BYTES);
+      // What only the budget, the firmware constants or the field reference need stays out.
+      const packages = bundle.byPackage.map((p) => p.name);
+      for (const name of ['@bridgework/uncertainty', '@bridgework/firmware', 'decimal.js'])
+        expect(packages).not.toContain(name);
+      expect(bundle.code).not.toContain('x-unit'); // the JSON Schema's unit keyword
+      expect(bundle.code).not.toContain('Gauge resistance'); // a field's meaning (spec/fieldDocs.ts)
 
       const inNode = await runOk(
         node,

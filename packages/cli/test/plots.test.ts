@@ -115,6 +115,41 @@ describe('linePlot', () => {
     expect(plot.svg).toContain('<title id="output-title">Output against load</title>');
   });
 
+  it('wraps a long legend within the plot and starts the plot area below its rows', () => {
+    const names = [
+      'circle',
+      'principal diameter',
+      'x–y diameter (0°, 90°)',
+      'leg a (30°)',
+      'leg b (75°)',
+      'leg c (150°)',
+    ];
+    const wide = linePlot({
+      id: 'wide',
+      title: 'Many series',
+      x: { label: 'x' },
+      y: { label: 'y' },
+      width: 480,
+      height: 480,
+      series: names.map((name) => ({ name, x: [0, 1], y: [0, 1] })),
+    });
+    const items = [
+      ...wide.svg.matchAll(
+        /<g class="bw-legend-item" data-series="([^"]*)">.*?<text x="([\d.]+)" y="([\d.]+)"/g,
+      ),
+    ].map((m) => ({ name: m[1] as string, x: Number(m[2]), y: Number(m[3]) }));
+    expect(items.map((i) => i.name)).toEqual(names);
+    // Every name ends inside the 480 px plot (text width as the plot estimates it: 0.58 em per character).
+    for (const i of items) expect(i.x + [...i.name].length * 12 * 0.58).toBeLessThanOrEqual(480);
+    const rows = new Set(items.map((i) => i.y)).size;
+    expect(rows).toBe(2);
+    // The y axis starts one legend row (18 px) lower than with a one-row legend (58 px).
+    const yAxis = /<g class="bw-axis bw-axis-y"[^>]*>(?:<[^>]*>)*?<line x1="[\d.]+" y1="([\d.]+)"/.exec(
+      wide.svg,
+    );
+    expect(Number(yAxis?.[1])).toBe(58 + 18);
+  });
+
   it('maps data to the plot area exactly: the first point sits on the axis origin', () => {
     const xAxis = /<g class="bw-axis bw-axis-x"[^>]*><line x1="([\d.]+)" y1="([\d.]+)" x2="([\d.]+)"/.exec(
       plot.svg,

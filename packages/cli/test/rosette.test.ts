@@ -401,8 +401,8 @@ describe('reduce-rosette --html', () => {
     expect(r.stderr).toMatch(/wrote the HTML page to .*mohr\.html \(row 2\)/);
     const page = readFileSync(html, 'utf8');
     // The circle, the principal diameter and a radius to each of the three legs; the stress circle.
-    expect(page).toMatch(/data-plot="mohr-strain"[^>]*data-series-count="5"/);
-    expect(page).toMatch(/data-plot="mohr-stress"[^>]*data-series-count="2"/);
+    expect(page).toMatch(/data-plot="mohr-strain"[^>]*data-series-count="6"/);
+    expect(page).toMatch(/data-plot="mohr-stress"[^>]*data-series-count="3"/);
     expect(page).toMatch(/support, and do not replace,\s+qualified engineering judgement/);
     const red = reduceRosette({ layout: 'rectangular', strains: [400e-6, 300e-6, -100e-6] });
     expect(page).toContain(`${formatNumber(red.maxStrain / 1e-6, 6)} µε`);

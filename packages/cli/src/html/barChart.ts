@@ -9,6 +9,7 @@ import {
   finiteRange,
   formatTick,
   legend,
+  LEGEND_ROW_HEIGHT,
   look,
   palette,
   px,
@@ -131,7 +132,20 @@ export function barChart(options: BarChartOptions): SvgPlot {
   const nSeries = options.series.length;
   const barHeight = nSeries === 1 ? 18 : 12;
   const rowHeight = nSeries * barHeight + 12;
-  const top = nSeries > 1 ? 58 : 40;
+  const colored = options.series.map((s, i) => ({
+    ...s,
+    color: s.color ?? (palette[i % palette.length] as string),
+  }));
+  const key =
+    nSeries > 1
+      ? legend(
+          colored.map((s) => ({ ...s, bar: true })),
+          12,
+          44,
+          width - 24,
+        )
+      : undefined;
+  const top = key === undefined ? 40 : 58 + (key.rows - 1) * LEGEND_ROW_HEIGHT;
   const bottom = 50;
   const maxLabel = Math.floor(width * 0.42);
   // Emphasised labels are bold, about a tenth wider than regular text.
@@ -173,10 +187,6 @@ export function barChart(options: BarChartOptions): SvgPlot {
       ? `<rect x="${left}" y="${top + j * rowHeight}" width="${w}" height="${rowHeight}" fill="#f6f8fa"/>`
       : '',
   );
-  const colored = options.series.map((s, i) => ({
-    ...s,
-    color: s.color ?? (palette[i % palette.length] as string),
-  }));
   const series = colored.map((s, i) => {
     const bars = s.values.map((v, j) => {
       const y = top + j * rowHeight + 6 + i * barHeight;
@@ -196,13 +206,7 @@ export function barChart(options: BarChartOptions): SvgPlot {
 
   const svg = [
     svgOpen('bar-chart', id, options.title, width, height, colored.length),
-    nSeries > 1
-      ? legend(
-          colored.map((s) => ({ ...s, bar: true })),
-          12,
-          44,
-        )
-      : '',
+    key?.svg ?? '',
     bands.join(''),
     `<g class="bw-grid" stroke="${look.grid}" stroke-width="1">${grid.join('')}</g>`,
     `<g class="bw-categories">${categoryLabels.join('')}</g>`,

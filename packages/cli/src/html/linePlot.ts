@@ -9,6 +9,7 @@ import {
   finiteRange,
   formatTick,
   legend,
+  LEGEND_ROW_HEIGHT,
   look,
   palette,
   px,
@@ -131,7 +132,12 @@ export function linePlot(options: LinePlotOptions): SvgPlot {
   const yLabels = yt.values.map((v) => formatTick(v, yt));
   const xLabels = xt.values.map((v) => formatTick(v, xt));
 
-  const top = 58;
+  const colored = options.series.map((s, i) => ({
+    ...s,
+    color: s.color ?? (palette[i % palette.length] as string),
+  }));
+  const key = legend(colored, 12, 44, width - 24);
+  const top = 58 + (key.rows - 1) * LEGEND_ROW_HEIGHT;
   const bottom = 50;
   const left = Math.ceil(Math.max(...yLabels.map((l) => textWidth(l))) + 40);
   const right = Math.ceil(Math.max(16, textWidth(xLabels[xLabels.length - 1] ?? '') / 2 + 6));
@@ -164,10 +170,6 @@ export function linePlot(options: LinePlotOptions): SvgPlot {
       ? `<line class="bw-zero" x1="${left}" y1="${px(sy(0))}" x2="${left + w}" y2="${px(sy(0))}" stroke="${look.axis}" stroke-width="1"/>`
       : '';
 
-  const colored = options.series.map((s, i) => ({
-    ...s,
-    color: s.color ?? (palette[i % palette.length] as string),
-  }));
   const series = colored.map((s) => {
     let d = '';
     let pen = false;
@@ -190,7 +192,7 @@ export function linePlot(options: LinePlotOptions): SvgPlot {
 
   const svg = [
     svgOpen('line-plot', id, options.title, width, height, colored.length),
-    legend(colored, 12, 44),
+    key.svg,
     `<defs><clipPath id="${id}-clip"><rect x="${left}" y="${top}" width="${w}" height="${h}"/></clipPath></defs>`,
     `<g class="bw-grid" stroke="${look.grid}" stroke-width="1">${grid.join('')}</g>`,
     zeroLine,

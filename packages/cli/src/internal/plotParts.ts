@@ -94,7 +94,15 @@ export function svgOpen(
   );
 }
 
-/** A legend row under the title: one swatch and name per series. */
+/** The height of one legend row, px. */
+export const LEGEND_ROW_HEIGHT = 18;
+
+/**
+ * The legend under the title: one swatch and name per series, in rows that wrap within
+ * `maxWidth` (a long legend once ran off the plot's right edge).
+ *
+ * @returns The markup and the number of rows it takes (the plot area starts below them).
+ */
 export function legend(
   items: readonly {
     readonly name: string;
@@ -104,19 +112,28 @@ export function legend(
   }[],
   x: number,
   y: number,
-): string {
+  maxWidth: number,
+): { readonly svg: string; readonly rows: number } {
   let cx = x;
-  const parts = items.map((item) => {
+  let cy = y;
+  let rows = 1;
+  const parts = items.map((item, i) => {
+    const swatchWidth = item.bar === true ? 20 : 28;
+    if (i > 0 && cx + swatchWidth + textWidth(item.name) > x + maxWidth) {
+      cx = x;
+      cy += LEGEND_ROW_HEIGHT;
+      rows++;
+    }
     const swatch =
       item.bar === true
-        ? `<rect x="${px(cx)}" y="${px(y - 9)}" width="14" height="10" rx="1.5" fill="${item.color}"/>`
-        : `<line x1="${px(cx)}" y1="${px(y - 4)}" x2="${px(cx + 22)}" y2="${px(y - 4)}" stroke="${item.color}" stroke-width="2.5"${item.dashed === true ? ' stroke-dasharray="6 4"' : ''}/>`;
-    const textX = cx + (item.bar === true ? 20 : 28);
-    const g = `<g class="bw-legend-item" data-series="${escapeHtml(item.name)}">${swatch}<text x="${px(textX)}" y="${px(y)}" fill="${look.muted}">${escapeHtml(item.name)}</text></g>`;
+        ? `<rect x="${px(cx)}" y="${px(cy - 9)}" width="14" height="10" rx="1.5" fill="${item.color}"/>`
+        : `<line x1="${px(cx)}" y1="${px(cy - 4)}" x2="${px(cx + 22)}" y2="${px(cy - 4)}" stroke="${item.color}" stroke-width="2.5"${item.dashed === true ? ' stroke-dasharray="6 4"' : ''}/>`;
+    const textX = cx + swatchWidth;
+    const g = `<g class="bw-legend-item" data-series="${escapeHtml(item.name)}">${swatch}<text x="${px(textX)}" y="${px(cy)}" fill="${look.muted}">${escapeHtml(item.name)}</text></g>`;
     cx = textX + textWidth(item.name) + 18;
     return g;
   });
-  return `<g class="bw-legend">${parts.join('')}</g>`;
+  return { svg: `<g class="bw-legend">${parts.join('')}</g>`, rows };
 }
 
 /** Axis description for `data-*` attributes. */

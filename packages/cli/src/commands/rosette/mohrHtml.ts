@@ -3,6 +3,7 @@
  * with E and ν) for one row of the recording, with the legs and the x–y diameter on it.
  */
 import { linePlot } from '../../html/linePlot.js';
+import type { SvgPlot } from '../../html/plotTypes.js';
 import { renderHtmlReport } from '../../html/renderHtmlReport.js';
 import { formatNumber } from '../../report/formatNumber.js';
 import type { ReducedRow } from './rosetteRows.js';
@@ -28,23 +29,133 @@ export interface MohrPage {
   readonly generator: string;
 }
 
-/** Points of a circle of centre c and radius r (181 points), for a line plot. */
-function circle(c: number, r: number): { x: number[]; y: number[] } {
+/** A point of Mohr's circle: normal component, half shear component (strain) or shear (stress). */
+export interface MohrPoint {
+  readonly x: number;
+  readonly y: number;
+}
+
+/** Mohr's circle of a plane state from its principal values and the direction of the larger one. */
+export interface MohrCircle {
+  /** Centre on the normal axis and radius (half the difference of the principal values). */
+  readonly centre: number;
+  readonly radius: number;
+  /** The direction of the larger principal value, rad, in the layout's frame. */
+  readonly theta1: number;
+  /** The state of the direction θ (rad, counterclockwise, in the frame of the layout's angles). */
+  at(theta: number): MohrPoint;
+}
+
+/**
+ * Mohr's circle from the principal values p1 ≥ p2 and the direction θ1 of p1 in the layout's
+ * frame: the direction θ plots at (p(θ), q(θ)) with p(θ) = c + R·cos 2(θ − θ1) and
+ * q(θ) = −R·sin 2(θ − θ1), c = (p1 + p2)/2, R = (p1 − p2)/2 — the transformation equations of
+ * plane strain (q = γ/2, the half engineering shear strain of the directions θ and θ + 90°) and of
+ * plane stress (q = τ), written from the principal frame (any mechanics text; Dally & Riley,
+ * _Experimental Stress Analysis_, ch. on strain analysis — from memory). A turn of the direction
+ * by θ counterclockwise moves its point by 2θ clockwise on this plot.
+ *
+ * @param p1 - The larger principal value.
+ * @param p2 - The smaller principal value.
+ * @param theta1 - The direction of p1, rad (0 when p1 = p2: every direction is principal).
+ * @returns The circle.
+ */
+export function mohrCircle(p1: number, p2: number, theta1: number): MohrCircle {
+  const centre = (p1 + p2) / 2;
+  const radius = (p1 - p2) / 2;
+  return {
+    centre,
+    radius,
+    theta1,
+    at: (theta) => ({
+      x: centre + radius * Math.cos(2 * (theta - theta1)),
+      y: -radius * Math.sin(2 * (theta - theta1)),
+    }),
+  };
+}
+
+/**
+ * The strain circle of a reduced row, in its layout's frame: the direction of ε1 is the row's
+ * angle from leg a plus leg a's own angle. Each leg's point lies at its reduced strain.
+ *
+ * @param anglesRadians - The legs' directions, rad.
+ * @param reduced - The reduced row.
+ * @returns The circle.
+ */
+export function rowStrainCircle(
+  anglesRadians: readonly [number, number, number],
+  reduced: ReducedRow,
+): MohrCircle {
+  const fromLegA = Number.isNaN(reduced.angleRadians) ? 0 : reduced.angleRadians;
+  return mohrCircle(reduced.strain1, reduced.strain2, fromLegA + anglesRadians[0]);
+}
+
+/** What one Mohr plot shows, in the page's unit (values divided by `perUnit`). */
+interface MohrPlotOptions {
+  readonly id: string;
+  readonly title: string;
+  readonly x: string;
+  readonly y: string;
+  readonly unit: string;
+  readonly perUnit: number;
+  readonly circle: MohrCircle;
+  /** Directions drawn as radii from the centre, with their names (the legs). */
+  readonly directions: readonly { readonly name: string; readonly theta: number }[];
+}
+
+/**
+ * One Mohr plot: the circle (181 points), the principal diameter, the x–y diameter (the states of
+ * the directions 0 and 90° of the layout's frame) and a radius to each named direction.
+ */
+function mohrPlot(o: MohrPlotOptions): SvgPlot {
+  const u = (v: number) => v / o.perUnit;
+  const { centre, radius } = o.circle;
+  const span = Math.max(Math.abs(radius), Math.abs(centre) * 1e-6, 1e-300) * 1.25;
   const x: number[] = [];
   const y: number[] = [];
   for (let i = 0; i <= 180; i++) {
     const phi = (2 * Math.PI * i) / 180;
-    x.push(c + r * Math.cos(phi));
-    y.push(r * Math.sin(phi));
+    x.push(u(centre + radius * Math.cos(phi)));
+    y.push(u(radius * Math.sin(phi)));
   }
-  return { x, y };
+  const px = o.circle.at(0);
+  const py = o.circle.at(Math.PI / 2);
+  return linePlot({
+    id: o.id,
+    title: o.title,
+    x: { label: o.x, unit: o.unit, min: u(centre - span), max: u(centre + span) },
+    y: { label: o.y, unit: o.unit, min: u(-span), max: u(span) },
+    width: 480,
+    height: 480,
+    series: [
+      { name: 'circle', x, y },
+      {
+        name: 'principal diameter',
+        x: [u(centre - Math.abs(radius)), u(centre + Math.abs(radius))],
+        y: [0, 0],
+        dashed: true,
+        color: '#777',
+      },
+      {
+        name: 'x–y diameter (0°, 90°)',
+        x: [u(px.x), u(py.x)],
+        y: [u(px.y), u(py.y)],
+        dashed: true,
+        color: '#b35',
+      },
+      ...o.directions.map((d) => {
+        const p = o.circle.at(d.theta);
+        return { name: d.name, x: [u(centre), u(p.x)], y: [0, u(p.y)] };
+      }),
+    ],
+  });
 }
 
 /**
- * Mohr's circle of a reduced row: centre (ε1 + ε2)/2, radius (ε1 − ε2)/2 in the plane of normal
- * strain ε and half the engineering shear γ/2; each leg at θ plots at (ε(θ), −γ(θ)/2), the
- * diameter from (εx, −γxy/2) to (εy, γxy/2) (clockwise-positive shear on the vertical axis, the
- * usual drawing convention). With stresses, the stress circle likewise from σ1 and σ2.
+ * Mohr's circle of a reduced row: of strain, in the plane of normal strain ε and half the
+ * engineering shear γ/2, with each leg as a radius to the point of its direction and the x–y
+ * diameter; with stresses, the stress circle likewise from σ1 and σ2 (the principal directions of
+ * stress and strain coincide in an isotropic material). See {@link mohrCircle} for the convention.
  *
  * @param page - The row and its context.
  * @returns The page.
@@ -52,65 +163,34 @@ function circle(c: number, r: number): { x: number[]; y: number[] } {
 export function mohrHtml(page: MohrPage): string {
   const r = page.reduced;
   const s = (x: number) => x / page.perStrain;
-  const c = (r.strain1 + r.strain2) / 2;
-  const R = (r.strain1 - r.strain2) / 2;
-  // The strain state back from the principal values and the direction (from leg a).
-  const th = Number.isNaN(r.angleRadians) ? 0 : r.angleRadians;
-  const strainAt = (t: number) => c + R * Math.cos(2 * (t - th));
-  const halfShearAt = (t: number) => -R * Math.sin(2 * (t - th));
-  const legs = page.anglesRadians.map((t) => ({ x: s(strainAt(t)), y: s(halfShearAt(t)) }));
-  const span = Math.max(Math.abs(R), 1e-300) * 1.25;
-  const strainCircle = circle(s(c), s(R));
+  const strainCircle = rowStrainCircle(page.anglesRadians, r);
   const plots = [
-    linePlot({
+    mohrPlot({
       id: 'mohr-strain',
       title: `Mohr's circle of strain, row ${page.row}`,
-      x: { label: 'Normal strain ε', unit: page.strainUnit, min: s(c - span), max: s(c + span) },
-      y: { label: 'Half shear γ/2', unit: page.strainUnit, min: s(-span), max: s(span) },
-      width: 480,
-      height: 480,
-      series: [
-        { name: 'circle', x: strainCircle.x, y: strainCircle.y },
-        {
-          name: 'principal diameter',
-          x: [s(r.strain2), s(r.strain1)],
-          y: [0, 0],
-          dashed: true,
-          color: '#777',
-        },
-        ...legs.map((p, i) => ({
-          name: `leg ${'abc'[i]} (${formatNumber(((page.anglesRadians[i] as number) * 180) / Math.PI, 4)}°)`,
-          x: [s(c), p.x],
-          y: [0, p.y],
-        })),
-      ],
+      x: 'Normal strain ε',
+      y: 'Half shear γ/2',
+      unit: page.strainUnit,
+      perUnit: page.perStrain,
+      circle: strainCircle,
+      directions: page.anglesRadians.map((t, i) => ({
+        name: `leg ${'abc'[i]} (${formatNumber((t * 180) / Math.PI, 4)}°)`,
+        theta: t,
+      })),
     }),
   ];
   const st = r.stresses;
   if (st !== undefined) {
-    const u = (x: number) => x / page.pascalsPerUnit;
-    const sc = (st.stress1 + st.stress2) / 2;
-    const sr = (st.stress1 - st.stress2) / 2;
-    const sspan = Math.max(Math.abs(sr), Math.abs(sc) * 1e-6, 1e-300) * 1.25;
-    const stressCircle = circle(u(sc), u(sr));
     plots.push(
-      linePlot({
+      mohrPlot({
         id: 'mohr-stress',
         title: `Mohr's circle of stress, row ${page.row}`,
-        x: { label: 'Normal stress σ', unit: page.stressUnit, min: u(sc - sspan), max: u(sc + sspan) },
-        y: { label: 'Shear stress τ', unit: page.stressUnit, min: u(-sspan), max: u(sspan) },
-        width: 480,
-        height: 480,
-        series: [
-          { name: 'circle', x: stressCircle.x, y: stressCircle.y },
-          {
-            name: 'principal diameter',
-            x: [u(st.stress2), u(st.stress1)],
-            y: [0, 0],
-            dashed: true,
-            color: '#777',
-          },
-        ],
+        x: 'Normal stress σ',
+        y: 'Shear stress τ',
+        unit: page.stressUnit,
+        perUnit: page.pascalsPerUnit,
+        circle: mohrCircle(st.stress1, st.stress2, strainCircle.theta1),
+        directions: [],
       }),
     );
   }
