@@ -285,11 +285,6 @@ for (const spec of others) {
   const [lo, hi] = convertibleCodes(channel);
   const ins = [codes(3, M, lo, hi), codes(4, M, lo, hi)];
   const outs = [new Float64Array(M), new Float64Array(M)];
-  // The RTD polynomial checks each segment at every code the first time a conversion meets it:
-  // this first call over the whole range pays that once (the rounds below are warmed up).
-  const t0 = performance.now();
-  channel.convert(ins[0]!, outs[0]!);
-  const firstCall = performance.now() - t0;
   const results = compare(
     [
       {
@@ -309,9 +304,7 @@ for (const spec of others) {
     { rounds: 5, minMillisPerRound: 200, warmupCalls: 2 },
   );
   report(`channel '${spec.name}' (method ${channel.method}): ${M.toExponential(0)} codes`, results);
-  console.log(
-    `  ${(1e3 / results[1]!.nsPerOp).toFixed(1)} million samples/s; first call ${firstCall.toFixed(0)} ms; ${agreement(channel, 20_001)}`,
-  );
+  console.log(`  ${(1e3 / results[1]!.nsPerOp).toFixed(1)} million samples/s; ${agreement(channel, 20_001)}`);
 }
 
 // The same linear-fractional formula with the minimal channel's coefficients, compiled once by

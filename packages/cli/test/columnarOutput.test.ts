@@ -230,7 +230,7 @@ describe('every input layout converts to the values of the int32 path, bit for b
       .split('\n')
       .slice(1)
       .map((l) => l.split(','));
-    expect(rows[0]).toEqual(['NaN', 'NaN', String(channels[2]!.convert(Int32Array.of(1000)).values[0])]);
+    expect(rows[0]).toEqual(['NaN', 'NaN', String(channels[2]!.quantityFromCode(1000))]);
     expect(rows[2]?.[0]).toBe('NaN');
     expect(channels[1]!.convert(Float64Array.of(2 ** 32 - 1)).status.railHigh).toBe(1);
     expect(io.stderr.text()).toMatch(/clipped samples: 3 of 9/);

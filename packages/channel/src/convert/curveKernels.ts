@@ -4,34 +4,19 @@
  * IEC 60751 Callendar–Van Dusen inverse), and maps whose value is the root of a quadratic with
  * coefficients affine in the code (full-bending-poisson bridges; see {@link QuadraticKernel}).
  *
- * RTD loops.
- * Integer codes take the piecewise polynomial of ./rtdPolynomial.ts: about a thousand segments
- * of the valid codes, each a degree-6 polynomial in the code whose every code was compared with
- * the exact composition (double-double) before the segment serves, within 1 ulp of the exact value
- * (of 1 below 1 in magnitude); no division or square root per sample. A segment that fails its
- * check (a handful near 0 in the output unit, where 1 ulp is finer than a polynomial in the code
- * resolves; any segment with a code the scalar path refuses) and fractional codes take the exact
- * loop. The exact loop evaluates, per sample, exactly the operations of the channel's exact scalar
- * path for these channels (the resistance's Möbius function, then `createRtd(...).temperatureAt`
- * of the compensation package, then the output unit), in the same order, so its results are
- * bit-identical to that path: above 0 °C the quadratic's root in the cancellation-free form
- * t = 2x/(A + √(A² + 4Bx)), x = R/R0 − 1; below 0 °C the piecewise-polynomial start of
- * `Rtd.inverseStart` and one Newton step on the quartic, kept under the same proved bound (a sample
- * whose step fails it goes to the scalar path, which iterates). A code outside the valid codes or
- * a resistance outside the curve's range is rejected, as the scalar path rejects it. The scalar
- * path itself is not within 1 ulp of the exact composition: R/R0 − 1 cancels, and measured against
- * decimal.js it is off by up to 8 ulp above 100 °C and by more near 0 °C.
+ * RTD loop.
+ * The loop evaluates, per sample, exactly the operations of the channel's exact scalar path for
+ * these channels (the resistance's Möbius function, then `createRtd(...).temperatureAt` of the
+ * compensation package, then the output unit), in the same order, so its results are bit-identical
+ * to that path (checked over every code of a 24-bit range in the tests): above 0 °C the quadratic's
+ * root in the cancellation-free form t = 2x/(A + √(A² + 4Bx)), x = R/R0 − 1; below 0 °C the
+ * piecewise-polynomial start of `Rtd.inverseStart` and one Newton step on the quartic, kept under
+ * the same proved bound (a sample whose step fails it goes to the scalar path, which iterates). A
+ * code outside the valid codes or a resistance outside the curve's range is rejected, as the
+ * scalar path rejects it.
  */
 import { createRtd } from '@bridgework/compensation';
 import { integerTestApplies, type Codes, type RejectTally } from './kernel.js';
-import {
-  checkSegment,
-  createRtdPolynomial,
-  SEGMENT,
-  segmentValue,
-  STRIDE,
-  type RtdPolynomial,
-} from './rtdPolynomial.js';
 
 const ZERO_CELSIUS_KELVIN = 273.15;
 /** Terms of `Rtd.inverseStart`'s polynomial this loop reproduces (degree 8). */
@@ -86,10 +71,6 @@ export interface CallendarVanDusenKernel {
   readonly below: Int32Array;
   /** The exact scalar path for one code: its value, or NaN when it cannot be converted. */
   readonly scalar: (code: number) => number;
-  /** Whether the scalar path converts integer code x (a valid code, its resistance inside the curve's range). */
-  readonly convertible: (x: number) => boolean;
-  /** The piecewise polynomial of contiguous Int32 codes (./rtdPolynomial.ts), if the codes are few enough to check. */
-  readonly polynomial: RtdPolynomial | undefined;
 }
 
 /**
@@ -110,31 +91,7 @@ export function createCallendarVanDusenKernel(options: {
   const rtd = createRtd({ r0Ohms: curve.r0Ohms, a: curve.a, b: curve.b, c: curve.c });
   const inverse = rtd.inverseStart;
   if (inverse.coefficients.length !== START_TERMS) return undefined;
-  const unit = options.unit === 'celsius' ? 0 : options.unit === 'kelvin' ? 1 : 2;
-  const polynomial = createRtdPolynomial({
-    ra: resistance.a,
-    rb: resistance.b,
-    rc: resistance.c,
-    rd: resistance.d,
-    lo: options.lo,
-    hi: options.hi,
-    r0Ohms: rtd.r0Ohms,
-    a: rtd.a,
-    b: rtd.b,
-    c: rtd.c,
-    minOhms: rtd.rangeOhms[0],
-    maxOhms: rtd.rangeOhms[1],
-    unit,
-  });
-  const { a: ra, b: rb, c: rc, d: rd } = resistance;
-  const [minOhms, maxOhms] = rtd.rangeOhms;
-  const { lo, hi } = options;
   return {
-    convertible(x: number): boolean {
-      if (!(x > lo && x < hi)) return false;
-      const ohms = (ra * x + rb) / (rc * x + rd);
-      return ohms >= minOhms && ohms <= maxOhms;
-    },
     ra: resistance.a,
     rb: resistance.b,
     rc: resistance.c,
@@ -147,7 +104,7 @@ export function createCallendarVanDusenKernel(options: {
     c: rtd.c,
     minOhms: rtd.rangeOhms[0],
     maxOhms: rtd.rangeOhms[1],
-    unit,
+    unit: options.unit === 'celsius' ? 0 : options.unit === 'kelvin' ? 1 : 2,
     xMin: inverse.xMin,
     scale: inverse.scale,
     guard: inverse.guard,
@@ -155,7 +112,6 @@ export function createCallendarVanDusenKernel(options: {
     targets: new Float64Array(BLOCK),
     below: new Int32Array(BLOCK),
     scalar: options.scalar,
-    polynomial,
   };
 }
 
@@ -186,9 +142,7 @@ export function convertCallendarVanDusen(
   outStride: number,
 ): void {
   if (integerTestApplies(codes, k.lo, k.hi) && stride === 1 && outStride === 1 && !buffersShare(codes, out)) {
-    if (k.polynomial !== undefined)
-      polynomialInt32(codes, out, k, k.polynomial, tally, start, count, outStart);
-    else cvdInt32(codes, out, k, tally, start, count, outStart);
+    cvdInt32(codes, out, k, tally, start, count, outStart);
     return;
   }
   cvdSamples(codes, out, k, tally, start, stride, count, outStart, outStride);
@@ -273,94 +227,6 @@ function cvdInt32(
   }
 }
 
-/**
- * Contiguous Int32 codes through the piecewise polynomial: blocks of 256, the range test and the
- * finiteness of the values folded per block (an unchecked or failed segment holds NaN, so its
- * samples fail the block's test); a failed block is revisited sample by sample, checking the
- * segments it meets for the first time and sending the codes of failed segments to the exact loop.
- */
-function polynomialInt32(
-  codes: Int32Array,
-  out: Float64Array,
-  k: CallendarVanDusenKernel,
-  p: RtdPolynomial,
-  tally: RejectTally,
-  start: number,
-  count: number,
-  outStart: number,
-): void {
-  const { table, base, shift, offsetMask, half, slotMask, lowI, highI } = p;
-  const end = start + count;
-  // Slot offset j = segment·STRIDE in one shift and mask (STRIDE = 8); valid codes give r ≥ 0.
-  const s3 = shift - 3;
-  const jm = slotMask << 3;
-  for (let i0 = start, o0 = outStart; i0 < end; i0 += BLOCK, o0 += BLOCK) {
-    const n = end - i0 > BLOCK ? BLOCK : end - i0;
-    let flags = 0;
-    let finite = 0;
-    for (let m = 0; m < n; m++) {
-      const x = codes[i0 + m] as number;
-      const r = (x - base) | 0;
-      const j = (r >> s3) & jm;
-      const d = (r & offsetMask) - half;
-      // segmentValue's expression, with the eight coefficients read first (measured 20 % faster).
-      const c0 = table[j] as number;
-      const c1 = table[j + 1] as number;
-      const c2 = table[j + 2] as number;
-      const c3 = table[j + 3] as number;
-      const c4 = table[j + 4] as number;
-      const c5 = table[j + 5] as number;
-      const c6 = table[j + 6] as number;
-      const c7 = table[j + 7] as number;
-      const d2 = d * d;
-      const v = c0 + (c1 + d * (c2 + d * c3 + d2 * (c4 + d * c5 + d2 * (c6 + d * c7))));
-      out[o0 + m] = v;
-      // v − v is 0 for a value and NaN for a sample whose segment is not checked yet or was
-      // sent to the exact loop (its slot holds NaN).
-      finite += v - v;
-      flags |= (x - lowI) | (highI - x);
-    }
-    if (flags < 0 || finite !== 0) polynomialSamples(codes, out, k, p, tally, i0, n, o0);
-  }
-}
-
-/**
- * A block of the polynomial loop that failed its test, sample by sample (see
- * {@link polynomialInt32}). A valid code with a value keeps it; a NaN is a segment met for the first
- * time (checked now) or one the check sent to the exact loop; an invalid code goes to the exact
- * loop, which rejects it.
- */
-function polynomialSamples(
-  codes: Int32Array,
-  out: Float64Array,
-  k: CallendarVanDusenKernel,
-  p: RtdPolynomial,
-  tally: RejectTally,
-  start: number,
-  count: number,
-  outStart: number,
-): void {
-  const { table, base, shift, offsetMask, half, states, lowI, highI } = p;
-  // Offsets for the exact loop, converted together at the end (written behind the reading position).
-  const exact = k.below;
-  let ne = 0;
-  for (let m = 0; m < count; m++) {
-    const x = codes[start + m] as number;
-    if (x >= lowI && x <= highI) {
-      // A valid code with a value was served by a checked segment: it stands.
-      if (out[outStart + m] === out[outStart + m]) continue;
-      const s = (x - base) >>> shift;
-      const state = states[s] === SEGMENT.UNCHECKED ? checkSegment(p, s, k.convertible) : states[s];
-      if (state === SEGMENT.CHECKED) {
-        out[outStart + m] = segmentValue(table, s * STRIDE, ((x - base) & offsetMask) - half);
-        continue;
-      }
-    }
-    exact[ne++] = m;
-  }
-  if (ne > 0) cvdSamples(codes, out, k, tally, start, 1, ne, outStart, 1, exact);
-}
-
 /** One sample at a time (any codes, strides, in place): the scalar path's branches, in its order. */
 function cvdSamples(
   codes: Codes,
@@ -372,7 +238,6 @@ function cvdSamples(
   count: number,
   outStart: number,
   outStride: number,
-  list?: Int32Array,
 ): void {
   const { ra, rb, rc, rd, lo, hi, r0Ohms, a, b, c, minOhms, maxOhms, unit, scalar } = k;
   const { xMin, scale, guard } = k;
@@ -389,23 +254,8 @@ function cvdSamples(
     p[8]!,
   ];
   const b2 = 2 * b;
-  const poly = k.polynomial;
-  for (let n = 0; n < count; n++) {
-    // Sample n, or the n-th listed offset from start and outStart.
-    const i = list === undefined ? start + n * stride : start + (list[n] as number);
-    const o = list === undefined ? outStart + n * outStride : outStart + (list[n] as number);
+  for (let n = 0, i = start, o = outStart; n < count; n++, i += stride, o += outStride) {
     const x = codes[i] as number;
-    // An integer code of a checked segment takes the polynomial, whatever the layout (so a lane
-    // of an interleaved buffer, a Float64Array of integer codes and contiguous Int32 codes agree).
-    if (poly !== undefined && x >= poly.lowI && x <= poly.highI && Math.floor(x) === x) {
-      const s = (x - poly.base) >>> poly.shift;
-      const state =
-        poly.states[s] === SEGMENT.UNCHECKED ? checkSegment(poly, s, k.convertible) : poly.states[s];
-      if (state === SEGMENT.CHECKED) {
-        out[o] = segmentValue(poly.table, s * STRIDE, ((x - poly.base) & poly.offsetMask) - poly.half);
-        continue;
-      }
-    }
     let t = Number.NaN;
     if (x > lo && x < hi) {
       const ohms = (ra * x + rb) / (rc * x + rd);
