@@ -230,21 +230,30 @@ const median = (xs: readonly number[]): number => {
 };
 const cp = times[0] as number[];
 const cpSync = times[1] as number[];
+const nodeCopy = times[2] as number[];
+const nodeCopyCpu = cpus[2] as number[];
 console.log(
   `convert: ${totalCodes.toExponential(0)} codes in ${channels} channels (${(inputBytes / 1e6).toFixed(0)} MB int32le), CSV on ${csvCodes.toExponential(0)}; ${rounds} rounds; load ${loadavg()
     .map((x) => x.toFixed(2))
     .join(' ')}`,
 );
 console.log(
-  'case                          median s   input MB/s   M values/s   speed vs cp  vs cp+fsync   out MB  max RSS MiB   CPU s  M values/CPU s',
+  'case                          median s   input MB/s   M values/s   speed vs cp  vs cp+fsync  vs node copy  by CPU   out MB  max RSS MiB   CPU s  M values/CPU s',
 );
 cases.forEach((c, i) => {
   const t = times[i] as number[];
   const s = median(t);
   const ratio = c.bytes === inputBytes ? median(t.map((x, r) => (cp[r] as number) / x)) : Number.NaN;
   const synced = c.bytes === inputBytes ? median(t.map((x, r) => (cpSync[r] as number) / x)) : Number.NaN;
+  // Against the Node stream copy: by wall time, and by CPU time (what the run costs, not its wait).
+  const node = c.bytes === inputBytes ? median(t.map((x, r) => (nodeCopy[r] as number) / x)) : Number.NaN;
+  const nodeCpu =
+    c.bytes === inputBytes
+      ? median((cpus[i] as number[]).map((x, r) => (nodeCopyCpu[r] as number) / x))
+      : Number.NaN;
+  const show = (x: number): string => (Number.isNaN(x) ? '—' : x.toFixed(2));
   console.log(
-    `${c.name.padEnd(30)}${s.toFixed(3).padStart(8)}${(c.bytes / s / 1e6).toFixed(0).padStart(13)}${(c.values / s / 1e6).toFixed(1).padStart(13)}${(Number.isNaN(ratio) ? '—' : ratio.toFixed(2)).padStart(14)}${(Number.isNaN(synced) ? '—' : synced.toFixed(2)).padStart(14)}${((sizes[i] as number) / 1e6).toFixed(0).padStart(9)}${(peaks[i] ? ((peaks[i] as number) / 1024).toFixed(0) : '—').padStart(14)}${median(
+    `${c.name.padEnd(30)}${s.toFixed(3).padStart(8)}${(c.bytes / s / 1e6).toFixed(0).padStart(13)}${(c.values / s / 1e6).toFixed(1).padStart(13)}${show(ratio).padStart(14)}${show(synced).padStart(13)}${show(node).padStart(14)}${show(nodeCpu).padStart(8)}${((sizes[i] as number) / 1e6).toFixed(0).padStart(9)}${(peaks[i] ? ((peaks[i] as number) / 1024).toFixed(0) : '—').padStart(14)}${median(
       cpus[i] as number[],
     )
       .toFixed(2)

@@ -19,6 +19,9 @@ export const big = (x: number): BigNumber => math.bignumber(exactDecimalString(x
 const zero = math.bignumber(0);
 const one = math.bignumber(1);
 const add = (x: BigNumber, y: BigNumber): BigNumber => math.add(x, y) as BigNumber;
+/** r·(1 + x) at 40 digits from the doubles r and x (no rounding to a double between). */
+export const bigScaled = (r: number, x: number): BigNumber =>
+  math.multiply(big(r), add(one, big(x))) as BigNumber;
 const sub = (x: BigNumber, y: BigNumber): BigNumber => math.subtract(x, y) as BigNumber;
 const div = (x: BigNumber, y: BigNumber): BigNumber => math.divide(x, y) as BigNumber;
 
@@ -27,6 +30,12 @@ export interface Resistor {
   readonly a: string;
   readonly b: string;
   readonly ohms: number;
+  /**
+   * The resistance at 40 digits when the double `ohms` would round it (an arm R·(1 + x) formed
+   * from the doubles R and x, say: rounding it changes the arm's ratio by about ε, which is
+   * 1e-12 of a cell ratio of 1e-4). `ohms` still says whether it is a wire or absent.
+   */
+  readonly exactOhms?: BigNumber;
 }
 
 /** An ideal voltage source: V(plus) − V(minus) = volts. */
@@ -79,7 +88,7 @@ export function solveNetwork(network: Network): NetworkSolution {
   const ground = find(network.ground);
   const resistors = network.resistors
     .filter((r) => r.ohms !== 0 && r.ohms !== Infinity)
-    .map((r) => ({ a: find(r.a), b: find(r.b), g: div(one, big(r.ohms)) }))
+    .map((r) => ({ a: find(r.a), b: find(r.b), g: div(one, r.exactOhms ?? big(r.ohms)) }))
     .filter((r) => r.a !== r.b);
   const sources = (network.sources ?? []).map((s) => ({
     plus: find(s.plus),
@@ -140,7 +149,11 @@ export function solveNetwork(network: Network): NetworkSolution {
     volts,
     sourceAmps: (k) => x[nodes.length + k]![0]!,
     amps: (r) =>
-      r.ohms === Infinity ? zero : r.ohms === 0 ? zero : div(sub(volts(r.a), volts(r.b)), big(r.ohms)),
+      r.ohms === Infinity
+        ? zero
+        : r.ohms === 0
+          ? zero
+          : div(sub(volts(r.a), volts(r.b)), r.exactOhms ?? big(r.ohms)),
   };
 }
 

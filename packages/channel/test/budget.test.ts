@@ -354,13 +354,109 @@ describe('a transducer budget without the sensor calibration is flagged (issue 1
     expect(b.lines.map((l) => l.name)).toContain('rated output');
   });
 
-  it('does not apply to a channel read as a bridge ratio, nor to other sensor kinds', () => {
+  it('does not apply to a channel read as a bridge ratio', () => {
     const ratio = channelBudget(
       createChannel({ ...cell, output: { quantity: 'ratio', unit: 'mV/V', range: [0, 2] } }),
     );
     expect(ratio.checks.some((c) => c.id === 'sensor-calibration')).toBe(false);
-    const gauge = channelBudget(createChannel(spec));
-    expect(gauge.checks.some((c) => c.id === 'sensor-calibration')).toBe(false);
+  });
+});
+
+describe('each sensor kind says what its budget lacks of the sensor (sensor-calibration)', () => {
+  const check = (s: ChannelSpec) =>
+    channelBudget(createChannel(s)).checks.find((c) => c.id === 'sensor-calibration');
+  const lineNames = (s: ChannelSpec) => channelBudget(createChannel(s)).lines.map((l) => l.name);
+  const rtdSpec = (sensor: Record<string, unknown>): ChannelSpec =>
+    ({
+      sensor: { kind: 'rtd', ...sensor },
+      bridge: { wiring: 'three-wire' },
+      excitation: { volts: 1 },
+      amplifier: { gain: 8 },
+      adc: { bits: 24, referenceVolts: 1, ratiometric: true },
+      output: { quantity: 'temperature', range: [0, 100] },
+    }) as ChannelSpec;
+  const ntc = (sensor: Record<string, unknown>): ChannelSpec =>
+    ({
+      sensor: { kind: 'thermistor', referenceOhms: 10_000, ...sensor },
+      bridge: { completionOhms: 10_000 },
+      excitation: { volts: 1 },
+      amplifier: { gain: 1 },
+      adc: { bits: 24, referenceVolts: 1, ratiometric: true },
+      output: { quantity: 'temperature', range: [-10, 50] },
+    }) as ChannelSpec;
+  const sh = { steinhartHart: { a: 1.1292e-3, b: 2.3411e-4, c: 8.7755e-8 } }; // a common 10 kΩ NTC's coefficients (from memory)
+
+  it('strain gauge: warns without the gauge factor tolerance, and the budget indeed has no such line', () => {
+    const bare = {
+      ...spec,
+      sensor: { kind: 'strain-gauge', gaugeFactor: 2.0, gaugeOhms: 350 },
+    } as ChannelSpec;
+    expect(check(bare)).toMatchObject({ status: 'warn', path: 'sensor.gaugeFactorToleranceFraction' });
+    expect(check(bare)!.message).toMatch(
+      /lacks the gauge factor's tolerance: .* is 0, so U covers the electronics and the noise only/,
+    );
+    expect(lineNames(bare)).not.toContain('gauge factor');
+    expect(check(spec)).toMatchObject({ status: 'pass', value: 0.01 });
+    expect(check(spec)!.message).toBe(
+      "the budget holds the gauge factor's tolerance ±1\u00a0% (sensor.gaugeFactorToleranceFraction)",
+    );
+    expect(lineNames(spec)).toContain('gauge factor');
+  });
+
+  it('RTD: warns without an IEC 60751 class; a class passes and is a line', () => {
+    expect(check(rtdSpec({}))).toMatchObject({ status: 'warn', path: 'sensor.toleranceClass' });
+    expect(check(rtdSpec({}))!.message).toMatch(
+      /lacks the RTD's tolerance: sensor\.toleranceClass is not set/,
+    );
+    expect(lineNames(rtdSpec({}))).not.toContain('RTD class tolerance');
+    // IEC 60751:2008 class B: ±(0.3 + 0.005·|t|) °C.
+    expect(check(rtdSpec({ toleranceClass: 'B' }))).toMatchObject({ status: 'pass', value: 0.3, unit: '°C' });
+    expect(check(rtdSpec({ toleranceClass: 'B' }))!.message).toMatch(
+      /class B's tolerance ±\(0\.3 \+ 0\.005·\|t\|\) °C/,
+    );
+    expect(lineNames(rtdSpec({ toleranceClass: 'B' }))).toContain('RTD class tolerance');
+  });
+
+  it('thermistor: a sensor without tolerances (beta or Steinhart–Hart) warns instead of a silent noise-only budget', () => {
+    for (const sensor of [{ betaKelvin: 3435 }, sh]) {
+      const c = check(ntc(sensor))!;
+      expect(c).toMatchObject({ status: 'warn', path: 'sensor.referenceOhmsToleranceFraction' });
+      expect(c.message).toMatch(
+        /lacks the thermistor's tolerance: sensor\.referenceOhmsToleranceFraction is 0/,
+      );
+      expect(lineNames(ntc(sensor))).not.toContain('thermistor resistance');
+    }
+    const held = check(
+      ntc({ betaKelvin: 3435, referenceOhmsToleranceFraction: 0.01, betaToleranceFraction: 0.01 }),
+    )!;
+    expect(held.status).toBe('pass');
+    expect(held.message).toMatch(/resistance tolerance ±1\u00a0% .* and the beta tolerance ±1\u00a0%/);
+    expect(lineNames(ntc({ betaKelvin: 3435, referenceOhmsToleranceFraction: 0.01 }))).toContain(
+      'thermistor resistance',
+    );
+  });
+
+  it('a calibration against reference loads holds the sensor calibration in its fit: no check, the fit is a line', () => {
+    const cell: ChannelSpec = {
+      ...spec,
+      sensor: { kind: 'transducer', capacity: '20 t', ratedOutputVoltsPerVolt: '2 mV/V' },
+      bridge: { wiring: 'six-wire' },
+      tolerances: { gainFraction: 0.002 },
+      output: { quantity: 'mass', unit: 't', range: [0, 20] },
+    } as ChannelSpec;
+    expect(check(cell)?.status).toBe('warn');
+    const calibrated = {
+      ...cell,
+      calibration: {
+        unit: 't',
+        coefficients: [0, 1e-4],
+        covariance: [1e-14, 0, 0, 1e-18],
+        range: [0, 20],
+        points: 11,
+      },
+    } as ChannelSpec;
+    expect(check(calibrated)).toBeUndefined();
+    expect(lineNames(calibrated)).toContain('calibration fit');
   });
 });
 

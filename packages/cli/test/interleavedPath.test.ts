@@ -163,6 +163,17 @@ describe('the interleaved path equals the lane path byte for byte', () => {
     );
   });
 
+  it('int32le over several decoding tiles of 1024 frames, with a short last block', async () => {
+    const path = file('tiles.bin', int32le([...recording(3000)]));
+    const layout = { sample: 'int32le' as const, channels: 3, blockFrames: 2500 };
+    for (const format of rawFormats) {
+      const lanes = await convertBytes(path, layout, format, false, [1, 1, 1]);
+      const frames = await convertBytes(path, layout, format, true, [1, 1, 1]);
+      expect(frames.clipped).toEqual(lanes.clipped);
+      expect(Buffer.from(frames.bytes).equals(Buffer.from(lanes.bytes)), format).toBe(true);
+    }
+  });
+
   it('int32le frames of codes only are read without decoding: a view of the bytes read', async () => {
     const list = [...recording(70)];
     const path = file('view.bin', int32le(list));

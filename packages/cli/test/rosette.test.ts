@@ -8,7 +8,7 @@
 import { closeSync, copyFileSync, openSync, readFileSync, readSync, statSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { planeStress, reduceRosette } from '@bridgework/mechanics';
+import { createRosette, planeStress, reduceRosette } from '@bridgework/mechanics';
 import { describe, expect, it } from 'vitest';
 import { exitCodes } from '../src/exitCodes.js';
 import { runCli } from '../src/runCli.js';
@@ -340,6 +340,61 @@ describe('reduce-rosette', () => {
     expect(full[1]).toBeNear(145 - R, { abs: 0.02 });
     expect(full[2]).toBeNear(2 * R, { abs: 0.03 });
     expect(full[3]).toBeNear((Math.atan2(260, 550) * 90) / Math.PI, { abs: 0.01 });
+  });
+});
+
+describe('reduce-rosette --json', () => {
+  it('prints the summary as JSON, field by field against createRosette; the rows go to --out', async () => {
+    const file = write('json-legs.csv', 't,a,b,c\n0,100,50,-20\n1,x,2,3\n2,400,300,-100\n');
+    const out = join(tmp(), 'json-principal.csv');
+    const r = await run(
+      'reduce-rosette',
+      file,
+      '--legs',
+      'a,b,c',
+      '--layout',
+      'delta',
+      '--transverse',
+      '0.01',
+      '--modulus',
+      '200 GPa',
+      '--poisson',
+      '0.3',
+      '-o',
+      out,
+      '--json',
+      '--max-condition',
+      '3',
+    );
+    // Delta: κF = √10 = 3.16 > 3, so the check fails (exit 2) and the rows are written.
+    expect(r.code).toBe(exitCodes.failedCheck);
+    const j = JSON.parse(r.stdout) as Record<string, any>;
+    const rosette = createRosette({ layout: 'delta' });
+    expect(j['caution']).toMatch(/qualified engineering judgement/);
+    expect(j['rows']).toBe(3);
+    expect(j['reducedRows']).toBe(2);
+    expect(j['layout']['name']).toBe('delta');
+    expect(j['layout']['conditionNumber']).toBeNear(rosette.conditionNumber, { ulps: 0 });
+    expect(j['layout']['conditionNumber']).toBeNear(Math.sqrt(10), { rel: 1e-14 }); // the delta's κF (mechanics.md)
+    j['layout']['anglesDegrees'].forEach((a: number, i: number) =>
+      expect(a).toBeNear([0, 60, 120][i]!, { abs: 1e-12 }),
+    );
+    expect(j['transverse']).toEqual({
+      transverseSensitivity: [0.01, 0.01, 0.01],
+      calibrationPoissonRatio: 0.285,
+    });
+    expect(j['material']).toEqual({ modulusPascals: 200e9, poissonRatio: 0.3, from: 'options' });
+    expect(j['units']).toEqual({ strain: 'µε', stress: 'MPa' });
+    expect(j['skipped']).toEqual([{ reason: 'a leg is empty or not a number', rows: 1, firstLine: 3 }]);
+    expect(j['checks']).toEqual([
+      expect.objectContaining({ id: 'condition-number', status: 'fail', limit: 3 }),
+    ]);
+    expect(j['ok']).toBe(false);
+    expect(table(readFileSync(out, 'utf8'))).toHaveLength(4);
+    expect(r.stderr).not.toMatch(/reduced 2 of 3 rows/);
+    const refused = await run('reduce-rosette', file, '--legs', 'a,b,c', '--json');
+    expect(refused.code).toBe(exitCodes.badInput);
+    expect(refused.stderr).toMatch(/--json prints the summary on standard output, so the rows need --out/);
   });
 });
 

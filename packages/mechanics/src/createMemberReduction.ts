@@ -49,8 +49,8 @@ export interface MemberReductionOptions {
   readonly poissonRatio: number;
   /**
    * The cross-section: `{ shape: 'circular', diameterMeters, innerDiameterMeters? }` (round bar
-   * or tube) or `{ shape: 'rectangular', widthMeters, depthMeters }` (solid; width along y,
-   * depth along z). Give this, or the three properties below.
+   * or tube) or `{ shape: 'rectangular', widthMeters, depthMeters, wallThicknessMeters? }` (solid
+   * or a box; width along y, depth along z). Give this, or the three properties below.
    */
   readonly section?: Section;
   /** Area A, m², for another shape (with the two second moments, instead of `section`). */
@@ -61,9 +61,10 @@ export interface MemberReductionOptions {
   readonly secondMomentZMeters4?: number;
   /**
    * Torsion modulus Wt, m³: the surface shear stress at every angled gauge is τ = T/Wt. Computed
-   * for a circular section (τ = T·r/J at each gauge's radius r); required to solve for torsion on
-   * any other section (for a thin-walled closed section, Bredt: Wt = 2·Am·t at a wall of thickness
-   * t enclosing the mean area Am).
+   * for a circular section (τ = T·r/J at each gauge's radius r; not accepted with it) and, by
+   * default, for a rectangular hollow section by Bredt's thin-walled formula Wt = 2·Am·t with
+   * Am = (b − t)(h − t) (its error grows with t/b: give Wt for a thick wall); required to solve for
+   * torsion on a solid rectangle or a section given by its properties.
    */
   readonly torsionModulusCubicMeters?: number;
   /** The gauges, in the order of the strains given to `reduce`; at least as many as resultants. */
@@ -378,14 +379,18 @@ function readGeometry(o: Record<string, unknown>): Geometry {
         contains: (y, z) => Math.hypot(y, z) <= radius * slack,
       };
     }
-    const s = o['section'] as { widthMeters: number; depthMeters: number };
+    const s = o['section'] as { widthMeters: number; depthMeters: number; wallThicknessMeters?: number };
     const b = s.widthMeters;
     const h = s.depthMeters;
+    const t = s.wallThicknessMeters;
+    // Bredt's thin-walled closed section: τ = T/(2·Am·t), Am = (b − t)(h − t) inside the mid-wall line.
+    const bredt = t === undefined ? undefined : 2 * (b - t) * (h - t) * t;
+    const torsionModulus = wt ?? bredt;
     return {
       area: p.areaSquareMeters,
       iy: p.secondMomentOfAreaMeters4,
-      iz: (h * b * b * b) / 12,
-      torsion: wt === undefined ? undefined : () => 1 / wt,
+      iz: t === undefined ? (h * b * b * b) / 12 : (h * b * b * b - (h - 2 * t) * (b - 2 * t) ** 3) / 12,
+      torsion: torsionModulus === undefined ? undefined : () => 1 / torsionModulus,
       contains: (y, z) => Math.abs(y) <= (b / 2) * slack && Math.abs(z) <= (h / 2) * slack,
     };
   }

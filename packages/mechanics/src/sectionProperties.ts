@@ -8,7 +8,7 @@ import {
 } from '@bridgework/core';
 import { checkGeometry } from './internal/inputs.js';
 
-/** A solid rectangular section, bent about the axis parallel to its width. */
+/** A solid or hollow rectangular section, bent about the axis parallel to its width. */
 export interface RectangularSection {
   /** Discriminant. */
   readonly shape: 'rectangular';
@@ -16,6 +16,11 @@ export interface RectangularSection {
   readonly widthMeters: number;
   /** Depth h in m (> 0), in the plane of bending (gauged face to opposite face). */
   readonly depthMeters: number;
+  /**
+   * Wall thickness t in m of a rectangular hollow section (a box of uniform wall), 0 < t < min(b, h)/2.
+   * Default: solid.
+   */
+  readonly wallThicknessMeters?: number;
 }
 
 /** A solid or hollow circular section (round bar, shaft or tube). */
@@ -53,17 +58,19 @@ export interface SectionProperties {
  * | section | A | I | c | S = I/c |
  * |---|---|---|---|---|
  * | rectangle b × h (bending across h) | b·h | b·h³/12 | h/2 | b·h²/6 |
+ * | box b × h, wall t (bᵢ = b − 2t, hᵢ = h − 2t) | b·h − bᵢ·hᵢ | (b·h³ − bᵢ·hᵢ³)/12 | h/2 | 2I/h |
  * | circle D, bore d | π(D² − d²)/4 | π(D⁴ − d⁴)/64 | D/2 | π(D⁴ − d⁴)/(32D) |
  *
  * D² − d² and D⁴ − d⁴ are evaluated as (D − d)(D + d) and (D − d)(D + d)(D² + d²), so a thin
  * tube keeps full relative precision (D − d is exact when d ≥ D/2). The polar moment of a
  * circular section is J = 2I (perpendicular-axis theorem), used by {@link createShaft}.
  *
- * @param section - `{ shape: 'rectangular', widthMeters, depthMeters }` or
+ * @param section - `{ shape: 'rectangular', widthMeters, depthMeters, wallThicknessMeters? }` or
  *   `{ shape: 'circular', diameterMeters, innerDiameterMeters? }`.
  * @returns A (m²), I (m⁴), c (m) and S (m³).
  * @throws {@link @bridgework/core!BridgeworkError} `wrong-type`, `invalid-option` (unknown shape),
- *   `not-finite`, `not-positive`, `negative`, `out-of-range` (bore not smaller than the diameter).
+ *   `not-finite`, `not-positive`, `negative`, `out-of-range` (bore not smaller than the diameter, a
+ *   wall not thinner than half the smaller side).
  * @example
  * ```ts
  * sectionProperties({ shape: 'rectangular', widthMeters: 0.02, depthMeters: 0.006 });
@@ -78,16 +85,28 @@ export function sectionProperties(section: Section): SectionProperties {
   ] as const);
   if (shape === 'rectangular') {
     const s = checkOptions('section', section, {
-      known: ['shape', 'widthMeters', 'depthMeters'],
+      known: ['shape', 'widthMeters', 'depthMeters', 'wallThicknessMeters'],
       required: ['widthMeters', 'depthMeters'],
     });
     const b = checkGeometry('section.widthMeters', s['widthMeters'], 1, 'm');
     const h = checkGeometry('section.depthMeters', s['depthMeters'], 1, 'm');
+    const t = checkWall(s['wallThicknessMeters'], b, h);
+    if (t === undefined) {
+      return {
+        areaSquareMeters: b * h,
+        secondMomentOfAreaMeters4: (b * h * h * h) / 12,
+        extremeFibreMeters: h / 2,
+        sectionModulusCubicMeters: (b * h * h) / 6,
+      };
+    }
+    const bi = b - 2 * t;
+    const hi = h - 2 * t;
+    const i = (b * h * h * h - bi * hi * hi * hi) / 12;
     return {
-      areaSquareMeters: b * h,
-      secondMomentOfAreaMeters4: (b * h * h * h) / 12,
+      areaSquareMeters: b * h - bi * hi,
+      secondMomentOfAreaMeters4: i,
       extremeFibreMeters: h / 2,
-      sectionModulusCubicMeters: (b * h * h) / 6,
+      sectionModulusCubicMeters: i / (h / 2),
     };
   }
   const s = checkOptions('section', section, {
@@ -96,6 +115,21 @@ export function sectionProperties(section: Section): SectionProperties {
   });
   const [outer, inner] = checkDiameters('section.', s['diameterMeters'], s['innerDiameterMeters']);
   return circularSectionProperties(outer, inner);
+}
+
+/** @internal Checks a box's wall thickness: undefined (solid) or 0 < t < min(b, h)/2. */
+export function checkWall(wall: unknown, width: number, depth: number): number | undefined {
+  if (wall === undefined) return undefined;
+  const t = checkGeometry('section.wallThicknessMeters', wall, 1, 'm');
+  const limit = Math.min(width, depth) / 2;
+  if (!(t < limit)) {
+    throw new BridgeworkError(
+      'out-of-range',
+      `\`section.wallThicknessMeters\` must be below half the smaller side (${String(limit)} m), or the box has no hole; got ${formatValue(t)} (leave it out for a solid rectangle)`,
+      { param: 'section.wallThicknessMeters', value: t, limit: [0, limit] },
+    );
+  }
+  return t;
 }
 
 /** @internal Checks an outside diameter (> 0) and an optional bore (0 ≤ d < D, default 0). */

@@ -241,6 +241,48 @@ describe('createMemberReduction: against the handbook equations and a 40-digit s
     expect(x.maxResidualStrain).toBeGreaterThan(20e-6);
   });
 
+  it("a box section by shape: Iz from its walls, torsion by Bredt's Wt = 2·Am·t unless given", () => {
+    const b = 0.08;
+    const h = 0.12;
+    const t = 0.006;
+    const gauges: MemberGauge[] = [
+      { yMeters: 0, zMeters: h / 2 },
+      { yMeters: 0, zMeters: -h / 2 },
+      { yMeters: b / 2, zMeters: 0 },
+      { yMeters: -b / 2, zMeters: 0 },
+      { yMeters: b / 2, zMeters: 0, angleRadians: Q },
+    ];
+    const box = createMemberReduction({
+      ...steel,
+      section: { shape: 'rectangular', widthMeters: b, depthMeters: h, wallThicknessMeters: t },
+      gauges,
+    });
+    // Iz of the box as two webs t × h at ±(b − t)/2 and two flanges (b − 2t) × t on the axis (Steiner).
+    const web = { a: t * h, i: (h * t ** 3) / 12, d: (b - t) / 2 };
+    const iz = 2 * (web.i + web.a * web.d ** 2) + (2 * (t * (b - 2 * t) ** 3)) / 12;
+    const props = sectionProperties({
+      shape: 'rectangular',
+      widthMeters: b,
+      depthMeters: h,
+      wallThicknessMeters: t,
+    });
+    const byProps = createMemberReduction({
+      ...steel,
+      areaSquareMeters: props.areaSquareMeters,
+      secondMomentYMeters4: props.secondMomentOfAreaMeters4,
+      secondMomentZMeters4: iz,
+      torsionModulusCubicMeters: 2 * (b - t) * (h - t) * t,
+      gauges,
+    });
+    const eps = [310e-6, -95e-6, 160e-6, 55e-6, 140e-6];
+    const x = box.reduce(eps);
+    const y = byProps.reduce(eps);
+    expect(x.axialForceNewtons).toBeNear(y.axialForceNewtons!, { rel: 1e-13 });
+    expect(x.bendingMomentYNewtonMeters).toBeNear(y.bendingMomentYNewtonMeters!, { rel: 1e-13 });
+    expect(x.bendingMomentZNewtonMeters).toBeNear(y.bendingMomentZNewtonMeters!, { rel: 1e-13 });
+    expect(x.torqueNewtonMeters).toBeNear(y.torqueNewtonMeters!, { rel: 1e-13 });
+  });
+
   it('a rectangular section given by shape equals the same section given by its properties', () => {
     const gauges: MemberGauge[] = [
       { yMeters: 0, zMeters: 0.03 },

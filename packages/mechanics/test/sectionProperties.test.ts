@@ -139,3 +139,37 @@ describe('sectionProperties: bad input', () => {
     ).toThrowBridgeworkError('wrong-type', { param: 'section.innerDiameterMeters' });
   });
 });
+
+describe('sectionProperties: rectangular hollow section', () => {
+  it('A and I of a box equal the sum of its four walls (parallel-axis theorem, an independent decomposition)', () => {
+    // Two flanges b × t at ±(h − t)/2 and two webs t × (h − 2t) on the axis (Steiner; any statics text, from memory).
+    const b = 0.08;
+    const h = 0.12;
+    const t = 0.006;
+    const p = sectionProperties({
+      shape: 'rectangular',
+      widthMeters: b,
+      depthMeters: h,
+      wallThicknessMeters: t,
+    });
+    const flange = { a: b * t, i: (b * t ** 3) / 12, d: (h - t) / 2 };
+    const web = { a: t * (h - 2 * t), i: (t * (h - 2 * t) ** 3) / 12 };
+    const area = 2 * flange.a + 2 * web.a;
+    const inertia = 2 * (flange.i + flange.a * flange.d ** 2) + 2 * web.i;
+    expect(p.areaSquareMeters).toBeNear(area, { rel: 1e-14 });
+    expect(p.secondMomentOfAreaMeters4).toBeNear(inertia, { rel: 1e-14 });
+    expect(p.extremeFibreMeters).toBeNear(h / 2, { ulps: 0 });
+    expect(p.sectionModulusCubicMeters).toBeNear(inertia / (h / 2), { rel: 1e-14 });
+  });
+
+  it('refuses a wall of half the smaller side or more', () => {
+    expect(() =>
+      sectionProperties({
+        shape: 'rectangular',
+        widthMeters: 0.02,
+        depthMeters: 0.04,
+        wallThicknessMeters: 0.01,
+      }),
+    ).toThrowBridgeworkError('out-of-range', { param: 'section.wallThicknessMeters' });
+  });
+});

@@ -56,6 +56,11 @@ export const mechanicsCalls: readonly BaseCall[] = [
   f('sectionProperties', () => [{ shape: 'rectangular', widthMeters: 0.02, depthMeters: 0.01 }], {
     variant: 'rectangular',
   }),
+  f(
+    'sectionProperties',
+    () => [{ shape: 'rectangular', widthMeters: 0.08, depthMeters: 0.12, wallThicknessMeters: 0.006 }],
+    { variant: 'box' },
+  ),
   f('normalStrainAtAngle', () => [state, 0.3]),
   f('principalStrainsFromState', () => [state]),
   m('createAxialMember', axial, 'forceFromStrain', () => [1e-3]),

@@ -622,6 +622,26 @@ export function buildMultiComponentModel(parts: ModelParts): MultiComponentModel
   };
 }
 
+/**
+ * Checks the component and bridge names of a multi-component sensor: each a list of distinct,
+ * non-empty names, with at least as many bridges as components (else the loads are not determined).
+ */
+export function checkComponentsAndBridges(
+  components: unknown,
+  bridgeNames: unknown,
+): { readonly names: string[]; readonly bridges: string[] } {
+  const names = checkNames('components', components);
+  const bridges = checkNames('bridges', bridgeNames);
+  if (bridges.length < names.length) {
+    throw new BridgeworkError(
+      'invalid-shape',
+      `\`bridges\` must number at least as many as the components (${names.length}) for the loads to be determined; got ${bridges.length}`,
+      { param: 'bridges', value: bridges.length, limit: names.length },
+    );
+  }
+  return { names, bridges };
+}
+
 /** Checks a list of distinct, non-empty names. */
 export function checkNames(param: string, value: unknown): string[] {
   if (!Array.isArray(value) || value.length === 0) {
@@ -801,17 +821,9 @@ export function createMultiComponentModel(options: MultiComponentModelOptions): 
     known: ['components', 'bridges', 'terms', 'coefficients', 'fullScale', 'covariance'],
     required: ['components', 'bridges', 'terms', 'coefficients', 'fullScale'],
   });
-  const names = checkNames('components', o['components']);
-  const bridges = checkNames('bridges', o['bridges']);
+  const { names, bridges } = checkComponentsAndBridges(o['components'], o['bridges']);
   const m = names.length;
   const nb = bridges.length;
-  if (nb < m) {
-    throw new BridgeworkError(
-      'invalid-shape',
-      `\`bridges\` must number at least as many as the components (${m}) for the loads to be determined; got ${nb}`,
-      { param: 'bridges', value: nb, limit: m },
-    );
-  }
   if (!Array.isArray(o['terms']) || o['terms'].length === 0) {
     throw new BridgeworkError(
       'invalid-shape',

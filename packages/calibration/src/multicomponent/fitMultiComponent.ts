@@ -17,7 +17,7 @@ import {
 } from '../internal/leastSquares.js';
 import {
   buildMultiComponentModel,
-  checkNames,
+  checkComponentsAndBridges,
   matrix,
   type MultiComponentModel,
 } from './createMultiComponentModel.js';
@@ -211,17 +211,9 @@ export function fitMultiComponent(options: MultiComponentFitOptions): MultiCompo
     ],
     required: ['components', 'bridges', 'points'],
   });
-  const names = checkNames('components', o['components']);
-  const bridges = checkNames('bridges', o['bridges']);
+  const { names, bridges } = checkComponentsAndBridges(o['components'], o['bridges']);
   const m = names.length;
   const nb = bridges.length;
-  if (nb < m) {
-    throw new BridgeworkError(
-      'invalid-shape',
-      `\`bridges\` must number at least as many as the components (${m}) for the loads to be determined; got ${nb}`,
-      { param: 'bridges', value: nb, limit: m },
-    );
-  }
   const interactions =
     o['interactions'] === undefined
       ? 'none'

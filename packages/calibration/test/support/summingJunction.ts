@@ -5,7 +5,12 @@
  * 0 V source with its own current unknown (Ho, Ruehli and Brennan 1975), so every node is kept.
  * Ground is 'gnd'.
  */
-import { solveNetwork, type Resistor, type VoltageSource } from '../../../../test/support/nodal.js';
+import {
+  bigScaled,
+  solveNetwork,
+  type Resistor,
+  type VoltageSource,
+} from '../../../../test/support/nodal.js';
 
 /** The summing junction as a network (1 V supply), written from the topology's description. */
 export function junctionNetwork(options: {
@@ -33,10 +38,15 @@ export function junctionNetwork(options: {
       link('supply+', `c${i}.E+`, t);
       link(`c${i}.E-`, 'gnd', 0);
     }
-    link(`c${i}.E+`, `c${i}.S-`, r * (1 + x));
-    link(`c${i}.S-`, `c${i}.E-`, r * (1 - x));
-    link(`c${i}.E-`, `c${i}.S+`, r * (1 + x));
-    link(`c${i}.S+`, `c${i}.E+`, r * (1 - x));
+    // The arms at 40 digits: R·(1 ± x) rounded to a double would change the cell's ratio by about
+    // ε, which is 1e-12 of a small cell ratio (the library forms the change exactly from x).
+    const arm = (a: string, b: string, sign: 1 | -1): void => {
+      resistors.push({ a, b, ohms: r * (1 + sign * x), exactOhms: bigScaled(r, sign * x) });
+    };
+    arm(`c${i}.E+`, `c${i}.S-`, 1);
+    arm(`c${i}.S-`, `c${i}.E-`, -1);
+    arm(`c${i}.E-`, `c${i}.S+`, 1);
+    arm(`c${i}.S+`, `c${i}.E+`, -1);
     link(`c${i}.S+`, 'bus+', options.summingOhms);
     link(`c${i}.S-`, 'bus-', options.summingOhms);
   });

@@ -354,28 +354,24 @@ export function designChecks(x: DesignCheckInput): ChannelDesignCheck[] {
     });
   }
 
-  // A transducer's budget without its calibration: noise and electronics only (a warning).
+  // What the budget holds of the sensor's own calibration, or lacks, as the sensor kind states it
+  // (a warning when it lacks it: U then covers the electronics and the noise only). A calibration
+  // against reference loads holds it in its fit; a bridge-ratio output has no sensor calibration.
   const spec = r.spec;
-  if (
-    spec.sensor.kind === 'transducer' &&
-    spec.output.quantity !== 'ratio' &&
-    spec.calibration === undefined
-  ) {
-    const tolerance =
-      (spec.sensor as { ratedOutputToleranceFraction?: number }).ratedOutputToleranceFraction ?? 0;
-    push({
-      id: 'sensor-calibration',
-      name: "the sensor's calibration uncertainty in the budget",
-      status: tolerance > 0 ? 'pass' : 'warn',
-      value: tolerance,
-      limit: 0,
-      unit: '',
-      message:
-        tolerance > 0
-          ? `the budget holds the rated output's tolerance ±${percent(tolerance, 4)} (sensor.ratedOutputToleranceFraction)`
-          : "the budget lacks the transducer's calibration uncertainty: sensor.ratedOutputToleranceFraction is 0, so U covers the electronics and the noise only; fill it in from the certificate (the rated output's tolerance, or its calibration uncertainty as a rectangular half-width), or calibrate the channel against reference loads (calibration)",
-      path: 'sensor.ratedOutputToleranceFraction',
-    });
+  if (spec.output.quantity !== 'ratio' && spec.calibration === undefined) {
+    const c = budgetSideOf(r.kind).calibrationCheck?.(spec.sensor as never, spec);
+    if (c !== undefined) {
+      push({
+        id: 'sensor-calibration',
+        name: "the sensor's calibration uncertainty in the budget",
+        status: c.holds ? 'pass' : 'warn',
+        value: c.value,
+        limit: 0,
+        unit: c.unit,
+        message: c.message,
+        path: c.path,
+      });
+    }
   }
 
   // Inputs in the ranges a real design keeps them in (warnings).

@@ -170,6 +170,23 @@ export interface KindBudgetInput {
   readonly first?: boolean;
 }
 
+/**
+ * What a kind's budget holds of the sensor's own calibration (its tolerance, class or fitted
+ * curve's uncertainty), or lacks: the design check `sensor-calibration`.
+ */
+export interface SensorCalibrationCheck {
+  /** True when the budget holds it (a pass); false when it lacks it (a warning). */
+  readonly holds: boolean;
+  /** The figure the check reports (the tolerance, 0 when lacking), in `unit`. */
+  readonly value: number;
+  /** The figure's unit (`''` for a fraction). */
+  readonly unit: string;
+  /** What the budget holds, or what it lacks and how to fill it in, in the user's terms. */
+  readonly message: string;
+  /** The field to fill in (or the one that holds it). */
+  readonly path: string;
+}
+
 /** A plausible range of an input, checked as a warning (a real design could go there). */
 export interface PlausibleRange {
   /** Field path. */
@@ -213,6 +230,12 @@ export interface SensorKindBudget<F extends Fields = Fields> {
   ): readonly ChannelBudgetLine[];
   /** Inputs to check against plausible ranges (warnings). */
   plausibleRanges?(sensor: ObjectOut<F>): readonly PlausibleRange[];
+  /**
+   * What the budget holds of the sensor's own calibration, or lacks (the design check
+   * `sensor-calibration`); undefined when no such input applies to this channel. Not asked for a
+   * channel read as a bridge ratio, nor one calibrated against reference loads (whose fit holds it).
+   */
+  calibrationCheck?(sensor: ObjectOut<F>, spec: CommonSpec): SensorCalibrationCheck | undefined;
 }
 
 /**

@@ -50,6 +50,27 @@ export const rtdBudget: SensorKindBudget<(typeof rtdKind)['fields']> = {
       },
     ];
   },
+  calibrationCheck: (s, spec) => {
+    if (spec.output.quantity !== 'temperature') return undefined;
+    if (s.toleranceClass === undefined) {
+      return {
+        holds: false,
+        value: 0,
+        unit: '°C',
+        path: 'sensor.toleranceClass',
+        message:
+          "the budget lacks the RTD's tolerance: sensor.toleranceClass is not set, so U covers the electronics and the noise only; give the element's IEC 60751 class (AA, A, B or C) from its data sheet",
+      };
+    }
+    const c = RTD_TOLERANCE_CLASSES[s.toleranceClass];
+    return {
+      holds: true,
+      value: c.fixedCelsius,
+      unit: '°C',
+      path: 'sensor.toleranceClass',
+      message: `the budget holds IEC 60751 class ${s.toleranceClass}'s tolerance ±(${c.fixedCelsius} + ${c.proportional}·|t|) °C (sensor.toleranceClass)`,
+    };
+  },
   plausibleRanges: (s) => [
     { path: 'sensor.r0Ohms', value: s.r0Ohms, range: { min: 10, max: 10_000 }, unit: 'Ω' },
   ],

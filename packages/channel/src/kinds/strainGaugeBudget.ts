@@ -7,6 +7,7 @@ import { createStrainBridgeKernel, type StrainArrangement } from '@bridgework/br
 import { createThermalOutput, indicatedTransverseStrain } from '@bridgework/compensation';
 import { formatSignificant } from '../units/quantity.js';
 import { Parameter, type SensorKindBudget } from './SensorKind.js';
+import { toleranceFractionCheck } from './toleranceCheck.js';
 import { GAUGE_FACTOR, quantityPerStrain, type strainGaugeKind } from './strainGauge.js';
 
 /** The strain-gauge kind's budget side. */
@@ -83,6 +84,13 @@ export const strainGaugeBudget: SensorKindBudget<(typeof strainGaugeKind)['field
         ]
       : [];
   },
+  calibrationCheck: (s) =>
+    toleranceFractionCheck(
+      s.gaugeFactorToleranceFraction,
+      'sensor.gaugeFactorToleranceFraction',
+      "the gauge factor's tolerance",
+      "the budget lacks the gauge factor's tolerance: sensor.gaugeFactorToleranceFraction is 0, so U covers the electronics and the noise only; fill it in from the gauge lot's data sheet (the gauge factor's tolerance, commonly ±0.5 % to ±1 %), or calibrate the channel against reference loads (calibration)",
+    ),
   plausibleRanges: (s) => [
     { path: 'sensor.gaugeFactor', value: s.gaugeFactor, range: { min: 1, max: 5 }, unit: '' },
     { path: 'sensor.gaugeOhms', value: s.gaugeOhms, range: { min: 60, max: 10_000 }, unit: 'Ω' },

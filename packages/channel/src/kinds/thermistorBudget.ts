@@ -6,6 +6,7 @@ import { ZERO_CELSIUS_KELVIN } from '@bridgework/core';
 import { createStrainBridge, createStrainBridgeKernel, solveBridge } from '@bridgework/bridge';
 import { formatSignificant } from '../units/quantity.js';
 import { Parameter, type KindContext, type SensorKindBudget } from './SensorKind.js';
+import { toleranceText } from './toleranceCheck.js';
 import {
   BETA,
   DISSIPATION,
@@ -121,6 +122,39 @@ export const thermistorBudget: SensorKindBudget<(typeof thermistorKind)['fields'
         standardUncertainty: undefined,
       },
     ];
+  },
+  calibrationCheck: (s, spec) => {
+    if (spec.output.quantity !== 'temperature') return undefined;
+    const held = [
+      ...(s.referenceOhmsToleranceFraction > 0
+        ? [
+            toleranceText(
+              'the resistance tolerance',
+              s.referenceOhmsToleranceFraction,
+              'sensor.referenceOhmsToleranceFraction',
+            ),
+          ]
+        : []),
+      ...(s.betaToleranceFraction > 0 && s.betaKelvin !== undefined
+        ? [toleranceText('the beta tolerance', s.betaToleranceFraction, 'sensor.betaToleranceFraction')]
+        : []),
+    ];
+    if (held.length > 0) {
+      return {
+        holds: true,
+        value: s.referenceOhmsToleranceFraction,
+        unit: '',
+        path: 'sensor.referenceOhmsToleranceFraction',
+        message: `the budget holds the thermistor's ${held.join(' and ')}`,
+      };
+    }
+    return {
+      holds: false,
+      value: 0,
+      unit: '',
+      path: 'sensor.referenceOhmsToleranceFraction',
+      message: `the budget lacks the thermistor's tolerance: sensor.referenceOhmsToleranceFraction is 0${s.betaKelvin === undefined ? '' : ' and so is sensor.betaToleranceFraction'}, so U covers the electronics and the noise only; fill in the element's resistance tolerance from its data sheet${s.betaKelvin === undefined ? ", or the bath calibration's uncertainty as a relative resistance half-width" : ' (and the beta tolerance)'}`,
+    };
   },
   plausibleRanges: (s) => [
     { path: 'sensor.referenceOhms', value: s.referenceOhms, range: { min: 100, max: 1e6 }, unit: 'Ω' },

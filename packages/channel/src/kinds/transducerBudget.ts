@@ -5,6 +5,7 @@
 import { createCertificateScale } from '@bridgework/calibration';
 import { formatSignificant } from '../units/quantity.js';
 import { Parameter, type SensorKindBudget } from './SensorKind.js';
+import { toleranceFractionCheck } from './toleranceCheck.js';
 import { RATED_OUTPUT, gravities, scaleUnits, type transducerKind } from './transducer.js';
 
 /** The transducer kind's budget side. */
@@ -54,6 +55,13 @@ export const transducerBudget: SensorKindBudget<(typeof transducerKind)['fields'
         ]
       : [];
   },
+  calibrationCheck: (s) =>
+    toleranceFractionCheck(
+      s.ratedOutputToleranceFraction,
+      'sensor.ratedOutputToleranceFraction',
+      "the rated output's tolerance",
+      "the budget lacks the transducer's calibration uncertainty: sensor.ratedOutputToleranceFraction is 0, so U covers the electronics and the noise only; fill it in from the certificate (the rated output's tolerance, or its calibration uncertainty as a rectangular half-width), or calibrate the channel against reference loads (calibration)",
+    ),
   plausibleRanges: (s) => [
     {
       path: 'sensor.ratedOutputVoltsPerVolt',

@@ -7,6 +7,7 @@ import { fitCalibrationCommand } from './fit/fitCommand.js';
 import { fitGroupCommand } from './fitGroup/fitGroupCommand.js';
 import { fitThermistorCommand } from './thermistor/thermistorCommand.js';
 import { helpCommand } from './help/helpCommand.js';
+import { reduceMemberCommand } from './member/memberCommand.js';
 import { reduceRosetteCommand } from './rosette/rosetteCommand.js';
 import { reportCommand } from './report/reportCommand.js';
 import { shuntApplyCommand, shuntPlanCommand } from './shunt/shuntCommands.js';
@@ -26,6 +27,7 @@ export const commands: readonly CommandSpec[] = Object.freeze([
   fitCalibrationCommand,
   checkCertificateCommand,
   reduceRosetteCommand,
+  reduceMemberCommand,
   fitThermistorCommand,
   fitGroupCommand,
   demoCommand,

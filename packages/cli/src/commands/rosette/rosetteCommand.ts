@@ -7,7 +7,7 @@ export const reduceRosetteCommand = defineCommand({
   summary: 'Reduce recorded rosette legs to principal strains, their direction and stresses, row by row.',
   description:
     "Streams a CSV recording of a strain rosette's three legs (any layout: rectangular, delta, or three given directions) and writes, for every row, the principal strains ε1 and ε2, the maximum shear strain and the direction of ε1 from leg a; with Young's modulus and Poisson's ratio (options or a channel file), the plane-stress principal stresses, the maximum in-plane shear stress, von Mises and Tresca. The legs can first be corrected for the gauges' transverse sensitivity. The other columns (a time stamp, for example) pass through unchanged; memory does not grow with the file.\n\n" +
-    "The summary on standard error gives the rows reduced, the rows that could not be (written as NaN, with the reason and the first line), and the layout's condition number: above --max-condition the layout is ill-conditioned and the command exits with 2 after writing the results.",
+    "The summary on standard error (or as JSON on standard output with --json) gives the rows reduced, the rows that could not be (written as NaN, with the reason and the first line), and the layout's condition number: above --max-condition the layout is ill-conditioned and the command exits with 2 after writing the results.",
   positionals: rosetteArguments,
   options: rosetteOptions,
   examples: [

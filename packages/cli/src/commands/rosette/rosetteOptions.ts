@@ -3,6 +3,11 @@
  * imports these types without an import cycle).
  */
 import type { OptionSpec, ParsedArgs, PositionalSpec } from '../../args/optionTable.js';
+import {
+  keepColumnsOptionRow,
+  materialOptionRows,
+  summaryJsonOptionRow,
+} from '../recording/recordingOptions.js';
 import { forceOption, outOption } from '../sharedOptions.js';
 
 /** The positional arguments of `bridgework reduce-rosette`. */
@@ -63,38 +68,8 @@ export const rosetteOptions = [
     default: 0.285,
     description: 'Poisson ratio ν0 of the beam on which the gauge factor and Kt were measured.',
   },
-  {
-    name: 'modulus',
-    type: 'string',
-    placeholder: 'quantity',
-    defaultText: "the channel's output.modulusPascals",
-    description:
-      "Young's modulus E of the specimen with a unit ('200 GPa'); with ν, the stresses are written.",
-  },
-  {
-    name: 'poisson',
-    type: 'number',
-    placeholder: 'ν',
-    min: -0.99,
-    max: 0.5,
-    defaultText: "the channel's bridge.poissonRatio",
-    description: 'Poisson ratio ν of the specimen.',
-  },
-  {
-    name: 'channel-file',
-    type: 'string',
-    placeholder: 'file',
-    description:
-      'A channel file to take E (output.modulusPascals) and ν (bridge.poissonRatio) from, with --channel.',
-  },
-  {
-    name: 'channel',
-    short: 'c',
-    type: 'string',
-    placeholder: 'name',
-    defaultText: "the channel file's only channel",
-    description: 'The channel of --channel-file whose specimen E and ν apply.',
-  },
+  ...materialOptionRows('specimen', '', '; with ν, the stresses are written'),
+
   {
     name: 'stress-unit',
     type: 'string',
@@ -102,14 +77,8 @@ export const rosetteOptions = [
     default: 'MPa',
     description: 'The unit of the stresses written: Pa, kPa, MPa, GPa, psi, ….',
   },
-  {
-    name: 'keep-columns',
-    type: 'string',
-    placeholder: 'list',
-    defaultText: 'every column but the legs',
-    description:
-      'The columns passed through to the output, before the results (names or numbers from 1, comma-separated; an empty list keeps none).',
-  },
+  keepColumnsOptionRow('the legs'),
+
   {
     name: 'keep-legs',
     type: 'boolean',
@@ -141,6 +110,7 @@ export const rosetteOptions = [
     defaultText: 'the row with the largest von Mises stress (or shear strain)',
     description: 'The data row (from 1, after the header) drawn by --html.',
   },
+  summaryJsonOptionRow,
   outOption,
   forceOption,
 ] as const satisfies readonly OptionSpec[];

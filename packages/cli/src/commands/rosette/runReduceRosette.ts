@@ -1,52 +1,35 @@
-import { createReadStream } from 'node:fs';
-import { parseQuantity } from '@bridgework/channel';
-import { BridgeworkError, formatValue, isBridgeworkError, type RosetteLayout } from '@bridgework/core';
+import { BridgeworkError, isBridgeworkError, type RosetteLayout } from '@bridgework/core';
 import { resolve } from 'node:path';
 import { SAFETY_CAUTION } from '../../caution.js';
 import { openAtomicFile, type AtomicFile } from '../../files/atomicFile.js';
 import { readVersion } from '../../internal/readVersion.js';
 import { mohrHtml } from './mohrHtml.js';
-import { loadChannels } from '../../channels/loadChannels.js';
 import { exitCodes } from '../../exitCodes.js';
-import { CsvRecordReader, CsvSyntaxError, type CsvRecord } from '../../internal/csvRecords.js';
+import type { CsvRecord } from '../../internal/csvRecords.js';
 import { parseNumberText, quoteCsvField } from '../../internal/csvText.js';
-import { describeFsError, refuseOutputOverInputs } from '../../internal/fileErrors.js';
+import { refuseOutputOverInputs } from '../../internal/fileErrors.js';
 import { splitOptionList } from '../../internal/splitOptionList.js';
 import { wrapText } from '../../internal/wrapText.js';
 import { formatNumber } from '../../report/formatNumber.js';
+import { reportJson } from '../../report/reportJson.js';
 import type { CommandContext } from '../CommandContext.js';
 import { openResultOutput } from '../resultOutput.js';
-import { theChannel } from '../shunt/runShuntApply.js';
+import {
+  csvCell as cell,
+  findColumn,
+  headerUnit,
+  isBlankOrComment,
+  optionError,
+  refuseJsonWithoutOut,
+  SkippedRows,
+  specimenMaterial,
+  streamCsvRecords,
+  unitFactor,
+} from '../recording/recordingTools.js';
 import type { RosetteArgs } from './rosetteOptions.js';
 import { createRowReducer, type ReducedRow } from './rosetteRows.js';
 
 const DEG = Math.PI / 180;
-
-function optionError(option: string, message: string, value?: unknown): BridgeworkError {
-  return new BridgeworkError('invalid-option', `--${option}: ${message}`, {
-    param: option,
-    ...(value === undefined ? {} : { value }),
-  });
-}
-
-/** A quantity option in a unit, or a typed error naming the option. */
-function quantity(option: string, text: string, unit: string): number {
-  try {
-    return parseQuantity(text, unit);
-  } catch (e) {
-    if (!isBridgeworkError(e)) throw e;
-    throw new BridgeworkError('invalid-option', `--${option} '${text}': ${e.message}`, {
-      param: option,
-      value: text,
-      cause: e,
-    });
-  }
-}
-
-/** The value of one unit in another (a unit option checked against its dimension). */
-function unitFactor(option: string, unit: string, si: string): number {
-  return quantity(option, `1 ${unit}`, si);
-}
 
 /** The layout from `--layout` and `--angles`. */
 export function rosetteLayout(
@@ -98,98 +81,6 @@ export function transverseOption(text: string | undefined): [number, number, num
   return list as [number, number, number];
 }
 
-/** Finds a column by header name (with or without its ' (unit)') or number from 1. */
-function findColumn(option: string, entry: string, header: readonly string[], file: string): number {
-  if (/^\d+$/.test(entry)) {
-    const i = Number(entry) - 1;
-    if (i < 0 || i >= header.length) {
-      throw optionError(
-        option,
-        `column ${entry} does not exist: ${file} has ${header.length} columns`,
-        entry,
-      );
-    }
-    return i;
-  }
-  const bare = (h: string) => h.replace(/\s*\([^()]*\)\s*$/, '');
-  let i = header.findIndex((h) => h === entry);
-  if (i < 0) i = header.findIndex((h) => bare(h) === entry);
-  if (i < 0) {
-    throw optionError(
-      option,
-      `'${entry}' is not a column of ${file}; its header names ${header.map((h) => `'${h}'`).join(', ')}`,
-      entry,
-    );
-  }
-  return i;
-}
-
-/** The material for stresses: options over the channel file. */
-async function materialOf(
-  args: RosetteArgs,
-): Promise<{ modulusPascals: number; poissonRatio: number; from: string } | undefined> {
-  const o = args.options;
-  let modulus = o.modulus === undefined ? undefined : quantity('modulus', o.modulus, 'Pa');
-  let poisson = o.poisson;
-  let from = 'options';
-  if (o.channelFile !== undefined) {
-    const loaded = await loadChannels(o.channelFile, o.channel === undefined ? undefined : [o.channel]);
-    const target = theChannel(loaded, o.channel);
-    const spec = target.channel.spec;
-    modulus ??= spec.output.modulusPascals;
-    poisson ??= spec.bridge.poissonRatio;
-    from = `channel '${target.name}' of ${o.channelFile}`;
-    if (modulus === undefined || poisson === undefined) {
-      throw new BridgeworkError(
-        'missing-option',
-        `channel '${target.name}' of ${o.channelFile} gives no ${modulus === undefined ? 'output.modulusPascals' : 'bridge.poissonRatio'}: add it there or give --${modulus === undefined ? 'modulus' : 'poisson'}`,
-        { param: modulus === undefined ? 'modulus' : 'poisson' },
-      );
-    }
-  } else if (o.channel !== undefined) {
-    throw new BridgeworkError(
-      'missing-option',
-      '--channel needs --channel-file (the file the channel is in)',
-      {
-        param: 'channel-file',
-      },
-    );
-  }
-  if ((modulus === undefined) !== (poisson === undefined)) {
-    throw new BridgeworkError(
-      'missing-option',
-      `--${modulus === undefined ? 'modulus' : 'poisson'} is required with --${modulus === undefined ? 'poisson' : 'modulus'}: stresses need both E and ν`,
-      { param: modulus === undefined ? 'modulus' : 'poisson' },
-    );
-  }
-  if (modulus === undefined || poisson === undefined) return undefined;
-  if (!(modulus > 0))
-    throw optionError('modulus', `must be above 0; got ${formatValue(modulus)} Pa`, modulus);
-  return {
-    modulusPascals: modulus,
-    poissonRatio: poisson,
-    from: o.modulus !== undefined && o.poisson !== undefined ? 'options' : from,
-  };
-}
-
-/** Shortest text of a number that reads back exactly; NaN as `NaN`, −0 as `0`. */
-const cell = (x: number): string => (Number.isNaN(x) ? 'NaN' : x === 0 ? '0' : String(x));
-
-/** Why rows were not reduced, counted, with the first line of each. */
-class Skipped {
-  readonly reasons = new Map<string, { count: number; firstLine: number }>();
-  add(reason: string, line: number): void {
-    const r = this.reasons.get(reason);
-    if (r === undefined) this.reasons.set(reason, { count: 1, firstLine: line });
-    else r.count++;
-  }
-  get total(): number {
-    let n = 0;
-    for (const r of this.reasons.values()) n += r.count;
-    return n;
-  }
-}
-
 /**
  * The body of `bridgework reduce-rosette`: streams a CSV recording of three rosette legs, row by
  * row, to principal strains, their direction and (with E and ν) the plane-stress state, passing the
@@ -219,7 +110,7 @@ export async function run(args: RosetteArgs, context: CommandContext): Promise<n
     throw optionError('legs', `name three columns (legs a, b, c); got ${legEntries.length}`, o.legs);
   const layout = rosetteLayout(o.layout, o.angles);
   const kt = transverseOption(o.transverse);
-  const material = await materialOf(args);
+  const material = await specimenMaterial(o);
   const stressUnit = o.stressUnit;
   const pascalsPerUnit = unitFactor('stress-unit', stressUnit, 'Pa');
   let reducer;
@@ -239,6 +130,7 @@ export async function run(args: RosetteArgs, context: CommandContext): Promise<n
     );
   }
   const kappa = reducer.rosette.conditionNumber;
+  refuseJsonWithoutOut(o.json, o.out);
   if (o.out !== undefined && o.out !== '-') await refuseOutputOverInputs(o.out, [input]);
 
   if (o.mohrRow !== undefined && o.html === undefined) {
@@ -260,10 +152,8 @@ export async function run(args: RosetteArgs, context: CommandContext): Promise<n
   let drawn: { row: number; line: number; reduced: ReducedRow; score: number } | undefined;
   const html: AtomicFile | undefined =
     o.html === undefined ? undefined : await openAtomicFile(o.html, { force: o.force });
-  const stream = createReadStream(input, { encoding: 'utf8', highWaterMark: 1 << 20 });
-  const reader = new CsvRecordReader(',');
   const output = await openResultOutput(context, o.out, o.force);
-  const skipped = new Skipped();
+  const skipped = new SkippedRows();
   let header: string[] | undefined;
   let legs: number[] = [];
   let keep: number[] = [];
@@ -275,7 +165,7 @@ export async function run(args: RosetteArgs, context: CommandContext): Promise<n
     const lines: string[] = [];
     for (const record of records) {
       const f = record.fields;
-      if (f.every((x) => x.trim() === '') || (f[0] ?? '').trim().startsWith('#')) continue;
+      if (isBlankOrComment(f)) continue;
       if (header === undefined) {
         header = f.map((x) => x.trim());
         legs = legEntries.map((e) => findColumn('legs', e, header as string[], input));
@@ -288,10 +178,10 @@ export async function run(args: RosetteArgs, context: CommandContext): Promise<n
               : splitOptionList(o.keepColumns, '--keep-columns').map((e) =>
                   findColumn('keep-columns', e, header as string[], input),
                 );
-        const headerUnit = /\(([^()]*)\)\s*$/.exec(header[legs[0] as number] as string)?.[1];
-        strainUnit = o.strainUnit ?? headerUnit ?? 'µε';
+        const fromHeader = headerUnit(header[legs[0] as number] as string);
+        strainUnit = o.strainUnit ?? fromHeader ?? 'µε';
         perStrain = unitFactor(
-          o.strainUnit === undefined && headerUnit !== undefined ? 'legs' : 'strain-unit',
+          o.strainUnit === undefined && fromHeader !== undefined ? 'legs' : 'strain-unit',
           strainUnit,
           'm/m',
         );
@@ -361,19 +251,7 @@ export async function run(args: RosetteArgs, context: CommandContext): Promise<n
     if (lines.length > 0) await output.write(`${lines.join('\n')}\n`);
   };
   try {
-    try {
-      for await (const chunk of stream) await writeRows(reader.push(chunk as string));
-      await writeRows(reader.end());
-    } catch (e) {
-      if (e instanceof CsvSyntaxError) {
-        throw new BridgeworkError('parse-error', `${input}:${e.line}: ${e.message}`, { param: input });
-      }
-      if (isBridgeworkError(e)) throw e;
-      throw new BridgeworkError('io-error', `cannot read ${input}: ${describeFsError(e)}`, {
-        param: input,
-        cause: e,
-      });
-    }
+    await streamCsvRecords(input, writeRows);
     if (header === undefined)
       throw new BridgeworkError('parse-error', `${input}: no header row`, { param: input });
     if (html !== undefined) {
@@ -411,12 +289,51 @@ export async function run(args: RosetteArgs, context: CommandContext): Promise<n
     }
     await output.commit('the rosette reduction');
   } finally {
-    stream.destroy();
     await html?.abort();
     await output.abort();
   }
   const illConditioned = kappa > o.maxCondition;
-  const angles = reducer.rosette.anglesRadians.map((a) => formatNumber(a / DEG, 4)).join('°, ');
+  const anglesDegrees = reducer.rosette.anglesRadians.map((a) => a / DEG);
+  const conditionMessage = illConditioned
+    ? `the layout's condition number ${formatNumber(kappa, 3)} exceeds --max-condition ${o.maxCondition}: the legs' errors are amplified up to that many times in the strains; spread the legs further apart (rectangular 3.87, delta 3.16)`
+    : `the layout's condition number ${formatNumber(kappa, 3)} is within --max-condition ${o.maxCondition}`;
+  if (o.json) {
+    context.io.stdout.write(
+      reportJson(
+        {
+          recording: input,
+          output: o.out,
+          rows,
+          reducedRows: rows - bad,
+          layout: { name: o.layout, anglesDegrees, conditionNumber: kappa },
+          transverse:
+            kt === undefined
+              ? null
+              : { transverseSensitivity: kt, calibrationPoissonRatio: o.calibrationPoisson },
+          material: material ?? null,
+          units: { strain: strainUnit, stress: material === undefined ? null : stressUnit },
+          html:
+            o.html === undefined || drawn === undefined
+              ? null
+              : { file: o.html, row: drawn.row, line: drawn.line },
+          skipped: skipped.toJson(),
+          checks: [
+            {
+              id: 'condition-number',
+              status: illConditioned ? 'fail' : 'pass',
+              value: kappa,
+              limit: o.maxCondition,
+              message: conditionMessage,
+            },
+          ],
+          ok: !illConditioned,
+        },
+        { generator: `bridgework ${await readVersion()}` },
+      ),
+    );
+    return illConditioned ? exitCodes.failedCheck : exitCodes.ok;
+  }
+  const angles = anglesDegrees.map((a) => formatNumber(a, 4)).join('°, ');
   const summary = [
     `reduced ${rows - bad} of ${rows} rows of ${input}: rosette legs at ${angles}° (${o.layout}), condition number ${formatNumber(kappa, 3)}`,
     kt === undefined
@@ -425,15 +342,8 @@ export async function run(args: RosetteArgs, context: CommandContext): Promise<n
     material === undefined
       ? 'stresses: not written (give --modulus and --poisson, or --channel-file)'
       : `stresses: plane stress, E ${formatNumber(material.modulusPascals / 1e9, 6)} GPa, ν ${material.poissonRatio} (from ${material.from}); von Mises and Tresca with σ3 = 0`,
-    ...[...skipped.reasons].map(
-      ([why, r]) =>
-        `not reduced (NaN): ${r.count} row${r.count === 1 ? '' : 's'}: ${why} (first at line ${r.firstLine})`,
-    ),
-    ...(illConditioned
-      ? [
-          `check failed: the layout's condition number ${formatNumber(kappa, 3)} exceeds --max-condition ${o.maxCondition}: the legs' errors are amplified up to that many times in the strains; spread the legs further apart (rectangular 3.87, delta 3.16)`,
-        ]
-      : []),
+    ...skipped.lines(),
+    ...(illConditioned ? [`check failed: ${conditionMessage}`] : []),
     '',
     ...wrapText(SAFETY_CAUTION, 100),
   ];
