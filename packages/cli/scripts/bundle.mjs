@@ -11,42 +11,59 @@
  * does, so the paths the command finds from its own location (the package.json, the demo's
  * channel file, the schema, the worker next to it) are the same in both. dist/bundle/inputs.json
  * records the SHA-256 of every input, so a test can tell a bundle older than dist/.
+ *
+ * `--if-stale` (prepack) leaves a bundle alone when every input it was made from is unchanged, so
+ * packing after `pnpm build` only reads it (packs may run while tests run the bundle). A new
+ * bundle is written into a fresh folder and put in place by renaming.
  */
 import { build } from 'esbuild';
 import { createHash } from 'node:crypto';
-import { readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 
 const cli = fileURLToPath(new URL('..', import.meta.url));
 const manifest = JSON.parse(readFileSync(`${cli}package.json`, 'utf8'));
 const external = Object.keys(manifest.dependencies).filter((d) => !d.startsWith('@bridgework/'));
+const sha256 = (f) =>
+  createHash('sha256')
+    .update(readFileSync(`${cli}${f}`))
+    .digest('hex');
 
-rmSync(`${cli}dist/bundle`, { recursive: true, force: true });
-const result = await build({
-  absWorkingDir: cli,
-  entryPoints: {
-    bridgework: 'dist/bin.js',
-    monteCarloWorker: 'dist/commands/uncertainty/monteCarloWorker.js',
-  },
-  outdir: 'dist/bundle',
-  chunkNames: '[name]-[hash]',
-  bundle: true,
-  splitting: true,
-  format: 'esm',
-  platform: 'node',
-  target: 'node20',
-  external: external.flatMap((d) => [d, `${d}/*`]),
-  metafile: true,
-  logLevel: 'warning',
-});
-const inputs = Object.fromEntries(
-  Object.keys(result.metafile.inputs)
-    .sort()
-    .map((f) => [
-      f,
-      createHash('sha256')
-        .update(readFileSync(`${cli}${f}`))
-        .digest('hex'),
-    ]),
-);
-writeFileSync(`${cli}dist/bundle/inputs.json`, `${JSON.stringify({ inputs }, null, 2)}\n`);
+/** Whether dist/bundle was made from the files now in dist/ (every input's hash unchanged). */
+function current() {
+  try {
+    const { inputs } = JSON.parse(readFileSync(`${cli}dist/bundle/inputs.json`, 'utf8'));
+    return Object.entries(inputs).every(([f, hash]) => sha256(f) === hash);
+  } catch {
+    return false;
+  }
+}
+
+if (!(process.argv.includes('--if-stale') && current())) {
+  const out = `dist/bundle-${process.pid}`;
+  rmSync(`${cli}${out}`, { recursive: true, force: true });
+  const result = await build({
+    absWorkingDir: cli,
+    entryPoints: {
+      bridgework: 'dist/bin.js',
+      monteCarloWorker: 'dist/commands/uncertainty/monteCarloWorker.js',
+    },
+    outdir: out,
+    chunkNames: '[name]-[hash]',
+    bundle: true,
+    splitting: true,
+    format: 'esm',
+    platform: 'node',
+    target: 'node20',
+    external: external.flatMap((d) => [d, `${d}/*`]),
+    metafile: true,
+    logLevel: 'warning',
+  });
+  const files = Object.keys(result.metafile.inputs).sort();
+  const inputs = Object.fromEntries(files.map((f) => [f, sha256(f)]));
+  writeFileSync(`${cli}${out}/inputs.json`, `${JSON.stringify({ inputs }, null, 2)}\n`);
+  const old = `${cli}dist/bundle-old-${process.pid}`;
+  if (existsSync(`${cli}dist/bundle`)) renameSync(`${cli}dist/bundle`, old);
+  renameSync(`${cli}${out}`, `${cli}dist/bundle`);
+  rmSync(old, { recursive: true, force: true });
+}
