@@ -8,6 +8,7 @@ import {
   outputQuantities,
   parseQuantity,
 } from '@bridgework/channel';
+import { findUnit } from '../src/units/quantity.js';
 
 describe('parseQuantity: the channel package’s table-driven units', () => {
   it('reads exact decimal factors exactly (one rounding of the exact product)', () => {
@@ -143,5 +144,36 @@ describe('typed errors at the unit helpers (issue 15, fuzz findings)', () => {
     for (const q of outputQuantities) expect(typeof defaultOutputUnit(q)).toBe('string');
     expect(defaultOutputUnit('pressure')).toBe('Pa');
     expect(defaultOutputUnit('temperature')).toBe('°C');
+  });
+});
+
+describe('findUnit: a name already in normal form is found without normalizing it again', () => {
+  it('finds every symbol and alias, as written and with spacing and look-alike signs, as the same unit', () => {
+    // The fast path looks the text up as it is first; it must agree with the normalized lookup.
+    const variants = (name: string): string[] => [
+      name,
+      ` ${name} `,
+      name.replace(/·/g, ' * '),
+      name.replace(/·/g, '×'),
+      name.replace(/\//g, ' / '),
+      name.replace(/µ/g, 'μ'), // U+03BC for U+00B5
+    ];
+    let checked = 0;
+    for (const dimension of dimensions) {
+      for (const unit of dimensionTable[dimension].units) {
+        const expected = findUnit(dimension, unit.symbol);
+        expect(expected?.unit.symbol, `${dimension} ${unit.symbol}`).toBe(unit.symbol);
+        for (const name of [unit.symbol, ...unit.aliases]) {
+          const found = findUnit(dimension, name);
+          for (const v of variants(name)) {
+            expect(findUnit(dimension, v), `${dimension} '${v}'`).toBe(found);
+            checked++;
+          }
+        }
+      }
+    }
+    expect(checked).toBeGreaterThan(300);
+    expect(findUnit('resistance', 'kΩ ')?.unit.symbol).toBe('kΩ');
+    expect(findUnit('resistance', 'furlong')).toBeUndefined();
   });
 });

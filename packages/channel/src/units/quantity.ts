@@ -44,7 +44,10 @@ for (const dimension of dimensions) {
 
 /** The unit named `text` in a dimension, or undefined. */
 export function findUnit(dimension: Dimension, text: string): FoundUnit | undefined {
-  return byDimension.get(dimension)?.get(normalizeUnitText(text));
+  const names = byDimension.get(dimension);
+  // A name already in normal form (a table symbol, as channels store their units) is found
+  // without normalizing it again: normalizeUnitText leaves its own results unchanged.
+  return names?.get(text) ?? names?.get(normalizeUnitText(text));
 }
 
 /** The symbols of a dimension's units, as reports print them (the dimension's own unit first). */

@@ -1,12 +1,13 @@
 import type { SpecIssue } from '@bridgework/core';
 import {
+  Composer,
   isAlias,
   isMap,
   isScalar,
   isSeq,
   LineCounter,
   Parser,
-  parseDocument,
+  YAMLParseError,
   type CST,
   type Document,
   type Node,
@@ -62,8 +63,8 @@ function locator(doc: Document, lines: LineCounter): (path: string) => SourcePos
  * found without recursion (the tree is built by yaml's iterative parser, so depth costs no stack
  * there; only building values from it would).
  */
-function tooDeep(source: string, limit: number): number | undefined {
-  for (const token of new Parser().parse(source)) {
+function tooDeep(tokens: readonly CST.Token[], limit: number): number | undefined {
+  for (const token of tokens) {
     const stack: [CST.Token | undefined, number][] = [[token, 0]];
     while (stack.length > 0) {
       const [t, depth] = stack.pop() as [CST.Token | undefined, number];
@@ -161,6 +162,32 @@ function walk(node: unknown, path: string, doc: Document, w: Walk): { nodes: num
 }
 
 /**
+ * The document of a syntax tree, as yaml's `parseDocument` composes it from the same tree (the
+ * first document; a second one is the error `parseDocument` reports).
+ */
+function composeDocument(
+  tokens: readonly CST.Token[],
+  end: number,
+  options: ConstructorParameters<typeof Composer>[0],
+): Document.Parsed {
+  let doc: Document.Parsed | undefined;
+  for (const next of new Composer(options).compose(tokens, true, end)) {
+    if (doc === undefined) doc = next;
+    else if (doc.options.logLevel !== 'silent') {
+      doc.errors.push(
+        new YAMLParseError(
+          [next.range[0], next.range[1]],
+          'MULTIPLE_DOCS',
+          'Source contains multiple documents; please use YAML.parseAllDocuments()',
+        ),
+      );
+      break;
+    }
+  }
+  return doc as Document.Parsed;
+}
+
+/**
  * Parses the text of a channel file (YAML 1.2 or JSON) with a map of field paths to positions.
  *
  * @remarks
@@ -207,7 +234,11 @@ export function parseChannelDocument(
   const kind = syntax ?? (/\.json$/i.test(file) ? 'json' : 'yaml');
   if (kind === 'json') return parseJsonChannelDocument(text, file);
   const source = channelFileSource(text, file);
-  const deep = tooDeep(source, channelFileLimits.maxDepth);
+  // One pass of yaml's parser gives the syntax tree the depth is checked on and the document is
+  // composed from (what parseDocument does, without parsing the text a second time).
+  const lines = new LineCounter();
+  const tokens = Array.from(new Parser(lines.addNewLine).parse(source));
+  const deep = tooDeep(tokens, channelFileLimits.maxDepth);
   if (deep !== undefined) {
     const p = positionOf(source, deep);
     throw parseError(
@@ -215,8 +246,7 @@ export function parseChannelDocument(
       file,
     );
   }
-  const lines = new LineCounter();
-  const doc = parseDocument(source, {
+  const doc = composeDocument(tokens, source.length, {
     lineCounter: lines,
     // Positions are computed from each error's offset below; the pretty context is not needed.
     prettyErrors: false,
