@@ -11,6 +11,7 @@ import { BridgeworkError } from '@bridgework/core';
 import { SAFETY_CAUTION } from '../../caution.js';
 import { loadChannels, type LoadedChannel } from '../../channels/loadChannels.js';
 import { formatClipSummary } from '../../data/clipCounter.js';
+import { startConversionLanes, type ConversionLanes } from '../../data/conversionLanes.js';
 import { convertRecording, type BlockTemperature } from '../../data/convertRecording.js';
 import { openCodeSource, type OpenCodeSourceOptions } from '../../data/openCodeSource.js';
 import type { RecordingSection } from '../../channelFile/recordingSection.js';
@@ -99,6 +100,29 @@ const isTemperature = (c: LoadedChannel): boolean => c.channel.quantity === 'tem
  * output (see the readers and {@link writeRecording}).
  */
 export async function run(args: ConvertArgs, context: CommandContext): Promise<number> {
+  const lanes = startLanes(args, context);
+  try {
+    return await convertWith(args, context, lanes);
+  } finally {
+    await lanes?.close();
+  }
+}
+
+/**
+ * The worker threads of a run (`--convert-threads`, default none), started before the channel file
+ * is read so that their start-up (loading the channel package) overlaps this thread's. None for a
+ * channel kit of other sensor kinds: the workers make channels with the built-in package.
+ */
+function startLanes(args: ConvertArgs, context: CommandContext): ConversionLanes | undefined {
+  const threads = args.options.convertThreads;
+  return threads > 0 && context.channels === undefined ? startConversionLanes(threads) : undefined;
+}
+
+async function convertWith(
+  args: ConvertArgs,
+  context: CommandContext,
+  lanes: ConversionLanes | undefined,
+): Promise<number> {
   const { options } = args;
   const input = args.positionals.codesFile;
   const channelFile = args.positionals.channelFile;
@@ -322,6 +346,7 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
           // Raw outputs take the frames as read, converted by all channels at once.
           ...(groupPlan === undefined ? { frameConverter: createInterleavedConverter(channels) } : {}),
           writer: groupPlan === undefined ? writer : (groupWriter = groupPlan.wrap(writer)),
+          ...(lanes === undefined ? {} : { lanes: { pool: lanes, specs: channels.map((c) => c.spec) } }),
           onBlock: (block) => progress.update(block.bytesRead),
         }),
     );
