@@ -267,10 +267,7 @@ async function convertWith(
     'bridgework.channels': JSON.stringify(channelColumns),
     'bridgework.flagged':
       'samples whose code is at or beyond the converter rails, or outside what the sensor can produce, are null (NaN in CSV and raw outputs)',
-    'bridgework.recording.layout-from':
-      section === undefined
-        ? 'command line'
-        : `command line over the recording section of ${basename(channelFile)}`,
+    'bridgework.recording.layout-from': layoutFrom(options, section, basename(channelFile)),
     ...(sampleRate === undefined ? {} : { 'bridgework.sample-rate-hertz': String(sampleRate) }),
     ...(zero === undefined
       ? {}
@@ -384,6 +381,41 @@ async function convertWith(
 /** A mean code in full (shortest round trip), so that it can be copied into `zero.code` exactly. */
 function formatCode(code: number): string {
   return String(code);
+}
+
+/** The layout options of the command line, as their names. */
+const LAYOUT_OPTIONS = [
+  ['from', '--from'],
+  ['channels', '--channels'],
+  ['fileHeader', '--file-header'],
+  ['frameHeader', '--frame-header'],
+  ['frameTrailer', '--frame-trailer'],
+  ['timeStamp', '--time-stamp'],
+  ['timeStampAt', '--time-stamp-at'],
+  ['tick', '--tick'],
+  ['sampleRate', '--sample-rate'],
+  ['columns', '--columns'],
+  ['timeColumn', '--time-column'],
+  ['keepColumns', '--keep-columns'],
+] as const;
+
+/**
+ * Where the recording's layout came from, for the output's metadata: the channel file's recording
+ * section, the layout options given (named), both, or neither (the defaults).
+ */
+function layoutFrom(
+  options: ConvertArgs['options'],
+  section: RecordingSection | undefined,
+  file: string,
+): string {
+  const given = LAYOUT_OPTIONS.filter(([key]) => options[key] !== undefined).map(([, name]) => name);
+  const line = `command line (${given.join(', ')})`;
+  if (section === undefined) {
+    return given.length === 0 ? 'defaults (no layout option, no recording section)' : line;
+  }
+  return given.length === 0
+    ? `the recording section of ${file}`
+    : `${line} over the recording section of ${file}`;
 }
 
 /**
