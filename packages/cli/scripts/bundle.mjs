@@ -2,10 +2,12 @@
  * Bundles the `bridgework` executable (run by `pnpm build` and before every pack): tsc's
  * dist/bin.js and everything it reaches in this package and the @bridgework/* packages, into
  * dist/bundle/ — bridgework.js (the package's bin), one file per part loaded on demand (each
- * command's body, the output writers) and the Monte Carlo worker. Node then resolves, reads and
- * compiles a few dozen files instead of some three hundred, and no module a command does not use
- * is evaluated; that is most of the command's start-up. The npm dependencies (yaml, apache-arrow,
- * parquet-wasm, decimal.js) stay outside, imported from node_modules as before.
+ * command's body, the output writers) and each worker thread's module (Monte Carlo,
+ * conversion). Node then resolves, reads and compiles a few dozen files instead of some three
+ * hundred, and no module a command does not use is evaluated; that is most of the command's
+ * start-up. This package's own npm dependencies (yaml, apache-arrow, parquet-wasm) stay outside,
+ * imported from node_modules as before; decimal.js, a dependency of the firmware package, is
+ * bundled with its licence comment.
  *
  * Every file of the bundle sits two folders below the package, as each module of dist/internal/
  * does, so the paths the command finds from its own location (the package.json, the demo's
@@ -18,7 +20,8 @@
  */
 import { build } from 'esbuild';
 import { createHash } from 'node:crypto';
-import { existsSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
+import { dirname, join, relative } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 const cli = fileURLToPath(new URL('..', import.meta.url));
@@ -39,15 +42,37 @@ function current() {
   }
 }
 
+/**
+ * The worker threads' modules: each is started from a module next to it
+ * (`new Worker(new URL('./name.js', import.meta.url))`), so each becomes an entry of its own,
+ * written beside the others in dist/bundle/ where that URL then points.
+ */
+function workerEntries() {
+  const entries = {};
+  const visit = (folder) => {
+    for (const e of readdirSync(folder, { withFileTypes: true })) {
+      const path = join(folder, e.name);
+      if (e.isDirectory() && !e.name.startsWith('bundle')) visit(path);
+      else if (e.isFile() && e.name.endsWith('.js')) {
+        for (const m of readFileSync(path, 'utf8').matchAll(/new Worker\(new URL\('\.\/([\w-]+)\.js',/g)) {
+          const worker = relative(cli, join(dirname(path), `${m[1]}.js`));
+          if (entries[m[1]] !== undefined && entries[m[1]] !== worker)
+            throw new Error(`two worker modules are named ${m[1]}.js: ${entries[m[1]]}, ${worker}`);
+          entries[m[1]] = worker;
+        }
+      }
+    }
+  };
+  visit(`${cli}dist`);
+  return entries;
+}
+
 if (!(process.argv.includes('--if-stale') && current())) {
   const out = `dist/bundle-${process.pid}`;
   rmSync(`${cli}${out}`, { recursive: true, force: true });
   const result = await build({
     absWorkingDir: cli,
-    entryPoints: {
-      bridgework: 'dist/bin.js',
-      monteCarloWorker: 'dist/commands/uncertainty/monteCarloWorker.js',
-    },
+    entryPoints: { bridgework: 'dist/bin.js', ...workerEntries() },
     outdir: out,
     chunkNames: '[name]-[hash]',
     bundle: true,

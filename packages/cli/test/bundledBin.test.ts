@@ -8,7 +8,7 @@
  */
 import { spawnSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
-import { mkdirSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
@@ -87,6 +87,24 @@ describe('the bundled executable', () => {
     ).toEqual([]);
   });
 
+  it('holds every worker thread’s module beside the modules that start it', () => {
+    // Workers are started as new Worker(new URL('./name.js', import.meta.url)).
+    const workers = new Set<string>();
+    const visit = (folder: string): void => {
+      for (const e of readdirSync(folder, { withFileTypes: true })) {
+        if (e.isDirectory()) visit(join(folder, e.name));
+        else if (e.name.endsWith('.ts'))
+          for (const m of readFileSync(join(folder, e.name), 'utf8').matchAll(
+            /new Worker\(new URL\('\.\/([\w-]+)\.js'/g,
+          ))
+            workers.add(m[1] as string);
+      }
+    };
+    visit(join(cli, 'src'));
+    expect([...workers].sort()).toEqual(expect.arrayContaining(['conversionWorker', 'monteCarloWorker']));
+    for (const w of workers) expect(existsSync(join(cli, 'dist/bundle', `${w}.js`)), w).toBe(true);
+  });
+
   it.each([
     ['--version', ['--version']],
     ['--help', ['--help']],
@@ -95,6 +113,10 @@ describe('the bundled executable', () => {
     ['convert to CSV (YAML file)', ['convert', 'rig.yaml', 'codes.bin', '-o', 'out.csv']],
     ['convert to Arrow', ['convert', 'rig.json', 'codes.bin', '-o', 'out.arrow']],
     ['convert to Parquet', ['convert', 'rig.json', 'codes.bin', '-o', 'out.parquet']],
+    [
+      'convert in worker threads',
+      ['convert', 'rig.json', 'codes.bin', '--convert-threads', '2', '-o', 'threads.csv'],
+    ],
     ['report', ['report', 'rig.yaml']],
     ['constants', ['constants', 'one.json', '--format', 'c', '--verification', 'sampled', '-o', 'rig.h']],
     ['uncertainty (a worker thread)', ['uncertainty', 'rig.json', '--trials', '20000']],
