@@ -3,6 +3,7 @@ import { isBridgeworkError, type BridgeworkError } from '@bridgework/core';
 import { monteCarlo, type MonteCarloProgress } from '@bridgework/uncertainty';
 import { createMonteCarloPool, monteCarloInWorkers } from '@bridgework/uncertainty/node';
 import {
+  quantisedModel,
   rarelyFailingModel,
   scaledTwelveInputModel,
   throwingModel,
@@ -10,6 +11,7 @@ import {
   twelveInputPositional,
   twelveInputs,
 } from './support/benchModel.js';
+import { intervalRoutes } from '../src/node/counters.js';
 
 const module = new URL('./support/benchModel.ts', import.meta.url);
 
@@ -37,6 +39,128 @@ describe('@bridgework/uncertainty/node: worker threads', () => {
       }
     }
   }, 60_000);
+
+  it('reads the intervals from the tails the workers sorted (one side per worker), bit-identical to one thread', async () => {
+    // The workers copy their tails into two combined arrays and sort one each; the main thread
+    // only walks them. A fallback to the values on the main thread would give the same result, so
+    // the route is counted too (src/node/counters.ts).
+    const options = { inputs: twelveInputs, trials: 300_000, seed: 9 } as const;
+    for (const workers of [1, 2, 3]) {
+      const pool = await createMonteCarloPool({
+        model: { module, exportName: 'twelveInputPositional' },
+        workers,
+      });
+      try {
+        const before = { ...intervalRoutes };
+        for (const coverage of [0.95, 0.99]) {
+          const r = await pool.run({ ...options, coverage });
+          expect(r).toEqual(monteCarlo({ model: twelveInputPositional, ...options, coverage }));
+        }
+        expect(intervalRoutes.fromWorkers - before.fromWorkers).toBe(2);
+        expect(intervalRoutes.onMainThread - before.onMainThread).toBe(0);
+      } finally {
+        await pool.close();
+      }
+    }
+  }, 60_000);
+
+  it('sorts the tails right with heavy ties and with workers that ran no block; a failed, stopped or aborted run leaves the next one exact', async () => {
+    const one = { a: { value: 1, standardUncertainty: 0.1 }, b: { value: 0, standardUncertainty: 0.02 } };
+    const quantised = { inputs: one, trials: 16 * 8192, seed: 4, coverage: 0.99 } as const;
+    // Five workers for eight blocks: some workers run none (or only blocks after block 0).
+    const pool = await createMonteCarloPool({ model: { module, exportName: 'quantisedModel' }, workers: 5 });
+    try {
+      const before = { ...intervalRoutes };
+      for (const seed of [4, 5, 6]) {
+        const r = await pool.run({ ...quantised, seed });
+        expect(r).toEqual(monteCarlo({ model: quantisedModel, ...quantised, seed }));
+      }
+      expect(intervalRoutes.fromWorkers - before.fromWorkers).toBe(3);
+      expect(intervalRoutes.onMainThread - before.onMainThread).toBe(0);
+    } finally {
+      await pool.close();
+    }
+
+    const rare = await createMonteCarloPool({
+      model: { module, exportName: 'rarelyFailingModel' },
+      workers: 2,
+    });
+    const safe = {
+      inputs: { a: { value: 1, standardUncertainty: 0.01 } },
+      trials: 300_000,
+      seed: 8,
+    } as const;
+    const expected = monteCarlo({ model: rarelyFailingModel, ...safe });
+    const exact = async (): Promise<void> => {
+      const before = { ...intervalRoutes };
+      expect(await rare.run(safe)).toEqual(expected);
+      expect(intervalRoutes.fromWorkers - before.fromWorkers).toBe(1);
+      expect(intervalRoutes.onMainThread - before.onMainThread).toBe(0);
+    };
+    try {
+      // A model failing in some blocks (a > 1.4, four standard deviations out), then in block 0
+      // (a > 1.4 at half the trials): the run throws, the next one's tails are exact again.
+      await expect(
+        rare.run({
+          inputs: { a: { value: 1, standardUncertainty: 0.1 } },
+          trials: 1_000_000,
+          compareWithGum: false,
+        }),
+      ).rejects.toMatchObject({ code: 'model-not-finite' });
+      await exact();
+      await expect(
+        rare.run({
+          inputs: { a: { value: 1.4, standardUncertainty: 0.1 } },
+          trials: 1_000_000,
+          compareWithGum: false,
+        }),
+      ).rejects.toMatchObject({ code: 'model-not-finite', message: expect.stringMatching(/at trial \d+ /) });
+      await exact();
+      // Stopped by onProgress and aborted by a signal while the workers draw.
+      const stop = new Error('stopped');
+      await expect(
+        rare.run({
+          ...safe,
+          trials: 5_000_000,
+          onProgress: () => {
+            throw stop;
+          },
+        }),
+      ).rejects.toBe(stop);
+      await exact();
+      const controller = new AbortController();
+      const reason = new Error('aborted');
+      const timer = setTimeout(() => controller.abort(reason), 30);
+      await expect(rare.run({ ...safe, trials: 20_000_000, signal: controller.signal })).rejects.toBe(reason);
+      clearTimeout(timer);
+      await exact();
+    } finally {
+      await rare.close();
+    }
+
+    // A worker thread that ends (the model calls process.exit) breaks the pool with a typed error;
+    // the other worker does not wait for its tails (close() returns).
+    const exiting = await createMonteCarloPool({
+      model: { module, exportName: 'exitingModel', argument: { code: 7 } },
+      workers: 2,
+    });
+    try {
+      await expect(
+        exiting.run({
+          inputs: { a: { value: 1, standardUncertainty: 0.1 } },
+          trials: 1_000_000,
+          compareWithGum: false,
+        }),
+      ).rejects.toMatchObject({
+        code: 'model-failed',
+        param: 'model',
+        message: expect.stringContaining('exit code 7'),
+      });
+      await expect(exiting.run(safe)).rejects.toMatchObject({ code: 'model-failed' });
+    } finally {
+      await exiting.close();
+    }
+  }, 120_000);
 
   it('monteCarloInWorkers runs once and stops its workers; errors from a worker keep their code', async () => {
     const r = await monteCarloInWorkers({

@@ -19,7 +19,7 @@
 import { BridgeworkError, formatValue } from '@bridgework/core';
 import { locateModelError, type ResolvedModel } from './model.js';
 import { fillFrom, fillNormal, type SamplerSpec } from './samplers.js';
-import { acquireRecord, CHUNK_TRIALS } from './trialRecord.js';
+import { acquireRecord, acquireRows, CHUNK_TRIALS, type TrialRows } from './trialRecord.js';
 import { jump64, jump96, stateFromSeed, type GeneratorState } from './xoshiro128.js';
 
 /** Trials per seeding block. */
@@ -119,16 +119,14 @@ export function createBlockRunner(plan: EnginePlan, model: ResolvedModel): Block
   // a positional model gets a fixed view of row t (input j at its place in `order`). Either way
   // nothing is allocated or copied per trial, and the same draws land in the same trials.
   const view = model.kind === 'record' ? acquireRecord(names) : undefined;
+  const rowSet = model.kind === 'positional' ? acquireRows(n) : undefined;
   const record = view?.record;
   const cursor = view?.cursor ?? { row: 0 };
-  const rows = view?.rows ?? new Float64Array(CHUNK_TRIALS * n);
+  const rows = view?.rows ?? (rowSet as TrialRows).rows;
   const places = new Int32Array(n).map((_, j) => j);
   if (model.kind === 'positional') model.positions.forEach((j, i) => (places[j] = i));
   const slots = Array.from(places, (place) => rows.subarray(place));
-  const views =
-    model.kind === 'positional'
-      ? Array.from({ length: CHUNK_TRIALS }, (_, t) => rows.subarray(t * n, t * n + n))
-      : [];
+  const views = rowSet?.views ?? [];
 
   const members = group?.members ?? [];
   const g = members.length;
@@ -240,6 +238,7 @@ export function createBlockRunner(plan: EnginePlan, model: ResolvedModel): Block
     },
     release() {
       if (view !== undefined) view.inUse = false;
+      if (rowSet !== undefined) rowSet.inUse = false;
     },
   };
 }

@@ -45,3 +45,34 @@ export function acquireRecord(names: readonly string[]): TrialRecord {
   }
   return fresh;
 }
+
+/** Rows for a positional model, with one view per trial (input j of trial t at view t, place j). */
+export interface TrialRows {
+  /** CHUNK_TRIALS rows of n values. */
+  readonly rows: Float64Array;
+  /** `views[t]` = rows t·n … t·n + n − 1. */
+  readonly views: readonly Float64Array[];
+  inUse: boolean;
+}
+
+const rowSets = new Map<number, TrialRows>();
+
+/**
+ * Rows and per-trial views for n inputs, from the cache unless that one is in use (so a run does
+ * not allocate 2048 views and 16n KB again); give it back by setting `inUse = false`.
+ */
+export function acquireRows(n: number): TrialRows {
+  const cached = rowSets.get(n);
+  if (cached !== undefined && !cached.inUse) {
+    cached.inUse = true;
+    return cached;
+  }
+  const rows = new Float64Array(CHUNK_TRIALS * n);
+  const views = Array.from({ length: CHUNK_TRIALS }, (_, t) => rows.subarray(t * n, t * n + n));
+  const fresh: TrialRows = { rows, views, inUse: true };
+  if (cached === undefined) {
+    if (rowSets.size >= 32) rowSets.delete(rowSets.keys().next().value as number);
+    rowSets.set(n, fresh);
+  }
+  return fresh;
+}

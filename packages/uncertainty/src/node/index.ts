@@ -34,6 +34,7 @@ import {
 } from '../monteCarlo.js';
 import type { Propagation } from '../propagate.js';
 import type { MeasurementModel } from '../types.js';
+import { intervalRoutes } from './counters.js';
 import { loadModelExport } from './loadModel.js';
 import { CONTROL, type TransferredError, type WorkerMessage, type WorkerReply } from './protocol.js';
 
@@ -188,9 +189,11 @@ function workerStopped(detail: string): BridgeworkError {
  * Each worker imports the model module once (and, with `model.argument`, makes the model from
  * it). A run uses the procedure of `monteCarlo` unchanged: the main thread checks the options and
  * plans the seeding blocks; the workers claim blocks from a shared counter and write model
- * values and block statistics into shared memory, and in a fixed run collect and sort the
- * coverage-interval tails of their blocks (thresholds from block 0); the main thread merges the
- * block statistics in block order and the sorted tails by value. The shared buffers are kept
+ * values and block statistics into shared memory, and in a fixed run collect the
+ * coverage-interval tails of their blocks (thresholds from block 0), copy them into two combined
+ * arrays after their last block and, once all have, sort the lower and the upper one on two
+ * workers at once; the main thread merges the block statistics in block order and reads the
+ * intervals from the two sorted tails. The shared buffers are kept
  * between runs while each is at most 64 MB, until `close()`. Every block's values depend only on the seed
  * and the block's index (see `monteCarlo`), so the result is bit-identical to `monteCarlo` in one
  * thread, whatever the number of workers. When the model fails, blocks after the failing one are
@@ -338,8 +341,9 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
 
   /**
    * Runs the blocks of a request on every worker (they claim blocks from a shared counter). For a
-   * fixed run the workers also collect the coverage-interval tails of their blocks, sorted, with
-   * thresholds from block 0, so the intervals need no second pass over the values.
+   * fixed run the workers also collect the coverage-interval tails of their blocks, with
+   * thresholds from block 0, and sort them combined (one side per worker), so the intervals need
+   * no second pass over the values and no merge on this thread.
    */
   async function runBlocks(
     plan: EnginePlan,
@@ -364,14 +368,33 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
     const buffers = workers.map((_, w) =>
       wantTails ? { low: shared(`low${w}`, 8 * room), high: shared(`high${w}`, 8 * room) } : undefined,
     );
-    const messages: WorkerMessage[] = buffers.map((b) => ({
+    // The combined tails: every worker copies its own in; worker 0 sorts the lower, worker 1 the
+    // upper (a single worker both), in parallel, so this thread walks two sorted arrays.
+    const combined = Math.min(m, room * workers.length);
+    const allLow = wantTails ? shared('allLow', 8 * combined) : undefined;
+    const allHigh = wantTails ? shared('allHigh', 8 * combined) : undefined;
+    const sorts = (w: number): 0 | 1 | 2 | 3 => (workers.length === 1 ? 3 : w === 0 ? 1 : w === 1 ? 2 : 0);
+    const messages: WorkerMessage[] = buffers.map((b, w) => ({
       type: 'run',
       plan,
       ...request,
       values,
       stats,
       control,
-      tails: b === undefined ? undefined : { trials: m, candidates, thresholds, low: b.low, high: b.high },
+      tails:
+        b === undefined
+          ? undefined
+          : {
+              trials: m,
+              candidates,
+              thresholds,
+              low: b.low,
+              high: b.high,
+              allLow: allLow as SharedArrayBuffer,
+              allHigh: allHigh as SharedArrayBuffer,
+              workers: workers.length,
+              sorts: sorts(w),
+            },
     }));
     // A throw from onProgress or an aborted signal abandons the run: no further block is started.
     let stopError: { error: unknown } | undefined;
@@ -403,6 +426,10 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
     let replies: WorkerReply[];
     try {
       replies = await broadcast(messages);
+    } catch (error) {
+      // A worker failed or stopped: the others stop claiming blocks and waiting for it.
+      Atomics.store(slots, CONTROL.failed, -1);
+      throw error;
     } finally {
       if (timer !== undefined) clearInterval(timer);
       if (watcher !== undefined) clearInterval(watcher);
@@ -411,16 +438,12 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
     if (stopError !== undefined) throw stopError.error;
     const result = new Float64Array(values, 0, m);
     collected = undefined;
-    const counts = replies.map((r) => (r.type === 'done' ? r : { low: -1, high: -1 }));
-    if (wantTails && counts.every((c) => c.low >= 0)) {
+    const sorted = replies.every((r, w) => r.type === 'done' && (r.tails || sorts(w) === 0));
+    if (wantTails && sorted && Atomics.load(slots, CONTROL.tailsLost) === 0) {
       collected = {
         values: result,
-        lows: counts.map(
-          (c, w) => new Float64Array((buffers[w] as { low: SharedArrayBuffer }).low, 0, c.low),
-        ),
-        highs: counts.map(
-          (c, w) => new Float64Array((buffers[w] as { high: SharedArrayBuffer }).high, 0, c.high),
-        ),
+        lows: [new Float64Array(allLow as SharedArrayBuffer, 0, Atomics.load(slots, CONTROL.lowFill))],
+        highs: [new Float64Array(allHigh as SharedArrayBuffer, 0, Atomics.load(slots, CONTROL.highFill))],
       };
     }
     return { values: result, stats: new Float64Array(stats, 0, 2 * request.blockCount) };
@@ -436,8 +459,12 @@ export async function createMonteCarloPool(options: MonteCarloPoolOptions): Prom
     collected = undefined;
     if (tails !== undefined && tails.values === values) {
       const r = intervalsFromSortedParts(tails.lows, tails.highs, coverage, values.length);
-      if (r !== undefined) return r;
+      if (r !== undefined) {
+        intervalRoutes.fromWorkers++;
+        return r;
+      }
     }
+    intervalRoutes.onMainThread++;
     return sampleIntervalsInPlace(values, coverage);
   }
 

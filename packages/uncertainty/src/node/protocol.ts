@@ -12,8 +12,16 @@ export const CONTROL = {
   done: 2,
   /** Tail thresholds: 0 while block 0 is not done, 1 when they are in place, 2 when there are none. */
   ready: 3,
+  /** Workers done with their blocks (each counts once per run, whether it succeeded or failed). */
+  arrived: 4,
+  /** Values copied into the combined lower tail so far (the next free index). */
+  lowFill: 5,
+  /** Values copied into the combined upper tail so far. */
+  highFill: 6,
+  /** 1 once any worker could not collect its tails (the intervals are then computed on the main thread). */
+  tailsLost: 7,
   /** Number of slots. */
-  length: 4,
+  length: 8,
 } as const;
 
 /** Where a worker collects the coverage-interval tails of the blocks it runs. */
@@ -27,6 +35,17 @@ export interface TailBuffers {
   /** This worker's shared Float64 buffers for the two tails (room for every value of the request). */
   readonly low: SharedArrayBuffer;
   readonly high: SharedArrayBuffer;
+  /**
+   * The combined tails of all workers, shared Float64: each worker copies its tails in after its
+   * last block, and once every worker has, one worker sorts the lower tail and another the upper
+   * (the only one sorts both), in parallel, so the main thread reads two sorted arrays.
+   */
+  readonly allLow: SharedArrayBuffer;
+  readonly allHigh: SharedArrayBuffer;
+  /** Number of workers taking part in the run. */
+  readonly workers: number;
+  /** Which sides this worker sorts: 0 none, 1 the lower tail, 2 the upper, 3 both. */
+  readonly sorts: 0 | 1 | 2 | 3;
 }
 
 /** Main thread → worker. */
@@ -74,8 +93,7 @@ export type WorkerReply =
   | { readonly type: 'loaded' }
   | {
       readonly type: 'done';
-      /** Values in this worker's sorted tails, or −1 when they could not be collected. */
-      readonly low: number;
-      readonly high: number;
+      /** Whether the combined tails this worker sorted (if any) are in place: false when they could not be collected. */
+      readonly tails: boolean;
     }
   | TransferredError;

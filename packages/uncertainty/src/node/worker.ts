@@ -116,24 +116,64 @@ class TailCollector {
     else if (ready === 1) this.extract(from, to);
   }
 
-  /** The sorted tails' lengths after the last block, or −1 when they could not be collected. */
-  finish(): { low: number; high: number } {
+  /**
+   * After the last block: takes the blocks that waited for block 0's thresholds, then copies this
+   * worker's tails into the combined buffers (or marks the tails lost when they could not be
+   * collected or do not fit).
+   */
+  contribute(): void {
+    const control = this.control;
+    // A worker that collected nothing has nothing to add, whether or not block 0 is done yet
+    // (unless block 0 gave no thresholds: then the tails are lost for every worker).
+    const empty = this.pending.length === 0 && this.nl === 0 && this.nh === 0;
+    if (empty && !this.failed && Atomics.load(control, CONTROL.ready) !== 2) return;
     if (this.pending.length > 0) {
       // Block 0 is being run by another worker: wait for it (a failure anywhere ends the wait).
-      while (
-        Atomics.load(this.control, CONTROL.ready) === 0 &&
-        Atomics.load(this.control, CONTROL.failed) >= 0
-      ) {
-        Atomics.wait(this.control, CONTROL.ready, 0, 20);
+      while (Atomics.load(control, CONTROL.ready) === 0 && Atomics.load(control, CONTROL.failed) >= 0) {
+        Atomics.wait(control, CONTROL.ready, 0, 20);
       }
-      if (Atomics.load(this.control, CONTROL.ready) === 1) {
+      if (Atomics.load(control, CONTROL.ready) === 1) {
         for (let k = 0; k < this.pending.length; k += 2) this.extract(this.pending[k]!, this.pending[k + 1]!);
       } else this.failed = true;
     }
-    if (this.failed || Atomics.load(this.control, CONTROL.ready) !== 1) return { low: -1, high: -1 };
-    sortTailPart(this.low.subarray(0, this.nl));
-    sortTailPart(this.high.subarray(0, this.nh));
-    return { low: this.nl, high: this.nh };
+    if (this.failed || Atomics.load(control, CONTROL.ready) !== 1) {
+      Atomics.store(control, CONTROL.tailsLost, 1);
+      return;
+    }
+    const allLow = new Float64Array(this.buffers.allLow);
+    const allHigh = new Float64Array(this.buffers.allHigh);
+    const lowAt = Atomics.add(control, CONTROL.lowFill, this.nl);
+    const highAt = Atomics.add(control, CONTROL.highFill, this.nh);
+    if (lowAt + this.nl > allLow.length || highAt + this.nh > allHigh.length) {
+      Atomics.store(control, CONTROL.tailsLost, 1);
+      return;
+    }
+    allLow.set(this.low.subarray(0, this.nl), lowAt);
+    allHigh.set(this.high.subarray(0, this.nh), highAt);
+  }
+
+  /**
+   * Once every worker has arrived (see `run`), sorts the combined side(s) this worker is given;
+   * false when the tails were lost or the run was stopped before every worker arrived.
+   */
+  sortSides(): boolean {
+    const { control, buffers } = this;
+    if (buffers.sorts === 0) return true;
+    for (;;) {
+      const arrived = Atomics.load(control, CONTROL.arrived);
+      if (arrived >= buffers.workers || Atomics.load(control, CONTROL.failed) < 0) break;
+      Atomics.wait(control, CONTROL.arrived, arrived, 20);
+    }
+    if (
+      Atomics.load(control, CONTROL.arrived) < buffers.workers ||
+      Atomics.load(control, CONTROL.tailsLost) !== 0
+    )
+      return false;
+    if ((buffers.sorts & 1) !== 0)
+      sortTailPart(new Float64Array(buffers.allLow, 0, Atomics.load(control, CONTROL.lowFill)));
+    if ((buffers.sorts & 2) !== 0)
+      sortTailPart(new Float64Array(buffers.allHigh, 0, Atomics.load(control, CONTROL.highFill)));
+    return true;
   }
 
   private extract(from: number, to: number): void {
@@ -151,38 +191,56 @@ class TailCollector {
 }
 
 function run(message: Extract<WorkerMessage, { type: 'run' }>): WorkerReply {
-  const runner = createBlockRunner(message.plan, resolveModel(model, message.plan.names));
-  const values = new Float64Array(message.values);
-  const stats = new Float64Array(message.stats);
   const control = new Int32Array(message.control);
-  const tails = message.tails === undefined ? undefined : new TailCollector(message.tails, control, values);
+  // Every worker arrives exactly once per run, whatever happens, so a sorting worker never waits
+  // for one that is gone.
+  let arrived = false;
+  let contributed = false;
+  const arrive = (): void => {
+    if (arrived) return;
+    arrived = true;
+    // A worker leaving without its tails (a failure) leaves the combined tails incomplete.
+    if (message.tails !== undefined && !contributed) Atomics.store(control, CONTROL.tailsLost, 1);
+    Atomics.add(control, CONTROL.arrived, 1);
+    Atomics.notify(control, CONTROL.arrived);
+  };
   try {
-    for (;;) {
-      const b = Atomics.add(control, CONTROL.next, 1);
-      // Blocks are claimed in increasing order, so every block below a failed one is run.
-      if (b >= message.blockCount || b > Atomics.load(control, CONTROL.failed)) {
-        if (b === 0) tails?.abandonOr(2);
-        break;
+    const runner = createBlockRunner(message.plan, resolveModel(model, message.plan.names));
+    const values = new Float64Array(message.values);
+    const stats = new Float64Array(message.stats);
+    const tails = message.tails === undefined ? undefined : new TailCollector(message.tails, control, values);
+    try {
+      for (;;) {
+        const b = Atomics.add(control, CONTROL.next, 1);
+        // Blocks are claimed in increasing order, so every block below a failed one is run.
+        if (b >= message.blockCount || b > Atomics.load(control, CONTROL.failed)) {
+          if (b === 0) tails?.abandonOr(2);
+          break;
+        }
+        const count = Math.min(BLOCK_TRIALS, message.trials - b * BLOCK_TRIALS);
+        try {
+          runner.runBlock(message.firstBlock + b, count, values, b * BLOCK_TRIALS, stats, b);
+        } catch (error) {
+          recordFailure(control, b);
+          if (b === 0) tails?.abandonOr(2);
+          return failure(error, runner.failedTrial >= 0 ? runner.failedTrial : undefined);
+        }
+        Atomics.add(control, CONTROL.done, count);
+        if (tails !== undefined) {
+          if (b === 0) tails.publish(count);
+          tails.add(b * BLOCK_TRIALS, b * BLOCK_TRIALS + count);
+        }
       }
-      const count = Math.min(BLOCK_TRIALS, message.trials - b * BLOCK_TRIALS);
-      try {
-        runner.runBlock(message.firstBlock + b, count, values, b * BLOCK_TRIALS, stats, b);
-      } catch (error) {
-        recordFailure(control, b);
-        if (b === 0) tails?.abandonOr(2);
-        return failure(error, runner.failedTrial >= 0 ? runner.failedTrial : undefined);
-      }
-      Atomics.add(control, CONTROL.done, count);
-      if (tails !== undefined) {
-        if (b === 0) tails.publish(count);
-        tails.add(b * BLOCK_TRIALS, b * BLOCK_TRIALS + count);
-      }
+    } finally {
+      runner.release();
     }
+    tails?.contribute();
+    contributed = true;
+    arrive();
+    return { type: 'done', tails: tails?.sortSides() ?? false };
   } finally {
-    runner.release();
+    arrive();
   }
-  const counts = tails?.finish() ?? { low: -1, high: -1 };
-  return { type: 'done', ...counts };
 }
 
 port.on('message', (message: WorkerMessage) => {

@@ -64,3 +64,36 @@ export function throwingModel(x: Readonly<Record<string, number>>): number {
   if ((x['a'] as number) > 1.4) throw new RangeError('a is past what this model takes');
   return x['a'] as number;
 }
+
+/** A non-linear model of a correlated normal pair, a Student-t input and a triangular one. */
+export function correlatedModel(x: Readonly<Record<string, number>>): number {
+  return ((x['a'] as number) * (x['b'] as number)) / (1 + (x['c'] as number) ** 2) + (x['d'] as number);
+}
+
+/** The inputs of {@link correlatedModel} (a and b correlated by {@link correlatedPairs}). */
+export const correlatedInputs = {
+  a: { value: 2, standardUncertainty: 0.2 },
+  b: { value: -1, standardUncertainty: 0.1 },
+  c: { value: 0.5, distribution: 't', scale: 0.05, degreesOfFreedom: 5 },
+  d: { value: 1, distribution: 'triangular', halfWidth: 0.3 },
+} as const;
+
+/** a and b correlated at −0.6. */
+export const correlatedPairs = [{ between: ['a', 'b'], coefficient: -0.6 }] as const;
+
+/** a rounded to a grid of 0.05 plus b to 0.01: the values tie in runs of thousands at the interval ends. */
+export function quantisedModel(x: Readonly<Record<string, number>>): number {
+  return Math.round((x['a'] as number) * 20) / 20 + Math.round((x['b'] as number) * 100) / 100;
+}
+
+/**
+ * A factory (for `model.argument`) of a model that ends its thread with `process.exit(code)` where
+ * a > 1.4 (for the pool's path of a worker that stops). Only ever run in a pool's worker: the
+ * pool's main thread evaluates it at the estimates only, a = 1.
+ */
+export function exitingModel(argument: { code: number }): (x: Readonly<Record<string, number>>) => number {
+  return (x) => {
+    if ((x['a'] as number) > 1.4) process.exit(argument.code);
+    return x['a'] as number;
+  };
+}

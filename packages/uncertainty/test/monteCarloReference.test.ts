@@ -1,0 +1,45 @@
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { monteCarlo } from '@bridgework/uncertainty';
+import { createMonteCarloPool } from '@bridgework/uncertainty/node';
+import { digest, referenceCases } from './fixtures/monteCarlo/cases.js';
+import { intervalRoutes } from '../src/node/counters.js';
+
+// Digests written by the code before the pool's serial part shrank and before the trial record
+// changed (fixtures/monteCarlo/record.ts, main at 087706c): the values and every reported
+// figure must stay bit for bit what they were, in one thread and in the pool alike.
+const reference = JSON.parse(
+  readFileSync(new URL('./fixtures/monteCarlo/reference.json', import.meta.url), 'utf8'),
+) as Record<string, { result: unknown; values: string }>;
+const module = new URL('./support/benchModel.ts', import.meta.url);
+
+describe('Monte Carlo: bit for bit the results of the earlier code (fixed seeds)', () => {
+  it('has a reference for every case', () => {
+    expect(Object.keys(reference).sort()).toEqual(referenceCases.map((c) => c.name).sort());
+  });
+
+  for (const c of referenceCases) {
+    it(`${c.name}: one thread and pools of 1, 2 and 3 workers`, async () => {
+      const want = reference[c.name]!;
+      const { values, ...rest } = monteCarlo({ ...c.options, model: c.model, returnValues: true });
+      expect(digest(values!)).toBe(want.values);
+      expect(JSON.parse(JSON.stringify(rest))).toEqual(want.result);
+      for (const workers of [1, 2, 3]) {
+        const pool = await createMonteCarloPool({ model: { module, exportName: c.exportName }, workers });
+        try {
+          const before = { ...intervalRoutes };
+          const { values: pv, ...prest } = await pool.run({ ...c.options, returnValues: true });
+          expect(digest(pv!)).toBe(want.values);
+          expect(JSON.parse(JSON.stringify(prest))).toEqual(want.result);
+          // A fixed run of 16·8192 trials or more reads its intervals from the workers' sorted
+          // tails; an adaptive run computes them on this thread.
+          const fixed = c.options.adaptive === undefined;
+          expect(intervalRoutes.fromWorkers - before.fromWorkers).toBe(fixed ? 1 : 0);
+          expect(intervalRoutes.onMainThread - before.onMainThread > 0).toBe(!fixed);
+        } finally {
+          await pool.close();
+        }
+      }
+    }, 60_000);
+  }
+});
