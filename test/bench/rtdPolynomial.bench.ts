@@ -1,6 +1,6 @@
 /**
  * RTD conversion (issue 19 item 4): the opt-in checked polynomial
- * (`@bridgework/channel/rtd-polynomial`) against `channel.convert` (the exact loop, bit-identical
+ * (`@bridgework/channel/rtd-polynomial`; its WebAssembly loop, the default, and its JavaScript loop) against `channel.convert` (the exact loop, bit-identical
  * to the scalar path) and the plain affine loop a developer would write, on 10⁶ random codes of
  * the channel benchmark's Pt100 at gain 8, spread over every convertible code and, separately,
  * over codes above 0 °C only (where the exact loop needs no Newton step); °C and K. Built
@@ -58,6 +58,8 @@ reportBaselineCheck(
 for (const unit of ['°C', 'K'] as const) {
   const channel = createChannel({ ...pt100, output: { quantity: 'temperature', unit } });
   const polynomial = createRtdPolynomialConverter(channel);
+  const javascript = createRtdPolynomialConverter(channel, { loop: 'javascript' });
+  if (polynomial.loop !== 'webassembly') throw new Error('this runtime did not compile the WebAssembly loop');
   for (const [what, ins] of [
     ['every convertible code', every],
     ['codes above 0 °C only', [codes(5, 2_000_000, 6_000_000), codes(6, 2_000_000, 6_000_000)]],
@@ -66,6 +68,8 @@ for (const unit of ['°C', 'K'] as const) {
     polynomial.convert(ins[0]!, outs[0]!); // checks every segment it meets, once
     polynomial.convert(ins[1]!, outs[1]!);
     const first = performance.now() - t0;
+    javascript.convert(ins[0]!, outs[0]!); // its own table, checked the same way
+    javascript.convert(ins[1]!, outs[1]!);
     const results = compare(
       [
         {
@@ -74,10 +78,16 @@ for (const unit of ['°C', 'K'] as const) {
           run: (call) => affine(ins[call % 2]!, outs[call % 2]!, 1.5e-5, 3),
         },
         {
-          name: 'RTD polynomial (rtd-polynomial)',
+          name: 'RTD polynomial, WebAssembly loop',
           opsPerCall: M,
           run: (call) =>
             polynomial.convert(ins[call % 2]!, outs[call % 2]!).status.rejected + outs[call % 2]![7]!,
+        },
+        {
+          name: 'RTD polynomial, JavaScript loop',
+          opsPerCall: M,
+          run: (call) =>
+            javascript.convert(ins[call % 2]!, outs[call % 2]!).status.rejected + outs[call % 2]![7]!,
         },
         {
           name: 'channel.convert (exact loop)',
@@ -91,7 +101,7 @@ for (const unit of ['°C', 'K'] as const) {
     report(`Pt100 in ${unit}, 10⁶ random codes, ${what}`, results);
     const s = polynomial.segments();
     console.log(
-      `  polynomial ${(1e3 / results[1]!.nsPerOp).toFixed(1)} million samples/s, channel.convert ${(1e3 / results[2]!.nsPerOp).toFixed(1)}; first calls (checks) ${first.toFixed(0)} ms; segments ${s.checked} checked, ${s.exact} exact of ${s.total}`,
+      `  polynomial ${(1e3 / results[1]!.nsPerOp).toFixed(1)} million samples/s (JavaScript loop ${(1e3 / results[2]!.nsPerOp).toFixed(1)}), channel.convert ${(1e3 / results[3]!.nsPerOp).toFixed(1)}; first calls (checks) ${first.toFixed(0)} ms; segments ${s.checked} checked, ${s.exact} exact of ${s.total}`,
     );
   }
 }

@@ -6,7 +6,7 @@
  *
  * @module rtd-polynomial
  */
-import { BridgeworkError, checkOptions } from '@bridgework/core';
+import { BridgeworkError, checkOneOf, checkOptions } from '@bridgework/core';
 import type { Channel, CodeBuffer } from './Channel.js';
 import {
   newTally,
@@ -23,6 +23,7 @@ import {
   createRtdPolynomial,
   type RtdPolynomialPath,
 } from './convert/rtdPolynomial.js';
+import { instantiateRtdPolynomialWasm } from './convert/wasm/rtdPolynomialLoop.js';
 import { checkConvertOptions } from './internal/convertOptions.js';
 import { channelInternals } from './internal/makeChannel.js';
 
@@ -41,10 +42,15 @@ export interface RtdPolynomialSegments {
   readonly codesPerSegment: number;
 }
 
+/** Which loop evaluates the polynomial on Int32 codes (the results are the same, bit for bit). */
+export type RtdPolynomialLoop = 'webassembly' | 'javascript';
+
 /** A channel's conversion through the checked RTD polynomial (see {@link createRtdPolynomialConverter}). */
 export interface RtdPolynomialConverter {
   /** The channel it converts for. */
   readonly channel: Channel;
+  /** The loop that serves contiguous Int32 codes (see {@link RtdPolynomialConverterOptions.loop}). */
+  readonly loop: RtdPolynomialLoop;
   /**
    * Converts a buffer of codes as `channel.convert` does — same arguments, same NaN (and counts and
    * locations) for codes at the rails or outside what the sensor can produce, same `onInvalid` —
@@ -71,6 +77,14 @@ export interface RtdPolynomialConverterOptions {
    * first time a conversion meets one of its codes. Default false.
    */
   readonly checkAllSegments?: boolean;
+  /**
+   * The loop for contiguous Int32 codes: `'webassembly'` (a 350-byte module compiled at creation,
+   * the same expression in binary64 without the bounds checks of a JavaScript array access, about
+   * 1.6× faster) or `'javascript'`; both give the same values bit for bit. Default: WebAssembly
+   * where the runtime has it and allows compiling it (a content security policy without
+   * `'wasm-unsafe-eval'` does not), else JavaScript.
+   */
+  readonly loop?: RtdPolynomialLoop;
 }
 
 /**
@@ -90,18 +104,22 @@ export interface RtdPolynomialConverterOptions {
  * meets a code of the segment (a few ms per segment; a whole 24-bit range 0.3–1.8 s, once per
  * converter); a segment that fails it, and fractional codes, take the exact loop of
  * `channel.convert`. Per sample: a table look-up and eleven multiply-adds, no division or square
- * root — 2–2.5× the exact loop's throughput (docs/performance.md). The exact loop (and so
+ * root, in a 350-byte WebAssembly module for contiguous Int32 codes (the JavaScript loop where the
+ * runtime has no WebAssembly; the same values bit for bit) — about 2–4× the exact loop's
+ * throughput, 1.8–2.6× the plain affine loop's time (docs/performance.md). The exact loop (and so
  * `channel.convert`) is bit-identical to the channel's scalar path, which is itself up to about 35
  * ulp from the exact composition between 10 and 100 °C (R/R0 − 1 cancels): the polynomial is
  * closer to the exact value than the default path, but not bit-identical to it.
  *
  * @param channel - A channel made by `createChannel` with an IEC 60751 RTD curve.
- * @param options - Whether to check every segment at creation (see {@link RtdPolynomialConverterOptions}).
+ * @param options - Whether to check every segment at creation, and which loop serves (see
+ *   {@link RtdPolynomialConverterOptions}).
  * @returns The converter.
  * @throws {@link @bridgework/core!BridgeworkError} `wrong-type` for something other than a channel;
  *   `invalid-option` for a channel without an RTD curve (its `convert` is the path);
  *   `unknown-option` for a key it does not know; `wrong-type` for a `checkAllSegments` that is
- *   not a boolean.
+ *   not a boolean, or for `loop: 'webassembly'` where the runtime has no WebAssembly (or refuses
+ *   to compile it); `invalid-option` for another `loop`.
  * @example
  * ```ts
  * import { createRtdPolynomialConverter } from '@bridgework/channel/rtd-polynomial';
@@ -113,7 +131,11 @@ export function createRtdPolynomialConverter(
   channel: Channel,
   options: RtdPolynomialConverterOptions = {},
 ): RtdPolynomialConverter {
-  const o = checkOptions('options', options, { known: ['checkAllSegments'] });
+  const o = checkOptions('options', options, { known: ['checkAllSegments', 'loop'] });
+  const wanted =
+    o['loop'] === undefined
+      ? undefined
+      : checkOneOf('options.loop', o['loop'], ['webassembly', 'javascript']);
   const checkAll = o['checkAllSegments'] ?? false;
   if (typeof checkAll !== 'boolean') {
     throw new BridgeworkError('wrong-type', '`options.checkAllSegments` must be true or false', {
@@ -127,9 +149,18 @@ export function createRtdPolynomialConverter(
     let p = cache.get(k);
     if (p === undefined) {
       const { ra, rb, rc, rd, lo, hi, minOhms, maxOhms } = k;
+      const wasm = wanted === 'javascript' ? undefined : instantiateRtdPolynomialWasm();
+      if (wasm === undefined && wanted === 'webassembly') {
+        throw new BridgeworkError(
+          'wrong-type',
+          "this runtime has no WebAssembly, or does not allow compiling it: use `loop: 'javascript'` (the same values)",
+          { param: 'options.loop', value: wanted },
+        );
+      }
       p = {
         kernel: k,
-        polynomial: createRtdPolynomial(k),
+        polynomial: createRtdPolynomial(k, wasm?.table),
+        wasm,
         // The scalar path's acceptance of a code: valid, and its resistance inside the curve's range.
         convertible: (x: number) => {
           if (!(x > lo && x < hi)) return false;
@@ -190,5 +221,6 @@ export function createRtdPolynomialConverter(
         };
   }
 
-  return Object.freeze({ channel, convert, segments });
+  const loop: RtdPolynomialLoop = nominalPrepared.wasm === undefined ? 'javascript' : 'webassembly';
+  return Object.freeze({ channel, loop, convert, segments });
 }

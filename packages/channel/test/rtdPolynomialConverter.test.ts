@@ -10,6 +10,11 @@
  * cancels), so the polynomial is held to the exact value computed in higher precision instead, and
  * its distance from `channel.convert` is that path's own error plus 1 ulp.
  */
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { createChannel, type Channel, type ChannelSpec } from '@bridgework/channel';
@@ -22,6 +27,8 @@ import {
   segmentValue,
   STRIDE,
 } from '../src/convert/rtdPolynomial.js';
+import { instantiateRtdPolynomialWasm } from '../src/convert/wasm/rtdPolynomialLoop.js';
+import { rtdPolynomialWasmBytes } from '../src/convert/wasm/rtdPolynomialWasm.js';
 import { channelInternals } from '../src/internal/makeChannel.js';
 import { rtdExact, ulp } from './support/doubleDouble.js';
 import { cvdTemperature, X } from './support/reference.js';
@@ -54,12 +61,14 @@ const curveOf = (ch: Channel) => {
 };
 
 /** The channel's polynomial path, as the converter builds it (for the tests that reach inside). */
-function pathOf(ch: Channel) {
+function pathOf(ch: Channel, loop: 'webassembly' | 'javascript' = 'javascript') {
   const kernel = channelInternals(ch).mappingAt(undefined).resistanceCurve!.kernel!;
   const { ra, rb, rc, rd, lo, hi, minOhms, maxOhms } = kernel;
+  const wasm = loop === 'webassembly' ? instantiateRtdPolynomialWasm()! : undefined;
   return {
     kernel,
-    polynomial: createRtdPolynomial(kernel),
+    polynomial: createRtdPolynomial(kernel, wasm?.table),
+    wasm,
     convertible: (x: number) => {
       if (!(x > lo && x < hi)) return false;
       const ohms = (ra * x + rb) / (rc * x + rd);
@@ -146,23 +155,82 @@ describe('the RTD polynomial converter (@bridgework/channel/rtd-polynomial)', ()
     }
   });
 
-  it('the loop evaluates exactly the checked expression (segmentValue), sample for sample', () => {
-    const ch = createChannel(pt100);
-    const path = pathOf(ch);
-    const p = path.polynomial!;
-    const codes = Int32Array.from({ length: 20_000 }, (_, i) => -8_300_000 + i * 829 + (i % 13));
-    const out = new Float64Array(codes.length);
-    convertRtdPolynomial(codes, out, path, new RejectTally(8, RAIL_LOW, RAIL_HIGH), codes.length);
-    let served = 0;
-    for (let i = 0; i < codes.length; i++) {
-      const x = codes[i]!;
-      const s = (x - p.base) >>> p.shift;
-      if (p.states[s] !== SEGMENT.CHECKED) continue;
-      served++;
-      const want = segmentValue(p.table, s * STRIDE, ((x - p.base) & p.offsetMask) - p.half);
-      if (!Object.is(out[i], want)) expect([x, out[i]]).toEqual([x, want]);
+  it.each(['javascript', 'webassembly'] as const)(
+    'the %s loop evaluates exactly the checked expression (segmentValue), sample for sample',
+    (loop) => {
+      const ch = createChannel(pt100);
+      const path = pathOf(ch, loop);
+      const p = path.polynomial!;
+      const codes = Int32Array.from({ length: 20_000 }, (_, i) => -8_300_000 + i * 829 + (i % 13));
+      const out = new Float64Array(codes.length);
+      convertRtdPolynomial(codes, out, path, new RejectTally(8, RAIL_LOW, RAIL_HIGH), codes.length);
+      let served = 0;
+      for (let i = 0; i < codes.length; i++) {
+        const x = codes[i]!;
+        const s = (x - p.base) >>> p.shift;
+        if (p.states[s] !== SEGMENT.CHECKED) continue;
+        served++;
+        const want = segmentValue(p.table, s * STRIDE, ((x - p.base) & p.offsetMask) - p.half);
+        if (!Object.is(out[i], want)) expect([x, out[i]]).toEqual([x, want]);
+      }
+      expect(served).toBeGreaterThan(19_000);
+    },
+  );
+
+  it('the WebAssembly module shipped is its source assembled by wat2wasm (WABT), byte for byte', () => {
+    // `.ci/run` installs Debian's wabt; without it this check cannot run and fails.
+    const source = fileURLToPath(new URL('../src/convert/wasm/rtdPolynomial.wat', import.meta.url));
+    const dir = mkdtempSync(join(tmpdir(), 'bridgework-wasm-'));
+    try {
+      const target = join(dir, 'rtdPolynomial.wasm');
+      execFileSync('wat2wasm', [source, '-o', target]);
+      expect(Buffer.from(rtdPolynomialWasmBytes()).equals(readFileSync(target))).toBe(true);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
     }
-    expect(served).toBeGreaterThan(19_000);
+  });
+
+  it('the WebAssembly and JavaScript loops agree bit for bit, statuses included, across rails, impossible codes and chunk edges', () => {
+    const ch = createChannel({ ...pt100, amplifier: { gain: 1 } }); // codes past 850 °C inside the rails
+    const wasm = createRtdPolynomialConverter(ch);
+    const js = createRtdPolynomialConverter(ch, { loop: 'javascript' });
+    expect([wasm.loop, js.loop]).toEqual(['webassembly', 'javascript']);
+    const lo = Math.floor(ch.validCodes.min) + 1;
+    const hi = Math.ceil(ch.validCodes.max) - 1;
+    fc.assert(
+      fc.property(
+        fc.array(
+          fc.oneof(
+            { weight: 12, arbitrary: fc.integer({ min: lo, max: hi }) },
+            { weight: 1, arbitrary: fc.integer({ min: -(2 ** 31), max: 2 ** 31 - 1 }) },
+            { weight: 1, arbitrary: fc.constantFrom(RAIL_LOW, RAIL_HIGH, lo - 1, hi + 1, lo, hi, 0) },
+          ),
+          { maxLength: 40_000 },
+        ),
+        (list) => {
+          const codes = Int32Array.from(list);
+          const a = wasm.convert(codes, undefined, { maxLocations: 64 });
+          const b = js.convert(codes, undefined, { maxLocations: 64 });
+          for (let i = 0; i < codes.length; i++)
+            if (!Object.is(a.values[i], b.values[i]))
+              expect([codes[i], a.values[i]]).toEqual([codes[i], b.values[i]]);
+          expect(counts(a.status)).toEqual(counts(b.status));
+          expect(counts(a.status)).toEqual(counts(ch.convert(codes, undefined, { maxLocations: 64 }).status));
+        },
+      ),
+      { numRuns: 25 },
+    );
+    // Rejections at the edges of the 16 384-code chunks and of the 256-code blocks.
+    const n = 50_001;
+    const codes = Int32Array.from({ length: n }, (_, i) => lo + ((i * 7919) % (hi - lo)));
+    for (const i of [0, 255, 256, 16_383, 16_384, 32_767, 32_768, 49_152, n - 1])
+      codes[i] = i % 2 === 0 ? RAIL_LOW : RAIL_HIGH;
+    const a = wasm.convert(codes);
+    const b = js.convert(codes);
+    for (let i = 0; i < n; i++)
+      if (!Object.is(a.values[i], b.values[i])) expect([i, a.values[i]]).toEqual([i, b.values[i]]);
+    expect(counts(a.status)).toEqual(counts(b.status));
+    expect(a.status.railLow + a.status.railHigh).toBe(9);
   });
 
   it('a polynomial whose check fails leaves every code to the exact loop, bit for bit with channel.convert', () => {
@@ -267,6 +335,24 @@ describe('the RTD polynomial converter (@bridgework/channel/rtd-polynomial)', ()
     expect(() =>
       createRtdPolynomialConverter(ch, { checkAllSegments: 'yes' } as never),
     ).toThrowBridgeworkError('wrong-type', { param: 'options.checkAllSegments' });
+    expect(() => createRtdPolynomialConverter(ch, { loop: 'wasm' } as never)).toThrowBridgeworkError(
+      'invalid-option',
+      { param: 'options.loop' },
+    );
+    // A runtime without WebAssembly: the JavaScript loop serves by default, and asking for the
+    // module is refused in the user's terms.
+    const g = globalThis as { WebAssembly?: unknown };
+    const saved = g.WebAssembly;
+    try {
+      delete g.WebAssembly;
+      expect(createRtdPolynomialConverter(ch).loop).toBe('javascript');
+      expect(() => createRtdPolynomialConverter(ch, { loop: 'webassembly' })).toThrowBridgeworkError(
+        'wrong-type',
+        { param: 'options.loop' },
+      );
+    } finally {
+      g.WebAssembly = saved;
+    }
     const fast = createRtdPolynomialConverter(ch);
     // As channel.convert: a short out, an Int32 out sharing memory, a sensor temperature for an RTD.
     expect(() => fast.convert(new Int32Array(4), new Float64Array(3))).toThrowBridgeworkError(

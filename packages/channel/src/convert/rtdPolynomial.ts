@@ -34,6 +34,7 @@
 
 import { cvdSamples, type CallendarVanDusenKernel } from './curveKernels.js';
 import type { Codes, RejectTally } from './kernel.js';
+import { WASM_BLOCK, WASM_CHUNK, type RtdPolynomialWasm } from './wasm/rtdPolynomialLoop.js';
 
 /** Binary logarithm of the most segments a channel gets. */
 const SEGMENT_BITS = 10;
@@ -145,9 +146,13 @@ function ddMulD(xh: number, xl: number, y: number): void {
 
 /**
  * The piecewise polynomial of an RTD channel, or undefined when the codes are too many to check
- * code by code (segments wider than 2^16 codes).
+ * code by code (segments wider than 2^16 codes) or too few (under 256). At most 1024 segments
+ * (2^SEGMENT_BITS), so at most 1024 slots; `storage`, when given and long enough, holds the table.
  */
-export function createRtdPolynomial(k: RtdPolynomialSource): RtdPolynomial | undefined {
+export function createRtdPolynomial(
+  k: RtdPolynomialSource,
+  storage?: Float64Array,
+): RtdPolynomial | undefined {
   const lowI = Math.floor(k.lo) + 1;
   const highI = Math.ceil(k.hi) - 1;
   const span = highI - lowI + 1;
@@ -157,7 +162,12 @@ export function createRtdPolynomial(k: RtdPolynomialSource): RtdPolynomial | und
   const width = 2 ** shift;
   const segments = Math.ceil(span / width);
   const slots = 2 ** Math.ceil(Math.log2(segments));
-  const table = new Float64Array(slots * STRIDE).fill(Number.NaN);
+  // The table: in `storage` when given (the WebAssembly loop's memory, 1024 slots), else its own.
+  const table = (
+    storage !== undefined && storage.length >= slots * STRIDE
+      ? storage.subarray(0, slots * STRIDE)
+      : new Float64Array(slots * STRIDE)
+  ).fill(Number.NaN);
   const { ra, rb, rc, rd, r0Ohms, a, b, c, unit } = k;
   // x' = R/R0 − 1 = N/D with N = (ra − R0·rc)·x + (rb − R0·rd) and D = R0·rc·x + R0·rd, in double-double.
   twoProd(r0Ohms, rc);
@@ -455,6 +465,8 @@ export interface RtdPolynomialPath {
   readonly polynomial: RtdPolynomial | undefined;
   /** Whether the scalar path converts integer code x (valid, its resistance inside the curve's range). */
   readonly convertible: (x: number) => boolean;
+  /** The WebAssembly loop whose memory holds the polynomial's table, or undefined (the JavaScript loop). */
+  readonly wasm: RtdPolynomialWasm | undefined;
 }
 
 /** Samples per block of the Int32 loop (the range and finiteness tests are folded per block). */
@@ -474,15 +486,47 @@ export function convertRtdPolynomial(
 ): void {
   const p = prepared.polynomial;
   if (p === undefined) cvdSamples(codes, out, prepared.kernel, tally, 0, 1, count, 0, 1);
-  else if (codes instanceof Int32Array) polynomialInt32(codes, out, prepared, p, tally, count);
-  else polynomialSamples(codes, out, prepared, p, tally, 0, count);
+  else if (codes instanceof Int32Array) {
+    if (prepared.wasm !== undefined && prepared.wasm.table.buffer === p.table.buffer)
+      wasmInt32(codes, out, prepared, p, prepared.wasm, tally, count);
+    else polynomialInt32(codes, out, prepared, p, tally, count);
+  } else polynomialSamples(codes, out, prepared, p, tally, 0, count);
+}
+
+/**
+ * Contiguous Int32 codes through the WebAssembly loop (./wasm/rtdPolynomial.wat), in chunks of
+ * 16 384 copied into the module's memory and back: the same expression as {@link polynomialInt32}
+ * bit for bit, the same per-block tests (the module marks a block with a code outside the valid
+ * ones or a value that is not finite), and a marked block converted again sample by sample.
+ */
+function wasmInt32(
+  codes: Int32Array,
+  out: Float64Array,
+  prepared: RtdPolynomialPath,
+  p: RtdPolynomial,
+  w: RtdPolynomialWasm,
+  tally: RejectTally,
+  count: number,
+): void {
+  const { base, shift, offsetMask, half, slotMask, lowI, highI } = p;
+  for (let s = 0; s < count; s += WASM_CHUNK) {
+    const n = count - s > WASM_CHUNK ? WASM_CHUNK : count - s;
+    w.codes.set(codes.subarray(s, s + n));
+    const marked = w.run(n, base, shift, offsetMask, half, slotMask, lowI, highI);
+    out.set(n === WASM_CHUNK ? w.values : w.values.subarray(0, n), s);
+    if (marked === 0) continue;
+    for (let b = 0, o = 0; o < n; b++, o += WASM_BLOCK) {
+      if (w.marks[b] !== 0)
+        revisitInt32(codes, out, prepared, p, tally, s + o, n - o > WASM_BLOCK ? WASM_BLOCK : n - o);
+    }
+  }
 }
 
 /**
  * Contiguous Int32 codes (never sharing memory with `out`: the arguments' check refuses it):
  * blocks of 256, the range test `(x − lowI) | (highI − x)` and the finiteness of the values folded
  * per block (a segment not checked yet, or sent to the exact loop, holds NaN in its table slot, so
- * its samples fail the block's test); a failed block is revisited sample by sample.
+ * its samples fail the block's test); a failed block is revisited ({@link revisitInt32}).
  */
 function polynomialInt32(
   codes: Int32Array,
@@ -520,7 +564,32 @@ function polynomialInt32(
       finite += v - v;
       flags |= (x - lowI) | (highI - x);
     }
-    if (flags < 0 || finite !== 0) polynomialSamples(codes, out, prepared, p, tally, i0, n);
+    if (flags < 0 || finite !== 0) revisitInt32(codes, out, prepared, p, tally, i0, n);
+  }
+}
+
+/**
+ * A block of contiguous Int32 codes that failed its test, after the loop wrote every sample (the
+ * codes never share memory with `out`): a valid code whose value is a number was served by a
+ * checked segment (a slot not checked yet, or sent to the exact loop, holds NaN, and so gives NaN)
+ * and stands; every other sample is converted again as {@link polynomialSamples} does (its segment
+ * checked now if met for the first time, else the exact loop, which converts or rejects it).
+ */
+function revisitInt32(
+  codes: Int32Array,
+  out: Float64Array,
+  prepared: RtdPolynomialPath,
+  p: RtdPolynomial,
+  tally: RejectTally,
+  start: number,
+  count: number,
+): void {
+  const { lowI, highI } = p;
+  for (let i = start, end = start + count; i < end; i++) {
+    const x = codes[i] as number;
+    const v = out[i] as number;
+    if (x >= lowI && x <= highI && v === v) continue;
+    polynomialSamples(codes, out, prepared, p, tally, i, 1);
   }
 }
 
