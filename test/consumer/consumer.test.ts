@@ -507,6 +507,35 @@ describe('(d) the CLI installed globally, run from an unrelated folder', () => {
     expect(r.stdout).toContain('No check failed, but 1 warning');
     expect(r.stdout).toMatch(/support, and do not replace,\s+qualified engineering judgement/);
   });
+  it('converts in worker threads (their entry file is in the package) as in one thread, byte for byte', async () => {
+    const shipped = join(at.prefix, 'lib', 'node_modules', 'bridgework');
+    expect(existsSync(join(shipped, 'dist', 'data', 'conversionWorker.js'))).toBe(true);
+    const codes = new Int32Array(3 * 3000).map((_, i) => ((i * 7919) % 2_000_001) - 1_000_000);
+    writeFileSync(join(at.elsewhere, 'rig.bin'), new Uint8Array(codes.buffer));
+    const channelFile = join(shipped, 'demo', 'footbridge-monitoring.yaml');
+    for (const to of ['csv', 'float32le']) {
+      const outputs = [];
+      for (const threads of ['0', '2']) {
+        const out = `rig-${threads}.${to}`;
+        const r = await bridgework([
+          'convert',
+          channelFile,
+          'rig.bin',
+          '--block',
+          '500',
+          '--to',
+          to,
+          '-o',
+          out,
+          '--convert-threads',
+          threads,
+        ]);
+        expect(r.status, r.stderr).toBe(0);
+        outputs.push(readFileSync(join(at.elsewhere, out)));
+      }
+      expect(outputs[1]!.equals(outputs[0]!), to).toBe(true);
+    }
+  });
 });
 
 describe('(e) two versions of core side by side', () => {

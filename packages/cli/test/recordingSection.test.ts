@@ -8,6 +8,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { createChannel, createInterleavedConverter } from '@bridgework/channel';
+import { tableFromIPC } from 'apache-arrow';
 import { describe, expect, it } from 'vitest';
 import { parse } from 'yaml';
 import { exitCodes } from '../src/exitCodes.js';
@@ -152,6 +153,25 @@ describe('the recording section of a channel file', () => {
     expect(rows[0]).toBe('hanger-h3 (N),gusset-g2 (µε),deck-temp (°C)');
     const reference = createInterleavedConverter(all).convert(plain).values;
     expect(rows.slice(1).flatMap((l) => l.split(',').map(Number))).toEqual([...reference]);
+  });
+
+  it('records in the columnar metadata where the layout came from: section, options by name, or defaults', async () => {
+    const channelFile = withSection(rawSection);
+    const layoutFrom = async (file: string, data: string, ...extra: string[]) => {
+      const out = outPath('layout.arrow');
+      const r = await run(['convert', file, data, '-o', out, ...extra]);
+      expect(r.code, r.stderr).toBe(exitCodes.ok);
+      return tableFromIPC(readFileSync(out)).schema.metadata.get('bridgework.recording.layout-from');
+    };
+    expect(await layoutFrom(channelFile, input)).toMatch(/^the recording section of \d+-channels\.yaml$/);
+    expect(await layoutFrom(channelFile, input, '--tick', '1e-3', '--sample-rate', '50')).toMatch(
+      /^command line \(--tick, --sample-rate\) over the recording section of \d+-channels\.yaml$/,
+    );
+    expect(await layoutFrom(examplePath, input, ...explicitFlags)).toBe(
+      'command line (--from, --channels, --file-header, --frame-header, --frame-trailer, --time-stamp, --time-stamp-at, --tick, --sample-rate)',
+    );
+    const plain = file('plain3.bin', int32le(Array.from({ length: 9 }, () => 0)));
+    expect(await layoutFrom(examplePath, plain)).toBe('defaults (no layout option, no recording section)');
   });
 
   it('describes CSV recordings: code columns in channel order, time column, passed-through columns', async () => {

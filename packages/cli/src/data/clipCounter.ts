@@ -89,6 +89,15 @@ export interface ClipCounter {
    * @param frames - Frames in the block.
    */
   endBlock(frames: number): void;
+  /**
+   * Takes in the summary of later frames, counted by another counter (a block converted in a
+   * worker thread): counts add, a channel's first flagged frame stays the earliest and its last
+   * becomes the later summary's. Summaries taken in frame order give the summary one counter would
+   * have given over all the frames.
+   *
+   * @param later - A summary of frames that follow those counted so far (same channel count).
+   */
+  addSummary(later: ClipSummary): void;
   /** The summary so far. */
   summary(): ClipSummary;
 }
@@ -257,6 +266,23 @@ export function createClipCounter(channels: number): ClipCounter {
     addLane,
     endBlock(blockFrames) {
       frames += blockFrames;
+    },
+    addSummary(later) {
+      if (later.channels !== channels) {
+        throw new BridgeworkError(
+          'invalid-shape',
+          `the summary is of ${later.channels} channels, the counter of ${channels}`,
+          { param: 'later', value: later.channels, limit: channels },
+        );
+      }
+      later.perChannel.forEach((c, i) => {
+        if (c.clipped === 0) return;
+        counts[i] = (counts[i] as number) + c.clipped;
+        if (first[i] === undefined) first[i] = c.firstFrame;
+        last[i] = c.lastFrame;
+      });
+      total += later.clipped;
+      frames += later.frames;
     },
     summary() {
       return {

@@ -1,7 +1,8 @@
 import { checkInteger } from '@bridgework/core';
 import { quoteCsvField } from '../internal/csvText.js';
-import type { RecordingWriter } from './convertRecording.js';
-import { writeDigits, writeShortest } from './numberText.js';
+import { formatCsvRows, maxRowBytes } from './csvRows.js';
+import { writeShortest } from './numberText.js';
+import type { RecordingWriter } from './pipelineTypes.js';
 import { createWriteQueue, type OutputSink } from './outputSink.js';
 import { timeHeading, type RecordingColumns } from './recordingColumns.js';
 
@@ -18,17 +19,16 @@ export interface CsvWriterOptions {
 
 /** Size of each of the two output buffers: 1 MiB. */
 const BUFFER_BYTES = 1 << 20;
-/** Longest text of one number plus its separator (`-1.2345678901234567e-308,` is 25 bytes). */
-const MAX_CELL_BYTES = 32;
 
 /**
  * A streamed CSV writer for converted recordings: one row per frame, columns time (when the
  * recording has one), the passed-through columns, then one per channel.
  *
  * @remarks
- * Values are formatted one by one straight into a 1 MiB byte buffer (see {@link writeShortest}
- * and {@link writeDigits}), which is queued for writing whenever it fills and at the end of each
- * block, while formatting goes on in a second buffer: nothing grows with the block or the file. Lines
+ * Values are formatted one by one straight into a 1 MiB byte buffer (see {@link formatCsvRows}),
+ * which is queued for writing whenever it fills and at the end of each block, while formatting
+ * goes on in a second buffer: nothing grows with the block or the file. Rows formatted elsewhere
+ * by the same function (in the conversion worker threads) are taken as bytes (`rows`). Lines
  * end with `\n`; the header holds the time column, the passed-through names and `name (unit)` for
  * each channel, quoted per RFC 4180 when needed, as are passed-through texts. NaN (a clipped or
  * out-of-range sample) is written as `NaN`; −0 as `0`. Time stamps are written exactly (64-bit
@@ -65,7 +65,8 @@ export function createCsvWriter(
   const written: Promise<void>[] = [Promise.resolve(), Promise.resolve()];
   let slot = 0;
   let buffer = buffers[0] as Buffer;
-  const limit = BUFFER_BYTES - MAX_CELL_BYTES;
+  // No row starts past `limit`: any row of numbers fits after it.
+  const limit = BUFFER_BYTES - maxRowBytes(channels, columns.time !== undefined);
   let used = 0;
   let headerDone = header === undefined;
 
@@ -92,6 +93,28 @@ export function createCsvWriter(
     async writeBlock(block) {
       if (!headerDone) await writeHeader();
       const { values, laneStride, frames, timeStamps, passThrough } = block;
+      if (passThrough === undefined) {
+        // Rows of numbers alone: as many rows as fit, then the buffer is queued and refilled.
+        for (let f = 0; f < frames;) {
+          const done = formatCsvRows(
+            values,
+            laneStride,
+            channels,
+            timeStamps,
+            digits,
+            f,
+            frames,
+            buffer,
+            used,
+            limit,
+          );
+          f = done.row;
+          used = done.pos;
+          if (f < frames) await flush();
+        }
+        await flush();
+        return;
+      }
       for (let f = 0; f < frames; f++) {
         if (used > limit) await flush();
         if (timeStamps !== undefined) {
@@ -100,20 +123,33 @@ export function createCsvWriter(
           else used = writeShortest(t, buffer, used);
           buffer[used++] = 44;
         }
-        if (passThrough !== undefined) {
-          for (const column of passThrough) {
-            await writeText(quoteCsvField(column[f] as string));
-            buffer[used++] = 44;
-          }
+        for (const column of passThrough) {
+          await writeText(quoteCsvField(column[f] as string));
+          buffer[used++] = 44;
         }
-        for (let c = 0; c < channels; c++) {
-          if (used > limit) await flush();
-          const v = values[c * laneStride + f] as number;
-          used = digits === undefined ? writeShortest(v, buffer, used) : writeDigits(v, digits, buffer, used);
-          buffer[used++] = c === channels - 1 ? 10 : 44; // '\n' or ','
-        }
+        if (used > limit) await flush();
+        used = formatCsvRows(
+          values,
+          laneStride,
+          channels,
+          undefined,
+          digits,
+          f,
+          f + 1,
+          buffer,
+          used,
+          limit,
+        ).pos;
       }
       await flush();
+    },
+    rows: {
+      digits,
+      async write(bytes) {
+        if (!headerDone) await writeHeader();
+        await flush();
+        await queue.write(bytes);
+      },
     },
     async finish() {
       if (!headerDone) await writeHeader();

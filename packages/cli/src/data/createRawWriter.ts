@@ -1,6 +1,6 @@
 import { checkOneOf } from '@bridgework/core';
 import { float32Overflow } from './clipCounter.js';
-import type { ConvertedBlock, RecordingWriter } from './convertRecording.js';
+import type { ConvertedBlock, RecordingWriter } from './pipelineTypes.js';
 import { createWriteQueue, type OutputSink } from './outputSink.js';
 import { rawOutputFormats, type RawOutputFormat } from './outputFormats.js';
 
@@ -73,6 +73,9 @@ export function createRawWriter(
         if (buffer !== outs[slot]) throw new Error('createRawWriter: write a buffer from next(), in turn');
         written[slot] = queueValues(buffer, count);
         slot ^= 1;
+      },
+      writeValues(values, count) {
+        return queueValues(values, count);
       },
     },
     async writeBlock(block) {

@@ -197,6 +197,17 @@ export const convertOptions = [
       'Frames read and converted at a time (the temperature correction uses one temperature per block); memory is a few blocks.',
   },
   {
+    name: 'convert-threads',
+    type: 'integer',
+    placeholder: 'n',
+    unit: 'threads',
+    min: 0,
+    max: 64,
+    default: 0,
+    description:
+      'Worker threads that convert the blocks (and format CSV text) while this thread reads and writes; 0 converts in this thread. The output is the same bit for bit either way; memory is threads + 2 blocks in flight. A channel kit of other sensor kinds converts in this thread.',
+  },
+  {
     name: 'digits',
     type: 'integer',
     placeholder: 'n',

@@ -11,6 +11,7 @@ import { BridgeworkError } from '@bridgework/core';
 import { SAFETY_CAUTION } from '../../caution.js';
 import { loadChannels, type LoadedChannel } from '../../channels/loadChannels.js';
 import { formatClipSummary } from '../../data/clipCounter.js';
+import { startConversionLanes, type ConversionLanes } from '../../data/conversionLanes.js';
 import { convertRecording, type BlockTemperature } from '../../data/convertRecording.js';
 import { openCodeSource, type OpenCodeSourceOptions } from '../../data/openCodeSource.js';
 import type { RecordingSection } from '../../channelFile/recordingSection.js';
@@ -99,6 +100,29 @@ const isTemperature = (c: LoadedChannel): boolean => c.channel.quantity === 'tem
  * output (see the readers and {@link writeRecording}).
  */
 export async function run(args: ConvertArgs, context: CommandContext): Promise<number> {
+  const lanes = startLanes(args, context);
+  try {
+    return await convertWith(args, context, lanes);
+  } finally {
+    await lanes?.close();
+  }
+}
+
+/**
+ * The worker threads of a run (`--convert-threads`, default none), started before the channel file
+ * is read so that their start-up (loading the channel package) overlaps this thread's. None for a
+ * channel kit of other sensor kinds: the workers make channels with the built-in package.
+ */
+function startLanes(args: ConvertArgs, context: CommandContext): ConversionLanes | undefined {
+  const threads = args.options.convertThreads;
+  return threads > 0 && context.channels === undefined ? startConversionLanes(threads) : undefined;
+}
+
+async function convertWith(
+  args: ConvertArgs,
+  context: CommandContext,
+  lanes: ConversionLanes | undefined,
+): Promise<number> {
   const { options } = args;
   const input = args.positionals.codesFile;
   const channelFile = args.positionals.channelFile;
@@ -243,10 +267,7 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
     'bridgework.channels': JSON.stringify(channelColumns),
     'bridgework.flagged':
       'samples whose code is at or beyond the converter rails, or outside what the sensor can produce, are null (NaN in CSV and raw outputs)',
-    'bridgework.recording.layout-from':
-      section === undefined
-        ? 'command line'
-        : `command line over the recording section of ${basename(channelFile)}`,
+    'bridgework.recording.layout-from': layoutFrom(options, section, basename(channelFile)),
     ...(sampleRate === undefined ? {} : { 'bridgework.sample-rate-hertz': String(sampleRate) }),
     ...(zero === undefined
       ? {}
@@ -322,6 +343,7 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
           // Raw outputs take the frames as read, converted by all channels at once.
           ...(groupPlan === undefined ? { frameConverter: createInterleavedConverter(channels) } : {}),
           writer: groupPlan === undefined ? writer : (groupWriter = groupPlan.wrap(writer)),
+          ...(lanes === undefined ? {} : { lanes: { pool: lanes, specs: channels.map((c) => c.spec) } }),
           onBlock: (block) => progress.update(block.bytesRead),
         }),
     );
@@ -359,6 +381,41 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
 /** A mean code in full (shortest round trip), so that it can be copied into `zero.code` exactly. */
 function formatCode(code: number): string {
   return String(code);
+}
+
+/** The layout options of the command line, as their names. */
+const LAYOUT_OPTIONS = [
+  ['from', '--from'],
+  ['channels', '--channels'],
+  ['fileHeader', '--file-header'],
+  ['frameHeader', '--frame-header'],
+  ['frameTrailer', '--frame-trailer'],
+  ['timeStamp', '--time-stamp'],
+  ['timeStampAt', '--time-stamp-at'],
+  ['tick', '--tick'],
+  ['sampleRate', '--sample-rate'],
+  ['columns', '--columns'],
+  ['timeColumn', '--time-column'],
+  ['keepColumns', '--keep-columns'],
+] as const;
+
+/**
+ * Where the recording's layout came from, for the output's metadata: the channel file's recording
+ * section, the layout options given (named), both, or neither (the defaults).
+ */
+function layoutFrom(
+  options: ConvertArgs['options'],
+  section: RecordingSection | undefined,
+  file: string,
+): string {
+  const given = LAYOUT_OPTIONS.filter(([key]) => options[key] !== undefined).map(([, name]) => name);
+  const line = `command line (${given.join(', ')})`;
+  if (section === undefined) {
+    return given.length === 0 ? 'defaults (no layout option, no recording section)' : line;
+  }
+  return given.length === 0
+    ? `the recording section of ${file}`
+    : `${line} over the recording section of ${file}`;
 }
 
 /**

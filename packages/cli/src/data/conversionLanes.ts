@@ -1,0 +1,139 @@
+import { createRequire } from 'node:module';
+import { dirname, join } from 'node:path';
+import { pathToFileURL } from 'node:url';
+import { Worker } from 'node:worker_threads';
+import type { BlockDone, BlockJob, LaneSetup } from './blockConversion.js';
+import type { TimeStamps } from './decodeFrames.js';
+import { receiveError, type LaneReply, type LaneRequest } from './laneMessages.js';
+
+/** A block's conversion as it comes back from a worker: its output, codes and time stamps. */
+export type LaneResult = BlockDone & {
+  /** The job's codes (their memory given back). */
+  readonly codes: Int32Array | Float64Array;
+  /** The job's time stamps (their memory given back), or `undefined`. */
+  readonly timeStamps: TimeStamps | undefined;
+};
+
+/**
+ * Worker threads that convert blocks of a recording (see {@link startConversionLanes}).
+ */
+export interface ConversionLanes {
+  /** Worker threads. */
+  readonly threads: number;
+  /**
+   * Sends every worker the run's setup and channel specs; resolves when all have made their
+   * channels.
+   *
+   * @param setup - How each block is converted.
+   * @param specs - One channel spec per lane (`Channel.spec` of the built-in channel package).
+   */
+  setup(setup: LaneSetup, specs: readonly unknown[]): Promise<void>;
+  /**
+   * Converts a block in worker `thread` (jobs sent to one worker run in the order sent). The
+   * job's buffers are transferred to the worker (unusable here until the result gives them back).
+   *
+   * @param thread - The worker (0-based).
+   * @param job - The block.
+   * @returns The result; rejects with the error the block's conversion threw (the same
+   *   `BridgeworkError` one thread throws), or when the worker stopped.
+   */
+  convert(thread: number, job: BlockJob): Promise<LaneResult>;
+  /** Stops every worker (pending calls reject). */
+  close(): Promise<void>;
+}
+
+const here = import.meta.url;
+const fromSource = here.endsWith('.ts');
+
+/**
+ * Starts one worker. From the compiled package this is dist/data/conversionWorker.js. From the
+ * TypeScript sources (tests) Node 20 does not apply `--import` loaders to workers, so a tiny
+ * bootstrap registers tsx's ESM hooks first, with the `@bridgework/source` condition.
+ */
+function startWorker(): Worker {
+  if (!fromSource) return new Worker(new URL('./conversionWorker.js', here));
+  const tsx = dirname(createRequire(here).resolve('tsx/package.json'));
+  const api = pathToFileURL(join(tsx, 'dist', 'esm', 'api', 'index.mjs')).href;
+  const target = new URL('./conversionWorker.ts', here).href;
+  const code = `import(${JSON.stringify(api)}).then((m) => { m.register(); return import(${JSON.stringify(target)}); });`;
+  return new Worker(code, { eval: true, execArgv: ['--conditions=@bridgework/source'] });
+}
+
+/**
+ * Starts `threads` conversion worker threads. They begin loading the channel package at once, so
+ * starting them before the channel file is read overlaps their start-up with the main thread's.
+ *
+ * @remarks
+ * Each worker makes the run's channels from their specs ({@link ConversionLanes.setup}) and
+ * converts the blocks it is sent with the block runner of the one-thread path
+ * (`createBlockRunner`), so every block's values, counts and text are the same bit for bit. Codes
+ * and output travel as transferred buffers (no copies). A worker's error comes back as the error
+ * the block threw (a `BridgeworkError` keeps its code and message); a worker that stops (out of
+ * memory, a crash) fails every pending call. Call {@link ConversionLanes.close} when done: live
+ * workers keep the process running. On SIGINT the process ends with its threads.
+ *
+ * @param threads - Worker threads (≥ 1).
+ * @returns The lanes.
+ * @example
+ * ```ts
+ * const lanes = startConversionLanes(1);
+ * try {
+ *   await convertRecording({ source, channels, writer, lanes: { pool: lanes, specs } });
+ * } finally {
+ *   await lanes.close();
+ * }
+ * ```
+ */
+export function startConversionLanes(threads: number): ConversionLanes {
+  const workers = Array.from({ length: threads }, startWorker);
+  /** Per worker, the calls waiting for a reply, in the order sent. */
+  const waiting = workers.map(
+    () => [] as { resolve: (reply: LaneReply) => void; reject: (error: Error) => void }[],
+  );
+  let stopped: Error | undefined;
+  const failAll = (error: Error): void => {
+    stopped ??= error;
+    for (const queue of waiting) for (const call of queue.splice(0)) call.reject(stopped);
+  };
+  workers.forEach((worker, w) => {
+    worker.on('message', (reply: LaneReply) => {
+      const call = waiting[w]?.shift();
+      if (call === undefined) return;
+      if (reply.type === 'failed') call.reject(receiveError(reply.error));
+      else call.resolve(reply);
+    });
+    worker.on('error', (error) => {
+      failAll(new Error(`a conversion worker thread stopped: ${error.message}`, { cause: error }));
+    });
+    worker.on('exit', (code) => {
+      failAll(new Error(`a conversion worker thread ended (exit code ${code})`));
+    });
+  });
+  const call = (w: number, request: LaneRequest, transfer: ArrayBuffer[]): Promise<LaneReply> =>
+    new Promise((resolve, reject) => {
+      if (stopped !== undefined) {
+        reject(stopped);
+        return;
+      }
+      (waiting[w] as (typeof waiting)[number]).push({ resolve, reject });
+      (workers[w] as Worker).postMessage(request, transfer);
+    });
+  return {
+    threads,
+    async setup(setup, specs) {
+      await Promise.all(workers.map((_, w) => call(w, { type: 'setup', setup, specs }, [])));
+    },
+    async convert(thread, job) {
+      const transfer = [job.codes.buffer as ArrayBuffer, job.out];
+      if (job.timeStamps !== undefined) transfer.push(job.timeStamps.buffer as ArrayBuffer);
+      const reply = await call(thread, { type: 'block', id: thread, ...job }, transfer);
+      if (reply.type !== 'done')
+        throw new Error(`a conversion worker thread replied ${reply.type} to a block`);
+      return reply;
+    },
+    async close() {
+      stopped ??= new Error('the conversion worker threads were closed');
+      await Promise.all(workers.map((worker) => worker.terminate()));
+    },
+  };
+}

@@ -1,0 +1,50 @@
+/**
+ * Entry of a conversion worker thread (see {@link startConversionLanes}): loads the channel
+ * package at once (while the main thread reads the channel file), makes the run's channels from
+ * their specs when told, then converts each block it is sent with the same block runner as the
+ * main thread's one-thread path, and sends the output back with its memory (transferred, not
+ * copied).
+ */
+import { parentPort } from 'node:worker_threads';
+import { createBlockRunner, type BlockDone, type BlockJob } from './blockConversion.js';
+import { sendError, type LaneReply, type LaneRequest } from './laneMessages.js';
+
+const port = parentPort;
+if (port === null) throw new Error('conversionWorker.ts runs as a worker thread');
+// Loading starts now; the setup message waits for it.
+const channelPackage = import('@bridgework/channel');
+let run: ((job: BlockJob) => BlockDone) | undefined;
+
+const send = (reply: LaneReply, transfer: ArrayBuffer[] = []): void => {
+  port.postMessage(reply, transfer);
+};
+
+port.on('message', (message: LaneRequest) => {
+  if (message.type === 'setup') {
+    channelPackage
+      .then(({ createChannel, createInterleavedConverter }) => {
+        const channels = message.specs.map((spec) =>
+          createChannel(spec as Parameters<typeof createChannel>[0]),
+        );
+        const converter = message.setup.mode === 'frames' ? createInterleavedConverter(channels) : undefined;
+        run = createBlockRunner(message.setup, channels, converter);
+        send({ type: 'ready' });
+      })
+      .catch((error: unknown) => {
+        send({ type: 'failed', id: undefined, error: sendError(error) });
+      });
+    return;
+  }
+  try {
+    if (run === undefined) throw new Error('a block came before the conversion lane was set up');
+    const done = run(message);
+    const transfer = [message.codes.buffer as ArrayBuffer, done.out];
+    if (message.timeStamps !== undefined) transfer.push(message.timeStamps.buffer as ArrayBuffer);
+    send(
+      { type: 'done', id: message.id, codes: message.codes, timeStamps: message.timeStamps, ...done },
+      transfer,
+    );
+  } catch (error) {
+    send({ type: 'failed', id: message.id, error: sendError(error) });
+  }
+});
