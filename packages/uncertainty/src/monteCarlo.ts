@@ -501,11 +501,11 @@ export function checkMonteCarloModel(
  * `monteCarloInWorkers` (from `@bridgework/uncertainty/node`) with any number of workers. A run of
  * M trials is the prefix of any longer run with the same seed.
  *
- * The model is called once per trial: a record model with one reused, read-only record whose
- * properties are getters reading the current trial, a {@link PositionalModel} with a fixed view
- * of the trial's row of input values in its declared order; nothing is allocated or copied per
- * trial, and both forms of one model give the same results bit for bit. A record model must not
- * keep the record or write to it. The same record shape is passed by {@link propagate}, so a
+ * The model is called once per trial: a record model with one reused, sealed record of plain data
+ * properties holding the trial's input values, a {@link PositionalModel} with a fixed view of the
+ * trial's row of input values in its declared order; nothing is allocated per trial, and both
+ * forms of one model give the same results bit for bit. A record model must not keep the record
+ * or write to it. The same record shape is passed by {@link propagate}, so a
  * model evaluated by both stays fast; calling the same model function elsewhere with other
  * objects may slow it. A model that throws a bridgework error keeps its code, with the trial
  * added to the message; anything else it throws becomes `model-failed`.

@@ -154,7 +154,7 @@ function evaluatorFor(
   names: readonly string[],
   m: number,
 ): PointEvaluator {
-  const { record, rows, cursor } = view;
+  const { record, rows, cursor, load } = view;
   const x = new Float64Array(names.length);
   const call = (point: Float64Array): unknown => {
     try {
@@ -164,6 +164,7 @@ function evaluatorFor(
       }
       cursor.row = 0;
       rows.set(point);
+      load(0);
       return model.evaluate(record);
     } catch (error) {
       throw locateModelError(error, `at ${describePoint(names, point)}`);
@@ -367,6 +368,7 @@ function lawOfPropagation(
     } else {
       view.cursor.row = 0;
       view.rows.set(x);
+      view.load(0);
       raw = model.evaluate(view.record);
     }
   } catch (error) {

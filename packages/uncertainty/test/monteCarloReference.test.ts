@@ -32,10 +32,20 @@ describe('Monte Carlo: bit for bit the results of the earlier code (fixed seeds)
           expect(digest(pv!)).toBe(want.values);
           expect(JSON.parse(JSON.stringify(prest))).toEqual(want.result);
           // A fixed run of 16·8192 trials or more reads its intervals from the workers' sorted
-          // tails; an adaptive run computes them on this thread.
-          const fixed = c.options.adaptive === undefined;
-          expect(intervalRoutes.fromWorkers - before.fromWorkers).toBe(fixed ? 1 : 0);
-          expect(intervalRoutes.onMainThread - before.onMainThread > 0).toBe(!fixed);
+          // tails (always with one or two workers, who have room for every tail value; with three a
+          // worker that ran most blocks on a loaded machine can overflow its room, and the main
+          // thread takes the tails — the same values, checked above); an adaptive run computes them
+          // on this thread.
+          const fromWorkers = intervalRoutes.fromWorkers - before.fromWorkers;
+          const onMainThread = intervalRoutes.onMainThread - before.onMainThread;
+          if (c.options.adaptive !== undefined) {
+            expect(fromWorkers).toBe(0);
+            expect(onMainThread).toBeGreaterThan(0);
+          } else if (workers <= 2) {
+            expect([fromWorkers, onMainThread]).toEqual([1, 0]);
+          } else {
+            expect(fromWorkers + onMainThread).toBe(1);
+          }
         } finally {
           await pool.close();
         }

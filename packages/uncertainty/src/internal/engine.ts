@@ -12,14 +12,15 @@
  *
  * Inside a block, trials are generated in chunks of {@link CHUNK_TRIALS} into rows of n input
  * values (each sampler writes one input's place with stride n). A record model receives one
- * reused record whose properties are getters reading the current row; a positional model
- * receives a fixed view of the current row, its inputs in the declared order. Nothing is
- * allocated or copied per trial. Either way the model values depend only on the seed, the block and the inputs.
+ * reused record of plain data properties into which the current row is copied before each call
+ * (see trialRecord.ts); a positional model receives a fixed view of the current row, its inputs
+ * in the declared order. Nothing is allocated per trial. Either way the model values depend only
+ * on the seed, the block and the inputs.
  */
 import { BridgeworkError, formatValue } from '@bridgework/core';
 import { locateModelError, type ResolvedModel } from './model.js';
 import { fillFrom, fillNormal, type SamplerSpec } from './samplers.js';
-import { acquireRecord, acquireRows, CHUNK_TRIALS, type TrialRows } from './trialRecord.js';
+import { acquireRecord, acquireRows, CHUNK_TRIALS, type TrialRecord, type TrialRows } from './trialRecord.js';
 import { jump64, jump96, stateFromSeed, type GeneratorState } from './xoshiro128.js';
 
 /** Trials per seeding block. */
@@ -115,9 +116,10 @@ export function createBlockRunner(plan: EnginePlan, model: ResolvedModel): Block
   let failedTrial = -1;
 
   // The draws go to rows of n values per trial (each sampler writes one input's place with
-  // stride n). A record model reads them through the cached record's getters (input j at place j);
-  // a positional model gets a fixed view of row t (input j at its place in `order`). Either way
-  // nothing is allocated or copied per trial, and the same draws land in the same trials.
+  // stride n). A record model reads them from the cached record, row t copied into its data
+  // properties before the call (input j at place j); a positional model gets a fixed view of row t
+  // (input j at its place in `order`). Either way nothing is allocated per trial, and the same
+  // draws land in the same trials.
   const view = model.kind === 'record' ? acquireRecord(names) : undefined;
   const rowSet = model.kind === 'positional' ? acquireRows(n) : undefined;
   const record = view?.record;
@@ -169,15 +171,17 @@ export function createBlockRunner(plan: EnginePlan, model: ResolvedModel): Block
     }
   }
 
-  // Both loops keep the trial in `cursor.row` (= t·n), an object property: a closure variable
-  // written per trial stops V8 from inlining the model and its getters (measured: 1.5× slower).
+  // Both loops keep the trial in `cursor.row` (= t·n), an object property, for the error report: a
+  // closure variable written per trial stopped V8 from inlining the model (measured: 1.5× slower).
 
   /** Model values of trials [0, length) of the chunk into out[base…); `cursor.row` is t·n. */
   function evaluateRecord(length: number, out: Float64Array, base: number): void {
     const evaluate = (model as { evaluate: (x: Readonly<Record<string, number>>) => unknown }).evaluate;
     const x = record as Readonly<Record<string, number>>;
+    const load = (view as TrialRecord).load;
     for (let t = 0; t < length; t++) {
       cursor.row = t * n;
+      load(t * n);
       const y = evaluate(x);
       if (typeof y !== 'number' || !(Math.abs(y) <= MODEL_VALUE_LIMIT)) throw notFinite(y);
       out[base + t] = y;

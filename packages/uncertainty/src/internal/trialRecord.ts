@@ -1,22 +1,79 @@
 /**
- * The record a model receives: one object per list of input names, whose properties are getters
- * reading the current trial's row of a Float64Array of rows (one row of n input values per
- * trial). Records are cached by their names, so a model sees one object of one shape — in every
- * Monte Carlo run and in the law of propagation alike — and its property reads stay
- * monomorphic, which the JIT inlines. A record in use (a model that itself calls monteCarlo or
- * propagate) is not shared.
+ * The record a model receives: one plain object per list of input names, whose own data
+ * properties hold the current trial's input values, copied from a Float64Array of rows (one row
+ * of n input values per trial) before each model call. Records are cached by their names, so a
+ * model sees one object of one shape — in every Monte Carlo run and in the law of propagation
+ * alike — and its property reads are monomorphic field loads, whatever the optimizing compiler
+ * decides to inline (reads through getters ran at one of two speeds, 2× apart, depending on
+ * that). The record is sealed: a model cannot add properties to it. A record in use (a model
+ * that itself calls monteCarlo or propagate) is not shared.
  */
 /** Trials generated at once inside a block (sized so the rows stay in cache). */
 export const CHUNK_TRIALS = 2048;
 
-/** A record whose properties read the current row, with the rows it reads. */
+/** A record of plain data properties, with the rows it is filled from. */
 export interface TrialRecord {
   readonly record: Readonly<Record<string, number>>;
   /** CHUNK_TRIALS rows of n values: input j of trial t at t·n + j. */
   readonly rows: Float64Array;
-  /** `row` = t·n for trial t. */
+  /** Copies the row starting at `at` (= t·n for trial t) into the record's properties. */
+  readonly load: (at: number) => void;
+  /** `row` = t·n for the trial last loaded. */
   readonly cursor: { row: number };
   inUse: boolean;
+}
+
+/** A record of the given names and its loader, over the given rows. */
+export interface RecordAndLoader {
+  readonly record: Readonly<Record<string, number>>;
+  readonly load: (at: number) => void;
+}
+
+/**
+ * Compiles the maker of the record and its loader for these names: an object literal (so the
+ * properties are in-object fields of one fixed shape, doubles from the start) and one named store
+ * per input. Names are written as JSON string literals (any string is safe); `__proto__` as a
+ * computed key, which makes an own property. Undefined where code cannot be compiled (a content
+ * security policy without 'unsafe-eval').
+ */
+function compiledMaker(names: readonly string[]): ((rows: Float64Array) => RecordAndLoader) | undefined {
+  const key = (name: string): string =>
+    name === '__proto__' ? `[${JSON.stringify(name)}]` : JSON.stringify(name);
+  const fields = names.map((name) => `${key(name)}: 0.5`).join(', ');
+  const stores = names.map((name, j) => `record[${JSON.stringify(name)}] = rows[at + ${j}];`).join('\n');
+  const body = `"use strict";
+const record = Object.seal({ ${fields} });
+return { record, load(at) {\n${stores}\n} };`;
+  try {
+    return new Function('rows', body) as (rows: Float64Array) => RecordAndLoader;
+  } catch {
+    return undefined;
+  }
+}
+
+/** The same record and loader without compiled code: defined properties and keyed stores. */
+function plainRecord(names: readonly string[], rows: Float64Array): RecordAndLoader {
+  const record: Record<string, number> = {};
+  for (const name of names) {
+    Object.defineProperty(record, name, { value: 0.5, writable: true, enumerable: true, configurable: true });
+  }
+  Object.seal(record);
+  return {
+    record,
+    load(at) {
+      for (let j = 0; j < names.length; j++) record[names[j] as string] = rows[at + j] as number;
+    },
+  };
+}
+
+/**
+ * A sealed record of plain data properties named `names` (in that order), and `load(at)`, which
+ * copies `rows[at + j]` into property j. Compiled code (one named store per input) unless
+ * `compiled` is false or code cannot be compiled; both give the same record.
+ */
+export function recordOver(names: readonly string[], rows: Float64Array, compiled = true): RecordAndLoader {
+  const maker = compiled ? compiledMaker(names) : undefined;
+  return maker === undefined ? plainRecord(names, rows) : maker(rows);
 }
 
 const records = new Map<string, TrialRecord>();
@@ -33,12 +90,8 @@ export function acquireRecord(names: readonly string[]): TrialRecord {
     return cached;
   }
   const rows = new Float64Array(CHUNK_TRIALS * names.length);
-  const cursor = { row: 0 };
-  const record: Record<string, number> = {};
-  names.forEach((name, j) => {
-    Object.defineProperty(record, name, { get: () => rows[cursor.row + j] as number, enumerable: true });
-  });
-  const fresh: TrialRecord = { record, rows, cursor, inUse: true };
+  const { record, load } = recordOver(names, rows);
+  const fresh: TrialRecord = { record, rows, load, cursor: { row: 0 }, inUse: true };
   if (cached === undefined) {
     if (records.size >= 32) records.delete(records.keys().next().value as string);
     records.set(key, fresh);
