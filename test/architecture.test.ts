@@ -138,3 +138,53 @@ describe('file-level import cycles inside each package', () => {
     );
   });
 });
+
+/** The files a package entry reaches through relative imports (static and dynamic), itself included. */
+function reachable(graph: Map<string, string[]>, entry: string): Set<string> {
+  const seen = new Set<string>();
+  const queue = [entry];
+  while (queue.length > 0) {
+    const file = queue.pop()!;
+    if (seen.has(file)) continue;
+    seen.add(file);
+    queue.push(...(graph.get(file) ?? []));
+  }
+  return seen;
+}
+
+describe('subpath exports (issue 19 item 4: opt-in code stays off the default bundle)', () => {
+  type ExportTarget = { '@bridgework/source'?: string; types?: string; default?: string } | string;
+  const channelExports = (
+    JSON.parse(read('packages/channel/package.json')) as { exports: Record<string, ExportTarget> }
+  ).exports;
+
+  it.each(packages)('%s: every subpath of `exports` names a source entry, its types and its build', (p) => {
+    const json = JSON.parse(read(`packages/${p}/package.json`)) as { exports?: Record<string, ExportTarget> };
+    for (const [subpath, target] of Object.entries(json.exports ?? {})) {
+      if (typeof target === 'string') {
+        expect(subpath, `${p}: a plain-string export is only ./package.json`).toBe('./package.json');
+        continue;
+      }
+      const source = target['@bridgework/source'];
+      expect(source, `${p} ${subpath}`).toMatch(/^\.\/src\/[\w/]+\.ts$/);
+      expect(existsSync(join(root, 'packages', p, source!)), `${p} ${subpath} → ${source}`).toBe(true);
+      const built = source!.replace(/^\.\/src\//, './dist/').replace(/\.ts$/, '');
+      expect([target.types, target.default]).toEqual([`${built}.d.ts`, `${built}.js`]);
+    }
+  });
+
+  it('@bridgework/channel/rtd-polynomial: the main entry never reaches the polynomial modules', () => {
+    expect(channelExports['./rtd-polynomial']).toMatchObject({
+      '@bridgework/source': './src/rtdPolynomialConverter.ts',
+    });
+    const graph = importGraph(join(root, 'packages', 'channel', 'src'));
+    const fromMain = reachable(graph, 'index.ts');
+    const fromSubpath = reachable(graph, 'rtdPolynomialConverter.ts');
+    // Not vacuous: the subpath reaches the polynomial and the channel's internals it converts with.
+    expect(fromSubpath).toContain(join('convert', 'rtdPolynomial.ts'));
+    expect(fromSubpath).toContain(join('convert', 'curveKernels.ts'));
+    expect(fromMain).toContain(join('convert', 'curveKernels.ts'));
+    expect(fromMain.has(join('convert', 'rtdPolynomial.ts'))).toBe(false);
+    expect(fromMain.has('rtdPolynomialConverter.ts')).toBe(false);
+  });
+});

@@ -16,6 +16,7 @@ import {
   type Channel,
   type ChannelSpec,
 } from '@bridgework/channel';
+import { createRtdPolynomialConverter } from '@bridgework/channel/rtd-polynomial';
 import { checkBaseline, compare, report, reportBaselineCheck, sinkValue, type BenchCase } from './harness.js';
 
 /** `--short`: only the baseline self-check, on 10⁶ codes (the suite runs it; see test/bench.test.ts). */
@@ -285,6 +286,10 @@ for (const spec of others) {
   const [lo, hi] = convertibleCodes(channel);
   const ins = [codes(3, M, lo, hi), codes(4, M, lo, hi)];
   const outs = [new Float64Array(M), new Float64Array(M)];
+  const polynomial =
+    channel.map.form === 'resistance-curve'
+      ? createRtdPolynomialConverter(channel, { checkAllSegments: true })
+      : undefined;
   const results = compare(
     [
       {
@@ -300,11 +305,26 @@ for (const spec of others) {
           return (outs[call % 2]![M >> 1] as number) + r.status.rejected;
         },
       },
+      // RTD channels: the opt-in checked polynomial too (its segments checked before the rounds).
+      ...(polynomial === undefined
+        ? []
+        : [
+            {
+              name: 'RTD polynomial (@bridgework/channel/rtd-polynomial)',
+              opsPerCall: M,
+              run(call: number) {
+                const r = polynomial.convert(ins[call % 2]!, outs[call % 2]!);
+                return (outs[call % 2]![M >> 1] as number) + r.status.rejected;
+              },
+            },
+          ]),
     ],
     { rounds: 5, minMillisPerRound: 200, warmupCalls: 2 },
   );
   report(`channel '${spec.name}' (method ${channel.method}): ${M.toExponential(0)} codes`, results);
   console.log(`  ${(1e3 / results[1]!.nsPerOp).toFixed(1)} million samples/s; ${agreement(channel, 20_001)}`);
+  if (polynomial !== undefined)
+    console.log(`  RTD polynomial ${(1e3 / results[2]!.nsPerOp).toFixed(1)} million samples/s`);
 }
 
 // The same linear-fractional formula with the minimal channel's coefficients, compiled once by

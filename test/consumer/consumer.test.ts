@@ -294,7 +294,7 @@ describe('(a) Node: every entry by import and by require(), and every README exa
         return JSON.parse(r.stdout) as Record<string, { exports: string[]; value: number | string }>;
       }),
     );
-    expect(Object.keys(esm!)).toHaveLength(11);
+    expect(Object.keys(esm!)).toHaveLength(12);
     for (const [entry, { exports }] of Object.entries(esm!)) {
       expect(exports.length, entry).toBeGreaterThan(0);
       expect(cjs![entry]?.exports, `require('${entry}') gives what import gives`).toEqual(exports);
@@ -324,6 +324,14 @@ describe('(a) Node: every entry by import and by require(), and every README exa
       expect(v('@bridgework/firmware')).toBe(1_250_000_000);
       // The channel README's output: 1003.209 µε at code 563000.
       expect(v('@bridgework/channel')).toBeNear(1003.209e-6, { abs: 5e-10 });
+      // The opt-in RTD polynomial (subpath export): the Pt100's code for 100 °C converts within
+      // 1 ulp of the exact composition, so within 1e-12 °C of channel.convert (whose own error
+      // is up to 35 ulp there); a rail code is refused by both.
+      const [poly, exact, polyRejected, exactRejected] = values['@bridgework/channel/rtd-polynomial']!
+        .value as unknown as [number, number, number, number];
+      expect(poly).toBeNear(exact, { abs: 1e-12 });
+      expect(exact).toBeNear(100, { abs: 1e-3 }); // the nearest code to 100 °C at 24 bits, gain 8
+      expect([polyRejected, exactRejected]).toEqual([1, 1]);
       expect(values['bridgework']!.value).toBe('0 0.1.0');
     }
   });
@@ -405,6 +413,9 @@ describe('(c) the conversion path in a browser', () => {
         expect(packages).not.toContain(name);
       expect(bundle.code).not.toContain('x-unit'); // the JSON Schema's unit keyword
       expect(bundle.code).not.toContain('Gauge resistance'); // a field's meaning (spec/fieldDocs.ts)
+      // The opt-in RTD polynomial (a subpath export) stays out: its option's name and message.
+      expect(bundle.code).not.toContain('checkAllSegments');
+      expect(bundle.code).not.toContain('has no IEC 60751 RTD curve');
 
       const inNode = await runOk(
         node,

@@ -8,6 +8,7 @@ import { bridgeCalls, bridgeNotCalled } from './calls/bridge.js';
 import { calibrationCalls, calibrationNotCalled } from './calls/calibration.js';
 import { chainCalls, chainNotCalled } from './calls/chain.js';
 import { channelCalls, channelNotCalled } from './calls/channel.js';
+import { channelRtdPolynomialCalls, channelRtdPolynomialNotCalled } from './calls/channelRtdPolynomial.js';
 import { compensationCalls, compensationNotCalled } from './calls/compensation.js';
 import { firmwareCalls, firmwareNotCalled } from './calls/firmware.js';
 import { coreCalls, coreNotCalled } from './calls/core.js';
@@ -25,6 +26,8 @@ export const libraryPackages = [
   'calibration',
   'firmware',
   'channel',
+  // A subpath export: the opt-in RTD polynomial converter, outside the default bundle.
+  'channel/rtd-polynomial',
 ] as const;
 
 export type LibraryPackage = (typeof libraryPackages)[number];
@@ -40,6 +43,7 @@ export const baseCalls: Partial<Record<LibraryPackage, readonly BaseCall[]>> = {
   calibration: calibrationCalls,
   firmware: firmwareCalls,
   channel: channelCalls,
+  'channel/rtd-polynomial': channelRtdPolynomialCalls,
 };
 
 /** Function exports that are deliberately not called, by package, each with the reason. */
@@ -53,6 +57,7 @@ export const notCalled: Partial<Record<LibraryPackage, Readonly<Record<string, s
   calibration: calibrationNotCalled,
   firmware: firmwareNotCalled,
   channel: channelNotCalled,
+  'channel/rtd-polynomial': channelRtdPolynomialNotCalled,
 };
 
 /** The exports of each covered package that are not functions (constants and tables). */

@@ -3,11 +3,12 @@
  * embedded, and a real PostgreSQL server where one can be had (always under CI) — over a table of
  * codes that sweeps each converter's whole range, rails and beyond included, against the channel
  * package: a linear-fractional channel equals `channel.convert` bit for bit (NULL where it gives
- * NaN); the RTD equals its verified float64 polynomial bit for bit on the codes it covers, within
- * the stated bound of the exact map. The channel file gives the gusset a fractional zero reading
+ * NaN); the RTD equals its verified float64 piecewise polynomial (the firmware package's design at
+ * the `--target-error` given, several segments) bit for bit on the codes it covers, within the
+ * stated bound of the exact map. The channel file gives the gusset a fractional zero reading
  * (a mean of codes, as `convert --zero-window` takes), carried end to end.
  */
-import { readFileSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
 import { DuckDBInstance } from '@duckdb/node-api';
 import { channelConstants, createChannel, type Channel } from '@bridgework/channel';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -19,10 +20,12 @@ import { int32le, useTestFiles } from './support/files.js';
 import { memoryIo } from './support/memoryIo.js';
 import { postgresUnavailable, startPostgres, type TestPostgres } from '../../../test/support/postgres.js';
 
-const { file } = useTestFiles('constants-sql');
+const { file, outPath } = useTestFiles('constants-sql');
 const N = 100_000;
 const names = ['hanger-h3', 'gusset-g2', 'deck-temp'] as const;
 const ZERO = -18433.375; // a mean of codes: not an integer
+/** The RTD's --target-error in the engine runs (°C): tight enough to need several segments. */
+const RTD_TARGET = 1e-6;
 
 // The example file with the gusset's zero reading made fractional, written as JSON.
 const doc = parse(readFileSync(examplePath, 'utf8')) as { channels: Record<string, Record<string, unknown>> };
@@ -50,11 +53,20 @@ const codes = channels.map(sweep);
 function expected(j: number): { values: Float64Array; bound?: number } {
   const c = channels[j] as Channel;
   if (c.map.form === 'mobius') return { values: c.convert(codes[j] as Int32Array).values };
-  // The command's design: one float64 polynomial over the span, verified against the exact map.
-  const designed = channelConstants(c, { verification: 'sampled', types: ['float64'], maxTableBytes: 48 });
+  // The command's design: the firmware package's float64 function over the span at the target,
+  // verified against the exact map (the command's --max-table-bytes default is 4096).
+  const designed = channelConstants(c, {
+    verification: 'sampled',
+    types: ['float64'],
+    targetError: RTD_TARGET,
+    maxTableBytes: 4096,
+  });
   const f64 = designed.float64;
   const total = designed.totals.float64;
   if (f64 === undefined || total === undefined) throw new Error('expected a verified float64 function');
+  // The case this test exists for: a piecewise polynomial of several segments.
+  expect(f64.kind === 'piecewise-polynomial' && f64.segmentCount).toBeGreaterThan(1);
+  expect(total.bound).toBeLessThanOrEqual(RTD_TARGET);
   return {
     values: Float64Array.from(codes[j] as Int32Array, (x) =>
       x >= f64.codeMin && x <= f64.codeMax ? f64.evaluate(x) : Number.NaN,
@@ -98,7 +110,13 @@ describe('bridgework constants --format sql', () => {
     expect(r.stdout).toMatch(/support, and do not replace,\s+qualified engineering judgement/);
     expect(r.stdout).toContain('hanger-h3 (N), from column hanger-h3: the exact map');
     expect(r.stdout).toContain('gusset-g2 (µε), from column gusset-g2: the exact map');
-    expect(r.stdout).toMatch(/deck-temp \(°C\), from column deck-temp: a binary64 polynomial of degree \d/);
+    // The default target: the cheapest verified float64 form; sampled verification is said to be so.
+    expect(r.stdout).toMatch(
+      /deck-temp \(°C\), from column deck-temp: a binary64 (piecewise )?polynomial.* of degree \d.*a bound measured on a sample of the codes, not proved/,
+    );
+    expect(r.stderr).toMatch(
+      /deck-temp: SQL polynomial of degree \d, \d+ segments?, total error <= [\d.e-]+ °C .*measured on \d+ codes/,
+    );
     expect(r.stdout.trimEnd().endsWith('FROM "codes";')).toBe(true);
   });
 
@@ -109,6 +127,41 @@ describe('bridgework constants --format sql', () => {
     const table = await run('constants', channelFile, '--format', 'sql', '--table', 'lake..codes');
     expect(table.code).toBe(exitCodes.badInput);
     expect(table.stderr).toContain('--table must name a table');
+    // Fixed-point and firmware-only options are refused, not silently ignored.
+    const step = await run('constants', channelFile, '--format', 'sql', '--output-step', '0.01');
+    expect(step.code).toBe(exitCodes.badInput);
+    expect(step.stderr).toContain("--output-step sets the fixed-point function's output step");
+    const divide = await run('constants', channelFile, '--format', 'sql', '--hardware-divide');
+    expect(divide.code).toBe(exitCodes.badInput);
+    expect(divide.stderr).toContain('--hardware-divide');
+  });
+
+  it('takes --target-error for a nonlinear channel, and refuses one no table allows, writing nothing', async () => {
+    const out = outPath('rtd.sql');
+    const argv = [
+      'constants',
+      channelFile,
+      '-c',
+      'deck-temp',
+      '--format',
+      'sql',
+      '--verification',
+      'sampled',
+    ];
+    const r = await run(...argv, '--target-error', 'deck-temp=1e-6', '-o', out);
+    expect(r.code, r.stderr).toBe(exitCodes.ok);
+    const sql = readFileSync(out, 'utf8');
+    const segments = Number(/deck-temp: SQL polynomial of degree \d, (\d+) segments/.exec(r.stderr)?.[1]);
+    expect(segments).toBeGreaterThan(1);
+    // One CASE arm per segment.
+    expect(sql.match(/ WHEN /g)).toHaveLength(segments);
+    const none = outPath('none.sql');
+    const tooTight = await run(...argv, '--target-error', '1e-13', '--max-table-bytes', '64', '-o', none);
+    expect(tooTight.code).toBe(exitCodes.badInput);
+    expect(tooTight.stderr).toMatch(
+      /`--target-error` 1e-13 °C cannot be met by a float64 function.*`--max-table-bytes`/s,
+    );
+    expect(existsSync(none)).toBe(false);
   });
 
   describe('in DuckDB (embedded)', () => {
@@ -134,6 +187,8 @@ describe('bridgework constants --format sql', () => {
         'sql',
         '--verification',
         'sampled',
+        '--target-error',
+        `deck-temp=${RTD_TARGET}`,
         '--table',
         'main.codes',
       );
@@ -200,6 +255,8 @@ describe('bridgework constants --format sql', () => {
           'postgresql',
           '--verification',
           'sampled',
+          '--target-error',
+          `deck-temp=${RTD_TARGET}`,
         );
         expect(r.code, r.stderr).toBe(exitCodes.ok);
         // Ordered by i: the script's SELECT over a subquery that keeps the order column.

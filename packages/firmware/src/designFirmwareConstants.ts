@@ -432,13 +432,15 @@ function targetNotMet(
       ? `no ${type} function can do better than ${boundString(rationalFromNumber(best.bound), 4)}${u} (${best.description})`
       : `the best bound reached is ${boundString(rationalFromNumber(best.bound), 4)}${u} (${best.description})`;
   const hint =
-    type !== 'fixed'
+    type === 'float32'
       ? 'relax `targetError`, allow a larger table (`maxTableBytes`) or use float64'
-      : best?.floor === true
-        ? 'relax `targetError` or give a finer `outputUnit`'
-        : none
-          ? 'give a coarser `outputUnit` or wider coefficients (`coefficientBits`)'
-          : 'relax `targetError`, allow a larger table (`maxTableBytes`), wider coefficients (`coefficientBits`) or a finer `outputUnit`';
+      : type === 'float64'
+        ? 'relax `targetError` or allow a larger table (`maxTableBytes`)'
+        : best?.floor === true
+          ? 'relax `targetError` or give a finer `outputUnit`'
+          : none
+            ? 'give a coarser `outputUnit` or wider coefficients (`coefficientBits`)'
+            : 'relax `targetError`, allow a larger table (`maxTableBytes`), wider coefficients (`coefficientBits`) or a finer `outputUnit`';
   return new BridgeworkError(
     'out-of-range',
     `\`targetError\` ${target}${u} cannot be met by a ${type} function: ${reached}; ${hint}`,

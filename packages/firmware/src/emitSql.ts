@@ -24,6 +24,9 @@ export const sqlDialects: readonly SqlDialect[] = Object.freeze(['duckdb', 'post
  * - `'polynomial'`: y = Σ c_k (x − offset)^k by Horner's rule in binary64 for codes in
  *   [`codeMin`, `codeMax`] — an approximation of a nonlinear channel's map with a stated bound
  *   `maxAbsError` against the exact map (the firmware package's verified float64 polynomial).
+ * - `'piecewise-polynomial'`: one such polynomial per segment of codes (the firmware package's
+ *   verified float64 piecewise polynomial, each segment in powers of the code minus its centre),
+ *   within `maxAbsError` of the exact map on every covered code.
  */
 export type SqlMap =
   | {
@@ -61,7 +64,31 @@ export type SqlMap =
       readonly codeMax: number;
       /** Largest |y − exact map| over the covered codes, in the value's unit (a verified bound). */
       readonly maxAbsError: number;
+      /** How `maxAbsError` was established: over every covered code, or on a sample. Default: not stated. */
+      readonly boundCheck?: 'every-code' | 'sampled';
+    }
+  | {
+      /** Binary64 polynomials on consecutive ranges of codes. */
+      readonly form: 'piecewise-polynomial';
+      /** The segments in ascending order of code, not overlapping (gaps give NULL). */
+      readonly segments: readonly SqlPolynomialSegment[];
+      /** Largest |y − exact map| over every covered code, in the value's unit (a verified bound). */
+      readonly maxAbsError: number;
+      /** How `maxAbsError` was established: over every covered code, or on a sample. Default: not stated. */
+      readonly boundCheck?: 'every-code' | 'sampled';
     };
+
+/** One segment of a `'piecewise-polynomial'` {@link SqlMap}: y = Σ c_k (x − offset)^k on its codes. */
+export interface SqlPolynomialSegment {
+  /** The code subtracted first (a binary64 value; the segment's centre in the firmware's layout). */
+  readonly offset: number;
+  /** Coefficients in ascending powers (binary64 values), at least one. */
+  readonly coefficients: readonly number[];
+  /** Lowest code of the segment (inclusive). */
+  readonly codeMin: number;
+  /** Highest code of the segment (inclusive). */
+  readonly codeMax: number;
+}
 
 /** One channel of {@link emitSql}. */
 export interface SqlChannel {
@@ -129,9 +156,28 @@ function asDouble(sql: string, dialect: SqlDialect): string {
   return dialect === 'postgresql' ? `CAST(${sql} AS float8)` : `CAST(${sql} AS DOUBLE)`;
 }
 
+/** The offset, coefficients and code range of one polynomial (`param` its name in messages). */
+function checkSegment(param: string, m: Record<string, unknown>): { codeMin: number; codeMax: number } {
+  checkFinite(`${param}.offset`, m['offset']);
+  const c = m['coefficients'];
+  if (!Array.isArray(c) || c.length === 0) {
+    throw new BridgeworkError(
+      'invalid-shape',
+      `\`${param}.coefficients\` must be a non-empty array of numbers`,
+      {
+        param: `${param}.coefficients`,
+      },
+    );
+  }
+  c.forEach((x, i) => checkFinite(`${param}.coefficients[${i}]`, x));
+  const codeMin = checkInteger(`${param}.codeMin`, m['codeMin']);
+  const codeMax = checkInteger(`${param}.codeMax`, m['codeMax'], { min: codeMin });
+  return { codeMin, codeMax };
+}
+
 function checkMap(map: SqlMap): SqlMap {
   const m = checkObject('map', map);
-  const form = checkOneOf('map.form', m['form'], ['mobius', 'polynomial'] as const);
+  const form = checkOneOf('map.form', m['form'], ['mobius', 'polynomial', 'piecewise-polynomial'] as const);
   if (form === 'mobius') {
     checkOptions('map', m, {
       known: ['form', 'coefficients', 'validCodes'],
@@ -154,21 +200,44 @@ function checkMap(map: SqlMap): SqlMap {
         value: [min, max],
       });
     }
-  } else {
+  } else if (form === 'polynomial') {
     checkOptions('map', m, {
-      known: ['form', 'offset', 'coefficients', 'codeMin', 'codeMax', 'maxAbsError'],
+      known: ['form', 'offset', 'coefficients', 'codeMin', 'codeMax', 'maxAbsError', 'boundCheck'],
       required: ['offset', 'coefficients', 'codeMin', 'codeMax', 'maxAbsError'],
     });
-    checkFinite('map.offset', m['offset']);
-    const c = m['coefficients'];
-    if (!Array.isArray(c) || c.length === 0) {
-      throw new BridgeworkError('invalid-shape', '`map.coefficients` must be a non-empty array of numbers', {
-        param: 'map.coefficients',
+    checkSegment('map', m);
+  } else {
+    checkOptions('map', m, {
+      known: ['form', 'segments', 'maxAbsError', 'boundCheck'],
+      required: ['segments', 'maxAbsError'],
+    });
+    const segments = m['segments'];
+    if (!Array.isArray(segments) || segments.length === 0) {
+      throw new BridgeworkError('invalid-shape', '`map.segments` must be a non-empty array of segments', {
+        param: 'map.segments',
       });
     }
-    c.forEach((x, i) => checkFinite(`map.coefficients[${i}]`, x));
-    const lo = checkInteger('map.codeMin', m['codeMin']);
-    checkInteger('map.codeMax', m['codeMax'], { min: lo });
+    let previous = -Infinity;
+    segments.forEach((raw, i) => {
+      const param = `map.segments[${i}]`;
+      const seg = checkOptions(param, raw, {
+        known: ['offset', 'coefficients', 'codeMin', 'codeMax'],
+        required: ['offset', 'coefficients', 'codeMin', 'codeMax'],
+      });
+      const { codeMin, codeMax } = checkSegment(param, seg);
+      if (!(codeMin > previous)) {
+        throw new BridgeworkError(
+          'out-of-range',
+          `\`${param}\` must start after the previous segment ends (codes ascending, no overlap); it starts at ${codeMin}, the previous ends at ${previous}`,
+          { param: `${param}.codeMin`, value: codeMin },
+        );
+      }
+      previous = codeMax;
+    });
+  }
+  if (form !== 'mobius') {
+    if (m['boundCheck'] !== undefined)
+      checkOneOf('map.boundCheck', m['boundCheck'], ['every-code', 'sampled'] as const);
     const e = checkFinite('map.maxAbsError', m['maxAbsError']);
     if (e < 0)
       throw new BridgeworkError('negative', '`map.maxAbsError` must be ≥ 0', {
@@ -199,6 +268,9 @@ function checkMap(map: SqlMap): SqlMap {
  *   END` with `t = x − offset`: Horner's rule as the firmware evaluator computes it, so the results
  *   equal that evaluator bit for bit and lie within `maxAbsError` of the exact map; codes outside
  *   the covered span give NULL.
+ * - Piecewise polynomial: one `WHEN x >= codeMin AND x <= codeMax THEN …` arm per segment, each
+ *   Horner's rule in powers of (x − that segment's offset), in one `CASE`; codes in no segment give
+ *   NULL.
  *
  * @param map - The map.
  * @param codeSql - The SQL of the code (a quoted column name, or any expression).
@@ -227,19 +299,46 @@ export function sqlExpression(map: SqlMap, codeSql: string, dialect: SqlDialect)
     const { min, max } = m.validCodes;
     return `CASE WHEN ${x} > ${l(min)} AND ${x} < ${l(max)} THEN ((${l(a)} * ${x}) + ${l(b)}) / ((${l(c)} * ${x}) + ${l(d)}) END`;
   }
-  const t = `(${x} - ${l(m.offset)})`;
-  const cs = m.coefficients;
-  let y = l(cs[cs.length - 1] as number);
-  for (let k = cs.length - 2; k >= 0; k--) y = `((${y} * ${t}) + ${l(cs[k] as number)})`;
-  return `CASE WHEN ${x} >= ${l(m.codeMin)} AND ${x} <= ${l(m.codeMax)} THEN ${y} END`;
+  const segments = m.form === 'polynomial' ? [m] : m.segments;
+  const arms = segments.map((seg) => {
+    const t = `(${x} - ${l(seg.offset)})`;
+    const cs = seg.coefficients;
+    let y = l(cs[cs.length - 1] as number);
+    for (let k = cs.length - 2; k >= 0; k--) y = `((${y} * ${t}) + ${l(cs[k] as number)})`;
+    return `WHEN ${x} >= ${l(seg.codeMin)} AND ${x} <= ${l(seg.codeMax)} THEN ${y}`;
+  });
+  return `CASE ${arms.join(' ')} END`;
+}
+
+/** A bound to three significant digits, rounded up so that it stays a bound. */
+function boundText(x: number): string {
+  if (x === 0) return '0';
+  let up = Number(x.toPrecision(3));
+  if (up < x) up = Number((up + 10 ** (Math.floor(Math.log10(x)) - 2)).toPrecision(3));
+  return up < 1e-3 || up >= 1e6 ? up.toExponential() : String(up);
 }
 
 /** What the emitted script says of one channel's accuracy. */
 function accuracyNote(c: SqlChannel): string {
-  if (c.map.form === 'mobius') {
+  const m = c.map;
+  if (m.form === 'mobius') {
     return `the exact map, in the order of operations of the library's conversion: equal to it bit for bit where the engine evaluates IEEE 754 binary64 as written; NULL at or beyond the converter rails and outside the sensor's range`;
   }
-  return `a binary64 polynomial of degree ${c.map.coefficients.length - 1} (Horner's rule) on codes ${c.map.codeMin} to ${c.map.codeMax}: within ${c.map.maxAbsError.toPrecision(3)} ${c.unit} of the exact map (verified bound, not bit identity); NULL outside those codes`;
+  const how =
+    m.boundCheck === 'every-code'
+      ? 'a bound proved over every covered code'
+      : m.boundCheck === 'sampled'
+        ? 'a bound measured on a sample of the codes, not proved'
+        : 'a stated bound';
+  const within = `within ${boundText(m.maxAbsError)} ${c.unit} of the exact map (${how}; not bit identity); NULL outside those codes`;
+  if (m.form === 'polynomial') {
+    return `a binary64 polynomial of degree ${m.coefficients.length - 1} (Horner's rule) on codes ${m.codeMin} to ${m.codeMax}: ${within}`;
+  }
+  const segs = m.segments;
+  const degree = Math.max(...segs.map((s) => s.coefficients.length - 1));
+  const first = (segs[0] as SqlPolynomialSegment).codeMin;
+  const last = (segs[segs.length - 1] as SqlPolynomialSegment).codeMax;
+  return `a binary64 piecewise polynomial, ${segs.length} segment${segs.length === 1 ? '' : 's'} of degree ${degree} or less (Horner's rule in powers of the code minus the segment's centre) on codes ${first} to ${last}: ${within}`;
 }
 
 /**

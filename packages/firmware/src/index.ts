@@ -70,4 +70,5 @@ export {
   type SqlChannel,
   type SqlDialect,
   type SqlMap,
+  type SqlPolynomialSegment,
 } from './emitSql.js';

@@ -75,6 +75,41 @@ describe('sqlExpression', () => {
     );
   });
 
+  it('writes a piecewise polynomial as one CASE arm per segment, each in powers of (code − its offset)', () => {
+    const piecewise: SqlMap = {
+      form: 'piecewise-polynomial',
+      segments: [
+        { offset: 8, coefficients: [1, 2], codeMin: 0, codeMax: 15 },
+        { offset: 24, coefficients: [-1, 0.5, 0.25], codeMin: 16, codeMax: 31 },
+      ],
+      maxAbsError: 1e-9,
+    };
+    const x = 'CAST("c" AS float8)';
+    const f = (v: string) => `float8 '${v}'`;
+    const t1 = `(${x} - ${f('8e+0')})`;
+    const t2 = `(${x} - ${f('2.4e+1')})`;
+    expect(sqlExpression(piecewise, '"c"', 'postgresql')).toBe(
+      `CASE WHEN ${x} >= ${f('0e+0')} AND ${x} <= ${f('1.5e+1')} THEN ((${f('2e+0')} * ${t1}) + ${f('1e+0')}) ` +
+        `WHEN ${x} >= ${f('1.6e+1')} AND ${x} <= ${f('3.1e+1')} THEN ((((${f('2.5e-1')} * ${t2}) + ${f('5e-1')}) * ${t2}) + ${f('-1e+0')}) END`,
+    );
+    // The script says how the bound was found, rounded up to three digits (never below the bound).
+    const note = (boundCheck?: 'every-code' | 'sampled') =>
+      emitSql([
+        {
+          name: 't',
+          unit: '°C',
+          map: { ...piecewise, maxAbsError: 1.2341e-6, ...(boundCheck === undefined ? {} : { boundCheck }) },
+        },
+      ]);
+    expect(note('every-code')).toContain(
+      "a binary64 piecewise polynomial, 2 segments of degree 2 or less (Horner's rule in powers of the code minus the segment's centre) on codes 0 to 31: within 1.24e-6 °C of the exact map (a bound proved over every covered code; not bit identity)",
+    );
+    expect(note('sampled')).toContain(
+      '(a bound measured on a sample of the codes, not proved; not bit identity)',
+    );
+    expect(note()).toContain('(a stated bound; not bit identity)');
+  });
+
   it('rejects malformed maps and dialects with typed errors', () => {
     expect(() => sqlExpression(mobius, '"c"', 'oracle' as never)).toThrowBridgeworkError('invalid-option', {
       param: 'dialect',
@@ -105,6 +140,29 @@ describe('sqlExpression', () => {
         'duckdb',
       ),
     ).toThrowBridgeworkError('negative', { param: 'map.maxAbsError' });
+    const seg = { offset: 0, coefficients: [1], codeMin: 0, codeMax: 9 };
+    const pw = (segments: unknown[], extra: object = {}) =>
+      sqlExpression(
+        { form: 'piecewise-polynomial', segments, maxAbsError: 0, ...extra } as never,
+        '"c"',
+        'duckdb',
+      );
+    expect(() => pw([])).toThrowBridgeworkError('invalid-shape', { param: 'map.segments' });
+    expect(() => pw([seg, { ...seg, codeMin: 9, codeMax: 20 }])).toThrowBridgeworkError('out-of-range', {
+      param: 'map.segments[1].codeMin',
+    });
+    expect(() => pw([{ ...seg, coefficients: [] }])).toThrowBridgeworkError('invalid-shape', {
+      param: 'map.segments[0].coefficients',
+    });
+    expect(() => pw([{ ...seg, codeMax: -1 }])).toThrowBridgeworkError('out-of-range', {
+      param: 'map.segments[0].codeMax',
+    });
+    expect(() => pw([{ ...seg, centre: 4 }])).toThrowBridgeworkError('unknown-option', {
+      param: 'map.segments[0].centre',
+    });
+    expect(() => pw([seg], { boundCheck: 'proved' })).toThrowBridgeworkError('invalid-option', {
+      param: 'map.boundCheck',
+    });
   });
 });
 
@@ -133,7 +191,7 @@ describe('emitSql', () => {
     expect(lines[0]).toBe('-- bridgework 0.1.0: SQL maps from converter codes to values (dialect duckdb)');
     expect(lines[1]).toMatch(/^-- Results support, and do not replace, qualified engineering judgement/);
     expect(sql).toContain('hook (N), from column hook: the exact map');
-    expect(sql).toContain('within 2.50e-7 °C of the exact map (verified bound, not bit identity)');
+    expect(sql).toContain('within 2.5e-7 °C of the exact map (a stated bound; not bit identity)');
     expect(sql).toContain('  "time",\n  CASE WHEN CAST("hook" AS DOUBLE)');
     expect(sql).toContain('END AS "deck ""temp"""');
     expect(sql).toContain('CAST("deck_code" AS DOUBLE)');

@@ -56,8 +56,18 @@ describe('@bridgework/uncertainty/node: worker threads', () => {
           const r = await pool.run({ ...options, coverage });
           expect(r).toEqual(monteCarlo({ model: twelveInputPositional, ...options, coverage }));
         }
-        expect(intervalRoutes.fromWorkers - before.fromWorkers).toBe(2);
-        expect(intervalRoutes.onMainThread - before.onMainThread).toBe(0);
+        const fromWorkers = intervalRoutes.fromWorkers - before.fromWorkers;
+        const onMainThread = intervalRoutes.onMainThread - before.onMainThread;
+        if (workers <= 2) {
+          // Each worker has room for every tail value of the run: the workers' route always holds.
+          expect(fromWorkers, `${workers} workers`).toBe(2);
+          expect(onMainThread, `${workers} workers`).toBe(0);
+        } else {
+          // Three workers have room for twice their share each: a worker that ran most blocks (the
+          // others starved of a core on a loaded machine) overflows it, and the main thread takes
+          // the tails instead — the same values, checked above.
+          expect(fromWorkers + onMainThread, `${workers} workers`).toBe(2);
+        }
       } finally {
         await pool.close();
       }

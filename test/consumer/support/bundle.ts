@@ -110,6 +110,13 @@ export const measuredPaths: readonly MeasuredPath[] = [
     contents: `import { createChannel } from '@bridgework/channel';
 export const convert = (spec, codes) => createChannel(spec).convert(codes);`,
   },
+  {
+    label: 'the opt-in RTD polynomial (`@bridgework/channel/rtd-polynomial`) with createChannel + convert',
+    contents: `import { createChannel } from '@bridgework/channel';
+import { createRtdPolynomialConverter } from '@bridgework/channel/rtd-polynomial';
+export const convert = (spec, codes) => createChannel(spec).convert(codes);
+export const convertFast = (spec, codes) => createRtdPolynomialConverter(createChannel(spec)).convert(codes);`,
+  },
   { label: 'validateChannelSpec', contents: `export { validateChannelSpec } from '@bridgework/channel';` },
   {
     label: 'createChannel + channelBudget',

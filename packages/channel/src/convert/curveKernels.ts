@@ -227,8 +227,11 @@ function cvdInt32(
   }
 }
 
-/** One sample at a time (any codes, strides, in place): the scalar path's branches, in its order. */
-function cvdSamples(
+/**
+ * One sample at a time (any codes, strides, in place): the scalar path's branches, in its order.
+ * Also the exact path of the opt-in polynomial converter (../rtdPolynomialConverter.ts).
+ */
+export function cvdSamples(
   codes: Codes,
   out: Float64Array,
   k: CallendarVanDusenKernel,

@@ -1,7 +1,8 @@
 import { channelConstants } from '@bridgework/channel';
 import { BridgeworkError } from '@bridgework/core';
-import { emitSql, type SqlChannel, type SqlDialect, type SqlMap } from '@bridgework/firmware';
+import { emitSql, segmentCodes, type SqlChannel, type SqlDialect, type SqlMap } from '@bridgework/firmware';
 import { inChannel, type LoadedChannel, type LoadedChannels } from '../channels/loadChannels.js';
+import { asCommandLine, short, shortUp } from './constantsText.js';
 
 /** Options of {@link constantsSql}. */
 export interface ConstantsSqlOptions {
@@ -13,6 +14,18 @@ export interface ConstantsSqlOptions {
   readonly verification: 'auto' | 'exhaustive' | 'sampled';
   /** The tool and version for the script's first comment (`'bridgework 0.1.0'`). */
   readonly generator: string;
+  /** Per channel name, the total error a nonlinear channel's polynomial must meet (`--target-error`). */
+  readonly targetErrors?: ReadonlyMap<string, number>;
+  /** The largest coefficient table of a nonlinear channel's polynomial, bytes (`--max-table-bytes`). */
+  readonly maxTableBytes?: number;
+}
+
+/** What {@link constantsSql} returns: the script, and a line per nonlinear channel for standard error. */
+export interface ConstantsSqlResult {
+  /** The SQL script. */
+  readonly sql: string;
+  /** One line per channel written as a polynomial: its form and its verified bound. */
+  readonly summary: readonly string[];
 }
 
 /**
@@ -24,35 +37,73 @@ export interface ConstantsSqlOptions {
 function sqlMapOf(
   loaded: LoadedChannels,
   c: LoadedChannel,
-  verification: ConstantsSqlOptions['verification'],
-): SqlMap {
+  options: ConstantsSqlOptions,
+): { map: SqlMap; summary?: string } {
   const m = c.channel.map;
   if (m.form === 'mobius') {
-    return { form: 'mobius', coefficients: m.coefficients, validCodes: m.validCodes };
+    return { map: { form: 'mobius', coefficients: m.coefficients, validCodes: m.validCodes } };
   }
-  // One float64 polynomial over the whole span (a table of at most 6 doubles: a single segment),
-  // designed by the firmware package to the channel's default target and verified against the
-  // channel's exact map.
-  const designed = inChannel(loaded, c, () =>
-    channelConstants(c.channel, { verification, types: ['float64'], maxTableBytes: 48 }),
-  );
+  // The firmware package's float64 function over the channel's span: the cheapest form (affine,
+  // or a piecewise polynomial of up to degree 5 in segments of 2^k codes) that meets the target
+  // error against the channel's exact map, verified over the span's codes.
+  const target = options.targetErrors?.get(c.name);
+  const designed = inChannel(loaded, c, () => {
+    try {
+      return channelConstants(c.channel, {
+        verification: options.verification,
+        types: ['float64'],
+        ...(target === undefined ? {} : { targetError: target }),
+        ...(options.maxTableBytes === undefined ? {} : { maxTableBytes: options.maxTableBytes }),
+      });
+    } catch (e) {
+      return asCommandLine(e);
+    }
+  });
   const f64 = designed.float64;
   const total = designed.totals.float64;
-  if (f64?.kind !== 'piecewise-polynomial' || f64.segmentCount !== 1 || total === undefined) {
+  if (f64 === undefined || total === undefined || f64.kind === 'mobius') {
     throw new BridgeworkError(
       'invalid-spec',
-      `channel '${c.name}' has no verified single float64 polynomial over its span for SQL (its map is not a ratio of affine functions of the code, and one polynomial of degree 5 or less does not meet its target error); write its constants as C or JSON instead`,
+      `channel '${c.name}' has no verified float64 polynomial over its span for SQL (its map is not a ratio of affine functions of the code); write its constants as C or JSON instead`,
       { param: `channels.${c.name}` },
     );
   }
+  const unit = c.channel.unit;
+  const how = total.proved
+    ? `proved over all ${total.codesChecked} codes`
+    : `measured on ${total.codesChecked} codes`;
+  const bound = `total error <= ${shortUp(total.bound)} ${unit} against the exact map (${how}; target ${short(designed.targetError)} ${unit})`;
+  const boundCheck = total.proved ? ('every-code' as const) : ('sampled' as const);
+  if (f64.kind === 'piecewise-polynomial') {
+    const layout = {
+      codeMin: f64.codeMin,
+      codeMax: f64.codeMax,
+      segmentBase: f64.segmentBase,
+      segmentBits: f64.segmentBits,
+    };
+    const segments = f64.coefficients.map((coefficients, i) => {
+      // Each segment in powers of (code − its centre), as the firmware's evaluator forms it.
+      const s = segmentCodes(layout, i);
+      return { offset: s.centre, coefficients, codeMin: s.first, codeMax: s.last };
+    });
+    return {
+      map: { form: 'piecewise-polynomial', segments, maxAbsError: total.bound, boundCheck },
+      summary: `${c.name}: SQL polynomial of degree ${f64.degree}, ${segments.length} segment${segments.length === 1 ? '' : 's'}, ${bound}`,
+    };
+  }
+  // y = (code − offset)·scale or a polynomial in (code − offset): Horner's rule in powers of t = code − offset.
+  const coefficients = f64.kind === 'affine' ? [0, f64.scale] : f64.coefficients;
   return {
-    form: 'polynomial',
-    // The segment's centre: t = code − centre, as the firmware's evaluator forms it.
-    offset: f64.segmentBase + 2 ** (f64.segmentBits - 1),
-    coefficients: f64.coefficients[0] as readonly number[],
-    codeMin: f64.codeMin,
-    codeMax: f64.codeMax,
-    maxAbsError: total.bound,
+    map: {
+      form: 'polynomial',
+      offset: f64.offset,
+      coefficients,
+      codeMin: f64.codeMin,
+      codeMax: f64.codeMax,
+      maxAbsError: total.bound,
+      boundCheck,
+    },
+    summary: `${c.name}: SQL polynomial of degree ${coefficients.length - 1}, one segment, ${bound}`,
   };
 }
 
@@ -78,7 +129,7 @@ function sqlMapOf(
  * @throws {@link @bridgework/core!BridgeworkError} `invalid-option` (param `--table`) for a bad table
  * name, and what the channel's constants throw.
  */
-export function constantsSql(loaded: LoadedChannels, options: ConstantsSqlOptions): string {
+export function constantsSql(loaded: LoadedChannels, options: ConstantsSqlOptions): ConstantsSqlResult {
   if (!/^[^\0]+$/.test(options.table) || options.table.split('.').some((part) => part === '')) {
     throw new BridgeworkError(
       'invalid-option',
@@ -86,14 +137,15 @@ export function constantsSql(loaded: LoadedChannels, options: ConstantsSqlOption
       { param: '--table', value: options.table },
     );
   }
-  const channels: SqlChannel[] = loaded.channels.map((c) => ({
-    name: c.name,
-    unit: c.channel.unit,
-    map: sqlMapOf(loaded, c, options.verification),
-  }));
+  const summary: string[] = [];
+  const channels: SqlChannel[] = loaded.channels.map((c) => {
+    const { map, summary: line } = sqlMapOf(loaded, c, options);
+    if (line !== undefined) summary.push(line);
+    return { name: c.name, unit: c.channel.unit, map };
+  });
   const sql = emitSql(channels, { dialect: options.dialect, table: options.table });
   const names = loaded.channels.map((c) => c.name).join(', ');
   // One comment line: no line break may end it early.
   const line = `-- From the channel file ${loaded.file.file} (channels ${names}) by ${options.generator}.`;
-  return `${line.replace(/[\r\n\u2028\u2029]/g, ' ')}\n${sql}`;
+  return { sql: `${line.replace(/[\r\n\u2028\u2029]/g, ' ')}\n${sql}`, summary };
 }

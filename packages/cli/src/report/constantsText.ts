@@ -136,13 +136,13 @@ function formOf(map: FirmwareMap): string {
   return map.kind === 'mobius' ? 'Moebius' : map.kind;
 }
 
-/** Three significant digits without trailing zeros. */
-function short(x: number): string {
+/** Three significant digits without trailing zeros. @internal */
+export function short(x: number): string {
   return String(Number(x.toPrecision(3)));
 }
 
-/** A bound to three significant digits, rounded up so that it stays a bound. */
-function shortUp(x: number): string {
+/** A bound to three significant digits, rounded up so that it stays a bound. @internal */
+export function shortUp(x: number): string {
   const rounded = Number(x.toPrecision(3));
   return String(
     rounded >= x ? rounded : Number((rounded + 10 ** (Math.floor(Math.log10(x)) - 2)).toPrecision(3)),
@@ -168,8 +168,8 @@ function summaryLines(
   });
 }
 
-/** Puts the command line's option names into a library message about its options. */
-function asCommandLine(e: unknown): never {
+/** Puts the command line's option names into a library message about its options. @internal */
+export function asCommandLine(e: unknown): never {
   if (isBridgeworkError(e)) {
     const renamed: Record<string, string> = {
       targetError: '--target-error',

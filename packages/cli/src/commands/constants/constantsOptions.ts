@@ -16,7 +16,7 @@ export const constantsOptions = [
     choices: ['c', 'json', 'sql'],
     default: 'c',
     description:
-      "Output format: a C99 header, JSON, or SQL (a SELECT that turns a table of codes into values in the user's engine: the exact map of a linear-fractional channel, equal to the library bit for bit; a nonlinear channel's verified float64 polynomial with its bound).",
+      "Output format: a C99 header, JSON, or SQL (a SELECT that turns a table of codes into values in the user's engine: the exact map of a linear-fractional channel, equal to the library bit for bit; a nonlinear channel's verified float64 piecewise polynomial with its bound, --target-error setting it).",
   },
   {
     name: 'dialect',
@@ -59,7 +59,7 @@ export const constantsOptions = [
     placeholder: 'value',
     defaultText: 'max(u_c/10, one output step) per channel',
     description:
-      "The total error each function must meet against the channel's exact map, in the channel's output unit: one number for every channel, or name=value entries (deck-temp=0.01,gusset-g2=0.5). The cheapest form meeting it is chosen; if none does, the command fails naming the best bound reached and writes nothing.",
+      "The total error each function must meet against the channel's exact map, in the channel's output unit: one number for every channel, or name=value entries (deck-temp=0.01,gusset-g2=0.5). The cheapest form meeting it is chosen; if none does, the command fails naming the best bound reached and writes nothing. With --format sql it is the bound of a nonlinear channel's binary64 polynomial (a linear-fractional channel is written as its exact map).",
   },
   {
     name: 'output-step',
@@ -107,7 +107,8 @@ export const constantsOptions = [
     default: 4096,
     min: 16,
     max: 16777216,
-    description: 'The largest constant table one function may use.',
+    description:
+      "The largest constant table one function may use (with --format sql, a nonlinear channel's polynomial coefficients).",
   },
   {
     name: 'verification',

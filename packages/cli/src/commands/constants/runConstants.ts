@@ -33,6 +33,20 @@ export async function run(args: ConstantsArgs, context: CommandContext): Promise
       { param: '--types', value: options.types },
     );
   }
+  if (options.format === 'sql' && options.outputStep !== undefined) {
+    throw new BridgeworkError(
+      'conflicting-options',
+      "--output-step sets the fixed-point function's output step; --format sql writes binary64 SQL and takes none (--target-error sets a nonlinear channel's bound)",
+      { param: '--output-step', value: options.outputStep },
+    );
+  }
+  if (options.format === 'sql' && options.hardwareDivide) {
+    throw new BridgeworkError(
+      'conflicting-options',
+      "--hardware-divide makes the Moebius form a firmware candidate; --format sql writes a linear-fractional channel's exact map as it is and a nonlinear channel's polynomial, and takes none",
+      { param: '--hardware-divide' },
+    );
+  }
   if (options.testProgram !== undefined && options.format !== 'c') {
     throw new BridgeworkError(
       'conflicting-options',
@@ -69,14 +83,16 @@ export async function run(args: ConstantsArgs, context: CommandContext): Promise
   try {
     const generator = `bridgework ${await readVersion()}`;
     if (options.format === 'sql') {
-      await output.write(
-        constantsSql(loaded, {
-          dialect: options.dialect,
-          table: options.table,
-          verification: options.verification,
-          generator,
-        }),
-      );
+      const sql = constantsSql(loaded, {
+        dialect: options.dialect,
+        table: options.table,
+        verification: options.verification,
+        generator,
+        maxTableBytes: options.maxTableBytes,
+        ...(targetErrors === undefined ? {} : { targetErrors }),
+      });
+      for (const line of sql.summary) context.io.stderr.write(`${line}\n`);
+      await output.write(sql.sql);
       if (options.channel === undefined && (await loadGroups(loaded)).length > 0)
         context.io.stderr.write(
           "bridgework constants: the SQL holds the channels only; the file's multi-bridge groups are written by the C and JSON formats\n",
