@@ -93,7 +93,7 @@ describe('planeStress: check values', () => {
 });
 
 describe('planeStress: against 40-digit references', () => {
-  it('matches Hooke-then-eigs (decimal.js, mathjs eigs at 40 digits) over random states and materials', () => {
+  it('matches Hooke-then-eigs (decimal.js: Hooke at 40 digits, the closed-form eigenvalues at 80) over random states and materials', () => {
     fc.assert(
       fc.property(state, material, (s, m) => {
         const p = planeStress({ strainState: s, ...m });

@@ -1,7 +1,7 @@
 /**
  * Independent references for the mechanics tests. Nothing here shares code or algebra with src/:
- * - mathjs (private 40-digit BigNumber instance): `eigs` of the 2×2 strain tensor and an LU solve
- *   (`lusolve`) of the rosette leg equations εθ = εx·cos²θ + εy·sin²θ + γxy·sinθ·cosθ (with
+ * - decimal.js at 80 digits: the closed-form eigen-decomposition of the 2×2 strain tensor;
+ * - mathjs (private 40-digit BigNumber instance): an LU solve (`lusolve`) of the rosette leg equations εθ = εx·cos²θ + εy·sin²θ + γxy·sinθ·cosθ (with
  *   the sines and cosines from decimal.js at 40 digits);
  * - decimal.js (private 40-digit clone): plane-stress equations and section formulas;
  * - Gauss–Legendre quadrature of the defining integrals of A and I.
@@ -13,7 +13,7 @@ import { exactDecimalString } from '@bridgework/core';
 
 // mathjs types its factory map as possibly undefined under noUncheckedIndexedAccess; it is always present.
 // Its default tolerances (relTol 1e-12, absTol 1e-15) would treat strains below 1e-15 as zero and
-// stop eigs at 12 digits: tighten both for a 40-digit reference. Inputs are also scaled by an
+// stop its solvers at 12 digits: tighten both for a 40-digit reference. Inputs are also scaled by an
 // exact power of two to order one before solving, and the results scaled back.
 const math = create(all as NonNullable<typeof all>, {
   number: 'BigNumber',
@@ -46,25 +46,38 @@ export interface EigenReference {
   readonly maxVector: readonly [number, number];
 }
 
-/** Eigen-decomposition of [[εx, γ/2], [γ/2, εy]] by mathjs `eigs` at 40 digits. */
+/** A private 80-digit decimal.js for the closed-form eigen-decomposition. */
+const E = Decimal.clone({ precision: 80, rounding: Decimal.ROUND_HALF_EVEN });
+
+/**
+ * Eigen-decomposition of the symmetric tensor [[εx, γ/2], [γ/2, εy]] by the closed form of a
+ * symmetric 2×2 matrix (any linear-algebra text): λ = c ± R with c = (εx + εy)/2 and
+ * R = √(((εx − εy)/2)² + (γ/2)²), eigenvector of λ1 = c + R along (γ/2, λ1 − εx) — or along
+ * (λ1 − εy, γ/2), whichever is longer — evaluated in decimal.js at 80 digits from the doubles'
+ * exact values. (mathjs `eigs` at 40 digits was used before; on rare random tensors its BigNumber
+ * Jacobi rotation ran for minutes.) At 80 digits c − R keeps more than 40 significant digits even
+ * when it nearly cancels (a principal strain 1e-17 of the other), so the smaller value needs no
+ * product form.
+ */
 export function strainTensorEigs(strainX: number, strainY: number, shearStrainXY: number): EigenReference {
-  const k = scaleFor([strainX, strainY, shearStrainXY]);
-  const half = big((shearStrainXY * k) / 2); // tensor shear εxy = γxy/2 (exact: powers of two)
-  const tensor = math.matrix([
-    [big(strainX * k), half],
-    [half, big(strainY * k)],
-  ]);
-  const r = math.eigs(tensor);
-  const pairs = r.eigenvectors.map((e) => ({
-    value: Number(e.value as BigNumber) / k,
-    vector: ((e.vector as Matrix).toArray() as BigNumber[]).map(Number),
-  }));
-  pairs.sort((a, b) => a.value - b.value);
-  const top = pairs[1]!;
-  return {
-    values: [pairs[0]!.value, top.value],
-    maxVector: [top.vector[0]!, top.vector[1]!],
-  };
+  const x = new E(exactDecimalString(strainX));
+  const y = new E(exactDecimalString(strainY));
+  const b = new E(exactDecimalString(shearStrainXY)).div(2); // tensor shear εxy = γxy/2 (exact)
+  const c = x.plus(y).div(2);
+  const r = x.minus(y).div(2).pow(2).plus(b.pow(2)).sqrt();
+  const max = c.plus(r);
+  const min = c.minus(r);
+  // Two candidate eigenvectors of λ1; the longer is the better conditioned (both vanish only
+  // when the tensor is a multiple of the identity, where every direction is principal).
+  const u = [b, max.minus(x)] as const;
+  const v = [max.minus(y), b] as const;
+  const norm = (w: readonly [Decimal, Decimal]) => w[0].pow(2).plus(w[1].pow(2)).sqrt();
+  const w = norm(u).gte(norm(v)) ? u : v;
+  const n = norm(w);
+  const maxVector: readonly [number, number] = n.isZero()
+    ? [1, 0]
+    : [w[0].div(n).toNumber(), w[1].div(n).toNumber()];
+  return { values: [min.toNumber(), max.toNumber()], maxVector };
 }
 
 /** Solves the three leg equations for (εx, εy, γxy) by a 40-digit LU solve. */
@@ -171,7 +184,7 @@ export interface PlaneStressReference {
   readonly stressX: number;
   readonly stressY: number;
   readonly shearStressXY: number;
-  /** Principal stresses [σ2, σ1] as eigenvalues of the stress tensor (mathjs eigs, 40 digits). */
+  /** Principal stresses [σ2, σ1] as eigenvalues of the stress tensor (closed form, 80 digits). */
   readonly principal: readonly [number, number];
   readonly vonMises: number;
   readonly outOfPlaneStrain: number;
@@ -179,8 +192,8 @@ export interface PlaneStressReference {
 
 /**
  * Plane stress the other way round from src/: Hooke's law on the x–y components first (40-digit
- * decimal.js), then the principal stresses as eigenvalues of [[σx, τxy], [τxy, σy]] (mathjs
- * eigs), and von Mises from the component form √(σx² − σxσy + σy² + 3τxy²).
+ * decimal.js), then the principal stresses as eigenvalues of [[σx, τxy], [τxy, σy]] (the closed
+ * form of a symmetric 2×2 matrix at 80 digits), and von Mises from the component form √(σx² − σxσy + σy² + 3τxy²).
  */
 export function planeStressReference(
   strainX: number,
@@ -195,14 +208,11 @@ export function planeStressReference(
   const sx = k.times(dec(strainX).plus(nu.times(dec(strainY))));
   const sy = k.times(dec(strainY).plus(nu.times(dec(strainX))));
   const txy = e.div(nu.plus(1).times(2)).times(dec(shearStrainXY));
-  const scale = Math.max(Math.abs(Number(sx)), Math.abs(Number(sy)), Math.abs(Number(txy)));
-  const s = scale === 0 ? 1 : 2 ** -Math.floor(Math.log2(scale));
-  const tensor = math.matrix([
-    [math.bignumber(sx.times(s).toString()), math.bignumber(txy.times(s).toString())],
-    [math.bignumber(txy.times(s).toString()), math.bignumber(sy.times(s).toString())],
-  ]);
-  const values = (math.eigs(tensor, { eigenvectors: false }).values as Matrix).toArray() as BigNumber[];
-  const principal = values.map((v) => Number(v) / s).sort((a, b) => a - b) as [number, number];
+  // The eigenvalues of [[σx, τxy], [τxy, σy]]: c ± √(((σx − σy)/2)² + τxy²), at 80 digits.
+  const [x, y, b] = [new E(sx), new E(sy), new E(txy)];
+  const c = x.plus(y).div(2);
+  const r = x.minus(y).div(2).pow(2).plus(b.pow(2)).sqrt();
+  const principal: [number, number] = [c.minus(r).toNumber(), c.plus(r).toNumber()];
   const vonMises = sx.times(sx).minus(sx.times(sy)).plus(sy.times(sy)).plus(txy.times(txy).times(3)).sqrt();
   const ez = nu
     .negated()
