@@ -7,7 +7,8 @@
  * shortest round-trip digits and with fewer digits. Peak memory (max RSS) of each conversion is
  * printed, and the CPU time (user + system, from GNU time where /usr/bin/time exists) of every run,
  * which on a shared machine measures the work where wall time also measures the queue. `--codes=N`
- * and `--rounds=N` change the size and the rounds. Targets (issue 17): raw → float32/float64/Arrow at ≥ 50 % of the copy's speed; CSV at
+ * and `--rounds=N` change the size and the rounds; `--threads=N` (default 1; 0 to leave them out)
+ * adds the conversions with `--convert-threads N`. Targets (issue 17): raw → float32/float64/Arrow at ≥ 50 % of the copy's speed; CSV at
  * ≥ 20 million values/s.
  */
 import { spawnSync } from 'node:child_process';
@@ -45,6 +46,8 @@ const flag = (name: string): number | undefined => {
 const totalCodes = flag('codes') ?? (short ? 1_000_000 : 100_000_000);
 const csvCodes = totalCodes / 10;
 const rounds = flag('rounds') ?? (short ? 1 : 3);
+// Worker threads of the threaded cases (`--threads=N`; 0 leaves them out).
+const threads = flag('threads') ?? 1;
 
 const dir = mkdtempSync(join(tmpdir(), 'bridgework-convert-bench-'));
 process.on('exit', () => rmSync(dir, { recursive: true, force: true }));
@@ -179,6 +182,55 @@ const cases: Case[] = [
     argv: convert(csvInput, 'csv', ['--digits', '6']),
   },
 ];
+if (threads > 0) {
+  // The same conversions with the blocks converted (and CSV formatted) in worker threads.
+  const t = ['--convert-threads', String(threads)];
+  const threaded = (name: string, c: Case): Case => ({ ...c, name: `${name} (${threads} thr)` });
+  cases.push(
+    threaded('→ float32le', {
+      name: '',
+      values: totalCodes,
+      bytes: inputBytes,
+      argv: convert(input, 'float32le', t),
+    }),
+    threaded('→ float64le', {
+      name: '',
+      values: totalCodes,
+      bytes: inputBytes,
+      argv: convert(input, 'float64le', t),
+    }),
+    threaded('→ arrow', {
+      name: '',
+      values: totalCodes,
+      bytes: inputBytes,
+      argv: convert(input, 'arrow', t),
+    }),
+    threaded('→ parquet (snappy)', {
+      name: '',
+      values: totalCodes,
+      bytes: inputBytes,
+      argv: convert(input, 'parquet', t),
+    }),
+    threaded('→ csv (shortest)', {
+      name: '',
+      values: csvCodes,
+      bytes: csvCodes * 4,
+      argv: convert(csvInput, 'csv', t),
+    }),
+    threaded('→ csv --digits 9', {
+      name: '',
+      values: csvCodes,
+      bytes: csvCodes * 4,
+      argv: convert(csvInput, 'csv', ['--digits', '9', ...t]),
+    }),
+    threaded('→ csv --digits 6', {
+      name: '',
+      values: csvCodes,
+      bytes: csvCodes * 4,
+      argv: convert(csvInput, 'csv', ['--digits', '6', ...t]),
+    }),
+  );
+}
 
 // CPU time (user + system) of each run, from GNU time when the machine has it: on a machine shared
 // with other work, wall time measures the queue as much as the program; CPU time measures its work.
@@ -247,7 +299,7 @@ console.log(
     .join(' ')}`,
 );
 console.log(
-  'case                          median s   input MB/s   M values/s   speed vs cp  vs cp+fsync  vs node copy  by CPU   out MB  max RSS MiB   CPU s  M values/CPU s',
+  'case                            median s   input MB/s   M values/s   speed vs cp  vs cp+fsync  vs node copy  by CPU   out MB  max RSS MiB   CPU s  M values/CPU s',
 );
 cases.forEach((c, i) => {
   const t = times[i] as number[];
@@ -262,7 +314,7 @@ cases.forEach((c, i) => {
       : Number.NaN;
   const show = (x: number): string => (Number.isNaN(x) ? '—' : x.toFixed(2));
   console.log(
-    `${c.name.padEnd(30)}${s.toFixed(3).padStart(8)}${(c.bytes / s / 1e6).toFixed(0).padStart(13)}${(c.values / s / 1e6).toFixed(1).padStart(13)}${show(ratio).padStart(14)}${show(synced).padStart(13)}${show(node).padStart(14)}${show(nodeCpu).padStart(8)}${((sizes[i] as number) / 1e6).toFixed(0).padStart(9)}${(peaks[i] ? ((peaks[i] as number) / 1024).toFixed(0) : '—').padStart(14)}${median(
+    `${c.name.padEnd(32)}${s.toFixed(3).padStart(8)}${(c.bytes / s / 1e6).toFixed(0).padStart(13)}${(c.values / s / 1e6).toFixed(1).padStart(13)}${show(ratio).padStart(14)}${show(synced).padStart(13)}${show(node).padStart(14)}${show(nodeCpu).padStart(8)}${((sizes[i] as number) / 1e6).toFixed(0).padStart(9)}${(peaks[i] ? ((peaks[i] as number) / 1024).toFixed(0) : '—').padStart(14)}${median(
       cpus[i] as number[],
     )
       .toFixed(2)

@@ -79,8 +79,10 @@ async function convert(
   to: string,
   extra: readonly string[],
   threads: number,
+  fromStart = true,
 ): Promise<{ bytes: Buffer; stderr: string }> {
-  const io = memoryIo();
+  // Every block to the workers (none converted on this thread while they start), unless `started`.
+  const io = memoryIo({ env: { BRIDGEWORK_CONVERT_THREADS_FROM_START: fromStart ? '1' : undefined } });
   const out = outPath(`out-${threads}.${to}`);
   const code = await runCli(
     ['convert', exampleShown, input, '--block', String(BLOCK), '--to', to, '-o', out, ...extra],
@@ -187,6 +189,13 @@ describe('conversion in worker threads equals one thread, bit for bit', () => {
     },
   );
 });
+
+it('with the default start (blocks converted here until the workers are ready), the same bytes', async () => {
+  const one = await convert(raw, 'csv', ['--convert-threads', '0'], 0);
+  const many = await convert(raw, 'csv', ['--convert-threads', '2'], 2, false);
+  expect(many.stderr).toBe(one.stderr);
+  expect(many.bytes.equals(one.bytes)).toBe(true);
+}, 60_000);
 
 describe('errors in a worker thread', () => {
   it('cross to the main thread as the same BridgeworkError (code, message, param, value, limit)', () => {

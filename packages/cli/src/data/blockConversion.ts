@@ -241,14 +241,18 @@ export interface BlockJob {
   readonly codes: Int32Array | Float64Array;
   /** `rows`: the block's time stamps, or `undefined`. */
   readonly timeStamps: TimeStamps | undefined;
-  /** Receives the output: values (`frames`, `lanes`) or text (`rows`; replaced when too small). */
-  readonly out: ArrayBuffer;
+  /**
+   * Receives the output: values (`frames`, `lanes`) or text (`rows`), at least
+   * {@link blockOutputBytes} long. Shared memory between threads (never transferred: a detached
+   * buffer would slow every typed-array access of the thread that detached it).
+   */
+  readonly out: ArrayBufferLike;
 }
 
 /** What a block's conversion gives back. */
 export interface BlockDone {
-  /** The output buffer (the job's, or a larger one for text that did not fit). */
-  readonly out: ArrayBuffer;
+  /** The job's output buffer. */
+  readonly out: ArrayBufferLike;
   /** `rows`: bytes of text in `out`; else values in it. */
   readonly length: number;
   /** Per channel, samples written as NaN. */
@@ -259,19 +263,17 @@ export interface BlockDone {
   readonly temperature: number | undefined;
 }
 
-/** Starting bytes of text per value for a block's rows (they grow when a block needs more). */
-const TEXT_BYTES_PER_VALUE = 20;
-
 /**
- * The bytes a block's output takes at first: values for `frames` and `lanes`, a guess of the text
- * for `rows` (grown by the runner when the text needs more).
+ * The bytes a block's output may take: its values for `frames` and `lanes`; for `rows` the longest
+ * text its rows can have ({@link maxRowBytes} per row, with a time stamp: 32 bytes per value, of
+ * which a strain channel's shortest text uses about 20).
  *
  * @param setup - The lane setup.
  * @returns Bytes.
  */
 export function blockOutputBytes(setup: LaneSetup): number {
   const values = setup.blockFrames * setup.channels;
-  if (setup.mode === 'rows') return values * TEXT_BYTES_PER_VALUE + maxRowBytes(setup.channels, true);
+  if (setup.mode === 'rows') return setup.blockFrames * maxRowBytes(setup.channels, true);
   return values * (setup.mode === 'frames' && setup.output === 'float32' ? 4 : 8);
 }
 
@@ -348,34 +350,21 @@ export function createBlockRunner(
     if (setup.mode === 'lanes') {
       return { out: job.out, length: job.frames * n, rejected, clip: counter.summary(), temperature };
     }
-    // Rows: as many as fit, then a larger buffer (the text so far copied into it).
-    const rowBytes = maxRowBytes(n, job.timeStamps !== undefined);
-    let out = new Uint8Array(job.out);
-    let done = { row: 0, pos: 0 };
-    for (;;) {
-      done = formatCsvRows(
-        values,
-        stride,
-        n,
-        job.timeStamps,
-        setup.digits,
-        done.row,
-        job.frames,
-        out,
-        done.pos,
-        out.length - rowBytes,
-      );
-      if (done.row === job.frames) break;
-      const larger = new Uint8Array(Math.max(2 * out.length, out.length + 16 * rowBytes));
-      larger.set(out.subarray(0, done.pos));
-      out = larger;
-    }
-    return {
-      out: out.buffer as ArrayBuffer,
-      length: done.pos,
-      rejected,
-      clip: counter.summary(),
-      temperature,
-    };
+    // Rows: the buffer holds the longest text a block's rows can take.
+    const out = new Uint8Array(job.out);
+    const done = formatCsvRows(
+      values,
+      stride,
+      n,
+      job.timeStamps,
+      setup.digits,
+      0,
+      job.frames,
+      out,
+      0,
+      out.length - maxRowBytes(n, job.timeStamps !== undefined),
+    );
+    if (done.row !== job.frames) throw new Error("a block's CSV text did not fit its buffer");
+    return { out: job.out, length: done.pos, rejected, clip: counter.summary(), temperature };
   };
 }

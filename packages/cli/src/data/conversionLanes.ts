@@ -3,16 +3,10 @@ import { dirname, join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import type { BlockDone, BlockJob, LaneSetup } from './blockConversion.js';
-import type { TimeStamps } from './decodeFrames.js';
 import { receiveError, type LaneReply, type LaneRequest } from './laneMessages.js';
 
-/** A block's conversion as it comes back from a worker: its output, codes and time stamps. */
-export type LaneResult = BlockDone & {
-  /** The job's codes (their memory given back). */
-  readonly codes: Int32Array | Float64Array;
-  /** The job's time stamps (their memory given back), or `undefined`. */
-  readonly timeStamps: TimeStamps | undefined;
-};
+/** A block's conversion as it comes back from a worker (its output is in the job's `out`). */
+export type LaneResult = Omit<BlockDone, 'out'>;
 
 /**
  * Worker threads that convert blocks of a recording (see {@link startConversionLanes}).
@@ -30,7 +24,8 @@ export interface ConversionLanes {
   setup(setup: LaneSetup, specs: readonly unknown[]): Promise<void>;
   /**
    * Converts a block in worker `thread` (jobs sent to one worker run in the order sent). The
-   * job's buffers are transferred to the worker (unusable here until the result gives them back).
+   * job's arrays must be views of `SharedArrayBuffer`s: the worker reads the codes and writes the
+   * output in place; neither is touched here until the result comes.
    *
    * @param thread - The worker (0-based).
    * @param job - The block.
@@ -67,7 +62,8 @@ function startWorker(): Worker {
  * Each worker makes the run's channels from their specs ({@link ConversionLanes.setup}) and
  * converts the blocks it is sent with the block runner of the one-thread path
  * (`createBlockRunner`), so every block's values, counts and text are the same bit for bit. Codes
- * and output travel as transferred buffers (no copies). A worker's error comes back as the error
+ * and output are in shared memory (`SharedArrayBuffer`: no copies, and no buffer is ever detached,
+ * which would slow every typed-array access of the thread that detached it). A worker's error comes back as the error
  * the block threw (a `BridgeworkError` keeps its code and message); a worker that stops (out of
  * memory, a crash) fails every pending call. Call {@link ConversionLanes.close} when done: live
  * workers keep the process running. On SIGINT the process ends with its threads.
@@ -109,24 +105,22 @@ export function startConversionLanes(threads: number): ConversionLanes {
       failAll(new Error(`a conversion worker thread ended (exit code ${code})`));
     });
   });
-  const call = (w: number, request: LaneRequest, transfer: ArrayBuffer[]): Promise<LaneReply> =>
+  const call = (w: number, request: LaneRequest): Promise<LaneReply> =>
     new Promise((resolve, reject) => {
       if (stopped !== undefined) {
         reject(stopped);
         return;
       }
       (waiting[w] as (typeof waiting)[number]).push({ resolve, reject });
-      (workers[w] as Worker).postMessage(request, transfer);
+      (workers[w] as Worker).postMessage(request);
     });
   return {
     threads,
     async setup(setup, specs) {
-      await Promise.all(workers.map((_, w) => call(w, { type: 'setup', setup, specs }, [])));
+      await Promise.all(workers.map((_, w) => call(w, { type: 'setup', setup, specs })));
     },
     async convert(thread, job) {
-      const transfer = [job.codes.buffer as ArrayBuffer, job.out];
-      if (job.timeStamps !== undefined) transfer.push(job.timeStamps.buffer as ArrayBuffer);
-      const reply = await call(thread, { type: 'block', id: thread, ...job }, transfer);
+      const reply = await call(thread, { type: 'block', id: thread, ...job });
       if (reply.type !== 'done')
         throw new Error(`a conversion worker thread replied ${reply.type} to a block`);
       return reply;

@@ -2,8 +2,7 @@
  * Entry of a conversion worker thread (see {@link startConversionLanes}): loads the channel
  * package at once (while the main thread reads the channel file), makes the run's channels from
  * their specs when told, then converts each block it is sent with the same block runner as the
- * main thread's one-thread path, and sends the output back with its memory (transferred, not
- * copied).
+ * main thread's one-thread path, into the shared memory the main thread gave it.
  */
 import { parentPort } from 'node:worker_threads';
 import { createBlockRunner, type BlockDone, type BlockJob } from './blockConversion.js';
@@ -15,8 +14,8 @@ if (port === null) throw new Error('conversionWorker.ts runs as a worker thread'
 const channelPackage = import('@bridgework/channel');
 let run: ((job: BlockJob) => BlockDone) | undefined;
 
-const send = (reply: LaneReply, transfer: ArrayBuffer[] = []): void => {
-  port.postMessage(reply, transfer);
+const send = (reply: LaneReply): void => {
+  port.postMessage(reply);
 };
 
 port.on('message', (message: LaneRequest) => {
@@ -37,13 +36,8 @@ port.on('message', (message: LaneRequest) => {
   }
   try {
     if (run === undefined) throw new Error('a block came before the conversion lane was set up');
-    const done = run(message);
-    const transfer = [message.codes.buffer as ArrayBuffer, done.out];
-    if (message.timeStamps !== undefined) transfer.push(message.timeStamps.buffer as ArrayBuffer);
-    send(
-      { type: 'done', id: message.id, codes: message.codes, timeStamps: message.timeStamps, ...done },
-      transfer,
-    );
+    const { out: _out, ...done } = run(message);
+    send({ type: 'done', id: message.id, ...done });
   } catch (error) {
     send({ type: 'failed', id: message.id, error: sendError(error) });
   }

@@ -55,7 +55,15 @@ export interface ConvertRecordingOptions {
    * built-in channel package, in lane order) from which each worker makes the same channels.
    * Without it every block is converted in this thread.
    */
-  readonly lanes?: { readonly pool: ConversionLanes; readonly specs: readonly unknown[] };
+  readonly lanes?: {
+    readonly pool: ConversionLanes;
+    readonly specs: readonly unknown[];
+    /**
+     * `main` (default): blocks are converted in this thread until the workers have started;
+     * `wait`: every block goes to a worker.
+     */
+    readonly whileStarting?: 'main' | 'wait';
+  };
   /** Called after each block is converted (for a progress bar). */
   readonly onBlock?: (block: Pick<RecordingBlock, 'frames' | 'firstFrame' | 'bytesRead'>) => void;
 }
@@ -134,6 +142,9 @@ export async function convertRecording(options: ConvertRecordingOptions): Promis
       writer,
       pool: options.lanes.pool,
       specs: options.lanes.specs,
+      channels,
+      frameConverter: framesPath ? options.frameConverter : undefined,
+      ...(options.lanes.whileStarting === undefined ? {} : { whileStarting: options.lanes.whileStarting }),
       mode: framesPath ? 'frames' : rows ? 'rows' : 'lanes',
       factors,
       temperature,

@@ -5,7 +5,6 @@
  */
 import { BridgeworkError, isBridgeworkError, type ErrorCode, type SpecIssue } from '@bridgework/core';
 import type { BlockDone, BlockJob, LaneSetup } from './blockConversion.js';
-import type { TimeStamps } from './decodeFrames.js';
 
 /** Main thread → worker. */
 export type LaneRequest =
@@ -34,13 +33,7 @@ export type SentError =
 /** Worker → main thread. */
 export type LaneReply =
   | { readonly type: 'ready' }
-  | ({
-      readonly type: 'done';
-      readonly id: number;
-      /** The job's codes and time stamps, given back with their memory. */
-      readonly codes: Int32Array | Float64Array;
-      readonly timeStamps: TimeStamps | undefined;
-    } & BlockDone)
+  | ({ readonly type: 'done'; readonly id: number } & Omit<BlockDone, 'out'>)
   | { readonly type: 'failed'; readonly id: number | undefined; readonly error: SentError };
 
 /**

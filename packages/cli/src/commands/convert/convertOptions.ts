@@ -205,7 +205,7 @@ export const convertOptions = [
     max: 64,
     default: 0,
     description:
-      'Worker threads that convert the blocks (and format CSV text) while this thread reads and writes; 0 converts in this thread. The output is the same bit for bit either way; memory is threads + 2 blocks in flight. A channel kit of other sensor kinds converts in this thread.',
+      'Worker threads that convert the blocks (and format CSV text) while this thread reads and writes (until they have started, this thread converts); 0 converts in this thread. The output is the same bit for bit either way; memory is threads + 2 blocks in flight. A channel kit of other sensor kinds converts in this thread.',
   },
   {
     name: 'digits',

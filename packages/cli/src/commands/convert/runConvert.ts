@@ -1,5 +1,6 @@
 import { createHash } from 'node:crypto';
-import { readFile } from 'node:fs/promises';
+import { readFile, stat } from 'node:fs/promises';
+import { availableParallelism } from 'node:os';
 import { basename } from 'node:path';
 import {
   createChannel,
@@ -100,7 +101,7 @@ const isTemperature = (c: LoadedChannel): boolean => c.channel.quantity === 'tem
  * output (see the readers and {@link writeRecording}).
  */
 export async function run(args: ConvertArgs, context: CommandContext): Promise<number> {
-  const lanes = startLanes(args, context);
+  const lanes = await startLanes(args, context);
   try {
     return await convertWith(args, context, lanes);
   } finally {
@@ -109,13 +110,41 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
 }
 
 /**
- * The worker threads of a run (`--convert-threads`, default none), started before the channel file
- * is read so that their start-up (loading the channel package) overlaps this thread's. None for a
- * channel kit of other sensor kinds: the workers make channels with the built-in package.
+ * From these input sizes up, `--convert-threads` defaults to worker threads on a machine of more
+ * than two processors: a worker's start-up (loading the channel package, making the channels)
+ * costs about 0.4 CPU s, which one thread spends converting about 8 MiB of int32 codes to CSV,
+ * 30 MiB to Parquet and 300 MiB to raw or Arrow (docs/performance.md).
  */
-function startLanes(args: ConvertArgs, context: CommandContext): ConversionLanes | undefined {
-  const threads = args.options.convertThreads;
-  return threads > 0 && context.channels === undefined ? startConversionLanes(threads) : undefined;
+const THREADED_FROM_BYTES = { csv: 8 * 2 ** 20, parquet: 64 * 2 ** 20, other: 256 * 2 ** 20 } as const;
+
+/**
+ * The worker threads of a run (`--convert-threads`), started before the channel file is read so
+ * that their start-up overlaps this thread's. By default none on one or two processors (measured
+ * not to pay on a 2-processor machine shared with other work: docs/performance.md); on more, one
+ * fewer than the processors (at most 4) when the input is at least {@link THREADED_FROM_BYTES}
+ * for the output format. None for a channel kit of other sensor kinds: the workers make channels
+ * with the built-in package.
+ */
+async function startLanes(args: ConvertArgs, context: CommandContext): Promise<ConversionLanes | undefined> {
+  if (context.channels !== undefined) return undefined;
+  let threads = args.options.convertThreads;
+  if (threads === undefined) {
+    const { out, to } = args.options;
+    let format: string;
+    try {
+      format = to ?? outputFormatFromPath(out === undefined || out === '-' ? undefined : out);
+    } catch {
+      return undefined; // the run reports the format
+    }
+    const from = format === 'csv' ? 'csv' : format === 'parquet' ? 'parquet' : 'other';
+    const size = await stat(args.positionals.codesFile).then(
+      (s) => s.size,
+      () => 0,
+    );
+    const processors = availableParallelism();
+    threads = processors > 2 && size >= THREADED_FROM_BYTES[from] ? Math.min(4, processors - 1) : 0;
+  }
+  return threads > 0 ? startConversionLanes(threads) : undefined;
 }
 
 async function convertWith(
@@ -343,7 +372,17 @@ async function convertWith(
           // Raw outputs take the frames as read, converted by all channels at once.
           ...(groupPlan === undefined ? { frameConverter: createInterleavedConverter(channels) } : {}),
           writer: groupPlan === undefined ? writer : (groupWriter = groupPlan.wrap(writer)),
-          ...(lanes === undefined ? {} : { lanes: { pool: lanes, specs: channels.map((c) => c.spec) } }),
+          ...(lanes === undefined
+            ? {}
+            : {
+                lanes: {
+                  pool: lanes,
+                  specs: channels.map((c) => c.spec),
+                  // Every block to the workers, none converted here while they start (tests, measurements).
+                  whileStarting:
+                    context.io.env['BRIDGEWORK_CONVERT_THREADS_FROM_START'] === '1' ? 'wait' : 'main',
+                },
+              }),
           onBlock: (block) => progress.update(block.bytesRead),
         }),
     );
