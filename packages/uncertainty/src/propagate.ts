@@ -615,8 +615,8 @@ function outputPropagation(s: Internals, k: number): Propagation {
  * Each input's standard uncertainty comes from its distribution ({@link standardUncertaintyOf}).
  * Sensitivities are the caller's `gradient` when given, else central differences extrapolated to
  * zero step by Ridders' method (Adv. Eng. Software 4, 1982) with a starting step of
- * max(u(xᵢ), 2⁻¹⁰·|xᵢ|), shrunk by 1.4 up to ten times and restarted at a sixteenth if the model
- * is not finite at a step; for smooth models they agree with analytic derivatives to 1e-9
+ * max(u(xᵢ), 2⁻¹⁰·|xᵢ|), shrunk by 1.4 four to ten times and restarted at a sixteenth if the
+ * model is not finite at a step; for smooth models they agree with analytic derivatives to 1e-9
  * relative (tested). The effective degrees of freedom follow
  * Welch–Satterthwaite (G.4.1, from the first-order contributions), unless `degreesOfFreedom` states
  * them; with correlated inputs of finite degrees of freedom Welch–Satterthwaite is only an
@@ -658,8 +658,8 @@ function outputPropagation(s: Internals, k: number): Propagation {
  *   inputs: { V: { value: 5, standardUncertainty: 0.002 }, I: { value: 0.02, standardUncertainty: 1e-5 } },
  * });
  * r.value; // 250 (Ω)
- * r.standardUncertainty; // 0.16007810593575247 (= √((50·0.002)² + (12 500·1e-5)²))
- * r.sensitivities; // { V: 49.99999999999633, I: -12499.999999991784 } (exact: 50, −12 500)
+ * r.standardUncertainty; // 0.160078105935784 (= √((50·0.002)² + (12 500·1e-5)²))
+ * r.sensitivities; // { V: 49.99999999999525, I: -12499.999999995993 } (exact: 50, −12 500)
  * ```
  */
 export function propagate(options: PropagateOptions): Propagation;

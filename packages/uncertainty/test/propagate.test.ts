@@ -121,7 +121,9 @@ describe('propagate: sensitivities and the law of propagation', () => {
       b: a! * c! * Math.exp(b! * c!),
       c: a! * b! * Math.exp(b! * c!) - Math.sin(a!) / (c! * c!),
     });
-    const value = fc.double({ min: 0.2, max: 2, noNaN: true });
+    // Unbiased values: the interior of the range, not its edges, is where a chance agreement of
+    // the first two Ridders columns showed (fixed: at least four columns).
+    const value = fc.noBias(fc.double({ min: 0.2, max: 2, noNaN: true }));
     const relU = fc.double({ min: 1e-8, max: 0.05, noNaN: true });
     fc.assert(
       fc.property(value, value, value, relU, (a, b, c, k) => {
@@ -133,11 +135,14 @@ describe('propagate: sensitivities and the law of propagation', () => {
         const numeric = propagate({ model, inputs });
         const exact = gradient({ a, b, c });
         for (const n of ['a', 'b', 'c'] as const)
-          expect(numeric.sensitivities[n]).toBeNear(exact[n], { rel: 1e-9, abs: 1e-12 });
+          // 1e-9 relative; where a derivative passes near zero its terms (up to about 40 here) still
+          // round, so 1e-10 absolute there (measured worst over 10⁶ uniform cases: 1.5e-10 relative
+          // for |∂f/∂x| > 0.1, 2.5e-11 absolute).
+          expect(numeric.sensitivities[n]).toBeNear(exact[n], { rel: 1e-9, abs: 1e-10 });
         const analytic = propagate({ model, inputs, gradient });
         expect(numeric.standardUncertainty).toBeNear(analytic.standardUncertainty, { rel: 1e-9 });
       }),
-      { numRuns: 60 },
+      { numRuns: 400 },
     );
   });
 

@@ -87,22 +87,11 @@ export interface RtdPolynomial {
   readonly exactPair: (x: number, startCelsius: number, pair: Float64Array) => void;
 }
 
-/** What the polynomial needs of a Callendar–Van Dusen kernel. */
-export interface RtdPolynomialSource {
-  readonly ra: number;
-  readonly rb: number;
-  readonly rc: number;
-  readonly rd: number;
-  readonly lo: number;
-  readonly hi: number;
-  readonly r0Ohms: number;
-  readonly a: number;
-  readonly b: number;
-  readonly c: number;
-  readonly minOhms: number;
-  readonly maxOhms: number;
-  readonly unit: 0 | 1 | 2;
-}
+/** What the polynomial needs of a Callendar–Van Dusen kernel (its fields, same meanings). */
+export type RtdPolynomialSource = Pick<
+  CallendarVanDusenKernel,
+  'ra' | 'rb' | 'rc' | 'rd' | 'lo' | 'hi' | 'r0Ohms' | 'a' | 'b' | 'c' | 'minOhms' | 'maxOhms' | 'unit'
+>;
 
 // Double-double arithmetic without fused multiply-add (Dekker, Knuth); results in H + L.
 let H = 0;

@@ -2,7 +2,7 @@ import { channelConstants } from '@bridgework/channel';
 import { BridgeworkError } from '@bridgework/core';
 import { emitSql, segmentCodes, type SqlChannel, type SqlDialect, type SqlMap } from '@bridgework/firmware';
 import { inChannel, type LoadedChannel, type LoadedChannels } from '../channels/loadChannels.js';
-import { asCommandLine, short, shortUp } from './constantsText.js';
+import { asCommandLine, howChecked, short, shortUp } from './constantsText.js';
 
 /** Options of {@link constantsSql}. */
 export interface ConstantsSqlOptions {
@@ -69,10 +69,7 @@ function sqlMapOf(
     );
   }
   const unit = c.channel.unit;
-  const how = total.proved
-    ? `proved over all ${total.codesChecked} codes`
-    : `measured on ${total.codesChecked} codes`;
-  const bound = `total error <= ${shortUp(total.bound)} ${unit} against the exact map (${how}; target ${short(designed.targetError)} ${unit})`;
+  const bound = `total error <= ${shortUp(total.bound)} ${unit} against the exact map (${howChecked(total)}; target ${short(designed.targetError)} ${unit})`;
   const boundCheck = total.proved ? ('every-code' as const) : ('sampled' as const);
   if (f64.kind === 'piecewise-polynomial') {
     const layout = {

@@ -149,6 +149,13 @@ export function shortUp(x: number): string {
   );
 }
 
+/** How a total error bound was found, for a summary line. @internal */
+export function howChecked(total: { readonly proved: boolean; readonly codesChecked: number }): string {
+  return total.proved
+    ? `proved over all ${total.codesChecked} codes`
+    : `measured on ${total.codesChecked} codes`;
+}
+
 function summaryLines(
   name: string,
   unit: string,
@@ -159,9 +166,7 @@ function summaryLines(
     const map = c[t];
     const total = c.totals[t];
     if (map === undefined || total === undefined) return [];
-    const how = total.proved
-      ? `proved over all ${total.codesChecked} codes`
-      : `measured on ${total.codesChecked} codes`;
+    const how = howChecked(total);
     return [
       `${name} ${t}: ${formOf(map)}, ${firmwareCost(map).tableBytes} bytes; total error <= ${shortUp(total.bound)} ${unit} (${how}; target ${short(c.targetError)} ${unit})`,
     ];

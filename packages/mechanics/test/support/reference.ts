@@ -44,6 +44,8 @@ export interface EigenReference {
   readonly values: readonly [number, number];
   /** Unit eigenvector of the larger eigenvalue, [vx, vy]. */
   readonly maxVector: readonly [number, number];
+  /** Their difference, 2R (the maximum shear strain), rounded once. */
+  readonly maxShear: number;
 }
 
 /** A private 80-digit decimal.js for the closed-form eigen-decomposition. */
@@ -77,7 +79,7 @@ export function strainTensorEigs(strainX: number, strainY: number, shearStrainXY
   const maxVector: readonly [number, number] = n.isZero()
     ? [1, 0]
     : [w[0].div(n).toNumber(), w[1].div(n).toNumber()];
-  return { values: [min.toNumber(), max.toNumber()], maxVector };
+  return { values: [min.toNumber(), max.toNumber()], maxVector, maxShear: r.times(2).toNumber() };
 }
 
 /** Solves the three leg equations for (εx, εy, γxy) by a 40-digit LU solve. */

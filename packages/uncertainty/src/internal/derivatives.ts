@@ -6,7 +6,10 @@
  * Every quotient used here is an even function of the step h, q(h) = D + c₂h² + c₄h⁴ + …, so a
  * Neville tableau over steps h₀, h₀/1.4, h₀/1.4², … removes the error term by term; the entry with
  * the smallest estimated error is kept, and the tableau stops when the error starts to grow
- * (rounding takes over). The step rule: for input i the step is h·sᵢ with
+ * (rounding takes over), but not before four columns: the first estimates can agree by chance
+ * (two quotients whose errors nearly cancel) and stopping there left errors of 2e-8 relative in
+ * about one derivative in 10⁵ of smooth models; with four columns the worst of 10⁶ random cases
+ * was 1.5e-10. The step rule: for input i the step is h·sᵢ with
  * sᵢ = max(u(xᵢ), 2⁻¹⁰·|xᵢ|) — the input's standard uncertainty (the scale over which the
  * linearisation is meant to hold), but not so small against the value that rounding swamps the
  * difference — or 2⁻¹⁰ when both are 0; h starts at 1. If the model is not finite at a stencil
@@ -17,6 +20,8 @@ const SHRINK = 1.4;
 const SHRINK2 = SHRINK * SHRINK;
 const TABLE = 10;
 const SAFE = 2;
+/** Columns computed before the tableau may stop: the first error estimates can be small by chance. */
+const MIN_COLUMNS = 4;
 const RETRIES = 4;
 
 /** Thrown by an evaluation when the model is not finite at a stencil point. */
@@ -92,7 +97,7 @@ function extrapolate(
       const diagonal = Math.abs(
         ((current[i] as Float64Array)[k] as number) - ((previous[i - 1] as Float64Array)[k] as number),
       );
-      if (diagonal >= SAFE * (error[k] as number)) done[k] = 1;
+      if (i + 1 >= MIN_COLUMNS && diagonal >= SAFE * (error[k] as number)) done[k] = 1;
       else all = false;
     }
     if (all) break;
