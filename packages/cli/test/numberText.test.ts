@@ -151,6 +151,44 @@ describe('writeShortest', () => {
     expect(shortest(1e20)).toBe('100000000000000000000');
     expect(digits(1e20, 9)).toBe(referenceDigits(1e20, 9));
   });
+  it('the branch-free and the careful decisions each equal String(v) wherever they decide, and defer near thresholds', () => {
+    let branchless = 0;
+    let careful = 0;
+    for (const arb of [anyFinite, measured, widened]) {
+      fc.assert(
+        fc.property(arb, (v) => {
+          if (v === 0 || !Number.isFinite(v)) return;
+          const b = numberTextPaths.branchless(v);
+          const c = numberTextPaths.careful(v);
+          if (b !== undefined) {
+            branchless++;
+            expect(b, String(v)).toBe(String(v));
+          }
+          if (c !== undefined) {
+            careful++;
+            expect(c, String(v)).toBe(String(v));
+          }
+        }),
+        { numRuns: 4_000 },
+      );
+    }
+    // Both carry the values of a practical magnitude (anyFinite's are mostly outside the range).
+    expect(branchless).toBeGreaterThan(6_000);
+    expect(careful).toBeGreaterThan(6_000);
+    // Exact ties at the 17th digit, a shorter decimal exactly half an ulp away, and near-ties:
+    // the branch-free decisions defer them to the careful ones (each checked against String(v)).
+    const nearThresholds = [
+      1e23, 1000000000000000.5, 3000000000000000.5, 3860228252031853.5, 30881826016254828, 61763652032509656,
+      1125899906842625, 1125899906842623.8, 965057063007963.4,
+    ];
+    for (const v of nearThresholds) {
+      expect(numberTextPaths.branchless(v), String(v)).toBeUndefined();
+      expect(shortest(v)).toBe(String(v));
+      expect(shortest(-v)).toBe(String(-v));
+      const c = numberTextPaths.careful(v);
+      if (c !== undefined) expect(c).toBe(String(v));
+    }
+  });
 });
 
 describe('writeDigits', () => {

@@ -379,6 +379,78 @@ function within(delta: number, W: number, exactInteger: boolean, even: boolean):
  */
 function shortestFast(a: number, buffer: Uint8Array, d: number): number {
   if (!decompose(a)) return -1;
+  const end = shortestBranchless(buffer, d);
+  return end !== -2 ? end : shortestCareful(buffer, d);
+}
+
+/** Fixed point of {@link shortestBranchless}: 2^22 units per unit of t's last integer digit. */
+const FIX = 2 ** 22;
+const FIX_HALF = FIX / 2;
+const FIX_5 = 5 * FIX;
+const FIX_10 = 10 * FIX;
+const FIX_50 = 50 * FIX;
+const FIX_100 = 100 * FIX;
+/** How near (in fixed-point units) a comparison may come to its threshold before the careful path decides. */
+const FIX_GUARD = 4;
+
+/**
+ * The decisions of {@link shortestCareful} without a data-dependent branch, for the values far
+ * from every threshold (nearly all): writes as {@link shortestFast} does, or returns −2 when one
+ * of the comparisons is within {@link FIX_GUARD} units of its threshold (then shortestCareful
+ * decides).
+ *
+ * @remarks
+ * Which neighbour of t is nearer, and whether it lies within half an ulp of a, are coin tosses
+ * for measured data, which a branch predictor cannot learn; here they are int32 sign bits and
+ * masks. The quantities are those of shortestCareful: x = R + F, t's distance above the
+ * candidate below at 15 digits (R the last two digits of t's integer part), 16 (R the last digit)
+ * and 17 (x = F), and W, half an ulp of a, all in units of t's last integer digit; each is
+ * truncated to q = ⌊x·2^22⌋ (R + F < 128 is rounded first, by at most 2^-47: q is within 1 + 2^-25
+ * units of x·2^22, W's w likewise). A comparison of two such figures is then off by less than
+ * 2.1 units, so wherever every difference is more than {@link FIX_GUARD} units from zero each
+ * sign is the true one — and t's own error (below 2^-46 of a unit, i.e. 2^-24 of a fixed-point
+ * unit) cannot change it either. Exact ties and exact half-ulp distances are differences of zero,
+ * so they always go to shortestCareful, which rounds them to even.
+ */
+function shortestBranchless(buffer: Uint8Array, d: number): number {
+  const B = fastInt[B_] as number;
+  const F = fastReal[F_] as number;
+  const R100 = B % 100;
+  const R10 = B % 10;
+  const q100 = ((R100 + F) * FIX) | 0; // above the 15-digit candidate below (< 100·2^22)
+  const q10 = ((R10 + F) * FIX) | 0; // above the 16-digit one
+  const q1 = (F * FIX) | 0; // above the 17-digit one
+  const w = ((fastReal[W_] as number) * FIX) | 0; // half an ulp of a (W < 10^17·2^-53 < 11.2)
+  // 1 where t is past the half, so the nearer candidate is the one above.
+  const up15 = (FIX_50 - q100) >>> 31;
+  const up16 = (FIX_5 - q10) >>> 31;
+  const up17 = (FIX_HALF - q1) >>> 31;
+  // The distance to the nearer candidate; all-ones masks where it is within half an ulp.
+  const d15 = q100 ^ ((q100 ^ (FIX_100 - q100)) & -up15);
+  const d16 = q10 ^ ((q10 ^ (FIX_10 - q10)) & -up16);
+  const m15 = -((d15 - w) >>> 31);
+  const m16 = -((d16 - w) >>> 31);
+  if (near(q100 - FIX_50) || near(q10 - FIX_5) || near(q1 - FIX_HALF) || near(d15 - w) || near(d16 - w))
+    return -2;
+  // The shortest that reads back: 15 digits, else 16, else 17 (the nearer candidate of each).
+  const c15 = B - R100 + (100 & -up15);
+  const c16 = B - R10 + (10 & -up16);
+  const c17 = B + up17;
+  const c = (c15 & m15) | (~m15 & ((c16 & m16) | (~m16 & c17)));
+  return place17(fastInt[A_] as number, c, fastInt[E_] as number, buffer, d);
+}
+
+/** Whether a fixed-point difference is within {@link FIX_GUARD} units of zero. */
+function near(x: number): boolean {
+  return (x + FIX_GUARD) >>> 0 <= 2 * FIX_GUARD;
+}
+
+/**
+ * The careful decisions of {@link shortestFast} on the decomposition in fastInt and fastReal
+ * (each comparison exact where t is, else kept MARGIN away from its threshold): writes as
+ * shortestFast does, or returns −1 when t is too close to a threshold to tell.
+ */
+function shortestCareful(buffer: Uint8Array, d: number): number {
   const A = fastInt[A_] as number;
   const B = fastInt[B_] as number;
   const e = fastInt[E_] as number;
@@ -403,7 +475,7 @@ function shortestFast(a: number, buffer: Uint8Array, d: number): number {
   ok = within(up * 10 - R - F, W, exactInteger, even);
   if (ok === 1) return place17(A, B - R + up * 10, e, buffer, d);
   if (ok < 0) return -1;
-  // 17 digits: always within half an ulp (W > 1.1 > 0.5 for a normal double).
+  // 17 digits: always within half an ulp (W > 10^16·2^-54 > 0.55 for a normal double).
   up = roundsUp(0, 0.5, F, exact, (B & 1) === 0);
   if (up < 0) return -1;
   return place17(A, B + up, e, buffer, d);
@@ -668,9 +740,10 @@ function pathText(
 }
 
 /**
- * The paths apart, for tests: the fast path's text, or `undefined` where it defers; the short
- * fixed-digit path's (digits 1 to 12), likewise; the exact path's text; and the power-of-ten
- * thresholds that give the decimal exponent.
+ * The paths apart, for tests: the fast path's text, or `undefined` where it defers (and its
+ * shortest form's two ways of deciding, each alone); the short fixed-digit path's (digits 1 to
+ * 12), likewise; the exact path's text; and the power-of-ten thresholds that give the decimal
+ * exponent.
  *
  * @internal
  */
@@ -679,6 +752,18 @@ export const numberTextPaths = {
     return pathText(v, (a, buffer, d) =>
       digits === 0 ? shortestFast(a, buffer, d) : digitsFast(a, digits, buffer, d),
     );
+  },
+  /** The shortest form by the branch-free decisions alone (`undefined` where they defer). */
+  branchless(v: number): string | undefined {
+    return pathText(v, (a, buffer, d) => {
+      if (!decompose(a)) return -1;
+      const end = shortestBranchless(buffer, d);
+      return end === -2 ? -1 : end;
+    });
+  },
+  /** The shortest form by the careful decisions alone (`undefined` where they defer). */
+  careful(v: number): string | undefined {
+    return pathText(v, (a, buffer, d) => (decompose(a) ? shortestCareful(buffer, d) : -1));
   },
   lean(v: number, digits: number): string | undefined {
     return pathText(v, (a, buffer, d) => digitsLean(a, digits, buffer, d));
