@@ -280,6 +280,31 @@ describe('writeDigits', () => {
     }
   });
 
+  it("the decimal exponent (per-exponent-bits table and threshold) is decimal.js's, at powers of ten, their neighbours and random values", () => {
+    const f = new Float64Array(1);
+    const u = new BigUint64Array(f.buffer);
+    const values: number[] = [];
+    for (let k = -279; k <= 279; k++) {
+      const ten = Number(`1e${k}`);
+      for (const step of [0n, 1n, -1n, 7n, -7n]) {
+        f[0] = ten;
+        u[0] = (u[0] as bigint) + step;
+        values.push(f[0] as number);
+      }
+    }
+    values.push(...fc.sample(anyFinite, { numRuns: 3_000, seed: 5 }).map(Math.abs));
+    let checked = 0;
+    for (const v of values) {
+      // The fast paths' range: biased exponent bits 93 to 1953.
+      f[0] = v;
+      const ebits = Number(((u[0] as bigint) >> 52n) & 0x7ffn);
+      if (ebits < 93 || ebits > 1953) continue;
+      checked++;
+      expect(numberTextPaths.decimalExponent(v), String(v)).toBe(new D(exactDecimalString(v)).e);
+    }
+    expect(checked).toBeGreaterThan(3_500);
+  });
+
   it('the short path at powers of ten and their neighbours: the exponent step and the carry (decimal.js reference)', () => {
     let decided = 0;
     const f = new Float64Array(1);

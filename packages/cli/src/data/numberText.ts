@@ -106,6 +106,20 @@ const CEIL_MIN = -300;
 const CEIL_MAX = 300;
 const ceilTable = new Float64Array(CEIL_MAX - CEIL_MIN + 1);
 
+/**
+ * Per biased binary exponent (the double's 11 exponent bits), e = ⌊be·log10 2⌋ (be the unbiased
+ * exponent), and ceilPow10(e + 1) once used (0: not yet): a normal double a with those bits has
+ * the decimal exponent e + 1 when a ≥ it, else e — a table lookup and one comparison.
+ */
+const EXP_EST = Int16Array.from({ length: 2048 }, (_, ebits) => Math.floor((ebits - 1023) * LOG10_2));
+const EXP_NEXT = new Float64Array(2048);
+
+/** ceilPow10(EXP_EST[ebits] + 1), from the table once used (for ebits whose e + 1 is in range). */
+function nextPow10(ebits: number): number {
+  const c = EXP_NEXT[ebits] as number;
+  return c !== 0 ? c : (EXP_NEXT[ebits] = ceilPow10((EXP_EST[ebits] as number) + 1));
+}
+
 /** The least double ≥ 10^k (CEIL_MIN ≤ k ≤ CEIL_MAX). */
 function ceilPow10(k: number): number {
   const c = ceilTable[k - CEIL_MIN] as number;
@@ -165,8 +179,8 @@ function decompose(a: number): boolean {
   if ((hiw & 0xfffff) === 0 && low === 0) return false;
   const be = ebits - 1023;
   // The decimal exponent E: ⌊be·log10 2⌋ or one more (see ceilPow10).
-  let e = Math.floor(be * LOG10_2);
-  if (a >= ceilPow10(e + 1)) e++;
+  let e = EXP_EST[ebits] as number;
+  if (a >= nextPow10(ebits)) e++;
   const i = 16 - e - J_MIN;
   if (powReady[i] === 0) fillPow(16 - e);
   const ph = powHi[i] as number;
@@ -543,11 +557,11 @@ const LEAN_MARGIN = Float64Array.from({ length: LEAN_MAX_DIGITS + 1 }, (_, p) =>
  */
 function digitsLean(a: number, p: number, buffer: Uint8Array, d: number): number {
   f64[0] = a;
-  const be = ((u32[HI] as number) >>> 20) - 1023;
-  let e = Math.floor(be * LOG10_2) | 0; // an int32
+  const ebits = (u32[HI] as number) >>> 20;
+  let e = EXP_EST[ebits] as number;
   let j = p - 1 - e;
   if (j > 22 || j < -21) return -1;
-  if (a >= ceilPow10(e + 1)) {
+  if (a >= nextPow10(ebits)) {
     e++;
     j--;
   }
@@ -774,5 +788,11 @@ export const numberTextPaths = {
   /** The least double ≥ 10^k, for k in [−300, 300]. */
   ceilPow10(k: number): number {
     return ceilPow10(k);
+  },
+  /** The decimal exponent E of a > 0 (10^E ≤ a < 10^(E+1)) as the fast paths find it (biased exponent bits 93 to 1953). */
+  decimalExponent(a: number): number {
+    f64[0] = a;
+    const ebits = (u32[HI] as number) >>> 20;
+    return (EXP_EST[ebits] as number) + (a >= nextPow10(ebits) ? 1 : 0);
   },
 };
