@@ -125,6 +125,19 @@ describe('Arrow IPC output, read back with the apache-arrow reader', () => {
   });
 });
 
+/** A Parquet file's bytes before its footer (magic, column chunks). */
+function dataPages(bytes: Buffer): Buffer {
+  const footer = bytes.readUInt32LE(bytes.length - 8);
+  return bytes.subarray(0, bytes.length - 8 - footer);
+}
+
+/** A Parquet file's key/value metadata, sorted by key (DuckDB's reader). */
+async function keyValues(path: string): Promise<Record<string, unknown>[]> {
+  return duckRows(
+    `SELECT decode(key) AS key, decode(value) AS value FROM parquet_kv_metadata('${path}') ORDER BY key`,
+  );
+}
+
 describe('Parquet output, read back with DuckDB', () => {
   it('equals the library bit for bit (null for NaN), with the metadata in the file', async () => {
     const input = file('rec.bin', int32le([...codes]));
@@ -153,6 +166,78 @@ describe('Parquet output, read back with DuckDB', () => {
       { name: 'deck-temp', unit: '°C', quantity: 'temperature' },
     ]);
     expect(meta.has('ARROW:schema')).toBe(true); // the Arrow schema, with each column's unit
+  });
+
+  it('the encoder thread writes the same column chunks byte for byte and the same metadata (several blocks; an empty recording)', async () => {
+    const input = file('rec.bin', int32le([...codes]));
+    const here = outPath('here.parquet');
+    const there = outPath('there.parquet');
+    await convert([input, '-o', here, '--block', '64', '--parquet-encoder', 'this-thread']);
+    await convert([input, '-o', there, '--block', '64', '--parquet-encoder', 'worker-thread']);
+    // The crate stores the key/value metadata in a hash map's order, which depends on the
+    // WebAssembly instance's history (a fresh process writes the same bytes; the test process
+    // has written Parquet before): the column chunks and footer must be the same, the metadata
+    // the same as a set.
+    expect(dataPages(readFileSync(there)).equals(dataPages(readFileSync(here)))).toBe(true); // exact
+    expect(await keyValues(there)).toEqual(await keyValues(here));
+    const layoutOf = (f: string): Promise<Record<string, unknown>[]> =>
+      duckRows(
+        `SELECT row_group_id, column_id, data_page_offset, total_compressed_size, stats_min, stats_max, stats_null_count FROM parquet_metadata('${f}') ORDER BY ALL`,
+      );
+    expect(await layoutOf(there)).toEqual(await layoutOf(here));
+    const rows = await duckRows(`SELECT * FROM read_parquet('${there}') ORDER BY frame`);
+    channels.forEach((c, j) => {
+      expectLane(
+        rows.map((r) => r[c.name] as number | null),
+        expected[j] as Float64Array,
+        c.name,
+      );
+    });
+    const empty = file('empty.bin', new Uint8Array(0));
+    const emptyHere = outPath('empty-here.parquet');
+    const emptyThere = outPath('empty-there.parquet');
+    for (const [where, out] of [
+      ['this-thread', emptyHere],
+      ['worker-thread', emptyThere],
+    ] as const) {
+      const io = memoryIo();
+      expect(await runCli(['convert', exampleShown, empty, '-o', out, '--parquet-encoder', where], io)).toBe(
+        exitCodes.ok,
+      );
+    }
+    expect(dataPages(readFileSync(emptyThere)).equals(dataPages(readFileSync(emptyHere)))).toBe(true); // exact
+    expect(await keyValues(emptyThere)).toEqual(await keyValues(emptyHere));
+    expect(await duckRows(`SELECT count(*) AS n FROM read_parquet('${emptyThere}')`)).toEqual([{ n: 0n }]);
+  });
+
+  it('the encoder thread passes a failing write back to the conversion', async () => {
+    const { createParquetWriter } = await import('../src/data/createParquetWriter.js');
+    const full = new Error('no space left on the test sink');
+    const columns = {
+      channels: [{ name: 'a', unit: 'µε', quantity: 'strain' }],
+      time: undefined,
+      passThrough: [],
+      metadata: {},
+    };
+    const writer = await createParquetWriter({ write: () => Promise.reject(full) }, columns, 1024, {
+      encoderThread: true,
+      rowGroupBytes: 1, // a row group per block: bytes come back while blocks are still going in
+    });
+    const run = async (): Promise<void> => {
+      for (let b = 0; b < 8; b++) {
+        await writer.writeBlock({
+          frames: 1024,
+          firstFrame: b * 1024,
+          values: new Float64Array(1024).fill(b),
+          laneStride: 1024,
+          timeStamps: undefined,
+          passThrough: undefined,
+          rejected: [0],
+        });
+      }
+      await writer.finish();
+    };
+    await expect(run()).rejects.toBe(full);
   });
 
   it('keeps 64-bit time stamps exactly as the time column', async () => {
@@ -234,5 +319,35 @@ describe('every input layout converts to the values of the int32 path, bit for b
     expect(rows[2]?.[0]).toBe('NaN');
     expect(channels[1]!.convert(Float64Array.of(2 ** 32 - 1)).status.railHigh).toBe(1);
     expect(io.stderr.text()).toMatch(/clipped samples: 3 of 9/);
+  });
+});
+
+describe('Arrow batches: the frame column', () => {
+  it('counts frames across 2^32 (the low word wraps, the high word carries), by BigInt', async () => {
+    const { createBatchBuilder } = await import('../src/data/arrowBatches.js');
+    const columns = {
+      channels: [{ name: 'a', unit: 'µε', quantity: 'strain' }],
+      time: undefined,
+      passThrough: [],
+      metadata: {},
+    };
+    const builder = createBatchBuilder(columns, 4);
+    const frames = (firstFrame: number): bigint[] => [
+      ...(builder
+        .batch({
+          frames: 4,
+          firstFrame,
+          values: new Float64Array(4),
+          laneStride: 4,
+          timeStamps: undefined,
+          passThrough: undefined,
+          rejected: [0],
+        })
+        .getChildAt(0)!
+        .toArray() as BigInt64Array),
+    ];
+    const expected = (first: number): bigint[] => [0n, 1n, 2n, 3n].map((k) => BigInt(first) + k);
+    for (const first of [0, 2 ** 32 - 4, 2 ** 32 - 2, 2 ** 32, 2 ** 40 + 5, 2 ** 53 - 4])
+      expect(frames(first)).toEqual(expected(first)); // exact
   });
 });

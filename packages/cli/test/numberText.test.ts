@@ -137,6 +137,19 @@ describe('writeShortest', () => {
     );
     // The fast path must carry the load (it defers only near a decision's threshold).
     expect(decided).toBeGreaterThan(4_000);
+    // Powers of ten (the exponent threshold met with equality, or by the double nearest 10^-k)
+    // are decided, not deferred.
+    for (let k = 1; k <= 19; k++) {
+      for (const v of [Number(`1e${k}`), Number(`1e-${k}`), 3 * Number(`1e${k}`)]) {
+        expect(numberTextPaths.fast(v, 0), String(v)).toBe(String(v));
+        expect(numberTextPaths.fast(v, 9), String(v)).toBe(referenceDigits(v, 9));
+      }
+    }
+    // 1e20 scaled by the inexact 10^-4 lands within the product's error of 10^16 (its 17-digit
+    // integer part can come out as 10^16 − 1): the fast path defers, the exact path decides.
+    expect(numberTextPaths.fast(1e20, 0)).toBeUndefined();
+    expect(shortest(1e20)).toBe('100000000000000000000');
+    expect(digits(1e20, 9)).toBe(referenceDigits(1e20, 9));
   });
 });
 
@@ -212,6 +225,52 @@ describe('writeDigits', () => {
       const lt = (x: bigint[], y: bigint[]) => x[0]! * y[1]! < y[0]! * x[1]!;
       expect(le(ten(e), two) && lt(two, ten(e + 1)), `be = ${be}`).toBe(true);
     }
+  });
+
+  it('the power-of-ten thresholds are the least doubles ≥ 10^k (decimal.js reference, every k)', () => {
+    // The decimal exponent of a is e or e + 1 (e = ⌊be·log10 2⌋); a ≥ ceilPow10(e + 1) decides it.
+    const f = new Float64Array(1);
+    const u = new BigUint64Array(f.buffer);
+    for (let k = -300; k <= 300; k++) {
+      const c = numberTextPaths.ceilPow10(k);
+      f[0] = c;
+      u[0] = (u[0] as bigint) - 1n;
+      const below = f[0] as number; // the double just below c
+      const ten = new D(10).pow(k);
+      expect(new D(exactDecimalString(c)).gte(ten), `10^${k} ≤ ${c}`).toBe(true);
+      expect(new D(exactDecimalString(below)).lt(ten), `${below} < 10^${k}`).toBe(true);
+    }
+  });
+
+  it('the short path at powers of ten and their neighbours: the exponent step and the carry (decimal.js reference)', () => {
+    let decided = 0;
+    const f = new Float64Array(1);
+    const u = new BigUint64Array(f.buffer);
+    for (let k = -22; k <= 30; k++) {
+      const ten = Number(`1e${k}`);
+      f[0] = ten;
+      const neighbours = [ten];
+      for (const step of [1n, 2n, 1000n]) {
+        f[0] = ten;
+        u[0] = (u[0] as bigint) + step;
+        neighbours.push(f[0] as number);
+        f[0] = ten;
+        u[0] = (u[0] as bigint) - step;
+        neighbours.push(f[0] as number);
+      }
+      for (const v of neighbours) {
+        for (let d = 1; d <= 12; d++) {
+          const lean = numberTextPaths.lean(v, d);
+          if (lean === undefined) continue;
+          decided++;
+          expect(lean, `${v} to ${d}`).toBe(referenceDigits(v, d));
+          expect(digits(-v, d), `${-v} to ${d}`).toBe(referenceDigits(-v, d));
+        }
+      }
+    }
+    // Below a power of ten by a few ulps, every digit count rounds up to it (the carry).
+    expect(numberTextPaths.lean(99999.99999999999, 6)).toBe('100000');
+    expect(decided).toBeGreaterThan(3_000);
   });
 
   it('reads back within half a unit in the d-th digit, and at 17 digits as the same double', () => {

@@ -109,10 +109,19 @@ export function createBatchBuilder(columns: RecordingColumns, blockFrames: numbe
       let time: Data;
       if (frameWords !== undefined && frameIndex !== undefined) {
         const lo = littleEndianHost ? 0 : 1;
-        for (let f = 0; f < n; f++) {
-          const i = block.firstFrame + f;
-          frameWords[2 * f + lo] = i % 4294967296;
-          frameWords[2 * f + 1 - lo] = Math.floor(i / 4294967296);
+        const first = block.firstFrame;
+        if (first + n <= 4294967296) {
+          // Every index of the block fits the low word (the usual case): int arithmetic only.
+          for (let f = 0, i = first >>> 0; f < n; f++, i = (i + 1) >>> 0) {
+            frameWords[2 * f + lo] = i;
+            frameWords[2 * f + 1 - lo] = 0;
+          }
+        } else {
+          for (let f = 0; f < n; f++) {
+            const i = first + f;
+            frameWords[2 * f + lo] = i % 4294967296;
+            frameWords[2 * f + 1 - lo] = Math.floor(i / 4294967296);
+          }
         }
         time = makeData({ type: new Int64(), length: n, nullCount: 0, data: frameIndex.subarray(0, n) });
       } else {

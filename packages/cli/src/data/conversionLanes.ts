@@ -1,9 +1,7 @@
-import { createRequire } from 'node:module';
-import { dirname, join } from 'node:path';
-import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import type { BlockDone, BlockJob, LaneSetup } from './blockConversion.js';
 import { receiveError, type LaneReply, type LaneRequest } from './laneMessages.js';
+import { startSourceWorker } from './sourceWorker.js';
 
 /** A block's conversion as it comes back from a worker (its output is in the job's `out`). */
 export type LaneResult = Omit<BlockDone, 'out'>;
@@ -41,17 +39,12 @@ const here = import.meta.url;
 const fromSource = here.endsWith('.ts');
 
 /**
- * Starts one worker. From the compiled package this is dist/data/conversionWorker.js. From the
- * TypeScript sources (tests) Node 20 does not apply `--import` loaders to workers, so a tiny
- * bootstrap registers tsx's ESM hooks first, with the `@bridgework/source` condition.
+ * Starts one worker: dist/data/conversionWorker.js from the compiled package, the TypeScript
+ * module through tsx from the sources (tests).
  */
 function startWorker(): Worker {
   if (!fromSource) return new Worker(new URL('./conversionWorker.js', here));
-  const tsx = dirname(createRequire(here).resolve('tsx/package.json'));
-  const api = pathToFileURL(join(tsx, 'dist', 'esm', 'api', 'index.mjs')).href;
-  const target = new URL('./conversionWorker.ts', here).href;
-  const code = `import(${JSON.stringify(api)}).then((m) => { m.register(); return import(${JSON.stringify(target)}); });`;
-  return new Worker(code, { eval: true, execArgv: ['--conditions=@bridgework/source'] });
+  return startSourceWorker(new URL('./conversionWorker.ts', here));
 }
 
 /**

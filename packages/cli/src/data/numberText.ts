@@ -99,6 +99,39 @@ function fillPow(j: number): void {
   powReady[i] = 1;
 }
 
+// The least double ≥ 10^k, for k in [CEIL_MIN, CEIL_MAX], built on first use (0: not yet). As a
+// is a double, a ≥ 10^k exactly when a ≥ ceilPow10(k): one comparison gives the decimal exponent
+// E of a from e = ⌊be·log10 2⌋ (E is e or e + 1, as 2^be ≤ a < 2^(be+1)).
+const CEIL_MIN = -300;
+const CEIL_MAX = 300;
+const ceilTable = new Float64Array(CEIL_MAX - CEIL_MIN + 1);
+
+/** The least double ≥ 10^k (CEIL_MIN ≤ k ≤ CEIL_MAX). */
+function ceilPow10(k: number): number {
+  const c = ceilTable[k - CEIL_MIN] as number;
+  return c !== 0 ? c : fillCeil(k);
+}
+
+function fillCeil(k: number): number {
+  let c = Number(`1e${k}`); // the nearest double, above or below 10^k
+  const { m, q } = bigParts(c);
+  // c < 10^k, compared as integers: m·2^q·2^z2·10^z10 against 10^k·2^z2·10^z10.
+  const z2 = Math.max(0, -q);
+  const z10 = Math.max(0, -k);
+  if (m * bigPow2(q + z2) * bigPow10(z10) < bigPow2(z2) * bigPow10(k + z10)) {
+    // The next double up (c is normal and positive: its bit pattern plus one).
+    f64[0] = c;
+    const lo = u32[LO] as number;
+    if (lo === 0xffffffff) {
+      u32[LO] = 0;
+      u32[HI] = (u32[HI] as number) + 1;
+    } else u32[LO] = lo + 1;
+    c = f64[0] as number;
+  }
+  ceilTable[k - CEIL_MIN] = c;
+  return c;
+}
+
 // Results of the fast decomposition, in typed arrays (module-level `let`s cost a check per use).
 /** t's fraction F in [0, 1] (1 only by rounding; decisions keep MARGIN away), and W, half an ulp of a in units of t. */
 const fastReal = new Float64Array(2);
@@ -131,62 +164,47 @@ function decompose(a: number): boolean {
   const low = u32[LO] as number;
   if ((hiw & 0xfffff) === 0 && low === 0) return false;
   const be = ebits - 1023;
+  // The decimal exponent E: ⌊be·log10 2⌋ or one more (see ceilPow10).
   let e = Math.floor(be * LOG10_2);
-  for (let attempt = 0; attempt < 3; attempt++) {
-    const i = 16 - e - J_MIN;
-    if (powReady[i] === 0) fillPow(16 - e);
-    const ph = powHi[i] as number;
-    const c = SPLIT * a;
-    const ah = c - (c - a);
-    const al = a - ah;
-    const bh = powSplitHi[i] as number;
-    const bl = powSplitLo[i] as number;
-    const p = a * ph;
-    const err = ah * bh - p + ah * bl + al * bh + al * bl;
-    const lo = err + a * (powLo[i] as number);
-    const h = p + lo;
-    const l = lo - (h - p);
-    // Far outside [10^16, 10^17): the exponent estimate is one off.
-    if (h < 1e16 - 16) {
-      e--;
-      continue;
-    }
-    if (h > 1e17 + 16) {
-      e++;
-      continue;
-    }
-    // h > 2^53 is an integer and |l| ≤ 8: the integer part of t is h + floor(l).
-    const hA = Math.floor(h / 1e9);
-    const fl = Math.floor(l);
-    // h − hA·1e9 is exact (hA·1e9 = (hA·5^9)·2^9 is a double, and so is the difference).
-    let B = (h - hA * 1e9 + fl) | 0;
-    let A = hA | 0;
-    if (B < 0) {
-      B += 1_000_000_000;
-      A--;
-    } else if (B >= 1_000_000_000) {
-      B -= 1_000_000_000;
-      A++;
-    }
-    if (A < 10_000_000) {
-      e--;
-      continue;
-    }
-    if (A >= 100_000_000) {
-      e++;
-      continue;
-    }
-    fastInt[A_] = A;
-    fastInt[B_] = B;
-    fastInt[E_] = e;
-    fastInt[EXACT_] = powLo[i] === 0 ? 1 : 0;
-    fastInt[EVEN_] = (low & 1) === 0 ? 1 : 0;
-    fastReal[F_] = l - fl;
-    // Half an ulp of a in units of t: 2^(be−53)·10^(16−e).
-    fastReal[W_] = ph * (POW2[be - 53 - POW2_MIN] as number);
-    return true;
+  if (a >= ceilPow10(e + 1)) e++;
+  const i = 16 - e - J_MIN;
+  if (powReady[i] === 0) fillPow(16 - e);
+  const ph = powHi[i] as number;
+  const c = SPLIT * a;
+  const ah = c - (c - a);
+  const al = a - ah;
+  const bh = powSplitHi[i] as number;
+  const bl = powSplitLo[i] as number;
+  const p = a * ph;
+  const err = ah * bh - p + ah * bl + al * bh + al * bl;
+  const lo = err + a * (powLo[i] as number);
+  // t = h + l, h = fl(t) in [10^16, 10^17] (a·10^(16−E) is in [10^16, 10^17); 10^17 by rounding).
+  const h = p + lo;
+  const l = lo - (h - p);
+  // h > 2^53 is an integer and |l| ≤ 8: the integer part of t is h + floor(l).
+  const hA = Math.floor(h / 1e9);
+  const fl = Math.floor(l);
+  // h − hA·1e9 is exact (hA·1e9 = (hA·5^9)·2^9 is a double, and so is the difference).
+  let B = (h - hA * 1e9 + fl) | 0;
+  let A = hA | 0;
+  if (B < 0) {
+    B += 1_000_000_000;
+    A--;
+  } else if (B >= 1_000_000_000) {
+    B -= 1_000_000_000;
+    A++;
   }
-  return false;
+  // Outside [10^16, 10^17) only within t's error of 10^17: the exact path decides.
+  if (A < 10_000_000 || A >= 100_000_000) return false;
+  fastInt[A_] = A;
+  fastInt[B_] = B;
+  fastInt[E_] = e;
+  fastInt[EXACT_] = powLo[i] === 0 ? 1 : 0;
+  fastInt[EVEN_] = (low & 1) === 0 ? 1 : 0;
+  fastReal[F_] = l - fl;
+  // Half an ulp of a in units of t: 2^(be−53)·10^(16−e).
+  fastReal[W_] = ph * (POW2[be - 53 - POW2_MIN] as number);
+  return true;
 }
 
 /** 2^k for k in [POW2_MIN, POW2_MAX] (the half-ulps of the fast path's range). */
@@ -194,7 +212,7 @@ const POW2_MIN = -1000;
 const POW2_MAX = 1000;
 const POW2 = new Float64Array(POW2_MAX - POW2_MIN + 1).map((_, i) => 2 ** (i + POW2_MIN));
 
-/** ASCII digits of one number, most significant first, and their count (trailing zeros dropped). */
+/** ASCII digits of one number from the exact path, most significant first, and their count. */
 const digitText = new Uint8Array(24);
 let digitCount = 0;
 /** Two-digit ASCII pairs 00…99. */
@@ -205,21 +223,40 @@ for (let i = 0; i < 100; i++) {
 }
 const POW10_INT = [1, 10, 100, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9];
 
-/** Writes the four digits of x (0 ≤ x < 10^4) at digitText[at]. */
-function fourDigits(x: number, at: number): void {
+// How the digits reach the buffer. Every path writes the significant digits of its answer, most
+// significant first, at `d` (one byte after the sign, if any: the byte at d − 1 is free), finds
+// their count k by dropping trailing zeros, and `place` then moves them into Number::toString's
+// layout in place. The output never extends beyond 25 bytes from the sign's position.
+
+/** Writes the four digits of x (0 ≤ x < 10^4) at buffer[at]. */
+function fourDigits(x: number, buffer: Uint8Array, at: number): void {
   const hi = (x / 100) | 0;
   const lo = x - hi * 100;
-  digitText[at] = PAIRS[2 * hi] as number;
-  digitText[at + 1] = PAIRS[2 * hi + 1] as number;
-  digitText[at + 2] = PAIRS[2 * lo] as number;
-  digitText[at + 3] = PAIRS[2 * lo + 1] as number;
+  buffer[at] = PAIRS[2 * hi] as number;
+  buffer[at + 1] = PAIRS[2 * hi + 1] as number;
+  buffer[at + 2] = PAIRS[2 * lo] as number;
+  buffer[at + 3] = PAIRS[2 * lo + 1] as number;
+}
+
+/** Writes the `count` (≤ 9) low decimal digits of x (an integer, 0 ≤ x < 10^count) ending before `end`, two at a time. */
+function lowDigits(x: number, count: number, buffer: Uint8Array, end: number): void {
+  while (count >= 2) {
+    const q = (x / 100) | 0;
+    const r = 2 * (x - q * 100);
+    buffer[end - 1] = PAIRS[r + 1] as number;
+    buffer[end - 2] = PAIRS[r] as number;
+    end -= 2;
+    count -= 2;
+    x = q;
+  }
+  if (count === 1) buffer[end - 1] = 48 + x;
 }
 
 /**
- * Puts the digits of A·10^9 + B (after carrying B ≥ 10^9 into A, and A = 10^8 into the exponent)
- * into digitText; returns the decimal exponent of the first digit.
+ * Writes the 17 digits of A·10^9 + B at buffer[d] (after carrying B ≥ 10^9 into A, and A = 10^8
+ * into the exponent e), drops their trailing zeros and lays them out ({@link place}).
  */
-function finishDigits(A: number, B: number, e: number): number {
+function place17(A: number, B: number, e: number, buffer: Uint8Array, d: number): number {
   if (B >= 1_000_000_000) {
     B -= 1_000_000_000;
     A++;
@@ -229,65 +266,69 @@ function finishDigits(A: number, B: number, e: number): number {
     e++;
   }
   const a1 = (A / 10_000) | 0;
-  fourDigits(a1, 0);
-  fourDigits(A - a1 * 10_000, 4);
+  fourDigits(a1, buffer, d);
+  fourDigits(A - a1 * 10_000, buffer, d + 4);
   const b0 = (B / 100_000_000) | 0;
-  digitText[8] = 48 + b0;
+  buffer[d + 8] = 48 + b0;
   const r = B - b0 * 100_000_000;
   const b1 = (r / 10_000) | 0;
-  fourDigits(b1, 9);
-  fourDigits(r - b1 * 10_000, 13);
-  let n = 17;
-  while (n > 1 && digitText[n - 1] === 48) n--;
-  digitCount = n;
-  return e;
+  fourDigits(b1, buffer, d + 9);
+  fourDigits(r - b1 * 10_000, buffer, d + 13);
+  let k = 17;
+  while (k > 1 && buffer[d + k - 1] === 48) k--;
+  return place(buffer, d, k, e);
 }
 
 /**
- * Writes the digits in digitText (digitCount of them) with decimal exponent e (the first digit's
- * place) as Number::toString lays them out.
+ * Lays out the k significant digits at buffer[d…] (buffer[d − 1] free), whose first digit's
+ * decimal exponent is e, as Number::toString does: plain notation for 1e-7 ≤ |x| < 1e21, else
+ * `d.ddde±x`. Returns the position after the text.
  */
-function layout(negative: boolean, e: number, buffer: Uint8Array, pos: number): number {
-  const k = digitCount;
+function place(buffer: Uint8Array, d: number, k: number, e: number): number {
   const n = e + 1; // ECMAScript's n: the decimal point sits after n digits
-  if (negative) buffer[pos++] = 45;
+  const s = d - 1;
   if (0 < n && n <= 21) {
-    if (k <= n) {
-      for (let i = 0; i < k; i++) buffer[pos++] = digitText[i] as number;
-      for (let i = k; i < n; i++) buffer[pos++] = 48;
-    } else {
-      for (let i = 0; i < n; i++) buffer[pos++] = digitText[i] as number;
-      buffer[pos++] = 46;
-      for (let i = n; i < k; i++) buffer[pos++] = digitText[i] as number;
+    if (k > n) {
+      // d…d+n−1 move one byte down; the point takes their last place.
+      for (let i = 0; i < n; i++) buffer[s + i] = buffer[d + i] as number;
+      buffer[s + n] = 46;
+      return d + k;
     }
-  } else if (-6 < n && n <= 0) {
-    buffer[pos++] = 48;
-    buffer[pos++] = 46;
-    for (let i = n; i < 0; i++) buffer[pos++] = 48;
-    for (let i = 0; i < k; i++) buffer[pos++] = digitText[i] as number;
-  } else {
-    buffer[pos++] = digitText[0] as number;
-    if (k > 1) {
-      buffer[pos++] = 46;
-      for (let i = 1; i < k; i++) buffer[pos++] = digitText[i] as number;
-    }
-    buffer[pos++] = 101; // e
-    let x = n - 1;
-    if (x < 0) {
-      buffer[pos++] = 45;
-      x = -x;
-    } else buffer[pos++] = 43;
-    if (x >= 100) {
-      const h = (x / 100) | 0;
-      buffer[pos++] = 48 + h;
-      x -= h * 100;
-      buffer[pos++] = PAIRS[2 * x] as number;
-      buffer[pos++] = PAIRS[2 * x + 1] as number;
-    } else if (x >= 10) {
-      buffer[pos++] = PAIRS[2 * x] as number;
-      buffer[pos++] = PAIRS[2 * x + 1] as number;
-    } else buffer[pos++] = 48 + x;
+    for (let i = 0; i < k; i++) buffer[s + i] = buffer[d + i] as number;
+    for (let i = k; i < n; i++) buffer[s + i] = 48;
+    return s + n;
   }
+  if (-6 < n && n <= 0) {
+    // 0.000ddd: the digits move up by 1 − n.
+    const shift = 1 - n;
+    for (let i = k - 1; i >= 0; i--) buffer[d + shift + i] = buffer[d + i] as number;
+    buffer[s] = 48;
+    buffer[d] = 46;
+    for (let i = 1; i < shift; i++) buffer[d + i] = 48;
+    return d + shift + k;
+  }
+  buffer[s] = buffer[d] as number;
+  let pos = d;
+  if (k > 1) {
+    buffer[d] = 46;
+    pos = d + k;
+  }
+  buffer[pos++] = 101; // e
+  let x = n - 1;
+  if (x < 0) {
+    buffer[pos++] = 45;
+    x = -x;
+  } else buffer[pos++] = 43;
+  if (x >= 100) {
+    const h = (x / 100) | 0;
+    buffer[pos++] = 48 + h;
+    x -= h * 100;
+    buffer[pos++] = PAIRS[2 * x] as number;
+    buffer[pos++] = PAIRS[2 * x + 1] as number;
+  } else if (x >= 10) {
+    buffer[pos++] = PAIRS[2 * x] as number;
+    buffer[pos++] = PAIRS[2 * x + 1] as number;
+  } else buffer[pos++] = 48 + x;
   return pos;
 }
 
@@ -323,20 +364,21 @@ function roundsUp(R: number, half: number, F: number, exact: boolean, downEven: 
  * 0 no, −1 undecided. Exactly half an ulp away (decidable only when t is an exact integer) it
  * reads back as a when a's mantissa is even.
  */
-function within(delta: number, W: number, exactInteger: boolean): number {
+function within(delta: number, W: number, exactInteger: boolean, even: boolean): number {
   const d = delta < 0 ? -delta : delta;
-  if (exactInteger) return d < W || (d === W && fastInt[EVEN_] === 1) ? 1 : 0;
+  if (exactInteger) return d < W || (d === W && even) ? 1 : 0;
   if (d < W - MARGIN) return 1;
   if (d > W + MARGIN) return 0;
   return -1;
 }
 
 /**
- * The fast path of {@link writeShortest} for a > 0: fills digitText and returns the decimal
- * exponent, or NaN when it cannot decide (then the exact path is used).
+ * The fast path of {@link writeShortest} for a > 0: writes the digits at buffer[d] (d − 1 free) laid
+ * out, and returns the position after them, or −1 when it cannot decide (then the exact path is
+ * used).
  */
-function shortestFast(a: number): number {
-  if (!decompose(a)) return Number.NaN;
+function shortestFast(a: number, buffer: Uint8Array, d: number): number {
+  if (!decompose(a)) return -1;
   const A = fastInt[A_] as number;
   const B = fastInt[B_] as number;
   const e = fastInt[E_] as number;
@@ -344,31 +386,32 @@ function shortestFast(a: number): number {
   const F = fastReal[F_] as number;
   const W = fastReal[W_] as number;
   const exactInteger = exact && F === 0;
+  const even = fastInt[EVEN_] === 1;
   // 15 digits: round at the hundreds of the 17-digit integer.
   const B100 = (B / 100) | 0;
   let R = B - B100 * 100;
   let up = roundsUp(R, 50, F, exact, (B100 & 1) === 0);
-  if (up < 0) return Number.NaN;
-  let ok = within(up * 100 - R - F, W, exactInteger);
-  if (ok === 1) return finishDigits(A, B - R + up * 100, e);
-  if (ok < 0) return Number.NaN;
+  if (up < 0) return -1;
+  let ok = within(up * 100 - R - F, W, exactInteger, even);
+  if (ok === 1) return place17(A, B - R + up * 100, e, buffer, d);
+  if (ok < 0) return -1;
   // 16 digits.
   const B10 = (B / 10) | 0;
   R = B - B10 * 10;
   up = roundsUp(R, 5, F, exact, (B10 & 1) === 0);
-  if (up < 0) return Number.NaN;
-  ok = within(up * 10 - R - F, W, exactInteger);
-  if (ok === 1) return finishDigits(A, B - R + up * 10, e);
-  if (ok < 0) return Number.NaN;
+  if (up < 0) return -1;
+  ok = within(up * 10 - R - F, W, exactInteger, even);
+  if (ok === 1) return place17(A, B - R + up * 10, e, buffer, d);
+  if (ok < 0) return -1;
   // 17 digits: always within half an ulp (W > 1.1 > 0.5 for a normal double).
   up = roundsUp(0, 0.5, F, exact, (B & 1) === 0);
-  if (up < 0) return Number.NaN;
-  return finishDigits(A, B + up, e);
+  if (up < 0) return -1;
+  return place17(A, B + up, e, buffer, d);
 }
 
-/** The fast path of {@link writeDigits} for a > 0 and 1 ≤ p ≤ 17; NaN when undecided. */
-function digitsFast(a: number, p: number): number {
-  if (!decompose(a)) return Number.NaN;
+/** The fast path of {@link writeDigits} for a > 0 and 1 ≤ p ≤ 17, as {@link shortestFast} writes; −1 when undecided. */
+function digitsFast(a: number, p: number, buffer: Uint8Array, d: number): number {
+  if (!decompose(a)) return -1;
   const A = fastInt[A_] as number;
   const B = fastInt[B_] as number;
   const e = fastInt[E_] as number;
@@ -376,7 +419,7 @@ function digitsFast(a: number, p: number): number {
   const F = fastReal[F_] as number;
   if (p === 17) {
     const up = roundsUp(0, 0.5, F, exact, (B & 1) === 0);
-    return up < 0 ? Number.NaN : finishDigits(A, B + up, e);
+    return up < 0 ? -1 : place17(A, B + up, e, buffer, d);
   }
   const drop = 17 - p; // digits dropped
   if (drop < 9) {
@@ -384,15 +427,15 @@ function digitsFast(a: number, p: number): number {
     const Bu = (B / u) | 0;
     const R = B - Bu * u;
     const up = roundsUp(R, u / 2, F, exact, (Bu & 1) === 0);
-    return up < 0 ? Number.NaN : finishDigits(A, B - R + up * u, e);
+    return up < 0 ? -1 : place17(A, B - R + up * u, e, buffer, d);
   }
   const ua = POW10_INT[drop - 9] as number; // unit within A
   const Au = (A / ua) | 0;
   const RA = A - Au * ua;
   const R = RA * 1e9 + B; // < 10^16: exact
   const up = roundsUp(R, ua * 5e8, F, exact, (Au & 1) === 0);
-  if (up < 0) return Number.NaN;
-  return finishDigits(A - RA + up * ua, 0, e);
+  if (up < 0) return -1;
+  return place17(A - RA + up * ua, 0, e, buffer, d);
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -404,78 +447,60 @@ const LEAN_MAX_DIGITS = 12;
 /** 10^k for k in [0, 22]: exact doubles. */
 const POW10_EXACT = Float64Array.from({ length: 23 }, (_, k) => Number(`1e${k}`));
 /**
- * Per p, how far t's fraction must be from one half for the short path to round: 10^p · 2^-50,
+ * Per p, how far t's fraction must be from one half for the short path to round (it rounds when
+ * the distance exceeds this): 10^p · 2^-50,
  * eight times the largest error of t (half an ulp of t < 10^p, at most 10^p · 2^-53).
  */
 const LEAN_MARGIN = Float64Array.from({ length: LEAN_MAX_DIGITS + 1 }, (_, p) => 10 ** p * 2 ** -50);
 
 /**
- * The short path of {@link writeDigits} for a > 0 and 1 ≤ p ≤ {@link LEAN_MAX_DIGITS}: fills
- * digitText and returns the decimal exponent, or NaN when it cannot decide.
+ * The short path of {@link writeDigits} for a > 0 and 1 ≤ p ≤ {@link LEAN_MAX_DIGITS}, as
+ * {@link shortestFast} writes; −1 when it cannot decide.
  *
  * @remarks
  * With E the decimal exponent of a (10^E ≤ a < 10^(E+1)), the answer is the integer nearest to
  * a·10^(p−1−E). The binary exponent gives e = ⌊be·log10 2⌋ with E ∈ {e, e + 1}; for
  * j = p − 1 − e in [−22, 22], 10^|j| is an exact double, so t = a·10^j (or a / 10^−j) is one
  * correctly rounded operation on exact operands: |t − a·10^j| ≤ half an ulp of t < 10^p·2^-53
- * (t < 2^53 as p ≤ 12, after the step below). When t ≥ 10^p, E = e + 1 and t is computed again
- * with j − 1 (rounding is monotone, so t ≥ 10^p exactly when a·10^j ≥ 10^p). The fraction of t
- * then decides the rounding when it is at least {@link LEAN_MARGIN} (eight error bounds) away
- * from one half; otherwise (a possible tie or a near one) the double-double or exact path decides.
- * A rounding up to 10^p carries into the exponent. About 2·10^p·2^-50 of uniformly spread
+ * (t < 2^53 as p ≤ 12). E = e + 1 exactly when a ≥ {@link ceilPow10}(e + 1), the least double
+ * ≥ 10^(e+1); then j is one less. The fraction of t decides the rounding when it is more than
+ * {@link LEAN_MARGIN} (eight error bounds) away from one half; otherwise (a possible tie or a
+ * near one) the double-double or exact path decides. A rounding up to 10^p (t within an error
+ * bound of 10^p, or equal to it by rounding) carries into the exponent. About 2·10^p·2^-50 of uniformly spread
  * fractions defer: about 2·10^-6 at p = 9, 2·10^-9 at p = 6.
  */
-function digitsLean(a: number, p: number): number {
+function digitsLean(a: number, p: number, buffer: Uint8Array, d: number): number {
   f64[0] = a;
   const be = ((u32[HI] as number) >>> 20) - 1023;
-  let e = Math.floor(be * LOG10_2) | 0; // an int32 (a small integer when returned: nothing allocated)
+  let e = Math.floor(be * LOG10_2) | 0; // an int32
   let j = p - 1 - e;
-  if (j > 22 || j < -21) return Number.NaN;
-  const limit = POW10_EXACT[p] as number;
-  let t = j >= 0 ? a * (POW10_EXACT[j] as number) : a / (POW10_EXACT[-j] as number);
-  if (t >= limit) {
+  if (j > 22 || j < -21) return -1;
+  if (a >= ceilPow10(e + 1)) {
     e++;
     j--;
-    t = j >= 0 ? a * (POW10_EXACT[j] as number) : a / (POW10_EXACT[-j] as number);
   }
-  const n = Math.floor(t);
-  const f = t - n; // exact: t < 2^53
-  const margin = LEAN_MARGIN[p] as number;
-  let r: number;
-  if (f > 0.5 + margin) r = n + 1;
-  else if (f < 0.5 - margin) r = n;
-  else return Number.NaN;
+  const limit = POW10_EXACT[p] as number;
+  const t = j >= 0 ? a * (POW10_EXACT[j] as number) : a / (POW10_EXACT[-j] as number);
+  // t's fraction less one half (exact: t < 2^53), then the nearest integer without a branch on
+  // its side of one half (t + 0.5 is exact below 2^52).
+  const f = t - Math.floor(t) - 0.5;
+  if (Math.abs(f) <= (LEAN_MARGIN[p] as number)) return -1;
+  let r = Math.floor(t + 0.5);
   if (r === limit) {
     r = limit / 10;
     e++;
   }
-  // The p digits of r, most significant first, trailing zeros dropped (int32 arithmetic below
-  // 10^9, which the JIT keeps in integer registers; doubles above).
-  let k = p;
-  if (r < 1_000_000_000) {
-    let x = r | 0;
-    while (k > 1 && x % 10 === 0) {
-      x = (x / 10) | 0;
-      k--;
-    }
-    for (let i = k - 1; i >= 0; i--) {
-      const q = (x / 10) | 0;
-      digitText[i] = 48 + x - q * 10;
-      x = q;
-    }
-  } else {
-    while (k > 1 && r % 10 === 0) {
-      r /= 10;
-      k--;
-    }
-    for (let i = k - 1; i >= 0; i--) {
-      const q = Math.floor(r / 10);
-      digitText[i] = 48 + (r - q * 10);
-      r = q;
-    }
+  // The p digits of r, two at a time from the last (int32 arithmetic, which the JIT keeps in
+  // integer registers), then trailing zeros dropped.
+  if (r < 1_000_000_000) lowDigits(r | 0, p, buffer, d + p);
+  else {
+    const hi = Math.floor(r / 1e9); // exact: r < 10^12 is an integer, r/1e9 is ≥ 10^-12 from the next integer
+    lowDigits((r - hi * 1e9) | 0, 9, buffer, d + p);
+    lowDigits(hi | 0, p - 9, buffer, d + p - 9);
   }
-  digitCount = k;
-  return e;
+  let k = p;
+  while (k > 1 && buffer[d + k - 1] === 48) k--;
+  return place(buffer, d, k, e);
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -580,12 +605,16 @@ export function writeShortest(v: number, buffer: Uint8Array, pos: number): numbe
     buffer[pos] = 48;
     return pos + 1;
   }
-  const negative = v < 0;
-  const a = negative ? -v : v;
-  if (a === Infinity) return writeAscii(negative ? '-Infinity' : 'Infinity', buffer, pos);
-  let e = shortestFast(a);
-  if (e !== e) e = exactDecimal(a, 0);
-  return layout(negative, e, buffer, pos);
+  let a = v;
+  let d = pos + 1;
+  if (v < 0) {
+    if (v === -Infinity) return writeAscii('-Infinity', buffer, pos);
+    a = -v;
+    buffer[pos] = 45; // '-'
+    d++;
+  } else if (v === Infinity) return writeAscii('Infinity', buffer, pos);
+  const end = shortestFast(a, buffer, d);
+  return end >= 0 ? end : exactPlaced(a, 0, buffer, d);
 }
 
 /**
@@ -606,39 +635,59 @@ export function writeDigits(v: number, digits: number, buffer: Uint8Array, pos: 
     buffer[pos] = 48;
     return pos + 1;
   }
+  let a = v;
+  let d = pos + 1;
+  if (v < 0) {
+    if (v === -Infinity) return writeAscii('-Infinity', buffer, pos);
+    a = -v;
+    buffer[pos] = 45; // '-'
+    d++;
+  } else if (v === Infinity) return writeAscii('Infinity', buffer, pos);
+  let end = digits <= LEAN_MAX_DIGITS ? digitsLean(a, digits, buffer, d) : -1;
+  if (end < 0) end = digitsFast(a, digits, buffer, d);
+  return end >= 0 ? end : exactPlaced(a, digits, buffer, d);
+}
+
+/** The exact path's text of a > 0 written at buffer[d] (d − 1 free) and laid out; returns the position after it. */
+function exactPlaced(a: number, p: number, buffer: Uint8Array, d: number): number {
+  const e = exactDecimal(a, p);
+  for (let i = 0; i < digitCount; i++) buffer[d + i] = digitText[i] as number;
+  return place(buffer, d, digitCount, e);
+}
+
+/** Runs one path on |v| into a fresh buffer and returns its text (`undefined` where it defers). */
+function pathText(
+  v: number,
+  write: (a: number, buffer: Uint8Array, d: number) => number,
+): string | undefined {
+  const buffer = new Uint8Array(40);
   const negative = v < 0;
-  const a = negative ? -v : v;
-  if (a === Infinity) return writeAscii(negative ? '-Infinity' : 'Infinity', buffer, pos);
-  let e = digits <= LEAN_MAX_DIGITS ? digitsLean(a, digits) : Number.NaN;
-  if (e !== e) e = digitsFast(a, digits);
-  if (e !== e) e = exactDecimal(a, digits);
-  return layout(negative, e, buffer, pos);
+  if (negative) buffer[0] = 45;
+  const end = write(Math.abs(v), buffer, negative ? 2 : 1);
+  return end < 0 ? undefined : new TextDecoder().decode(buffer.subarray(0, end));
 }
 
 /**
  * The paths apart, for tests: the fast path's text, or `undefined` where it defers; the short
- * fixed-digit path's (digits 1 to 12), likewise; and the exact path's text.
+ * fixed-digit path's (digits 1 to 12), likewise; the exact path's text; and the power-of-ten
+ * thresholds that give the decimal exponent.
  *
  * @internal
  */
 export const numberTextPaths = {
   fast(v: number, digits: number): string | undefined {
-    const a = Math.abs(v);
-    const e = digits === 0 ? shortestFast(a) : digitsFast(a, digits);
-    if (e !== e) return undefined;
-    const buffer = new Uint8Array(32);
-    return new TextDecoder().decode(buffer.subarray(0, layout(v < 0, e, buffer, 0)));
+    return pathText(v, (a, buffer, d) =>
+      digits === 0 ? shortestFast(a, buffer, d) : digitsFast(a, digits, buffer, d),
+    );
   },
   lean(v: number, digits: number): string | undefined {
-    const e = digitsLean(Math.abs(v), digits);
-    if (e !== e) return undefined;
-    const buffer = new Uint8Array(32);
-    return new TextDecoder().decode(buffer.subarray(0, layout(v < 0, e, buffer, 0)));
+    return pathText(v, (a, buffer, d) => digitsLean(a, digits, buffer, d));
   },
   exact(v: number, digits: number): string {
-    const a = Math.abs(v);
-    const e = exactDecimal(a, digits);
-    const buffer = new Uint8Array(32);
-    return new TextDecoder().decode(buffer.subarray(0, layout(v < 0, e, buffer, 0)));
+    return pathText(v, (a, buffer, d) => exactPlaced(a, digits, buffer, d)) as string;
+  },
+  /** The least double ≥ 10^k, for k in [−300, 300]. */
+  ceilPow10(k: number): number {
+    return ceilPow10(k);
   },
 };

@@ -26,6 +26,8 @@ export interface WriteRecordingOptions {
   readonly digits?: number;
   /** Parquet: compression (default snappy). */
   readonly parquetCompression?: ParquetCompression;
+  /** Parquet: encode in a worker thread (default false; the same bytes either way). */
+  readonly parquetEncoderThread?: boolean;
 }
 
 /**
@@ -66,6 +68,7 @@ export async function writeRecording<T>(
       case 'parquet':
         return (await import('./createParquetWriter.js')).createParquetWriter(sink, columns, blockFrames, {
           ...(options.parquetCompression === undefined ? {} : { compression: options.parquetCompression }),
+          encoderThread: options.parquetEncoderThread === true,
         });
       default:
         return createRawWriter(sink, format as RawOutputFormat, columns.channels.length, blockFrames);

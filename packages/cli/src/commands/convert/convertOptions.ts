@@ -186,6 +186,15 @@ export const convertOptions = [
     description: 'Parquet: compression of the column chunks.',
   },
   {
+    name: 'parquet-encoder',
+    type: 'choice',
+    placeholder: 'where',
+    choices: ['auto', 'this-thread', 'worker-thread'],
+    default: 'auto',
+    description:
+      "Parquet: where the file is encoded and compressed. 'worker-thread' encodes in a second thread while this one converts (faster where a second core is free; about 60 MB more memory); 'auto' does so for inputs of 16 MiB and more on a machine of more than two processors. The values, pages and metadata are the same either way.",
+  },
+  {
     name: 'block',
     type: 'integer',
     placeholder: 'frames',

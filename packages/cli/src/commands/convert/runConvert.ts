@@ -118,6 +118,14 @@ export async function run(args: ConvertArgs, context: CommandContext): Promise<n
 const THREADED_FROM_BYTES = { csv: 8 * 2 ** 20, parquet: 64 * 2 ** 20, other: 256 * 2 ** 20 } as const;
 
 /**
+ * From this input size up, `--parquet-encoder auto` encodes in a worker thread on a machine of
+ * more than two processors: 16 MiB, about ten times the input one thread converts to Parquet in
+ * the 0.05–0.1 s the encoder thread takes to start and load parquet-wasm. On two vCPUs shared with
+ * other work the thread was measured slower (docs/performance.md), so it stays off there.
+ */
+const PARQUET_ENCODER_THREAD_FROM_BYTES = 16 << 20;
+
+/**
  * The worker threads of a run (`--convert-threads`), started before the channel file is read so
  * that their start-up overlaps this thread's. By default none on one or two processors (measured
  * not to pay on a 2-processor machine shared with other work: docs/performance.md); on more, one
@@ -361,6 +369,11 @@ async function convertWith(
         blockFrames: source.blockFrames,
         ...(options.digits === undefined ? {} : { digits: options.digits }),
         parquetCompression: options.parquetCompression,
+        parquetEncoderThread:
+          options.parquetEncoder === 'worker-thread' ||
+          (options.parquetEncoder === 'auto' &&
+            availableParallelism() > 2 &&
+            source.totalBytes >= PARQUET_ENCODER_THREAD_FROM_BYTES),
       },
       (writer) =>
         convertRecording({
