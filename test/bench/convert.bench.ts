@@ -160,13 +160,20 @@ const cases: Case[] = [
     name: 'convert → parquet (none)',
     values: totalCodes,
     bytes: inputBytes,
-    argv: convert(input, 'parquet', ['--parquet-compression', 'none']),
+    argv: convert(input, 'parquet', ['--parquet-compression', 'none', '--parquet-encoder', 'this-thread']),
   },
   {
     name: 'convert → parquet (snappy)',
     values: totalCodes,
     bytes: inputBytes,
-    argv: convert(input, 'parquet'),
+    argv: convert(input, 'parquet', ['--parquet-encoder', 'this-thread']),
+  },
+  {
+    // The column chunks encoded and compressed in a worker thread while this one converts.
+    name: 'convert → parquet (snappy), encoder thread',
+    values: totalCodes,
+    bytes: inputBytes,
+    argv: convert(input, 'parquet', ['--parquet-encoder', 'worker-thread']),
   },
   { name: 'convert → csv (shortest)', values: csvCodes, bytes: csvCodes * 4, argv: convert(csvInput, 'csv') },
   {

@@ -1,4 +1,16 @@
-import { existsSync, mkdirSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { execFileSync } from 'node:child_process';
+import {
+  createReadStream,
+  existsSync,
+  lstatSync,
+  mkdirSync,
+  readdirSync,
+  readFileSync,
+  readlinkSync,
+  statSync,
+  symlinkSync,
+  writeFileSync,
+} from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
@@ -53,6 +65,76 @@ describe('writeFileAtomic', () => {
     );
     await expect(writeFileAtomic(dir, 'x', { force: true })).rejects.toThrow(/it is a folder/);
   });
+
+  it('writes through a character device (/dev/null, reached by a link) and never replaces it', async () => {
+    // Through a link in the test folder: were the device replaced, only the link would be.
+    const dir = fresh();
+    const link = join(dir, 'sink');
+    symlinkSync('/dev/null', link);
+    await writeFileAtomic(link, 'discarded'); // no force needed: nothing is replaced
+    await writeFileAtomic(link, 'discarded', { force: true });
+    expect(lstatSync(link).isSymbolicLink()).toBe(true);
+    expect(readlinkSync(link)).toBe('/dev/null');
+    expect(statSync('/dev/null').isCharacterDevice()).toBe(true);
+    expect(readdirSync(dir)).toEqual(['sink']); // nothing temporary left
+  });
+
+  it('writes into a named pipe its reader reads, and leaves the pipe a pipe', async () => {
+    const dir = fresh();
+    const fifo = join(dir, 'to-reader');
+    execFileSync('mkfifo', [fifo]);
+    const chunks: Buffer[] = [];
+    const read = new Promise<void>((done, fail) => {
+      createReadStream(fifo)
+        .on('data', (c) => chunks.push(c as Buffer))
+        .on('end', done)
+        .on('error', fail);
+    });
+    await writeFileAtomic(fifo, 'strain\n1.5\n', { force: true });
+    await read;
+    expect(Buffer.concat(chunks).toString('utf8')).toBe('strain\n1.5\n');
+    expect(statSync(fifo).isFIFO()).toBe(true);
+    expect(readdirSync(dir)).toEqual(['to-reader']);
+  }, 15_000);
+
+  it('follows a symbolic link with force: the file it names is replaced, the link stays', async () => {
+    const dir = fresh();
+    const real = join(dir, 'real.csv');
+    const link = join(dir, 'latest.csv');
+    writeFileSync(real, 'old');
+    symlinkSync('real.csv', link);
+    expect(await caught(writeFileAtomic(link, 'new'))).toThrowBridgeworkError('file-exists');
+    await writeFileAtomic(link, 'new', { force: true });
+    expect(lstatSync(link).isSymbolicLink()).toBe(true);
+    expect(readFileSync(real, 'utf8')).toBe('new');
+    expect(readdirSync(dir).sort()).toEqual(['latest.csv', 'real.csv']);
+  });
+
+  const blockDevice = readdirSync('/dev')
+    .map((name) => join('/dev', name))
+    .find((path) => {
+      try {
+        return statSync(path).isBlockDevice();
+      } catch {
+        return false;
+      }
+    });
+  it.skipIf(blockDevice === undefined)(
+    'refuses a block device (a disk), before anything is written',
+    async () => {
+      let error: unknown;
+      try {
+        const opened = await openAtomicFile(blockDevice as string, { force: true });
+        await opened.abort(); // never committed: the device is untouched even if this opened
+      } catch (e) {
+        error = e;
+      }
+      expect(() => {
+        throw error;
+      }).toThrowBridgeworkError('io-error');
+      expect(String(error)).toMatch(/is a block device \(a disk or partition\).*write to a file/);
+    },
+  );
 
   it('writes bytes as they are', async () => {
     const dir = fresh();

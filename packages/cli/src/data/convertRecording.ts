@@ -105,7 +105,8 @@ export interface ConvertRecordingOptions {
  * and the summary are those of one thread, bit for bit. The per-block temperature correction is
  * block-local (each block's own temperature lane) and runs in the workers; zero readings from a
  * window are in the channels' specs. Memory: `threads + 2` blocks in flight, each its codes
- * (`blockFrames × channels × 8` bytes at most) and its output (values, or text grown as needed),
+ * (`blockFrames × channels × 8` bytes at most) and its output (values, or room for the text: 32
+ * bytes per value and per time stamp),
  * plus what the source and the writer hold.
  *
  * @param options - Source, channels, factors, temperature correction, writer, worker threads and

@@ -1,6 +1,6 @@
 import { randomBytes } from 'node:crypto';
 import { constants as fsConstants } from 'node:fs';
-import { link, open, rename, stat, unlink, type FileHandle } from 'node:fs/promises';
+import { link, open, realpath, rename, stat, unlink, type FileHandle } from 'node:fs/promises';
 import { basename, dirname, join, resolve } from 'node:path';
 import { BridgeworkError } from '@bridgework/core';
 import { describeFsError, describeOutputError } from '../internal/fileErrors.js';
@@ -30,7 +30,10 @@ export interface AtomicFileOptions {
 export interface AtomicFile {
   /** The absolute path of the output file. */
   readonly path: string;
-  /** The absolute path of the temporary file (same folder, hidden name). */
+  /**
+   * The absolute path of the temporary file (same folder, hidden name); for a device or named
+   * pipe written straight through, the path itself.
+   */
   readonly tempPath: string;
   /** Appends text (UTF-8) or bytes. Wait for each call before the next. */
   write(data: string | Uint8Array): Promise<void>;
@@ -80,13 +83,16 @@ async function exists(path: string): Promise<boolean> {
  * file. The temporary file is removed on {@link AtomicFile.abort}, on SIGINT, SIGTERM and SIGHUP,
  * and on exit; only an uncatchable SIGKILL or a power cut can leave it behind (never the target).
  * The existence check is made here, before any work, so a long conversion fails at once rather
- * than at the end.
+ * than at the end. A symbolic link is followed (the file it names is replaced; the link stays). A
+ * character device or named pipe (`/dev/null`, a FIFO) is written straight through, with or
+ * without `force`, never replaced; a block device is refused.
  *
  * @param path - The output file (relative paths against the process's working folder).
  * @param options - `force` to allow replacing an existing file.
  * @returns The open file.
  * @throws {@link @bridgework/core!BridgeworkError} `file-exists` when the file exists and `force` is not set;
- * `io-error` when the folder is missing, the path is a folder, or the file cannot be created.
+ * `io-error` when the folder is missing, the path is a folder or a block device, or the file
+ * cannot be created.
  * @example
  * ```ts
  * const file = await openAtomicFile('strain.csv');
@@ -99,12 +105,24 @@ async function exists(path: string): Promise<boolean> {
  * ```
  */
 export async function openAtomicFile(path: string, options: AtomicFileOptions = {}): Promise<AtomicFile> {
-  const target = resolve(path);
+  let target = resolve(path);
   const force = options.force === true;
   try {
-    const s = await stat(target);
+    const s = await stat(target); // through symbolic links
     if (s.isDirectory()) throw ioError(`cannot write ${path}: it is a folder`, path, undefined);
+    if (s.isBlockDevice()) {
+      throw ioError(
+        `cannot write ${path}: it is a block device (a disk or partition), which an output would overwrite; write to a file on it instead`,
+        path,
+        undefined,
+      );
+    }
+    // A terminal, /dev/null or a named pipe: written straight through; replacing it by a
+    // regular file (the rename below) would destroy the device node or the pipe.
+    if (s.isCharacterDevice() || s.isFIFO()) return openStraight(path, target);
     if (!force) throw fileExistsError(path);
+    // A symbolic link stays a link: its file is the one replaced.
+    target = await realpath(target);
   } catch (e) {
     if (e instanceof BridgeworkError) throw e;
     if ((e as NodeJS.ErrnoException).code !== 'ENOENT')
@@ -190,6 +208,54 @@ export async function openAtomicFile(path: string, options: AtomicFileOptions = 
       if (state !== 'open') return;
       state = 'aborted';
       await closeAndRemove();
+    },
+  };
+}
+
+/**
+ * An output that is a character device or a named pipe (`/dev/null`, a terminal, a FIFO another
+ * program reads): written straight to it, nothing temporary, nothing flushed or renamed (a device
+ * or pipe has no file to replace, and `fsync` does not apply to it). Opening a pipe waits for its
+ * reader, as any writer of a pipe does. `commit` closes it; `abort` closes it too (what was written
+ * has gone to the reader).
+ */
+async function openStraight(path: string, target: string): Promise<AtomicFile> {
+  let handle: FileHandle;
+  try {
+    handle = await open(target, fsConstants.O_WRONLY);
+  } catch (e) {
+    throw ioError(`cannot write ${path}: ${await describeOutputError(e, target)}`, path, e);
+  }
+  let state: 'open' | 'committed' | 'aborted' = 'open';
+  return {
+    path: target,
+    tempPath: target,
+    async write(data) {
+      if (state !== 'open') throw new Error(`AtomicFile.write after ${state}`);
+      const bytes = typeof data === 'string' ? Buffer.from(data, 'utf8') : data;
+      let offset = 0;
+      try {
+        while (offset < bytes.length) {
+          const { bytesWritten } = await handle.write(bytes, offset, bytes.length - offset);
+          offset += bytesWritten;
+        }
+      } catch (e) {
+        throw ioError(`cannot write ${path}: ${describeFsError(e)}`, path, e);
+      }
+    },
+    async commit() {
+      if (state !== 'open') throw new Error(`AtomicFile.commit after ${state}`);
+      state = 'committed';
+      try {
+        await handle.close();
+      } catch (e) {
+        throw ioError(`cannot write ${path}: ${describeFsError(e)}`, path, e);
+      }
+    },
+    async abort() {
+      if (state !== 'open') return;
+      state = 'aborted';
+      await handle.close().catch(() => undefined);
     },
   };
 }
