@@ -136,6 +136,27 @@ describe('writeFileAtomic', () => {
     },
   );
 
+  it('a large output (flushes started in the background every 32 MiB) arrives whole and in order', async () => {
+    const dir = fresh();
+    const path = join(dir, 'big.bin');
+    const file = await openAtomicFile(path);
+    const chunk = new Uint8Array(1 << 20);
+    for (let k = 0; k < 80; k++) {
+      chunk.fill(k);
+      await file.write(chunk);
+    }
+    await file.commit();
+    const back = readFileSync(path);
+    expect(back.length).toBe(80 << 20);
+    for (let k = 0; k < 80; k++) {
+      const part = back.subarray(k << 20, (k + 1) << 20);
+      expect(part[0] === k && part[part.length - 1] === k && part.every((b) => b === k), `MiB ${k}`).toBe(
+        true,
+      );
+    }
+    expect(readdirSync(dir)).toEqual(['big.bin']);
+  });
+
   it('writes bytes as they are', async () => {
     const dir = fresh();
     await writeFileAtomic(join(dir, 'codes.bin'), Uint8Array.of(0, 255, 1, 128));
