@@ -1,6 +1,6 @@
 /**
  * Independent references for the mechanics tests. Nothing here shares code or algebra with src/:
- * - decimal.js at 80 digits: the closed-form eigen-decomposition of the 2×2 strain tensor;
+ * - decimal.js at 400 digits: the closed-form eigen-decomposition of the 2×2 strain tensor;
  * - mathjs (private 40-digit BigNumber instance): an LU solve (`lusolve`) of the rosette leg equations εθ = εx·cos²θ + εy·sin²θ + γxy·sinθ·cosθ (with
  *   the sines and cosines from decimal.js at 40 digits);
  * - decimal.js (private 40-digit clone): plane-stress equations and section formulas;
@@ -48,18 +48,23 @@ export interface EigenReference {
   readonly maxShear: number;
 }
 
-/** A private 80-digit decimal.js for the closed-form eigen-decomposition. */
-const E = Decimal.clone({ precision: 80, rounding: Decimal.ROUND_HALF_EVEN });
+/**
+ * A private 400-digit decimal.js for the closed-form eigen-decomposition: the products of the
+ * doubles' exact values (at most about 70 significant digits for strains and stresses of these
+ * tests) are exact, so an exact square's root is exact and an eigenvalue that is exactly zero
+ * comes out as 0 (at 80 digits it came out as ±1e-87).
+ */
+const E = Decimal.clone({ precision: 400, rounding: Decimal.ROUND_HALF_EVEN });
 
 /**
  * Eigen-decomposition of the symmetric tensor [[εx, γ/2], [γ/2, εy]] by the closed form of a
  * symmetric 2×2 matrix (any linear-algebra text): λ = c ± R with c = (εx + εy)/2 and
  * R = √(((εx − εy)/2)² + (γ/2)²), eigenvector of λ1 = c + R along (γ/2, λ1 − εx) — or along
- * (λ1 − εy, γ/2), whichever is longer — evaluated in decimal.js at 80 digits from the doubles'
+ * (λ1 − εy, γ/2), whichever is longer — evaluated in decimal.js at 400 digits from the doubles'
  * exact values. (mathjs `eigs` at 40 digits was used before; on rare random tensors its BigNumber
- * Jacobi rotation ran for minutes.) At 80 digits c − R keeps more than 40 significant digits even
- * when it nearly cancels (a principal strain 1e-17 of the other), so the smaller value needs no
- * product form.
+ * Jacobi rotation ran for minutes.) At 400 digits c − R keeps more than 300 significant digits even
+ * when it nearly cancels (a principal strain 1e-17 of the other), and is exactly 0 when the
+ * eigenvalue is, so the smaller value needs no product form.
  */
 export function strainTensorEigs(strainX: number, strainY: number, shearStrainXY: number): EigenReference {
   const x = new E(exactDecimalString(strainX));
@@ -186,7 +191,7 @@ export interface PlaneStressReference {
   readonly stressX: number;
   readonly stressY: number;
   readonly shearStressXY: number;
-  /** Principal stresses [σ2, σ1] as eigenvalues of the stress tensor (closed form, 80 digits). */
+  /** Principal stresses [σ2, σ1] as eigenvalues of the stress tensor (closed form, 400 digits). */
   readonly principal: readonly [number, number];
   readonly vonMises: number;
   readonly outOfPlaneStrain: number;
@@ -195,7 +200,7 @@ export interface PlaneStressReference {
 /**
  * Plane stress the other way round from src/: Hooke's law on the x–y components first (40-digit
  * decimal.js), then the principal stresses as eigenvalues of [[σx, τxy], [τxy, σy]] (the closed
- * form of a symmetric 2×2 matrix at 80 digits), and von Mises from the component form √(σx² − σxσy + σy² + 3τxy²).
+ * form of a symmetric 2×2 matrix at 400 digits), and von Mises from the component form √(σx² − σxσy + σy² + 3τxy²).
  */
 export function planeStressReference(
   strainX: number,
@@ -210,7 +215,7 @@ export function planeStressReference(
   const sx = k.times(dec(strainX).plus(nu.times(dec(strainY))));
   const sy = k.times(dec(strainY).plus(nu.times(dec(strainX))));
   const txy = e.div(nu.plus(1).times(2)).times(dec(shearStrainXY));
-  // The eigenvalues of [[σx, τxy], [τxy, σy]]: c ± √(((σx − σy)/2)² + τxy²), at 80 digits.
+  // The eigenvalues of [[σx, τxy], [τxy, σy]]: c ± √(((σx − σy)/2)² + τxy²), at 400 digits.
   const [x, y, b] = [new E(sx), new E(sy), new E(txy)];
   const c = x.plus(y).div(2);
   const r = x.minus(y).div(2).pow(2).plus(b.pow(2)).sqrt();
