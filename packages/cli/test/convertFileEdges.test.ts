@@ -4,7 +4,7 @@
  * name the path and the reason in words.
  */
 import { spawnSync } from 'node:child_process';
-import { linkSync, readFileSync, symlinkSync } from 'node:fs';
+import { linkSync, lstatSync, readFileSync, statSync, symlinkSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { exitCodes } from '../src/exitCodes.js';
@@ -55,6 +55,19 @@ describe('an output that is the input (issue 15 item 16)', () => {
     const channelCopy = file('ch.yaml', readFileSync(join(repoRoot, exampleShown)));
     const r = await run(['convert', channelCopy, input, '-o', channelCopy, '--force']);
     expect(r.stderr).toMatch(/the output .*ch\.yaml is the input .*ch\.yaml \(the same file\)/);
+  });
+
+  it('-o /dev/null (through a link) converts into the device and leaves it a device', async () => {
+    const sink = join(tmp(), 'sink');
+    symlinkSync('/dev/null', sink); // were the device replaced by a file, only this link would be
+    const input = file('rec.bin', int32le([1, 2, 3, 4, 5, 6]));
+    for (const extra of [[], ['--force']]) {
+      const r = await run(['convert', exampleShown, input, '-o', sink, ...extra]);
+      expect(r.stderr).toMatch(/wrote 2 rows/);
+      expect(r.code).toBe(exitCodes.ok);
+    }
+    expect(statSync('/dev/null').isCharacterDevice()).toBe(true);
+    expect(lstatSync(sink).isSymbolicLink()).toBe(true);
   });
 });
 

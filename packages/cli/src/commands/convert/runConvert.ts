@@ -120,8 +120,9 @@ const THREADED_FROM_BYTES = { csv: 8 * 2 ** 20, parquet: 64 * 2 ** 20, other: 25
 /**
  * From this input size up, `--parquet-encoder auto` encodes in a worker thread on a machine of
  * more than two processors: 16 MiB, about ten times the input one thread converts to Parquet in
- * the 0.05–0.1 s the encoder thread takes to start and load parquet-wasm. On two vCPUs shared with
- * other work the thread was measured slower (docs/performance.md), so it stays off there.
+ * the 0.05–0.1 s the encoder thread takes to start and load parquet-wasm. On two vCPUs it was
+ * 10 % faster near quiet and slower under load from other work (docs/performance.md), so it stays
+ * off there unless asked for.
  */
 const PARQUET_ENCODER_THREAD_FROM_BYTES = 16 << 20;
 
