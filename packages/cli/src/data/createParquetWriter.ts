@@ -6,7 +6,7 @@ import { receiveError } from './laneMessages.js';
 import type { ParquetCompression } from './outputFormats.js';
 import type { OutputSink } from './outputSink.js';
 import {
-  writerProperties,
+  encodeParquet,
   type ParquetReply,
   type ParquetRequest,
   type ParquetSettings,
@@ -127,34 +127,22 @@ interface Encoder {
 /** The crate in this thread: push (our batches) to pull (its input stream) by a one-slot hand-over. */
 async function inThisThread(sink: OutputSink, settings: ParquetSettings): Promise<Encoder> {
   const pw: ParquetWasm = await import('parquet-wasm/node');
-  const properties = writerProperties(pw, settings);
-  const queue: unknown[] = [];
+  const queue: Uint8Array[] = [];
   let closed = false;
   let wakePull: (() => void) | undefined;
   let wakeWriter: (() => void) | undefined;
   let failure: unknown;
-  const input = new ReadableStream(
-    {
-      async pull(controller) {
-        while (queue.length === 0 && !closed) await new Promise<void>((r) => (wakePull = r));
-        if (queue.length > 0) controller.enqueue(queue.shift());
-        else controller.close();
-        if (queue.length === 0) wakeWriter?.();
-      },
+  const done = encodeParquet(
+    pw,
+    settings,
+    async () => {
+      while (queue.length === 0 && !closed) await new Promise<void>((r) => (wakePull = r));
+      const ipc = queue.shift();
+      wakeWriter?.();
+      return ipc;
     },
-    { highWaterMark: 0 },
-  );
-  // The crate reads the first batch (for the schema) before it hands out its byte stream, so the
-  // stream is awaited by the consumer, not here (the first batch comes with the first block).
-  const done = (async () => {
-    const output = await pw.transformParquetStream(input, properties);
-    const reader = (output as ReadableStream<Uint8Array>).getReader();
-    for (;;) {
-      const { value, done: end } = await reader.read();
-      if (end) return;
-      await sink.write(value);
-    }
-  })().catch((e: unknown) => {
+    (bytes) => sink.write(bytes),
+  ).catch((e: unknown) => {
     failure = e;
     wakeWriter?.();
   });
@@ -164,9 +152,7 @@ async function inThisThread(sink: OutputSink, settings: ParquetSettings): Promis
   return {
     async batch(batch) {
       rethrow();
-      const table = pw.Table.fromIPCStream(tableToIPC(new Table([batch]), 'stream'));
-      for (const b of table.recordBatches()) queue.push(b);
-      table.free();
+      queue.push(tableToIPC(new Table([batch]), 'stream'));
       wakePull?.();
       while (queue.length > 0 && failure === undefined) await new Promise<void>((r) => (wakeWriter = r));
       rethrow();

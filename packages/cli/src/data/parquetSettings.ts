@@ -30,7 +30,7 @@ export interface ParquetSettings {
  * @param settings - The file's settings.
  * @returns The properties (a WebAssembly object, consumed by the writer).
  */
-export function writerProperties(pw: ParquetWasm, settings: ParquetSettings): WriterProperties {
+function writerProperties(pw: ParquetWasm, settings: ParquetSettings): WriterProperties {
   const codec = {
     none: pw.Compression.UNCOMPRESSED,
     snappy: pw.Compression.SNAPPY,
@@ -45,6 +45,50 @@ export function writerProperties(pw: ParquetWasm, settings: ParquetSettings): Wr
     .build();
 }
 
+/**
+ * Runs the crate's streaming writer over a sequence of record batches: each comes as an Arrow IPC
+ * stream from `next` (`undefined` ends the file), is read into WebAssembly memory when the crate
+ * pulls it, and the file's bytes go to `write` in order as row groups complete. The one loop both
+ * the main thread and the encoder thread run, so their files are the same.
+ *
+ * @param pw - The loaded parquet-wasm module.
+ * @param settings - The file's settings.
+ * @param next - The next batch as IPC bytes, or `undefined` when there are no more.
+ * @param write - Takes the next bytes of the file; the crate waits for it.
+ * @returns Resolves when the whole file has been written.
+ */
+export async function encodeParquet(
+  pw: ParquetWasm,
+  settings: ParquetSettings,
+  next: () => Promise<Uint8Array | undefined>,
+  write: (bytes: Uint8Array) => Promise<void>,
+): Promise<void> {
+  const properties = writerProperties(pw, settings);
+  const input = new ReadableStream(
+    {
+      async pull(controller) {
+        const ipc = await next();
+        if (ipc === undefined) {
+          controller.close();
+          return;
+        }
+        const table = pw.Table.fromIPCStream(ipc);
+        for (const batch of table.recordBatches()) controller.enqueue(batch);
+        table.free();
+      },
+    },
+    { highWaterMark: 0 },
+  );
+  // The crate reads the first batch (for the schema) before it hands out its byte stream.
+  const output = (await pw.transformParquetStream(input, properties)) as ReadableStream<Uint8Array>;
+  const reader = output.getReader();
+  for (;;) {
+    const { value, done } = await reader.read();
+    if (done) return;
+    await write(value);
+  }
+}
+
 /** Main thread → encoder thread. */
 export type ParquetRequest =
   | { readonly type: 'start'; readonly settings: ParquetSettings }
@@ -57,7 +101,7 @@ export type ParquetRequest =
 
 /** Encoder thread → main thread. */
 export type ParquetReply =
-  /** A batch has been read into the encoder (the main thread may send another). */
+  /** A batch has been taken by the encoder (the main thread may send another). */
   | { readonly type: 'taken' }
   /** The next bytes of the file, in order (the buffer transferred). */
   | { readonly type: 'bytes'; readonly bytes: Uint8Array }

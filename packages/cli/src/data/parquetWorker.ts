@@ -7,7 +7,7 @@
 import { parentPort } from 'node:worker_threads';
 import { sendError } from './laneMessages.js';
 import {
-  writerProperties,
+  encodeParquet,
   type ParquetReply,
   type ParquetRequest,
   type ParquetSettings,
@@ -49,38 +49,25 @@ port.on('message', (message: ParquetRequest) => {
 
 async function encode(settings: ParquetSettings): Promise<void> {
   try {
-    const pw = await loading;
-    const properties = writerProperties(pw, settings);
-    const input = new ReadableStream(
-      {
-        async pull(controller) {
-          while (queue.length === 0 && !ended) await new Promise<void>((r) => (wakePull = r));
-          const ipc = queue.shift();
-          if (ipc === undefined) {
-            controller.close();
-            return;
-          }
-          const table = pw.Table.fromIPCStream(ipc);
-          for (const batch of table.recordBatches()) controller.enqueue(batch);
-          table.free();
-          send({ type: 'taken' });
-        },
+    await encodeParquet(
+      await loading,
+      settings,
+      async () => {
+        while (queue.length === 0 && !ended) await new Promise<void>((r) => (wakePull = r));
+        const ipc = queue.shift();
+        if (ipc !== undefined) send({ type: 'taken' });
+        return ipc;
       },
-      { highWaterMark: 0 },
+      async (value) => {
+        while (unacknowledged >= 2) await new Promise<void>((r) => (wakeOutput = r));
+        unacknowledged++;
+        // A chunk is a fresh copy out of WebAssembly memory; a view of a larger buffer is copied
+        // once more so that only its bytes cross.
+        const bytes =
+          value.byteOffset === 0 && value.byteLength === value.buffer.byteLength ? value : value.slice();
+        send({ type: 'bytes', bytes }, [bytes.buffer as ArrayBuffer]);
+      },
     );
-    const output = (await pw.transformParquetStream(input, properties)) as ReadableStream<Uint8Array>;
-    const reader = output.getReader();
-    for (;;) {
-      const { value, done } = await reader.read();
-      if (done) break;
-      while (unacknowledged >= 2) await new Promise<void>((r) => (wakeOutput = r));
-      unacknowledged++;
-      // A chunk is a fresh copy out of WebAssembly memory; a view of a larger buffer is copied
-      // once more so that only its bytes cross.
-      const bytes =
-        value.byteOffset === 0 && value.byteLength === value.buffer.byteLength ? value : value.slice();
-      send({ type: 'bytes', bytes }, [bytes.buffer as ArrayBuffer]);
-    }
     send({ type: 'done' });
   } catch (error) {
     send({ type: 'failed', error: sendError(error) });

@@ -69,6 +69,26 @@ async function exists(path: string): Promise<boolean> {
   }
 }
 
+/**
+ * Writes all of `data` (text as UTF-8) at the handle's position, however many calls that takes.
+ *
+ * @returns The number of bytes written.
+ * @throws {@link @bridgework/core!BridgeworkError} `io-error`, naming `path`.
+ */
+async function writeAll(handle: FileHandle, data: string | Uint8Array, path: string): Promise<number> {
+  const bytes = typeof data === 'string' ? Buffer.from(data, 'utf8') : data;
+  let offset = 0;
+  try {
+    while (offset < bytes.length) {
+      const { bytesWritten } = await handle.write(bytes, offset, bytes.length - offset);
+      offset += bytesWritten;
+    }
+  } catch (e) {
+    throw ioError(`cannot write ${path}: ${describeFsError(e)}`, path, e);
+  }
+  return bytes.length;
+}
+
 /** Bytes written between the starts of two background flushes of an atomic file (32 MiB). */
 const WRITE_BACK_BYTES = 32 << 20;
 
@@ -182,18 +202,9 @@ export async function openAtomicFile(path: string, options: AtomicFileOptions = 
     tempPath,
     async write(data) {
       if (state !== 'open') throw new Error(`AtomicFile.write after ${state}`);
-      const bytes = typeof data === 'string' ? Buffer.from(data, 'utf8') : data;
-      let offset = 0;
-      try {
-        if (flushError !== undefined) throw flushError;
-        while (offset < bytes.length) {
-          const { bytesWritten } = await handle.write(bytes, offset, bytes.length - offset);
-          offset += bytesWritten;
-        }
-      } catch (e) {
-        throw ioError(`cannot write ${path}: ${describeFsError(e)}`, path, e);
-      }
-      unflushed += bytes.length;
+      if (flushError !== undefined)
+        throw ioError(`cannot write ${path}: ${describeFsError(flushError)}`, path, flushError);
+      unflushed += await writeAll(handle, data, path);
       startWriteBack();
     },
     async commit() {
@@ -263,16 +274,7 @@ async function openStraight(path: string, target: string): Promise<AtomicFile> {
     tempPath: target,
     async write(data) {
       if (state !== 'open') throw new Error(`AtomicFile.write after ${state}`);
-      const bytes = typeof data === 'string' ? Buffer.from(data, 'utf8') : data;
-      let offset = 0;
-      try {
-        while (offset < bytes.length) {
-          const { bytesWritten } = await handle.write(bytes, offset, bytes.length - offset);
-          offset += bytesWritten;
-        }
-      } catch (e) {
-        throw ioError(`cannot write ${path}: ${describeFsError(e)}`, path, e);
-      }
+      await writeAll(handle, data, path);
     },
     async commit() {
       if (state !== 'open') throw new Error(`AtomicFile.commit after ${state}`);
