@@ -215,6 +215,13 @@ describe('writeDigits', () => {
     expect(digits(9.5, 1)).toBe('10');
     expect(digits(1.5e308, 1)).toBe('2e+308');
     expect(digits(NaN, 3)).toBe('NaN');
+    // The non-finite values and both zeros as String(v) writes them.
+    expect([Infinity, -Infinity, 0, -0].map((v) => digits(v, 6))).toEqual([
+      'Infinity',
+      '-Infinity',
+      '0',
+      '0',
+    ]);
   });
 
   it('the short path (one correctly rounded scaling, up to 12 digits) equals decimal.js wherever it decides', () => {

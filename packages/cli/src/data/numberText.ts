@@ -686,21 +686,29 @@ function exactDecimal(a: number, p: number): number {
  * @returns The position after the text.
  */
 export function writeShortest(v: number, buffer: Uint8Array, pos: number): number {
-  if (v !== v) return writeAscii('NaN', buffer, pos);
+  if (v !== v || v === 0 || v === Infinity || v === -Infinity) return writeSpecial(v, buffer, pos);
+  const a = v < 0 ? -v : v;
+  const d = v < 0 ? writeMinus(buffer, pos) : pos + 1;
+  const end = shortestFast(a, buffer, d);
+  return end >= 0 ? end : exactPlaced(a, 0, buffer, d);
+}
+
+/** NaN, ±0 (as `0`) and ±Infinity, as Number::toString writes them; returns the position after. */
+function writeSpecial(v: number, buffer: Uint8Array, pos: number): number {
   if (v === 0) {
     buffer[pos] = 48;
     return pos + 1;
   }
-  let a = v;
-  let d = pos + 1;
-  if (v < 0) {
-    if (v === -Infinity) return writeAscii('-Infinity', buffer, pos);
-    a = -v;
-    buffer[pos] = 45; // '-'
-    d++;
-  } else if (v === Infinity) return writeAscii('Infinity', buffer, pos);
-  const end = shortestFast(a, buffer, d);
-  return end >= 0 ? end : exactPlaced(a, 0, buffer, d);
+  return writeAscii(v !== v ? 'NaN' : v > 0 ? 'Infinity' : '-Infinity', buffer, pos);
+}
+
+/**
+ * Writes the minus sign at `pos`; returns where the digits of a negative value start (one byte
+ * further on than a positive value's, which start at `pos + 1`).
+ */
+function writeMinus(buffer: Uint8Array, pos: number): number {
+  buffer[pos] = 45; // '-'
+  return pos + 2;
 }
 
 /**
@@ -716,19 +724,9 @@ export function writeShortest(v: number, buffer: Uint8Array, pos: number): numbe
  * @returns The position after the text.
  */
 export function writeDigits(v: number, digits: number, buffer: Uint8Array, pos: number): number {
-  if (v !== v) return writeAscii('NaN', buffer, pos);
-  if (v === 0) {
-    buffer[pos] = 48;
-    return pos + 1;
-  }
-  let a = v;
-  let d = pos + 1;
-  if (v < 0) {
-    if (v === -Infinity) return writeAscii('-Infinity', buffer, pos);
-    a = -v;
-    buffer[pos] = 45; // '-'
-    d++;
-  } else if (v === Infinity) return writeAscii('Infinity', buffer, pos);
+  if (v !== v || v === 0 || v === Infinity || v === -Infinity) return writeSpecial(v, buffer, pos);
+  const a = v < 0 ? -v : v;
+  const d = v < 0 ? writeMinus(buffer, pos) : pos + 1;
   let end = digits <= LEAN_MAX_DIGITS ? digitsLean(a, digits, buffer, d) : -1;
   if (end < 0) end = digitsFast(a, digits, buffer, d);
   return end >= 0 ? end : exactPlaced(a, digits, buffer, d);
