@@ -94,21 +94,23 @@ export async function createParquetWriter(
   return {
     async writeBlock(block) {
       written = true;
-      await encoder.batch(builder.batch(block));
+      await encoder.batch(ipcOf(builder.batch(block)));
     },
     async finish() {
       if (!written) {
         // An empty recording: one empty batch carries the schema into the file.
         await encoder.batch(
-          builder.batch({
-            frames: 0,
-            firstFrame: 0,
-            values: new Float64Array(0),
-            laneStride: 0,
-            timeStamps: undefined,
-            passThrough: columns.passThrough.map(() => []),
-            rejected: columns.channels.map(() => 0),
-          }),
+          ipcOf(
+            builder.batch({
+              frames: 0,
+              firstFrame: 0,
+              values: new Float64Array(0),
+              laneStride: 0,
+              timeStamps: undefined,
+              passThrough: columns.passThrough.map(() => []),
+              rejected: columns.channels.map(() => 0),
+            }),
+          ),
         );
       }
       await encoder.end();
@@ -116,10 +118,15 @@ export async function createParquetWriter(
   };
 }
 
-/** One of the two ways the crate is run: takes batches in order, then ends the file. */
+/** A record batch as an Arrow IPC stream: a copy, so the block's arrays are free at once. */
+function ipcOf(batch: RecordBatch): Uint8Array {
+  return tableToIPC(new Table([batch]), 'stream');
+}
+
+/** One of the two ways the crate is run: takes batches (as IPC bytes) in order, then ends the file. */
 interface Encoder {
-  /** Takes a batch (its memory may be reused when this resolves). */
-  batch(batch: RecordBatch): Promise<void>;
+  /** Takes a batch's IPC bytes (the encoder thread takes over their buffer). */
+  batch(ipc: Uint8Array): Promise<void>;
   /** Ends the file; resolves when every byte is written to the sink. */
   end(): Promise<void>;
 }
@@ -150,9 +157,9 @@ async function inThisThread(sink: OutputSink, settings: ParquetSettings): Promis
     if (failure !== undefined) throw failure;
   };
   return {
-    async batch(batch) {
+    async batch(ipc) {
       rethrow();
-      queue.push(tableToIPC(new Table([batch]), 'stream'));
+      queue.push(ipc);
       wakePull?.();
       while (queue.length > 0 && failure === undefined) await new Promise<void>((r) => (wakeWriter = r));
       rethrow();
@@ -237,9 +244,8 @@ function encoderThread(sink: OutputSink, settings: ParquetSettings): Encoder {
     rethrow();
   };
   return {
-    async batch(batch) {
+    async batch(ipc) {
       rethrow();
-      const ipc = tableToIPC(new Table([batch]), 'stream');
       post({ type: 'batch', ipc }, [ipc.buffer as ArrayBuffer]);
       sent++;
       await until(() => sent - taken <= 1);
