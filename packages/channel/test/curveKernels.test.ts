@@ -13,19 +13,12 @@ import { channelInternals } from '../src/internal/makeChannel.js';
 import { convertCallendarVanDusen } from '../src/convert/curveKernels.js';
 import { RejectTally } from '../src/convert/kernel.js';
 import { arm1Ref, cvdTemperature, D, ratioFromCodeRef, X } from './support/reference.js';
+import { kilnPt100 } from './support/kilnChannels.js';
 
 const RAIL_LOW = -(2 ** 23);
 const RAIL_HIGH = 2 ** 23 - 1;
 
-const pt100: ChannelSpec = {
-  name: 'kiln return air',
-  sensor: { kind: 'rtd', r0Ohms: 100 },
-  bridge: { wiring: 'three-wire', ohmsPerLead: 0.4 },
-  excitation: { volts: 1 },
-  amplifier: { gain: 8 },
-  adc: { bits: 24, referenceVolts: 1, ratiometric: true },
-  output: { quantity: 'temperature' },
-};
+const pt100 = kilnPt100;
 const quarterAtGain1: ChannelSpec = {
   name: 'deck girder at gain 1',
   sensor: { kind: 'strain-gauge', gaugeFactor: 2.1, gaugeOhms: 350 },

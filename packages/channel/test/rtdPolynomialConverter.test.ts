@@ -32,20 +32,13 @@ import { rtdPolynomialWasmBytes } from '../src/convert/wasm/rtdPolynomialWasm.js
 import { channelInternals } from '../src/internal/makeChannel.js';
 import { rtdExact, ulp } from './support/doubleDouble.js';
 import { cvdTemperature, X } from './support/reference.js';
+import { kilnPt100 } from './support/kilnChannels.js';
 
 const RAIL_LOW = -(2 ** 23);
 const RAIL_HIGH = 2 ** 23 - 1;
 const heavy = process.env['BRIDGEWORK_HEAVY'] === '1';
 
-const pt100: ChannelSpec = {
-  name: 'kiln return air',
-  sensor: { kind: 'rtd', r0Ohms: 100 },
-  bridge: { wiring: 'three-wire', ohmsPerLead: 0.4 },
-  excitation: { volts: 1 },
-  amplifier: { gain: 8 },
-  adc: { bits: 24, referenceVolts: 1, ratiometric: true },
-  output: { quantity: 'temperature' },
-};
+const pt100 = kilnPt100;
 const inUnit = (unit: '°C' | 'K' | '°F'): ChannelSpec => ({
   ...pt100,
   output: { quantity: 'temperature', unit },
